@@ -1,0 +1,30 @@
+"""Pins and the packing of bars on them."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from rating.model.materials import Material
+
+
+@dataclass(frozen=True)
+class PackingItem:
+    """One plate on the pin, in order from one end of the pin to the other.
+
+    ``member`` is the member whose bar or pin plate this is, or ``None`` for a filler/spacer.
+    ``gap_before_in`` is clear space before this plate (after the previous one).
+    A member's force is shared among its plates on the pin in proportion to their thickness.
+    """
+
+    member: str | None
+    thickness_in: float
+    gap_before_in: float = 0.0
+
+
+@dataclass(frozen=True)
+class Pin:
+    joint: str
+    diameter_in: float
+    packing: tuple[PackingItem, ...]
+    material: Material | None = None
+    where: str = ""

@@ -1,0 +1,157 @@
+"""Member cross-sections as built, by dimensions (inches). No properties computed here.
+
+The capacity layer turns these into areas and radii of gyration after section loss. Parts of a
+built-up member are placed in the member's own cross-section plane: x across the truss plane
+(out of plane), y in the truss plane, origin anywhere (the capacity layer finds the centroid).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from enum import StrEnum
+
+
+class RodEnd(StrEnum):
+    """How a rod's end is made; it decides the area that governs tension (common practice)."""
+
+    UPSET = "upset"  # enlarged before threading: the body governs
+    THREADED = "threaded"  # plain thread cut into the body: the root area governs
+    LOOP = "loop"  # forge-welded eye: body area, forge line flagged
+
+
+class RodShape(StrEnum):
+    ROUND = "round"
+    SQUARE = "square"
+
+
+class ChannelToes(StrEnum):
+    """Direction the flanges of a channel point, in the section's x-y plane."""
+
+    LEFT = "left"
+    RIGHT = "right"
+    UP = "up"
+    DOWN = "down"
+
+
+class ConnectorKind(StrEnum):
+    LACING = "lacing"
+    BATTEN = "batten"
+    SOLID = "solid"  # continuous cover plate / web: parts act as one
+
+
+@dataclass(frozen=True)
+class EyebarSet:
+    """``count`` identical forged eyebars side by side (a chord or main diagonal panel).
+
+    ``head_diameter_in`` is the outside diameter of the forged head; ``pin_hole_diameter_in``
+    the bored hole. ``head_thickness_in`` defaults to the body thickness.
+    """
+
+    count: int
+    width_in: float
+    thickness_in: float
+    head_diameter_in: float
+    pin_hole_diameter_in: float
+    head_thickness_in: float | None = None
+
+
+@dataclass(frozen=True)
+class RodSet:
+    """``count`` rods (hangers, counters, lateral rods). ``root_diameter_in`` for threaded ends."""
+
+    count: int
+    diameter_in: float
+    end: RodEnd = RodEnd.UPSET
+    shape: RodShape = RodShape.ROUND
+    root_diameter_in: float | None = None
+
+
+@dataclass(frozen=True)
+class PlatePart:
+    """A flat plate, centroid at (x_in, y_in). ``width_in`` runs along y when ``vertical``."""
+
+    label: str
+    width_in: float
+    thickness_in: float
+    x_in: float = 0.0
+    y_in: float = 0.0
+    vertical: bool = False
+
+
+@dataclass(frozen=True)
+class ChannelPart:
+    """A channel by dimensions; (x_in, y_in) is the centre of the back of its web."""
+
+    label: str
+    depth_in: float
+    flange_width_in: float
+    web_thickness_in: float
+    flange_thickness_in: float
+    x_in: float = 0.0
+    y_in: float = 0.0
+    toes: ChannelToes = ChannelToes.RIGHT
+
+
+@dataclass(frozen=True)
+class AnglePart:
+    """An angle by dimensions; (x_in, y_in) is the outer heel corner.
+
+    ``leg_x_in`` runs along +x when ``x_sign`` is +1 (along -x when -1); likewise ``leg_y_in``.
+    """
+
+    label: str
+    leg_x_in: float
+    leg_y_in: float
+    thickness_in: float
+    x_in: float = 0.0
+    y_in: float = 0.0
+    x_sign: int = 1
+    y_sign: int = 1
+
+
+Part = PlatePart | ChannelPart | AnglePart
+
+
+@dataclass(frozen=True)
+class Connectors:
+    """How the parts of a built-up compression member are tied together.
+
+    ``spacing_in`` is the distance ``a`` between connector lines (lacing points or battens);
+    ``r_i_in`` the least radius of gyration of one component between them (computed by the
+    capacity layer from the parts when not given).
+    """
+
+    kind: ConnectorKind
+    spacing_in: float | None = None
+    r_i_in: float | None = None
+    snug_tight: bool = True
+
+
+@dataclass(frozen=True)
+class BuiltUpSection:
+    """Plates, channels and angles riveted together (laced or battened posts and chords).
+
+    ``holes_per_section`` rivet holes of ``hole_diameter_in`` are deducted for the net area;
+    ``shear_lag_U`` applies to fracture on the net section.
+    """
+
+    parts: tuple[Part, ...]
+    connectors: Connectors | None = None
+    hole_diameter_in: float = 0.0
+    holes_per_section: int = 0
+    shear_lag_U: float = 1.0
+
+
+@dataclass(frozen=True)
+class RolledShape:
+    """A rolled shape given by its tabulated properties (no part geometry)."""
+
+    designation: str
+    area_in2: float
+    r_x_in: float
+    r_y_in: float
+    net_area_in2: float | None = None
+    shear_lag_U: float = 1.0
+
+
+Section = EyebarSet | RodSet | BuiltUpSection | RolledShape
