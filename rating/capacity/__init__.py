@@ -1,0 +1,1 @@
+"""Member and pin resistances after section loss; every provision cited in its docstring."""

@@ -1,0 +1,84 @@
+"""Command line: parses arguments, calls the pieces, sets exit codes. Nothing else.
+
+Exit codes: 0 success; 1 input problems (listed with Sheet!Cell); 2 usage errors.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from collections.abc import Sequence
+from pathlib import Path
+
+EXIT_OK = 0
+EXIT_INPUT = 1
+EXIT_USAGE = 2
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="pintruss",
+        description=(
+            "Load rating (LRFR) of existing pin-connected truss bridges from an inspection "
+            "workbook. Results are an aid to the licensed engineer in responsible charge, "
+            "not a substitute for that engineer's judgement."
+        ),
+    )
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    t = sub.add_parser("template", help="write a blank inspection workbook to fill in",
+                       description="Write a blank inspection workbook with instructions, "
+                       "dropdown lists and marked example rows.")
+    t.add_argument("path", type=Path, help="where to write the new workbook (.xlsx)")
+    t.add_argument("--force", action="store_true",
+                   help="replace the file if it already exists (never done without this)")
+
+    c = sub.add_parser("check", help="check an inspection workbook without rating it",
+                       description="Validate the workbook: every problem is listed with its "
+                       "Sheet!Cell. Exit 0 when clean, 1 when there are problems.")
+    c.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
+
+    r = sub.add_parser("rate", help="rate a bridge from its inspection workbook",
+                       description="Rate every member for every chosen vehicle and write the "
+                       "rating report (HTML) and the results file (JSON).")
+    r.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
+    r.add_argument("--out", type=Path, default=None,
+                   help="folder for the report and results (default: beside the workbook)")
+    r.add_argument("--json", type=Path, default=None, dest="json_path",
+                   help="write the results file to this path")
+    r.add_argument("--vehicles", default=None,
+                   help="comma-separated vehicle ids to rate (default: the workbook's choice, "
+                   "else the whole library); see 'pintruss vehicles'")
+    r.add_argument("--no-report", action="store_true", help="write the results file only")
+
+    v = sub.add_parser("vehicles", help="list the rating vehicles in the library with sources",
+                       description="List the rating vehicles: id, axle loads, spacings, gross "
+                       "weight and the source of each.")
+    v.add_argument("--json", action="store_true", help="print as JSON")
+
+    b = sub.add_parser("batch", help="rate every workbook in a folder",
+                       description="Rate every workbook in a folder, carrying on past bad ones, "
+                       "and write a summary table (CSV and HTML index).")
+    b.add_argument("folder", type=Path, help="folder holding the inspection workbooks")
+    b.add_argument("--out", type=Path, required=True, help="folder for reports and the summary")
+    b.add_argument("--workers", type=int, default=None, help="processes (default: cores)")
+    return p
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    parser = _parser()
+    try:
+        args = parser.parse_args(argv)
+    except SystemExit as exc:  # argparse exits 2 on usage errors, 0 on --help
+        return int(exc.code or 0)
+    if args.command is None:
+        parser.print_help()
+        return EXIT_USAGE
+    from rating import commands
+
+    handler = getattr(commands, f"run_{args.command}")
+    return int(handler(args))
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())
