@@ -12,7 +12,7 @@ class PintrussError(Exception):
 
 
 class InputError(PintrussError):
-    """A value given by the user cannot be rated; ``where`` names its place (e.g. ``Members!C7``)."""
+    """A value given by the user cannot be rated; ``where`` names its place (``Members!C7``)."""
 
     def __init__(self, message: str, where: str | None = None) -> None:
         self.message = message

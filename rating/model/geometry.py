@@ -45,7 +45,7 @@ class DeckPosition(StrEnum):
 
 @dataclass(frozen=True)
 class Joint:
-    """A pinned panel point. ``label`` uses trade labels (L0..Ln, U1.., M.. for sub-panel points)."""
+    """A pinned panel point; ``label`` is a trade label (L0..Ln, U1.., M.. sub-panel points)."""
 
     label: str
     x_ft: float

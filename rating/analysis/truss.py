@@ -1,0 +1,271 @@
+"""2-D pin-jointed truss by the direct stiffness method; one factorization, many load cases.
+
+Each member is a two-force bar of axial stiffness E*A/L (the classical truss element, e.g.
+McGuire, Gallagher & Ziemian, *Matrix Structural Analysis*, 2nd ed., Ch. 2 — common practice).
+E is taken equal for all members, so forces depend only on the relative areas; for a
+statically determinate truss they do not depend on stiffness at all.
+
+Loads are arrays of shape (n_joints, 2) or (n_joints, 2, n_cases) in kip, in the joint order of
+the geometry, x to the right and y up (gravity is -y). Member forces are kip, tension positive.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
+from functools import cached_property
+
+import numpy as np
+import scipy.linalg as sla
+
+from rating.analysis.influence import InfluenceLines
+from rating.errors import ConvergenceError, InstabilityError
+from rating.model import SupportKind, TrussGeometry
+
+# relative size of the smallest eigenvalue of the scaled stiffness below which the truss is
+# a mechanism; scaled stiffness has unit diagonal so this is scale-free.
+_MECHANISM_TOL = 1e-9
+
+
+@dataclass(frozen=True, eq=False)
+class _Topology:
+    """Member direction cosines, lengths and DOF map of a geometry (shared by active sets)."""
+
+    ends: np.ndarray  # (n_members, 2) joint indices
+    cos: np.ndarray  # (n_members, 2) unit vector start -> end
+    length_ft: np.ndarray
+    area_in2: np.ndarray
+    free_dofs: np.ndarray
+    fixed_dofs: np.ndarray
+
+
+def _topology(g: TrussGeometry) -> _Topology:
+    xy = np.array([(j.x_ft, j.y_ft) for j in g.joints])
+    ends = np.array([(g.joint_index[m.start], g.joint_index[m.end]) for m in g.members])
+    vec = xy[ends[:, 1]] - xy[ends[:, 0]]
+    length = np.hypot(vec[:, 0], vec[:, 1])
+    fixed: list[int] = []
+    for s in g.supports:
+        j = g.joint_index[s.joint]
+        fixed.append(2 * j + 1)
+        if s.kind is SupportKind.PIN:
+            fixed.append(2 * j)
+    fixed_arr = np.array(sorted(fixed), dtype=int)
+    free = np.setdiff1d(np.arange(2 * len(g.joints)), fixed_arr)
+    return _Topology(ends, vec / length[:, None], length,
+                     np.array([m.area_in2 for m in g.members]), free, fixed_arr)
+
+
+def _compatibility(t: _Topology, n_dof: int) -> np.ndarray:
+    """B (n_members, n_dof): member elongation = B @ u."""
+    n_m = t.ends.shape[0]
+    B = np.zeros((n_m, n_dof))
+    rows = np.arange(n_m)
+    for k, sign in ((0, -1.0), (1, 1.0)):
+        j = t.ends[:, k]
+        B[rows, 2 * j] = sign * t.cos[:, 0]
+        B[rows, 2 * j + 1] = sign * t.cos[:, 1]
+    return B
+
+
+@dataclass(frozen=True)
+class TrussSolution:
+    """Results of one or more load cases; trailing axis = load case when several."""
+
+    member_forces_kip: np.ndarray  # (n_members, ...) tension positive
+    reactions_kip: np.ndarray  # (n_joints, 2, ...) zero where not supported
+    displacements: np.ndarray  # (n_joints, 2, ...) in units of kip*ft/(E*in^2), relative
+
+
+class LinearTruss:
+    """A truss with a fixed set of active members, factorized once.
+
+    ``inactive`` members (slack tension-only members) are left out of the stiffness.
+    Raises :class:`InstabilityError` naming a joint and the free direction if the active
+    members do not make a stable truss.
+    """
+
+    def __init__(self, geometry: TrussGeometry, inactive: Iterable[str] = ()) -> None:
+        self.geometry = geometry
+        self.inactive = frozenset(inactive)
+        unknown = self.inactive - set(geometry.member_index)
+        if unknown:
+            raise KeyError(f"unknown members {sorted(unknown)}")
+        self._t = _topology(geometry)
+        n_dof = 2 * len(geometry.joints)
+        self._B = _compatibility(self._t, n_dof)
+        active = np.array([m.label not in self.inactive for m in geometry.members])
+        self.active_mask = active
+        k_axial = np.where(active, self._t.area_in2 / self._t.length_ft, 0.0)
+        self._k_axial = k_axial
+        K = self._B.T @ (k_axial[:, None] * self._B)
+        f = self._t.free_dofs
+        K_ff = K[np.ix_(f, f)]
+        self._check_stability(K_ff)
+        self._chol = sla.cho_factor(K_ff, lower=True, check_finite=False)
+
+    def _free_dof_name(self, dof: int) -> tuple[str, str]:
+        joint = self.geometry.joints[dof // 2].label
+        return joint, "horizontal (x)" if dof % 2 == 0 else "vertical (y)"
+
+    def _check_stability(self, K_ff: np.ndarray) -> None:
+        f = self._t.free_dofs
+        diag = np.diag(K_ff)
+        if np.any(diag <= 0):
+            dof = int(f[np.argmax(diag <= 0)])
+            joint, direction = self._free_dof_name(dof)
+            raise InstabilityError(
+                f"joint {joint} is loose: no member or support restrains it in the "
+                f"{direction} direction", joint, direction)
+        scale = 1.0 / np.sqrt(diag)
+        S = K_ff * scale[:, None] * scale[None, :]
+        w, v = np.linalg.eigh(S)
+        if w[0] < _MECHANISM_TOL * max(w[-1], 1.0):
+            mode = v[:, 0] * scale
+            big = int(np.argmax(np.abs(mode)))
+            joint, _ = self._free_dof_name(int(f[big]))
+            # describe the direction the joint moves in the mechanism
+            jx = np.where(f == 2 * (f[big] // 2))[0]
+            jy = np.where(f == 2 * (f[big] // 2) + 1)[0]
+            ux = mode[jx[0]] if jx.size else 0.0
+            uy = mode[jy[0]] if jy.size else 0.0
+            ang = float(np.degrees(np.arctan2(uy, ux))) % 180.0
+            if ang < 10 or ang > 170:
+                direction = "horizontal (x)"
+            elif 80 < ang < 100:
+                direction = "vertical (y)"
+            else:
+                direction = f"at {ang:.0f} degrees to the horizontal"
+            raise InstabilityError(
+                f"the truss is a mechanism: joint {joint} can move {direction} without "
+                "stretching any member (a missing diagonal or support?)", joint, direction)
+
+    def solve(self, joint_loads_kip: np.ndarray) -> TrussSolution:
+        """Solve for loads of shape (n_joints, 2) or (n_joints, 2, n_cases)."""
+        P = np.asarray(joint_loads_kip, dtype=float)
+        nj = len(self.geometry.joints)
+        single = P.ndim == 2
+        P2 = P.reshape(2 * nj, -1)
+        f = self._t.free_dofs
+        u = np.zeros_like(P2)
+        u[f] = sla.cho_solve(self._chol, P2[f], check_finite=False)
+        elong = self._B @ u
+        N = self._k_axial[:, None] * elong
+        R = self._B.T @ N - P2  # internal nodal forces minus applied = support reactions
+        R[f] = 0.0
+        shape = (nj, 2) if single else (nj, 2, P2.shape[1])
+        N_out = N[:, 0] if single else N
+        return TrussSolution(N_out, R.reshape(shape), u.reshape(shape))
+
+    def elongation(self, displacements: np.ndarray) -> np.ndarray:
+        """Member elongations (all members, active or not) for a displacement field."""
+        nj = len(self.geometry.joints)
+        return self._B @ np.asarray(displacements).reshape(2 * nj, -1)
+
+    @cached_property
+    def influence_lines(self) -> InfluenceLines:
+        """Member forces for a 1-kip downward load at each deck panel point (all at once)."""
+        g = self.geometry
+        nj = len(g.joints)
+        P = np.zeros((nj, 2, len(g.deck_joints)))
+        for k, label in enumerate(g.deck_joints):
+            P[g.joint_index[label], 1, k] = -1.0
+        sol = self.solve(P)
+        return InfluenceLines(
+            member_labels=tuple(m.label for m in g.members),
+            stations_ft=np.array(g.deck_stations_ft, dtype=float),
+            ordinates=sol.member_forces_kip,
+        )
+
+
+def influence_lines(geometry: TrussGeometry, inactive: Iterable[str] = ()) -> InfluenceLines:
+    """Influence lines of every member for the given set of slack (inactive) members."""
+    return LinearTruss(geometry, inactive).influence_lines
+
+
+def joint_load_array(geometry: TrussGeometry, loads: Mapping[str, tuple[float, float]]
+                     ) -> np.ndarray:
+    """(n_joints, 2) array from {joint label: (Fx, Fy) kip}; unknown labels are an error."""
+    P = np.zeros((len(geometry.joints), 2))
+    for label, (fx, fy) in loads.items():
+        P[geometry.joint_index[label]] = (fx, fy)
+    return P
+
+
+@dataclass(frozen=True)
+class ActiveSetSolution:
+    """Tension-only analysis of one load state.
+
+    ``slack``: tension-only members found slack (carry nothing). ``forced_compression``:
+    tension-only members that would have to carry compression because without them the truss
+    is a mechanism; their (compressive) force is reported, never hidden.
+    """
+
+    solution: TrussSolution
+    slack: frozenset[str]
+    forced_compression: frozenset[str]
+    iterations: int
+
+
+def solve_tension_only(
+    geometry: TrussGeometry,
+    joint_loads_kip: np.ndarray,
+    initial_slack: Iterable[str] = (),
+    max_iterations: int = 50,
+    tol_kip: float = 1e-9,
+) -> ActiveSetSolution:
+    """Active-set solution for a truss with tension-only members under one load state.
+
+    Method (documented in docs/tension-only.md): start from ``initial_slack``; solve the
+    linear truss of the active members; then (a) a tension-only member in compression is made
+    slack, the most compressed first if releasing all at once would make a mechanism, and (b) a
+    slack member whose ends move apart (it would be stretched) is made active again. Repeat
+    until no member changes. A member whose release would make a mechanism stays active and is
+    reported in ``forced_compression``. Cycling or no convergence within ``max_iterations``
+    raises :class:`ConvergenceError`.
+    """
+    P = np.asarray(joint_loads_kip, dtype=float)
+    t_only = {m.label for m in geometry.members if m.tension_only}
+    slack = frozenset(initial_slack) & t_only
+    forced: set[str] = set()
+    seen: set[frozenset[str]] = set()
+    labels = [m.label for m in geometry.members]
+    scale = max(float(np.abs(P).max()), 1.0) * tol_kip
+    for it in range(1, max_iterations + 1):
+        seen.add(slack)
+        lt = LinearTruss(geometry, slack)
+        sol = lt.solve(P)
+        N = sol.member_forces_kip
+        el = lt.elongation(sol.displacements)[:, 0]
+        compressed = [labels[i] for i in range(len(labels))
+                      if labels[i] in t_only and labels[i] not in slack
+                      and labels[i] not in forced and N[i] < -scale]
+        stretched = {labels[i] for i in range(len(labels))
+                     if labels[i] in slack and el[i] > 1e-12 * max(np.abs(el).max(), 1e-30)}
+        if not compressed and not stretched:
+            return ActiveSetSolution(sol, slack, frozenset(forced), it)
+        new = (slack - stretched) | set(compressed)
+        try:
+            LinearTruss(geometry, new)
+        except InstabilityError:
+            # release only the most compressed member (by stress) if that is stable
+            idx = {lab: i for i, lab in enumerate(labels)}
+            ordered = sorted(compressed, key=lambda lab: N[idx[lab]] / geometry.member(lab)
+                             .area_in2)
+            new = slack - stretched
+            for lab in ordered:
+                try:
+                    LinearTruss(geometry, new | {lab})
+                except InstabilityError:
+                    forced.add(lab)
+                    continue
+                new = new | {lab}
+                break
+        new = frozenset(new)
+        if new in seen and new != slack:
+            raise ConvergenceError(
+                "the tension-only (counter) analysis cycles between active sets "
+                f"{sorted(slack)} and {sorted(new)}; check the counters and mains of this panel")
+        slack = new
+    raise ConvergenceError(
+        f"the tension-only (counter) analysis did not settle in {max_iterations} iterations")
