@@ -121,14 +121,33 @@ class LinearTruss:
         S = K_ff * scale[:, None] * scale[None, :]
         w, v = np.linalg.eigh(S)
         if w[0] < _MECHANISM_TOL * max(w[-1], 1.0):
-            mode = v[:, 0] * scale
-            big = int(np.argmax(np.abs(mode)))
-            joint, _ = self._free_dof_name(int(f[big]))
-            # describe the direction the joint moves in the mechanism
-            jx = np.where(f == 2 * (f[big] // 2))[0]
-            jy = np.where(f == 2 * (f[big] // 2) + 1)[0]
-            ux = mode[jx[0]] if jx.size else 0.0
-            uy = mode[jy[0]] if jy.size else 0.0
+            mode = np.zeros(2 * len(self.geometry.joints))
+            mode[f] = v[:, 0] * scale
+            self._raise_mechanism(mode)
+
+    def _raise_mechanism(self, mode: np.ndarray) -> None:
+        """Name the joint where the mechanism hinges: the joint whose members turn by the most
+        different amounts in the mechanism mode (inside a rigid part all members turn alike)."""
+        t = self._t
+        u = mode.reshape(-1, 2)
+        rel = u[t.ends[:, 1]] - u[t.ends[:, 0]]
+        omega = (rel[:, 1] * t.cos[:, 0] - rel[:, 0] * t.cos[:, 1]) / t.length_ft
+        omega = np.where(self.active_mask, omega, np.nan)
+        nj = len(self.geometry.joints)
+        hi = np.full(nj, -np.inf)
+        lo = np.full(nj, np.inf)
+        for k in (0, 1):
+            np.fmax.at(hi, t.ends[:, k], omega)
+            np.fmin.at(lo, t.ends[:, k], omega)
+        spread = np.where(np.isfinite(hi - lo), hi - lo, 0.0)
+        j = int(np.argmax(spread)) if spread.max() > 0 else int(
+            np.argmax(np.hypot(u[:, 0], u[:, 1])))
+        joint = self.geometry.joints[j].label
+        ux, uy = u[j]
+        if np.hypot(ux, uy) < 1e-6 * np.abs(u).max():
+            direction = "rotation of its members"
+            what = f"the members at joint {joint} can turn about it"
+        else:
             ang = float(np.degrees(np.arctan2(uy, ux))) % 180.0
             if ang < 10 or ang > 170:
                 direction = "horizontal (x)"
@@ -136,9 +155,10 @@ class LinearTruss:
                 direction = "vertical (y)"
             else:
                 direction = f"at {ang:.0f} degrees to the horizontal"
-            raise InstabilityError(
-                f"the truss is a mechanism: joint {joint} can move {direction} without "
-                "stretching any member (a missing diagonal or support?)", joint, direction)
+            what = f"joint {joint} can move {direction}"
+        raise InstabilityError(
+            f"the truss is a mechanism: {what} without stretching any member "
+            "(a missing diagonal, member or support?)", joint, direction)
 
     def solve(self, joint_loads_kip: np.ndarray) -> TrussSolution:
         """Solve for loads of shape (n_joints, 2) or (n_joints, 2, n_cases)."""

@@ -290,6 +290,9 @@ def _double_intersection(d: _Draft, n: int, p: float, h: list[float],
     for i in range(1, n):
         role = MemberRole.HANGER if i in (1, n - 1) else MemberRole.VERTICAL
         d.member(f"L{i}", f"U{i}", role)
+    # the end panels next to the end posts get a single-panel diagonal to brace them
+    d.member("U1", "L2", MemberRole.DIAGONAL)
+    d.member(f"L{n - 2}", f"U{n - 1}", MemberRole.DIAGONAL)
     for i in range(1, n - 2):  # diagonals spanning two panels, i -> i+2
         mid2 = 2 * i + 2
         if mid2 <= n:
