@@ -1,0 +1,1 @@
+"""LRFR: load factors, dynamic load allowance, rating factors, posting."""

@@ -1,0 +1,60 @@
+"""The LRFR rating equation for one member, one sense, one live-load effect."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from rating.lrfr.factors import Factor
+
+
+@dataclass(frozen=True)
+class SenseLoads:
+    """Forces in the sense being rated, positive when they act in that sense (kip).
+
+    For a tension check these are the tension components; for a compression check the
+    compressive ones (compression taken positive).
+    """
+
+    DC: float
+    DW: float
+    LL_IM: float  # factored later by gamma_LL; includes IM on axles, lane without IM
+    P: float = 0.0
+
+
+@dataclass(frozen=True)
+class RatingFactorResult:
+    rf: float
+    gamma_dc: float
+    gamma_dw: float
+    gamma_ll: float
+    capacity_kip: float
+    factored_dead_kip: float
+
+
+def rating_factor(C: float, loads: SenseLoads, gamma_ll: float,
+                  dead: dict[str, Factor], gamma_p: float = 0.0) -> RatingFactorResult:
+    """RF = (C - gDC*DC - gDW*DW +/- gP*P) / (gLL*(LL + IM)).
+
+    MBE 6A.4.2.1, Eq. 6A.4.2.1-1 [value from memory; terms as Khan 2010, p. 187, read].
+    A dead load that adds to the effect takes the maximum factor; one that relieves it the
+    minimum (AASHTO LRFD 3.4.1, Table 3.4.1-2 [V]). A live effect of zero in this sense gives
+    RF = +inf (the vehicle does not load the member this way).
+    """
+    g_dc = dead["gamma_dc_max"].value if loads.DC > 0 else dead["gamma_dc_min"].value
+    g_dw = dead["gamma_dw_max"].value if loads.DW > 0 else dead["gamma_dw_min"].value
+    factored_dead = g_dc * loads.DC + g_dw * loads.DW - gamma_p * loads.P
+    if loads.LL_IM <= 0.0:
+        rf = math.inf
+    else:
+        rf = (C - factored_dead) / (gamma_ll * loads.LL_IM)
+    return RatingFactorResult(rf, g_dc, g_dw, gamma_ll, C, factored_dead)
+
+
+def factored_capacity(phi_c: float, phi_s: float, phi: float, R_n: float,
+                      floor: float = 0.85) -> float:
+    """C = phi_c * phi_s * phi * R_n with phi_c * phi_s >= 0.85.
+
+    MBE 6A.4.2.1, Eq. 6A.4.2.1-2 and -3 [Khan 2010, p. 187, read].
+    """
+    return max(phi_c * phi_s, floor) * phi * R_n

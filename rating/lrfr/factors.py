@@ -1,0 +1,131 @@
+"""Load factors and dynamic load allowance for LRFR, as data with sources.
+
+Every factor returned is a :class:`Factor` carrying its value, source and how sure we are of
+it, so the results and the report can list it.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass
+from enum import StrEnum
+from functools import lru_cache
+from importlib import resources
+
+import numpy as np
+
+from rating.errors import InputError
+from rating.model import RidingSurface, VehicleCategory
+
+
+class RatingLevel(StrEnum):
+    INVENTORY = "inventory"
+    OPERATING = "operating"
+    LEGAL = "legal"
+
+
+@dataclass(frozen=True)
+class Factor:
+    symbol: str
+    value: float
+    source: str
+    tag: str
+
+    def describe(self) -> str:
+        return f"{self.symbol} = {self.value:g}: {self.source} ({self.tag})"
+
+
+@lru_cache(maxsize=1)
+def provisions() -> dict:
+    return json.loads(resources.files("rating.lrfr").joinpath("provisions.json").read_text())
+
+
+def provision_set_names() -> tuple[str, ...]:
+    return tuple(provisions()["legal_sets"])
+
+
+def dead_load_factors(wearing_surface_measured: bool = False) -> dict[str, Factor]:
+    """Maximum and minimum dead-load factors.
+
+    AASHTO LRFD Table 3.4.1-2 [V]; gamma_DW = 1.25 when measured, MBE 6A.4.2.2 [value from memory].
+    """
+    d = provisions()["dead_load"]
+    src, tag = d["source"], d["tag"]
+    out = {
+        "gamma_dc_max": Factor("gamma_DC (max)", d["gamma_DC_max"], src, tag),
+        "gamma_dc_min": Factor("gamma_DC (min)", d["gamma_DC_min"], src, tag),
+        "gamma_dw_max": Factor("gamma_DW (max)", d["gamma_DW_max"], src, tag),
+        "gamma_dw_min": Factor("gamma_DW (min)", d["gamma_DW_min"], src, tag),
+    }
+    if wearing_surface_measured:
+        out["gamma_dw_max"] = Factor("gamma_DW (max, thickness measured)",
+                                     d["gamma_DW_measured"], d["measured_source"],
+                                     d["measured_tag"])
+    return out
+
+
+def legal_live_load_factor(adtt_one_direction: float | None,
+                           provision_set: str = "MBE 2018") -> Factor:
+    """Generalized live load factor for legal loads by ADTT, linear between the tabulated ADTT.
+
+    MBE Table 6A.4.4.2.3a-1 (edition chosen by ``provision_set``). [value from memory]
+    """
+    sets = provisions()["legal_sets"]
+    if provision_set not in sets:
+        raise InputError(f"unknown provision set {provision_set!r}; known: "
+                         + ", ".join(sets))
+    s = sets[provision_set]
+    if adtt_one_direction is None:
+        return Factor("gamma_LL", s["unknown"], s["source"] + "; ADTT unknown",
+                      s["tag"])
+    if adtt_one_direction < 0:
+        raise InputError(f"ADTT {adtt_one_direction} cannot be negative")
+    x, y = zip(*s["points"], strict=True)
+    value = float(np.interp(adtt_one_direction, x, y))
+    return Factor("gamma_LL", round(value, 4),
+                  f"{s['source']}; ADTT = {adtt_one_direction:g}", s["tag"])
+
+
+def live_load_factor(category: VehicleCategory, level: RatingLevel,
+                     adtt_one_direction: float | None = None,
+                     provision_set: str = "MBE 2018",
+                     override: float | None = None) -> Factor:
+    """Live load factor gamma_LL for a vehicle category and rating level.
+
+    Design load: AASHTO LRFD Table 3.4.1-1 Strength I (inventory) [V]; MBE Table 6A.4.2.2-1
+    (operating) [value from memory]. Legal, specialized hauling and owner vehicles: the legal
+    load factors [value from memory]. Emergency vehicles: MBE 6A.4.4.2.3 [value from memory].
+    """
+    if override is not None:
+        if not 0.5 <= override <= 3.0:
+            raise InputError(f"live load factor override {override} is outside 0.5..3.0")
+        return Factor("gamma_LL", override, "owner override", "owner's value")
+    p = provisions()
+    if category is VehicleCategory.DESIGN:
+        d = p["design"]
+        key = "inventory" if level is RatingLevel.INVENTORY else "operating"
+        return Factor("gamma_LL", d[key], d[f"{key}_source"], d[f"{key}_tag"])
+    if category is VehicleCategory.EMERGENCY:
+        e = p["emergency"]
+        return Factor("gamma_LL", e["gamma_LL"], e["source"], e["tag"])
+    return legal_live_load_factor(adtt_one_direction, provision_set)
+
+
+def dynamic_load_allowance(category: VehicleCategory,
+                           riding_surface: RidingSurface | None = None,
+                           override: float | None = None) -> Factor:
+    """IM on axle loads (never on lane loads).
+
+    AASHTO LRFD 3.6.2.1 (33%) [value from memory]; reduced legal-load IM by riding surface,
+    MBE C6A.4.4.3 [value from memory].
+    """
+    if override is not None:
+        if not 0.0 <= override <= 1.0:
+            raise InputError(f"dynamic load allowance override {override} is outside 0..1")
+        return Factor("IM", override, "owner override", "owner's value")
+    im = provisions()["impact"]
+    if category is not VehicleCategory.DESIGN and riding_surface is not None:
+        return Factor("IM", im["reduced"][riding_surface.value],
+                      f"{im['reduced_source']}; riding surface: {riding_surface.value}",
+                      im["reduced_tag"])
+    return Factor("IM", im["IM"], im["source"], im["tag"])

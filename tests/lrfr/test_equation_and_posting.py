@@ -1,0 +1,93 @@
+"""The rating equation term by term, the posting equation and the load-factor tables.
+
+Sources: rating equation and posting equation as in Khan, *Bridge and Highway Structure
+Rehabilitation and Repair*, McGraw-Hill 2010, p. 187 [read]; dead-load factors AASHTO LRFD
+Table 3.4.1-2 [read]; legal-load factors by ADTT: MBE Table 6A.4.4.2.3a-1 [value from memory].
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from rating.errors import InputError
+from rating.lrfr.equation import SenseLoads, factored_capacity, rating_factor
+from rating.lrfr.factors import (
+    RatingLevel,
+    dead_load_factors,
+    dynamic_load_allowance,
+    legal_live_load_factor,
+    live_load_factor,
+)
+from rating.lrfr.posting import PostingAction, posting, safe_posting_load
+from rating.model import RidingSurface, VehicleCategory
+
+DEAD = dead_load_factors()
+
+
+def test_equation_hand_case_dead_load_adds():
+    # C = 400 kip, DC = 100, DW = 20, LL+IM = 80, gamma_LL = 1.75 (inventory)
+    # RF = (400 - 1.25*100 - 1.50*20) / (1.75*80) = 245 / 140 = 1.75
+    r = rating_factor(400.0, SenseLoads(100.0, 20.0, 80.0), 1.75, DEAD)
+    assert r.rf == pytest.approx(1.75)
+    assert (r.gamma_dc, r.gamma_dw) == (1.25, 1.50)
+
+
+def test_equation_dead_load_relieving_takes_minimum_factor():
+    # dead load acts against the sense: DC = -50, DW = -10 -> 0.90 and 0.65 (Table 3.4.1-2)
+    # RF = (100 + 0.90*50 + 0.65*10) / (1.30*60) = 151.5 / 78
+    r = rating_factor(100.0, SenseLoads(-50.0, -10.0, 60.0), 1.30, DEAD)
+    assert r.rf == pytest.approx(151.5 / 78.0)
+    assert (r.gamma_dc, r.gamma_dw) == (0.90, 0.65)
+
+
+def test_no_live_load_in_this_sense():
+    assert math.isinf(rating_factor(100.0, SenseLoads(10.0, 0.0, 0.0), 1.75, DEAD).rf)
+
+
+def test_capacity_floor_on_condition_times_system_factor():
+    # phi_c * phi_s = 0.85 * 0.85 = 0.7225 is raised to 0.85 (Khan 2010 p. 187)
+    assert factored_capacity(0.85, 0.85, 0.95, 100.0) == pytest.approx(0.85 * 0.95 * 100.0)
+    assert factored_capacity(1.0, 0.9, 0.95, 100.0) == pytest.approx(0.9 * 0.95 * 100.0)
+
+
+def test_posting_equation_khan_p187():
+    # (W / 0.7)(RF - 0.3): W = 40 t, RF = 0.65 -> 20.0 t
+    assert safe_posting_load(0.65, 40.0) == pytest.approx(20.0)
+    p = posting(0.62, 40.0)
+    assert p.action is PostingAction.POST
+    assert p.posting_tons == math.floor(40 / 0.7 * 0.32)  # 18.28 -> 18 (rounded down)
+    assert p.rating_tons == pytest.approx(24.8)
+    assert posting(1.0, 40.0).action is PostingAction.NONE
+    assert posting(0.29, 40.0).action is PostingAction.CLOSE
+    assert posting(0.30, 40.0).posting_tons == 0.0
+
+
+def test_legal_factors_by_adtt_interpolated():
+    # value from memory: MBE 2011: 100 -> 1.40, 1000 -> 1.65, 5000 -> 1.80
+    assert legal_live_load_factor(100, "MBE 2011").value == pytest.approx(1.40)
+    assert legal_live_load_factor(550, "MBE 2011").value == pytest.approx(1.525)
+    assert legal_live_load_factor(3000, "MBE 2011").value == pytest.approx(1.725)
+    assert legal_live_load_factor(50, "MBE 2011").value == pytest.approx(1.40)
+    assert legal_live_load_factor(None, "MBE 2011").value == pytest.approx(1.80)
+    # value from memory: MBE 2018: <= 1000 -> 1.30, >= 5000 -> 1.45, unknown 1.45
+    assert legal_live_load_factor(3000).value == pytest.approx(1.375)
+    assert legal_live_load_factor(200).value == pytest.approx(1.30)
+    assert legal_live_load_factor(None).value == pytest.approx(1.45)
+    with pytest.raises(InputError, match="provision set"):
+        legal_live_load_factor(100, "MBE 1900")
+
+
+def test_design_emergency_and_im():
+    d = VehicleCategory.DESIGN
+    assert live_load_factor(d, RatingLevel.INVENTORY).value == 1.75  # LRFD Strength I [read]
+    assert live_load_factor(d, RatingLevel.OPERATING).value == 1.35  # value from memory
+    assert live_load_factor(VehicleCategory.EMERGENCY, RatingLevel.LEGAL).value == 1.30
+    assert live_load_factor(VehicleCategory.LEGAL, RatingLevel.LEGAL, override=1.6).value == 1.6
+    assert dynamic_load_allowance(d).value == 0.33
+    # design load keeps 33% whatever the riding surface; legal loads may reduce it
+    assert dynamic_load_allowance(d, RidingSurface.SMOOTH).value == 0.33
+    assert dynamic_load_allowance(VehicleCategory.LEGAL, RidingSurface.SMOOTH).value == 0.10
+    assert dynamic_load_allowance(VehicleCategory.LEGAL, RidingSurface.MINOR).value == 0.20
+    assert dead_load_factors(wearing_surface_measured=True)["gamma_dw_max"].value == 1.25
