@@ -1,0 +1,315 @@
+"""ONE results object for a rating; the JSON file and the report are views of it.
+
+Values are held in the core units (kip, ft, in, in^2, ksi, tons). Each numeric field carries
+metadata: its label, its dimension (for unit conversion at the edge) and, where one applies,
+the provision; the JSON view converts to the bridge's declared unit system from that metadata.
+Tension positive. Schema: docs/results-schema.md.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import json
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any
+
+from rating.units import from_core
+
+SCHEMA_VERSION = "1.0"
+
+# dimension -> (US unit, SI unit)
+DISPLAY_UNITS: dict[str, tuple[str, str]] = {
+    "force": ("kip", "kN"),
+    "length": ("ft", "m"),
+    "dimension": ("in", "mm"),
+    "area": ("in2", "mm2"),
+    "stress": ("ksi", "MPa"),
+    "weight": ("ton", "tonne"),
+    "line load": ("klf", "kN/m"),
+}
+
+
+def q(label: str, dimension: str | None = None, provision: str = "", **kw: Any) -> Any:
+    """A field with its label, dimension and provision as metadata."""
+    return field(metadata={"label": label, "dimension": dimension, "provision": provision}, **kw)
+
+
+@dataclass(frozen=True)
+class Position:
+    """Where the vehicle stands for a critical effect."""
+
+    front_axle_station: float = q("front axle station", "length")
+    direction: str = q("direction of travel")  # "forward" (toward +x) or "reverse"
+    spacings: tuple[float, ...] = q("axle spacings used", "length", default=())
+    axle_stations: tuple[float, ...] = q("axle stations", "length", default=())
+    axle_loads: tuple[float, ...] = q("axle loads", "force", default=())
+    load_model: str = q("load model", default="")
+    lane_segments: tuple[tuple[float, float], ...] = q("lane load segments", "length",
+                                                      default=())
+
+
+@dataclass(frozen=True)
+class LiveLoadEffect:
+    """Live-load axial force in one truss for one vehicle, after lateral distribution and
+    multiple presence. ``max``/``min`` before IM; ``*_with_im`` with IM on axles only."""
+
+    max: float = q("maximum live-load force", "force")
+    min: float = q("minimum live-load force", "force")
+    max_with_im: float = q("maximum LL+IM", "force")
+    min_with_im: float = q("minimum LL+IM", "force")
+    distribution_factor: float = q("distribution factor (lanes to one truss)")
+    im: float = q("dynamic load allowance", provision="AASHTO LRFD 3.6.2.1")
+    max_position: Position | None = None
+    min_position: Position | None = None
+
+
+@dataclass(frozen=True)
+class SectionSummary:
+    """The governing section after section loss."""
+
+    A_g: float = q("gross area", "area")
+    A_n: float = q("net area", "area")
+    F_y: float = q("yield strength", "stress")
+    F_u: float = q("tensile strength", "stress")
+    length: float = q("member length", "length")
+    K: float | None = q("effective length factor", provision="AASHTO LRFD 4.6.2.5")
+    KL_r: float | None = q("slenderness KL/r used")
+    E: float = q("modulus of elasticity", "stress")
+
+
+@dataclass(frozen=True)
+class CheckSummary:
+    name: str
+    sense: str  # "tension" | "compression"
+    phi: float
+    R_n: float = q("nominal resistance", "force")
+    factored: float = q("factored resistance phi_c phi_s phi R_n", "force")
+    provision: str = ""
+    location: str = ""
+    finding: str = ""
+
+
+@dataclass(frozen=True)
+class Resistance:
+    """Governing factored resistances phi_c * phi_s * phi * R_n (None: not applicable)."""
+
+    tension: float | None = q("factored tension resistance", "force")
+    compression: float | None = q("factored compression resistance", "force")
+    checks: tuple[CheckSummary, ...] = ()
+
+
+@dataclass(frozen=True)
+class Factors:
+    gamma_dc: float
+    gamma_dw: float
+    gamma_ll: float
+    im: float
+    phi: float
+    phi_c: float
+    phi_s: float
+
+
+@dataclass(frozen=True)
+class Rating:
+    """The controlling rating of a member (or pin) for one vehicle."""
+
+    rf: float = q("rating factor", provision="MBE 6A.4.2.1")
+    sense: str = ""  # "tension" | "compression" | "pin"
+    check: str = ""
+    factors: Factors | None = None
+    method: str = "linear"  # "linear" | "load multiplier" (tension-only / pins)
+    position: Position | None = None
+    finding: str = ""
+
+
+@dataclass(frozen=True)
+class MemberResult:
+    id: str
+    role: str
+    joints: tuple[str, str]
+    tension_only: bool
+    dead_load: Mapping[str, float] = q("dead-load force (DC, DW)", "force")
+    live_load: Mapping[str, LiveLoadEffect] = field(default_factory=dict)
+    section: SectionSummary | None = None
+    resistance: Resistance | None = None
+    ratings: Mapping[str, Rating] = field(default_factory=dict)
+    warnings: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class PackingRow:
+    member: str | None
+    thickness: float = q("plate thickness", "dimension")
+    gap_before: float = q("gap before", "dimension")
+
+
+@dataclass(frozen=True)
+class PinResult:
+    joint: str
+    diameter: float = q("pin diameter", "dimension")
+    packing: tuple[PackingRow, ...] = ()
+    governing_section: str = ""
+    ratings: Mapping[str, Rating] = field(default_factory=dict)
+    warnings: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class JointResult:
+    id: str
+    x: float = q("x", "length")
+    y: float = q("y", "length")
+    deck: bool = False
+    support: str | None = None
+
+
+@dataclass(frozen=True)
+class VehicleResult:
+    id: str
+    name: str
+    category: str
+    gross_weight: float = q("gross weight", "weight")
+    axle_loads: tuple[float, ...] = q("axle loads", "force")
+    spacings: tuple[tuple[float, float], ...] = q("axle spacings (min, max)", "length")
+    lane_load: float = q("lane load", "line load", default=0.0)
+    source: str = ""
+    tag: str = ""
+    rating_level: str = ""  # inventory / operating / legal
+    gamma_ll: float = 0.0
+    im: float = 0.0
+
+
+@dataclass(frozen=True)
+class PostingResultEntry:
+    rf: float = q("controlling rating factor")
+    rating_tons: float = q("rating in tons RT = RF x W", "weight")
+    posting_tons: float | None = q("safe posting load", "weight",
+                                   provision="MBE 6A.8.3, Eq. 6A.8.3-1")
+    member: str = ""
+    action: str = "none"  # "none" | "post" | "close"
+    note: str = ""
+
+
+@dataclass(frozen=True)
+class FindingEcho:
+    member: str
+    component: str
+    region: str
+    station: float | None = q("station along member", "length")
+    remaining_thickness: float | None = q("remaining thickness", "dimension")
+    percent_loss: float | None = None
+    bar_state: str = "sound"
+    condition_rating: int | None = None
+    photo: str = ""
+    note: str = ""
+    where: str = ""
+
+
+@dataclass(frozen=True)
+class InfluenceLineData:
+    member: str
+    stations: tuple[float, ...] = q("stations", "length")
+    ordinates: tuple[float, ...] = q("force per unit load")
+
+
+@dataclass(frozen=True)
+class BridgeSummary:
+    id: str
+    name: str
+    span: float = q("span", "length")
+    location: str = ""
+    owner: str = ""
+    year_built: int | None = None
+    inspection_date: str | None = None
+    inspector: str = ""
+    form: str = ""
+    deck_position: str = ""
+    panel_count: int = 0
+    truss_spacing: float = q("truss spacing", "length", default=0.0)
+    roadway_width: float = q("roadway width", "length", default=0.0)
+    source_file: str = ""
+
+
+@dataclass(frozen=True)
+class RatingResults:
+    schema_version: str
+    bridge: BridgeSummary
+    units: Mapping[str, str]
+    method: str
+    provision_set: str
+    joints: tuple[JointResult, ...]
+    vehicles: tuple[VehicleResult, ...]
+    members: tuple[MemberResult, ...]
+    pins: tuple[PinResult, ...]
+    posting: Mapping[str, PostingResultEntry]
+    recommendation: str
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+    findings: tuple[FindingEcho, ...] = ()
+    influence_lines: tuple[InfluenceLineData, ...] = ()
+    distribution: Mapping[str, Any] = field(default_factory=dict)
+    generator: str = ""
+
+    def member(self, member_id: str) -> MemberResult:
+        for m in self.members:
+            if m.id == member_id:
+                return m
+        raise KeyError(member_id)
+
+
+# ------------------------------------------------------------------ JSON view
+
+def _convert(value: Any, dimension: str | None, system: str) -> Any:
+    if value is None or dimension is None or system == "US":
+        return value
+    us, si = DISPLAY_UNITS[dimension]
+    if isinstance(value, int | float):
+        return from_core(float(value), si) if math.isfinite(value) else value
+    if isinstance(value, tuple | list):
+        return type(value)(_convert(v, dimension, system) for v in value)
+    if isinstance(value, Mapping):
+        return {k: _convert(v, dimension, system) for k, v in value.items()}
+    return value
+
+
+def _number(x: float) -> float | str | None:
+    """JSON has no infinity: an unbounded RF is written as the string "inf"."""
+    if isinstance(x, bool):
+        return x
+    if isinstance(x, float):
+        if math.isinf(x):
+            return "inf" if x > 0 else "-inf"
+        if math.isnan(x):
+            return None
+        return round(x, 6) + 0.0
+    return x
+
+
+def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:
+    """Plain JSON-ready data from the results objects, converted to ``system`` units."""
+    if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
+        out = {}
+        for f in dataclasses.fields(obj):
+            dim = f.metadata.get("dimension") if f.metadata else None
+            out[f.name] = to_plain(getattr(obj, f.name), system, dim)
+        return out
+    if isinstance(obj, Mapping):
+        return {str(k): to_plain(v, system, dimension) for k, v in obj.items()}
+    if isinstance(obj, tuple | list):
+        return [to_plain(v, system, dimension) for v in obj]
+    if isinstance(obj, int | float) and not isinstance(obj, bool):
+        return _number(_convert(obj, dimension, system))
+    return obj
+
+
+def results_json(results: RatingResults) -> str:
+    """Deterministic JSON text: same results, byte-identical file."""
+    system = "SI" if results.units.get("force") == "kN" else "US"
+    return json.dumps(to_plain(results, system), indent=2, sort_keys=False,
+                      ensure_ascii=False) + "\n"
+
+
+def units_block(system: str) -> dict[str, str]:
+    k = 1 if system == "SI" else 0
+    return {name: pair[k] for name, pair in DISPLAY_UNITS.items()}
