@@ -45,6 +45,8 @@ class EyebarSet:
 
     ``head_diameter_in`` is the outside diameter of the forged head; ``pin_hole_diameter_in``
     the bored hole. ``head_thickness_in`` defaults to the body thickness.
+    ``head_beyond_hole_in`` is the measured distance from the edge of the hole to the end of
+    the head along the bar; None takes the head as concentric with the hole, (D_h - d)/2.
     """
 
     count: int
@@ -53,6 +55,7 @@ class EyebarSet:
     head_diameter_in: float
     pin_hole_diameter_in: float
     head_thickness_in: float | None = None
+    head_beyond_hole_in: float | None = None
 
 
 @dataclass(frozen=True)

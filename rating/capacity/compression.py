@@ -1,0 +1,233 @@
+"""Compressive resistance of truss members after section loss.
+
+Pure provision functions first (vectorised over numpy arrays; kip, in^2, ksi), then
+``compression_checks`` which evaluates them at every location of a ``SectionReport``.
+Effect of the width-thickness check: slender UNSTIFFENED elements (channel flanges, angle
+legs) reduce the resistance through a factor Q = Q_s on the squash load; slender STIFFENED
+elements (webs, plates) only raise a warning, their effective-width factor Q_a is not computed.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from rating.capacity.checks import Check, Sense
+from rating.capacity.sections import SectionAtLocation, SectionReport
+from rating.capacity.tension import SECONDARY_ROLES
+from rating.model import ConnectorKind, Connectors, Material, MemberRole
+
+PHI_C = 0.95
+"""Resistance factor for axial compression, AASHTO LRFD 6.5.4.2. [value from memory]"""
+K_PINNED = 0.875
+"""K, truss member with pinned ends, AASHTO LRFD 4.6.2.5. [value from memory]"""
+K_RIVETED = 0.75
+"""Effective length factor, truss member with riveted (bolted/welded) ends, AASHTO LRFD 4.6.2.5.
+[value from memory]"""
+
+K_UNSTIFFENED = 0.56
+"""b/t limit coefficient, flanges and outstanding legs, LRFD Table 6.9.4.2-1. [value from memory]"""
+K_UNSTIFFENED_SLENDER = 1.03
+"""Upper coefficient of the Q_s transition, AISC 360-10 E7.1(a). [value from memory]"""
+K_PLATE = 1.40
+"""b/t limit coefficient, cover plates between lines of connectors, AASHTO LRFD Table 6.9.4.2-1.
+[value from memory]"""
+K_WEB = 1.49
+"""b/t limit coefficient, webs supported on two edges, LRFD Table 6.9.4.2-1. [value from memory]"""
+
+
+def nominal_compressive_resistance(A_g, F_y, E, KL_r, Q=1.0):
+    """Nominal compressive resistance P_n of a member, kip (vectorised).
+
+    AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 (P_o = Q F_y A_g). [value from memory]
+
+    Args:
+        A_g: gross area, in^2. F_y, E: ksi. KL_r: effective slenderness (dimensionless).
+        Q: slender-element reduction factor (1.0 for nonslender elements).
+    """
+    A_g = np.asarray(A_g, dtype=float)
+    KL_r = np.asarray(KL_r, dtype=float)
+    P_o = np.asarray(Q, dtype=float) * F_y * A_g
+    with np.errstate(divide="ignore", invalid="ignore"):
+        P_e = np.where(KL_r > 0, math.pi**2 * E * A_g / np.where(KL_r > 0, KL_r, 1.0) ** 2,
+                       np.inf)
+        ratio = np.where(P_e > 0, P_o / P_e, np.inf)
+        P_n = np.where(ratio <= 1.0 / 0.44, 0.658**ratio * P_o, 0.877 * P_e)
+    P_n = np.where(A_g > 0, P_n, 0.0)
+    return P_n if P_n.ndim else float(P_n)
+
+
+def effective_length_factor(end_condition: str = "pinned", *, K_pinned: float = K_PINNED,
+                            K_riveted: float = K_RIVETED) -> float:
+    """K for a truss member: pinned ends 0.875, riveted/bolted/welded ends 0.75.
+
+    AASHTO LRFD 4.6.2.5. [value from memory]
+    """
+    key = end_condition.strip().lower()
+    if key in ("pinned", "pin", "pin-connected"):
+        return K_pinned
+    if key in ("riveted", "bolted", "welded"):
+        return K_riveted
+    raise ValueError(f"unknown end condition {end_condition!r}; use 'pinned' or 'riveted'")
+
+
+def modified_slenderness(KL_r_o, a_in, r_i_in):
+    """(KL/r)_m = sqrt((KL/r)_o^2 + (a/r_i)^2), built-up member with snug-tight connectors.
+
+    Chen (ed.), Structural Engineering Handbook, Sec. 31.9. [read]
+    """
+    return np.sqrt(np.asarray(KL_r_o, dtype=float) ** 2 + (np.asarray(a_in) / r_i_in) ** 2)
+
+
+def unstiffened_Q(b_t, F_y, E, *, k_limit: float = K_UNSTIFFENED,
+                  k_slender: float = K_UNSTIFFENED_SLENDER):
+    """Q_s of an unstiffened element (flange, outstanding leg) from its b/t (vectorised).
+
+    AASHTO LRFD 6.9.4.2.2 (same form as AISC 360-10 Eqs. E7-4 to E7-6). [value from memory]
+    """
+    lam = np.asarray(b_t, dtype=float)
+    s = math.sqrt(E / F_y)
+    with np.errstate(divide="ignore"):
+        q = np.where(lam <= k_limit * s, 1.0,
+                     np.where(lam < k_slender * s, 1.415 - 0.74 * lam * math.sqrt(F_y / E),
+                              0.69 * E / (F_y * np.maximum(lam, 1e-12) ** 2)))
+    return q if q.ndim else float(q)
+
+
+def width_thickness_limit(stiffened: bool, element: str, F_y: float, E: float) -> float:
+    """Limiting b/t = k sqrt(E/F_y): 0.56 flanges/legs, 1.49 webs, 1.40 plates.
+
+    AASHTO LRFD 6.9.4.2, Table 6.9.4.2-1. [value from memory]
+    """
+    if not stiffened:
+        k = K_UNSTIFFENED
+    elif element == "web":
+        k = K_WEB
+    else:
+        k = K_PLATE
+    return k * math.sqrt(E / F_y)
+
+
+@dataclass(frozen=True)
+class CompressionResult:
+    checks: tuple[Check, ...]
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+    K: float
+    KL_r: float  # governing effective slenderness at the governing location (inf: none)
+    Q: float
+
+
+def _Q_at(s: SectionAtLocation, F_y: float, E: float) -> tuple[float, list[str]]:
+    """Q (unstiffened elements) and slender stiffened elements at a location."""
+    un = [e for e in s.elements if not e.stiffened and e.t_in > 0]
+    Q = float(np.min(unstiffened_Q(np.array([e.b_in / e.t_in for e in un]), F_y, E))) \
+        if un else 1.0
+    slender = [e for e in s.elements if e.stiffened and e.t_in > 0
+               and e.b_in / e.t_in > width_thickness_limit(True, e.element, F_y, E)]
+    notes = [f"{e.part} {e.element} b/t = {e.b_in / e.t_in:.1f} > "
+             f"{width_thickness_limit(True, e.element, F_y, E):.1f}" for e in slender]
+    return Q, notes
+
+
+def compression_checks(report: SectionReport, material: Material, *, K: float,
+                       length_ft: float, role: MemberRole | None = None,
+                       tension_only: bool = False, connectors: Connectors | None = None,
+                       phi_c: float = PHI_C, limit_primary: float = 120.0,
+                       limit_secondary: float = 140.0) -> CompressionResult:
+    """Flexural buckling of the member at its governing location, or zero if tension-only.
+
+    AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [read].
+
+    Args:
+        K: effective length factor. length_ft: panel-point to panel-point length, ft.
+        tension_only: the analysis treats the member as tension-only (a counter): no
+            compressive resistance is counted.
+        limit_primary, limit_secondary: KL/r limits for a warning (AASHTO LRFD 6.9.3)
+            [value from memory].
+    """
+    m = report.member
+    warnings: list[str] = []
+    assumptions: list[str] = []
+    base = report.tension[0].location
+    if report.kind in ("eyebar set", "rod set") or tension_only:
+        why = (f"{report.kind.split()[0]}s carry no compression" if report.kind in
+               ("eyebar set", "rod set") else "the member is tension-only in the analysis")
+        assumptions.append(f"member {m}: compressive resistance taken as zero ({why})")
+        chk = Check("compression: tension-only member", Sense.COMPRESSION, phi_c, 0.0,
+                    f"{why} [common practice]", base, why)
+        return CompressionResult((chk,), tuple(warnings), tuple(assumptions), K, math.inf, 1.0)
+
+    E, Fy = material.E, material.F_y
+    C = report.compression
+    L_in = length_ft * 12.0
+    A = np.array([s.A_g_in2 for s in C])
+    rx = np.array([s.r_x_in for s in C])
+    ry = np.array([s.r_y_in for s in C])
+    with np.errstate(divide="ignore"):
+        klr_x = np.where(rx > 0, K * L_in / np.where(rx > 0, rx, 1.0), np.inf)
+        klr_y = np.where(ry > 0, K * L_in / np.where(ry > 0, ry, 1.0), np.inf)
+    use_mod = (connectors is not None and connectors.kind is not ConnectorKind.SOLID)
+    if use_mod and connectors.spacing_in is None:
+        warnings.append(f"member {m}: {connectors.kind.value} spacing not recorded; the modified "
+                        "slenderness of the built-up member could not be applied "
+                        "(unconservative)")
+        use_mod = False
+    if use_mod:
+        a = connectors.spacing_in
+        for i, s in enumerate(C):
+            if s.modified_axis is None or not s.r_i_in:
+                continue
+            if s.modified_axis == "x":
+                klr_x[i] = float(modified_slenderness(klr_x[i], a, s.r_i_in))
+            else:
+                klr_y[i] = float(modified_slenderness(klr_y[i], a, s.r_i_in))
+        if not connectors.snug_tight:
+            assumptions.append(f"member {m}: the snug-tight form of the modified slenderness "
+                               "is used for all connectors (conservative)")
+        s0 = C[0]
+        if s0.modified_axis is not None and s0.r_i_in:
+            axis = "in-plane" if s0.modified_axis == "x" else "out-of-plane"
+            assumptions.append(f"member {m}: modified slenderness (Chen Sec. 31.9) applied to "
+                               f"{axis} buckling, a = {a:g} in, r_i = {s0.r_i_in:.3f} in")
+            ratio = a / s0.r_i_in
+            gov = max(klr_x[0], klr_y[0])
+            if ratio > 0.75 * gov:
+                warnings.append(f"member {m}: a/r_i = {ratio:.0f} between connectors exceeds "
+                                f"3/4 of the member's KL/r = {gov:.0f} (AISC 360-10 E6.2, value "
+                                "from memory); the components may buckle between connectors")
+    klr = np.maximum(klr_x, klr_y)
+    Qs = []
+    for s in C:
+        q, notes = _Q_at(s, Fy, E)
+        Qs.append(q)
+        if notes:
+            warnings.append(f"member {m}: slender stiffened element(s) at {s.location.describe()}"
+                            f" ({'; '.join(notes)}); LRFD 6.9.4.2 limit exceeded, effective-"
+                            "width factor Q_a not computed (unconservative)")
+    Q = np.array(Qs)
+    Pn = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, np.where(np.isfinite(klr),
+                                                                          klr, 1e9), Q))
+    k = int(np.argmin(Pn))
+    if Q[k] < 1.0:
+        warnings.append(f"member {m}: slender unstiffened element(s); Q = {Q[k]:.3f} reduces the "
+                        "squash load (LRFD 6.9.4.2.2)")
+    if report.kind == "rolled shape":
+        assumptions.append(f"member {m}: rolled shape taken as nonslender (no element "
+                           "dimensions)")
+    g = float(klr[0])
+    lim = limit_secondary if role in SECONDARY_ROLES else limit_primary
+    if math.isfinite(g) and g > lim:
+        warnings.append(f"member {m}: compression slenderness KL/r = {g:.0f} exceeds {lim:g} "
+                        "(AASHTO LRFD 6.9.3, value from memory)")
+    s = C[k]
+    axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"
+    detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft, KL/r = {klr[k]:.1f} "
+              f"({axis}), Q = {Q[k]:.3f}, F_y = {Fy:g} ksi, E = {E:g} ksi")
+    chk = Check("compression: flexural buckling", Sense.COMPRESSION, phi_c, float(Pn[k]),
+                "AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
+                s.location, detail)
+    return CompressionResult((chk,), tuple(warnings), tuple(assumptions), K, float(klr[k]),
+                             float(Q[k]))

@@ -1,0 +1,181 @@
+"""The one entry point the rating engine calls: a member's resistances after section loss.
+
+``member_capacity`` runs the section properties at every location, every tension and
+compression check, and the condition and system factors, and returns a frozen
+``MemberCapacity``. In each sense the check with the lowest factored resistance governs.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from rating.capacity.checks import Check, Sense
+from rating.capacity.compression import PHI_C, compression_checks, effective_length_factor
+from rating.capacity.factors import member_factors
+from rating.capacity.sections import gross_area_as_built_in2, section_properties
+from rating.capacity.tension import PHI_PIN_PLATE, PHI_U, PHI_Y, tension_checks
+from rating.errors import InputError
+from rating.model import BuiltUpSection, Finding, MemberDesign, MemberRole
+
+
+@dataclass(frozen=True)
+class SectionSummary:
+    """The governing section in a few numbers (in, in^2, ksi, ft).
+
+    ``A_g_in2``/``A_n_in2`` are the least gross and net areas over the locations (tension,
+    carrying bars only); ``r_in_plane_in``/``r_out_of_plane_in`` those at the governing
+    compression location (0 for eyebars and rods); ``KL_r`` the governing effective
+    slenderness (inf for a tension-only member).
+    """
+
+    kind: str = field(metadata={"label": "Section", "unit": ""})
+    A_g_in2: float = field(metadata={"label": "A_g", "unit": "in2"})
+    A_n_in2: float = field(metadata={"label": "A_n", "unit": "in2"})
+    A_g_as_built_in2: float = field(metadata={"label": "A_g as built", "unit": "in2"})
+    F_y: float = field(metadata={"label": "F_y", "unit": "ksi"})
+    F_u: float = field(metadata={"label": "F_u", "unit": "ksi"})
+    E: float = field(metadata={"label": "E", "unit": "ksi"})
+    K: float = field(metadata={"label": "K", "unit": ""})
+    KL_r: float = field(metadata={"label": "KL/r", "unit": ""})
+    length_ft: float = field(metadata={"label": "L", "unit": "ft"})
+    r_in_plane_in: float = field(default=0.0, metadata={"label": "r in plane", "unit": "in"})
+    r_out_of_plane_in: float = field(default=0.0,
+                                     metadata={"label": "r out of plane", "unit": "in"})
+    Q: float = field(default=1.0, metadata={"label": "Q", "unit": ""})
+
+
+@dataclass(frozen=True)
+class MemberCapacity:
+    """All resistance checks of one member with its factors, warnings and assumptions.
+
+    ``factored_resistance(sense)`` = phi_c phi_s phi R_n of the governing check in that sense
+    (phi_c phi_s not less than ``phi_cs_floor``), kip; it is 0.0 when the member has no
+    resistance in that sense (eyebars and rods in compression, all bars lost).
+    """
+
+    member: str
+    role: MemberRole
+    checks: tuple[Check, ...]
+    phi_c: float = field(metadata={"label": "phi_c", "unit": ""})
+    phi_s: float = field(metadata={"label": "phi_s", "unit": ""})
+    condition: str
+    condition_rating: int | None
+    summary: SectionSummary
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+    tension_only: bool
+    removed: tuple[str, ...] = ()
+    phi_cs_floor: float = 0.85
+
+    @property
+    def phi_cs(self) -> float:
+        """phi_c phi_s with the floor applied (Khan 2010, p. 187) [read]."""
+        return max(self.phi_c * self.phi_s, self.phi_cs_floor)
+
+    def checks_in(self, sense: Sense | str) -> tuple[Check, ...]:
+        s = Sense(sense)
+        return tuple(c for c in self.checks if c.sense is s)
+
+    def governing(self, sense: Sense | str) -> Check | None:
+        """The check with the lowest factored resistance in ``sense`` (first on a tie)."""
+        cs = self.checks_in(sense)
+        return min(cs, key=lambda c: c.phi_R_n_kip) if cs else None
+
+    def factored_resistance(self, sense: Sense | str) -> float:
+        """C = phi_c phi_s phi R_n of the governing check, kip.
+
+        MBE 6A.4.2.1, Eq. 6A.4.2.1-2 with phi_c phi_s >= 0.85 (Khan 2010, p. 187) [read].
+        """
+        g = self.governing(sense)
+        return 0.0 if g is None else self.phi_cs * g.phi_R_n_kip
+
+
+def _material_notes(design: MemberDesign) -> tuple[list[str], list[str]]:
+    mat, m = design.material, design.member
+    for name in ("F_y", "F_u", "E"):
+        v = getattr(mat, name)
+        if not isinstance(v, int | float) or not math.isfinite(v) or v <= 0:
+            raise InputError(f"member {m}: material {name} must be a positive number in ksi, "
+                             f"got {v!r}", design.where or None)
+    warnings: list[str] = []
+    assumptions: list[str] = []
+    if mat.F_u < mat.F_y:
+        warnings.append(f"member {m}: F_u = {mat.F_u:g} ksi is less than F_y = {mat.F_y:g} ksi;"
+                        " check the material record")
+    if mat.F_y > 100.0:
+        warnings.append(f"member {m}: F_y = {mat.F_y:g} ksi is very high for an old truss; was "
+                        "it given in MPa?")
+    if mat.assumed:
+        assumptions.append(f"member {m}: material {mat.kind.value} F_y = {mat.F_y:g} ksi, "
+                           f"F_u = {mat.F_u:g} ksi assumed ({mat.basis})")
+    return warnings, assumptions
+
+
+def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
+                    findings: tuple[Finding, ...], tension_only: bool, *,
+                    end_condition: str = "pinned", head_as_pin_plate: bool = True,
+                    phi_y: float = PHI_Y, phi_u: float = PHI_U,
+                    phi_pin_plate: float = PHI_PIN_PLATE, phi_c_axial: float = PHI_C,
+                    phi_cs_floor: float | None = None) -> MemberCapacity:
+    """Resistances of one member after the recorded section loss, with phi_c and phi_s.
+
+    AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [read].
+
+    Args:
+        design: section and material; ``design.K`` overrides the effective length factor.
+        role: the member's role (secondary members get the looser slenderness limits).
+        length_ft: panel-point to panel-point length, ft (stations of findings run along it).
+        findings: this member's findings (a finding for another member is an error).
+        tension_only: the analysis treats the member as tension-only (no compression counted).
+        end_condition: "pinned" (K 0.875) or "riveted" (K 0.75) when ``design.K`` is None.
+        head_as_pin_plate: check eyebar heads with the AISC LRFD 1999 D3 pin-plate forms.
+        phi_y, phi_u, phi_pin_plate, phi_c_axial: resistance factors (owner may change).
+        phi_cs_floor: lower limit of phi_c phi_s (default 0.85 from factors.json).
+    """
+    m = design.member
+    if not isinstance(length_ft, int | float) or not math.isfinite(length_ft) or length_ft <= 0:
+        raise InputError(f"member {m}: length must be a positive number of feet, got "
+                         f"{length_ft!r}", design.where or None)
+    if design.K is not None:
+        if not isinstance(design.K, int | float) or not math.isfinite(design.K) \
+                or not 0 < design.K <= 3.0:
+            raise InputError(f"member {m}: effective length factor K must be more than 0 and "
+                             f"not more than 3, got {design.K!r}", design.where or None)
+        K = float(design.K)
+        k_note = f"member {m}: effective length factor K = {K:g} set by the owner"
+    else:
+        K = effective_length_factor(end_condition)
+        k_note = (f"member {m}: effective length factor K = {K:g} for {end_condition} ends "
+                  "(AASHTO LRFD 4.6.2.5, value from memory)")
+    warnings, assumptions = _material_notes(design)
+    report = section_properties(design.section, member=m, findings=findings,
+                                length_ft=float(length_ft), where=design.where)
+    warnings.extend(report.warnings)
+    assumptions.extend(report.assumptions)
+    t = tension_checks(report, design.material, role=role, length_ft=float(length_ft),
+                       phi_y=phi_y, phi_u=phi_u, phi_pin_plate=phi_pin_plate,
+                       head_as_pin_plate=head_as_pin_plate)
+    connectors = design.section.connectors if isinstance(design.section, BuiltUpSection) \
+        else None
+    c = compression_checks(report, design.material, K=K, length_ft=float(length_ft), role=role,
+                           tension_only=tension_only, connectors=connectors, phi_c=phi_c_axial)
+    if report.kind in ("built-up", "rolled shape") and not tension_only:
+        assumptions.append(k_note)
+    f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)
+    warnings.extend(t.warnings + c.warnings + f.warnings)
+    assumptions.extend(t.assumptions + c.assumptions + f.assumptions)
+
+    A_g = min(s.A_g_in2 for s in report.tension)
+    A_n = min(s.A_n_in2 for s in report.tension)
+    gc = c.checks[0]
+    comp_at = next((s for s in report.compression if s.location == gc.location), None)
+    mat = design.material
+    summary = SectionSummary(report.kind, A_g, A_n, gross_area_as_built_in2(design.section),
+                             mat.F_y, mat.F_u, mat.E, K, c.KL_r, float(length_ft),
+                             comp_at.r_x_in if comp_at else 0.0,
+                             comp_at.r_y_in if comp_at else 0.0, c.Q)
+    removed = tuple(comp for comp, _ in report.removed)
+    return MemberCapacity(m, role, t.checks + c.checks, f.phi_c, f.phi_s, f.condition,
+                          f.condition_rating, summary, tuple(dict.fromkeys(warnings)),
+                          tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor)

@@ -1,0 +1,938 @@
+"""Section properties of truss members as built and after the measured section loss.
+
+Axes are the model's (``rating.model.sections``): x lies across the truss plane (out of
+plane), y lies in the truss plane. ``I_x_in4`` = integral of (y - y_c)^2 dA, the second
+moment about the centroidal x axis: it resists bending that deflects the member IN the truss
+plane, so ``r_x_in`` (also ``r_in_plane_in``) governs in-plane buckling. ``I_y_in4`` =
+integral of (x - x_c)^2 dA; ``r_y_in`` (``r_out_of_plane_in``) governs out-of-plane buckling.
+
+How loss is applied (each choice is listed in the report's assumptions):
+
+* Every part is a set of rectangles (a plate is one; a channel is a web and two flanges; an
+  angle is two legs). Loss is taken evenly off both faces of each rectangle, so each keeps
+  its mid-line.
+* ``remaining_thickness_in`` on a built-up part is the remaining thickness of its reference
+  element (plate: the plate; angle: the legs; channel: the web); the depth of loss it implies
+  is taken off every element of the part. ``percent_loss`` reduces every element's
+  thickness by that percentage.
+* Eyebars lose thickness (body or head), not width. Rods lose diameter (``percent_loss`` is
+  of the diameter; ``remaining_thickness_in`` is the remaining diameter or side).
+* A rolled shape given by its properties loses area in proportion to ``percent_loss``; its
+  radii of gyration are kept (thin walls thinned evenly keep r).
+* A loose, missing, broken or cracked bar or part is removed for the whole member; a bent
+  one is flagged and not counted in compression.
+
+Each distinct (region, station) of the loss findings is a *location*. A finding without a
+station covers its whole region and acts at every location of that region.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Sequence
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from rating.errors import InputError
+from rating.model import (
+    AnglePart,
+    BarState,
+    BuiltUpSection,
+    ChannelPart,
+    ChannelToes,
+    ConnectorKind,
+    EyebarSet,
+    Finding,
+    FindingRegion,
+    Part,
+    PlatePart,
+    RodEnd,
+    RodSet,
+    RodShape,
+    RolledShape,
+    Section,
+)
+
+REMOVING_STATES = frozenset({BarState.LOOSE, BarState.MISSING, BarState.BROKEN,
+                             BarState.CRACKED})
+"""Bar states that take a bar out of the load path (common practice)."""
+
+THREADED_ROOT_AREA_RATIO = 0.75
+"""Root area / body area assumed for a threaded rod whose root diameter is not recorded.
+
+AISC 360-10 Table J3.2, threaded parts: nominal tensile stress 0.75 F_u on the body area.
+[value from memory]
+"""
+
+_BAR_RE = re.compile(r"^\s*bar\s*#?\s*(\d+)\s*$", re.IGNORECASE)
+_STATION_TOL_FT = 1e-6
+
+
+# --------------------------------------------------------------------------------------------
+# rectangles and their properties
+# --------------------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Rect:
+    """One rectangle of a built-up part.
+
+    ``bx_in`` is its extent along x, ``by_in`` along y, centred on (``cx_in``, ``cy_in``).
+    ``thick_along_x`` says which extent is the thickness (loss reduces that one).
+    ``b_in``/``t_in`` are the width and thickness used in the width-thickness ratio;
+    ``stiffened`` is True for an element supported along both edges (web, plate).
+    """
+
+    part: str
+    element: str
+    cx_in: float
+    cy_in: float
+    bx_in: float
+    by_in: float
+    thick_along_x: bool
+    b_in: float
+    t_in: float
+    stiffened: bool
+
+    @property
+    def area_in2(self) -> float:
+        return self.bx_in * self.by_in
+
+    def thinned(self, t_new: float) -> Rect:
+        """The same rectangle with thickness ``t_new`` (mid-line kept)."""
+        if self.thick_along_x:
+            return replace(self, bx_in=t_new, t_in=t_new)
+        return replace(self, by_in=t_new, t_in=t_new)
+
+
+@dataclass(frozen=True)
+class AreaProperties:
+    """Area, centroid and second moments of a set of rectangles (in, in^2, in^4).
+
+    ``I_x_in4`` about the centroidal x axis (in-plane buckling), ``I_y_in4`` about the
+    centroidal y axis (out-of-plane buckling), ``I_xy_in4`` the product of inertia.
+    """
+
+    A_in2: float
+    x_c_in: float
+    y_c_in: float
+    I_x_in4: float
+    I_y_in4: float
+    I_xy_in4: float
+
+    @property
+    def r_x_in(self) -> float:
+        return math.sqrt(self.I_x_in4 / self.A_in2) if self.A_in2 > 0 else 0.0
+
+    @property
+    def r_y_in(self) -> float:
+        return math.sqrt(self.I_y_in4 / self.A_in2) if self.A_in2 > 0 else 0.0
+
+    @property
+    def r_min_in(self) -> float:
+        """Least radius of gyration about a principal axis."""
+        if self.A_in2 <= 0:
+            return 0.0
+        avg = 0.5 * (self.I_x_in4 + self.I_y_in4)
+        dif = math.hypot(0.5 * (self.I_x_in4 - self.I_y_in4), self.I_xy_in4)
+        return math.sqrt(max(avg - dif, 0.0) / self.A_in2)
+
+
+def area_properties(rects: Sequence[Rect]) -> AreaProperties:
+    """Area, centroid and second moments by the parallel-axis theorem (rectangles b h^3/12).
+
+    Parallel-axis theorem, I = sum(I_own + A d^2), closed form. [common practice]
+    """
+    if not rects:
+        return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+    a = np.array([(r.cx_in, r.cy_in, r.bx_in, r.by_in) for r in rects], dtype=float)
+    cx, cy, bx, by = a.T
+    A = bx * by
+    At = float(A.sum())
+    if At <= 0.0:
+        return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+    xc = float((A * cx).sum() / At)
+    yc = float((A * cy).sum() / At)
+    dx, dy = cx - xc, cy - yc
+    I_x = float((bx * by**3 / 12.0 + A * dy**2).sum())
+    I_y = float((by * bx**3 / 12.0 + A * dx**2).sum())
+    I_xy = float((A * dx * dy).sum())
+    return AreaProperties(At, xc, yc, I_x, I_y, I_xy)
+
+
+def part_reference_thickness_in(part: Part) -> float:
+    """The thickness a ``remaining_thickness_in`` on this part refers to."""
+    if isinstance(part, ChannelPart):
+        return part.web_thickness_in
+    return part.thickness_in
+
+
+def part_rectangles(part: Part) -> tuple[Rect, ...]:
+    """Decompose a plate, channel or angle into rectangles in the member's x-y plane."""
+    if isinstance(part, PlatePart):
+        if part.vertical:
+            return (Rect(part.label, "plate", part.x_in, part.y_in, part.thickness_in,
+                         part.width_in, True, part.width_in, part.thickness_in, True),)
+        return (Rect(part.label, "plate", part.x_in, part.y_in, part.width_in,
+                     part.thickness_in, False, part.width_in, part.thickness_in, True),)
+    if isinstance(part, ChannelPart):
+        d, bf, tw, tf = (part.depth_in, part.flange_width_in, part.web_thickness_in,
+                         part.flange_thickness_in)
+        x, y = part.x_in, part.y_in
+        h_web = d - 2.0 * tf
+        out = bf - tw  # flange length beyond the web
+        if part.toes in (ChannelToes.RIGHT, ChannelToes.LEFT):
+            s = 1.0 if part.toes is ChannelToes.RIGHT else -1.0
+            web = Rect(part.label, "web", x + s * tw / 2, y, tw, d, True, h_web, tw, True)
+            fx = x + s * (tw + out / 2)
+            f1 = Rect(part.label, "flange 1", fx, y + d / 2 - tf / 2, out, tf, False, bf, tf,
+                      False)
+            f2 = Rect(part.label, "flange 2", fx, y - d / 2 + tf / 2, out, tf, False, bf, tf,
+                      False)
+        else:
+            s = 1.0 if part.toes is ChannelToes.UP else -1.0
+            web = Rect(part.label, "web", x, y + s * tw / 2, d, tw, False, h_web, tw, True)
+            fy = y + s * (tw + out / 2)
+            f1 = Rect(part.label, "flange 1", x + d / 2 - tf / 2, fy, tf, out, True, bf, tf,
+                      False)
+            f2 = Rect(part.label, "flange 2", x - d / 2 + tf / 2, fy, tf, out, True, bf, tf,
+                      False)
+        return (web, f1, f2)
+    # angle: heel corner at (x, y)
+    t, sx, sy = part.thickness_in, float(part.x_sign), float(part.y_sign)
+    leg_x = Rect(part.label, "leg x", part.x_in + sx * part.leg_x_in / 2,
+                 part.y_in + sy * t / 2, part.leg_x_in, t, False, part.leg_x_in, t, False)
+    ly = part.leg_y_in - t
+    leg_y = Rect(part.label, "leg y", part.x_in + sx * t / 2, part.y_in + sy * (t + ly / 2),
+                 t, ly, True, part.leg_y_in, t, False)
+    return (leg_x, leg_y)
+
+
+# --------------------------------------------------------------------------------------------
+# validation of the as-built section
+# --------------------------------------------------------------------------------------------
+
+
+def _pos(value: float | None, what: str, member: str, where: str) -> float:
+    if value is None or not isinstance(value, int | float) or not math.isfinite(value) \
+            or value <= 0:
+        raise InputError(f"member {member}: {what} must be a positive number, got {value!r}",
+                         where or None)
+    return float(value)
+
+
+def validate_section(section: Section, member: str, where: str = "") -> None:
+    """Refuse dimensions that cannot describe a real section (negative, zero, inconsistent)."""
+    if isinstance(section, EyebarSet):
+        if not isinstance(section.count, int) or section.count < 1:
+            raise InputError(f"member {member}: eyebar count must be a whole number of at "
+                             f"least 1, got {section.count!r}", where or None)
+        _pos(section.width_in, "eyebar body width (in)", member, where)
+        _pos(section.thickness_in, "eyebar thickness (in)", member, where)
+        d = _pos(section.pin_hole_diameter_in, "pin-hole diameter (in)", member, where)
+        D = _pos(section.head_diameter_in, "eyebar head diameter (in)", member, where)
+        if section.head_thickness_in is not None:
+            _pos(section.head_thickness_in, "eyebar head thickness (in)", member, where)
+        if D <= d:
+            raise InputError(f"member {member}: eyebar head diameter {D:g} in is not larger "
+                             f"than the pin hole {d:g} in", where or None)
+        if section.head_beyond_hole_in is not None:
+            a = _pos(section.head_beyond_hole_in, "head distance beyond the hole (in)",
+                     member, where)
+            if a > D - d:
+                raise InputError(f"member {member}: head distance beyond the hole {a:g} in "
+                                 f"exceeds the head diameter less the hole {D - d:g} in",
+                                 where or None)
+    elif isinstance(section, RodSet):
+        if not isinstance(section.count, int) or section.count < 1:
+            raise InputError(f"member {member}: rod count must be a whole number of at least "
+                             f"1, got {section.count!r}", where or None)
+        d = _pos(section.diameter_in, "rod diameter (in)", member, where)
+        if section.root_diameter_in is not None:
+            r = _pos(section.root_diameter_in, "rod thread root diameter (in)", member, where)
+            if section.end is RodEnd.THREADED and r > d:
+                raise InputError(f"member {member}: thread root diameter {r:g} in exceeds "
+                                 f"the rod diameter {d:g} in of a plain threaded rod",
+                                 where or None)
+    elif isinstance(section, BuiltUpSection):
+        if not section.parts:
+            raise InputError(f"member {member}: built-up section has no parts", where or None)
+        labels: set[str] = set()
+        for p in section.parts:
+            key = p.label.strip().lower()
+            if not key:
+                raise InputError(f"member {member}: a part of the built-up section has no "
+                                 "label", where or None)
+            if key in labels:
+                raise InputError(f"member {member}: part label {p.label!r} is used twice",
+                                 where or None)
+            labels.add(key)
+            what = f"part {p.label}"
+            for name in ("x_in", "y_in"):
+                v = getattr(p, name)
+                if not isinstance(v, int | float) or not math.isfinite(v):
+                    raise InputError(f"member {member}: {what} position {name} is not a "
+                                     "finite number", where or None)
+            if isinstance(p, PlatePart):
+                _pos(p.width_in, f"{what} width (in)", member, where)
+                _pos(p.thickness_in, f"{what} thickness (in)", member, where)
+            elif isinstance(p, ChannelPart):
+                d = _pos(p.depth_in, f"{what} depth (in)", member, where)
+                bf = _pos(p.flange_width_in, f"{what} flange width (in)", member, where)
+                tw = _pos(p.web_thickness_in, f"{what} web thickness (in)", member, where)
+                tf = _pos(p.flange_thickness_in, f"{what} flange thickness (in)", member,
+                          where)
+                if 2 * tf >= d or tw >= bf:
+                    raise InputError(f"member {member}: {what} channel dimensions are "
+                                     "inconsistent (flanges thicker than half the depth or "
+                                     "web thicker than the flange width)", where or None)
+            else:
+                lx = _pos(p.leg_x_in, f"{what} leg along x (in)", member, where)
+                ly = _pos(p.leg_y_in, f"{what} leg along y (in)", member, where)
+                t = _pos(p.thickness_in, f"{what} thickness (in)", member, where)
+                if t >= min(lx, ly):
+                    raise InputError(f"member {member}: {what} angle thickness {t:g} in is "
+                                     "not less than its legs", where or None)
+                if p.x_sign not in (1, -1) or p.y_sign not in (1, -1):
+                    raise InputError(f"member {member}: {what} leg directions must be +1 or "
+                                     "-1", where or None)
+        if section.hole_diameter_in < 0 or section.holes_per_section < 0:
+            raise InputError(f"member {member}: rivet hole diameter and count cannot be "
+                             "negative", where or None)
+        if not (0.0 < section.shear_lag_U <= 1.0):
+            raise InputError(f"member {member}: shear lag factor U must be in (0, 1], got "
+                             f"{section.shear_lag_U!r}", where or None)
+        c = section.connectors
+        if c is not None:
+            if c.spacing_in is not None:
+                _pos(c.spacing_in, "connector spacing (in)", member, where)
+            if c.r_i_in is not None:
+                _pos(c.r_i_in, "component radius of gyration r_i (in)", member, where)
+        rects = [r for p in section.parts for r in part_rectangles(p)]
+        Ag = area_properties(rects).A_in2
+        t_h = max(r.t_in for r in rects)
+        if section.holes_per_section * section.hole_diameter_in * t_h >= Ag:
+            raise InputError(f"member {member}: the rivet holes ({section.holes_per_section} "
+                             f"x {section.hole_diameter_in:g} in) remove the whole section",
+                             where or None)
+    elif isinstance(section, RolledShape):
+        A = _pos(section.area_in2, "rolled shape area (in2)", member, where)
+        _pos(section.r_x_in, "rolled shape r_x (in)", member, where)
+        _pos(section.r_y_in, "rolled shape r_y (in)", member, where)
+        if section.net_area_in2 is not None:
+            An = _pos(section.net_area_in2, "rolled shape net area (in2)", member, where)
+            if An > A:
+                raise InputError(f"member {member}: net area {An:g} in2 exceeds the gross "
+                                 f"area {A:g} in2", where or None)
+        if not (0.0 < section.shear_lag_U <= 1.0):
+            raise InputError(f"member {member}: shear lag factor U must be in (0, 1], got "
+                             f"{section.shear_lag_U!r}", where or None)
+    else:
+        raise InputError(f"member {member}: unknown section type {type(section).__name__}",
+                         where or None)
+
+
+# --------------------------------------------------------------------------------------------
+# as-built areas
+# --------------------------------------------------------------------------------------------
+
+
+def rod_area_in2(diameter_in: float | np.ndarray, shape: RodShape = RodShape.ROUND):
+    """Area of a round (pi d^2 / 4) or square (d^2) rod. [closed form]"""
+    if shape is RodShape.SQUARE:
+        return np.asarray(diameter_in) ** 2 if isinstance(diameter_in, np.ndarray) \
+            else diameter_in**2
+    return math.pi / 4.0 * (np.asarray(diameter_in) ** 2 if isinstance(diameter_in, np.ndarray)
+                            else diameter_in**2)
+
+
+def gross_area_as_built_in2(section: Section) -> float:
+    """Gross area of the whole member as built (all bars and parts), in^2, for self-weight."""
+    if isinstance(section, EyebarSet):
+        return section.count * section.width_in * section.thickness_in
+    if isinstance(section, RodSet):
+        return section.count * float(rod_area_in2(section.diameter_in, section.shape))
+    if isinstance(section, BuiltUpSection):
+        return area_properties([r for p in section.parts for r in part_rectangles(p)]).A_in2
+    return section.area_in2
+
+
+# --------------------------------------------------------------------------------------------
+# locations and the section at each
+# --------------------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Location:
+    """Where along the member a set of properties holds.
+
+    ``region`` None is the member as built apart from removed bars (the baseline);
+    ``station_ft`` None means the finding(s) cover the whole length of the region.
+    ``findings`` act here, the one removing most thickness first, removed-bar findings last.
+    """
+
+    region: FindingRegion | None = None
+    station_ft: float | None = None
+    findings: tuple[Finding, ...] = ()
+
+    @property
+    def finding(self) -> Finding | None:
+        """The finding that makes this location what it is (None: as built)."""
+        return self.findings[0] if self.findings else None
+
+    def describe(self) -> str:
+        if self.region is None:
+            base = "whole member"
+        elif self.station_ft is None:
+            base = f"{self.region.value}, whole length"
+        else:
+            base = f"{self.region.value} at {self.station_ft:g} ft"
+        f = self.finding
+        if f is not None and f.where:
+            base += f" ({f.where})"
+        return base
+
+
+@dataclass(frozen=True)
+class EyebarAtLocation:
+    """One load-carrying eyebar at a location (in)."""
+
+    label: str
+    width_in: float  # body width used in calculation (<= 8 t as built)
+    thickness_in: float  # body thickness here
+    head_thickness_in: float  # head thickness here
+    head_diameter_in: float
+    hole_diameter_in: float
+    beyond_hole_in: float  # distance from hole edge to head edge along the bar
+
+    @property
+    def body_area_in2(self) -> float:
+        return self.width_in * self.thickness_in
+
+    @property
+    def through_hole_area_in2(self) -> float:
+        """Net section of the head through the pin hole, both sides: (D_h - d) t_h."""
+        return (self.head_diameter_in - self.hole_diameter_in) * self.head_thickness_in
+
+    @property
+    def beyond_hole_area_in2(self) -> float:
+        """Net section of the head beyond the hole, along the bar: a t_h."""
+        return self.beyond_hole_in * self.head_thickness_in
+
+    @property
+    def side_edge_in(self) -> float:
+        """Distance from hole edge to head edge square to the force (concentric head)."""
+        return (self.head_diameter_in - self.hole_diameter_in) / 2.0
+
+
+@dataclass(frozen=True)
+class RodAtLocation:
+    """One load-carrying rod at a location (in)."""
+
+    label: str
+    body_diameter_in: float
+    end_diameter_in: float  # thread root (threaded, or upset when recorded) or body
+    shape: RodShape
+
+    @property
+    def body_area_in2(self) -> float:
+        return float(rod_area_in2(self.body_diameter_in, self.shape))
+
+    @property
+    def end_area_in2(self) -> float:
+        return float(rod_area_in2(self.end_diameter_in, self.shape))
+
+
+@dataclass(frozen=True)
+class ElementAtLocation:
+    """A plate element for the width-thickness check: b, t after loss (in)."""
+
+    part: str
+    element: str
+    b_in: float
+    t_in: float
+    stiffened: bool
+
+
+@dataclass(frozen=True)
+class SectionAtLocation:
+    """Properties of what is left at one location.
+
+    ``A_g_in2``: gross area of the load-carrying material (eyebars and rods: the body).
+    ``A_n_in2``: net area for fracture (built-up: rivet holes deducted; rolled: the net area;
+    eyebars: the head through the pin hole; rods: the end (root) area).
+    ``r_x_in``: in-plane radius of gyration; ``r_y_in``: out-of-plane (see module doc).
+    ``modified_axis``: "x" or "y", the axis on which the connectors work (built-up laced or
+    battened members), else None. ``r_i_in``: least r of one component between connectors.
+    """
+
+    location: Location
+    A_g_in2: float
+    A_n_in2: float
+    r_x_in: float = 0.0
+    r_y_in: float = 0.0
+    properties: AreaProperties | None = None
+    eyebars: tuple[EyebarAtLocation, ...] = ()
+    rods: tuple[RodAtLocation, ...] = ()
+    elements: tuple[ElementAtLocation, ...] = ()
+    r_i_in: float | None = None
+    modified_axis: str | None = None
+    shear_lag_U: float = 1.0
+
+    @property
+    def r_in_plane_in(self) -> float:
+        return self.r_x_in
+
+    @property
+    def r_out_of_plane_in(self) -> float:
+        return self.r_y_in
+
+    @property
+    def r_least_in(self) -> float:
+        return min(self.r_x_in, self.r_y_in)
+
+
+@dataclass(frozen=True)
+class SectionReport:
+    """Section as built and at every location, for tension and for compression.
+
+    ``tension[0]`` and ``compression[0]`` are the baseline (whole member, removed bars out).
+    ``compression`` is empty for eyebars and rods (they carry no compression).
+    ``removed`` and ``bent`` list (component, finding). ``carrying_count`` counts the bars or
+    parts that still carry load.
+    """
+
+    member: str
+    section: Section
+    kind: str
+    as_built: SectionAtLocation
+    tension: tuple[SectionAtLocation, ...]
+    compression: tuple[SectionAtLocation, ...]
+    removed: tuple[tuple[str, Finding], ...]
+    bent: tuple[tuple[str, Finding], ...]
+    carrying_count: int
+    total_count: int
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+
+
+def section_kind(section: Section) -> str:
+    if isinstance(section, EyebarSet):
+        return "eyebar set"
+    if isinstance(section, RodSet):
+        return "rod set"
+    if isinstance(section, BuiltUpSection):
+        return "built-up"
+    return "rolled shape"
+
+
+def describe_finding(f: Finding) -> str:
+    """Short words for a finding in a message: component, region and station."""
+    at = f" at {f.station_ft:g} ft" if f.station_ft is not None else ""
+    return f"finding on {f.component!r} ({f.region.value}{at})"
+
+
+def _err(member: str, f: Finding, text: str) -> InputError:
+    return InputError(f"member {member}, {describe_finding(f)}: {text}", f.where or None)
+
+
+@dataclass(frozen=True)
+class _Loss:
+    finding: Finding
+    components: tuple[str, ...]  # resolved component keys
+    region: FindingRegion  # normalised region
+    station_ft: float | None
+    fraction_left: float  # remaining / reference (for ordering)
+
+
+def _components(section: Section, member: str) -> dict[str, str]:
+    """Lower-case key -> display name of every component a finding may name."""
+    if isinstance(section, EyebarSet | RodSet):
+        return {f"bar {i}": f"bar {i}" for i in range(1, section.count + 1)}
+    if isinstance(section, BuiltUpSection):
+        return {p.label.strip().lower(): p.label for p in section.parts}
+    return {section.designation.strip().lower() or "shape": section.designation or "shape"}
+
+
+def _resolve(section: Section, member: str, f: Finding) -> tuple[str, ...]:
+    comps = _components(section, member)
+    name = (f.component or "all").strip()
+    if name.lower() in ("all", ""):
+        return tuple(comps)
+    if isinstance(section, EyebarSet | RodSet):
+        m = _BAR_RE.match(name)
+        if m and f"bar {int(m.group(1))}" in comps:
+            return (f"bar {int(m.group(1))}",)
+        raise _err(member, f, f"there is no component {name!r}; this member has bars 1 to "
+                              f"{len(comps)} (name one as 'bar 2', or 'all')")
+    key = name.lower()
+    if key in comps:
+        return (key,)
+    known = ", ".join(repr(v) for v in comps.values())
+    raise _err(member, f, f"there is no component {name!r} in this section (parts: {known}, "
+                          "or 'all')")
+
+
+def _normal_region(section: Section, member: str, f: Finding) -> FindingRegion:
+    r = f.region
+    if isinstance(section, EyebarSet):
+        if r is FindingRegion.THREAD:
+            raise _err(member, f, "an eyebar has no thread; record the loss at the body or "
+                                  "the head")
+        return FindingRegion.HEAD if r is FindingRegion.CONNECTION else r
+    if isinstance(section, RodSet):
+        return FindingRegion.BODY if r is FindingRegion.BODY else FindingRegion.THREAD
+    if r in (FindingRegion.HEAD, FindingRegion.THREAD):
+        raise _err(member, f, f"a {section_kind(section)} member has no {r.value}; record the "
+                              "loss at the body or the connection")
+    return r
+
+
+def _reference_thickness(section: Section, comp: str, region: FindingRegion) -> float:
+    """The as-built dimension a remaining thickness on ``comp`` in ``region`` refers to."""
+    if isinstance(section, EyebarSet):
+        if region is FindingRegion.HEAD:
+            return section.head_thickness_in or section.thickness_in
+        return section.thickness_in
+    if isinstance(section, RodSet):
+        if region is FindingRegion.BODY:
+            return section.diameter_in
+        return _end_diameter(section)
+    if isinstance(section, BuiltUpSection):
+        part = next(p for p in section.parts if p.label.strip().lower() == comp)
+        return part_reference_thickness_in(part)
+    raise AssertionError("rolled shapes take percent loss only")  # pragma: no cover
+
+
+def _end_diameter(section: RodSet) -> float:
+    """Diameter that governs the rod end (as built)."""
+    if section.root_diameter_in is not None:
+        return section.root_diameter_in
+    if section.end is RodEnd.THREADED:
+        return section.diameter_in * math.sqrt(THREADED_ROOT_AREA_RATIO)
+    return section.diameter_in
+
+
+def _check_loss(section: Section, member: str, f: Finding, comps: tuple[str, ...],
+                region: FindingRegion, warnings: list[str]) -> float:
+    """Validate the loss values of ``f``; return the fraction of thickness left (ordering)."""
+    rem, pct = f.remaining_thickness_in, f.percent_loss
+    for name, v in (("remaining thickness", rem), ("percent loss", pct)):
+        if v is not None and (not isinstance(v, int | float) or not math.isfinite(v)):
+            raise _err(member, f, f"{name} {v!r} is not a number")
+    if pct is not None:
+        if pct < 0:
+            raise _err(member, f, f"percent loss {pct:g}% is negative")
+        if pct > 100:
+            raise _err(member, f, f"percent loss {pct:g}% is more than the whole thickness")
+    if rem is not None and rem < 0:
+        raise _err(member, f, f"remaining thickness {rem:g} in is negative")
+    if isinstance(section, RolledShape):
+        if rem is not None and pct is None:
+            raise _err(member, f, "a rolled shape is given by its properties only; record the "
+                                  "loss as a percent of thickness, not a remaining thickness")
+        return 1.0 - (pct or 0.0) / 100.0
+    if rem is None:
+        return 1.0 - (pct or 0.0) / 100.0
+    refs = {_reference_thickness(section, c, region) for c in comps}
+    if len(refs) > 1:
+        shown = ", ".join(f"{t:g}" for t in sorted(refs))
+        raise _err(member, f, f"a remaining thickness for several parts of different thickness "
+                              f"({shown} in) is ambiguous; give a percent loss or name one part")
+    t_ref = refs.pop()
+    what = "diameter" if isinstance(section, RodSet) else "thickness"
+    if rem > t_ref * (1 + 1e-9):
+        warnings.append(f"member {member}: {describe_finding(f)} records a remaining {what} of "
+                        f"{rem:g} in, more than the {t_ref:g} in as built; no loss is taken "
+                        "there (check the record)")
+        rem = t_ref
+    if pct is not None and abs(t_ref * (1 - pct / 100.0) - rem) > 0.02 * t_ref + 0.005:
+        raise _err(member, f, f"the remaining {what} {rem:g} in and the percent loss {pct:g}% "
+                              f"disagree for the {t_ref:g} in as built; give one of them")
+    return rem / t_ref
+
+
+def _left(t_elem: float, t_ref: float, f: Finding) -> float:
+    """Thickness of an element after finding ``f`` (depth of loss, or percent)."""
+    if f.remaining_thickness_in is not None:
+        depth = max(t_ref - min(f.remaining_thickness_in, t_ref), 0.0)
+        return max(t_elem - depth, 0.0)
+    return t_elem * (1.0 - (f.percent_loss or 0.0) / 100.0)
+
+
+def section_properties(section: Section, *, member: str, findings: Sequence[Finding] = (),
+                       length_ft: float | None = None, where: str = "") -> SectionReport:
+    """Properties of the section as built and at every location of the loss findings.
+
+    Closed-form section properties (rectangles, parallel-axis theorem); loss as recorded per
+    issue 4 item 4. [common practice]
+    """
+    validate_section(section, member, where)
+    warnings: list[str] = []
+    assumptions: list[str] = []
+    comps = _components(section, member)
+    removed: dict[str, Finding] = {}
+    bent: dict[str, Finding] = {}
+    losses: list[_Loss] = []
+    for f in findings:
+        if f.member != member:
+            raise _err(member, f, f"the finding belongs to member {f.member!r}, not {member!r}")
+        if f.station_ft is not None:
+            if not isinstance(f.station_ft, int | float) or not math.isfinite(f.station_ft) \
+                    or f.station_ft < -_STATION_TOL_FT or (
+                        length_ft is not None and f.station_ft > length_ft + _STATION_TOL_FT):
+                span = f"0 to {length_ft:g} ft" if length_ft is not None else "0 or more"
+                raise _err(member, f, f"station {f.station_ft!r} ft is off the member "
+                                      f"(stations run {span} from its start joint)")
+        cs = _resolve(section, member, f)
+        if f.bar_state in REMOVING_STATES:
+            for c in cs:
+                removed.setdefault(c, f)
+            continue
+        if f.bar_state is BarState.BENT:
+            for c in cs:
+                bent.setdefault(c, f)
+        if f.pack_rust:
+            warnings.append(f"member {member}: pack rust recorded ({describe_finding(f)}); "
+                            "it can spread and bend the bars or parts; check for distortion")
+        if f.remaining_thickness_in is None and f.percent_loss is None:
+            continue
+        region = _normal_region(section, member, f)
+        frac = _check_loss(section, member, f, cs, region, warnings)
+        station = None if f.station_ft is None else round(float(f.station_ft), 6)
+        losses.append(_Loss(f, cs, region, station, frac))
+
+    for c, f in removed.items():
+        warnings.append(f"member {member}: {comps[c]} is {f.bar_state.value} "
+                        f"({f.where or describe_finding(f)}) and is taken as carrying no load")
+    for c, f in bent.items():
+        warnings.append(f"member {member}: {comps[c]} is bent ({f.where or describe_finding(f)})"
+                        "; it is counted in tension (it may take less than its share until "
+                        "straightened) and not counted in compression")
+    removal_findings = tuple(dict.fromkeys(removed.values()))
+
+    keys: list[tuple[FindingRegion, float | None]] = []
+    for lo in losses:
+        k = (lo.region, lo.station_ft)
+        if k not in keys:
+            keys.append(k)
+    locations: list[tuple[Location, list[_Loss]]] = [(Location(None, None, removal_findings),
+                                                      [])]
+    for region, station in keys:
+        acting = [lo for lo in losses if lo.region is region
+                  and (lo.station_ft == station or lo.station_ft is None)]
+        acting.sort(key=lambda lo: lo.fraction_left)
+        fs = tuple(dict.fromkeys(lo.finding for lo in acting)) + removal_findings
+        locations.append((Location(region, station, fs), acting))
+
+    builder = _BUILDERS[type(section)]
+    as_built = builder(section, member, Location(None, None, ()), [], frozenset(), frozenset(),
+                       warnings, assumptions, record=False)
+    gone = frozenset(removed)
+    tension = tuple(builder(section, member, loc, acting, gone, frozenset(), warnings,
+                            assumptions, record=(i == 0))
+                    for i, (loc, acting) in enumerate(locations))
+    if isinstance(section, BuiltUpSection | RolledShape):
+        gone_c = gone | frozenset(bent)
+        compression = tuple(builder(section, member, loc, acting, gone_c, frozenset(),
+                                    warnings, assumptions, record=False)
+                            for loc, acting in locations)
+    else:
+        compression = ()
+    assumptions.extend(_loss_assumptions(section, bool(losses)))
+    return SectionReport(member, section, section_kind(section), as_built, tension, compression,
+                         tuple(removed.items()), tuple(bent.items()),
+                         len(comps) - len(gone), len(comps),
+                         tuple(dict.fromkeys(warnings)), tuple(dict.fromkeys(assumptions)))
+
+
+def _loss_assumptions(section: Section, any_loss: bool) -> list[str]:
+    if not any_loss:
+        return []
+    if isinstance(section, BuiltUpSection):
+        return ["Section loss on a built-up part is taken evenly off both faces of each of its "
+                "elements; a remaining thickness sets the depth of loss from the part's "
+                "reference element (plate, angle legs, channel web) and that depth is taken "
+                "off every element of the part.",
+                "A local loss is applied over the whole member for buckling (the least section "
+                "governs; conservative)."]
+    if isinstance(section, EyebarSet):
+        return ["Eyebar section loss reduces thickness only (width as built)."]
+    if isinstance(section, RodSet):
+        return ["Rod section loss reduces the diameter (percent loss is of the diameter)."]
+    return ["Loss on a rolled shape reduces its area in proportion; its radii of gyration "
+            "are kept."]
+
+
+def _min_left(t_elem: float, t_ref: float, acting: Sequence[_Loss], comp: str,
+              region: FindingRegion | None = None) -> float:
+    t = t_elem
+    for lo in acting:
+        if comp in lo.components and (region is None or lo.region is region):
+            t = min(t, _left(t_elem, t_ref, lo.finding))
+    return t
+
+
+def _eyebar_at(section: EyebarSet, member: str, loc: Location, acting: Sequence[_Loss],
+               gone: frozenset[str], _bent: frozenset[str], warnings: list[str],
+               assumptions: list[str], *, record: bool) -> SectionAtLocation:
+    t0 = section.thickness_in
+    th0 = section.head_thickness_in or t0
+    w_eff = min(section.width_in, 8.0 * t0)
+    D, d = section.head_diameter_in, section.pin_hole_diameter_in
+    a = section.head_beyond_hole_in if section.head_beyond_hole_in is not None else (D - d) / 2
+    if record:
+        if section.width_in > 8.0 * t0:
+            warnings.append(f"member {member}: eyebar body width {section.width_in:g} in is more "
+                            f"than 8 t = {8 * t0:g} in; {w_eff:g} in is used in calculation "
+                            "(AISC LRFD 1999 D3.2)")
+        if section.head_beyond_hole_in is None:
+            assumptions.append(f"member {member}: eyebar heads taken as round and concentric "
+                               f"with the hole, so the head beyond the hole is "
+                               f"(D_h - d)/2 = {a:g} in; enter the measured distance to check "
+                               "the beyond-hole proportion")
+    bars = []
+    for i in range(1, section.count + 1):
+        c = f"bar {i}"
+        if c in gone:
+            continue
+        t = _min_left(t0, t0, acting, c, FindingRegion.BODY)
+        th = _min_left(th0, th0, acting, c, FindingRegion.HEAD)
+        bars.append(EyebarAtLocation(c, w_eff, t, th, D, d, a))
+    Ag = sum(b.body_area_in2 for b in bars)
+    An = sum(b.through_hole_area_in2 for b in bars)
+    return SectionAtLocation(loc, Ag, An, eyebars=tuple(bars))
+
+
+def _rod_at(section: RodSet, member: str, loc: Location, acting: Sequence[_Loss],
+            gone: frozenset[str], _bent: frozenset[str], warnings: list[str],
+            assumptions: list[str], *, record: bool) -> SectionAtLocation:
+    d0 = section.diameter_in
+    e0 = _end_diameter(section)
+    if record:
+        if section.end is RodEnd.THREADED and section.root_diameter_in is None:
+            assumptions.append(f"member {member}: thread root diameter not recorded; root area "
+                               f"taken as {THREADED_ROOT_AREA_RATIO:g} of the body area (AISC "
+                               "360-10 Table J3.2 threaded-part form, value from memory); "
+                               "measure the root")
+            warnings.append(f"member {member}: threaded rod without a recorded root diameter "
+                            "(an assumed root area is used)")
+        if section.end is RodEnd.UPSET and section.root_diameter_in is None:
+            assumptions.append(f"member {member}: upset rod ends taken as stronger than the "
+                               "body (no upset thread root recorded); loss at an end is "
+                               "applied to the body diameter there")
+        if section.end is RodEnd.LOOP:
+            warnings.append(f"member {member}: forge-welded loop rods crack at the forge line, "
+                            "a frequent flaw (VTRC 11-R13); inspect the welds closely, the "
+                            "rating assumes they are sound unless a finding says otherwise")
+    rods = []
+    for i in range(1, section.count + 1):
+        c = f"bar {i}"
+        if c in gone:
+            continue
+        db = _min_left(d0, d0, acting, c, FindingRegion.BODY)
+        de = _min_left(e0, e0, acting, c, FindingRegion.THREAD)
+        rods.append(RodAtLocation(c, db, de, section.shape))
+    Ag = sum(r.body_area_in2 for r in rods)
+    An = sum(r.end_area_in2 for r in rods)
+    return SectionAtLocation(loc, Ag, An, rods=tuple(rods))
+
+
+def _open_axis(parts_rects: dict[str, list[Rect]], whole: AreaProperties) -> str:
+    """The axis on which the connectors work: the one whose I owes most to part offsets."""
+    own_x = own_y = 0.0
+    for rects in parts_rects.values():
+        p = area_properties(rects)
+        own_x += p.I_x_in4
+        own_y += p.I_y_in4
+    share_x = 1.0 - own_x / whole.I_x_in4 if whole.I_x_in4 > 0 else 0.0
+    share_y = 1.0 - own_y / whole.I_y_in4 if whole.I_y_in4 > 0 else 0.0
+    return "x" if share_x >= share_y else "y"
+
+
+def _builtup_at(section: BuiltUpSection, member: str, loc: Location, acting: Sequence[_Loss],
+                gone: frozenset[str], _bent: frozenset[str], warnings: list[str],
+                assumptions: list[str], *, record: bool) -> SectionAtLocation:
+    by_part: dict[str, list[Rect]] = {}
+    kinds: dict[str, Part] = {}
+    for p in section.parts:
+        key = p.label.strip().lower()
+        if key in gone:
+            continue
+        t_ref = part_reference_thickness_in(p)
+        rects = []
+        for r in part_rectangles(p):
+            t_new = _min_left(r.t_in, t_ref, acting, key)
+            if t_new <= 0.0 and any(key in lo.components for lo in acting):
+                warnings.append(f"member {member}: the loss recorded on part {p.label} takes "
+                                f"away its whole {r.element} ({r.t_in:g} in) at "
+                                f"{loc.describe()}")
+            if t_new > 0.0:
+                rects.append(r.thinned(t_new))
+        if rects:
+            by_part[key] = rects
+            kinds[key] = p
+    all_rects = [r for rs in by_part.values() for r in rs]
+    props = area_properties(all_rects)
+    Ag = props.A_in2
+    t_h0 = max(r.t_in for p in section.parts for r in part_rectangles(p))
+    # holes go through the element that is thickest as built, at its thickness here
+    thick_here = 0.0
+    for p in section.parts:
+        for r in part_rectangles(p):
+            if abs(r.t_in - t_h0) < 1e-12:
+                key = p.label.strip().lower()
+                here = next((q.t_in for q in by_part.get(key, []) if q.element == r.element),
+                            0.0)
+                thick_here = max(thick_here, here)
+    An = max(Ag - section.holes_per_section * section.hole_diameter_in * thick_here, 0.0)
+    if record and section.holes_per_section:
+        assumptions.append(f"member {member}: each of the {section.holes_per_section} rivet "
+                           f"holes ({section.hole_diameter_in:g} in) is deducted through the "
+                           f"thickest element ({t_h0:g} in as built) for the net area")
+    elements = tuple(ElementAtLocation(r.part, r.element, r.b_in, r.t_in, r.stiffened)
+                     for r in all_rects)
+    c = section.connectors
+    r_i = None
+    axis = None
+    if c is not None and c.kind is not ConnectorKind.SOLID and len(by_part) >= 2 and Ag > 0:
+        axis = _open_axis(by_part, props)
+        if c.r_i_in is not None:
+            r_i = c.r_i_in
+        else:
+            main = [k for k, p in kinds.items() if isinstance(p, ChannelPart | AnglePart)] \
+                or list(kinds)
+            r_i = min(area_properties(by_part[k]).r_min_in for k in main)
+            if record:
+                assumptions.append(f"member {member}: r_i (one component between connectors) "
+                                   "taken as the least principal r of its "
+                                   + ("channels and angles" if len(main) < len(kinds)
+                                      else "parts") + " after loss")
+    return SectionAtLocation(loc, Ag, An, props.r_x_in, props.r_y_in, props,
+                             elements=elements, r_i_in=r_i, modified_axis=axis,
+                             shear_lag_U=section.shear_lag_U)
+
+
+def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequence[_Loss],
+               gone: frozenset[str], _bent: frozenset[str], warnings: list[str],
+               assumptions: list[str], *, record: bool) -> SectionAtLocation:
+    key = next(iter(_components(section, member)))
+    if key in gone:
+        return SectionAtLocation(loc, 0.0, 0.0, section.r_x_in, section.r_y_in,
+                                 shear_lag_U=section.shear_lag_U)
+    left = 1.0
+    for lo in acting:
+        left = min(left, 1.0 - (lo.finding.percent_loss or 0.0) / 100.0)
+    A = section.area_in2 * left
+    An = (section.net_area_in2 if section.net_area_in2 is not None else section.area_in2) * left
+    if record and section.net_area_in2 is None:
+        assumptions.append(f"member {member}: rolled shape net area not given; taken equal to "
+                           "the gross area")
+    return SectionAtLocation(loc, A, An, section.r_x_in, section.r_y_in,
+                             shear_lag_U=section.shear_lag_U)
+
+
+_BUILDERS = {EyebarSet: _eyebar_at, RodSet: _rod_at, BuiltUpSection: _builtup_at,
+             RolledShape: _rolled_at}

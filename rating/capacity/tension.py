@@ -1,0 +1,246 @@
+"""Tensile resistance of truss members: built-up and rolled members, eyebars and rods.
+
+Pure provision functions first (nominal resistances, kip; areas in^2, stresses ksi), then
+``tension_checks`` which evaluates them at every location of a ``SectionReport`` and keeps the
+governing location of each check.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+from rating.capacity.checks import Check, Sense
+from rating.capacity.sections import SectionAtLocation, SectionReport
+from rating.model import EyebarSet, FindingRegion, Material, MemberRole, RodEnd, RodSet
+
+PHI_Y = 0.95
+"""Resistance factor for yielding on the gross section, AASHTO LRFD 6.5.4.2. [value from memory]"""
+PHI_U = 0.80
+"""Resistance factor for fracture on the net section, AASHTO LRFD 6.5.4.2. [value from memory]"""
+PHI_PIN_PLATE = 0.75
+"""phi_t = phi_sf for pin-connected members, AISC LRFD 1999 D3.1. [value from memory]"""
+B_EFF_ADD_IN = 0.63
+"""The 0.63 in added to 2t in the effective width of a pin-connected plate, AISC LRFD 1999 D3."""
+
+SECONDARY_ROLES = frozenset({MemberRole.SUB_STRUT, MemberRole.SUB_TIE})
+"""Roles treated as secondary members for the slenderness limits. [common practice]"""
+
+
+def yielding_nominal(A_g, F_y):
+    """Nominal tensile yielding on the gross section, P_ny = F_y A_g, kip.
+
+    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-1 [value from memory]; SSDH Section 13, Eq. 13.11 [read].
+    """
+    return F_y * A_g
+
+
+def fracture_nominal(A_n, F_u, U=1.0):
+    """Nominal tensile fracture on the net section, P_nu = F_u A_n U, kip.
+
+    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-2 [value from memory]; SSDH Section 13, Eq. 13.12 [read].
+    """
+    return F_u * A_n * U
+
+
+def pin_plate_effective_width_in(t, edge_in):
+    """Effective width b_eff = 2t + 0.63 in, not more than the hole-to-edge distance, in.
+
+    AISC LRFD 1999 D3.1(a), b_eff definition. [read]
+    """
+    return np.minimum(2.0 * np.asarray(t, dtype=float) + B_EFF_ADD_IN, edge_in)
+
+
+def pin_plate_tension_nominal(t, edge_in, F_u):
+    """Tension on the net effective area of a pin-connected plate, P_n = 2 t b_eff F_u, kip.
+
+    AISC LRFD 1999 D3.1(a), Eq. D3-1. [read]
+    """
+    return 2.0 * np.asarray(t, dtype=float) * pin_plate_effective_width_in(t, edge_in) * F_u
+
+
+def pin_plate_shear_nominal(t, a_in, d_hole_in, F_u):
+    """Shear on the effective area beyond the hole, P_n = 0.6 A_sf F_u, A_sf = 2 t (a + d/2).
+
+    AISC LRFD 1999 D3.1(b), Eq. D3-2. [read]
+    """
+    A_sf = 2.0 * np.asarray(t, dtype=float) * (a_in + d_hole_in / 2.0)
+    return 0.6 * A_sf * F_u
+
+
+@dataclass(frozen=True)
+class TensionResult:
+    checks: tuple[Check, ...]
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+
+
+def _governing(name: str, phi: float, provision: str,
+               candidates: Sequence[SectionAtLocation],
+               nominal: Callable[[SectionAtLocation], float],
+               detail: Callable[[SectionAtLocation], str]) -> Check:
+    """The check at the location with the least nominal resistance (first on a tie)."""
+    values = np.array([nominal(s) for s in candidates], dtype=float)
+    k = int(np.argmin(values))
+    s = candidates[k]
+    return Check(name, Sense.TENSION, phi, float(values[k]), provision, s.location, detail(s))
+
+
+def _in(regions: set[FindingRegion | None], tension: Sequence[SectionAtLocation]):
+    return [s for s in tension if s.location.region in regions]
+
+
+def tension_checks(report: SectionReport, material: Material, *, role: MemberRole | None = None,
+                   length_ft: float | None = None, phi_y: float = PHI_Y, phi_u: float = PHI_U,
+                   phi_pin_plate: float = PHI_PIN_PLATE, head_as_pin_plate: bool = True,
+                   head_ratio_min: float = 1.5, beyond_ratio_min: float = 0.65,
+                   slenderness_limit: float = 200.0,
+                   slenderness_limit_secondary: float = 240.0) -> TensionResult:
+    """Every tension check of the member at its governing location.
+
+    AASHTO LRFD 6.8.2.1 (phi_y 0.95, phi_u 0.80) [value from memory]; AISC LRFD 1999 D3 [read].
+
+    Args:
+        report: section as built and at every location (``section_properties``).
+        material: F_y, F_u in ksi.
+        head_as_pin_plate: check eyebar heads with the pin-connected plate forms of AISC LRFD
+            1999 D3 (conservative for heads that meet the eyebar proportions); False checks
+            the head net section through the hole by LRFD 6.8.2.1 fracture instead.
+        head_ratio_min: least head net section through the hole / body area (Waddell 1898,
+            p. 176: 50% more than the body) [read].
+        beyond_ratio_min: least section beyond the hole / section through the hole (Waddell
+            1898, p. 176: 65%) [read].
+        slenderness_limit, slenderness_limit_secondary: L/r limits of tension members other
+            than eyebars and rods, primary / secondary (AASHTO LRFD 6.8.4) [value from memory].
+    """
+    Fy, Fu = material.F_y, material.F_u
+    T = report.tension
+    m = report.member
+    warnings: list[str] = []
+    assumptions: list[str] = []
+    checks: list[Check] = []
+    yield_prov = ("AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-1 [value from memory]; SSDH Section 13, "
+                  "Eq. 13.11 [read]")
+    frac_prov = ("AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-2 [value from memory]; SSDH Section 13, "
+                 "Eq. 13.12 [read]")
+    if report.carrying_count == 0:
+        warnings.append(f"member {m}: no bar or part is left carrying load; its tensile "
+                        "resistance is zero")
+    if report.kind == "eyebar set":
+        body = _in({None, FindingRegion.BODY}, T)
+        head = _in({None, FindingRegion.HEAD}, T)
+        checks.append(_governing(
+            "eyebar body yielding", phi_y, yield_prov + "; body as A_g, AISC LRFD 1999 D3.2 "
+            "[read]", body,
+            lambda s: float(yielding_nominal(sum(b.body_area_in2 for b in s.eyebars), Fy)),
+            lambda s: f"{len(s.eyebars)} bars, A_body = "
+                      f"{sum(b.body_area_in2 for b in s.eyebars):.3f} in2, F_y = {Fy:g} ksi"))
+
+        def _arr(s: SectionAtLocation, name: str) -> np.ndarray:
+            return np.array([getattr(b, name) for b in s.eyebars], dtype=float)
+
+        def _beff(s: SectionAtLocation) -> np.ndarray:
+            return pin_plate_effective_width_in(_arr(s, "head_thickness_in"),
+                                                _arr(s, "side_edge_in"))
+
+        if head_as_pin_plate:
+            checks.append(_governing(
+                "eyebar head, tension through the pin hole (pin-plate form)", phi_pin_plate,
+                "AISC LRFD 1999 D3.1(a), Eq. D3-1 [read]; phi 0.75 [value from memory]", head,
+                lambda s: float(np.sum(pin_plate_tension_nominal(
+                    _arr(s, "head_thickness_in"), _arr(s, "side_edge_in"), Fu))),
+                lambda s: f"{len(s.eyebars)} heads, t_h = "
+                          f"{_fmt(_arr(s, 'head_thickness_in'))} in, b_eff = "
+                          f"{_fmt(_beff(s))} in, F_u = {Fu:g} ksi"))
+            assumptions.append(f"member {m}: eyebar heads are checked as pin-connected plates "
+                               "(AISC LRFD 1999 D3.1 a and b), conservative for heads that meet "
+                               "the eyebar proportions")
+        else:
+            checks.append(_governing(
+                "eyebar head, net section through the pin hole", phi_u, frac_prov, head,
+                lambda s: float(fracture_nominal(s.A_n_in2, Fu)),
+                lambda s: f"A_n (head through hole) = {s.A_n_in2:.3f} in2, F_u = {Fu:g} ksi"))
+        checks.append(_governing(
+            "eyebar head, shear beyond the pin hole", phi_pin_plate,
+            "AISC LRFD 1999 D3.1(b), Eq. D3-2 [read]; phi 0.75 [value from memory]", head,
+            lambda s: float(np.sum(pin_plate_shear_nominal(
+                _arr(s, "head_thickness_in"), _arr(s, "beyond_hole_in"),
+                _arr(s, "hole_diameter_in"), Fu))),
+            lambda s: f"{len(s.eyebars)} heads, a = {_fmt(_arr(s, 'beyond_hole_in'))} in, "
+                      f"d = {_fmt(_arr(s, 'hole_diameter_in'))} in, F_u = {Fu:g} ksi"))
+        warnings.extend(_eyebar_proportions(report, head_ratio_min, beyond_ratio_min))
+    elif report.kind == "rod set":
+        body = _in({None, FindingRegion.BODY}, T)
+        end = _in({None, FindingRegion.THREAD}, T)
+        checks.append(_governing(
+            "rod body yielding", phi_y, yield_prov, body,
+            lambda s: float(yielding_nominal(s.A_g_in2, Fy)),
+            lambda s: f"{len(s.rods)} rods, A_body = {s.A_g_in2:.3f} in2, F_y = {Fy:g} ksi"))
+        end_kind = report.section.end if isinstance(report.section, RodSet) else RodEnd.UPSET
+        checks.append(_governing(
+            f"rod end fracture at the {rod_end_label(end_kind)}", phi_u,
+            frac_prov + "; rod ends on the root area, upset ends on the body [common practice]",
+            end,
+            lambda s: float(fracture_nominal(s.A_n_in2, Fu)),
+            lambda s: f"{len(s.rods)} rods, A_end = {s.A_n_in2:.3f} in2, F_u = {Fu:g} ksi"))
+    else:
+        checks.append(_governing(
+            "yielding on the gross section", phi_y, yield_prov, T,
+            lambda s: float(yielding_nominal(s.A_g_in2, Fy)),
+            lambda s: f"A_g = {s.A_g_in2:.3f} in2, F_y = {Fy:g} ksi"))
+        checks.append(_governing(
+            "fracture on the net section", phi_u, frac_prov, T,
+            lambda s: float(fracture_nominal(s.A_n_in2, Fu, s.shear_lag_U)),
+            lambda s: f"A_n = {s.A_n_in2:.3f} in2, U = {s.shear_lag_U:g}, F_u = {Fu:g} ksi"))
+        if length_ft is not None and T[0].A_g_in2 > 0:
+            r = T[0].r_least_in
+            L_r = length_ft * 12.0 / r if r > 0 else float("inf")
+            lim = slenderness_limit_secondary if role in SECONDARY_ROLES else slenderness_limit
+            if L_r > lim:
+                warnings.append(f"member {m}: tension slenderness L/r = {L_r:.0f} exceeds "
+                                f"{lim:g} (AASHTO LRFD 6.8.4, value from memory); expect "
+                                "vibration and handling damage")
+    return TensionResult(tuple(checks), tuple(warnings), tuple(assumptions))
+
+
+def _fmt(a: np.ndarray) -> str:
+    vals = sorted({round(float(v), 4) for v in np.atleast_1d(a)})
+    return "/".join(f"{v:g}" for v in vals) if vals else "-"
+
+
+def _eyebar_proportions(report: SectionReport, head_ratio_min: float,
+                        beyond_ratio_min: float) -> list[str]:
+    """Period head proportions, as built.
+
+    Waddell, De Pontibus, 1898, p. 176 [read]; AISC LRFD 1999 D3.2 dimensions [read].
+    """
+    out: list[str] = []
+    m = report.member
+    bars = report.as_built.eyebars
+    if not bars:
+        return out
+    b = bars[0]
+    ratio = b.through_hole_area_in2 / b.body_area_in2
+    if ratio < head_ratio_min - 1e-9:
+        out.append(f"member {m}: eyebar head net section through the hole is {ratio:.2f} x the "
+                   f"body (period proportion {head_ratio_min:g} x, Waddell 1898 p. 176); the "
+                   "head may govern")
+    sec = report.section
+    if isinstance(sec, EyebarSet) and sec.head_beyond_hole_in is not None:
+        beyond = b.beyond_hole_area_in2 / b.through_hole_area_in2
+        if beyond < beyond_ratio_min - 1e-9:
+            out.append(f"member {m}: eyebar head section beyond the hole is {beyond:.2f} of the "
+                       f"section through the hole (period proportion {beyond_ratio_min:g}, "
+                       "Waddell 1898 p. 176)")
+    if b.hole_diameter_in < 7.0 / 8.0 * b.width_in - 1.0 / 32.0:
+        out.append(f"member {m}: pin hole {b.hole_diameter_in:g} in is smaller than 7/8 of the "
+                   f"body width {b.width_in:g} in (AISC LRFD 1999 D3.2 proportion)")
+    return out
+
+
+def rod_end_label(end: RodEnd) -> str:
+    """Words for the end a rod's end check is made on."""
+    return {RodEnd.THREADED: "thread root", RodEnd.UPSET: "upset end",
+            RodEnd.LOOP: "loop at the forge line"}[end]
