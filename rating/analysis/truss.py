@@ -212,6 +212,38 @@ def joint_load_array(geometry: TrussGeometry, loads: Mapping[str, tuple[float, f
     return P
 
 
+class TrussFamily:
+    """One geometry with its factorized trusses cached by the set of slack members.
+
+    The rating solves the same truss many times with only a few distinct active sets; each
+    set is factorized once. Unstable sets are remembered too.
+    """
+
+    def __init__(self, geometry: TrussGeometry) -> None:
+        self.geometry = geometry
+        self._solvers: dict[frozenset[str], LinearTruss | InstabilityError] = {}
+
+    def solver(self, slack: Iterable[str] = ()) -> LinearTruss:
+        key = frozenset(slack)
+        hit = self._solvers.get(key)
+        if hit is None:
+            try:
+                hit = LinearTruss(self.geometry, key)
+            except InstabilityError as exc:
+                hit = exc
+            self._solvers[key] = hit
+        if isinstance(hit, InstabilityError):
+            raise hit
+        return hit
+
+    def is_stable(self, slack: Iterable[str]) -> bool:
+        try:
+            self.solver(slack)
+        except InstabilityError:
+            return False
+        return True
+
+
 @dataclass(frozen=True)
 class ActiveSetSolution:
     """Tension-only analysis of one load state.
@@ -233,6 +265,7 @@ def solve_tension_only(
     initial_slack: Iterable[str] = (),
     max_iterations: int = 50,
     tol_kip: float = 1e-9,
+    family: TrussFamily | None = None,
 ) -> ActiveSetSolution:
     """Active-set solution for a truss with tension-only members under one load state.
 
@@ -245,6 +278,7 @@ def solve_tension_only(
     raises :class:`ConvergenceError`.
     """
     P = np.asarray(joint_loads_kip, dtype=float)
+    fam = family if family is not None else TrussFamily(geometry)
     t_only = {m.label for m in geometry.members if m.tension_only}
     slack = frozenset(initial_slack) & t_only
     forced: set[str] = set()
@@ -253,7 +287,7 @@ def solve_tension_only(
     scale = max(float(np.abs(P).max()), 1.0) * tol_kip
     for it in range(1, max_iterations + 1):
         seen.add(slack)
-        lt = LinearTruss(geometry, slack)
+        lt = fam.solver(slack)
         sol = lt.solve(P)
         N = sol.member_forces_kip
         el = lt.elongation(sol.displacements)[:, 0]
@@ -265,18 +299,14 @@ def solve_tension_only(
         if not compressed and not stretched:
             return ActiveSetSolution(sol, slack, frozenset(forced), it)
         new = (slack - stretched) | set(compressed)
-        try:
-            LinearTruss(geometry, new)
-        except InstabilityError:
+        if not fam.is_stable(new):
             # release only the most compressed member (by stress) if that is stable
             idx = {lab: i for i, lab in enumerate(labels)}
             ordered = sorted(compressed, key=lambda lab: N[idx[lab]] / geometry.member(lab)
                              .area_in2)
             new = slack - stretched
             for lab in ordered:
-                try:
-                    LinearTruss(geometry, new | {lab})
-                except InstabilityError:
+                if not fam.is_stable(new | {lab}):
                     forced.add(lab)
                     continue
                 new = new | {lab}

@@ -1,0 +1,662 @@
+"""Exact live-load extremes of every member under moving axle series and lane loads.
+
+An influence line here is piecewise linear between the deck panel points and zero off the
+bridge (:class:`~rating.analysis.influence.InfluenceLines`). The summed effect of a series of
+axles is then piecewise linear in the vehicle's position, with breaks only where some axle
+stands over a breakpoint of the line, so its extremes lie in a finite candidate set: each axle
+over each breakpoint, both directions of travel (common practice; any structural-analysis text
+on moving loads and influence lines). Nothing is stepped.
+
+How the search works, per direction (reverse travel is forward travel on the mirrored line):
+
+* The candidate front-axle positions ``breakpoint + axle offset`` are shared by all members, so
+  they are sorted once. Per member the effect's slope changes at a candidate by
+  ``P_j x (kink of the line at the breakpoint)``, so the effect at every candidate follows from
+  cumulative sums, vectorized over members x candidates: cost ~ members x panels x axles.
+* A line that is not zero at an end of the bridge (e.g. the end vertical of a deck truss)
+  jumps there. The supremum is then taken over the one-sided limits too; when a limit
+  governs, the reported position is moved 1e-6 ft to that side so that
+  :func:`concurrent_forces` reproduces the value.
+* A variable axle spacing (the HL-93 rear spacing, 14 to 30 ft) is searched exactly: with the
+  axles split into the group ahead of the variable gap (effect F) and the group behind it
+  (effect G), the extreme of F(x) + G(u) over the strip lo <= gap <= hi lies at a vertex:
+  either the gap at a limit (two rigid searches) or an axle of each group over a breakpoint
+  (pairs, found with a vectorized running maximum of F over the admissible window).
+* Axles that stand where the line has the opposite sign can be neglected (AASHTO LRFD
+  3.6.1.3.1 for the design vehicles): the line is clipped to its adverse part, whose zero
+  crossings are added to the breakpoints.
+* A lane load goes on every segment of the line that adds to the effect, integrated exactly
+  (segments split at their zero crossings).
+
+Tension is positive. Forces are for one whole vehicle on one truss line; the lateral
+distribution factor (:mod:`rating.analysis.distribution`) and the dynamic load allowance are
+applied by the rating, IM to the axle part only.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+from enum import StrEnum
+
+import numpy as np
+
+from rating.analysis.influence import InfluenceLines
+from rating.errors import InputError
+from rating.model.vehicles import Vehicle
+from rating.vehicles.library import LoadModel, RatingLoad, as_rating_load
+
+NUDGE_FT = 1e-6
+"""Distance a reported position is moved to the side of a one-sided limit (see module doc)."""
+
+_MAX_CHUNK_ELEMENTS = 2_000_000
+_SIDE_C, _SIDE_L, _SIDE_R = 0, 1, 2
+_SIDE_SHIFT = np.array([0.0, -1.0, 1.0])
+
+
+class Direction(StrEnum):
+    """Direction of travel: FORWARD toward increasing station (+x), REVERSE toward -x."""
+
+    FORWARD = "forward"
+    REVERSE = "reverse"
+
+
+BOTH_DIRECTIONS: tuple[Direction, ...] = (Direction.FORWARD, Direction.REVERSE)
+
+
+@dataclass(frozen=True)
+class VehiclePosition:
+    """Where a vehicle stands: station of its front axle (ft), its direction of travel and the
+    spacing of every gap front to rear (ft; the chosen value for a variable spacing)."""
+
+    front_axle_ft: float
+    direction: Direction
+    spacings_ft: tuple[float, ...]
+
+
+@dataclass(frozen=True)
+class Extreme:
+    """One extreme (max or min) of one member under one rating load, kip, tension positive.
+
+    ``axle_kip`` is the axle part (IM applies to it), ``lane_kip`` the lane part (never IM);
+    neither includes the lateral distribution factor. ``model`` and ``vehicle_id`` name the
+    load model that governed; ``position`` is None when no position gives an effect of this
+    sign. ``lane_segments_ft`` are the stretches of deck the lane load covers.
+    """
+
+    axle_kip: float
+    lane_kip: float
+    model: str
+    vehicle_id: str
+    position: VehiclePosition | None
+    lane_klf: float = 0.0
+    lane_segments_ft: tuple[tuple[float, float], ...] = ()
+    neglect_opposing_axles: bool = False
+
+    @property
+    def value_kip(self) -> float:
+        """Axle part plus lane part, without IM."""
+        return self.axle_kip + self.lane_kip
+
+    def total_kip(self, im: float) -> float:
+        """(1 + IM) x axle part + lane part.
+
+        AASHTO LRFD 3.6.2.1 and 3.6.1.2.4: IM on axle loads only, never on the lane load. [value from memory]
+        """
+        return (1.0 + im) * self.axle_kip + self.lane_kip
+
+
+@dataclass(frozen=True)
+class MemberEnvelope:
+    member: str
+    max: Extreme
+    min: Extreme
+
+
+@dataclass(frozen=True, eq=False)
+class Envelope:
+    """Max and min of every member under one rating load, in the order of the lines' members.
+
+    ``im_for_comparison`` is the IM used only to choose the governing load model of a member
+    (truck + lane against tandem + lane); the rating applies its own IM to ``axle_kip``.
+    ``applies`` is False when the load is not to be rated on this span (e.g. the lane-type
+    legal load on a span of 200 ft or less); the values are computed anyway.
+    """
+
+    load: RatingLoad
+    span_ft: float
+    im_for_comparison: float
+    members: tuple[MemberEnvelope, ...]
+    applies: bool = True
+
+    def of(self, member: str) -> MemberEnvelope:
+        for e in self.members:
+            if e.member == member:
+                return e
+        raise KeyError(member)
+
+    @property
+    def member_labels(self) -> tuple[str, ...]:
+        return tuple(e.member for e in self.members)
+
+    def totals_kip(self, im: float) -> tuple[np.ndarray, np.ndarray]:
+        """(max, min) of every member with IM on the axle part, arrays of shape (n_members,)."""
+        mx = np.array([e.max.total_kip(im) for e in self.members])
+        mn = np.array([e.min.total_kip(im) for e in self.members])
+        return mx, mn
+
+
+@dataclass(frozen=True, eq=False)
+class AxleExtremes:
+    """Vectorized axle-only extremes of one vehicle, index 0 = max, 1 = min.
+
+    Arrays: ``value_kip`` (2, m); ``front_axle_ft`` (2, m); ``reverse`` (2, m) bool;
+    ``spacings_ft`` (2, m, n_gaps); ``found`` (2, m) bool, False where no position gives an
+    effect of that sign (value 0, position meaningless).
+    """
+
+    member_labels: tuple[str, ...]
+    vehicle_id: str
+    value_kip: np.ndarray
+    front_axle_ft: np.ndarray
+    reverse: np.ndarray
+    spacings_ft: np.ndarray
+    found: np.ndarray
+
+    def position(self, sense: int, k: int) -> VehiclePosition | None:
+        """Critical position of member ``k`` for ``sense`` 0 (max) or 1 (min)."""
+        if not self.found[sense, k]:
+            return None
+        return VehiclePosition(
+            float(self.front_axle_ft[sense, k]),
+            Direction.REVERSE if self.reverse[sense, k] else Direction.FORWARD,
+            tuple(float(s) for s in self.spacings_ft[sense, k]),
+        )
+
+
+# ---------------------------------------------------------------------------------------------
+# vehicle geometry
+
+
+def axle_offsets_ft(spacings_ft: Sequence[float]) -> np.ndarray:
+    """Distance of every axle behind the front axle, ft, shape (n_axles,)."""
+    return np.concatenate(([0.0], np.cumsum(np.asarray(spacings_ft, dtype=float))))
+
+
+def axle_stations(position: VehiclePosition) -> np.ndarray:
+    """Station of every axle (ft), front to rear, for a vehicle standing at ``position``."""
+    d = axle_offsets_ft(position.spacings_ft)
+    if position.direction is Direction.FORWARD:
+        return position.front_axle_ft - d
+    return position.front_axle_ft + d
+
+
+def _axle_loads(v: Vehicle) -> np.ndarray:
+    return np.asarray(v.axle_loads_kip, dtype=float) * v.axle_scale
+
+
+def _check_vehicle(v: Vehicle) -> None:
+    if len(v.spacings) != max(v.axle_count - 1, 0):
+        raise InputError(f"vehicle {v.id} has {v.axle_count} axles but {len(v.spacings)} "
+                         "spacings; it needs one spacing per gap between axles", v.where or None)
+    for i, s in enumerate(v.spacings):
+        if not (0.0 <= s.min_ft <= s.max_ft) or not np.isfinite(s.max_ft):
+            raise InputError(f"vehicle {v.id}: spacing {i + 1} must satisfy 0 <= min <= max",
+                             v.where or None)
+
+
+def _check_lines(lines: InfluenceLines) -> None:
+    if lines.stations_ft.size < 2:
+        raise InputError("an influence line needs at least two deck panel points")
+    if not (np.all(np.isfinite(lines.ordinates)) and np.all(np.isfinite(lines.stations_ft))):
+        raise InputError("an influence line has an ordinate that is not a finite number")
+
+
+# ---------------------------------------------------------------------------------------------
+# evaluation of lines at points, with one-sided limits at the ends
+
+
+def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndarray,
+               tol: float, clip: bool) -> np.ndarray:
+    """Ordinates of each row of ``Y`` at the points ``X`` (shape (m, a), one row per member).
+
+    ``side`` (same shape) picks the value exactly at X (0), the limit from below (1) or from
+    above (2); they differ only at the ends of the bridge, where the line jumps to zero.
+    """
+    s0, s1 = stations[0], stations[-1]
+    flat = np.clip(X, s0, s1).ravel()
+    idx = np.clip(np.searchsorted(stations, flat, side="right") - 1, 0, stations.size - 2)
+    t = (flat - stations[idx]) / (stations[idx + 1] - stations[idx])
+    rows = np.repeat(np.arange(X.shape[0]), X.shape[1])
+    y = (Y[rows, idx] * (1.0 - t) + Y[rows, idx + 1] * t).reshape(X.shape)
+    at0 = np.abs(X - s0) <= tol
+    at1 = np.abs(X - s1) <= tol
+    inside = (X > s0 + tol) & (X < s1 - tol)
+    on = inside | (at0 & (side != _SIDE_L)) | (at1 & (side != _SIDE_R))
+    y = np.where(on, y, 0.0)
+    return np.maximum(y, 0.0) if clip else y
+
+
+def _adverse_grid(stations: np.ndarray, Y: np.ndarray, tol: float) -> np.ndarray:
+    """Stations plus every zero crossing of every row (the breakpoints of max(y, 0))."""
+    a, b = Y[:, :-1], Y[:, 1:]
+    cross = (a * b) < 0
+    h = np.diff(stations)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xc = stations[:-1] + h * a / (a - b)
+    xc = xc[cross]
+    grid = np.unique(np.concatenate((stations, xc)))
+    keep = np.ones(grid.size, dtype=bool)
+    keep[1:] = np.diff(grid) > tol
+    grid = grid[keep]
+    # stations are always kept exactly
+    return np.unique(np.concatenate((stations, grid[~np.isin(grid, stations)])))
+
+
+def _interp_rows(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray) -> np.ndarray:
+    idx = np.clip(np.searchsorted(stations, grid, side="right") - 1, 0, stations.size - 2)
+    t = (grid - stations[idx]) / (stations[idx + 1] - stations[idx])
+    return Y[:, idx] * (1.0 - t) + Y[:, idx + 1] * t
+
+
+# ---------------------------------------------------------------------------------------------
+# the scan of one rigid axle series over shared breakpoints
+
+
+@dataclass(frozen=True, eq=False)
+class _Candidates:
+    """Sorted candidate front-axle positions for breakpoints ``B`` and axle offsets ``D``."""
+
+    i_k: np.ndarray  # breakpoint index of each sorted candidate
+    j_k: np.ndarray  # axle index of each sorted candidate
+    starts: np.ndarray  # first sorted candidate of each tie group
+    group_of: np.ndarray  # tie group of each sorted candidate
+    u: np.ndarray  # position of each tie group (front-axle station), shape (U,)
+
+
+def _candidates(B: np.ndarray, D: np.ndarray, tol: float) -> _Candidates:
+    a = D.size
+    x = (B[:, None] + D[None, :]).ravel()
+    order = np.argsort(x, kind="stable")
+    xs = x[order]
+    new = np.empty(xs.size, dtype=bool)
+    new[0] = True
+    new[1:] = np.diff(xs) > tol
+    starts = np.flatnonzero(new)
+    return _Candidates(order // a, order % a, starts, np.cumsum(new) - 1, xs[starts])
+
+
+def _kinks(B: np.ndarray, V: np.ndarray) -> np.ndarray:
+    dB = np.diff(B)
+    dV = np.diff(V, axis=1)
+    sl = np.divide(dV, dB, out=np.zeros_like(dV), where=dB > 0)
+    return np.diff(sl, axis=1, prepend=0.0, append=0.0)
+
+
+def _scan(c: _Candidates, B: np.ndarray, V: np.ndarray, P: np.ndarray, groups: np.ndarray,
+          n_groups: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Effect of the axle series at every tie group: limit from below ``EL`` (m, U) and the
+    jumps of each axle group there, entering ``Jen`` and leaving ``Jex`` (G, m, U)."""
+    m, nb = V.shape
+    U = c.u.size
+    K = _kinks(B, V)
+    dS = K[:, c.i_k] * P[c.j_k]
+    slope = np.cumsum(np.add.reduceat(dS, c.starts, axis=1), axis=1)
+    inc = np.zeros((m, U))
+    inc[:, 1:] = slope[:, :-1] * np.diff(c.u)
+    Jen = np.zeros((n_groups, m, U))
+    Jex = np.zeros((n_groups, m, U))
+    ent = np.flatnonzero(c.i_k == 0)
+    ext = np.flatnonzero(c.i_k == nb - 1)
+    for arr, ks, col in ((Jen, ent, V[:, 0]), (Jex, ext, -V[:, -1])):
+        g = groups[c.j_k[ks]]
+        q = c.group_of[ks]
+        vals = col[:, None] * P[c.j_k[ks]][None, :]  # (m, len(ks))
+        np.add.at(arr, (g, slice(None), q), vals.T)
+    J = Jen.sum(axis=0) + Jex.sum(axis=0)
+    ER = np.cumsum(inc + J, axis=1)
+    return ER - J, Jen, Jex
+
+
+def _side_values(EL: np.ndarray, Jen: np.ndarray, Jex: np.ndarray,
+                 combos: np.ndarray) -> np.ndarray:
+    """Value for each combination of sides (one side per axle group): shape (n_combos, m, U)."""
+    per = np.stack((Jen, np.zeros_like(Jen), Jen + Jex), axis=1)  # (G, 3, m, U)
+    out = np.broadcast_to(EL, (combos.shape[0],) + EL.shape).copy()
+    for g in range(combos.shape[1]):
+        out += per[g, combos[:, g]]
+    return out
+
+
+_COMBOS_1 = np.array([[_SIDE_C], [_SIDE_L], [_SIDE_R]])
+_ORDER = np.array([1, 0, 2])  # rank of C, L, R along the station: L < C < R
+_PAIRS = np.array([(s0, s1) for s0 in (_SIDE_C, _SIDE_L, _SIDE_R)
+                   for s1 in (_SIDE_C, _SIDE_L, _SIDE_R)])
+# gap at its lower limit may only grow: front group's side >= rear group's side
+_COMBOS_LO = _PAIRS[_ORDER[_PAIRS[:, 0]] >= _ORDER[_PAIRS[:, 1]]]
+_COMBOS_HI = _PAIRS[_ORDER[_PAIRS[:, 0]] <= _ORDER[_PAIRS[:, 1]]]
+
+
+@dataclass
+class _Best:
+    """Per member: best value, front-axle position, variable-gap value, side of each group."""
+
+    value: np.ndarray
+    x: np.ndarray
+    gap: np.ndarray
+    sides: np.ndarray  # (m, 2) side of front group, rear group
+
+    def take(self, other: _Best) -> None:
+        better = other.value > self.value
+        self.value = np.where(better, other.value, self.value)
+        self.x = np.where(better, other.x, self.x)
+        self.gap = np.where(better, other.gap, self.gap)
+        self.sides = np.where(better[:, None], other.sides, self.sides)
+
+
+def _rigid_best(B, V, P, D, groups, combos, gap_value, tol) -> _Best:
+    c = _candidates(B, D, tol)
+    n_groups = combos.shape[1]
+    EL, Jen, Jex = _scan(c, B, V, P, groups, n_groups)
+    vals = _side_values(EL, Jen, Jex, combos)  # (n_combo, m, U)
+    n_combo, m, U = vals.shape
+    flat = vals.transpose(1, 0, 2).reshape(m, n_combo * U)
+    k = np.argmax(flat, axis=1)
+    ci, q = np.divmod(k, U)
+    sides = combos[ci]
+    if n_groups == 1:
+        sides = np.concatenate((sides, sides), axis=1)
+    return _Best(flat[np.arange(m), k], c.u[q], np.full(m, gap_value), sides)
+
+
+def _single_group(B, V, P, D, tol) -> tuple[_Candidates, np.ndarray, np.ndarray]:
+    """Best value over sides at every tie group of a rigid series, and the side chosen."""
+    c = _candidates(B, D, tol)
+    EL, Jen, Jex = _scan(c, B, V, P, np.zeros(P.size, dtype=int), 1)
+    vals = _side_values(EL, Jen, Jex, _COMBOS_1)
+    return c, vals.max(axis=0), _COMBOS_1[vals.argmax(axis=0), 0]
+
+
+def _pair_best(B, V, P, D_front, D_rear, n_front, lo, hi, tol) -> _Best:
+    """Vertices with an axle of each group over a breakpoint and lo < gap < hi (strictly)."""
+    m = V.shape[0]
+    cF, Fb, Fs = _single_group(B, V, P[:n_front], D_front, tol)
+    cG, Gb, Gs = _single_group(B, V, P[n_front:], D_rear, tol)
+    last_front = cF.u - D_front[-1]  # station of the last axle of the front group
+    lo_i = np.searchsorted(last_front, cG.u + lo + tol, side="right")
+    hi_i = np.searchsorted(last_front, cG.u + hi - tol, side="left")
+    UF = cF.u.size
+    Fpad = np.concatenate((Fb, np.full((m, 1), -np.inf)), axis=1)
+    idx = np.empty(2 * cG.u.size, dtype=np.intp)
+    idx[0::2] = lo_i
+    idx[1::2] = np.maximum(hi_i, lo_i)
+    win = np.maximum.reduceat(Fpad, np.minimum(idx, UF), axis=1)[:, 0::2]
+    win[:, hi_i <= lo_i] = -np.inf
+    tot = win + Gb
+    kG = np.argmax(tot, axis=1)
+    rows = np.arange(m)
+    best = tot[rows, kG]
+    cols = np.arange(UF)[None, :]
+    inwin = (cols >= lo_i[kG][:, None]) & (cols < hi_i[kG][:, None])
+    kF = np.argmax(np.where(inwin, Fb, -np.inf), axis=1)
+    x = cF.u[kF]
+    gap = last_front[kF] - cG.u[kG]
+    sides = np.stack((Fs[rows, kF], Gs[rows, kG]), axis=1)
+    ok = np.isfinite(best)
+    return _Best(np.where(ok, best, -np.inf), x, np.where(ok, gap, lo), sides)
+
+
+def _sup_forward(stations: np.ndarray, Y: np.ndarray, P: np.ndarray, lo: np.ndarray,
+                 hi: np.ndarray, neglect: bool, tol: float, vehicle_id: str) -> tuple:
+    """Supremum over all forward positions (and spacings) of sum P_j y(x - d_j), per row."""
+    m = Y.shape[0]
+    if neglect:
+        B = _adverse_grid(stations, Y, tol)
+        V = np.maximum(_interp_rows(stations, Y, B), 0.0)
+    else:
+        B, V = stations, Y
+    a = P.size
+    var = np.flatnonzero(hi - lo > tol)
+    gaps = lo.copy()
+    if var.size == 0:
+        D = axle_offsets_ft(gaps)
+        best = _rigid_best(B, V, P, D, np.zeros(a, dtype=int), _COMBOS_1, 0.0, tol)
+        gv = -1
+    elif var.size == 1:
+        gv = int(var[0])
+        groups = (np.arange(a) > gv).astype(int)
+        n_front = gv + 1
+        gl = gaps.copy()
+        best = _rigid_best(B, V, P, axle_offsets_ft(gl), groups, _COMBOS_LO, lo[gv], tol)
+        gl[gv] = hi[gv]
+        best.take(_rigid_best(B, V, P, axle_offsets_ft(gl), groups, _COMBOS_HI, hi[gv], tol))
+        D_front = axle_offsets_ft(gaps[:gv])
+        D_rear = axle_offsets_ft(gaps[gv + 1:])
+        best.take(_pair_best(B, V, P, D_front, D_rear, n_front, lo[gv], hi[gv], tol))
+    else:
+        raise InputError(
+            f"vehicle {vehicle_id} has {var.size} variable axle spacings; the exact search "
+            "handles one. Give the others as fixed values (one vehicle for each value that "
+            "matters)")
+    # one-sided limits: move the position to the side that governs
+    shift = _SIDE_SHIFT[best.sides] * NUDGE_FT  # (m, 2): front group, rear group
+    x = best.x + shift[:, 0]
+    spac = np.broadcast_to(gaps, (m, gaps.size)).copy()
+    if gv >= 0:
+        spac[:, gv] = best.gap + shift[:, 0] - shift[:, 1]
+    # exact value at the winning position, evaluated directly (no accumulated sums)
+    D = np.concatenate((np.zeros((m, 1)), np.cumsum(np.where(
+        np.arange(gaps.size)[None, :] == gv, best.gap[:, None], gaps[None, :]), axis=1)), axis=1)
+    X = best.x[:, None] - D
+    grp = (np.arange(a) > gv).astype(int) if gv >= 0 else np.zeros(a, dtype=int)
+    side = best.sides[:, grp]
+    value = _eval_line(stations, Y, X, side, tol, neglect) @ P if a else np.zeros(m)
+    return value, x, spac
+
+
+def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
+                  neglect_opposing_axles: bool = False,
+                  directions: Sequence[Direction] = BOTH_DIRECTIONS) -> AxleExtremes:
+    """Max and min of the summed axle effect of ``vehicle`` on every member, exact.
+
+    Candidate set: each axle over each breakpoint, both directions, variable spacing at its limits or with an axle of each group over a breakpoint (common practice, moving loads on piecewise-linear influence lines).
+    """
+    _check_lines(lines)
+    _check_vehicle(vehicle)
+    s = lines.stations_ft.astype(float)
+    Y = lines.ordinates.astype(float)
+    m = Y.shape[0]
+    P = _axle_loads(vehicle)
+    lo = np.array([g.min_ft for g in vehicle.spacings], dtype=float)
+    hi = np.array([g.max_ft for g in vehicle.spacings], dtype=float)
+    n_gaps = lo.size
+    value = np.zeros((2, m))
+    front = np.zeros((2, m))
+    rev = np.zeros((2, m), dtype=bool)
+    spac = np.broadcast_to(lo, (2, m, n_gaps)).copy()
+    tol = _tolerance(lines, axle_offsets_ft(hi))
+    if P.size and directions:
+        dirs = tuple(Direction(d) for d in directions)
+        best_v = np.full((2, m), -np.inf)
+        C = max(1, s.size * (2 if neglect_opposing_axles else 1) * P.size)
+        chunk = max(1, _MAX_CHUNK_ELEMENTS // (C * 6))
+        for d in dirs:
+            st = s if d is Direction.FORWARD else -s[::-1]
+            Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
+            for sense, sign in ((0, 1.0), (1, -1.0)):
+                for r0 in range(0, m, chunk):
+                    rows = slice(r0, min(m, r0 + chunk))
+                    v, x, sp = _sup_forward(st, sign * Yd[rows], P, lo, hi,
+                                            neglect_opposing_axles, tol, vehicle.id)
+                    if d is Direction.REVERSE:
+                        x = -x
+                    better = v > best_v[sense, rows] + tol * 1e-3
+                    best_v[sense, rows] = np.where(better, v, best_v[sense, rows])
+                    front[sense, rows] = np.where(better, x, front[sense, rows])
+                    rev[sense, rows] = np.where(better, d is Direction.REVERSE, rev[sense, rows])
+                    spac[sense, rows] = np.where(better[:, None], sp, spac[sense, rows])
+        value[0] = best_v[0]
+        value[1] = -best_v[1]
+    scale = max(1.0, float(np.abs(Y).max(initial=0.0)) * float(P.sum(initial=0.0)))
+    found = np.stack((value[0] > 1e-12 * scale, value[1] < -1e-12 * scale))
+    value = np.where(found, value, 0.0)
+    return AxleExtremes(lines.member_labels, vehicle.id, value, front, rev, spac, found)
+
+
+# ---------------------------------------------------------------------------------------------
+# lane loads
+
+
+def adverse_areas(lines: InfluenceLines) -> tuple[np.ndarray, np.ndarray]:
+    """Area (ft x kip/kip) of the positive and of the negative parts of every line.
+
+    Exact integration of a piecewise-linear line, segments split at zero crossings (closed form).
+    """
+    h = np.diff(lines.stations_ft)
+    a, b = lines.ordinates[:, :-1], lines.ordinates[:, 1:]
+    same = a * b >= 0
+    ap, bp = np.maximum(a, 0.0), np.maximum(b, 0.0)
+    an, bn = np.minimum(a, 0.0), np.minimum(b, 0.0)
+    denom = np.where(same, 1.0, np.abs(a) + np.abs(b))
+    pos = np.where(same, 0.5 * (ap + bp), 0.5 * (ap**2 + bp**2) / denom) * h
+    neg = np.where(same, 0.5 * (an + bn), -0.5 * (an**2 + bn**2) / denom) * h
+    return pos.sum(axis=1), neg.sum(axis=1)
+
+
+def adverse_segments(stations_ft: np.ndarray, y: np.ndarray,
+                     sign: float) -> tuple[tuple[float, float], ...]:
+    """Stretches of deck where the line ``y`` has the sign of ``sign`` (where a lane load goes)."""
+    v = sign * np.asarray(y, dtype=float)
+    s = np.asarray(stations_ft, dtype=float)
+    out: list[list[float]] = []
+    for i in range(s.size - 1):
+        a, b = v[i], v[i + 1]
+        if a <= 0 and b <= 0:
+            continue
+        x0 = s[i] if a > 0 else s[i] + (s[i + 1] - s[i]) * a / (a - b)
+        x1 = s[i + 1] if b > 0 else s[i] + (s[i + 1] - s[i]) * a / (a - b)
+        if out and abs(out[-1][1] - x0) <= 1e-12 * max(1.0, abs(x0)):
+            out[-1][1] = x1
+        elif x1 > x0:
+            out.append([x0, x1])
+    return tuple((float(p), float(q)) for p, q in out)
+
+
+def line_integrals(lines: InfluenceLines, start_ft: float, end_ft: float) -> np.ndarray:
+    """Integral of every line from ``start_ft`` to ``end_ft`` (zero off the bridge), (m,)."""
+    s = lines.stations_ft
+    a, b = max(min(start_ft, end_ft), s[0]), min(max(start_ft, end_ft), s[-1])
+    if b <= a:
+        return np.zeros(len(lines.member_labels))
+    inner = s[(s > a) & (s < b)]
+    pts = np.concatenate(([a], inner, [b]))
+    y = lines.evaluate(pts)
+    return (0.5 * (y[:, :-1] + y[:, 1:]) * np.diff(pts)).sum(axis=1)
+
+
+# ---------------------------------------------------------------------------------------------
+# concurrent forces
+
+
+def concurrent_forces(lines: InfluenceLines, vehicle: Vehicle,
+                      position: VehiclePosition) -> np.ndarray:
+    """Axle-load force in every member with ``vehicle`` at ``position``, kip, shape (m,).
+
+    All axles count as they stand (physical forces of one vehicle position), scaled by the
+    vehicle's ``axle_scale``; where an extreme neglected opposing axles, that member's own
+    value may be larger. Statics of superposition on the influence lines (closed form).
+    """
+    _check_vehicle(vehicle)
+    if vehicle.axle_count == 0:
+        return np.zeros(len(lines.member_labels))
+    if len(position.spacings_ft) != len(vehicle.spacings):
+        raise InputError(f"the position has {len(position.spacings_ft)} spacings but vehicle "
+                         f"{vehicle.id} has {len(vehicle.spacings)} gaps", vehicle.where or None)
+    x = axle_stations(position)
+    m = len(lines.member_labels)
+    X = np.broadcast_to(x, (m, x.size))
+    y = _eval_line(lines.stations_ft, lines.ordinates, X, np.zeros(X.shape, dtype=int),
+                   _tolerance(lines, x), clip=False)
+    return y @ _axle_loads(vehicle)
+
+
+def _tolerance(lines: InfluenceLines, x: np.ndarray) -> float:
+    s = lines.stations_ft
+    return 1e-9 * max(1.0, float(s[-1] - s[0]) + float(np.ptp(x)))
+
+
+def concurrent_lane_forces(lines: InfluenceLines, lane_klf: float,
+                           segments_ft: Sequence[tuple[float, float]]) -> np.ndarray:
+    """Force in every member from a uniform lane load on the given stretches, kip, (m,).
+
+    Exact integration of the piecewise-linear lines (closed form).
+    """
+    out = np.zeros(len(lines.member_labels))
+    for a, b in segments_ft:
+        out += line_integrals(lines, a, b)
+    return lane_klf * out
+
+
+def concurrent_with(lines: InfluenceLines, load: RatingLoad,
+                    extreme: Extreme) -> tuple[np.ndarray, np.ndarray]:
+    """(axle part, lane part) of every member's force in the loading that gives ``extreme``.
+
+    The two parts stay apart because IM applies to the axle part only.
+    """
+    model = next((mo for mo in load.models if mo.name == extreme.model), None)
+    m = len(lines.member_labels)
+    if model is None:
+        return np.zeros(m), np.zeros(m)
+    axle = (concurrent_forces(lines, model.axles, extreme.position)
+            if model.axles is not None and extreme.position is not None else np.zeros(m))
+    lane = concurrent_lane_forces(lines, extreme.lane_klf, extreme.lane_segments_ft)
+    return axle, lane
+
+
+# ---------------------------------------------------------------------------------------------
+# rating loads
+
+
+def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0.33,
+             directions: Sequence[Direction] = BOTH_DIRECTIONS) -> Envelope:
+    """Max and min of every member under a rating load: each model's axles + lane, governing
+    model chosen per member and sense by (1 + IM) x axle + lane.
+
+    AASHTO LRFD 3.6.1.3.1 (HL-93: larger of truck + lane and tandem + lane; IM on axles only). [value from memory]
+    """
+    _check_lines(lines)
+    if isinstance(load, Vehicle):
+        load = as_rating_load(load)
+    if not load.models:
+        raise InputError(f"rating load {load.id} has no load model")
+    m = len(lines.member_labels)
+    span = float(lines.stations_ft[-1] - lines.stations_ft[0])
+    pos_area, neg_area = adverse_areas(lines)
+    per_model: list[tuple[LoadModel, AxleExtremes | None, np.ndarray]] = []
+    for mo in load.models:
+        ax = (axle_extremes(lines, mo.axles, neglect_opposing_axles=mo.neglect_opposing_axles,
+                            directions=directions) if mo.axles is not None else None)
+        lane = mo.lane_load_klf * np.stack((pos_area, neg_area))  # (2, m)
+        per_model.append((mo, ax, lane))
+    totals = np.stack([
+        (1.0 + im) * (ax.value_kip if ax is not None else 0.0) + lane
+        for _, ax, lane in per_model])  # (n_models, 2, m)
+    gov = np.stack((np.argmax(totals[:, 0], axis=0), np.argmin(totals[:, 1], axis=0)))
+    members = []
+    for k in range(m):
+        ext = []
+        for sense in (0, 1):
+            mo, ax, lane = per_model[gov[sense, k]]
+            axle_v = float(ax.value_kip[sense, k]) if ax is not None else 0.0
+            pos = ax.position(sense, k) if ax is not None else None
+            lane_v = float(lane[sense, k])
+            segs = (adverse_segments(lines.stations_ft, lines.ordinates[k],
+                                     1.0 if sense == 0 else -1.0)
+                    if mo.lane_load_klf > 0 and lane_v != 0.0 else ())
+            if axle_v == 0.0 and lane_v == 0.0:
+                ext.append(Extreme(0.0, 0.0, "", "", None, 0.0, ()))
+                continue
+            ext.append(Extreme(axle_v, lane_v, mo.name, mo.vehicle_id, pos, mo.lane_load_klf,
+                               segs, mo.neglect_opposing_axles))
+        members.append(MemberEnvelope(lines.member_labels[k], ext[0], ext[1]))
+    return Envelope(load, span, im, tuple(members), load.applies_to(span))

@@ -1,0 +1,102 @@
+"""Proportional loading of a truss with tension-only members: the exact load path.
+
+Under loads P(lam) = P_dead + lam * P_live the member forces are piecewise linear in lam: on an
+interval where the set of slack members does not change they follow the linear truss of that
+set. :func:`load_path` walks those intervals in order of lam (each found exactly from where an
+active tension-only member reaches zero force or a slack one starts to be stretched), so that
+a caller can find the lam at which a member or a pin reaches its resistance with the active set
+that is consistent at that load level (documented in docs/tension-only.md).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from dataclasses import dataclass
+
+import numpy as np
+
+from rating.analysis.truss import TrussFamily, solve_tension_only
+from rating.errors import ConvergenceError
+
+
+@dataclass(frozen=True, eq=False)
+class PathSegment:
+    """On lam_start <= lam <= lam_end the forces are N_dead + lam * N_live (kip)."""
+
+    lam_start: float
+    lam_end: float
+    slack: frozenset[str]
+    forced_compression: frozenset[str]
+    N_dead: np.ndarray
+    N_live: np.ndarray
+
+    def forces(self, lam: float) -> np.ndarray:
+        return self.N_dead + lam * self.N_live
+
+
+def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
+              lam_max: float = 1e3, max_segments: int = 60) -> Iterator[PathSegment]:
+    """Yield the linear pieces of the load path from lam = 0 up to ``lam_max``."""
+    g = family.geometry
+    t_only = np.array([m.tension_only for m in g.members])
+    labels = [m.label for m in g.members]
+    lam = 0.0
+    state = solve_tension_only(g, P_dead, family=family)
+    scale = max(float(np.abs(P_dead).max()), float(np.abs(P_live).max()), 1.0)
+    for _ in range(max_segments):
+        lt = family.solver(state.slack)
+        sd, sl = lt.solve(P_dead), lt.solve(P_live)
+        N_d, N_l = sd.member_forces_kip, sl.member_forces_kip
+        el_d = lt.elongation(sd.displacements)[:, 0]
+        el_l = lt.elongation(sl.displacements)[:, 0]
+        slack_mask = np.array([lab in state.slack for lab in labels])
+        forced = np.array([lab in state.forced_compression for lab in labels])
+        ends = [lam_max]
+        # an active tension-only member whose force falls to zero ends the segment
+        act = t_only & ~slack_mask & ~forced & (N_l < -1e-12 * scale)
+        if act.any():
+            ends.extend((-N_d[act] / N_l[act]).tolist())
+        # a slack member that starts to be stretched ends it too
+        sl_m = slack_mask & (el_l > 1e-15)
+        if sl_m.any():
+            ends.extend((-el_d[sl_m] / el_l[sl_m]).tolist())
+        ends_arr = np.array(ends)
+        ends_arr = ends_arr[ends_arr > lam * (1 + 1e-12) + 1e-12]
+        lam_end = float(ends_arr.min()) if ends_arr.size else lam_max
+        yield PathSegment(lam, lam_end, state.slack, state.forced_compression, N_d, N_l)
+        if lam_end >= lam_max:
+            return
+        lam = lam_end
+        nudge = lam * (1 + 1e-7) + 1e-9
+        state = solve_tension_only(g, P_dead + nudge * P_live, initial_slack=state.slack,
+                                   family=family)
+    raise ConvergenceError(
+        f"the load path changed its set of slack members more than {max_segments} times")
+
+
+def member_load_multiplier(family: TrussFamily, member: str, sense: int, capacity_kip: float,
+                           P_dead: np.ndarray, P_live: np.ndarray,
+                           lam_max: float = 1e3) -> tuple[float, PathSegment]:
+    """Smallest lam >= 0 at which sense * N_member(P_dead + lam P_live) reaches capacity.
+
+    Returns (lam, the segment it lies in); lam = inf when the member never reaches it (it goes
+    slack, or the live load unloads it). When the factored dead load alone already exceeds the
+    capacity, lam is the (negative) linear extrapolation on the dead-load active set.
+    """
+    i = family.geometry.member_index[member]
+    first: PathSegment | None = None
+    for seg in load_path(family, P_dead, P_live, lam_max):
+        if first is None:
+            first = seg
+            n0 = sense * seg.N_dead[i]
+            if n0 >= capacity_kip:
+                slope = sense * seg.N_live[i]
+                lam = (capacity_kip - n0) / slope if slope > 0 else -np.inf
+                return float(lam), seg
+        a, b = sense * seg.N_dead[i], sense * seg.N_live[i]
+        if b > 0:
+            lam = (capacity_kip - a) / b
+            if seg.lam_start - 1e-9 <= lam <= seg.lam_end:
+                return float(max(lam, 0.0)), seg
+    assert first is not None
+    return float("inf"), first
