@@ -24,7 +24,7 @@ def test_axles_and_lane_match_influence_lines():
     seg = [(7.0, 53.0), (100.0, 131.5)]
     N_lane = lt.solve(lane_joint_loads(g, seg, 0.64)).member_forces_kip
     for i in (0, 5, 12, 20):
-        ref = sum(quad(lambda x: float(il.evaluate(np.array([x]))[i, 0]), a, b,
+        ref = sum(quad(lambda x, i=i: float(il.evaluate(np.array([x]))[i, 0]), a, b,
                        points=list(il.stations_ft[(il.stations_ft > a) & (il.stations_ft < b)]),
                        limit=200)[0] for a, b in seg)
         assert abs(N_lane[i] - 0.64 * ref) < 1e-7
