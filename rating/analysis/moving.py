@@ -101,7 +101,7 @@ class Extreme:
     def total_kip(self, im: float) -> float:
         """(1 + IM) x axle part + lane part.
 
-        AASHTO LRFD 3.6.2.1 and 3.6.1.2.4: IM on axle loads only, never on the lane load. [value from memory]
+        AASHTO LRFD 3.6.2.1 and 3.6.1.2.4, IM on axles only, never on lane. [value from memory]
         """
         return (1.0 + im) * self.axle_kip + self.lane_kip
 
@@ -459,7 +459,12 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
                   directions: Sequence[Direction] = BOTH_DIRECTIONS) -> AxleExtremes:
     """Max and min of the summed axle effect of ``vehicle`` on every member, exact.
 
-    Candidate set: each axle over each breakpoint, both directions, variable spacing at its limits or with an axle of each group over a breakpoint (common practice, moving loads on piecewise-linear influence lines).
+    Candidates: each axle over each breakpoint, both directions (common practice).
+
+    A variable spacing is searched at its limits and where an axle of each group stands over
+    a breakpoint. ``neglect_opposing_axles`` leaves off axles where the line has the opposite
+    sign (AASHTO LRFD 3.6.1.3.1 for the design vehicles). Raises InputError for a vehicle
+    with more than one variable spacing.
     """
     _check_lines(lines)
     _check_vehicle(vehicle)
@@ -622,7 +627,7 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
     """Max and min of every member under a rating load: each model's axles + lane, governing
     model chosen per member and sense by (1 + IM) x axle + lane.
 
-    AASHTO LRFD 3.6.1.3.1 (HL-93: larger of truck + lane and tandem + lane; IM on axles only). [value from memory]
+    AASHTO LRFD 3.6.1.3.1, HL-93 = larger of truck + lane and tandem + lane. [value from memory]
     """
     _check_lines(lines)
     if isinstance(load, Vehicle):
