@@ -1,0 +1,252 @@
+"""Turning one cell's raw value into a typed value, or a sentence saying why it cannot be.
+
+The unit edge lives here: a number read in the workbook's unit system is converted to the
+column's US unit through :mod:`rating.units`, and nowhere else.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import math
+import re
+from dataclasses import dataclass
+
+from rating import units
+from rating.inventory.schema import YES_NO, Column, Kind
+
+EXCEL_ERRORS = frozenset({"#DIV/0!", "#N/A", "#NAME?", "#NULL!", "#NUM!", "#REF!", "#VALUE!",
+                          "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!", "#BLOCKED!",
+                          "#CONNECT!", "#BUSY!", "#UNKNOWN!"})
+_TRUE = frozenset({"yes", "y", "true", "1", "x"})
+_FALSE = frozenset({"no", "n", "false", "0"})
+_CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f]")
+# 1-1/4, 1 1/4, 3/4, optional trailing inch mark
+_FRACTION = re.compile(r"^(?:(\d+)[\s-]+)?(\d+)\s*/\s*(\d+)$")
+
+
+class Invalid:
+    """A cell whose value cannot be used; ``message`` says why (without the place)."""
+
+    __slots__ = ("message",)
+
+    def __init__(self, message: str) -> None:
+        self.message = message
+
+    def __repr__(self) -> str:
+        return f"Invalid({self.message!r})"
+
+
+@dataclass(frozen=True)
+class Parsed:
+    """A usable value and, optionally, a warning about it (e.g. an unusual magnitude)."""
+
+    value: object
+    warning: str = ""
+
+
+def is_blank(raw: object) -> bool:
+    return raw is None or (isinstance(raw, str) and raw.strip() == "")
+
+
+def describe(raw: object) -> str:
+    """The raw value as an engineer would recognise it in the message."""
+    if isinstance(raw, str):
+        s = raw if len(raw) <= 40 else raw[:37] + "..."
+        return f"the text {s!r}"
+    if isinstance(raw, bool):
+        return f"the logical value {'TRUE' if raw else 'FALSE'}"
+    if isinstance(raw, dt.datetime | dt.date | dt.time):
+        return f"the date/time {raw}"
+    if isinstance(raw, int | float):
+        return f"{raw:g}"
+    return f"a value of type {type(raw).__name__}"
+
+
+def to_column_unit(value: float, col: Column, si: bool) -> float:
+    """Convert a number as entered (SI when the workbook declares SI) to the column's US unit.
+
+    NIST SP 811 Appendix B conversion factors, through rating.units. [exact by definition]
+    """
+    if si and col.si_unit and col.si_unit != col.unit:
+        return units.from_core(units.to_core(value, col.si_unit), col.unit)
+    return value
+
+
+def from_column_unit(value: float, col: Column, si: bool) -> float:
+    """The inverse of :func:`to_column_unit`, for quoting limits in the unit as entered."""
+    if si and col.si_unit and col.si_unit != col.unit:
+        return units.from_core(units.to_core(value, col.unit), col.si_unit)
+    return value
+
+
+def _number_from_text(text: str, unit: str) -> float | None:
+    s = text.strip().replace("\u2212", "-")
+    for suffix in (unit, '"', "''", "in.", "in"):
+        if suffix and s.lower().endswith(suffix.lower()) and len(s) > len(suffix):
+            s = s[: -len(suffix)].strip()
+            break
+    try:
+        return float(s)
+    except ValueError:
+        pass
+    m = _FRACTION.match(s)
+    if m:
+        whole, num, den = m.groups()
+        if int(den) == 0:
+            return None
+        return (int(whole) if whole else 0) + int(num) / int(den)
+    return None
+
+
+def _fmt(v: float) -> str:
+    return f"{v:.6g}"
+
+
+def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
+    entered_unit = col.unit_for(si)
+    unit_words = f" in {entered_unit}" if entered_unit and entered_unit != "%" else ""
+    if isinstance(raw, bool):
+        return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
+    if isinstance(raw, dt.datetime | dt.date | dt.time):
+        return Invalid(f"must be a number{unit_words}; found {describe(raw)} (is the cell "
+                       "formatted as a date?)")
+    if isinstance(raw, int | float):
+        v = float(raw)
+    elif isinstance(raw, str):
+        got = _number_from_text(raw, entered_unit)
+        if got is None:
+            return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
+        v = got
+    else:
+        return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
+    if not math.isfinite(v):
+        return Invalid(f"must be a finite number{unit_words}; found {describe(raw)}")
+    if col.kind is Kind.INTEGER:
+        if abs(v - round(v)) > 1e-9:
+            return Invalid(f"must be a whole number; found {_fmt(v)}")
+        v = float(round(v))
+    core = to_column_unit(v, col, si)
+    u = f" {entered_unit}" if entered_unit else ""
+
+    def lim(x: float) -> str:
+        return _fmt(from_column_unit(x, col, si)) + u
+
+    hint = ""
+    if col.unit == "ksi" and not si and col.le is not None and core > col.le:
+        hint = " (is it in MPa? then set 'Units of this workbook' to SI on the Bridge sheet)"
+    if col.gt is not None and not core > col.gt:
+        return Invalid(f"must be greater than {lim(col.gt)}; found {_fmt(v)}{u}")
+    if col.ge is not None and not core >= col.ge:
+        return Invalid(f"must be at least {lim(col.ge)}; found {_fmt(v)}{u}")
+    if col.le is not None and not core <= col.le:
+        return Invalid(f"must be at most {lim(col.le)}; found {_fmt(v)}{u}{hint}")
+    value: object = int(core) if col.kind is Kind.INTEGER else core
+    if col.warn_below is not None and core < col.warn_below:
+        return Parsed(value, f"{_fmt(v)}{u} is unusually small (below {lim(col.warn_below)}); "
+                      "please confirm")
+    if col.warn_above is not None and core > col.warn_above:
+        return Parsed(value, f"{_fmt(v)}{u} is unusually large (above {lim(col.warn_above)}); "
+                      "please confirm")
+    return Parsed(value)
+
+
+def _as_text(raw: object) -> str | Invalid:
+    if isinstance(raw, str):
+        return raw
+    if isinstance(raw, bool):
+        return Invalid(f"must be text; found {describe(raw)}")
+    if isinstance(raw, int | float):
+        if not math.isfinite(raw):
+            return Invalid(f"must be text; found {describe(raw)}")
+        return str(int(raw)) if float(raw).is_integer() else f"{raw:g}"
+    return Invalid(f"must be text; found {describe(raw)}")
+
+
+def parse_text(raw: object, col: Column) -> Parsed | Invalid:
+    t = _as_text(raw)
+    if isinstance(t, Invalid):
+        return t
+    t = t.strip()
+    if _CONTROL.search(t):
+        return Invalid("contains control characters; retype the value")
+    if len(t) > col.max_length:
+        return Invalid(f"is {len(t)} characters long; at most {col.max_length} are read")
+    if col.kind is Kind.LABEL:
+        t = re.sub(r"\s+", " ", t)
+        if "," in t:
+            return Invalid(f"must be a single id without commas; found {describe(t)}")
+    return Parsed(t)
+
+
+def norm_choice(text: str) -> str:
+    return re.sub(r"\s+", " ", text.strip()).lower()
+
+
+def parse_choice(raw: object, col: Column) -> Parsed | Invalid:
+    options = col.choices if col.kind is Kind.CHOICE else YES_NO
+    t = _as_text(raw)
+    if isinstance(t, Invalid):
+        if col.kind is Kind.YESNO and isinstance(raw, bool):
+            return Parsed(bool(raw))
+        return Invalid(f"must be one of: {', '.join(options)}; found {describe(raw)}")
+    key = norm_choice(t)
+    if col.kind is Kind.YESNO:
+        if key in _TRUE:
+            return Parsed(True)
+        if key in _FALSE:
+            return Parsed(False)
+        return Invalid(f"must be yes or no; found {describe(raw)}")
+    for c in col.choices:
+        if norm_choice(c) == key:
+            return Parsed(c)
+    return Invalid(f"must be one of: {', '.join(options)}; found {describe(raw)}")
+
+
+def parse_date(raw: object) -> Parsed | Invalid:
+    if isinstance(raw, dt.datetime):
+        return Parsed(raw.date())
+    if isinstance(raw, dt.date):
+        return Parsed(raw)
+    if isinstance(raw, str):
+        try:
+            return Parsed(dt.date.fromisoformat(raw.strip()))
+        except ValueError:
+            pass
+    return Invalid(f"must be a date (e.g. 2024-05-14); found {describe(raw)}")
+
+
+def parse_list(raw: object, col: Column) -> Parsed | Invalid:
+    t = _as_text(raw)
+    if isinstance(t, Invalid):
+        return Invalid(f"must be a list separated by commas; found {describe(raw)}")
+    if _CONTROL.search(t):
+        return Invalid("contains control characters; retype the value")
+    items = [s.strip() for s in re.split(r"[,;]", t) if s.strip()]
+    if col.kind is Kind.LABELLIST:
+        too_long = [s for s in items if len(s) > col.max_length]
+        if too_long:
+            return Invalid(f"has an id longer than {col.max_length} characters")
+        return Parsed(tuple(items))
+    out: list[int] = []
+    for s in items:
+        if not re.fullmatch(r"\d{1,3}", s):
+            return Invalid(f"must list whole numbers separated by commas (e.g. 4, 5); "
+                           f"found {describe(s)}")
+        out.append(int(s))
+    return Parsed(tuple(out))
+
+
+def parse_value(raw: object, col: Column, si: bool) -> Parsed | Invalid:
+    """Parse a non-blank raw cell value for ``col``."""
+    if isinstance(raw, str) and raw.strip() in EXCEL_ERRORS:
+        return Invalid(f"holds the spreadsheet error {raw.strip()} (a formula result); "
+                       "correct the formula or type the value")
+    if col.kind in (Kind.NUMBER, Kind.INTEGER):
+        return parse_number(raw, col, si)
+    if col.kind in (Kind.TEXT, Kind.LABEL):
+        return parse_text(raw, col)
+    if col.kind in (Kind.CHOICE, Kind.YESNO):
+        return parse_choice(raw, col)
+    if col.kind is Kind.DATE:
+        return parse_date(raw)
+    return parse_list(raw, col)

@@ -1,0 +1,314 @@
+"""Reading the form and table sheets into typed rows, with every cell problem logged.
+
+Checks here need only the cell itself and its column: type, range, unit of the header,
+required values, formulas without a saved result, merged cells. Checks across rows and sheets
+(references, duplicates, consistency) are made by :mod:`rating.inventory.reader`.
+"""
+
+from __future__ import annotations
+
+import re
+import string
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+from openpyxl.utils import get_column_letter, range_boundaries
+
+from rating.inventory.book import Book, SheetGrid
+from rating.inventory.cells import Invalid, describe, is_blank, parse_value
+from rating.inventory.problems import ProblemLog
+from rating.inventory.schema import (
+    EXAMPLE_MARK,
+    HEADER_ROW,
+    HEADER_SEARCH_ROWS,
+    MARK_HEADER,
+    MAX_ROWS,
+    Column,
+    FormSheet,
+    TableSheet,
+    header_words,
+)
+
+FORM_LABEL_ROWS = 200  # form items are looked for in the first rows of column A
+
+
+def ref(sheet: str, row: int, col: int) -> str:
+    return f"{sheet}!{get_column_letter(col)}{row}"
+
+
+@dataclass(frozen=True)
+class Row:
+    """One data row (or a whole form sheet): parsed values by column key.
+
+    A key is in ``values`` only when its cell held a usable value; ``bad`` holds keys whose
+    value was unusable (already reported), so later checks do not repeat the complaint.
+    """
+
+    sheet: str
+    number: int
+    values: Mapping[str, object]
+    cells: Mapping[str, str]
+    bad: frozenset[str] = frozenset()
+
+    def get(self, key: str, default: object = None) -> object:
+        return self.values.get(key, default)
+
+    def has(self, key: str) -> bool:
+        return key in self.values
+
+    def ref(self, key: str) -> str:
+        return self.cells.get(key) or f"{self.sheet}!A{self.number}"
+
+    @property
+    def ok(self) -> bool:
+        return not self.bad
+
+
+@dataclass(frozen=True)
+class TableData:
+    spec: TableSheet
+    sheet: str
+    present: bool
+    rows: tuple[Row, ...]
+    header_cells: Mapping[str, str]
+    header_row: int = HEADER_ROW
+
+    def header_ref(self, key: str) -> str:
+        return self.header_cells.get(key) or f"{self.sheet}!A{self.header_row}"
+
+
+def _context(template: str, values: Mapping[str, object]) -> str:
+    if not template:
+        return ""
+    names = [f for _, f, _, _ in string.Formatter().parse(template) if f]
+    if any(n not in values for n in names):
+        return ""
+    return template.format(**{n: values[n] for n in names})
+
+
+def _unit_tokens(text: str) -> list[str] | None:
+    m = re.search(r"\[([^\]]*)\]", text)
+    if not m:
+        return None
+    return [t.strip() for t in m.group(1).split("|") if t.strip()]
+
+
+def _check_header_units(col: Column, text: str, where: str, si: bool, log: ProblemLog) -> None:
+    tokens = _unit_tokens(text)
+    if not tokens or not col.unit:
+        return
+    allowed = {col.unit, col.si_unit} - {""}
+    active = col.unit_for(si)
+    strange = [t for t in tokens if t not in allowed]
+    system = "SI" if si else "US"
+    if strange:
+        log.error(where, f"the header of '{col.title}' gives the unit {strange[0]!r}; this "
+                  f"column is read in {col.unit}" + (f" (or {col.si_unit} when the workbook is "
+                  "SI)" if col.si_unit and col.si_unit != col.unit else "")
+                  + "; restore the header")
+    elif active not in tokens:
+        log.error(where, f"the header of '{col.title}' says [{' | '.join(tokens)}] but the "
+                  f"Bridge sheet declares {system} units, so the values would be read in "
+                  f"{active}; correct the header or the units cell")
+
+
+def _check_merges(grid: SheetGrid, first_row: int, log: ProblemLog) -> None:
+    for rng in grid.merges:
+        try:
+            c1, r1, c2, r2 = range_boundaries(rng)
+        except (ValueError, TypeError):
+            continue
+        if r2 is not None and r2 >= first_row:
+            log.error(f"{grid.name}!{rng.split(':')[0]}",
+                      f"cells {rng} are merged; unmerge them so that every value has its own "
+                      "cell (a merged cell hides the values under it)")
+
+
+def _parse_cell(grid: SheetGrid, row: int, col_idx: int, col: Column, si: bool,
+                ctx: str, log: ProblemLog) -> tuple[object, bool]:
+    """(value or None when blank, usable?) for one cell; problems are logged."""
+    where = ref(grid.name, row, col_idx)
+    what = f"{col.title} of {ctx}" if ctx else col.title
+    formula = grid.formula_at(row, col_idx)
+    if formula is not None:
+        shown = formula if len(formula) <= 40 else formula[:37] + "..."
+        log.error(where, f"{what}: the cell holds a formula ({shown}) whose result was never "
+                  "saved; open the workbook in the spreadsheet program and save it, or type "
+                  "the value")
+        return None, False
+    raw = grid.value(row, col_idx)
+    if is_blank(raw):
+        if col.required:
+            log.error(where, f"{what} is required and is blank")
+            return None, False
+        return None, True
+    got = parse_value(raw, col, si)
+    if isinstance(got, Invalid):
+        log.error(where, f"{what} {got.message}")
+        return None, False
+    if got.warning:
+        log.warning(where, f"{what}: {got.warning}")
+    return got.value, True
+
+
+def _find_header_row(grid: SheetGrid, spec: TableSheet) -> int | None:
+    wanted = {header_words(c.title) for c in spec.columns}
+    first = header_words(spec.columns[0].title)
+    for r in range(1, min(HEADER_SEARCH_ROWS, grid.row_count) + 1):
+        words = [header_words(v) for v in grid.rows[r - 1] if isinstance(v, str)]
+        if first in words and len(wanted.intersection(words)) >= min(2, len(wanted)):
+            return r
+    return None
+
+
+def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
+               required: bool = False) -> TableData:
+    """Every data row of one table sheet (example rows and blank rows skipped)."""
+    grid = book.grids.get(spec.name)
+    if grid is None:
+        if required:
+            log.error(f"{spec.name}!A1", f"the sheet '{spec.name}' ({spec.title.lower()}) is "
+                      "missing from the workbook")
+        return TableData(spec, spec.name, False, (), {})
+    hdr = _find_header_row(grid, spec)
+    if hdr is None:
+        log.error(ref(grid.name, HEADER_ROW, 1),
+                  f"no header row found on sheet '{grid.name}': expected the column headers "
+                  + ", ".join(f"'{c.header}'" for c in spec.columns[:4]) + ", ... in one of "
+                  f"the first {HEADER_SEARCH_ROWS} rows (as in the template)")
+        return TableData(spec, grid.name, True, (), {})
+    _check_merges(grid, hdr, log)
+    by_words = {header_words(c.title): c for c in spec.columns}
+    colpos: dict[str, int] = {}
+    header_cells: dict[str, str] = {}
+    mark_col: int | None = None
+    for c_idx, v in enumerate(grid.rows[hdr - 1], start=1):
+        if not isinstance(v, str):
+            continue
+        w = header_words(v)
+        if w == header_words(MARK_HEADER):
+            mark_col = c_idx
+            continue
+        col = by_words.get(w)
+        if col is None:
+            continue
+        where = ref(grid.name, hdr, c_idx)
+        if col.key in colpos:
+            log.error(where, f"the column '{col.title}' appears twice in the header row "
+                      f"(also {header_cells[col.key]}); delete one")
+            continue
+        colpos[col.key] = c_idx
+        header_cells[col.key] = where
+        _check_header_units(col, v, where, si, log)
+    for col in spec.columns:
+        if col.key not in colpos and col.required:
+            log.error(ref(grid.name, hdr, 1),
+                      f"the column '{col.header}' is missing from the header row of "
+                      f"'{grid.name}'; restore it as in the template")
+    if grid.truncated:
+        log.error(ref(grid.name, MAX_ROWS, 1),
+                  f"sheet '{grid.name}' has more than {MAX_ROWS} rows; only the first "
+                  f"{MAX_ROWS} are read")
+    cols = [(c, colpos[c.key]) for c in spec.columns if c.key in colpos]
+    key_cols = [(c, i) for c, i in cols if c.required][:2]
+    rows: list[Row] = []
+    for r in range(hdr + 1, grid.row_count + 1):
+        if mark_col is not None:
+            mark = grid.value(r, mark_col)
+            if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
+                continue
+        if all(is_blank(grid.value(r, i)) and grid.formula_at(r, i) is None for _, i in cols):
+            continue
+        if mark_col is not None and not is_blank(grid.value(r, mark_col)):
+            log.warning(ref(grid.name, r, mark_col),
+                        f"column '{MARK_HEADER}' holds {describe(grid.value(r, mark_col))}; "
+                        f"only '{EXAMPLE_MARK}' has a meaning there (the row is read as data)")
+        # the row's name first, so every message can say which item it is about
+        quiet = ProblemLog()
+        pre: dict[str, object] = {}
+        for c, i in key_cols:
+            v, ok = _parse_cell(grid, r, i, c, si, "", quiet)
+            if ok and v is not None:
+                pre[c.key] = v
+        ctx = _context(spec.context, pre)
+        values: dict[str, object] = {}
+        cells: dict[str, str] = {}
+        bad: set[str] = set()
+        for c, i in cols:
+            cells[c.key] = ref(grid.name, r, i)
+            v, ok = _parse_cell(grid, r, i, c, si, "" if c.key in pre else ctx, log)
+            if not ok:
+                bad.add(c.key)
+            elif v is not None:
+                values[c.key] = v
+        for c in spec.columns:
+            if c.key not in colpos and c.required:
+                bad.add(c.key)
+        rows.append(Row(grid.name, r, values, cells, frozenset(bad)))
+    return TableData(spec, grid.name, True, tuple(rows), header_cells, hdr)
+
+
+def read_form(book: Book, spec: FormSheet, si: bool | None, log: ProblemLog,
+              units_key: str = "") -> tuple[Row, bool]:
+    """The items of a form sheet as one :class:`Row`, and whether the workbook is in SI.
+
+    ``units_key`` names the item declaring the unit system; it is read first and decides
+    how every other item is read (``si`` given by the caller otherwise).
+    """
+    grid = book.grids.get(spec.name)
+    if grid is None:
+        log.error(f"{spec.name}!A1", f"the sheet '{spec.name}' ({spec.title.lower()}) is "
+                  "missing from the workbook")
+        return Row(spec.name, 1, {}, {}, frozenset(c.key for c in spec.fields)), bool(si)
+    for rng in grid.merges:
+        try:
+            c1, r1, c2, r2 = range_boundaries(rng)
+        except (ValueError, TypeError):
+            continue
+        if c1 is not None and c1 <= 2 and r2 is not None and r2 > HEADER_ROW:
+            log.error(f"{grid.name}!{rng.split(':')[0]}",
+                      f"cells {rng} are merged; unmerge them so that every item has its own "
+                      "label and value cell")
+    by_words = {header_words(c.title): c for c in spec.fields}
+    rowpos: dict[str, int] = {}
+    for r in range(1, min(FORM_LABEL_ROWS, grid.row_count) + 1):
+        label = grid.value(r, 1)
+        if not isinstance(label, str):
+            continue
+        col = by_words.get(header_words(label))
+        if col is None:
+            if r > HEADER_ROW and not is_blank(grid.value(r, 2)) and header_words(label):
+                log.warning(ref(grid.name, r, 1),
+                            f"'{label.strip()[:40]}' is not an item pintruss knows; its value "
+                            f"in {ref(grid.name, r, 2)} is not read")
+            continue
+        if col.key in rowpos:
+            log.error(ref(grid.name, r, 1), f"the item '{col.title}' appears twice (also row "
+                      f"{rowpos[col.key]}); delete one")
+            continue
+        rowpos[col.key] = r
+    values: dict[str, object] = {}
+    cells: dict[str, str] = {}
+    bad: set[str] = set()
+    if units_key and units_key in rowpos:
+        ucol = spec.field_of(units_key)
+        v, ok = _parse_cell(grid, rowpos[units_key], 2, ucol, False, "", log)
+        si = ok and v == "SI"
+    si = bool(si)
+    for col in spec.fields:
+        if col.key not in rowpos:
+            if col.required:
+                log.error(f"{grid.name}!A1", f"the item '{col.header}' is missing from column "
+                          f"A of '{grid.name}'; restore its row as in the template")
+                bad.add(col.key)
+            continue
+        r = rowpos[col.key]
+        _check_header_units(col, str(grid.value(r, 1)), ref(grid.name, r, 1), si, log)
+        cells[col.key] = ref(grid.name, r, 2)
+        quiet = col.key == units_key
+        v, ok = _parse_cell(grid, r, 2, col, si, "", ProblemLog() if quiet else log)
+        if not ok:
+            bad.add(col.key)
+        elif v is not None:
+            values[col.key] = v
+    return Row(grid.name, 0, values, cells, frozenset(bad)), si
