@@ -1,0 +1,431 @@
+"""The rating of one bridge: resistances, dead load, live-load envelopes, rating factors,
+pins and posting, as typed outputs for :mod:`rating.results` to present.
+
+Rating factors follow MBE 6A.4.2.1 (Eq. 6A.4.2.1-1) [value from memory; terms as Khan 2010,
+p. 187, read]. Members whose force does not depend on which diagonal of a counter panel is
+active are rated with the linear equation on their influence line. Members whose force does
+(tension-only mains and counters, and the chords and verticals of those panels) are rated by
+the live-load multiplier that brings them to their resistance with the active set consistent
+at that load level (docs/tension-only.md), at every vehicle position that is critical for them
+in any active set.
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass, field, replace
+
+import numpy as np
+
+from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
+from rating.analysis.distribution import lateral_distribution
+from rating.analysis.influence import InfluenceLines
+from rating.analysis.moving import Envelope, Extreme, envelope
+from rating.analysis.path import member_load_multiplier
+from rating.analysis.truss import TrussFamily
+from rating.capacity.member import MemberCapacity, member_capacity
+from rating.capacity.sections import gross_area_as_built_in2
+from rating.errors import InputError
+from rating.lrfr.equation import SenseLoads, rating_factor
+from rating.lrfr.factors import (
+    Factor,
+    RatingLevel,
+    dead_load_factors,
+    dynamic_load_allowance,
+    live_load_factor,
+)
+from rating.lrfr.liveload import live_joint_loads
+from rating.lrfr.pins import PinRating, rate_pin
+from rating.lrfr.posting import PostingAction, PostingResult, posting
+from rating.model import (
+    Bridge,
+    EyebarSet,
+    Member,
+    RodSet,
+    TrussGeometry,
+    VehicleCategory,
+)
+from rating.vehicles.library import RatingLoad, rating_load, rating_loads
+
+SENSES = ((1, "tension"), (-1, "compression"))
+
+
+@dataclass(frozen=True)
+class RatingCase:
+    """One rating entry: a rating load at a rating level with its factors."""
+
+    id: str
+    load: RatingLoad
+    level: RatingLevel
+    gamma_ll: Factor
+    im: Factor
+
+    @property
+    def category(self) -> VehicleCategory:
+        return self.load.category
+
+    @property
+    def postable(self) -> bool:
+        return self.level is RatingLevel.LEGAL
+
+
+@dataclass(frozen=True)
+class LiveEffect:
+    """Live-load force of one case in one member of one truss (DF applied), kip."""
+
+    max: float
+    min: float
+    max_with_im: float
+    min_with_im: float
+    distribution_factor: float
+    max_extreme: Extreme
+    min_extreme: Extreme
+    config: frozenset[str]
+
+
+@dataclass(frozen=True)
+class MemberCaseRating:
+    member: str
+    case: str
+    rf: float
+    sense: str
+    check: str
+    method: str
+    gamma_dc: float
+    gamma_dw: float
+    gamma_ll: float
+    im: float
+    phi: float
+    phi_c: float
+    phi_s: float
+    extreme: Extreme | None
+    finding: str = ""
+
+
+@dataclass(frozen=True)
+class CasePosting:
+    case: str
+    rf: float
+    controlling: str  # member id or "pin at J"
+    result: PostingResult
+    screened_out: bool = False
+    note: str = ""
+
+
+@dataclass(frozen=True, eq=False)
+class BridgeRating:
+    bridge: Bridge
+    geometry: TrussGeometry
+    capacities: dict[str, MemberCapacity]
+    dead: DeadLoadResult
+    lines: InfluenceLines
+    configs: tuple[frozenset[str], ...]
+    cases: tuple[RatingCase, ...]
+    live: dict[tuple[str, str], LiveEffect]
+    ratings: dict[tuple[str, str], MemberCaseRating]
+    pins: tuple[PinRating, ...]
+    postings: dict[str, CasePosting]
+    distribution_factor: float
+    distribution_note: str
+    dependent_members: frozenset[str]
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+    provisions: tuple[str, ...] = field(default=())
+
+
+# --------------------------------------------------------------------------- set-up
+
+
+def is_tension_only(member: Member, section: object) -> bool:
+    """Eyebars and rods cannot push: tension-only (common practice)."""
+    return member.tension_only or isinstance(section, EyebarSet | RodSet)
+
+
+def rating_geometry(bridge: Bridge) -> TrussGeometry:
+    """The bridge geometry with stiffness areas and tension-only flags from the sections."""
+    g = bridge.geometry
+    members = []
+    for m in g.members:
+        d = bridge.design_of(m.label)
+        if d is None:
+            raise InputError(f"member {m.label} has no section; every member needs one to be "
+                             "rated")
+        area = gross_area_as_built_in2(d.section)
+        members.append(replace(m, tension_only=is_tension_only(m, d.section),
+                               area_in2=max(area, 1e-3)))
+    return replace(g, members=tuple(members))
+
+
+def _segments_cross(g: TrussGeometry, a: Member, b: Member) -> bool:
+    if {a.start, a.end} & {b.start, b.end}:
+        return False
+    p1, p2 = g.joint(a.start), g.joint(a.end)
+    p3, p4 = g.joint(b.start), g.joint(b.end)
+
+    def orient(p, q, r):
+        return (q.x_ft - p.x_ft) * (r.y_ft - p.y_ft) - (q.y_ft - p.y_ft) * (r.x_ft - p.x_ft)
+
+    d1, d2 = orient(p3, p4, p1), orient(p3, p4, p2)
+    d3, d4 = orient(p1, p2, p3), orient(p1, p2, p4)
+    return d1 * d2 < 0 and d3 * d4 < 0
+
+
+def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
+                              max_pairs: int = 4) -> tuple[frozenset[str], ...]:
+    """The dead-load set and the sets with crossing tension-only pairs flipped.
+
+    A pair is a slack and an active tension-only member that cross in one panel (a counter and
+    its main). With up to ``max_pairs`` pairs every combination is formed, else single flips.
+    """
+    g = family.geometry
+    t_only = [m for m in g.members if m.tension_only]
+    pairs = []
+    for a, b in itertools.combinations(t_only, 2):
+        if (a.label in dead_slack) != (b.label in dead_slack) and _segments_cross(g, a, b):
+            slack, active = (a, b) if a.label in dead_slack else (b, a)
+            pairs.append((slack.label, active.label))
+    if len(pairs) <= max_pairs:
+        combos = itertools.chain.from_iterable(
+            itertools.combinations(pairs, k) for k in range(1, len(pairs) + 1))
+    else:
+        combos = ((p,) for p in pairs)
+    configs = [dead_slack]
+    for combo in combos:
+        s = set(dead_slack)
+        for slack, active in combo:
+            s.discard(slack)
+            s.add(active)
+        fs = frozenset(s)
+        if fs not in configs and family.is_stable(fs):
+            configs.append(fs)
+    return tuple(configs)
+
+
+def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
+                 ) -> tuple[tuple[RatingCase, ...], list[str]]:
+    """The cases to rate, each with gamma_LL and IM; notes on what was left out and why."""
+    st = bridge.settings
+    notes: list[str] = []
+    if ids is None:
+        ids = st.vehicle_ids
+    if ids is None:
+        loads = list(rating_loads()) + [rating_load(v.id, bridge.owner_vehicles)
+                                        for v in bridge.owner_vehicles]
+    else:
+        loads = [rating_load(i, bridge.owner_vehicles) for i in ids]
+    cases: list[RatingCase] = []
+    seen: set[str] = set()
+    for load in loads:
+        if load.id in seen:
+            continue
+        seen.add(load.id)
+        if not load.applies_to(span_ft):
+            notes.append(f"{load.name} ({load.id}) is not rated: it applies only to spans over "
+                         f"{load.min_span_ft:g} ft and this span is {span_ft:g} ft.")
+            continue
+        im = dynamic_load_allowance(load.category, st.riding_surface, st.im_override)
+        if load.category is VehicleCategory.DESIGN:
+            for level, suffix in ((RatingLevel.INVENTORY, "INV"), (RatingLevel.OPERATING, "OPR")):
+                g_ll = live_load_factor(load.category, level, st.adtt_one_direction,
+                                        st.provision_set, None)
+                cases.append(RatingCase(f"{load.id}-{suffix}", load, level, g_ll, im))
+        else:
+            g_ll = live_load_factor(load.category, RatingLevel.LEGAL, st.adtt_one_direction,
+                                    st.provision_set, st.gamma_ll_override)
+            cases.append(RatingCase(load.id, load, RatingLevel.LEGAL, g_ll, im))
+    return tuple(cases), notes
+
+
+# --------------------------------------------------------------------------- live loads
+
+
+def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset[str]:
+    """Members whose influence line changes with the active set of the counter panels."""
+    rows = [il.ordinates for il in lines.values()]
+    base = rows[0]
+    scale = max(float(np.abs(base).max()), 1e-12)
+    labels = next(iter(lines.values())).member_labels
+    dep = set()
+    for r in rows[1:]:
+        diff = np.abs(r - base).max(axis=1) > 1e-9 * scale
+        dep |= {labels[i] for i in np.nonzero(diff)[0]}
+    return frozenset(dep)
+
+
+# --------------------------------------------------------------------------- the rating
+
+
+def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> BridgeRating:
+    """Rate every member and pin of the bridge for every chosen rating load."""
+    st = bridge.settings
+    g = rating_geometry(bridge)
+    warnings: list[str] = []
+    assumptions: list[str] = []
+
+    capacities: dict[str, MemberCapacity] = {}
+    for m in g.members:
+        d = bridge.design_of(m.label)
+        cap = member_capacity(d, m.role, g.member_length_ft(m.label),
+                              bridge.findings_for(m.label), m.tension_only)
+        capacities[m.label] = cap
+        warnings.extend(cap.warnings)
+        assumptions.extend(cap.assumptions)
+
+    weights = {m.label: MemberWeight(gross_area_as_built_in2(bridge.design_of(m.label).section),
+                                     bridge.design_of(m.label).material.unit_weight_pcf)
+               for m in g.members}
+    dead = dead_load(g, bridge.cross_section, bridge.dead_loads, weights,
+                     st.detail_allowance, st.detail_allowance_given)
+    assumptions.extend(dead.assumptions)
+    if dead.total.forced_compression:
+        warnings.append("under dead load alone the tension-only members "
+                        + ", ".join(sorted(dead.total.forced_compression))
+                        + " would have to carry compression")
+
+    family = TrussFamily(g)
+    configs = active_set_configurations(family, dead.slack_members)
+    lines = {c: family.solver(c).influence_lines for c in configs}
+    dependent = _dependent_members(lines)
+
+    dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override)
+    df = dist.factor
+    span = g.span_ft
+    cases, notes = rating_cases(bridge, vehicle_ids, span)
+    assumptions.extend(notes)
+    dead_f = dead_load_factors(st.wearing_surface_measured)
+    DC = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dc_kip, strict=True)}
+    DW = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_kip, strict=True)}
+
+    live: dict[tuple[str, str], LiveEffect] = {}
+    ratings: dict[tuple[str, str], MemberCaseRating] = {}
+    env_cache: dict[tuple[str, frozenset[str]], Envelope] = {}
+    for case in cases:
+        im = case.im.value
+        for c in configs:
+            key = (case.load.id, c)
+            if key not in env_cache:
+                env_cache[key] = envelope(lines[c], case.load, im=im)
+        for m in g.members:
+            lab = m.label
+            cfgs = configs if lab in dependent else configs[:1]
+            best_max = max(((env_cache[(case.load.id, c)].of(lab).max, c) for c in cfgs),
+                           key=lambda t: t[0].total_kip(im))
+            best_min = min(((env_cache[(case.load.id, c)].of(lab).min, c) for c in cfgs),
+                           key=lambda t: t[0].total_kip(im))
+            live[(lab, case.id)] = LiveEffect(
+                df * best_max[0].value_kip, df * best_min[0].value_kip,
+                df * best_max[0].total_kip(im), df * best_min[0].total_kip(im), df,
+                best_max[0], best_min[0], best_max[1])
+            ratings[(lab, case.id)] = _rate_member(
+                g, family, m, capacities[lab], case, DC[lab], DW[lab], dead, dead_f, df,
+                [env_cache[(case.load.id, c)].of(lab) for c in cfgs], lab in dependent)
+
+    pins = tuple(
+        rate_pin(pin, g, family, capacities, bridge, cases, configs, env_cache, dead, dead_f, df)
+        for pin in bridge.pins)
+    postings = _postings(cases, ratings, pins, g)
+    for p in pins:
+        warnings.extend(p.warnings)
+    return BridgeRating(
+        bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
+        configs=configs, cases=cases, live=live, ratings=ratings, pins=pins,
+        postings=postings, distribution_factor=df, distribution_note=dist.description,
+        dependent_members=dependent,
+        warnings=tuple(dict.fromkeys(warnings)), assumptions=tuple(dict.fromkeys(assumptions)),
+        provisions=tuple(dict.fromkeys(
+            [f.describe() for f in dead_f.values()]
+            + [c.gamma_ll.describe() for c in cases] + [c.im.describe() for c in cases])),
+    )
+
+
+def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
+                 dead: DeadLoadResult, dead_f, df: float, envs, dependent: bool
+                 ) -> MemberCaseRating:
+    im = case.im.value
+    g_ll = case.gamma_ll.value
+    best: MemberCaseRating | None = None
+    for sense, name in SENSES:
+        extremes = [e.max if sense > 0 else e.min for e in envs]
+        ll = [sense * df * e.total_kip(im) for e in extremes]
+        if max(ll) <= 0:
+            continue  # the vehicle does not load the member this way
+        if sense < 0 and m.tension_only and dependent:
+            continue  # a tension-only member goes slack instead; not rated in compression
+        check = cap.governing(name)
+        C = cap.factored_resistance(name)
+        phi = check.phi if check is not None else 0.0
+        check_name = check.name if check is not None else "no compression resistance"
+        finding = _finding_text(check)
+        g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
+        g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
+        if not dependent:
+            k = int(np.argmax(ll))
+            r = rating_factor(C, SenseLoads(sense * DC, sense * DW, ll[k]), g_ll, dead_f)
+            rf, method, ext = r.rf, "linear", extremes[k]
+        else:
+            P_dead = g_dc * dead.joint_loads_dc_kip + g_dw * dead.joint_loads_dw_kip
+            rf, ext = math.inf, None
+            for e in extremes:
+                if e.position is None and not e.lane_segments_ft:
+                    continue
+                P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
+                lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live)
+                if lam < rf:
+                    rf, ext = lam, e
+            method = "load multiplier"
+            if ext is None:
+                continue
+        cand = MemberCaseRating(m.label, case.id, float(rf), name, check_name, method, g_dc,
+                                g_dw, g_ll, im, phi, cap.phi_c, cap.phi_s, ext, finding)
+        if best is None or cand.rf < best.rf:
+            best = cand
+    if best is None:
+        return MemberCaseRating(m.label, case.id, math.inf, "", "not loaded by this vehicle",
+                                "linear", 0.0, 0.0, g_ll, im, 0.0, cap.phi_c, cap.phi_s, None)
+    return best
+
+
+def _finding_text(check) -> str:
+    if check is None:
+        return ""
+    f = check.finding
+    if f is None:
+        return ""
+    from rating.capacity.sections import describe_finding
+
+    return describe_finding(f)
+
+
+def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
+    out: dict[str, CasePosting] = {}
+    nrl_ok = None
+    for case in cases:
+        rf, who = math.inf, ""
+        for m in g.members:
+            r = ratings[(m.label, case.id)]
+            if r.rf < rf:
+                rf, who = r.rf, m.label
+        for p in pins:
+            r = p.ratings.get(case.id)
+            if r is not None and r.rf < rf:
+                rf, who = r.rf, f"pin at {p.joint}"
+        W = case.load.gross_weight_tons
+        result = posting(rf, W)
+        if not case.postable:
+            result = replace(result, posting_tons=None, action=PostingAction.NONE)
+            out[case.id] = CasePosting(case.id, rf, who, result, note=(
+                f"design-load rating at the {case.level.value} level; posting is decided from "
+                "the legal loads"))
+            continue
+        out[case.id] = CasePosting(case.id, rf, who, result)
+        if case.load.id == "NRL":
+            nrl_ok = rf >= 1.0
+    if nrl_ok:
+        for cid, cp in out.items():
+            if cid in ("SU4", "SU5", "SU6", "SU7"):
+                out[cid] = replace(cp, screened_out=True, note=(
+                    "NRL rating factor is at least 1.0, so this single-unit SHV need not be "
+                    "rated (FHWA SHV Q&A, March 2014); shown for information."))
+    return out
