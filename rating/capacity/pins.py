@@ -1,0 +1,555 @@
+"""Pins: moment and shear from the packing, combined flexure and shear, bearing of each plate.
+
+Loading method (Berg, Safe Building, "Rivets, Riveting and Pins", Parts 10-15 [read]): each
+member's force is shared over its plates on the pin in proportion to their thickness and acts
+at each plate's mid-thickness, square to the pin, directed along the member (tension pulls the
+pin toward the member's far end). The pin is a beam loaded by those forces; horizontal and
+vertical components are taken separately and combined vectorially at each section.
+
+External load at the joint (the floorbeam reaction, a vector in kip applied TO the pin, e.g.
+(0, -R) for a floorbeam hung from the pin): shared by thickness over the packing items whose
+``member`` is "floorbeam"; when there is none it acts at the pin's mid-length (between the
+outer faces of the packing) and no plate bearing is checked for it.
+
+Which form is used where: the rating uses AASHTO LRFD 6.7.6.2.1 (combined flexure and shear)
+and 6.7.6.2.2 (bearing) for ``utilization``; the EN 1993-1-8 Table 3.10 forms are computed
+beside it as an independent published cross-check (``en``) and never enter the rating.
+
+Units: forces kip, lengths in, moments kip-in, stresses ksi. x is horizontal along the span,
+y vertical, both in the truss plane; z runs along the pin from the outer face of its first
+packing item.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+from scipy.optimize import brentq
+
+from rating.capacity.materials import default_material
+from rating.errors import InputError
+from rating.model import EyebarSet, Material, MaterialKind, MemberDesign, Pin, TrussGeometry
+
+PHI_F = 1.00
+"""Resistance factor for flexure of pins, AASHTO LRFD 6.5.4.2. [value from memory]"""
+PHI_V = 1.00
+"""Resistance factor for shear of pins, AASHTO LRFD 6.5.4.2. [value from memory]"""
+PHI_B = 1.00
+"""Resistance factor for bearing on pins, AASHTO LRFD 6.5.4.2. [value from memory]"""
+INTERACTION_LIMIT = 0.95
+"""Right side of the pin interaction equation, LRFD Eq. 6.7.6.2.1-1. [value from memory]"""
+GAMMA_M0 = 1.00
+"""Partial factor gamma_M0, EN 1993-1-1 6.1 (recommended value). [value from memory]"""
+GAMMA_M2 = 1.25
+"""Partial factor gamma_M2, EN 1993-1-8 Table 2.1 (recommended value). [value from memory]"""
+FIT_CLEARANCE_IN = 1.0 / 32.0
+"""Hole not more than the pin + 1/32 in, AISC LRFD 1999 D3.2. [read]"""
+FLOORBEAM = "floorbeam"
+
+
+def lrfd_flexure_shear(M_u, V_u, D, F_y, phi_f: float = PHI_F, phi_v: float = PHI_V):
+    """Left side of 6 M_u/(phi_f D^3 F_y) + (2.2 V_u/(phi_v D^2 F_y))^3 <= 0.95 (vectorised).
+
+    AASHTO LRFD 6.7.6.2.1, Eq. 6.7.6.2.1-1. [value from memory]
+    """
+    M_u = np.asarray(M_u, dtype=float)
+    V_u = np.asarray(V_u, dtype=float)
+    return 6.0 * M_u / (phi_f * D**3 * F_y) + (2.2 * V_u / (phi_v * D**2 * F_y)) ** 3
+
+
+def lrfd_bearing_nominal(t, D, F_y):
+    """Nominal bearing of a plate on a pin, (R_pB)_n = 1.5 t D F_y, kip.
+
+    AASHTO LRFD 6.7.6.2.2, Eq. 6.7.6.2.2-2. [value from memory]
+    """
+    return 1.5 * np.asarray(t, dtype=float) * D * F_y
+
+
+def en_moment_resistance(D, f_yp, gamma_M0: float = GAMMA_M0):
+    """M_Rd = 1.5 W_el f_yp / gamma_M0 with W_el = pi D^3 / 32, kip-in.
+
+    EN 1993-1-8 Table 3.10, bending resistance of the pin. [read]
+    """
+    return 1.5 * (math.pi * D**3 / 32.0) * f_yp / gamma_M0
+
+
+def en_shear_resistance(D, f_up, gamma_M2: float = GAMMA_M2):
+    """F_v,Rd = 0.6 A f_up / gamma_M2 with A = pi D^2 / 4 (one shear plane), kip.
+
+    EN 1993-1-8 Table 3.10, shear resistance of the pin. [read]
+    """
+    return 0.6 * (math.pi * D**2 / 4.0) * f_up / gamma_M2
+
+
+def en_bearing_resistance(t, D, f_y, gamma_M0: float = GAMMA_M0):
+    """F_b,Rd = 1.5 t d f_y / gamma_M0 (f_y the lower of plate and pin), kip.
+
+    EN 1993-1-8 Table 3.10, bearing resistance of the plate and the pin. [read]
+    """
+    return 1.5 * np.asarray(t, dtype=float) * D * f_y / gamma_M0
+
+
+def en_interaction(M, V, M_Rd, F_v_Rd):
+    """(M_Ed/M_Rd)^2 + (F_v,Ed/F_v,Rd)^2 <= 1 (vectorised).
+
+    EN 1993-1-8 Table 3.10, combined bending and shear of the pin. [read]
+    """
+    return (np.asarray(M, dtype=float) / M_Rd) ** 2 + (np.asarray(V, dtype=float) / F_v_Rd) ** 2
+
+
+@dataclass(frozen=True)
+class MemberAction:
+    """One member's axial force at the joint (kip, tension positive) and the unit vector in
+    the truss plane (x horizontal, y vertical) from the joint toward the member's far end."""
+
+    member: str
+    force_kip: float
+    direction: tuple[float, float]
+
+
+@dataclass(frozen=True)
+class PlateLoad:
+    """One packing item and the force it puts on the pin (kip), with its bearing check."""
+
+    position: int = field(metadata={"label": "Item", "unit": ""})
+    member: str | None = field(metadata={"label": "Member", "unit": ""})
+    thickness_in: float = field(metadata={"label": "t", "unit": "in"})
+    z_in: float = field(metadata={"label": "z (mid-thickness)", "unit": "in"})
+    F_h_kip: float = field(metadata={"label": "F horizontal", "unit": "kip"})
+    F_v_kip: float = field(metadata={"label": "F vertical", "unit": "kip"})
+    bearing_resistance_kip: float = field(metadata={"label": "phi_b R_pB", "unit": "kip"})
+    bearing_utilization: float = field(metadata={"label": "Bearing use", "unit": ""})
+
+    @property
+    def F_kip(self) -> float:
+        return math.hypot(self.F_h_kip, self.F_v_kip)
+
+
+@dataclass(frozen=True)
+class PinSection:
+    """Moment and shear at a load point along the pin (kip-in, kip).
+
+    ``M_h``/``V_h`` come from the horizontal force components, ``M_v``/``V_v`` from the
+    vertical ones (taken from the first end); ``M_kip_in``/``V_kip`` are the combined
+    magnitudes used in the checks (the larger of those taken from either end, and for V the
+    larger side of the load point).
+    """
+
+    z_in: float = field(metadata={"label": "z", "unit": "in"})
+    M_h_kip_in: float = field(metadata={"label": "M horizontal", "unit": "kip-in"})
+    M_v_kip_in: float = field(metadata={"label": "M vertical", "unit": "kip-in"})
+    M_kip_in: float = field(metadata={"label": "M", "unit": "kip-in"})
+    V_h_kip: float = field(metadata={"label": "V horizontal", "unit": "kip"})
+    V_v_kip: float = field(metadata={"label": "V vertical", "unit": "kip"})
+    V_kip: float = field(metadata={"label": "V", "unit": "kip"})
+    lrfd: float = field(metadata={"label": "LRFD 6.7.6.2.1 left side", "unit": ""})
+    en: float = field(metadata={"label": "EN 1993-1-8 combined", "unit": ""})
+
+
+@dataclass(frozen=True)
+class EnPinCheck:
+    """The EN 1993-1-8 Table 3.10 cross-check (not used in the rating)."""
+
+    M_Rd_kip_in: float
+    F_v_Rd_kip: float
+    interaction: float  # governing (M/M_Rd)^2 + (V/F_v,Rd)^2
+    z_in: float
+    bearing_utilization: float
+    utilization: float
+
+
+@dataclass(frozen=True)
+class PinCheck:
+    """Pin at one joint under one load state.
+
+    ``utilization`` (1.0 = at the limit) is the larger of the LRFD 6.7.6.2.1 left side / 0.95
+    at the governing section and the worst plate bearing ratio; it is what a caller drives to
+    1.0 when searching the live-load multiplier. It is not linear in the load.
+    """
+
+    joint: str
+    diameter_in: float
+    F_y: float
+    F_u: float
+    plates: tuple[PlateLoad, ...]
+    sections: tuple[PinSection, ...]
+    governing: PinSection
+    flexure_shear: float
+    flexure_shear_limit: float
+    governing_plate: PlateLoad | None
+    utilization_flexure_shear: float
+    utilization_bearing: float
+    utilization: float
+    en: EnPinCheck
+    residual_force_kip: tuple[float, float]
+    residual_moment_kip_in: tuple[float, float]
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]
+    provision: str = ("AASHTO LRFD 6.7.6.2.1 and 6.7.6.2.2 [value from memory]; loading Berg, "
+                      "Safe Building, Parts 10-15 [read]; cross-check EN 1993-1-8 Table 3.10 "
+                      "[read]")
+
+    @property
+    def M_u_kip_in(self) -> float:
+        return self.governing.M_kip_in
+
+    @property
+    def V_u_kip(self) -> float:
+        return self.governing.V_kip
+
+
+# --------------------------------------------------------------------------------------------
+# layout: where each load acts and how the member forces are shared
+# --------------------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class _Layout:
+    z: np.ndarray  # load points, in (plates in order, then the mid-length point if used)
+    t: np.ndarray  # thickness of each load point (0 for the mid-length point)
+    share: np.ndarray  # (n_points, n_members): fraction of each member's force at each point
+    ext_share: np.ndarray  # (n_points,): fraction of the external load at each point
+    members: tuple[str, ...]
+    items: tuple[str | None, ...]
+    n_plates: int
+    length_in: float
+    Fy_bearing: np.ndarray  # per point
+
+
+def _where(pin: Pin) -> str | None:
+    return pin.where or None
+
+
+def _num(v: object) -> bool:
+    return isinstance(v, int | float) and not isinstance(v, bool) and math.isfinite(v)
+
+
+def _layout(pin: Pin, actions: Sequence[MemberAction], has_external: bool, Fy_pin: float,
+            designs: Mapping[str, MemberDesign] | None, warnings: list[str],
+            assumptions: list[str], max_clearance_in: float) -> _Layout:
+    j = pin.joint
+    if not _num(pin.diameter_in) or pin.diameter_in <= 0:
+        raise InputError(f"pin at joint {j}: diameter must be a positive number of inches, got "
+                         f"{pin.diameter_in!r}", _where(pin))
+    if not pin.packing:
+        raise InputError(f"pin at joint {j}: no packing recorded (the order of the bars on the "
+                         "pin is needed)", _where(pin))
+    names = [a.member for a in actions]
+    dup = {n for n in names if names.count(n) > 1}
+    if dup:
+        raise InputError(f"pin at joint {j}: member force given twice for "
+                         f"{', '.join(sorted(dup))}", _where(pin))
+    for a in actions:
+        if not _num(a.force_kip):
+            raise InputError(f"pin at joint {j}: force of member {a.member} is not a number",
+                             _where(pin))
+        dx, dy = a.direction
+        if not (_num(dx) and _num(dy)) or math.hypot(dx, dy) < 1e-12:
+            raise InputError(f"pin at joint {j}: direction of member {a.member} is not a "
+                             "non-zero vector", _where(pin))
+    at_joint = set(names)
+    z_list, t_list, items = [], [], []
+    z0 = 0.0
+    for k, it in enumerate(pin.packing, start=1):
+        if not _num(it.thickness_in) or it.thickness_in <= 0:
+            raise InputError(f"pin at joint {j}: packing item {k} has thickness "
+                             f"{it.thickness_in!r}; it must be a positive number of inches",
+                             _where(pin))
+        if not _num(it.gap_before_in) or it.gap_before_in < 0:
+            raise InputError(f"pin at joint {j}: packing item {k} has a gap of "
+                             f"{it.gap_before_in!r} in; gaps cannot be negative", _where(pin))
+        name = it.member
+        if name is not None and name.strip().lower() != FLOORBEAM and name not in at_joint:
+            known = ", ".join(sorted(at_joint)) or "none"
+            raise InputError(f"pin at joint {j}: packing item {k} names member {name!r}, which "
+                             f"does not meet at this joint (members here: {known})",
+                             _where(pin))
+        z0 += it.gap_before_in
+        z_list.append(z0 + it.thickness_in / 2.0)
+        t_list.append(it.thickness_in)
+        items.append(name)
+        z0 += it.thickness_in
+    length = z0
+    on_pin = {n for n in items if n is not None}
+    missing = [n for n in names if n not in on_pin]
+    if missing:
+        raise InputError(f"pin at joint {j}: member(s) {', '.join(missing)} meet at this joint "
+                         "but have no plate in the packing", _where(pin))
+    fb = [i for i, n in enumerate(items) if n is not None and n.strip().lower() == FLOORBEAM]
+    n_pl = len(items)
+    use_mid = has_external and not fb
+    z = np.array(z_list + ([length / 2.0] if use_mid else []), dtype=float)
+    t = np.array(t_list + ([0.0] if use_mid else []), dtype=float)
+    share = np.zeros((len(z), len(names)))
+    for c, n in enumerate(names):
+        idx = [i for i, it in enumerate(items) if it == n]
+        tt = t[idx]
+        share[idx, c] = tt / tt.sum()
+    ext = np.zeros(len(z))
+    if fb:
+        ext[fb] = t[fb] / t[fb].sum()
+        assumptions.append(f"pin at joint {j}: the floorbeam load is shared over its "
+                           "packing item(s) in proportion to thickness")
+    elif has_external:
+        ext[-1] = 1.0
+        assumptions.append(f"pin at joint {j}: no floorbeam item in the packing; the floorbeam "
+                           f"load is applied at the pin's mid-length (z = {length / 2:g} in)")
+    Fy_b = np.full(len(z), Fy_pin)
+    if designs:
+        for i, n in enumerate(items):
+            d = designs.get(n) if n is not None else None
+            if d is not None:
+                Fy_b[i] = min(Fy_pin, d.material.F_y)
+        _fit_checks(pin, items, designs, warnings, max_clearance_in)
+    return _Layout(z, t, share, ext, tuple(names), tuple(items), n_pl, length, Fy_b)
+
+
+def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, MemberDesign],
+                warnings: list[str], max_clearance_in: float) -> None:
+    """Pin against the eyebar holes and bar counts.
+
+    AISC LRFD 1999 D3.2: hole <= pin + 1/32 in; pin >= 7/8 of the body width. [read]
+    """
+    j, D = pin.joint, pin.diameter_in
+    for n in dict.fromkeys(i for i in items if i is not None):
+        d = designs.get(n)
+        if d is None or not isinstance(d.section, EyebarSet):
+            continue
+        s = d.section
+        hole = s.pin_hole_diameter_in
+        if D > hole + 1e-3:
+            raise InputError(f"pin at joint {j}: the pin ({D:g} in) is larger than the pin hole "
+                             f"of member {n} ({hole:g} in); check the pin diameter or the hole",
+                             _where(pin))
+        if hole - D > max_clearance_in:
+            raise InputError(f"pin at joint {j}: the pin ({D:g} in) is smaller than the pin hole "
+                             f"of member {n} ({hole:g} in) by {hole - D:.3f} in, more than "
+                             f"{max_clearance_in:g} in; check the pin diameter or the hole",
+                             _where(pin))
+        if hole - D > FIT_CLEARANCE_IN + 1e-3:
+            warnings.append(f"pin at joint {j}: member {n} hole {hole:g} in is more than 1/32 in "
+                            f"over the pin {D:g} in (AISC LRFD 1999 D3.2); worn pin or hole, "
+                            "the bearing is concentrated")
+        if D < 7.0 / 8.0 * s.width_in - 1e-6:
+            warnings.append(f"pin at joint {j}: pin {D:g} in is less than 7/8 of the body width "
+                            f"{s.width_in:g} in of member {n} (AISC LRFD 1999 D3.2)")
+        k = sum(1 for i in items if i == n)
+        if k != s.count:
+            warnings.append(f"pin at joint {j}: the packing has {k} plate(s) of member {n}, "
+                            f"its section has {s.count} eyebars")
+
+
+def _forces(layout: _Layout, actions: Sequence[MemberAction],
+            external_kip: tuple[float, float] | None) -> np.ndarray:
+    """(n_points, 2) forces on the pin: member force x unit direction, shared by thickness."""
+    N = np.array([a.force_kip for a in actions], dtype=float)
+    u = np.array([a.direction for a in actions], dtype=float).reshape(-1, 2)
+    u = u / np.linalg.norm(u, axis=1)[:, None]
+    F = layout.share @ (N[:, None] * u) if len(actions) else np.zeros((len(layout.z), 2))
+    if external_kip is not None:
+        F = F + layout.ext_share[:, None] * np.asarray(external_kip, dtype=float)[None, :]
+    return F
+
+
+def _section_forces(z: np.ndarray, F: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Moments and shears at each load point, from the first end and from the last end."""
+    dz = z[:, None] - z[None, :]
+    M_L = np.maximum(dz, 0.0) @ F  # from the first end
+    M_R = np.maximum(-dz, 0.0) @ F  # from the last end (equal to M_L in equilibrium)
+    before = (dz > 0).astype(float)
+    upto = (dz >= 0).astype(float)
+    V_Lm = before @ F
+    V_Lp = upto @ F
+    total = F.sum(axis=0)
+    V_Rp = total[None, :] - V_Lp  # load beyond the point
+    V_Rm = total[None, :] - V_Lm
+    M = np.maximum(np.linalg.norm(M_L, axis=1), np.linalg.norm(M_R, axis=1))
+    V = np.max(np.stack([np.linalg.norm(v, axis=1) for v in (V_Lm, V_Lp, V_Rp, V_Rm)]), axis=0)
+    return M_L, V_Lp, M, V
+
+
+def _evaluate(layout: _Layout, F: np.ndarray, D: float, Fy: float, Fu: float, phi_f: float,
+              phi_v: float, phi_b: float, limit: float, gamma_M0: float, gamma_M2: float):
+    _, _, M, V = _section_forces(layout.z, F)
+    lrfd = lrfd_flexure_shear(M, V, D, Fy, phi_f, phi_v)
+    Fmag = np.linalg.norm(F, axis=1)
+    npl = layout.n_plates
+    cap = phi_b * lrfd_bearing_nominal(layout.t[:npl], D, layout.Fy_bearing[:npl])
+    bear = Fmag[:npl] / cap
+    return M, V, lrfd, bear, Fmag
+
+
+def _material(pin: Pin, default: Material | None, assumptions: list[str]) -> Material:
+    if pin.material is not None:
+        return pin.material
+    if default is not None:
+        assumptions.append(f"pin at joint {pin.joint}: pin material not recorded; F_y = "
+                           f"{default.F_y:g} ksi, F_u = {default.F_u:g} ksi taken "
+                           f"({default.basis})")
+        return default
+    md = default_material(MaterialKind.STEEL, None)
+    assumptions.append(f"pin at joint {pin.joint}: pin material not recorded; {md.assumption}")
+    return md.material
+
+
+def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
+              external_kip: tuple[float, float] | None = None,
+              designs: Mapping[str, MemberDesign] | None = None,
+              default_pin_material: Material | None = None,
+              phi_f: float = PHI_F, phi_v: float = PHI_V, phi_b: float = PHI_B,
+              limit: float = INTERACTION_LIMIT, gamma_M0: float = GAMMA_M0,
+              gamma_M2: float = GAMMA_M2, max_clearance_in: float = 0.25,
+              equilibrium_tolerance: float = 1e-3) -> PinCheck:
+    """Moment, shear and bearing of a pin under the concurrent member forces of ONE load state.
+
+    AASHTO LRFD 6.7.6.2.1-1 and 6.7.6.2.2-2 [value from memory]; loading Berg Parts 10-15 [read].
+
+    Args:
+        pin: diameter, packing (order, thicknesses, gaps) and material.
+        actions: every member meeting at the joint, with its force and direction.
+        external_kip: (horizontal, vertical) force applied to the pin at the joint, kip.
+        designs: member designs by label (optional): plate F_y for bearing (the lower of plate
+            and pin is used) and the pin-to-hole fit of eyebars.
+        default_pin_material: used when ``pin.material`` is None (else MBE default steel).
+        max_clearance_in: a hole larger than the pin by more than this is taken as a data
+            error (common practice); more than 1/32 in is a warning.
+        equilibrium_tolerance: relative tolerance of the force and moment balance check.
+    """
+    warnings: list[str] = []
+    assumptions: list[str] = [
+        f"pin at joint {pin.joint}: each member's force is shared over its plates in proportion "
+        "to thickness and acts at each plate's mid-thickness (Berg, Safe Building, Parts "
+        "10-15)",
+        f"pin at joint {pin.joint}: the rating uses AASHTO LRFD 6.7.6.2.1 (flexure and shear, "
+        f"limit {limit:g}) and 6.7.6.2.2 (bearing); EN 1993-1-8 Table 3.10 is shown as a "
+        f"cross-check only (gamma_M0 = {gamma_M0:g}, gamma_M2 = {gamma_M2:g}, recommended "
+        "values from memory)",
+    ]
+    mat = _material(pin, default_pin_material, assumptions)
+    D, Fy, Fu = float(pin.diameter_in), mat.F_y, mat.F_u
+    lay = _layout(pin, actions, external_kip is not None, Fy, designs, warnings, assumptions,
+                  max_clearance_in)
+    if external_kip is not None and not all(_num(v) for v in external_kip):
+        raise InputError(f"pin at joint {pin.joint}: the external load is not a pair of numbers",
+                         _where(pin))
+    F = _forces(lay, actions, external_kip)
+    M_L, V_Lp, M, V, = _section_forces(lay.z, F)
+    lrfd = lrfd_flexure_shear(M, V, D, Fy, phi_f, phi_v)
+    M_Rd = en_moment_resistance(D, Fy, gamma_M0)
+    Fv_Rd = en_shear_resistance(D, Fu, gamma_M2)
+    en = en_interaction(M, V, M_Rd, Fv_Rd)
+    Fmag = np.linalg.norm(F, axis=1)
+    npl = lay.n_plates
+    cap = phi_b * lrfd_bearing_nominal(lay.t[:npl], D, lay.Fy_bearing[:npl])
+    bear = Fmag[:npl] / cap
+    en_bear = Fmag[:npl] / en_bearing_resistance(lay.t[:npl], D, lay.Fy_bearing[:npl],
+                                                 gamma_M0)
+
+    scale = float(np.abs(F).sum()) + 1e-9
+    res_F = F.sum(axis=0)
+    res_M = (F * lay.z[:, None]).sum(axis=0)
+    tolF = max(0.01, equilibrium_tolerance * scale)
+    if np.linalg.norm(res_F) > tolF:
+        warnings.append(f"pin at joint {pin.joint}: the forces on the pin do not balance "
+                        f"(residual {res_F[0]:.2f} kip horizontal, {res_F[1]:.2f} kip vertical);"
+                        " moments are taken from both ends and the larger used")
+    elif np.linalg.norm(res_M) > tolF * max(lay.length_in, 1.0):
+        warnings.append(f"pin at joint {pin.joint}: the packing is not balanced about the pin "
+                        f"(net couple {res_M[0]:.1f} kip-in horizontal, {res_M[1]:.1f} kip-in "
+                        "vertical); moments are taken from both ends and the larger used "
+                        "(conservative)")
+
+    sections = tuple(PinSection(float(lay.z[k]), float(M_L[k, 0]), float(M_L[k, 1]),
+                                float(M[k]), float(V_Lp[k, 0]), float(V_Lp[k, 1]), float(V[k]),
+                                float(lrfd[k]), float(en[k]))
+                     for k in np.argsort(lay.z, kind="stable"))
+    plates = tuple(PlateLoad(i + 1, lay.items[i], float(lay.t[i]), float(lay.z[i]),
+                             float(F[i, 0]), float(F[i, 1]), float(cap[i]), float(bear[i]))
+                   for i in range(npl))
+    kg = int(np.argmax(lrfd))
+    gov = next(s for s in sections if s.z_in == float(lay.z[kg]))
+    kb = int(np.argmax(bear)) if npl else -1
+    u_fs = float(lrfd[kg]) / limit
+    u_b = float(bear[kb]) if npl else 0.0
+    ke = int(np.argmax(en))
+    u_en = max(float(en[ke]), float(np.max(en_bear)) if npl else 0.0)
+    en_chk = EnPinCheck(M_Rd, Fv_Rd, float(en[ke]), float(lay.z[ke]),
+                        float(np.max(en_bear)) if npl else 0.0, u_en)
+    return PinCheck(pin.joint, D, Fy, Fu, plates, sections, gov, float(lrfd[kg]), limit,
+                    plates[kb] if npl else None, u_fs, u_b, max(u_fs, u_b), en_chk,
+                    (float(res_F[0]), float(res_F[1])), (float(res_M[0]), float(res_M[1])),
+                    tuple(dict.fromkeys(warnings)), tuple(assumptions))
+
+
+def pin_actions(geometry: TrussGeometry, joint: str, forces: Mapping[str, float],
+                where: str = "") -> tuple[MemberAction, ...]:
+    """Member actions at ``joint`` from the geometry and one load state's member forces.
+
+    Statics of a pin-jointed truss: direction from the joint toward each member's far end.
+    """
+    if joint not in geometry.joint_index:
+        raise InputError(f"pin at joint {joint!r}: no such joint in the truss", where or None)
+    here = geometry.members_at(joint)
+    labels = {m.label for m in here}
+    extra = [k for k in forces if k not in labels]
+    if extra:
+        raise InputError(f"pin at joint {joint}: force given for {', '.join(extra)}, which does "
+                         "not meet at this joint", where or None)
+    j = geometry.joint(joint)
+    out = []
+    for m in here:
+        if m.label not in forces:
+            raise InputError(f"pin at joint {joint}: no force given for member {m.label}",
+                             where or None)
+        far = geometry.joint(m.end if m.start == joint else m.start)
+        dx, dy = far.x_ft - j.x_ft, far.y_ft - j.y_ft
+        L = math.hypot(dx, dy)
+        out.append(MemberAction(m.label, float(forces[m.label]), (dx / L, dy / L)))
+    return tuple(out)
+
+
+def pin_load_multiplier(pin: Pin, base: Sequence[MemberAction], added: Sequence[MemberAction],
+                        *, base_external_kip: tuple[float, float] | None = None,
+                        added_external_kip: tuple[float, float] | None = None,
+                        designs: Mapping[str, MemberDesign] | None = None,
+                        default_pin_material: Material | None = None,
+                        phi_f: float = PHI_F, phi_v: float = PHI_V, phi_b: float = PHI_B,
+                        limit: float = INTERACTION_LIMIT, max_clearance_in: float = 0.25,
+                        lam_max: float = 1e6) -> float:
+    """The multiplier lam >= 0 with utilization(base + lam * added) = 1.0.
+
+    Root of the AASHTO LRFD 6.7.6.2.1/6.7.6.2.2 utilization (convex in lam). [value from memory]
+    Returns 0.0 when the base state alone reaches the limit and inf when the added state never
+    brings the pin to it (below ``lam_max``). ``base`` and ``added`` must name the same
+    members with the same directions (the forces of one position: factored dead and live).
+    """
+    b = {a.member: a for a in base}
+    a_ = {a.member: a for a in added}
+    if set(b) != set(a_):
+        raise InputError(f"pin at joint {pin.joint}: the base and added load states name "
+                         "different members", _where(pin))
+    notes: list[str] = []
+    mat = _material(pin, default_pin_material, notes)
+    has_ext = base_external_kip is not None or added_external_kip is not None
+    lay = _layout(pin, base, has_ext, mat.F_y, designs, [], [], max_clearance_in)
+    F0 = _forces(lay, base, base_external_kip or (0.0, 0.0) if has_ext else None)
+    added_in_order = [MemberAction(m, a_[m].force_kip, b[m].direction) for m in lay.members]
+    F1 = _forces(lay, added_in_order, added_external_kip or (0.0, 0.0) if has_ext else None)
+    D = float(pin.diameter_in)
+
+    def u(lam: float) -> float:
+        _, _, lrfd, bear, _ = _evaluate(lay, F0 + lam * F1, D, mat.F_y, mat.F_u, phi_f, phi_v,
+                                        phi_b, limit, GAMMA_M0, GAMMA_M2)
+        return max(float(np.max(lrfd)) / limit, float(np.max(bear)) if len(bear) else 0.0)
+
+    if u(0.0) >= 1.0:
+        return 0.0
+    lo, hi = 0.0, 1.0
+    while u(hi) < 1.0:
+        lo, hi = hi, hi * 2.0
+        if hi > lam_max:
+            return math.inf
+    return float(brentq(lambda x: u(x) - 1.0, lo, hi, xtol=1e-10, rtol=1e-12))

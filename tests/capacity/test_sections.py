@@ -1,0 +1,272 @@
+"""Section properties as built and after loss: closed forms, locations, removals, bad input.
+
+Closed forms: rectangle b h^3 / 12 and the parallel-axis theorem (any mechanics of materials
+text); channel and angle areas from their rectangles. Eyebar and rod areas from their
+dimensions. The library cross-check is in tests/reference/test_sections_sectionproperties.py.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from rating.capacity.sections import (
+    THREADED_ROOT_AREA_RATIO,
+    area_properties,
+    gross_area_as_built_in2,
+    part_rectangles,
+    section_properties,
+)
+from rating.errors import InputError
+from rating.model import (
+    AnglePart,
+    BarState,
+    BuiltUpSection,
+    ChannelPart,
+    ChannelToes,
+    ConnectorKind,
+    Connectors,
+    EyebarSet,
+    Finding,
+    FindingRegion,
+    PlatePart,
+    RodEnd,
+    RodSet,
+    RodShape,
+    RolledShape,
+)
+
+POST = BuiltUpSection(
+    parts=(ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
+           ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT)),
+    connectors=Connectors(ConnectorKind.LACING, spacing_in=16.0),
+    hole_diameter_in=0.875, holes_per_section=4)
+
+
+def test_plate_closed_form():
+    # rectangle b h^3/12 about its own axes (closed form)
+    p = area_properties(part_rectangles(PlatePart("p", 12.0, 0.5)))
+    assert p.A_in2 == pytest.approx(6.0)
+    assert p.I_x_in4 == pytest.approx(12.0 * 0.5**3 / 12.0)
+    assert p.I_y_in4 == pytest.approx(0.5 * 12.0**3 / 12.0)
+    v = area_properties(part_rectangles(PlatePart("p", 12.0, 0.5, vertical=True)))
+    assert v.I_x_in4 == pytest.approx(0.5 * 12.0**3 / 12.0)  # width along y: in-plane stiff
+
+
+def test_parallel_axis_two_plates():
+    # two 10 x 1 plates 8 in apart centre to centre: I_x = 2 (10 * 1/12 + 10 * 4^2)
+    rects = part_rectangles(PlatePart("a", 10, 1, y_in=4)) + \
+        part_rectangles(PlatePart("b", 10, 1, y_in=-4))
+    p = area_properties(rects)
+    assert p.y_c_in == pytest.approx(0.0)
+    assert p.I_x_in4 == pytest.approx(2 * (10 / 12 + 10 * 16))
+    assert p.r_x_in == pytest.approx(math.sqrt(p.I_x_in4 / 20))
+
+
+@pytest.mark.parametrize("toes", list(ChannelToes))
+def test_channel_area_any_orientation(toes):
+    # A = d tw + 2 (bf - tw) tf (rectangles of the channel, closed form)
+    c = ChannelPart("C", 12.0, 3.0, 0.4, 0.5, toes=toes)
+    p = area_properties(part_rectangles(c))
+    assert p.A_in2 == pytest.approx(12 * 0.4 + 2 * (3.0 - 0.4) * 0.5)
+    # centroid from the back of the web: sum A x / A
+    xbar = (12 * 0.4 * 0.2 + 2 * 2.6 * 0.5 * (0.4 + 1.3)) / p.A_in2
+    off = {ChannelToes.RIGHT: (xbar, 0), ChannelToes.LEFT: (-xbar, 0),
+           ChannelToes.UP: (0, xbar), ChannelToes.DOWN: (0, -xbar)}[toes]
+    assert (p.x_c_in, p.y_c_in) == pytest.approx(off)
+
+
+def test_angle_area_and_centroid():
+    # A = t (Lx + Ly - t); centroid of an equal angle on its diagonal (closed form)
+    a = AnglePart("L", 4.0, 4.0, 0.5)
+    p = area_properties(part_rectangles(a))
+    assert p.A_in2 == pytest.approx(0.5 * (4 + 4 - 0.5))
+    assert p.x_c_in == pytest.approx(p.y_c_in)
+    assert p.x_c_in == pytest.approx((4 * 0.5 * 2 + 3.5 * 0.5 * 0.25) / 3.75)
+    m = area_properties(part_rectangles(AnglePart("L", 4.0, 4.0, 0.5, x_sign=-1, y_sign=-1)))
+    assert (m.x_c_in, m.y_c_in) == pytest.approx((-p.x_c_in, -p.y_c_in))
+    assert m.I_xy_in4 == pytest.approx(p.I_xy_in4)
+    assert p.r_min_in < min(p.r_x_in, p.r_y_in)  # principal axis of an angle
+
+
+def test_gross_area_as_built():
+    assert gross_area_as_built_in2(EyebarSet(4, 6, 1.25, 15, 6.03)) == pytest.approx(30.0)
+    assert gross_area_as_built_in2(RodSet(2, 1.5)) == pytest.approx(2 * math.pi * 0.75**2)
+    assert gross_area_as_built_in2(RodSet(2, 1.5, shape=RodShape.SQUARE)) == pytest.approx(4.5)
+    assert gross_area_as_built_in2(RolledShape("W8x31", 9.13, 3.47, 2.02)) == 9.13
+    assert gross_area_as_built_in2(POST) == pytest.approx(
+        2 * (10 * 0.38 + 2 * (2.6 - 0.38) * 0.44))
+
+
+def test_eyebar_areas_and_head_loss_location():
+    e = EyebarSet(2, 6.0, 1.0, 14.0, 5.03)
+    f = Finding("L1L2", "bar 2", FindingRegion.HEAD, station_ft=0.5, percent_loss=20,
+                where="Findings!B7")
+    r = section_properties(e, member="L1L2", findings=(f,), length_ft=20)
+    base, head = r.tension
+    assert base.A_g_in2 == pytest.approx(12.0)
+    assert base.A_n_in2 == pytest.approx(2 * (14 - 5.03) * 1.0)  # (D_h - d) t per bar
+    assert head.location.region is FindingRegion.HEAD and head.location.station_ft == 0.5
+    assert head.location.finding is f
+    assert head.A_g_in2 == pytest.approx(12.0)  # head loss leaves the body alone
+    assert head.A_n_in2 == pytest.approx((14 - 5.03) * (1.0 + 0.8))
+    assert head.eyebars[0].beyond_hole_in == pytest.approx((14 - 5.03) / 2)
+    assert r.compression == ()
+    assert "Findings!B7" in head.location.describe()
+
+
+def test_body_width_limited_to_8t():
+    # AISC LRFD 1999 D3.2 [read]: body width taken not more than 8 t in calculation
+    r = section_properties(EyebarSet(1, 8.0, 0.75, 16, 6.03), member="M")
+    assert r.tension[0].A_g_in2 == pytest.approx(6.0 * 0.75)
+    assert any("8 t" in w for w in r.warnings)
+
+
+def test_rod_threaded_default_root_and_loss():
+    r = section_properties(RodSet(2, 1.5, RodEnd.THREADED), member="U2L3",
+                           findings=(Finding("U2L3", "bar 1", FindingRegion.THREAD,
+                                             remaining_thickness_in=1.0),))
+    body = 2 * math.pi * 0.75**2
+    base, end = r.tension
+    assert base.A_n_in2 == pytest.approx(THREADED_ROOT_AREA_RATIO * body)
+    # remaining diameter at the thread of bar 1 is 1.0 in
+    assert end.A_n_in2 == pytest.approx(math.pi / 4 + THREADED_ROOT_AREA_RATIO * body / 2)
+    assert any("root" in a for a in r.assumptions)
+
+
+def test_rod_upset_root_given_and_percent_of_diameter():
+    r = section_properties(RodSet(1, 2.0, RodEnd.UPSET, root_diameter_in=2.2), member="H",
+                           findings=(Finding("H", "all", percent_loss=10, station_ft=3),))
+    base, body = r.tension
+    assert base.A_n_in2 == pytest.approx(math.pi * 1.1**2)
+    assert body.A_g_in2 == pytest.approx(math.pi * 0.9**2)  # 10% of the diameter
+
+
+def test_builtup_loss_depth_applies_to_every_element():
+    c = ChannelPart("C", 10.0, 2.6, 0.4, 0.5)
+    s = BuiltUpSection(parts=(c,))
+    r = section_properties(s, member="M", findings=(Finding("M", "C",
+                                                            remaining_thickness_in=0.3),))
+    # depth of loss 0.1 in off the web and off both flanges
+    expected = 10 * 0.3 + 2 * (2.6 - 0.4) * 0.4
+    assert r.tension[1].A_g_in2 == pytest.approx(expected)
+
+
+def test_percent_loss_on_all_and_stations():
+    f1 = Finding("M", "all", percent_loss=10, where="F!A1")  # whole length
+    f2 = Finding("M", "C1", station_ft=6.0, percent_loss=30, where="F!A2")
+    f3 = Finding("M", "C2", region=FindingRegion.CONNECTION, station_ft=0.0, percent_loss=50,
+                 where="F!A3")
+    r = section_properties(POST, member="M", findings=(f1, f2, f3), length_ft=24)
+    locs = {(s.location.region, s.location.station_ft): s for s in r.tension}
+    a0 = r.tension[0].A_g_in2
+    whole = locs[(FindingRegion.BODY, None)]
+    at6 = locs[(FindingRegion.BODY, 6.0)]
+    conn = locs[(FindingRegion.CONNECTION, 0.0)]
+    assert whole.A_g_in2 == pytest.approx(0.9 * a0)
+    # at 6 ft: C1 has the larger of 10% and 30% -> 30%; C2 keeps the whole-length 10%
+    assert at6.A_g_in2 == pytest.approx(0.5 * a0 * (0.7 + 0.9))
+    assert at6.location.findings[0] is f2  # most loss first
+    assert f1 in at6.location.findings
+    assert conn.A_g_in2 == pytest.approx(0.5 * a0 * (1.0 + 0.5))  # body loss not at the end
+    assert conn.location.finding is f3
+    assert at6.r_y_in < r.tension[0].r_y_in or at6.r_x_in < r.tension[0].r_x_in
+
+
+def test_net_area_holes_and_axes():
+    r = section_properties(POST, member="M")
+    s = r.tension[0]
+    assert s.A_n_in2 == pytest.approx(s.A_g_in2 - 4 * 0.875 * 0.44)
+    # channels 8 in apart along x: out-of-plane axis owes its I to the offsets
+    assert s.modified_axis == "y"
+    assert s.r_in_plane_in == s.r_x_in and s.r_out_of_plane_in == s.r_y_in
+    assert s.r_i_in == pytest.approx(
+        area_properties(part_rectangles(POST.parts[0])).r_min_in)
+
+
+def test_loose_bar_removed_and_bent_bar_flagged():
+    e = EyebarSet(4, 6.0, 1.0, 14.0, 5.03)
+    r = section_properties(e, member="L2L3", findings=(
+        Finding("L2L3", "bar 3", bar_state=BarState.LOOSE, where="F!A9"),))
+    assert r.tension[0].A_g_in2 == pytest.approx(18.0)
+    assert r.carrying_count == 3 and r.total_count == 4
+    assert any("bar 3 is loose" in w and "F!A9" in w for w in r.warnings)
+    b = section_properties(POST, member="M", findings=(
+        Finding("M", "C2", bar_state=BarState.BENT),))
+    assert b.tension[0].A_g_in2 == pytest.approx(b.as_built.A_g_in2)
+    assert b.compression[0].A_g_in2 == pytest.approx(b.as_built.A_g_in2 / 2)
+    assert any("bent" in w for w in b.warnings)
+
+
+def test_remaining_more_than_as_built_is_a_warning():
+    r = section_properties(POST, member="M", findings=(
+        Finding("M", "C1", remaining_thickness_in=0.40),))
+    assert r.tension[1].A_g_in2 == pytest.approx(r.as_built.A_g_in2)
+    assert any("more than the 0.38 in as built" in w for w in r.warnings)
+
+
+def test_rolled_shape_percent_loss():
+    s = RolledShape("W8x31", 9.13, 3.47, 2.02, net_area_in2=8.0)
+    r = section_properties(s, member="M", findings=(Finding("M", "W8x31", percent_loss=20),))
+    assert r.tension[1].A_g_in2 == pytest.approx(0.8 * 9.13)
+    assert r.tension[1].A_n_in2 == pytest.approx(0.8 * 8.0)
+    assert r.tension[1].r_x_in == 3.47
+
+
+@pytest.mark.parametrize("finding, needle", [
+    (Finding("L1L2", "bar 1", percent_loss=120, where="Findings!E4"),
+     "more than the whole thickness"),
+    (Finding("L1L2", "bar 1", remaining_thickness_in=-0.1, where="Findings!E4"), "negative"),
+    (Finding("L1L2", "bar 1", percent_loss=-5, where="Findings!E4"), "negative"),
+    (Finding("L1L2", "bar 9", percent_loss=5, where="Findings!E4"), "bars 1 to 2"),
+    (Finding("L1L2", "web", percent_loss=5, where="Findings!E4"), "no component 'web'"),
+    (Finding("L1L2", "bar 1", FindingRegion.THREAD, percent_loss=5, where="Findings!E4"),
+     "no thread"),
+    (Finding("L1L2", "bar 1", station_ft=30.0, percent_loss=5, where="Findings!E4"),
+     "off the member"),
+    (Finding("L0L1", "bar 1", percent_loss=5, where="Findings!E4"), "belongs to member"),
+    (Finding("L1L2", "bar 1", remaining_thickness_in=0.5, percent_loss=10,
+             where="Findings!E4"), "disagree"),
+])
+def test_bad_findings_name_member_and_cell(finding, needle):
+    e = EyebarSet(2, 6.0, 1.0, 14.0, 5.03)
+    with pytest.raises(InputError) as ei:
+        section_properties(e, member="L1L2", findings=(finding,), length_ft=20)
+    assert ei.value.where == "Findings!E4"
+    assert "member L1L2" in str(ei.value) and needle in str(ei.value)
+
+
+def test_ambiguous_remaining_on_all_parts():
+    s = BuiltUpSection(parts=(PlatePart("web", 12, 0.5), PlatePart("cover", 14, 0.375,
+                                                                   y_in=3)))
+    with pytest.raises(InputError, match="ambiguous"):
+        section_properties(s, member="M", findings=(Finding("M", "all",
+                                                            remaining_thickness_in=0.3),))
+
+
+def test_builtup_region_head_refused():
+    with pytest.raises(InputError, match="has no head"):
+        section_properties(POST, member="M", findings=(
+            Finding("M", "C1", FindingRegion.HEAD, percent_loss=5),))
+
+
+@pytest.mark.parametrize("section, needle", [
+    (EyebarSet(2, -6.0, 1.0, 14.0, 5.03), "body width"),
+    (EyebarSet(2, 6.0, 1.0, 5.0, 5.03), "not larger than the pin hole"),
+    (EyebarSet(0, 6.0, 1.0, 14.0, 5.03), "count"),
+    (RodSet(1, 0.0), "rod diameter"),
+    (RodSet(1, 1.0, RodEnd.THREADED, root_diameter_in=1.2), "exceeds the rod diameter"),
+    (BuiltUpSection(parts=(PlatePart("p", 10, -0.5),)), "part p thickness"),
+    (BuiltUpSection(parts=(ChannelPart("c", 10, 3, 0.4, 5.5),)), "inconsistent"),
+    (BuiltUpSection(parts=(AnglePart("a", 3, 3, 3.5),)), "not less than its legs"),
+    (BuiltUpSection(parts=(PlatePart("p", 10, 0.5), PlatePart("P", 10, 0.5))), "used twice"),
+    (BuiltUpSection(parts=(PlatePart("p", 2, 0.5),), hole_diameter_in=1, holes_per_section=2),
+     "remove the whole section"),
+    (RolledShape("W", 9.0, 3.0, 2.0, net_area_in2=10.0), "exceeds the gross"),
+])
+def test_bad_sections(section, needle):
+    with pytest.raises(InputError) as ei:
+        section_properties(section, member="U3U4", where="Sections!C12")
+    assert ei.value.where == "Sections!C12"
+    assert "member U3U4" in str(ei.value) and needle in str(ei.value)
