@@ -77,7 +77,11 @@ def main(argv: Sequence[str] | None = None) -> int:
     from rating import commands
 
     handler = getattr(commands, f"run_{args.command}")
-    return int(handler(args))
+    try:
+        return int(handler(args))
+    except BrokenPipeError:  # output piped into a pager or head that closed early
+        sys.stderr.close()
+        return EXIT_OK
 
 
 if __name__ == "__main__":  # pragma: no cover

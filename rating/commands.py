@@ -46,3 +46,91 @@ def run_check(args: argparse.Namespace) -> int:
         return EXIT_INPUT
     print(f"{args.workbook}: no errors, {len(reading.warnings)} warning(s)")
     return EXIT_OK
+
+
+def _same_file(a, b) -> bool:
+    from pathlib import Path
+
+    try:
+        return Path(a).resolve() == Path(b).resolve()
+    except OSError:
+        return False
+
+
+def run_rate(args: argparse.Namespace) -> int:
+    from rating.pipeline import output_paths, rate_workbook, write_atomic, write_outputs
+    from rating.results import results_json
+
+    workbook = args.workbook
+    if not workbook.is_file():
+        print(f"pintruss: no workbook at {workbook}", file=sys.stderr)
+        return EXIT_INPUT
+    vehicle_ids = None
+    if args.vehicles:
+        vehicle_ids = [v.strip() for v in args.vehicles.split(",") if v.strip()]
+        if not vehicle_ids:
+            print("pintruss: --vehicles names no vehicle", file=sys.stderr)
+            return EXIT_USAGE
+    html_path, json_path = output_paths(workbook, args.out)
+    targets = [json_path] + ([] if args.no_report else [html_path])
+    if args.json_path is not None:
+        targets.append(args.json_path)
+    for t in targets:
+        if _same_file(t, workbook):
+            print(f"pintruss: refusing to write {t}: it is the input workbook", file=sys.stderr)
+            return EXIT_USAGE
+    outcome = rate_workbook(workbook, vehicle_ids)
+    for problem in outcome.problems:
+        print(problem.format(), file=sys.stderr)
+    if outcome.results is None:
+        print(f"pintruss: {workbook} was not rated: {len(outcome.errors)} error(s) listed above",
+              file=sys.stderr)
+        return EXIT_INPUT
+    res = outcome.results
+    html, js = write_outputs(res, html_path.parent, workbook.stem, report=not args.no_report)
+    if args.json_path is not None:
+        write_atomic(args.json_path, results_json(res))
+        js = args.json_path
+    print(f"{res.bridge.id} {res.bridge.name}")
+    for vid, p in res.posting.items():
+        rf = "no live load" if p.rf == float("inf") else f"{p.rf:.2f}"
+        print(f"  {vid:<12} RF {rf:>6}  controlled by {p.member or '-':<10} {p.action}")
+    print(f"recommendation: {res.recommendation}")
+    if html is not None:
+        print(f"report:  {html}")
+    print(f"results: {js}")
+    return EXIT_OK
+
+
+def run_vehicles(args: argparse.Namespace) -> int:
+    import json
+
+    from rating.vehicles.library import library, rating_loads
+
+    if not args.json:
+        print("Rating loads (ids for 'pintruss rate --vehicles'):")
+        for load in rating_loads():
+            models = "; ".join(m.name for m in load.models)
+            span = f", spans over {load.min_span_ft:g} ft only" if load.min_span_ft else ""
+            print(f"  {load.id:<12} {load.name} [{load.category.value}] = {models}"
+                  f"{span}; W = {load.gross_weight_tons:g} tons")
+        print("\nVehicles in the library:")
+    rows = []
+    for v in library():
+        spacing = ", ".join(f"{s.min_ft:g}" if not s.is_variable else f"{s.min_ft:g}-{s.max_ft:g}"
+                            for s in v.spacings)
+        rows.append({"id": v.id, "name": v.name, "category": v.category.value,
+                     "axle_loads_kip": list(v.axle_loads_kip), "spacings_ft": spacing,
+                     "lane_load_klf": v.lane_load_klf, "gross_weight_tons": v.gross_weight_tons,
+                     "source": v.source, "tag": v.tag})
+    if args.json:
+        print(json.dumps(rows, indent=2))
+        return EXIT_OK
+    for r in rows:
+        axles = " / ".join(f"{a:g}" for a in r["axle_loads_kip"]) or "-"
+        lane = f", lane {r['lane_load_klf']:g} klf" if r["lane_load_klf"] else ""
+        print(f"{r['id']:<12} {r['name']} [{r['category']}]")
+        print(f"{'':12} axles {axles} kip at {r['spacings_ft'] or '-'} ft{lane}; "
+              f"W = {r['gross_weight_tons']:g} tons")
+        print(f"{'':12} source: {r['source']} ({r['tag']})")
+    return EXIT_OK

@@ -1,0 +1,100 @@
+"""The whole chain for one workbook: read -> rate -> results -> report and JSON files.
+
+This is the top of the data flow (like the CLI it may call every layer); nothing calls back
+into it except the CLI and the batch runner.
+"""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from collections.abc import Sequence
+from dataclasses import dataclass
+from pathlib import Path
+
+from rating.errors import ConvergenceError, InputError, PintrussError
+from rating.inventory.problems import Problem
+from rating.results import RatingResults, results_json
+
+
+@dataclass(frozen=True)
+class RateOutcome:
+    """Results when the workbook could be rated; every problem found either way."""
+
+    workbook: Path
+    results: RatingResults | None
+    problems: tuple[Problem, ...]
+
+    @property
+    def errors(self) -> tuple[Problem, ...]:
+        return tuple(p for p in self.problems if p.severity == "error")
+
+
+def rate_workbook(path: Path, vehicle_ids: Sequence[str] | None = None) -> RateOutcome:
+    """Read and rate one inspection workbook. User errors become problems, never tracebacks."""
+    from rating.inventory.reader import read_workbook
+    from rating.lrfr.engine import rate_bridge
+    from rating.results_build import build_results
+
+    path = Path(path)
+    try:
+        reading = read_workbook(path)
+    except PintrussError as exc:
+        return RateOutcome(path, None, (Problem("error", _where(exc, path), _message(exc)),))
+    problems = tuple(reading.problems)
+    if reading.bridge is None or reading.errors:
+        return RateOutcome(path, None, problems)
+    try:
+        rating = rate_bridge(reading.bridge, vehicle_ids)
+    except (InputError, ConvergenceError) as exc:
+        return RateOutcome(path, None, problems + (Problem("error", _where(exc, path),
+                                                           _message(exc)),))
+    warnings = tuple(f"{p.where}: {p.message}" for p in reading.warnings)
+    results = build_results(rating, extra_warnings=warnings,
+                            extra_assumptions=tuple(reading.assumptions))
+    return RateOutcome(path, results, problems)
+
+
+def _where(exc: PintrussError, path: Path) -> str:
+    w = getattr(exc, "where", None)
+    return w or path.name
+
+
+def _message(exc: PintrussError) -> str:
+    return getattr(exc, "message", None) or str(exc)
+
+
+def write_atomic(target: Path, text: str) -> None:
+    """Write ``text`` to ``target`` through a temporary file and a rename (never half a file)."""
+    target = Path(target)
+    target.parent.mkdir(parents=True, exist_ok=True)
+    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
+            fh.write(text)
+        os.replace(tmp, target)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+
+
+def output_paths(workbook: Path, out_dir: Path | None) -> tuple[Path, Path]:
+    """Report and JSON paths for a workbook: beside it, or in ``out_dir``."""
+    folder = Path(out_dir) if out_dir is not None else Path(workbook).resolve().parent
+    stem = Path(workbook).stem
+    return folder / f"{stem}.rating.html", folder / f"{stem}.rating.json"
+
+
+def write_outputs(results: RatingResults, out_dir: Path, stem: str,
+                  report: bool = True) -> tuple[Path | None, Path]:
+    """Write the report (HTML) and the results (JSON) atomically; returns their paths."""
+    out_dir = Path(out_dir)
+    json_path = out_dir / f"{stem}.rating.json"
+    write_atomic(json_path, results_json(results))
+    html_path = None
+    if report:
+        from rating.report.html import render_report
+
+        html_path = out_dir / f"{stem}.rating.html"
+        write_atomic(html_path, render_report(results))
+    return html_path, json_path

@@ -1,0 +1,267 @@
+"""Assemble the one results object from the rating engine's outputs (no new engineering)."""
+
+from __future__ import annotations
+
+import math
+
+from rating import __version__
+from rating.analysis.moving import Extreme, axle_stations
+from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
+from rating.lrfr.factors import RatingLevel, provisions
+from rating.lrfr.posting import PostingAction
+from rating.model import Finding, UnitSystem, VehicleCategory
+from rating.results import (
+    SCHEMA_VERSION,
+    BridgeSummary,
+    CheckSummary,
+    Factors,
+    FindingEcho,
+    InfluenceLineData,
+    JointResult,
+    LiveLoadEffect,
+    MemberResult,
+    PackingRow,
+    PinResult,
+    Position,
+    PostingResultEntry,
+    Rating,
+    RatingResults,
+    Resistance,
+    SectionSummary,
+    VehicleResult,
+    units_block,
+)
+from rating.units import TON_PER_TONNE
+
+METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C - gDC DC - gDW DW) / (gLL (LL + IM)), "
+          "C = phi_c phi_s phi R_n")
+
+SINGLE_UNIT = {"TYPE-3", "SU4", "SU5", "SU6", "SU7"}
+COMBINATION = {"TYPE-3S2", "TYPE-3-3", "LEGAL-LANE"}
+SCREENING = {"NRL"}
+
+
+def finding_text(f: Finding | None) -> str:
+    """A finding in a few words for tables: component, where, what is left, the cell."""
+    if f is None:
+        return ""
+    parts = [f"{f.member} {f.component}", f.region.value]
+    if f.station_ft is not None:
+        parts.append(f"at {f.station_ft:g} ft")
+    if f.remaining_thickness_in is not None:
+        parts.append(f"{f.remaining_thickness_in:g} in remaining")
+    if f.percent_loss is not None:
+        parts.append(f"{f.percent_loss:g}% loss")
+    if f.bar_state.value != "sound":
+        parts.append(f.bar_state.value)
+    text = ", ".join(parts)
+    return f"{text} ({f.where})" if f.where else text
+
+
+def _position(ext: Extreme | None, load) -> Position | None:
+    if ext is None or (ext.position is None and not ext.lane_segments_ft):
+        return None
+    model = next((m for m in load.models if m.name == ext.model), None)
+    if ext.position is None or model is None or model.axles is None:
+        return Position(0.0, "", (), (), (), ext.model, tuple(ext.lane_segments_ft))
+    v = model.axles
+    return Position(
+        front_axle_station=ext.position.front_axle_ft,
+        direction=ext.position.direction.value,
+        spacings=tuple(ext.position.spacings_ft),
+        axle_stations=tuple(float(x) for x in axle_stations(ext.position)),
+        axle_loads=tuple(float(p) * v.axle_scale for p in v.axle_loads_kip),
+        load_model=ext.model,
+        lane_segments=tuple(ext.lane_segments_ft),
+    )
+
+
+def _rating(r: MemberCaseRating, case: RatingCase) -> Rating:
+    return Rating(
+        rf=r.rf, sense=r.sense, check=r.check,
+        factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
+        method=r.method, position=_position(r.extreme, case.load), finding=r.finding,
+    )
+
+
+def _posting_entry(cp: CasePosting, system: UnitSystem, W_tons: float) -> PostingResultEntry:
+    res = cp.result
+    posting_tons = res.posting_tons
+    if system is UnitSystem.SI and res.action is PostingAction.POST:
+        # round down to the whole tonne, held in tons so the SI view shows whole tonnes
+        tonnes = math.floor(W_tons / TON_PER_TONNE / 0.7 * (cp.rf - 0.3) + 1e-9)
+        posting_tons = tonnes * TON_PER_TONNE
+    return PostingResultEntry(rf=cp.rf, rating_tons=res.rating_tons, posting_tons=posting_tons,
+                              member=cp.controlling, action=res.action.value, note=cp.note)
+
+
+def recommendation(rating: BridgeRating, unit: str) -> str:
+    """The bridge-level recommendation, always worded for the engineer's decision."""
+    legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
+             and not rating.postings[c.id].screened_out]
+    closing = [c for c in legal if rating.postings[c.id].result.action is PostingAction.CLOSE]
+    posted = [c for c in legal if rating.postings[c.id].result.action is PostingAction.POST]
+    tail = (" This is a recommendation for the decision of the licensed engineer in responsible "
+            "charge; the owner's manual, policy and local codes govern.")
+    if closing:
+        names = ", ".join(f"{c.load.name} (RF {rating.postings[c.id].rf:.2f}, "
+                          f"{rating.postings[c.id].controlling})" for c in closing)
+        return ("Consider closing the bridge: the rating factor is below 0.3 for " + names
+                + "." + tail)
+    if not posted:
+        if not legal:
+            return "No legal loads were rated, so no posting is indicated by this run." + tail
+        return ("No load restriction is indicated: every legal load rated has a rating factor "
+                "of at least 1.0." + tail)
+
+    def amount(c: RatingCase) -> float:
+        e = rating.postings[c.id].result.posting_tons
+        if unit == "tonne":
+            rf = rating.postings[c.id].rf
+            return math.floor(c.load.gross_weight_tons / TON_PER_TONNE / 0.7 * (rf - 0.3) + 1e-9)
+        return e
+
+    groups = []
+    for title, ids in (("single-unit trucks", SINGLE_UNIT), ("combination trucks", COMBINATION)):
+        sel = [c for c in posted if c.load.id in ids]
+        if sel:
+            low = min(sel, key=amount)
+            groups.append(f"{title} {amount(low):g} {unit}s (from {low.load.name})")
+    ev = [c for c in posted if c.category is VehicleCategory.EMERGENCY]
+    if ev:
+        low = min(ev, key=amount)
+        groups.append(f"emergency vehicles {amount(low):g} {unit}s (from {low.load.name})")
+    other = [c for c in posted if c.load.id not in SINGLE_UNIT | COMBINATION
+             and c.category is not VehicleCategory.EMERGENCY]
+    for c in other:
+        groups.append(f"{c.load.name} {amount(c):g} {unit}s")
+    single = min(posted, key=amount)
+    return ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)
+            + f". A single weight limit would be {amount(single):g} {unit}s (from "
+            f"{single.load.name}, controlled by {rating.postings[single.id].controlling})." + tail)
+
+
+def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
+                  extra_assumptions: tuple[str, ...] = ()) -> RatingResults:
+    b = rating.bridge
+    g = rating.geometry
+    system = b.settings.units
+    support = {s.joint: s.kind.value for s in g.supports}
+    deck = set(g.deck_joints)
+    joints = tuple(JointResult(j.label, j.x_ft, j.y_ft, j.label in deck, support.get(j.label))
+                   for j in g.joints)
+    vehicles = []
+    for case in rating.cases:
+        load = case.load
+        axles = next((m.axles for m in load.models if m.axles is not None), None)
+        lane = max((m.lane_load_klf for m in load.models), default=0.0)
+        vehicles.append(VehicleResult(
+            id=case.id, name=load.name + (f" ({case.level.value})"
+                                          if case.level is not RatingLevel.LEGAL else ""),
+            category=load.category.value, gross_weight=load.gross_weight_tons,
+            axle_loads=tuple(axles.axle_loads_kip) if axles else (),
+            spacings=tuple((s.min_ft, s.max_ft) for s in axles.spacings) if axles else (),
+            lane_load=lane, source=load.source, tag=load.tag, rating_level=case.level.value,
+            gamma_ll=case.gamma_ll.value, im=case.im.value))
+    idx = g.member_index
+    members = []
+    for m in g.members:
+        cap = rating.capacities[m.label]
+        i = idx[m.label]
+        live = {}
+        ratings = {}
+        for case in rating.cases:
+            e = rating.live[(m.label, case.id)]
+            live[case.id] = LiveLoadEffect(
+                max=e.max, min=e.min, max_with_im=e.max_with_im, min_with_im=e.min_with_im,
+                distribution_factor=e.distribution_factor, im=case.im.value,
+                max_position=_position(e.max_extreme, case.load),
+                min_position=_position(e.min_extreme, case.load))
+            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case)
+        s = cap.summary
+        checks = tuple(
+            CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, cap.phi_cs * c.phi_R_n_kip,
+                         c.provision, c.location.describe(), finding_text(c.finding))
+            for c in cap.checks)
+        t = cap.governing("tension")
+        c_ = cap.governing("compression")
+        members.append(MemberResult(
+            id=m.label, role=m.role.value, joints=(m.start, m.end), tension_only=m.tension_only,
+            dead_load={"DC": float(rating.dead.member_forces_dc_kip[i]),
+                       "DW": float(rating.dead.member_forces_dw_kip[i])},
+            live_load=live,
+            section=SectionSummary(s.A_g_in2, s.A_n_in2, s.F_y, s.F_u, s.length_ft, s.K,
+                                   s.KL_r if math.isfinite(s.KL_r) else None, s.E),
+            resistance=Resistance(
+                tension=cap.factored_resistance("tension") if t is not None else None,
+                compression=cap.factored_resistance("compression") if c_ is not None else None,
+                checks=checks),
+            ratings=ratings, warnings=cap.warnings))
+    pins = []
+    for p in rating.pins:
+        pr = {}
+        governing = ""
+        worst = math.inf
+        for case in rating.cases:
+            r = p.ratings[case.id]
+            pr[case.id] = Rating(rf=r.rf, sense="pin", check=r.check, method="load multiplier",
+                                 position=_position(r.extreme, case.load))
+            if r.rf < worst and r.at_rating is not None:
+                worst = r.rf
+                chk = r.at_rating
+                governing = (f"z = {chk.governing.z_in:.2f} in from the first plate's outer "
+                             f"face: M = {chk.M_u_kip_in:.1f} kip-in, V = {chk.V_u_kip:.1f} kip "
+                             f"({case.id})")
+        pins.append(PinResult(
+            joint=p.joint, diameter=p.pin.diameter_in,
+            packing=tuple(PackingRow(it.member, it.thickness_in, it.gap_before_in)
+                          for it in p.pin.packing),
+            governing_section=governing, ratings=pr, warnings=p.warnings))
+    unit = "tonne" if system is UnitSystem.SI else "ton"
+    posting = {cid: _posting_entry(cp, system, next(c for c in rating.cases
+                                                    if c.id == cid).load.gross_weight_tons)
+               for cid, cp in rating.postings.items()}
+    # influence lines of the controlling members, for the drawings
+    controlling = []
+    for cp in rating.postings.values():
+        if cp.controlling and not cp.controlling.startswith("pin") and \
+                cp.controlling not in controlling:
+            controlling.append(cp.controlling)
+    ils = tuple(InfluenceLineData(lab, tuple(float(x) for x in rating.lines.stations_ft),
+                                  tuple(float(y) for y in rating.lines.row(lab)))
+                for lab in controlling)
+    info = b.info
+    findings = tuple(FindingEcho(
+        f.member, f.component, f.region.value, f.station_ft, f.remaining_thickness_in,
+        f.percent_loss, f.bar_state.value, f.condition_rating, f.photo, f.note, f.where)
+        for f in b.findings)
+    p = provisions()
+    assumptions = list(rating.assumptions) + list(extra_assumptions)
+    assumptions += [f"Provision used: {text}" for text in rating.provisions]
+    assumptions.append(f"Lateral distribution: {rating.distribution_note}.")
+    floor = p["capacity_floor"]
+    assumptions.append(f"Capacity: phi_c phi_s not less than {floor['phi_c_phi_s_min']} "
+                       f"({floor['source']}).")
+    assumptions.append(f"Posting: {p['posting']['source']} ({p['posting']['tag']}).")
+    return RatingResults(
+        schema_version=SCHEMA_VERSION,
+        bridge=BridgeSummary(
+            id=info.structure_id, name=info.name, span=g.span_ft, location=info.location,
+            owner=info.owner, year_built=info.year_built,
+            inspection_date=info.inspection_date.isoformat() if info.inspection_date else None,
+            inspector=info.inspector, form=g.form, deck_position=g.deck_position.value,
+            panel_count=len(g.deck_joints) - 1,
+            truss_spacing=b.cross_section.truss_spacing_ft,
+            roadway_width=b.cross_section.roadway_width_ft, source_file=b.source_file),
+        units=units_block(system.value),
+        method=METHOD,
+        provision_set=b.settings.provision_set,
+        joints=joints, vehicles=tuple(vehicles), members=tuple(members), pins=tuple(pins),
+        posting=posting, recommendation=recommendation(rating, unit),
+        warnings=tuple(dict.fromkeys(list(rating.warnings) + list(extra_warnings))),
+        assumptions=tuple(dict.fromkeys(assumptions)),
+        findings=findings, influence_lines=ils,
+        distribution={"factor": rating.distribution_factor,
+                      "description": rating.distribution_note},
+        generator=f"pintruss {__version__}",
+    )
