@@ -293,10 +293,23 @@ def _kinks(B: np.ndarray, V: np.ndarray) -> np.ndarray:
     return np.diff(sl, axis=1, prepend=0.0, append=0.0)
 
 
+@dataclass(frozen=True, eq=False)
+class _Scan:
+    """Effect of a rigid axle series at every tie group ``c.u``.
+
+    ``EL`` (m, U): limit from below. Jumps happen only where an axle stands over an end of the
+    bridge, at the tie groups ``jcols`` (J,): entering ``Jen`` and leaving ``Jex`` (G, m, J)
+    for each axle group.
+    """
+
+    EL: np.ndarray
+    jcols: np.ndarray
+    Jen: np.ndarray
+    Jex: np.ndarray
+
+
 def _scan(c: _Candidates, B: np.ndarray, V: np.ndarray, P: np.ndarray, groups: np.ndarray,
-          n_groups: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Effect of the axle series at every tie group: limit from below ``EL`` (m, U) and the
-    jumps of each axle group there, entering ``Jen`` and leaving ``Jex`` (G, m, U)."""
+          n_groups: int) -> _Scan:
     m, nb = V.shape
     U = c.u.size
     K = _kinks(B, V)
@@ -304,28 +317,34 @@ def _scan(c: _Candidates, B: np.ndarray, V: np.ndarray, P: np.ndarray, groups: n
     slope = np.cumsum(np.add.reduceat(dS, c.starts, axis=1), axis=1)
     inc = np.zeros((m, U))
     inc[:, 1:] = slope[:, :-1] * np.diff(c.u)
-    Jen = np.zeros((n_groups, m, U))
-    Jex = np.zeros((n_groups, m, U))
     ent = np.flatnonzero(c.i_k == 0)
     ext = np.flatnonzero(c.i_k == nb - 1)
-    for arr, ks, col in ((Jen, ent, V[:, 0]), (Jex, ext, -V[:, -1])):
-        g = groups[c.j_k[ks]]
-        q = c.group_of[ks]
+    jcols, inv = np.unique(c.group_of[np.concatenate((ent, ext))], return_inverse=True)
+    Jen = np.zeros((n_groups, m, jcols.size))
+    Jex = np.zeros((n_groups, m, jcols.size))
+    for arr, ks, col, q in ((Jen, ent, V[:, 0], inv[:ent.size]),
+                            (Jex, ext, -V[:, -1], inv[ent.size:])):
         vals = col[:, None] * P[c.j_k[ks]][None, :]  # (m, len(ks))
-        np.add.at(arr, (g, slice(None), q), vals.T)
-    J = Jen.sum(axis=0) + Jex.sum(axis=0)
+        np.add.at(arr, (groups[c.j_k[ks]], slice(None), q), vals.T)
+    J = np.zeros((m, U))
+    J[:, jcols] = Jen.sum(axis=0) + Jex.sum(axis=0)
     ER = np.cumsum(inc + J, axis=1)
-    return ER - J, Jen, Jex
+    return _Scan(ER - J, jcols, Jen, Jex)
 
 
-def _side_values(EL: np.ndarray, Jen: np.ndarray, Jex: np.ndarray,
-                 combos: np.ndarray) -> np.ndarray:
-    """Value for each combination of sides (one side per axle group): shape (n_combos, m, U)."""
-    per = np.stack((Jen, np.zeros_like(Jen), Jen + Jex), axis=1)  # (G, 3, m, U)
-    out = np.broadcast_to(EL, (combos.shape[0],) + EL.shape).copy()
+def _best_sides(sc: _Scan, combos: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Best value at every tie group over the allowed side combinations (m, U), and the
+    index of the combination chosen (m, U); the closed state (combination 0) wins ties."""
+    per = np.stack((sc.Jen, np.zeros_like(sc.Jen), sc.Jen + sc.Jex), axis=1)  # (G, 3, m, J)
+    EJ = sc.EL[:, sc.jcols]
+    vals = np.broadcast_to(EJ, (combos.shape[0],) + EJ.shape).copy()
     for g in range(combos.shape[1]):
-        out += per[g, combos[:, g]]
-    return out
+        vals += per[g, combos[:, g]]
+    best = sc.EL.copy()
+    choice = np.zeros(sc.EL.shape, dtype=np.intp)
+    best[:, sc.jcols] = vals.max(axis=0)
+    choice[:, sc.jcols] = vals.argmax(axis=0)
+    return best, choice
 
 
 _COMBOS_1 = np.array([[_SIDE_C], [_SIDE_L], [_SIDE_R]])
@@ -357,24 +376,21 @@ class _Best:
 def _rigid_best(B, V, P, D, groups, combos, gap_value, tol) -> _Best:
     c = _candidates(B, D, tol)
     n_groups = combos.shape[1]
-    EL, Jen, Jex = _scan(c, B, V, P, groups, n_groups)
-    vals = _side_values(EL, Jen, Jex, combos)  # (n_combo, m, U)
-    n_combo, m, U = vals.shape
-    flat = vals.transpose(1, 0, 2).reshape(m, n_combo * U)
-    k = np.argmax(flat, axis=1)
-    ci, q = np.divmod(k, U)
-    sides = combos[ci]
+    best, choice = _best_sides(_scan(c, B, V, P, groups, n_groups), combos)
+    m = V.shape[0]
+    rows = np.arange(m)
+    q = np.argmax(best, axis=1)
+    sides = combos[choice[rows, q]]
     if n_groups == 1:
         sides = np.concatenate((sides, sides), axis=1)
-    return _Best(flat[np.arange(m), k], c.u[q], np.full(m, gap_value), sides)
+    return _Best(best[rows, q], c.u[q], np.full(m, gap_value), sides)
 
 
 def _single_group(B, V, P, D, tol) -> tuple[_Candidates, np.ndarray, np.ndarray]:
     """Best value over sides at every tie group of a rigid series, and the side chosen."""
     c = _candidates(B, D, tol)
-    EL, Jen, Jex = _scan(c, B, V, P, np.zeros(P.size, dtype=int), 1)
-    vals = _side_values(EL, Jen, Jex, _COMBOS_1)
-    return c, vals.max(axis=0), _COMBOS_1[vals.argmax(axis=0), 0]
+    best, choice = _best_sides(_scan(c, B, V, P, np.zeros(P.size, dtype=int), 1), _COMBOS_1)
+    return c, best, _COMBOS_1[choice, 0]
 
 
 def _pair_best(B, V, P, D_front, D_rear, n_front, lo, hi, tol) -> _Best:
@@ -485,6 +501,9 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         best_v = np.full((2, m), -np.inf)
         C = max(1, s.size * (2 if neglect_opposing_axles else 1) * P.size)
         chunk = max(1, _MAX_CHUNK_ELEMENTS // (C * 6))
+        if neglect_opposing_axles:
+            # the zero crossings of a chunk's members join the breakpoints of that chunk only
+            chunk = min(chunk, max(32, s.size))
         for d in dirs:
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
