@@ -365,15 +365,20 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
             r = rating_factor(C, SenseLoads(sense * DC, sense * DW, ll[k]), g_ll, dead_f)
             rf, method, ext = r.rf, "linear", extremes[k]
         else:
-            P_dead = g_dc * dead.joint_loads_dc_kip + g_dw * dead.joint_loads_dw_kip
+            # Whether the dead load adds to or relieves the effect at the rating level is not
+            # known beforehand (a slack counter carries none), so both factor sets are tried
+            # and the lower multiplier governs (AASHTO LRFD 3.4.1 [V]).
             rf, ext = math.inf, None
-            for e in extremes:
-                if e.position is None and not e.lane_segments_ft:
-                    continue
-                P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
-                lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live)
-                if lam < rf:
-                    rf, ext = lam, e
+            for gd, gw in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value),
+                           (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value)):
+                P_dead = gd * dead.joint_loads_dc_kip + gw * dead.joint_loads_dw_kip
+                for e in extremes:
+                    if e.position is None and not e.lane_segments_ft:
+                        continue
+                    P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
+                    lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live)
+                    if lam < rf:
+                        rf, ext, g_dc, g_dw = lam, e, gd, gw
             method = "load multiplier"
             if ext is None:
                 continue
