@@ -58,6 +58,33 @@ def finding_text(f: Finding | None) -> str:
     return f"{text} ({f.where})" if f.where else text
 
 
+def group_member_notes(lines: list[str] | tuple[str, ...]) -> tuple[str, ...]:
+    """Fold "member X: text" lines with the same text into one "members X, Y: text" line."""
+    order: list[str] = []
+    who: dict[str, list[str]] = {}
+    for line in lines:
+        head, sep, rest = line.partition(": ")
+        if sep and head.startswith("member ") and " " not in head[7:]:
+            key = rest
+            if key not in who:
+                who[key] = []
+                order.append(key)
+            if head[7:] not in who[key]:
+                who[key].append(head[7:])
+        elif line not in who:
+            who[line] = []
+            order.append(line)
+    out = []
+    for key in order:
+        names = who[key]
+        if not names:
+            out.append(key)
+        else:
+            label = "member " if len(names) == 1 else "members "
+            out.append(f"{label}{', '.join(names)}: {key}")
+    return tuple(out)
+
+
 def _position(ext: Extreme | None, load) -> Position | None:
     if ext is None or (ext.position is None and not ext.lane_segments_ft):
         return None
@@ -258,8 +285,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         provision_set=b.settings.provision_set,
         joints=joints, vehicles=tuple(vehicles), members=tuple(members), pins=tuple(pins),
         posting=posting, recommendation=recommendation(rating, unit),
-        warnings=tuple(dict.fromkeys(list(rating.warnings) + list(extra_warnings))),
-        assumptions=tuple(dict.fromkeys(assumptions)),
+        warnings=group_member_notes(list(rating.warnings) + list(extra_warnings)),
+        assumptions=group_member_notes(assumptions),
         findings=findings, influence_lines=ils,
         distribution={"factor": rating.distribution_factor,
                       "description": rating.distribution_note},
