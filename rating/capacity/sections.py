@@ -878,27 +878,22 @@ def _builtup_at(section: BuiltUpSection, member: str, loc: Location, acting: Seq
     props = area_properties(all_rects)
     Ag = props.A_in2
     t_h0 = max(r.t_in for p in section.parts for r in part_rectangles(p))
-    # holes go through the element that is thickest as built, at its thickness here
-    thick_here = 0.0
-    for p in section.parts:
-        for r in part_rectangles(p):
-            if abs(r.t_in - t_h0) < 1e-12:
-                key = p.label.strip().lower()
-                here = next((q.t_in for q in by_part.get(key, []) if q.element == r.element),
-                            0.0)
-                thick_here = max(thick_here, here)
-    An = max(Ag - section.holes_per_section * section.hole_diameter_in * thick_here, 0.0)
+    # holes through the thickest element, at its as-built thickness (conservative)
+    An = max(Ag - section.holes_per_section * section.hole_diameter_in * t_h0, 0.0)
     if record and section.holes_per_section:
         assumptions.append(f"member {member}: each of the {section.holes_per_section} rivet "
                            f"holes ({section.hole_diameter_in:g} in) is deducted through the "
-                           f"thickest element ({t_h0:g} in as built) for the net area")
+                           f"thickest element at its as-built thickness ({t_h0:g} in) for the "
+                           "net area (conservative where that element has lost thickness)")
     elements = tuple(ElementAtLocation(r.part, r.element, r.b_in, r.t_in, r.stiffened)
                      for r in all_rects)
     c = section.connectors
     r_i = None
     axis = None
     if c is not None and c.kind is not ConnectorKind.SOLID and len(by_part) >= 2 and Ag > 0:
-        axis = _open_axis(by_part, props)
+        # the axis the connectors work on is a property of the member as built
+        whole = {p.label.strip().lower(): list(part_rectangles(p)) for p in section.parts}
+        axis = _open_axis(whole, area_properties([r for rs in whole.values() for r in rs]))
         if c.r_i_in is not None:
             r_i = c.r_i_in
         else:

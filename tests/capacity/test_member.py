@@ -1,0 +1,261 @@
+"""member_capacity: the entry point, properties (loss, removed bars, SI round trip), bad input.
+
+Property tests (hypothesis): more section loss never increases a resistance; a removed bar
+never increases it; the same member given in SI and converted through rating.units has the
+same resistance. Worked example values follow the provisions cited in rating.capacity.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from rating.capacity.checks import Sense
+from rating.capacity.member import member_capacity
+from rating.errors import InputError
+from rating.model import (
+    BarState,
+    BuiltUpSection,
+    ChannelPart,
+    ChannelToes,
+    ConnectorKind,
+    Connectors,
+    EyebarSet,
+    Finding,
+    FindingRegion,
+    Material,
+    MaterialKind,
+    MemberDesign,
+    MemberRole,
+    PlatePart,
+    RodEnd,
+    RodSet,
+)
+from rating.units import from_core, to_core
+
+STEEL = Material(MaterialKind.STEEL, F_y=26.0, F_u=52.0)
+L = 24.0
+
+
+def test_eyebar_chord_worked_example():
+    design = MemberDesign("L2L3", EyebarSet(4, 6.0, 1.0, 15.0, 5.03), STEEL, where="Members!B8")
+    fs = (Finding("L2L3", "bar 4", bar_state=BarState.LOOSE, where="Findings!A2"),
+          Finding("L2L3", "bar 1", FindingRegion.BODY, station_ft=10.0,
+                  remaining_thickness_in=0.75, condition_rating=5, where="Findings!A3"))
+    mc = member_capacity(design, MemberRole.BOTTOM_CHORD, L, fs, True)
+    g = mc.governing("tension")
+    # bars 2, 3 full and bar 1 at 0.75 in at 10 ft: F_y A = 26 x 6 x (1 + 1 + 0.75) = 429
+    assert g.name == "eyebar body yielding" and g.R_n_kip == pytest.approx(429.0)
+    assert g.finding.where == "Findings!A3" and g.location.station_ft == 10.0
+    # condition 5 -> fair 0.95; three bars left -> multiple eyebar 0.90; 0.855 >= 0.85
+    assert (mc.phi_c, mc.phi_s) == (0.95, 0.90)
+    assert mc.factored_resistance("tension") == pytest.approx(0.855 * 0.95 * 429.0)
+    assert mc.factored_resistance(Sense.COMPRESSION) == 0.0
+    assert mc.removed == ("bar 4",)
+    assert mc.summary.A_g_in2 == pytest.approx(16.5) and mc.summary.A_g_as_built_in2 == 24.0
+    assert any("bar 4 is loose" in w for w in mc.warnings)
+
+
+def test_builtup_post_k_override_and_floor():
+    post = BuiltUpSection(
+        parts=(ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
+               ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT)),
+        connectors=Connectors(ConnectorKind.LACING, spacing_in=16.0))
+    a = member_capacity(MemberDesign("U1L1", post, STEEL), MemberRole.VERTICAL, L, (), False)
+    b = member_capacity(MemberDesign("U1L1", post, STEEL, K=0.75), MemberRole.VERTICAL, L, (),
+                        False)
+    assert a.summary.K == 0.875 and b.summary.K == 0.75
+    assert b.factored_resistance("compression") > a.factored_resistance("compression")
+    poor = member_capacity(MemberDesign("U1L1", post, STEEL), MemberRole.VERTICAL, L,
+                           (Finding("U1L1", condition_rating=3),), False)
+    assert poor.phi_cs == 0.85  # 0.85 x 0.90 = 0.765 raised to 0.85 (Khan 2010, p. 187)
+    g = poor.governing("compression")
+    assert poor.factored_resistance("compression") == pytest.approx(0.85 * g.phi_R_n_kip)
+
+
+@pytest.mark.parametrize("kwargs, needle, where", [
+    (dict(length_ft=-3.0), "length", "Members!B9"),
+    (dict(K=0.0), "effective length factor", "Members!B9"),
+    (dict(material=Material(MaterialKind.STEEL, -26.0, 52.0)), "F_y", "Members!B9"),
+])
+def test_bad_member_input(kwargs, needle, where):
+    length = kwargs.pop("length_ft", L)
+    d = MemberDesign("U1U2", EyebarSet(2, 6, 1, 15, 5.03), kwargs.pop("material", STEEL),
+                     where="Members!B9", **kwargs)
+    with pytest.raises(InputError) as ei:
+        member_capacity(d, MemberRole.TOP_CHORD, length, (), True)
+    assert ei.value.where == where and "member U1U2" in str(ei.value) and needle in str(ei.value)
+
+
+def test_finding_errors_reach_the_caller_with_the_cell():
+    d = MemberDesign("U1U2", EyebarSet(2, 6, 1, 15, 5.03), STEEL)
+    f = Finding("U1U2", "bar 1", percent_loss=140.0, where="Findings!F6")
+    with pytest.raises(InputError) as ei:
+        member_capacity(d, MemberRole.TOP_CHORD, L, (f,), True)
+    assert ei.value.where == "Findings!F6" and "member U1U2" in str(ei.value)
+
+
+# ------------------------------------------------------------------------- properties
+
+
+@st.composite
+def sections(draw):
+    kind = draw(st.sampled_from(["eyebar", "rod", "built-up"]))
+    if kind == "eyebar":
+        t = draw(st.floats(0.5, 2.0))
+        w = draw(st.floats(3.0, 8.0 * t))
+        hole = draw(st.floats(2.0, 7.0))
+        head = hole + draw(st.floats(1.2, 3.0)) * w
+        return EyebarSet(draw(st.integers(1, 4)), w, t, head, hole)
+    if kind == "rod":
+        d = draw(st.floats(0.75, 2.5))
+        end = draw(st.sampled_from(list(RodEnd)))
+        root = d * draw(st.floats(0.75, 0.95)) if end is RodEnd.THREADED else None
+        return RodSet(draw(st.integers(1, 4)), d, end, root_diameter_in=root)
+    d = draw(st.floats(6.0, 15.0))
+    bf = draw(st.floats(2.0, 4.0))
+    tw = draw(st.floats(0.25, 0.6))
+    tf = draw(st.floats(0.3, 0.7))
+    xs = draw(st.floats(2.0, 8.0))
+    parts = [ChannelPart("C1", d, bf, tw, tf, x_in=-xs, toes=ChannelToes.LEFT),
+             ChannelPart("C2", d, bf, tw, tf, x_in=xs, toes=ChannelToes.RIGHT)]
+    if draw(st.booleans()):
+        parts.append(PlatePart("cover", 2 * (xs + bf), draw(st.floats(0.3, 0.75)),
+                               y_in=d / 2 + 0.5))
+    conn = Connectors(ConnectorKind.LACING, spacing_in=draw(st.floats(8.0, 30.0)))
+    holes = draw(st.integers(0, 4))
+    return BuiltUpSection(tuple(parts), conn, hole_diameter_in=0.875 if holes else 0.0,
+                          holes_per_section=holes)
+
+
+def components(section):
+    if isinstance(section, BuiltUpSection):
+        return [p.label for p in section.parts] + ["all"]
+    return [f"bar {i}" for i in range(1, section.count + 1)] + ["all"]
+
+
+def regions(section):
+    if isinstance(section, EyebarSet):
+        return [FindingRegion.BODY, FindingRegion.HEAD]
+    if isinstance(section, RodSet):
+        return [FindingRegion.BODY, FindingRegion.THREAD]
+    return [FindingRegion.BODY, FindingRegion.CONNECTION]
+
+
+@st.composite
+def findings_for(draw, section, n_max=3):
+    out = []
+    for _ in range(draw(st.integers(0, n_max))):
+        out.append(Finding(
+            "M", draw(st.sampled_from(components(section))),
+            draw(st.sampled_from(regions(section))),
+            station_ft=draw(st.one_of(st.none(), st.sampled_from([0.0, 6.0, 12.0, L]))),
+            percent_loss=draw(st.floats(0.0, 80.0))))
+    return tuple(out)
+
+
+def capacities(section, findings, tension_only=None):
+    t_only = isinstance(section, EyebarSet | RodSet) if tension_only is None else tension_only
+    mc = member_capacity(MemberDesign("M", section, STEEL), MemberRole.DIAGONAL, L, findings,
+                         t_only)
+    return mc.factored_resistance("tension"), mc.factored_resistance("compression")
+
+
+def not_more(a: float, b: float) -> bool:
+    return b <= a * (1 + 1e-9) + 1e-9
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.data())
+def test_more_loss_never_increases_a_resistance(data):
+    s = data.draw(sections())
+    fs = data.draw(findings_for(s))
+    base_t, base_c = capacities(s, fs)
+    # deepen one recorded loss, or add a new one
+    extra = data.draw(st.floats(0.5, 19.0))
+    if fs and data.draw(st.booleans()):
+        k = data.draw(st.integers(0, len(fs) - 1))
+        f = fs[k]
+        worse = Finding(f.member, f.component, f.region, f.station_ft,
+                        percent_loss=min(f.percent_loss + extra, 99.0))
+        fs2 = fs[:k] + (worse,) + fs[k + 1:]
+    else:
+        fs2 = fs + data.draw(findings_for(s, n_max=1)) + (
+            Finding("M", "all", percent_loss=extra),)
+    t2, c2 = capacities(s, fs2)
+    assert not_more(base_t, t2)
+    assert not_more(base_c, c2)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.data())
+def test_a_removed_bar_never_increases_a_resistance(data):
+    s = data.draw(sections())
+    fs = data.draw(findings_for(s))
+    comp = data.draw(st.sampled_from(components(s)))
+    state = data.draw(st.sampled_from([BarState.LOOSE, BarState.MISSING, BarState.BROKEN,
+                                       BarState.CRACKED]))
+    t1, c1 = capacities(s, fs)
+    t2, c2 = capacities(s, fs + (Finding("M", comp, bar_state=state),))
+    assert not_more(t1, t2)
+    assert not_more(c1, c2)
+
+
+def si_round_trip(x: float, unit: str) -> float:
+    """A core value written in SI and read back through rating.units (NIST SP 811 factors)."""
+    si = {"in": "mm", "ksi": "MPa", "ft": "m"}[unit]
+    return to_core(from_core(x, si), si)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.data())
+def test_si_and_us_give_the_same_resistance(data):
+    s = data.draw(sections())
+    if isinstance(s, EyebarSet):
+        si = EyebarSet(s.count, *(si_round_trip(v, "in") for v in
+                                  (s.width_in, s.thickness_in, s.head_diameter_in,
+                                   s.pin_hole_diameter_in)))
+    elif isinstance(s, RodSet):
+        si = RodSet(s.count, si_round_trip(s.diameter_in, "in"), s.end, s.shape,
+                    None if s.root_diameter_in is None
+                    else si_round_trip(s.root_diameter_in, "in"))
+    else:
+        parts = []
+        for p in s.parts:
+            if isinstance(p, ChannelPart):
+                parts.append(ChannelPart(p.label, *(si_round_trip(v, "in") for v in (
+                    p.depth_in, p.flange_width_in, p.web_thickness_in, p.flange_thickness_in,
+                    p.x_in, p.y_in)), toes=p.toes))
+            else:
+                parts.append(PlatePart(p.label, *(si_round_trip(v, "in") for v in (
+                    p.width_in, p.thickness_in, p.x_in, p.y_in))))
+        c = s.connectors
+        si = BuiltUpSection(tuple(parts), Connectors(c.kind, si_round_trip(c.spacing_in, "in")),
+                            si_round_trip(s.hole_diameter_in, "in"), s.holes_per_section)
+    mat_si = Material(STEEL.kind, si_round_trip(STEEL.F_y, "ksi"),
+                      si_round_trip(STEEL.F_u, "ksi"), si_round_trip(STEEL.E, "ksi"))
+    t_only = isinstance(s, EyebarSet | RodSet)
+    us = member_capacity(MemberDesign("M", s, STEEL), MemberRole.DIAGONAL, L, (), t_only)
+    metric = member_capacity(MemberDesign("M", si, mat_si), MemberRole.DIAGONAL,
+                             si_round_trip(L, "ft"), (), t_only)
+    for sense in ("tension", "compression"):
+        a, b = us.factored_resistance(sense), metric.factored_resistance(sense)
+        assert b == pytest.approx(a, rel=1e-9, abs=1e-9)
+        # the resistance reported in kN reads back to the same kip
+        assert to_core(from_core(b, "kN"), "kN") == pytest.approx(a, rel=1e-9, abs=1e-9)
+
+
+@settings(max_examples=30, deadline=None)
+@given(st.data())
+def test_every_check_is_cited_and_located(data):
+    s = data.draw(sections())
+    fs = data.draw(findings_for(s))
+    mc = member_capacity(MemberDesign("M", s, STEEL), MemberRole.DIAGONAL, L, fs,
+                         isinstance(s, EyebarSet | RodSet))
+    for c in mc.checks:
+        assert c.provision and c.R_n_kip >= 0.0 and math.isfinite(c.R_n_kip)
+        assert c.location.finding is None or c.location.finding in fs
+    assert mc.factored_resistance("tension") >= 0.0
