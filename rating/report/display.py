@@ -1,0 +1,127 @@
+"""Numbers as the report shows them: converted to the bridge's unit system, sensibly rounded.
+
+The conversion uses the same field metadata (dimension) and the same unit table as the JSON
+view (:mod:`rating.results`), so an SI bridge shows SI in the report and in its results file.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+from typing import Any
+
+from rating.results import DISPLAY_UNITS, RatingResults
+from rating.units import from_core
+
+DASH = "\u2014"  # shown where there is no number (no live load of that sense, not rated)
+MINUS = "\u2212"
+
+# decimals by dimension and unit system: (US, SI)
+_DECIMALS: dict[str, tuple[int, int]] = {
+    "force": (1, 1),
+    "length": (2, 2),
+    "dimension": (3, 1),
+    "area": (2, 0),
+    "stress": (1, 0),
+    "weight": (1, 1),
+    "line load": (3, 2),
+}
+
+# Display names of the units (the JSON view keeps the plain symbols).
+_PRETTY = {"in2": "in\u00b2", "mm2": "mm\u00b2"}
+
+
+def unit_system(results: RatingResults) -> str:
+    """"SI" when the results were asked for in SI (kN), else "US" (as ``results_json``)."""
+    return "SI" if results.units.get("force") == "kN" else "US"
+
+
+def _is_number(x: Any) -> bool:
+    return isinstance(x, int | float) and not isinstance(x, bool)
+
+
+def _fixed(x: float, decimals: int, signed: bool = False) -> str:
+    text = f"{x:,.{decimals}f}"
+    if text.lstrip("-").strip("0.,") == "":  # -0.0 and 0.000 print without a sign
+        text = text.lstrip("-")
+        return text
+    if text.startswith("-"):
+        return MINUS + text[1:]
+    return ("+" + text) if signed else text
+
+
+@dataclass(frozen=True)
+class Display:
+    """Formatting rules of one report: unit system and precision."""
+
+    system: str = "US"
+
+    # ------------------------------------------------------------------ units
+    def unit(self, dimension: str) -> str:
+        """Display unit of a dimension (``kip``/``kN``, ``ft``/``m``, ...)."""
+        us, si = DISPLAY_UNITS[dimension]
+        return _PRETTY.get(si if self.system == "SI" else us,
+                           si if self.system == "SI" else us)
+
+    def convert(self, value: float, dimension: str | None) -> float:
+        """Core-unit value to the display unit of ``dimension`` (no rounding)."""
+        if dimension is None or self.system == "US" or not math.isfinite(value):
+            return value
+        return from_core(float(value), DISPLAY_UNITS[dimension][1])
+
+    # ------------------------------------------------------------------ numbers
+    def number(self, value: float | None, dimension: str | None = None,
+               decimals: int | None = None, signed: bool = False) -> str:
+        """A quantity converted and rounded; ``None``/NaN/infinite as a dash."""
+        if value is None or not _is_number(value) or not math.isfinite(value):
+            return DASH
+        if decimals is None:
+            pair = _DECIMALS.get(dimension or "", (2, 2))
+            decimals = pair[1] if self.system == "SI" else pair[0]
+        return _fixed(self.convert(float(value), dimension), decimals, signed)
+
+    def force(self, value: float | None, signed: bool = False) -> str:
+        return self.number(value, "force", signed=signed)
+
+    def length(self, value: float | None) -> str:
+        return self.number(value, "length")
+
+    def weight(self, value: float | None) -> str:
+        return self.number(value, "weight")
+
+    def rf(self, value: float | None) -> str:
+        """Rating factor to 2 decimals, rounded down (0.996 shows 0.99, never 1.00);
+        +inf (no live-load effect) and missing as a dash."""
+        if value is None or not _is_number(value) or math.isnan(value) or math.isinf(value):
+            return DASH
+        return _fixed(math.floor(float(value) * 100.0 + 1e-7) / 100.0, 2)
+
+    def posting(self, value: float | None) -> str:
+        """A safe posting load in whole display units, rounded down (never up)."""
+        if value is None or not _is_number(value) or not math.isfinite(value):
+            return DASH
+        return _fixed(float(math.floor(self.convert(float(value), "weight") + 1e-6)), 0)
+
+    def series(self, values: Sequence[float], dimension: str | None,
+               decimals: int | None = None) -> str:
+        return " / ".join(self.number(v, dimension, decimals) for v in values)
+
+    def field(self, obj: Any, name: str, signed: bool = False) -> str:
+        """A dataclass field formatted by its own metadata (dimension)."""
+        f = {f.name: f for f in dataclasses.fields(obj)}[name]
+        dim = f.metadata.get("dimension") if f.metadata else None
+        return self.number(getattr(obj, name), dim, signed=signed)
+
+    def label(self, obj: Any, name: str) -> str:
+        """Column header of a field: its metadata label with the display unit."""
+        f = {f.name: f for f in dataclasses.fields(obj)}[name]
+        meta = f.metadata or {}
+        label = meta.get("label", name)
+        dim = meta.get("dimension")
+        return f"{label} ({self.unit(dim)})" if dim else label
+
+
+def display_for(results: RatingResults) -> Display:
+    return Display(unit_system(results))

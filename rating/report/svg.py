@@ -1,0 +1,485 @@
+"""SVG drawings for the report: the truss elevation shaded by rating factor, influence lines
+with the critical vehicle at its position, and the packing of a pin.
+
+Every text that can come from a workbook (ids, names) is escaped here; the drawings are
+returned as :class:`markupsafe.Markup` so the template inserts them as they are.
+Drawing coordinates are in pixels of the SVG viewBox; numbers shown are converted by
+:class:`~rating.report.display.Display` to the bridge's unit system.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+from markupsafe import Markup, escape
+
+from rating.report.display import Display
+from rating.results import (
+    InfluenceLineData,
+    JointResult,
+    MemberResult,
+    PinResult,
+    Position,
+    Rating,
+    RatingResults,
+    VehicleResult,
+)
+
+WIDTH = 720.0
+FONT = "font-family:'DejaVu Sans',Arial,Helvetica,sans-serif"
+
+
+# ------------------------------------------------------------------ rating-factor bands
+
+@dataclass(frozen=True)
+class Band:
+    key: str
+    label: str
+    colour: str
+    stroke_width: float
+    dash: str = ""
+
+
+@dataclass(frozen=True)
+class RFBands:
+    """Shading of members by their lowest rating factor (our own legend).
+
+    ``edges`` are the band limits; the bands are RF < e0, e0 <= RF < e1, e1 <= RF < e2,
+    RF >= e2, and "not rated". Lower bands are drawn heavier so that a black-and-white print
+    still tells them apart.
+    """
+
+    edges: tuple[float, float, float] = (0.3, 1.0, 1.2)
+
+    @property
+    def bands(self) -> tuple[Band, ...]:
+        a, b, c = (f"{e:g}" for e in self.edges)
+        return (
+            Band("b0", f"RF < {a}", "#8e1b1b", 6.0),
+            Band("b1", f"{a} \u2264 RF < {b}", "#e0702a", 4.5),
+            Band("b2", f"{b} \u2264 RF < {c}", "#d9b526", 3.2),
+            Band("b3", f"RF \u2265 {c}", "#2f6f9f", 2.2),
+            Band("nr", "not rated", "#9a9a9a", 1.6, "5 3"),
+        )
+
+    def band(self, rf: float | None) -> Band:
+        """The band of a lowest RF (``None``: not rated; +inf: no live load, drawn as >= top)."""
+        bands = self.bands
+        if rf is None or (isinstance(rf, float) and math.isnan(rf)):
+            return bands[4]
+        for k, edge in enumerate(self.edges):
+            if rf < edge:
+                return bands[k]
+        return bands[3]
+
+
+def lowest_rating(ratings: Iterable[tuple[str, Rating]]) -> tuple[str, Rating] | None:
+    """(vehicle id, rating) with the lowest finite-or-infinite RF; ``None`` when none."""
+    best: tuple[str, Rating] | None = None
+    for vid, r in ratings:
+        if r.rf is None or math.isnan(r.rf):
+            continue
+        if best is None or r.rf < best[1].rf:
+            best = (vid, r)
+    return best
+
+
+# ------------------------------------------------------------------ small SVG helpers
+
+def _f(x: float) -> str:
+    """Coordinate with 1 decimal (deterministic text, small files)."""
+    v = round(float(x), 1) + 0.0
+    return f"{v:g}" if abs(v) < 1e6 else f"{v:.1f}"
+
+
+def _text(x: float, y: float, content: str, *, size: float = 9, anchor: str = "middle",
+          cls: str = "", weight: str = "normal", fill: str = "#222", halo: bool = False,
+          rotate: float | None = None) -> str:
+    attrs = [f'x="{_f(x)}"', f'y="{_f(y)}"', f'font-size="{size:g}"',
+             f'text-anchor="{anchor}"', f'fill="{fill}"']
+    if weight != "normal":
+        attrs.append(f'font-weight="{weight}"')
+    if cls:
+        attrs.append(f'class="{escape(cls)}"')
+    if halo:
+        attrs.append('stroke="#fff" stroke-width="3" paint-order="stroke" '
+                     'stroke-linejoin="round"')
+    if rotate is not None:
+        attrs.append(f'transform="rotate({rotate:g} {_f(x)} {_f(y)})"')
+    return f"<text {' '.join(attrs)}>{escape(content)}</text>"
+
+
+def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> Markup:
+    head = (f'<svg xmlns="http://www.w3.org/2000/svg" class="{cls}" role="img" '
+            f'viewBox="0 0 {_f(width)} {_f(height)}" width="{_f(width)}" '
+            f'height="{_f(height)}" preserveAspectRatio="xMidYMid meet" style="{FONT}">')
+    return Markup(head + f"<title>{escape(title)}</title>" + "".join(body) + "</svg>")
+
+
+def _arrow_marker(mid: str, colour: str) -> str:
+    return (f'<marker id="{mid}" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" '
+            f'markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" '
+            f'fill="{colour}"/></marker>')
+
+
+# ------------------------------------------------------------------ elevation
+
+def _label_fractions(members: Sequence[MemberResult], pos: dict[str, tuple[float, float]]
+                     ) -> dict[str, float]:
+    """Where along each member its label sits: mid-length, moved apart where two members
+    cross at mid-length (counters and the main diagonal of their panel)."""
+    mids: dict[tuple[float, float], list[str]] = {}
+    for m in members:
+        a, b = pos[m.joints[0]], pos[m.joints[1]]
+        key = (round((a[0] + b[0]) / 2, 1), round((a[1] + b[1]) / 2, 1))
+        mids.setdefault(key, []).append(m.id)
+    out: dict[str, float] = {}
+    for ids in mids.values():
+        if len(ids) == 1:
+            out[ids[0]] = 0.5
+            continue
+        placed: list[tuple[float, float]] = []
+        for mid in ids:  # greedy: each label as far as possible from those already placed
+            m = next(mm for mm in members if mm.id == mid)
+            a, b = pos[m.joints[0]], pos[m.joints[1]]
+
+            def spot(t: float, a: tuple[float, float] = a, b: tuple[float, float] = b
+                     ) -> tuple[float, float]:
+                return (a[0] + (b[0] - a[0]) * t, a[1] + (b[1] - a[1]) * t)
+
+            best_t = max((0.25, 0.75, 0.38, 0.62), key=lambda t: min(
+                (math.dist(spot(t), p) for p in placed), default=0.0))
+            out[mid] = best_t
+            placed.append(spot(best_t))
+    return out
+
+
+def _member_label(ax: float, ay: float, bx: float, by: float, t: float, content: str,
+                  below: bool = False) -> str:
+    """A label written along the member, just beside the line (below for a bottom chord)."""
+    ang = math.degrees(math.atan2(by - ay, bx - ax))
+    if ang >= 90:
+        ang -= 180
+    elif ang < -90:
+        ang += 180
+    # unit normal pointing "up" for the text's baseline
+    rad = math.radians(ang)
+    nx, ny = math.sin(rad), -math.cos(rad)
+    off = -11.0 if below else 4.0
+    lx = ax + (bx - ax) * t + nx * off
+    ly = ay + (by - ay) * t + ny * off
+    return _text(lx, ly, content, size=8, halo=True, cls="mlabel",
+                 rotate=None if abs(ang) < 1e-9 else ang)
+
+
+def elevation_svg(results: RatingResults, display: Display,
+                  bands: RFBands | None = None) -> Markup:
+    """Elevation of one truss: members between joints shaded by their lowest RF, labelled,
+    deck panel points (floorbeams) and bearings marked, pins shaded by their lowest RF."""
+    bands = bands or RFBands()
+    joints: dict[str, JointResult] = {j.id: j for j in results.joints}
+    if not joints:
+        return _svg(WIDTH, 40, "truss elevation (no joints)",
+                    [_text(WIDTH / 2, 24, "no joint coordinates in the results")], "elevation")
+    xs = np.array([j.x for j in joints.values()])
+    ys = np.array([j.y for j in joints.values()])
+    margin_x, top, bottom_room = 34.0, 40.0, 64.0
+    dx = max(float(xs.max() - xs.min()), 1e-6)
+    dy = float(ys.max() - ys.min())
+    scale = (WIDTH - 2 * margin_x) / dx
+    scale = min(scale, 260.0 / dy) if dy > 0 else scale
+    draw_w = dx * scale
+    x0 = (WIDTH - draw_w) / 2
+    height = top + dy * scale + bottom_room
+
+    def px(j: JointResult) -> tuple[float, float]:
+        return (x0 + (j.x - xs.min()) * scale, top + (ys.max() - j.y) * scale)
+
+    pos = {jid: px(j) for jid, j in joints.items()}
+    body: list[str] = []
+    members = [m for m in results.members if m.joints[0] in pos and m.joints[1] in pos]
+    fractions = _label_fractions(members, pos)
+    lines: list[str] = []
+    labels: list[str] = []
+    for m in members:
+        low = lowest_rating(m.ratings.items())
+        band = bands.band(low[1].rf if low else None)
+        (ax, ay), (bx, by) = pos[m.joints[0]], pos[m.joints[1]]
+        width = band.stroke_width * (0.7 if m.role == "counter" else 1.0)
+        dash = f' stroke-dasharray="{band.dash}"' if band.dash else ""
+        rf_text = display.rf(low[1].rf) if low else "n.r."
+        lines.append(
+            f'<line class="member {band.key}" x1="{_f(ax)}" y1="{_f(ay)}" x2="{_f(bx)}" '
+            f'y2="{_f(by)}" stroke="{band.colour}" stroke-width="{width:g}" '
+            f'stroke-linecap="round"{dash}><title>{escape(m.id)} ({escape(m.role)}): lowest '
+            f'RF {escape(rf_text)}</title></line>')
+        t = fractions.get(m.id, 0.5)
+        labels.append(_member_label(ax, ay, bx, by, t, f"{m.id} {rf_text}",
+                                    below=m.role == "bottom chord"))
+    body.extend(lines)
+
+    # deck panel points (floorbeams) and bearings
+    y_low = max(p[1] for p in pos.values())
+    for jid, j in joints.items():
+        x, y = pos[jid]
+        if j.deck:
+            body.append(f'<rect class="floorbeam" x="{_f(x - 4)}" y="{_f(y - 4)}" width="8" '
+                        f'height="8" fill="#fff" stroke="#222" stroke-width="1.2">'
+                        f'<title>deck panel point {escape(jid)} (floorbeam)</title></rect>')
+        if j.support:
+            body.append(_bearing(x, y, j.support))
+    pins = {p.joint: p for p in results.pins}
+    for jid, (x, y) in pos.items():
+        p = pins.get(jid)
+        if p is not None:
+            low = lowest_rating(p.ratings.items())
+            band = bands.band(low[1].rf if low else None)
+            rf_text = display.rf(low[1].rf) if low else "n.r."
+            body.append(f'<circle class="pin {band.key}" cx="{_f(x)}" cy="{_f(y)}" r="5.5" '
+                        f'fill="{band.colour}" stroke="#111" stroke-width="1.2"><title>pin '
+                        f'{escape(jid)}: lowest RF {escape(rf_text)}</title></circle>')
+        elif not joints[jid].deck:
+            body.append(f'<circle class="joint" cx="{_f(x)}" cy="{_f(y)}" r="2.6" '
+                        f'fill="#fff" stroke="#222" stroke-width="1"/>')
+    body.extend(labels)
+    for jid, (x, y) in pos.items():  # joint labels outside the truss
+        below = y >= y_low - 1e-6 or joints[jid].support
+        jy = y + (28 if joints[jid].support else 17) if below else y - 9
+        body.append(_text(x, jy, jid, size=8, fill="#555", cls="jlabel"))
+    # span dimension line
+    deck = sorted((j for j in joints.values() if j.deck), key=lambda j: j.x)
+    yd = height - 14
+    if len(deck) >= 2:
+        xa, xb = pos[deck[0].id][0], pos[deck[-1].id][0]
+        body.append(f'<line x1="{_f(xa)}" y1="{_f(yd)}" x2="{_f(xb)}" y2="{_f(yd)}" '
+                    f'stroke="#555" stroke-width="0.8" marker-start="url(#dim)" '
+                    f'marker-end="url(#dim)"/>')
+        span = deck[-1].x - deck[0].x
+        text = (f"span {display.length(span)} {display.unit('length')}, "
+                f"{len(deck) - 1} panels")
+        body.append(_text((xa + xb) / 2, yd - 3, text, size=8.5, fill="#333"))
+    defs = "<defs>" + _arrow_marker("dim", "#555") + "</defs>"
+    return _svg(WIDTH, height, "truss elevation shaded by lowest rating factor",
+                [defs, *body], "elevation")
+
+
+def _bearing(x: float, y: float, kind: str) -> str:
+    """Pin bearing: a triangle; expansion (roller) bearing: a triangle on rollers."""
+    tri = (f'<path d="M{_f(x)},{_f(y + 5)} L{_f(x - 8)},{_f(y + 17)} L{_f(x + 8)},{_f(y + 17)} '
+           f'z" fill="#fff" stroke="#222" stroke-width="1.2"/>')
+    base = y + 17
+    if kind == "roller":
+        extra = "".join(f'<circle cx="{_f(x + dx)}" cy="{_f(base + 3)}" r="2.6" fill="#fff" '
+                        f'stroke="#222" stroke-width="1"/>' for dx in (-5, 0, 5))
+        ground = base + 6
+    else:
+        extra = ""
+        ground = base
+    hatch = f'<line x1="{_f(x - 11)}" y1="{_f(ground)}" x2="{_f(x + 11)}" y2="{_f(ground)}" ' \
+            'stroke="#222" stroke-width="1.2"/>'
+    what = "expansion bearing (roller)" if kind == "roller" else "fixed bearing (pin)"
+    return f'<g class="bearing {escape(kind)}"><title>{what}</title>{tri}{extra}{hatch}</g>'
+
+
+def legend_svg(bands: RFBands | None = None) -> Markup:
+    """The legend of the elevation: RF bands, pins, floorbeams, bearings."""
+    bands = bands or RFBands()
+    body: list[str] = []
+    x = 6.0
+    for b in bands.bands:
+        dash = f' stroke-dasharray="{b.dash}"' if b.dash else ""
+        body.append(f'<line x1="{_f(x)}" y1="11" x2="{_f(x + 26)}" y2="11" stroke="{b.colour}" '
+                    f'stroke-width="{b.stroke_width:g}" stroke-linecap="round"{dash}/>')
+        body.append(_text(x + 32, 14.5, b.label, size=9, anchor="start"))
+        x += 36 + 6.2 * len(b.label) + 10
+    y2 = 32.0
+    body.append('<circle cx="12" cy="30" r="5" fill="#2f6f9f" stroke="#111" stroke-width="1.2"/>')
+    body.append(_text(22, y2 + 1.5, "pin rated (shaded by its lowest RF)", size=9,
+                      anchor="start"))
+    body.append('<rect x="215" y="26" width="8" height="8" fill="#fff" stroke="#222" '
+                'stroke-width="1.2"/>')
+    body.append(_text(229, y2 + 1.5, "deck panel point (floorbeam)", size=9, anchor="start"))
+    body.append(_bearing(396, 20, "pin").replace("<title>fixed bearing (pin)</title>", ""))
+    body.append(_text(410, y2 + 1.5, "fixed bearing", size=9, anchor="start"))
+    body.append(_bearing(494, 20, "roller")
+                .replace("<title>expansion bearing (roller)</title>", ""))
+    body.append(_text(508, y2 + 1.5, "expansion bearing", size=9, anchor="start"))
+    return _svg(WIDTH, 46, "legend: rating factor bands", body, "legend")
+
+
+# ------------------------------------------------------------------ influence line
+
+def influence_svg(line: InfluenceLineData, position: Position | None,
+                  vehicle: VehicleResult | None, display: Display, *,
+                  deck_stations: Sequence[float] = ()) -> Markup:
+    """Influence line of one member with the vehicle's axles drawn at their stations as
+    arrows sized by load, the direction of travel and the lane-load segments."""
+    st = np.asarray(line.stations, dtype=float)
+    y = np.asarray(line.ordinates, dtype=float)
+    if st.size < 2:
+        return _svg(WIDTH, 40, f"influence line of {line.member} (not available)",
+                    [_text(WIDTH / 2, 24, "influence line not available")], "influence")
+    axle_x = np.asarray(position.axle_stations if position else (), dtype=float)
+    axle_p = np.asarray(position.axle_loads if position else (), dtype=float)
+    lo = float(min(st[0], axle_x.min() if axle_x.size else st[0]))
+    hi = float(max(st[-1], axle_x.max() if axle_x.size else st[-1]))
+    pad = 0.03 * (hi - lo)
+    lo, hi = lo - pad, hi + pad
+    left, right = 62.0, 16.0
+    sx = (WIDTH - left - right) / (hi - lo)
+
+    def X(s: float) -> float:
+        return left + (s - lo) * sx
+
+    deck_y = 104.0
+    y_pos = max(float(np.max(y)), 0.0)
+    y_neg = max(-float(np.min(y)), 0.0)
+    room = 118.0  # px between the top and the bottom of the line
+    scale_y = room / ((y_pos + y_neg) or 1.0)
+    top_y = deck_y + 26.0
+    zero_y = top_y + y_pos * scale_y
+    sy = scale_y
+    amp_top, amp_bottom = zero_y - top_y, top_y + room - zero_y
+
+    def Y(v: float) -> float:
+        return zero_y - v * sy
+
+    body: list[str] = ["<defs>", _arrow_marker("axle", "#222"), _arrow_marker("travel", "#333"),
+                       '<pattern id="lanehatch" width="6" height="6" patternUnits="userSpaceOn'
+                       'Use" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" '
+                       'stroke="#6b8e23" stroke-width="2"/></pattern>', "</defs>"]
+    # lane-load segments on the deck
+    if position and position.lane_segments:
+        for a, b in position.lane_segments:
+            body.append(f'<rect class="lane" x="{_f(X(a))}" y="{_f(deck_y - 9)}" '
+                        f'width="{_f(max(X(b) - X(a), 0.5))}" height="8" '
+                        f'fill="url(#lanehatch)" stroke="#6b8e23" stroke-width="0.8"/>')
+    # the deck and its panel points
+    body.append(f'<line x1="{_f(X(st[0]))}" y1="{_f(deck_y)}" x2="{_f(X(st[-1]))}" '
+                f'y2="{_f(deck_y)}" stroke="#222" stroke-width="2"/>')
+    for s in (deck_stations or st):
+        body.append(f'<line x1="{_f(X(s))}" y1="{_f(deck_y)}" x2="{_f(X(s))}" '
+                    f'y2="{_f(deck_y + 5)}" stroke="#222" stroke-width="1"/>')
+    for s in (st[0], st[-1]):
+        body.append(f'<path d="M{_f(X(s))},{_f(deck_y + 1)} l-6,10 l12,0 z" fill="#fff" '
+                    f'stroke="#222" stroke-width="1"/>')
+    # axles: arrows sized by load, pointing down onto the deck
+    if axle_x.size:
+        pmax = float(axle_p.max()) if axle_p.size else 1.0
+        for k, (s, p) in enumerate(zip(axle_x, axle_p, strict=False)):
+            length = 14.0 + 46.0 * (p / pmax if pmax > 0 else 0.0)
+            on = st[0] - 1e-9 <= s <= st[-1] + 1e-9
+            colour = "#222" if on else "#9a9a9a"
+            body.append(f'<line class="axle" x1="{_f(X(s))}" y1="{_f(deck_y - 11 - length)}" '
+                        f'x2="{_f(X(s))}" y2="{_f(deck_y - 11)}" stroke="{colour}" '
+                        f'stroke-width="2" marker-end="url(#axle)"><title>axle {k + 1}: '
+                        f'{escape(display.force(p))} {display.unit("force")} at '
+                        f'{escape(display.length(s))} {display.unit("length")}</title></line>')
+            body.append(_text(X(s), deck_y - 14 - length, display.force(float(p)), size=8,
+                              fill=colour))
+            if on:  # drop line to the influence line
+                v = float(np.interp(s, st, y))
+                body.append(f'<line x1="{_f(X(s))}" y1="{_f(deck_y + 2)}" x2="{_f(X(s))}" '
+                            f'y2="{_f(Y(v))}" stroke="#888" stroke-width="0.7" '
+                            f'stroke-dasharray="2 2"/>')
+                body.append(f'<circle cx="{_f(X(s))}" cy="{_f(Y(v))}" r="2.4" fill="#222"/>')
+        # direction of travel
+        d = 1.0 if (position and position.direction != "reverse") else -1.0
+        xa = float(axle_x.min() if d > 0 else axle_x.max())
+        xb = float(axle_x.max() if d > 0 else axle_x.min())
+        ty = 14.0
+        x1, x2 = X(xa), X(xb) + d * 30
+        x1, x2 = min(max(x1, left), WIDTH - right), min(max(x2, left), WIDTH - right)
+        body.append(f'<line class="travel" x1="{_f(x1)}" y1="{_f(ty)}" x2="{_f(x2)}" '
+                    f'y2="{_f(ty)}" stroke="#333" stroke-width="1.5" '
+                    f'marker-end="url(#travel)"/>')
+        body.append(_text((x1 + x2) / 2, ty + 11, "direction of travel", size=8.5,
+                          fill="#333"))
+    body.append(_text(6, deck_y - 40, f"axles ({display.unit('force')})", size=8,
+                      anchor="start", fill="#555"))
+    # the influence line
+    xs_line = np.concatenate([[lo, st[0]], st, [st[-1], hi]])
+    ys_line = np.concatenate([[0.0, 0.0], y, [0.0, 0.0]])
+    pts = " ".join(f"{_f(X(a))},{_f(Y(b))}" for a, b in zip(xs_line, ys_line, strict=True))
+    pos_poly = " ".join(f"{_f(X(a))},{_f(Y(max(b, 0.0)))}" for a, b in
+                        zip(xs_line, ys_line, strict=True))
+    neg_poly = " ".join(f"{_f(X(a))},{_f(Y(min(b, 0.0)))}" for a, b in
+                        zip(xs_line, ys_line, strict=True))
+    body.append(f'<polygon points="{pos_poly}" fill="#f3c9b8" stroke="none"/>')
+    body.append(f'<polygon points="{neg_poly}" fill="#c3d6ea" stroke="none"/>')
+    body.append(f'<line x1="{_f(X(lo))}" y1="{_f(zero_y)}" x2="{_f(X(hi))}" y2="{_f(zero_y)}" '
+                f'stroke="#555" stroke-width="0.8"/>')
+    body.append(f'<polyline class="il" points="{pts}" fill="none" stroke="#222" '
+                f'stroke-width="1.6"/>')
+    k_max, k_min = int(np.argmax(y)), int(np.argmin(y))
+    if y[k_max] > 0:
+        body.append(_text(X(st[k_max]), Y(y[k_max]) - 4,
+                          display.number(float(y[k_max]), None, 3, signed=True), size=8,
+                          halo=True))
+    if y[k_min] < 0:
+        body.append(_text(X(st[k_min]), Y(y[k_min]) + 11,
+                          display.number(float(y[k_min]), None, 3, signed=True), size=8,
+                          halo=True))
+    if amp_top > 8:
+        body.append(_text(6, zero_y - amp_top / 2, "tension +", size=8, anchor="start",
+                          fill="#8a3b1e"))
+    if amp_bottom > 8:
+        body.append(_text(6, zero_y + amp_bottom / 2 + 3, "compression \u2212", size=8,
+                          anchor="start", fill="#2a5a8a"))
+    # station ticks
+    ty = max(zero_y, top_y + room) + 16
+    for s in st:
+        body.append(f'<line x1="{_f(X(s))}" y1="{_f(zero_y - 3)}" x2="{_f(X(s))}" '
+                    f'y2="{_f(zero_y + 3)}" stroke="#555" stroke-width="0.8"/>')
+        body.append(_text(X(s), ty, display.number(float(s), "length", 1), size=7.5,
+                          fill="#555"))
+    body.append(_text(WIDTH - right, ty + 13, f"station ({display.unit('length')})", size=8,
+                      anchor="end", fill="#555"))
+    height = ty + 20
+    who = vehicle.name if vehicle else "vehicle"
+    return _svg(WIDTH, height, f"influence line of member {line.member} with {who}",
+                body, "influence")
+
+
+# ------------------------------------------------------------------ pin packing
+
+def packing_svg(pin: PinResult, display: Display) -> Markup:
+    """The packing of one pin drawn to scale along the pin: plates in order with their
+    thickness and the gaps between them, fillers hatched."""
+    rows = pin.packing
+    if not rows:
+        return _svg(WIDTH, 30, f"pin {pin.joint}: packing not given",
+                    [_text(WIDTH / 2, 20, "packing not given")], "packing")
+    total = sum(r.gap_before + r.thickness for r in rows)
+    left, right = 30.0, 30.0
+    s = (WIDTH - left - right) / max(total, 1e-6)
+    s = min(s, 60.0)
+    x = left + ((WIDTH - left - right) - total * s) / 2
+    pin_y, pin_h = 92.0, 18.0
+    body = ['<defs><pattern id="fillhatch" width="5" height="5" patternUnits="userSpaceOnUse" '
+            'patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="5" stroke="#777" '
+            'stroke-width="1.4"/></pattern></defs>']
+    body.append(f'<rect x="{_f(x - 12)}" y="{_f(pin_y - pin_h / 2)}" '
+                f'width="{_f(total * s + 24)}" height="{_f(pin_h)}" fill="#e8e8e8" '
+                f'stroke="#444" stroke-width="1"/>')
+    for k, r in enumerate(rows):
+        x += r.gap_before * s
+        w = max(r.thickness * s, 1.0)
+        filler = r.member is None
+        fill = "url(#fillhatch)" if filler else "#cfdbe6"
+        body.append(f'<rect x="{_f(x)}" y="{_f(pin_y - 34)}" width="{_f(w)}" height="68" '
+                    f'fill="{fill}" stroke="#222" stroke-width="1"><title>{k + 1}: '
+                    f'{escape(r.member or "filler")}, {escape(display.field(r, "thickness"))} '
+                    f'{display.unit("dimension")}</title></rect>')
+        name = r.member or "filler"
+        body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
+        body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))
+        x += r.thickness * s
+    body.append(_text(WIDTH / 2, pin_y + 62,
+                      f"pin {pin.joint}, diameter {display.field(pin, 'diameter')} "
+                      f"{display.unit('dimension')}; plates in order along the pin "
+                      f"(numbers as in the table)", size=8.5, fill="#333"))
+    return _svg(WIDTH, pin_y + 70, f"packing of pin {pin.joint}", body, "packing")

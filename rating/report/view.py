@@ -1,0 +1,608 @@
+"""The report's view of the results: rows and figures, already formatted for display.
+
+Nothing here computes a rating: it picks, orders and formats what :mod:`rating.results`
+holds, converting units through :class:`~rating.report.display.Display`. Text from the
+workbook stays plain ``str`` (the template escapes it); drawings are ``Markup``.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field
+from typing import Any
+
+from markupsafe import Markup
+
+from rating.report import svg
+from rating.report.display import DASH, Display
+from rating.results import (
+    MemberResult,
+    PinResult,
+    Position,
+    PostingResultEntry,
+    Rating,
+    RatingResults,
+    VehicleResult,
+)
+
+TAG_TEXT = {"V": "read in the source", "M": "value from memory", "CP": "common practice"}
+LEVEL_TEXT = {"inventory": "inventory", "operating": "operating", "legal": "legal load"}
+ACTION_TEXT = {"none": "no restriction", "post": "post", "close": "consider closing"}
+
+
+# ------------------------------------------------------------------ rows
+
+@dataclass(frozen=True)
+class Cell:
+    """A formatted RF (or other value) with its band key for shading."""
+
+    text: str
+    band: str = ""
+
+
+@dataclass(frozen=True)
+class Control:
+    """What controls one vehicle: a member or a pin, its rating and the posting entry."""
+
+    vehicle: VehicleResult
+    element: str
+    kind: str  # "member" | "pin" | "" (named in the results but not found)
+    rating: Rating | None
+    entry: PostingResultEntry | None
+
+    @property
+    def rf(self) -> float | None:
+        if self.entry is not None:
+            return self.entry.rf
+        return self.rating.rf if self.rating is not None else None
+
+
+@dataclass(frozen=True)
+class SummaryRow:
+    vehicle: str
+    vehicle_id: str
+    level: str
+    weight: str
+    element: str
+    check: str
+    rf: Cell
+    rating_tons: str
+    action: str
+    action_key: str
+    posting: str
+    note: str
+
+
+@dataclass(frozen=True)
+class MemberRow:
+    id: str
+    role: str
+    tension_only: bool
+    length: str
+    dc: str
+    dw: str
+    phi_rt: str
+    phi_rc: str
+    rf: Cell
+    vehicle: str
+    check: str
+    method: str
+    finding: str
+
+
+@dataclass(frozen=True)
+class LiveCell:
+    ll_max: str
+    ll_min: str
+    rf: Cell
+
+
+@dataclass(frozen=True)
+class LiveRow:
+    id: str
+    cells: tuple[LiveCell, ...]
+
+
+@dataclass(frozen=True)
+class LiveTable:
+    vehicles: tuple[VehicleResult, ...]
+    rows: tuple[LiveRow, ...]
+
+
+@dataclass(frozen=True)
+class PackingLine:
+    order: int
+    member: str
+    thickness: str
+    gap: str
+
+
+@dataclass(frozen=True)
+class PinRating:
+    vehicle: str
+    rf: Cell
+    check: str
+    method: str
+
+
+@dataclass(frozen=True)
+class PinView:
+    joint: str
+    diameter: str
+    governing_section: str
+    packing: tuple[PackingLine, ...]
+    ratings: tuple[PinRating, ...]
+    lowest: Cell
+    drawing: Markup
+    warnings: tuple[str, ...]
+
+
+@dataclass(frozen=True)
+class InfluenceView:
+    member: str
+    role: str
+    vehicle: str
+    controls: str
+    rf: Cell
+    check: str
+    position: str
+    lane: str
+    drawing: Markup
+
+
+@dataclass(frozen=True)
+class PinControlNote:
+    pin: str
+    controls: str
+    rf: Cell
+
+
+@dataclass(frozen=True)
+class FindingRow:
+    member: str
+    component: str
+    region: str
+    station: str
+    remaining: str
+    loss: str
+    bar_state: str
+    condition: str
+    photo: str
+    note: str
+    where: str
+
+
+@dataclass(frozen=True)
+class VehicleRow:
+    id: str
+    name: str
+    category: str
+    level: str
+    weight: str
+    axles: str
+    spacings: str
+    lane: str
+    gamma_ll: str
+    im: str
+    source: str
+    tag: str
+
+
+@dataclass(frozen=True)
+class SectionRow:
+    id: str
+    A_g: str
+    A_n: str
+    F_y: str
+    F_u: str
+    length: str
+    K: str
+    KL_r: str
+
+
+@dataclass(frozen=True)
+class CheckRow:
+    member: str
+    name: str
+    sense: str
+    phi: str
+    R_n: str
+    factored: str
+    provision: str
+    location: str
+    finding: str
+
+
+@dataclass(frozen=True)
+class Assumption:
+    text: str
+    from_memory: bool
+
+
+@dataclass(frozen=True)
+class Fact:
+    label: str
+    value: str
+
+
+@dataclass(frozen=True)
+class Units:
+    force: str
+    length: str
+    dimension: str
+    area: str
+    stress: str
+    weight: str
+    line_load: str
+
+
+@dataclass(frozen=True)
+class ReportView:
+    title: str
+    bridge_facts: tuple[Fact, ...]
+    method_facts: tuple[Fact, ...]
+    units: Units
+    system: str
+    summary: tuple[SummaryRow, ...]
+    recommendation: str
+    worst_action: str
+    elevation: Markup
+    legend: Markup
+    influence: tuple[InfluenceView, ...]
+    pin_controls: tuple[PinControlNote, ...]
+    members: tuple[MemberRow, ...]
+    live_tables: tuple[LiveTable, ...]
+    pins: tuple[PinView, ...]
+    findings: tuple[FindingRow, ...]
+    vehicles: tuple[VehicleRow, ...]
+    assumptions: tuple[Assumption, ...]
+    distribution: tuple[Fact, ...]
+    warnings: tuple[str, ...]
+    sections: tuple[SectionRow, ...]
+    checks: tuple[CheckRow, ...]
+    has_dash: bool
+    paper: str
+    paper_note: str
+    generator: str
+    schema_version: str
+    source_file: str
+    footer: str
+    band_labels: tuple[svg.Band, ...] = field(default=())
+
+
+# ------------------------------------------------------------------ helpers
+
+def _pin_key(element: str) -> str:
+    e = element.strip()
+    return e[4:].strip() if e.lower().startswith("pin ") else e
+
+
+def controls(results: RatingResults) -> tuple[Control, ...]:
+    """The controlling member or pin of each vehicle: the posting entry's when given, else
+    the lowest RF over members and pins."""
+    members = {m.id: m for m in results.members}
+    pins = {p.joint: p for p in results.pins}
+    out: list[Control] = []
+    for v in results.vehicles:
+        entry = results.posting.get(v.id)
+        element, kind, rating = "", "", None
+        if entry is not None and entry.member:
+            element = entry.member
+            if element in members:
+                kind, rating = "member", members[element].ratings.get(v.id)
+            elif _pin_key(element) in pins:
+                kind = "pin"
+                rating = pins[_pin_key(element)].ratings.get(v.id)
+        else:
+            best: tuple[float, str, str, Rating] | None = None
+            for m in results.members:
+                r = m.ratings.get(v.id)
+                if r is not None and not math.isnan(r.rf) and (best is None or r.rf < best[0]):
+                    best = (r.rf, m.id, "member", r)
+            for p in results.pins:
+                r = p.ratings.get(v.id)
+                if r is not None and not math.isnan(r.rf) and (best is None or r.rf < best[0]):
+                    best = (r.rf, f"pin {p.joint}", "pin", r)
+            if best is not None:
+                _, element, kind, rating = best
+        out.append(Control(v, element, kind, rating, entry))
+    return tuple(out)
+
+
+def _cell(d: Display, bands: svg.RFBands, rf: float | None) -> Cell:
+    return Cell(d.rf(rf), bands.band(rf).key if rf is not None else bands.band(None).key)
+
+
+def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
+    return v.name if v is not None and v.name else vid
+
+
+def _position_text(p: Position | None, d: Display) -> str:
+    if p is None:
+        return "position not reported"
+    way = ("toward increasing station" if p.direction != "reverse"
+           else "toward decreasing station")
+    text = (f"front axle at {d.length(p.front_axle_station)} {d.unit('length')}, "
+            f"travelling {way}")
+    if p.spacings:
+        text += f"; axle spacings {d.series(p.spacings, 'length')} {d.unit('length')}"
+    if p.load_model:
+        text += f"; load model: {p.load_model}"
+    return text
+
+
+def _position_for(member: MemberResult, vid: str, rating: Rating | None) -> Position | None:
+    if rating is not None and rating.position is not None:
+        return rating.position
+    ll = member.live_load.get(vid)
+    if ll is None:
+        return None
+    if rating is not None and rating.sense == "compression":
+        return ll.min_position or ll.max_position
+    return ll.max_position or ll.min_position
+
+
+def _fmt_plain(value: Any) -> str:
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, float):
+        return DASH if not math.isfinite(value) else f"{value:.3g}"
+    if isinstance(value, Mapping):
+        return "; ".join(f"{k}: {_fmt_plain(v)}" for k, v in value.items())
+    if isinstance(value, list | tuple):
+        return ", ".join(_fmt_plain(v) for v in value)
+    return DASH if value is None else str(value)
+
+
+def _dedupe(items: Sequence[str]) -> tuple[str, ...]:
+    seen: dict[str, None] = {}
+    for it in items:
+        seen.setdefault(it, None)
+    return tuple(seen)
+
+
+PAPERS = {"letter": ("letter", "Letter (8.5 \u00d7 11 in)"), "a4": ("A4", "A4 (210 \u00d7 297 mm)")}
+
+
+def paper_for(system: str, paper: str | None) -> str:
+    """The paper asked for: ``letter``, ``a4`` or ``auto`` (left to the print dialog);
+    ``None`` picks Letter for US customary units and A4 for SI."""
+    if paper is None:
+        return "a4" if system == "SI" else "letter"
+    return paper.strip().lower()
+
+
+# ------------------------------------------------------------------ the view
+
+def build_view(results: RatingResults, *, paper: str | None = None,
+               bands: svg.RFBands | None = None, vehicles_per_table: int = 4) -> ReportView:
+    """Everything the template shows, formatted."""
+    from rating.report.display import display_for
+
+    d = display_for(results)
+    bands = bands or svg.RFBands()
+    b = results.bridge
+    vmap = {v.id: v for v in results.vehicles}
+    units = Units(d.unit("force"), d.unit("length"), d.unit("dimension"), d.unit("area"),
+                  d.unit("stress"), d.unit("weight"), d.unit("line load"))
+    has_dash = False
+
+    def rf_cell(rf: float | None) -> Cell:
+        nonlocal has_dash
+        c = _cell(d, bands, rf)
+        has_dash = has_dash or c.text == DASH
+        return c
+
+    bridge_facts = tuple(Fact(k, v) for k, v in (
+        ("Structure", b.id),
+        ("Bridge", b.name),
+        ("Location", b.location),
+        ("Owner", b.owner),
+        ("Year built", str(b.year_built) if b.year_built else ""),
+        ("Truss", " ".join(x for x in (b.form, b.deck_position and f"{b.deck_position} truss")
+                           if x)),
+        ("Span", f"{d.field(b, 'span')} {units.length}, {b.panel_count} panels"
+         if b.panel_count else f"{d.field(b, 'span')} {units.length}"),
+        ("Truss spacing / roadway", f"{d.field(b, 'truss_spacing')} / "
+         f"{d.field(b, 'roadway_width')} {units.length}"),
+        ("Inspection", ", ".join(x for x in (b.inspection_date or "", b.inspector) if x)),
+    ) if v)
+    method_facts = tuple(Fact(k, v) for k, v in (
+        ("Method", results.method),
+        ("Provision set", results.provision_set),
+        ("Units", "SI" if d.system == "SI" else "US customary"),
+        ("Workbook", b.source_file),
+    ) if v)
+
+    ctl = controls(results)
+    summary: list[SummaryRow] = []
+    for c in ctl:
+        v = c.vehicle
+        entry = c.entry
+        rf = c.rf
+        rt = entry.rating_tons if entry is not None else (
+            rf * v.gross_weight if rf is not None and math.isfinite(rf) else None)
+        action_key = entry.action if entry is not None else ""
+        action = ACTION_TEXT.get(action_key, action_key) if entry is not None else DASH
+        posting = DASH
+        if entry is not None and entry.action == "post" and entry.posting_tons is not None:
+            posting = f"{d.posting(entry.posting_tons)} {units.weight}"
+            action = f"post for {posting}"
+        note = entry.note if entry is not None else ""
+        if v.rating_level in ("inventory", "operating") and action_key == "none":
+            action = "design-load rating"
+            note = "" if "design" in note.lower() else note
+        summary.append(SummaryRow(
+            vehicle=_vehicle_label(v, v.id), vehicle_id=v.id,
+            level=LEVEL_TEXT.get(v.rating_level, v.rating_level),
+            weight=d.field(v, "gross_weight"), element=c.element or DASH,
+            check=(c.rating.check if c.rating is not None else ""),
+            rf=rf_cell(rf), rating_tons=d.weight(rt), action=action, action_key=action_key,
+            posting=posting, note=note))
+    actions = {s.action_key for s in summary}
+    worst = "close" if "close" in actions else ("post" if "post" in actions else "none")
+
+    # influence lines of the controlling members (one figure per member, critical vehicle)
+    members = {m.id: m for m in results.members}
+    lines = {il.member: il for il in results.influence_lines}
+    deck = tuple(sorted(j.x for j in results.joints if j.deck))
+    by_element: dict[str, list[Control]] = {}
+    for c in ctl:
+        if c.element and c.kind in ("member", "pin"):
+            by_element.setdefault(c.element, []).append(c)
+    influence: list[InfluenceView] = []
+    pin_notes: list[PinControlNote] = []
+    for element, cs in by_element.items():
+        finite = [c for c in cs if c.rf is not None and not math.isnan(c.rf)]
+        crit = min(finite, key=lambda c: c.rf or 0.0) if finite else cs[0]
+        names = ", ".join(_vehicle_label(c.vehicle, c.vehicle.id) for c in cs)
+        if crit.kind == "pin":
+            pin_notes.append(PinControlNote(_pin_key(element), names, rf_cell(crit.rf)))
+            continue
+        m = members[element]
+        line = lines.get(element)
+        pos = _position_for(m, crit.vehicle.id, crit.rating)
+        if line is None:
+            drawing = Markup("")
+        else:
+            drawing = svg.influence_svg(line, pos, crit.vehicle, d, deck_stations=deck)
+        lane = ""
+        if pos is not None and pos.lane_segments and crit.vehicle.lane_load:
+            lane = (f"lane load {d.field(crit.vehicle, 'lane_load')} {units.line_load} on "
+                    + ", ".join(f"{d.length(a)}\u2013{d.length(b_)}"
+                                for a, b_ in pos.lane_segments) + f" {units.length}")
+        influence.append(InfluenceView(
+            member=element, role=m.role, vehicle=_vehicle_label(crit.vehicle, crit.vehicle.id),
+            controls=names, rf=rf_cell(crit.rf),
+            check=crit.rating.check if crit.rating else "", position=_position_text(pos, d),
+            lane=lane, drawing=drawing))
+
+    # member table
+    rows: list[MemberRow] = []
+    for m in results.members:
+        low = svg.lowest_rating(m.ratings.items())
+        rt_ = m.resistance.tension if m.resistance else None
+        rc_ = m.resistance.compression if m.resistance else None
+        finding = ""
+        if low is not None:
+            finding = low[1].finding
+        rows.append(MemberRow(
+            id=m.id, role=m.role, tension_only=m.tension_only,
+            length=d.field(m.section, "length") if m.section else DASH,
+            dc=d.force(m.dead_load.get("DC"), signed=True),
+            dw=d.force(m.dead_load.get("DW"), signed=True),
+            phi_rt=d.force(rt_), phi_rc=d.force(rc_),
+            rf=rf_cell(low[1].rf if low else None),
+            vehicle=low[0] if low else "not rated",
+            check=(f"{low[1].sense}: {low[1].check}" if low and low[1].check
+                   else (low[1].sense if low else "")),
+            method=low[1].method if low else "",
+            finding=finding))
+
+    # live load and RF per vehicle, in tables of a few vehicles each
+    live_tables: list[LiveTable] = []
+    vs = results.vehicles
+    step = max(1, vehicles_per_table)
+    for k in range(0, len(vs), step):
+        chunk = tuple(vs[k:k + step])
+        lrows = []
+        for m in results.members:
+            cells = []
+            for v in chunk:
+                ll = m.live_load.get(v.id)
+                r = m.ratings.get(v.id)
+                cells.append(LiveCell(
+                    d.force(ll.max_with_im, signed=True) if ll else DASH,
+                    d.force(ll.min_with_im, signed=True) if ll else DASH,
+                    rf_cell(r.rf if r else None)))
+            lrows.append(LiveRow(m.id, tuple(cells)))
+        live_tables.append(LiveTable(chunk, tuple(lrows)))
+
+    pins = tuple(_pin_view(p, d, bands, vmap, rf_cell) for p in results.pins)
+
+    findings = tuple(FindingRow(
+        member=f.member, component=f.component, region=f.region,
+        station=d.field(f, "station"), remaining=d.field(f, "remaining_thickness"),
+        loss=DASH if f.percent_loss is None else f"{f.percent_loss:g}%",
+        bar_state=f.bar_state, condition=DASH if f.condition_rating is None
+        else str(f.condition_rating), photo=f.photo, note=f.note, where=f.where)
+        for f in results.findings)
+
+    vehicles = tuple(VehicleRow(
+        id=v.id, name=v.name, category=v.category,
+        level=LEVEL_TEXT.get(v.rating_level, v.rating_level),
+        weight=d.field(v, "gross_weight"), axles=d.series(v.axle_loads, "force"),
+        spacings=" / ".join(d.length(a) if math.isclose(a, b_) else
+                            f"{d.length(a)}\u2013{d.length(b_)}" for a, b_ in v.spacings),
+        lane=d.field(v, "lane_load") if v.lane_load else DASH,
+        gamma_ll=f"{v.gamma_ll:.2f}" if v.gamma_ll else DASH,
+        im=f"{v.im * 100:.0f}%" if v.im else DASH, source=v.source,
+        tag=TAG_TEXT.get(v.tag, v.tag)) for v in vs)
+
+    assumptions = [Assumption(a, _from_memory(a)) for a in results.assumptions]
+    for v in vs:
+        if v.tag == "M":
+            assumptions.append(Assumption(
+                f"Vehicle {v.name or v.id}: axle loads and spacings ({v.source or 'no source'}"
+                "), value from memory.", True))
+
+    warnings = _dedupe([*results.warnings,
+                        *(w for m in results.members for w in m.warnings),
+                        *(w for p in results.pins for w in p.warnings)])
+
+    sections = tuple(SectionRow(
+        m.id, d.field(m.section, "A_g"), d.field(m.section, "A_n"),
+        d.field(m.section, "F_y"), d.field(m.section, "F_u"), d.field(m.section, "length"),
+        DASH if m.section.K is None else f"{m.section.K:.3f}",
+        DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}")
+        for m in results.members if m.section is not None)
+    checks = tuple(CheckRow(
+        m.id, c.name, c.sense, f"{c.phi:.2f}", d.field(c, "R_n"), d.field(c, "factored"),
+        c.provision, c.location, c.finding)
+        for m in results.members if m.resistance for c in m.resistance.checks)
+
+    p = paper_for(d.system, paper)
+    if p == "auto":
+        paper_note = ("The page size is left to the print dialog; the layout fits both "
+                      "Letter and A4.")
+    else:
+        other = "a4" if p == "letter" else "letter"
+        paper_note = (
+            f"This report asks the printer for {PAPERS[p][1]}: "
+            + ("US customary units print on Letter, SI units on A4. "
+               if paper is None else "chosen when the report was made. ")
+            + f"The layout fits both sizes. For {PAPERS[other][1]} paper, make the report "
+            f"with paper size \u201c{other}\u201d (or \u201cauto\u201d to choose in the "
+            "print dialog), or print this one scaled to fit the page.")
+    footer = f"{b.id} {b.name}".strip() + " \u2014 load rating for review by the licensed " \
+        "engineer in responsible charge"
+    return ReportView(
+        title=f"Load rating report \u2014 {b.name or b.id}",
+        bridge_facts=bridge_facts, method_facts=method_facts, units=units, system=d.system,
+        summary=tuple(summary), recommendation=results.recommendation, worst_action=worst,
+        elevation=svg.elevation_svg(results, d, bands), legend=svg.legend_svg(bands),
+        influence=tuple(influence), pin_controls=tuple(pin_notes), members=tuple(rows),
+        live_tables=tuple(live_tables), pins=pins, findings=findings, vehicles=vehicles,
+        assumptions=tuple(assumptions),
+        distribution=tuple(Fact(str(k), _fmt_plain(v)) for k, v in results.distribution.items()),
+        warnings=warnings, sections=sections, checks=checks, has_dash=has_dash, paper=p,
+        paper_note=paper_note, generator=results.generator,
+        schema_version=results.schema_version, source_file=b.source_file, footer=footer,
+        band_labels=bands.bands)
+
+
+def _from_memory(text: str) -> bool:
+    t = text.lower()
+    return "from memory" in t or "[m]" in t or "(m)" in t
+
+
+def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, VehicleResult],
+              rf_cell: Any) -> PinView:
+    packing = tuple(PackingLine(k + 1, r.member or "filler", d.field(r, "thickness"),
+                                d.field(r, "gap_before")) for k, r in enumerate(p.packing))
+    ratings = tuple(PinRating(_vehicle_label(vmap.get(vid), vid), rf_cell(r.rf), r.check,
+                              r.method) for vid, r in p.ratings.items())
+    low = svg.lowest_rating(p.ratings.items())
+    return PinView(p.joint, d.field(p, "diameter"), p.governing_section, packing, ratings,
+                   rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings)

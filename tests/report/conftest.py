@@ -1,0 +1,69 @@
+"""Shared fixtures of the report tests: the hand-built sample results (see sample_results.py)."""
+
+from __future__ import annotations
+
+import importlib.util
+from pathlib import Path
+from typing import Any
+
+import pytest
+from sample_results import sample_results
+
+from rating.results import RatingResults
+
+
+@pytest.fixture(scope="session")
+def results_us() -> RatingResults:
+    return sample_results("US")
+
+
+@pytest.fixture(scope="session")
+def results_si() -> RatingResults:
+    return sample_results("SI")
+
+
+@pytest.fixture(scope="session")
+def results_hostile() -> RatingResults:
+    return sample_results("US", hostile=True)
+
+
+REPO = Path(__file__).resolve().parents[2]
+SAMPLES = REPO / "sample_inventory"
+
+
+def sample_workbooks(tmp: Path) -> list[Path]:
+    """The bundled sample workbooks; generated into ``tmp`` when not written yet."""
+    books = sorted(p for p in SAMPLES.glob("*.xlsx") if not p.name.startswith("~$"))
+    if books or not (SAMPLES / "make_samples.py").is_file():
+        return books
+    spec = importlib.util.spec_from_file_location("make_samples", SAMPLES / "make_samples.py")
+    if spec is None or spec.loader is None:
+        return []
+    mod = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(mod)
+    return sorted(mod.write_all(tmp))
+
+
+@pytest.fixture(scope="session")
+def sample_outcomes(tmp_path_factory: pytest.TempPathFactory) -> list[Any]:
+    """Every sample workbook rated through the real pipeline (outcomes, rated or not)."""
+    from rating.pipeline import rate_workbook
+
+    books = sample_workbooks(tmp_path_factory.mktemp("samples"))
+    return [rate_workbook(b) for b in books]
+
+
+@pytest.fixture(scope="session")
+def sample_reports(sample_outcomes: list[Any], tmp_path_factory: pytest.TempPathFactory
+                   ) -> list[tuple[Path, str]]:
+    """(report path, unit system) of every sample workbook that could be rated."""
+    from rating.pipeline import write_outputs
+    from rating.report.display import unit_system
+
+    out = tmp_path_factory.mktemp("sample_reports")
+    paths = []
+    for o in sample_outcomes:
+        if o.results is not None:
+            html, _ = write_outputs(o.results, out, o.workbook.stem)
+            paths.append((html, unit_system(o.results)))
+    return paths

@@ -1,0 +1,148 @@
+"""Browser check: headless Chromium opens each report, finds no console error, renders the
+drawings, fits the printed page width and prints a PDF of the asked paper size.
+
+Chromium is driven over the DevTools protocol on a pipe (cdp.py, standard library only).
+Page sizes checked against ISO 216 (A4 = 210 x 297 mm = 595.28 x 841.89 pt) and ANSI/ASME
+Y14.1 (Letter = 8.5 x 11 in = 612 x 792 pt); 1 pt = 1/72 in (PDF 1.7, ISO 32000-1, 8.3.2.3).
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterator
+from pathlib import Path
+
+import pytest
+from cdp import Browser, find_chromium
+
+from rating.report import render_report
+from rating.results import RatingResults
+
+CHROMIUM = find_chromium()
+pytestmark = pytest.mark.skipif(
+    CHROMIUM is None,
+    reason="Chromium is not installed here (Debian: apt-get install chromium); the browser "
+    "check of the HTML report cannot run")
+
+# printable width of the page between the @page margins (13 mm each side), CSS px at 96/in
+A4_CONTENT_PX = round((210 - 26) / 25.4 * 96)
+LETTER_CONTENT_PX = round((8.5 * 25.4 - 26) / 25.4 * 96)
+
+SIZES = """(() => {
+  const out = {};
+  for (const cls of ['elevation', 'legend', 'influence', 'packing']) {
+    out[cls] = [...document.querySelectorAll('svg.' + cls)].map(s => {
+      const r = s.getBoundingClientRect(); return [r.width, r.height];
+    });
+  }
+  const body = document.body.getBoundingClientRect();
+  const wide = [...document.querySelectorAll('table, figure, svg, .recommendation')]
+    .filter(e => e.getBoundingClientRect().right > body.right + 1)
+    .map(e => e.tagName + ' ' + (e.getAttribute('class') || ''));
+  out.overflow = wide;
+  out.scroll = [document.documentElement.scrollWidth, document.documentElement.clientWidth];
+  return out;
+})()"""
+
+
+@pytest.fixture(scope="module")
+def browser() -> Iterator[Browser]:
+    assert CHROMIUM is not None
+    b = Browser(CHROMIUM)
+    try:
+        yield b
+    finally:
+        b.close()
+
+
+def _media_box(pdf: bytes) -> tuple[float, float]:
+    m = re.search(rb"/MediaBox\s*\[\s*0\s+0\s+([\d.]+)\s+([\d.]+)\s*\]", pdf)
+    assert m, "no MediaBox in the PDF"
+    return float(m.group(1)), float(m.group(2))
+
+
+def _check_page(browser: Browser, path: Path, content_px: int, paper_pt: tuple[float, float],
+                shot: Path | None = None) -> None:
+    page = browser.open(path, width=content_px, height=1100, print_media=True)
+    try:
+        sizes = page.evaluate(SIZES)
+        assert sizes["elevation"] and all(w > 300 and h > 60 for w, h in sizes["elevation"])
+        assert all(w > 300 and h > 20 for w, h in sizes["legend"])
+        assert all(w > 300 and h > 100 for w, h in sizes["influence"])
+        assert all(w > 300 and h > 50 for w, h in sizes["packing"])
+        assert sizes["overflow"] == [], f"wider than the printed page: {sizes['overflow']}"
+        assert sizes["scroll"][0] <= sizes["scroll"][1]
+        pdf = page.pdf()
+        if shot is not None:
+            shot.write_bytes(page.screenshot())
+        rep = page.report()
+        assert rep.console_errors == [], rep.console_errors
+        assert rep.exceptions == [], rep.exceptions
+        # nothing fetched but the file itself: no network resources
+        assert rep.requests == [path.resolve().as_uri()], rep.requests
+        assert pdf.startswith(b"%PDF-") and len(pdf) > 10_000
+        w, h = _media_box(pdf)
+        assert w == pytest.approx(paper_pt[0], abs=1.0) and h == pytest.approx(paper_pt[1],
+                                                                                abs=1.0)
+    finally:
+        page.close()
+
+
+LETTER_PT = (612.0, 792.0)  # 8.5 x 11 in at 72 pt/in
+A4_PT = (595.28, 841.89)  # 210 x 297 mm at 72/25.4 pt/mm
+
+
+def test_detector_catches_a_broken_page(browser: Browser, tmp_path: Path) -> None:
+    """Positive control: a page with a missing image and a script error is caught."""
+    bad = tmp_path / "bad.html"
+    bad.write_text('<!DOCTYPE html><html><body><img src="missing.png">'
+                   '<script>console.error("boom"); notDefined();</script></body></html>')
+    page = browser.open(bad)
+    try:
+        rep = page.report()
+    finally:
+        page.close()
+    assert any("boom" in e for e in rep.console_errors)
+    assert any("ERR_FILE_NOT_FOUND" in e for e in rep.console_errors)
+    assert rep.exceptions
+    assert any(r.endswith("missing.png") for r in rep.requests)
+
+
+@pytest.mark.parametrize("which", ["US", "SI", "hostile"])
+def test_sample_report_in_browser(browser: Browser, tmp_path: Path, which: str,
+                                  results_us: RatingResults, results_si: RatingResults,
+                                  results_hostile: RatingResults) -> None:
+    results = {"US": results_us, "SI": results_si, "hostile": results_hostile}[which]
+    path = tmp_path / f"{which}.html"
+    path.write_text(render_report(results), encoding="utf-8")
+    if which == "SI":
+        _check_page(browser, path, A4_CONTENT_PX, A4_PT)
+    else:
+        _check_page(browser, path, LETTER_CONTENT_PX, LETTER_PT)
+    if which == "hostile":  # the script in the workbook text did not run
+        page = browser.open(path)
+        try:
+            assert page.evaluate("document.scripts.length") == 0
+            assert page.evaluate("document.images.length") == 0
+            assert "<script>" in page.evaluate("document.body.innerText")
+        finally:
+            page.close()
+
+
+def test_letter_report_also_fits_a4_width(browser: Browser, tmp_path: Path,
+                                          results_us: RatingResults) -> None:
+    """The layout fits both papers: a Letter report laid out at the A4 printable width."""
+    path = tmp_path / "a4.html"
+    path.write_text(render_report(results_us, paper="a4"), encoding="utf-8")
+    _check_page(browser, path, A4_CONTENT_PX, A4_PT)
+
+
+def test_workbook_reports_in_browser(browser: Browser,
+                                    sample_reports: list[tuple[Path, str]]) -> None:
+    """End to end: the report of every rateable sample workbook."""
+    if not sample_reports:
+        pytest.skip("no sample workbook could be rated (sample_inventory/ not ready)")
+    for path, system in sample_reports:
+        si = system == "SI"
+        _check_page(browser, path, A4_CONTENT_PX if si else LETTER_CONTENT_PX,
+                    A4_PT if si else LETTER_PT)

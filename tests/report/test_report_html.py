@@ -1,0 +1,146 @@
+"""The report document: self-contained, deterministic, in the bridge's units, with every part
+the brief asks for. Parsed with the standard library's HTML parser (htmlcheck.py)."""
+
+from __future__ import annotations
+
+import re
+
+import pytest
+from htmlcheck import read
+
+from rating.errors import InputError
+from rating.report import render_report
+from rating.report.html import environment, template_dir
+from rating.report.view import build_view, controls
+from rating.results import RatingResults
+from rating.units import from_core
+
+
+@pytest.fixture(scope="module")
+def html_us(results_us: RatingResults) -> str:
+    return render_report(results_us)
+
+
+@pytest.fixture(scope="module")
+def html_si(results_si: RatingResults) -> str:
+    return render_report(results_si)
+
+
+def test_well_formed_and_deterministic(html_us: str, results_us: RatingResults) -> None:
+    doc = read(html_us)
+    assert doc.errors == []
+    assert html_us == render_report(results_us)  # same results, byte-identical report
+    assert html_us.startswith("<!DOCTYPE html>")
+
+
+def test_self_contained_no_network_no_script(html_us: str) -> None:
+    doc = read(html_us)
+    names = {t for t, _ in doc.tags}
+    assert not names & {"script", "link", "img", "iframe", "object", "embed", "base", "form"}
+    for tag, attrs in doc.tags:
+        for k, val in attrs.items():
+            assert not k.startswith("on"), (tag, k)
+            if k in ("src", "href", "xlink:href", "action"):
+                pytest.fail(f"{tag} has {k}={val!r}")
+            if k == "xmlns":
+                assert val == "http://www.w3.org/2000/svg"
+    css = "".join(doc.style)
+    assert "@import" not in css
+    assert re.findall(r"url\(([^)]*)\)", html_us) == \
+        [u for u in re.findall(r"url\(([^)]*)\)", html_us) if u.startswith("#")]
+    assert all(m == "http://www.w3.org/2000/svg" for m in re.findall(r"https?://[^\"' )]+",
+                                                                     html_us))
+
+
+def test_summary_parts(html_us: str, results_us: RatingResults) -> None:
+    text = " ".join(read(html_us).text)
+    text = re.sub(r"\s+", " ", text)
+    b = results_us.bridge
+    for part in (b.name, b.location, b.owner, b.inspection_date, b.inspector,
+                 results_us.provision_set, "LRFR"):
+        assert part in text
+    for v in results_us.vehicles:
+        assert v.name in text
+    for c in controls(results_us):
+        assert c.element in text
+    assert "recommendation for the decision of the licensed engineer in responsible charge" \
+        in text
+    for part in ("Seal", "Signature", "Date of review", "Reviewed by"):
+        assert part in text
+    assert results_us.recommendation in text
+    # the cautions
+    assert "an aid to, not a substitute for, the judgement of the licensed engineer" in text
+    assert "owner\u2019s bridge manual and local codes govern" in text
+    assert "Posting and closure are recommendations" in text
+
+
+def test_one_influence_figure_per_controlling_member(html_us: str,
+                                                     results_us: RatingResults) -> None:
+    members = {m.id for m in results_us.members}
+    ctl = {c.element for c in controls(results_us) if c.element in members}
+    assert html_us.count('class="influence"') == len(ctl)
+    pins = {c.element for c in controls(results_us) if c.kind == "pin"}
+    assert pins  # the sample has a pin that controls: it is explained, with its packing
+    assert "has no single influence line" in html_us
+
+
+def test_member_and_pin_tables(html_us: str, results_us: RatingResults) -> None:
+    doc = read(html_us)
+    text = " ".join(doc.text)
+    for header in ("DC (kip)", "DW (kip)", "LL+IM max (kip)", "\u03c6R tension (kip)",
+                   "Lowest RF", "Governing check", "Governing finding", "Thickness (in)",
+                   "Gap before (in)"):
+        assert header in text, header
+    assert "Governing section" in text
+    for p in results_us.pins:
+        assert p.governing_section in text
+    # the finding that governs L1U1 is in its row
+    row = re.search(r">L1U1</td><td>hanger</td>(.*?)</tr>", html_us, re.S)
+    assert row and "18% loss" in row.group(1)
+    # the no-live-load dash is explained
+    assert "\u2014" in text and "no live-load effect of that sense" in text
+
+
+def test_si_report_in_si_units(html_si: str, results_si: RatingResults) -> None:
+    text = " ".join(read(html_si).text)
+    assert "DC (kN)" in text and "Length (m)" in text and "W (tonne)" in text
+    m = results_si.member("L2L3")
+    dc_kn = from_core(m.dead_load["DC"], "kN")  # NIST SP 811 B.9: 1 kip = 4.448222 kN
+    assert f"+{dc_kn:.1f}" in text
+    assert "(kip)" not in text
+
+
+def test_assumptions_from_memory_are_marked(html_us: str, results_us: RatingResults) -> None:
+    view = build_view(results_us)
+    marked = [a for a in view.assumptions if a.from_memory]
+    assert marked and all("memory" in a.text.lower() for a in marked)
+    assert html_us.count('class="memory"') == len(marked)
+    for w in results_us.warnings:
+        assert w in " ".join(read(html_us).text)
+
+
+@pytest.mark.parametrize(("paper", "css"), [(None, "size: letter"), ("a4", "size: A4"),
+                                             ("letter", "size: letter"), ("auto", "size: auto"),
+                                             (" A4 ", "size: A4")])
+def test_page_size(results_us: RatingResults, paper: str | None, css: str) -> None:
+    assert css in render_report(results_us, paper=paper)
+
+
+def test_page_size_si_default_and_print_rules(html_si: str) -> None:
+    assert "size: A4" in html_si
+    for rule in ("break-inside: avoid", "break-after: avoid", "display: table-header-group",
+                 "@media print"):
+        assert rule in html_si
+
+
+def test_unknown_paper_is_an_input_error(results_us: RatingResults) -> None:
+    with pytest.raises(InputError, match="paper size 'legal' is not known"):
+        render_report(results_us, paper="legal")
+
+
+def test_templates_from_package_data_with_autoescape() -> None:
+    d = template_dir()
+    assert (d / "report.html.j2").is_file() and (d / "report.css").is_file()
+    env = environment()
+    assert env.autoescape is True
+    assert str(env.from_string("{{ x }}").render(x="<b>")) == "&lt;b&gt;"

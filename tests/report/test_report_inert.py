@@ -1,0 +1,40 @@
+"""Workbook text holding HTML or script is shown as text and stays inert (names, notes, ids,
+photos, even text that lands in the CSS page footer)."""
+
+from __future__ import annotations
+
+import re
+
+from htmlcheck import read
+from sample_results import IMG, SCRIPT
+
+from rating.report import render_report
+from rating.report.html import css_string
+from rating.results import RatingResults
+
+
+def test_markup_in_workbook_text_is_shown_as_text(results_hostile: RatingResults) -> None:
+    html = render_report(results_hostile)
+    doc = read(html)
+    assert doc.errors == []
+    names = [t for t, _ in doc.tags]
+    assert "script" not in names and "img" not in names and "i" not in names
+    assert "b" not in names  # the owner's <b>bold</b> stays text
+    assert not any(k.startswith("on") for _, attrs in doc.tags for k in attrs)
+    text = "".join(doc.text)
+    assert SCRIPT in text  # shown, as the engineer typed it
+    assert IMG in text
+    assert "L0L1<i>" in text  # a member id with markup, in the tables and on the drawing
+    assert 'Owner "&" <b>bold</b>' in text
+    assert "</td></tr></table>" in text
+    # the raw markup never appears unescaped in the file
+    assert "<script" not in html and "<img" not in html and "<i>" not in html
+
+
+def test_css_footer_cannot_close_the_style(results_hostile: RatingResults) -> None:
+    html = render_report(results_hostile)
+    style = re.search(r"<style>(.*?)</style>", html, re.S)
+    assert style is not None
+    assert "<" not in style.group(1)
+    assert html.count("</style>") == 1
+    assert css_string('a"</style>\\') == '"a\\000022\\00003C\\00002Fstyle\\00003E\\00005C"'

@@ -1,0 +1,151 @@
+"""The drawings: geometry checked by closed forms (a drawing to scale is a similarity
+transform of the joint coordinates; an arrow drawn at a station maps linearly), and the
+shading bands at their limits. SVG parsed with the standard library's XML parser."""
+
+from __future__ import annotations
+
+import math
+import xml.etree.ElementTree as ET
+from dataclasses import replace
+
+import pytest
+
+from rating.report.display import Display
+from rating.report.svg import (
+    RFBands,
+    elevation_svg,
+    influence_svg,
+    legend_svg,
+    lowest_rating,
+    packing_svg,
+)
+from rating.results import PinResult, Position, RatingResults
+
+NS = {"s": "http://www.w3.org/2000/svg"}
+US = Display("US")
+
+
+def _parse(markup: str) -> ET.Element:
+    return ET.fromstring(str(markup))
+
+
+def test_bands_at_their_limits() -> None:
+    b = RFBands()
+    assert [b.band(x).key for x in (0.2999, 0.3, 0.9999, 1.0, 1.1999, 1.2, math.inf)] == \
+        ["b0", "b1", "b1", "b2", "b2", "b3", "b3"]
+    assert b.band(None).key == "nr" and b.band(math.nan).key == "nr"
+    assert RFBands((0.5, 0.9, 1.5)).band(0.6).key == "b1"
+
+
+def test_elevation_is_the_truss_to_scale(results_us: RatingResults) -> None:
+    """Closed form: every drawn member length / true length is one constant (similarity)."""
+    root = _parse(elevation_svg(results_us, US))
+    lines = root.findall(".//s:line[@class]", NS)
+    members = [ln for ln in lines if ln.get("class", "").startswith("member")]
+    assert len(members) == len(results_us.members)
+    joints = {j.id: j for j in results_us.joints}
+    ratios = []
+    for m, ln in zip(results_us.members, members, strict=True):
+        a, b = joints[m.joints[0]], joints[m.joints[1]]
+        true = math.hypot(b.x - a.x, b.y - a.y)
+        drawn = math.hypot(float(ln.get("x2")) - float(ln.get("x1")),
+                           float(ln.get("y2")) - float(ln.get("y1")))
+        ratios.append(drawn / true)
+    assert max(ratios) - min(ratios) < 0.02 * min(ratios)  # 0.1 px rounding of coordinates
+    # y grows downward in SVG: an upper chord joint is drawn above the lower chord
+    assert float(members[0].get("y1")) > min(float(ln.get("y1")) for ln in members)
+
+
+def test_elevation_shades_each_member_by_its_lowest_rf(results_us: RatingResults) -> None:
+    root = _parse(elevation_svg(results_us, US))
+    members = [ln for ln in root.findall(".//s:line", NS)
+               if ln.get("class", "").startswith("member")]
+    bands = RFBands()
+    for m, ln in zip(results_us.members, members, strict=True):
+        low = lowest_rating(m.ratings.items())
+        expected = bands.band(low[1].rf if low else None)
+        assert ln.get("class") == f"member {expected.key}"
+        assert ln.get("stroke") == expected.colour
+    # labels: every member id is written on the drawing
+    texts = [t.text for t in root.findall(".//s:text", NS)]
+    for m in results_us.members:
+        assert any(t and t.startswith(m.id + " ") for t in texts), m.id
+    # deck panel points and both bearings are marked
+    assert len(root.findall(".//s:rect[@class='floorbeam']", NS)) == \
+        sum(1 for j in results_us.joints if j.deck)
+    kinds = sorted(g.get("class") for g in root.findall(".//s:g", NS))
+    assert kinds == ["bearing pin", "bearing roller"]
+    assert len(root.findall(".//s:circle[@class]", NS)) >= len(results_us.pins)
+
+
+def test_legend_lists_every_band() -> None:
+    root = _parse(legend_svg())
+    texts = " | ".join(t.text or "" for t in root.findall(".//s:text", NS))
+    for b in RFBands().bands:
+        assert b.label in texts
+
+
+def _axle_lines(root: ET.Element) -> list[ET.Element]:
+    return [ln for ln in root.findall(".//s:line", NS) if ln.get("class") == "axle"]
+
+
+@pytest.mark.parametrize("direction", ["forward", "reverse"])
+def test_influence_line_axles_at_their_stations(results_us: RatingResults,
+                                                direction: str) -> None:
+    line = next(il for il in results_us.influence_lines if il.member == "L2L3")
+    axles = (40.0, 54.0, 68.0) if direction == "forward" else (70.0, 84.0, 98.0)
+    loads = (8.0, 32.0, 32.0) if direction == "forward" else (8.0, 32.0, 32.0)
+    pos = Position(front_axle_station=axles[-1] if direction == "forward" else axles[0],
+                   direction=direction, spacings=(14.0, 14.0), axle_stations=axles,
+                   axle_loads=loads, lane_segments=((20.0, 60.0), (60.0, 100.0)))
+    v = results_us.vehicles[0]
+    root = _parse(influence_svg(line, pos, v, US))
+    arrows = _axle_lines(root)
+    assert len(arrows) == 3
+    xs = [float(a.get("x1")) for a in arrows]
+    # linear map station -> x: equal station steps give equal pixel steps
+    assert xs[1] - xs[0] == pytest.approx(xs[2] - xs[1], abs=0.15)
+    # arrow length grows with the axle load (8 < 32)
+    lengths = [float(a.get("y2")) - float(a.get("y1")) for a in arrows]
+    assert lengths[0] < lengths[1] == pytest.approx(lengths[2])
+    assert len(root.findall(".//s:rect[@class='lane']", NS)) == 2
+    travel = next(ln for ln in root.findall(".//s:line", NS) if ln.get("class") == "travel")
+    dx = float(travel.get("x2")) - float(travel.get("x1"))
+    assert (dx > 0) == (direction == "forward")
+    # the influence line passes through its ordinates: peak drawn at the station of the peak
+    poly = root.find(".//s:polyline[@class='il']", NS)
+    assert poly is not None
+    pts = [tuple(map(float, p.split(","))) for p in poly.get("points").split()]
+    top = min(pts, key=lambda p: p[1])  # SVG y down: the tension peak is the smallest y
+    k = max(range(len(line.ordinates)), key=lambda i: line.ordinates[i])
+    st0, st1 = line.stations[0], line.stations[-1]
+    x_first = next(p[0] for p in pts[2:3])
+    x_last = pts[-3][0]
+    expected_x = x_first + (line.stations[k] - st0) / (st1 - st0) * (x_last - x_first)
+    assert top[0] == pytest.approx(expected_x, abs=0.2)
+
+
+def test_influence_line_without_position(results_us: RatingResults) -> None:
+    line = results_us.influence_lines[0]
+    root = _parse(influence_svg(line, None, None, US))
+    assert _axle_lines(root) == []
+    assert root.find(".//s:polyline[@class='il']", NS) is not None
+
+
+def test_packing_drawn_to_scale(results_us: RatingResults) -> None:
+    """Plate widths proportional to their thicknesses (one scale for the whole pin)."""
+    pin: PinResult = results_us.pins[0]
+    root = _parse(packing_svg(pin, US))
+    rects = root.findall(".//s:rect", NS)[1:]  # the first is the pin itself
+    assert len(rects) == len(pin.packing)
+    scales = [float(r.get("width")) / row.thickness for r, row in zip(rects, pin.packing,
+                                                                       strict=True)]
+    assert max(scales) - min(scales) < 0.01 * max(scales) + 0.2
+    # gaps: the left edge of each plate = previous right edge + gap * scale
+    s = scales[0]
+    for k in range(1, len(rects)):
+        prev = float(rects[k - 1].get("x")) + float(rects[k - 1].get("width"))
+        gap = float(rects[k].get("x")) - prev
+        assert gap == pytest.approx(pin.packing[k].gap_before * s, abs=0.3)
+    empty = packing_svg(replace(pin, packing=()), US)
+    assert "packing not given" in str(empty)
