@@ -134,3 +134,25 @@ def run_vehicles(args: argparse.Namespace) -> int:
               f"W = {r['gross_weight_tons']:g} tons")
         print(f"{'':12} source: {r['source']} ({r['tag']})")
     return EXIT_OK
+
+
+def run_batch(args: argparse.Namespace) -> int:
+    """Rate every workbook in a folder; exit 0 when all were rated, 1 when any was not."""
+    from rating.batch import print_summary, rate_folder
+
+    if not args.folder.is_dir():
+        print(f"pintruss: there is no folder {args.folder}", file=sys.stderr)
+        return EXIT_USAGE
+    if args.workers is not None and args.workers < 1:
+        print("pintruss: --workers must be 1 or more", file=sys.stderr)
+        return EXIT_USAGE
+    vehicle_ids = None
+    if getattr(args, "vehicles", None):
+        vehicle_ids = [v.strip() for v in args.vehicles.split(",") if v.strip()] or None
+    try:
+        summary = rate_folder(args.folder, args.out, workers=args.workers,
+                              vehicle_ids=vehicle_ids, progress=sys.stderr)
+    except PintrussError as exc:
+        return _fail(exc)
+    print_summary(summary)
+    return EXIT_OK if not summary.failed else EXIT_INPUT

@@ -67,3 +67,8 @@ def sample_reports(sample_outcomes: list[Any], tmp_path_factory: pytest.TempPath
             html, _ = write_outputs(o.results, out, o.workbook.stem)
             paths.append((html, unit_system(o.results)))
     return paths
+
+
+def pytest_configure(config: pytest.Config) -> None:
+    config.addinivalue_line(
+        "markers", "slow: builds a wheel and a temporary venv (deselect with -m 'not slow')")

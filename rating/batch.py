@@ -1,0 +1,442 @@
+"""Batch rating: every inspection workbook in a folder, on a pool of processes.
+
+Each workbook is rated by the same pipeline as ``pintruss rate`` and gets its own report and
+results file in the output folder. A workbook that cannot be rated does not stop the batch:
+its problems are recorded and it is listed in the summary. The summary is written twice, as
+a CSV table (``summary.csv``) and as an HTML index (``index.html``) linking every report.
+Every file is written atomically (temporary file + rename) and no output may replace an
+input workbook.
+
+Like the pipeline, this module sits at the top of the data flow; nothing calls back into it
+except the command line.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+import multiprocessing
+import os
+import sys
+import time
+from collections.abc import Callable, Sequence
+from concurrent.futures import ProcessPoolExecutor, as_completed
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any, TextIO
+
+from rating.errors import InputError
+
+SUMMARY_CSV = "summary.csv"
+INDEX_HTML = "index.html"
+THREAD_ENV = ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS")
+
+
+# ------------------------------------------------------------------ what one workbook gave
+
+@dataclass(frozen=True)
+class VehicleLine:
+    """The controlling rating of one vehicle on one bridge (values in the bridge's units)."""
+
+    vehicle: str
+    name: str
+    level: str
+    rf: float | None
+    member: str
+    action: str
+    posting: float | None  # safe posting load, display weight unit, whole units
+
+
+@dataclass(frozen=True)
+class BridgeRow:
+    """One workbook of the batch: rated (with its vehicles) or not (with its problems)."""
+
+    workbook: str
+    rated: bool
+    structure: str = ""
+    name: str = ""
+    location: str = ""
+    inspection_date: str = ""
+    weight_unit: str = "ton"
+    vehicles: tuple[VehicleLine, ...] = ()
+    recommendation: str = ""
+    action: str = ""  # "none" | "post" | "close" over the legal loads
+    report: str = ""  # file name in the output folder
+    results_file: str = ""
+    errors: tuple[str, ...] = ()
+    warnings: tuple[str, ...] = ()
+    seconds: float = 0.0
+
+    def lowest_legal(self) -> VehicleLine | None:
+        legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None]
+        return min(legal, key=lambda v: v.rf if v.rf is not None else math.inf, default=None)
+
+
+@dataclass(frozen=True)
+class BatchSummary:
+    folder: Path
+    out_dir: Path
+    rows: tuple[BridgeRow, ...]
+    csv_path: Path
+    index_path: Path
+    seconds: float
+    workers: int
+
+    @property
+    def rated(self) -> tuple[BridgeRow, ...]:
+        return tuple(r for r in self.rows if r.rated)
+
+    @property
+    def failed(self) -> tuple[BridgeRow, ...]:
+        return tuple(r for r in self.rows if not r.rated)
+
+
+@dataclass(frozen=True)
+class _Task:
+    workbook: Path
+    out_dir: Path
+    stem: str
+    vehicle_ids: tuple[str, ...] | None
+    rate: Callable[..., Any] | None = None
+    write: Callable[..., Any] | None = None
+
+
+# ------------------------------------------------------------------ finding the workbooks
+
+def find_workbooks(folder: Path) -> tuple[Path, ...]:
+    """The inspection workbooks (*.xlsx) directly in ``folder``, sorted by name; Excel's
+    lock files (``~$name.xlsx``) and hidden files are skipped."""
+    folder = Path(folder)
+    if not folder.is_dir():
+        raise InputError(f"there is no folder {folder}", where=str(folder))
+    books = [p for p in folder.iterdir()
+             if p.suffix.lower() == ".xlsx" and p.is_file()
+             and not p.name.startswith(("~$", "."))]
+    return tuple(sorted(books, key=lambda p: (p.name.lower(), p.name)))
+
+
+def output_stems(workbooks: Sequence[Path]) -> tuple[str, ...]:
+    """One output stem per workbook, unique even where names differ only in case."""
+    used: set[str] = set()
+    out = []
+    for wb in workbooks:
+        stem, n = wb.stem, 1
+        while stem.lower() in used:
+            n += 1
+            stem = f"{wb.stem}-{n}"
+        used.add(stem.lower())
+        out.append(stem)
+    return tuple(out)
+
+
+# ------------------------------------------------------------------ one workbook (worker)
+
+def _limit_threads() -> None:
+    """Pool initializer: one numeric thread per process (the pool is the parallelism)."""
+    for name in THREAD_ENV:
+        os.environ.setdefault(name, "1")
+
+
+def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
+                      problems: Sequence[Any], seconds: float) -> BridgeRow:
+    from rating.report.display import display_for
+
+    d = display_for(results)
+    vehicles = []
+    for v in results.vehicles:
+        entry = results.posting.get(v.id)
+        rf = entry.rf if entry is not None else None
+        if rf is not None and (math.isnan(rf) or math.isinf(rf)):
+            rf = None
+        posting = None
+        if entry is not None and entry.action == "post" and entry.posting_tons is not None:
+            posting = float(math.floor(d.convert(entry.posting_tons, "weight") + 1e-6))
+        vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
+                                    entry.member if entry is not None else "",
+                                    entry.action if entry is not None else "", posting))
+    legal = [v.action for v in vehicles if v.level == "legal"]
+    action = "close" if "close" in legal else ("post" if "post" in legal else "none")
+    b = results.bridge
+    return BridgeRow(
+        workbook=workbook.name, rated=True, structure=b.id, name=b.name, location=b.location,
+        inspection_date=b.inspection_date or "", weight_unit=d.unit("weight"),
+        vehicles=tuple(vehicles), recommendation=results.recommendation, action=action,
+        report=html.name if html is not None else "", results_file=js.name,
+        errors=(), warnings=tuple(p.format() for p in problems if p.severity != "error"),
+        seconds=seconds)
+
+
+def rate_one(task: _Task) -> BridgeRow:
+    """Rate one workbook and write its report and results; never raises for a bad workbook."""
+    t0 = time.perf_counter()
+    wb = task.workbook
+    try:
+        if task.rate is None or task.write is None:
+            from rating.pipeline import rate_workbook, write_outputs
+        rate = task.rate or rate_workbook
+        write = task.write or write_outputs
+        outcome = rate(wb, list(task.vehicle_ids) if task.vehicle_ids else None)
+        problems = tuple(outcome.problems)
+        if outcome.results is None:
+            errors = tuple(p.format() for p in problems if p.severity == "error")
+            return BridgeRow(
+                workbook=wb.name, rated=False, errors=errors or ("error   not rated",),
+                warnings=tuple(p.format() for p in problems if p.severity != "error"),
+                seconds=time.perf_counter() - t0)
+        html, js = write(outcome.results, task.out_dir, task.stem)
+        return _row_from_results(wb, outcome.results, html, js, problems,
+                                 time.perf_counter() - t0)
+    except OSError as exc:  # unreadable workbook, full disk: recorded, the batch goes on
+        return BridgeRow(workbook=wb.name, rated=False,
+                         errors=(f"error   {wb.name}: could not be read or written: {exc}",),
+                         seconds=time.perf_counter() - t0)
+    except Exception as exc:  # a fault of the program: recorded so the batch goes on
+        return BridgeRow(workbook=wb.name, rated=False,
+                         errors=(f"error   {wb.name}: internal error in pintruss "
+                                 f"({type(exc).__name__}: {exc}); please report it",),
+                         seconds=time.perf_counter() - t0)
+
+
+# ------------------------------------------------------------------ progress on stderr
+
+@dataclass
+class Progress:
+    """A plain-text progress bar: redrawn in place on a terminal, one line per workbook
+    otherwise (log files)."""
+
+    total: int
+    stream: TextIO | None = None
+    width: int = 30
+    done: int = 0
+    failed: int = 0
+    t0: float = field(default_factory=time.perf_counter)
+
+    def update(self, row: BridgeRow) -> None:
+        self.done += 1
+        self.failed += 0 if row.rated else 1
+        s = self.stream
+        if s is None:
+            return
+        elapsed = time.perf_counter() - self.t0
+        if s.isatty():
+            filled = int(self.width * self.done / max(self.total, 1))
+            bar = "#" * filled + "-" * (self.width - filled)
+            note = f", {self.failed} not rated" if self.failed else ""
+            s.write(f"\r[{bar}] {self.done}/{self.total} workbooks{note}, {elapsed:.0f} s ")
+            if self.done == self.total:
+                s.write("\n")
+        else:
+            what = "rated" if row.rated else f"NOT RATED ({len(row.errors)} error(s))"
+            s.write(f"[{self.done:>{len(str(self.total))}}/{self.total}] {row.workbook}: "
+                    f"{what}\n")
+        s.flush()
+
+
+# ------------------------------------------------------------------ the batch
+
+def default_workers() -> int:
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # pragma: no cover - not Linux
+        return max(1, os.cpu_count() or 1)
+
+
+def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
+                vehicle_ids: Sequence[str] | None = None, progress: TextIO | None = None,
+                rate: Callable[..., Any] | None = None,
+                write: Callable[..., Any] | None = None) -> BatchSummary:
+    """Rate every workbook in ``folder`` into ``out_dir`` and write the summary CSV and the
+    HTML index there.
+
+    ``workers``: processes (default: the cores available); 1 rates in this process.
+    ``rate``/``write`` replace :func:`rating.pipeline.rate_workbook` and
+    :func:`rating.pipeline.write_outputs` (module-level functions, for tests).
+    """
+    t0 = time.perf_counter()
+    folder, out_dir = Path(folder), Path(out_dir)
+    books = find_workbooks(folder)
+    if not books:
+        raise InputError(f"no inspection workbooks (*.xlsx) in {folder}", where=str(folder))
+    if out_dir.exists() and not out_dir.is_dir():
+        raise InputError(f"the output folder {out_dir} is a file", where=str(out_dir))
+    stems = output_stems(books)
+    inputs = {p.resolve() for p in books}
+    planned = [out_dir / name for s in stems
+               for name in (f"{s}.rating.html", f"{s}.rating.json")]
+    planned += [out_dir / SUMMARY_CSV, out_dir / INDEX_HTML]
+    for p in planned:
+        if p.resolve() in inputs:
+            raise InputError(f"refusing to write {p}: it is an input workbook", where=str(p))
+    out_dir.mkdir(parents=True, exist_ok=True)
+    vids = tuple(vehicle_ids) if vehicle_ids else None
+    tasks = [_Task(b, out_dir, s, vids, rate, write) for b, s in zip(books, stems, strict=True)]
+    n = min(workers or default_workers(), len(tasks))
+    n = max(n, 1)
+    bar = Progress(len(tasks), progress)
+    rows: dict[str, BridgeRow] = {}
+    if n == 1:
+        for t in tasks:
+            row = rate_one(t)
+            rows[t.workbook.name] = row
+            bar.update(row)
+    else:
+        ctx = multiprocessing.get_context("spawn")
+        with ProcessPoolExecutor(max_workers=n, mp_context=ctx,
+                                 initializer=_limit_threads) as pool:
+            futures = {pool.submit(rate_one, t): t for t in tasks}
+            for fut in as_completed(futures):
+                t = futures[fut]
+                try:
+                    row = fut.result()
+                except Exception as exc:  # a worker died (killed, out of memory)
+                    row = BridgeRow(workbook=t.workbook.name, rated=False, errors=(
+                        f"error   {t.workbook.name}: the rating process failed "
+                        f"({type(exc).__name__}: {exc})",))
+                rows[t.workbook.name] = row
+                bar.update(row)
+    ordered = tuple(rows[b.name] for b in books)
+    from rating.pipeline import write_atomic
+
+    csv_path, index_path = out_dir / SUMMARY_CSV, out_dir / INDEX_HTML
+    write_atomic(csv_path, summary_csv(ordered))
+    summary = BatchSummary(folder, out_dir, ordered, csv_path, index_path,
+                           time.perf_counter() - t0, n)
+    write_atomic(index_path, render_index(summary))
+    return summary
+
+
+# ------------------------------------------------------------------ the summary views
+
+def vehicle_order(rows: Sequence[BridgeRow]) -> tuple[tuple[str, str], ...]:
+    """(id, name) of every vehicle rated in the batch, in order of first appearance."""
+    seen: dict[str, str] = {}
+    for r in rows:
+        for v in r.vehicles:
+            seen.setdefault(v.vehicle, v.name)
+    return tuple(seen.items())
+
+
+def _rf_text(rf: float | None) -> str:
+    """RF rounded down to 2 decimals as in the report; empty when none."""
+    if rf is None or not math.isfinite(rf):
+        return ""
+    return f"{math.floor(rf * 100.0 + 1e-7) / 100.0:.2f}"
+
+
+def _cell(text: str) -> str:
+    """Text cell for a spreadsheet: a leading = + - @ would be read as a formula."""
+    return "'" + text if text[:1] in ("=", "+", "-", "@", "\t", "\r") else text
+
+
+def summary_csv(rows: Sequence[BridgeRow]) -> str:
+    """The summary table as CSV text (UTF-8 with a byte-order mark so spreadsheet programs
+    read the dashes and accents; RF rounded down to 2 decimals; posting loads in each
+    bridge's own weight unit, named in its row)."""
+    vehicles = vehicle_order(rows)
+    head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
+            "weight unit", "lowest legal-load RF", "controlling legal load", "action",
+            "recommendation", "errors", "warnings", "problems", "report", "results"]
+    for vid, _ in vehicles:
+        head += [f"{vid} RF", f"{vid} controlling member", f"{vid} action",
+                 f"{vid} safe posting load"]
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(head)
+    for r in rows:
+        low = r.lowest_legal()
+        line = [_cell(r.workbook), "rated" if r.rated else "not rated", _cell(r.structure),
+                _cell(r.name), _cell(r.location), r.inspection_date,
+                r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
+                _cell(low.vehicle) if low else "", r.action, _cell(r.recommendation),
+                str(len(r.errors)), str(len(r.warnings)),
+                _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
+                                                   if len(r.errors) > 20 else "")),
+                r.report, r.results_file]
+        by_id = {v.vehicle: v for v in r.vehicles}
+        for vid, _ in vehicles:
+            v = by_id.get(vid)
+            if v is None:
+                line += ["", "", "", ""]
+            else:
+                line += [_rf_text(v.rf), _cell(v.member), v.action,
+                         f"{v.posting:g}" if v.posting is not None else ""]
+        w.writerow(line)
+    return "\ufeff" + buf.getvalue()
+
+
+@dataclass(frozen=True)
+class _IndexCell:
+    text: str
+    band: str
+    member: str
+
+
+@dataclass(frozen=True)
+class _IndexRow:
+    row: BridgeRow
+    cells: tuple[_IndexCell, ...]
+    errors_shown: tuple[str, ...]
+    more_errors: int
+
+
+@dataclass(frozen=True)
+class _IndexView:
+    title: str
+    folder: str
+    vehicles: tuple[tuple[str, str], ...]
+    rated: tuple[_IndexRow, ...]
+    failed: tuple[_IndexRow, ...]
+    counts: dict[str, int]
+    footer: str
+    seconds: str
+    workers: int
+
+
+def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
+    """The HTML index of a batch (same look and print rules as the reports)."""
+    from rating.report.html import environment
+    from rating.report.svg import RFBands
+
+    bands = RFBands()
+    vehicles = vehicle_order(summary.rows)
+    rated, failed = [], []
+    for r in summary.rows:
+        by_id = {v.vehicle: v for v in r.vehicles}
+        cells = []
+        for vid, _ in vehicles:
+            v = by_id.get(vid)
+            if v is None:
+                cells.append(_IndexCell("", "", ""))
+            else:
+                cells.append(_IndexCell(_rf_text(v.rf) or "\u2014", bands.band(v.rf).key
+                                        if v.rf is not None else "nr", v.member))
+        item = _IndexRow(r, tuple(cells), r.errors[:max_problems],
+                         max(0, len(r.errors) - max_problems))
+        (rated if r.rated else failed).append(item)
+    counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
+              "post": sum(1 for r in summary.rows if r.action == "post"),
+              "close": sum(1 for r in summary.rows if r.action == "close")}
+    view = _IndexView(
+        title=f"Batch load rating \u2014 {summary.folder.name or summary.folder}",
+        folder=str(summary.folder), vehicles=vehicles, rated=tuple(rated),
+        failed=tuple(failed), counts=counts,
+        footer=f"batch summary of {summary.folder.name} \u2014 recommendations for the "
+        "licensed engineer in responsible charge",
+        seconds=f"{summary.seconds:.1f}", workers=summary.workers)
+    return environment().get_template("index.html.j2").render(v=view, page_size="auto")
+
+
+def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:
+    """A few lines for the terminal after a batch (standard output by default)."""
+    stream = stream if stream is not None else sys.stdout
+    c = len(summary.rated), len(summary.failed)
+    stream.write(f"{c[0]} of {len(summary.rows)} workbook(s) rated, {c[1]} not rated "
+                 f"({summary.seconds:.1f} s on {summary.workers} process(es))\n")
+    for r in summary.failed:
+        stream.write(f"  not rated: {r.workbook}\n")
+        for e in r.errors[:5]:
+            stream.write(f"    {e}\n")
+        if len(r.errors) > 5:
+            stream.write(f"    ... and {len(r.errors) - 5} more (see {INDEX_HTML})\n")
+    stream.write(f"summary: {summary.csv_path}\nindex:   {summary.index_path}\n")
