@@ -435,6 +435,7 @@ def pony_1903_si() -> WorkbookContent:
     built["hole_diameter"] = 20.6
     _add_builtup(sheets, (built, plates, chans))
     sheets["BuiltUp"].append({"section": "VP-1", "connectors": "lacing", "spacing": 280.0,
+                              "snug_tight": "yes",
                               "hole_diameter": 20.6, "holes": 2, "U": 0.8,
                               "note": "four angles laced"})
     a = 64.0

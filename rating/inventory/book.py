@@ -1,17 +1,18 @@
 """Opening an untrusted workbook safely, read-only, as plain grids of cached cell values.
 
-openpyxl parses the XML through defusedxml when it is installed (it is a dependency), and the
-merged-cell ranges are read with defusedxml too. The file is opened for reading only and is
-never written; two read-only passes give the cached values and tell which cells hold a formula
-whose result was never saved.
+openpyxl parses the XML through defusedxml when it is installed (it is a dependency). The
+file is opened for reading only and is never written: openpyxl (read-only, cached values) gives
+the values, and one defusedxml pass over each sheet's XML tells which cells are merged and
+which hold a formula whose result was never saved.
 """
 
 from __future__ import annotations
 
+import io
 import posixpath
 import re
 import zipfile
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 import openpyxl
@@ -32,6 +33,8 @@ class SheetGrid:
     uncached_formulas: dict[tuple[int, int], str]
     merges: tuple[str, ...]
     truncated: bool
+    failure: str = ""  # why the sheet could not be read at all ("" when it could)
+    bad_numbers: dict[tuple[int, int], str] = field(default_factory=dict)
 
     @property
     def row_count(self) -> int:
@@ -91,42 +94,100 @@ def _check_container(path: Path) -> None:
                          "(a damaged or hostile file)", where=str(path))
 
 
-def _merge_ranges(path: Path) -> dict[str, tuple[str, ...]]:
-    """Merged-cell ranges by sheet name, read from the package XML with defusedxml."""
-    out: dict[str, tuple[str, ...]] = {}
-    with zipfile.ZipFile(path) as z:
-        names = set(z.namelist())
-        if "xl/workbook.xml" not in names or "xl/_rels/workbook.xml.rels" not in names:
-            return out
-        wb = SafeET.fromstring(z.read("xl/workbook.xml"))
-        rels = SafeET.fromstring(z.read("xl/_rels/workbook.xml.rels"))
-        targets = {r.get("Id"): r.get("Target", "") for r in rels if r.tag.endswith("Relationship")}
-        for el in wb.iter():
-            if not el.tag.endswith("}sheet"):
-                continue
-            target = targets.get(el.get(f"{{{_NS_REL}}}id"), "")
-            part = target.lstrip("/") if target.startswith("/") else posixpath.normpath(
-                posixpath.join("xl", target))
-            if part not in names:
-                continue
-            refs: list[str] = []
-            with z.open(part) as fh:
-                for _event, node in SafeET.iterparse(fh, events=("end",)):
-                    if node.tag.endswith("}mergeCell") and node.get("ref"):
-                        refs.append(str(node.get("ref")))
-                    elif node.tag.endswith("}row"):
-                        node.clear()
-            out[str(el.get("name"))] = tuple(refs)
+@dataclass(frozen=True)
+class _Extras:
+    merges: tuple[str, ...]
+    uncached: dict[tuple[int, int], str]
+    bad_numbers: dict[tuple[int, int], str]
+
+
+_REF = re.compile(r"^([A-Z]{1,3})(\d+)$")
+_NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
+
+
+def _col_number(letters: str) -> int:
+    n = 0
+    for ch in letters:
+        n = n * 26 + ord(ch) - 64
+    return n
+
+
+_MAYBE_FORMULA_OR_MERGE = re.compile(rb"<(?:\w+:)?f[\s>/]|mergeCell")
+
+
+def _sheet_parts(z: zipfile.ZipFile) -> dict[str, str]:
+    """Sheet name -> its XML part in the package."""
+    names = set(z.namelist())
+    if "xl/workbook.xml" not in names or "xl/_rels/workbook.xml.rels" not in names:
+        return {}
+    wb = SafeET.fromstring(z.read("xl/workbook.xml"))
+    rels = SafeET.fromstring(z.read("xl/_rels/workbook.xml.rels"))
+    targets = {r.get("Id"): r.get("Target", "") for r in rels if r.tag.endswith("Relationship")}
+    out: dict[str, str] = {}
+    for el in wb.iter():
+        if not el.tag.endswith("}sheet"):
+            continue
+        target = targets.get(el.get(f"{{{_NS_REL}}}id"), "")
+        part = target.lstrip("/") if target.startswith("/") else posixpath.normpath(
+            posixpath.join("xl", target))
+        if part in names:
+            out[str(el.get("name"))] = part
     return out
 
 
-def _is_formula(v: object) -> str | None:
-    if isinstance(v, str) and v.startswith("=") and len(v) > 1:
-        return v
-    text = getattr(v, "text", None)  # ArrayFormula / DataTableFormula objects
-    if type(v).__name__.endswith("Formula"):
-        return str(text or "=")
-    return None
+def _scan(data: bytes, max_rows: int) -> _Extras:
+    """Merged ranges, formula cells without a saved result and unreadable numbers of a sheet.
+
+    Parsed with defusedxml (entity expansion and external references are refused). A formula
+    cell is one with an ``<f>`` element; it has no saved result when its ``<v>`` is missing
+    or empty.
+    """
+    refs: list[str] = []
+    uncached: dict[tuple[int, int], str] = {}
+    bad_numbers: dict[tuple[int, int], str] = {}
+    for _event, node in SafeET.iterparse(io.BytesIO(data), events=("end",)):
+        tag = node.tag.rsplit("}", 1)[-1]
+        if tag == "c":
+            f = v = None
+            for child in node:
+                ctag = child.tag.rsplit("}", 1)[-1]
+                if ctag == "f":
+                    f = child
+                elif ctag == "v":
+                    v = child
+            m = _REF.match(node.get("r", ""))
+            if m and int(m.group(2)) <= max_rows:
+                rc = (int(m.group(2)), _col_number(m.group(1)))
+                if f is not None and (v is None or not (v.text or "")):
+                    text = (f.text or "").strip()
+                    uncached[rc] = "=" + text if text else "(a shared formula)"
+                elif (v is not None and v.text and node.get("t", "n") == "n"
+                      and not _NUMBER.match(v.text)):
+                    bad_numbers[rc] = v.text[:40]
+            node.clear()
+        elif tag == "row":
+            node.clear()
+        elif tag == "mergeCell" and node.get("ref"):
+            refs.append(str(node.get("ref")))
+    return _Extras(tuple(refs), uncached, bad_numbers)
+
+
+def _sheet_extras(path: Path, max_rows: int, wanted: set[str],
+                  deep: bool = False) -> dict[str, _Extras]:
+    """:func:`_scan` of every wanted sheet (keys as :func:`_sheet_key`), by sheet name.
+
+    Unless ``deep``, a sheet with no formula and no merge in its XML is not parsed here
+    (openpyxl parses it anyway, through defusedxml).
+    """
+    out: dict[str, _Extras] = {}
+    with zipfile.ZipFile(path) as z:
+        for name, part in _sheet_parts(z).items():
+            if _sheet_key(name) not in wanted:
+                continue
+            data = z.read(part)
+            if deep or _MAYBE_FORMULA_OR_MERGE.search(data):
+                out[name] = _scan(data, max_rows)
+    return out
 
 
 def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
@@ -137,59 +198,59 @@ def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
     path = Path(path)
     _check_container(path)
     try:
+        keys = {_sheet_key(n) for n in wanted}
+        extras = _sheet_extras(path, max_rows, keys)
+    except Exception as exc:  # noqa: BLE001 - untrusted file: any parser failure is the file's
+        raise InputError(f"the workbook cannot be read ({type(exc).__name__}: {exc}); open "
+                         "it in the spreadsheet program and save it again", where=str(path)
+                         ) from exc
+    try:
         values_wb = openpyxl.load_workbook(path, read_only=True, data_only=True)
-        formulas_wb = openpyxl.load_workbook(path, read_only=True, data_only=False)
     except Exception as exc:  # noqa: BLE001 - untrusted file: any parser failure is the file's
         raise InputError(f"the workbook cannot be read ({type(exc).__name__}: {exc}); open "
                          "it in the spreadsheet program and save it again", where=str(path)
                          ) from exc
     try:
         sheet_names = tuple(values_wb.sheetnames)
-        try:
-            merges = _merge_ranges(path)
-        except Exception:  # noqa: BLE001 - merges are advisory; unreadable means none found
-            merges = {}
         book = Book(path, sheet_names, {})
         grids: dict[str, SheetGrid] = {}
         for wanted_name, ncols in wanted.items():
             name = book.find(wanted_name)
             if name is None:
                 continue
-            vs = values_wb[name]
-            fs = formulas_wb[name]
-            if not hasattr(vs, "iter_rows"):  # a chart sheet
+            ws = values_wb[name]
+            if not hasattr(ws, "iter_rows"):  # a chart sheet
                 continue
+            ex = extras.get(name, _Extras((), {}, {}))
+            uncached = {k: v for k, v in ex.uncached.items() if k[1] <= ncols}
             rows: list[tuple[object, ...]] = []
-            uncached: dict[tuple[int, int], str] = {}
             truncated = False
             try:
-                pairs = zip(
-                    vs.iter_rows(min_row=1, max_row=max_rows + 1, max_col=ncols,
-                                 values_only=True),
-                    fs.iter_rows(min_row=1, max_row=max_rows + 1, max_col=ncols,
-                                 values_only=True),
-                    strict=False,
-                )
-                for r, (vrow, frow) in enumerate(pairs, start=1):
+                for r, vrow in enumerate(ws.iter_rows(min_row=1, max_row=max_rows + 1,
+                                                      max_col=ncols, values_only=True),
+                                         start=1):
                     if r > max_rows:
                         truncated = any(v is not None for v in vrow)
                         break
-                    vals = list(vrow) + [None] * (ncols - len(vrow))
-                    for c, fv in enumerate(frow, start=1):
-                        if c <= ncols and vals[c - 1] is None:
-                            f = _is_formula(fv)
-                            if f is not None:
-                                uncached[(r, c)] = f
-                    rows.append(tuple(vals[:ncols]))
-            except Exception as exc:  # noqa: BLE001 - a damaged sheet part
-                raise InputError(f"sheet {name!r} cannot be read ({type(exc).__name__}); "
-                                 "save the workbook again", where=str(path)) from exc
-            while rows and all(v is None for v in rows[-1]) and not any(
-                    k[0] == len(rows) for k in uncached):
+                    vals = tuple(vrow) + (None,) * (ncols - len(vrow))
+                    rows.append(vals[:ncols])
+            except Exception as exc:  # noqa: BLE001 - a damaged sheet part: say so, go on
+                try:
+                    ex = _sheet_extras(path, max_rows, {_sheet_key(name)}, deep=True).get(
+                        name, ex)
+                except Exception:  # noqa: BLE001 - the failure is reported below anyway
+                    pass
+                grids[wanted_name] = SheetGrid(
+                    name, (), {}, ex.merges, False,
+                    failure=f"{type(exc).__name__}: {str(exc)[:80]}",
+                    bad_numbers={k: v for k, v in ex.bad_numbers.items() if k[1] <= ncols})
+                continue
+            last_formula_row = max((k[0] for k in uncached), default=0)
+            while len(rows) > last_formula_row and rows and all(v is None for v in rows[-1]):
                 rows.pop()
-            grids[wanted_name] = SheetGrid(name, tuple(rows), uncached, merges.get(name, ()),
-                                           truncated)
+            while len(rows) < last_formula_row:
+                rows.append((None,) * ncols)
+            grids[wanted_name] = SheetGrid(name, tuple(rows), uncached, ex.merges, truncated)
         return Book(path, sheet_names, grids)
     finally:
         values_wb.close()
-        formulas_wb.close()

@@ -126,6 +126,10 @@ def _listing(items: Iterable[str], limit: int = 12) -> str:
     return shown + (f" and {len(items) - limit} more" if len(items) > limit else "")
 
 
+def _a(noun: str) -> str:
+    return ("an " if noun[:1].lower() in "aeiou" else "a ") + noun
+
+
 def _reverse_label(label: str) -> str | None:
     m = _LABEL_PAIR.match(label)
     return m.group(2) + m.group(1) if m else None
@@ -336,7 +340,7 @@ class _Reading:
                           f"generated truss, not {'-'.join(sorted(e for e in ends if e))}")
             role = _s(r, "role")
             if role and role != m.role.value:
-                log.warning(r.ref("role"), f"member {label} is a {m.role.value} in the "
+                log.warning(r.ref("role"), f"member {label} is {_a(m.role.value)} in the "
                             f"generated truss; the role '{role}' given here is not used")
         missing = [m.label for m in g.members if m.label not in rows]
         if missing and rows:
@@ -518,7 +522,13 @@ class _Reading:
                     log.warning(r.ref("spacing"), f"section {sid} is solid; the connector "
                                 "spacing is not used")
                     spacing = None
-                conn = Connectors(kind, spacing, r_i, _b(r, "snug_tight") is not False)
+                snug = _b(r, "snug_tight")
+                if snug is None and kind is not ConnectorKind.SOLID and "snug_tight" not in r.bad:
+                    self.log.assume(r.ref("snug_tight"), "lacing and batten connectors of "
+                                    "built-up members taken as snug-tight where the workbook "
+                                    "does not say (modified slenderness of Chen (ed.), "
+                                    "Structural Engineering Handbook, 31.9)")
+                conn = Connectors(kind, spacing, r_i, snug is not False)
             elif spacing is not None:
                 log.error(r.ref("connectors"), f"section {sid} gives a connector spacing but "
                           "no connector type (lacing, batten or solid)")
@@ -545,7 +555,7 @@ class _Reading:
                 other = kinds.get(sid)
                 if other == "built-up member":
                     continue  # a repeated BuiltUp id, reported there
-                what = (f"section {sid} is a {other}, not a built-up member" if other
+                what = (f"section {sid} is {_a(other)}, not a built-up member" if other
                         else f"section {sid} is not on the BuiltUp sheet")
                 log.error(pr.ref("section"), f"part {_s(pr, 'part')}: {what}")
 

@@ -112,6 +112,20 @@ def _check_header_units(col: Column, text: str, where: str, si: bool, log: Probl
                   f"{active}; correct the header or the units cell")
 
 
+def unreadable(grid: SheetGrid, log: ProblemLog) -> bool:
+    """Log why a sheet could not be read at all; True when it could not."""
+    if not grid.failure:
+        return False
+    for (r, c), text in sorted(grid.bad_numbers.items()):
+        log.error(ref(grid.name, r, c), f"the cell is stored as a number but holds {text!r}, "
+                  "which is not a number; retype the value (the whole sheet could not be read)")
+    if not grid.bad_numbers:
+        log.error(f"{grid.name}!A1", f"the sheet '{grid.name}' cannot be read "
+                  f"({grid.failure}); open the workbook in the spreadsheet program and save it "
+                  "again")
+    return True
+
+
 def _check_merges(grid: SheetGrid, first_row: int, log: ProblemLog) -> None:
     for rng in grid.merges:
         try:
@@ -170,6 +184,8 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
             log.error(f"{spec.name}!A1", f"the sheet '{spec.name}' ({spec.title.lower()}) is "
                       "missing from the workbook")
         return TableData(spec, spec.name, False, (), {})
+    if unreadable(grid, log):
+        return TableData(spec, grid.name, True, (), {})
     hdr = _find_header_row(grid, spec)
     if hdr is None:
         log.error(ref(grid.name, HEADER_ROW, 1),
@@ -260,6 +276,8 @@ def read_form(book: Book, spec: FormSheet, si: bool | None, log: ProblemLog,
         log.error(f"{spec.name}!A1", f"the sheet '{spec.name}' ({spec.title.lower()}) is "
                   "missing from the workbook")
         return Row(spec.name, 1, {}, {}, frozenset(c.key for c in spec.fields)), bool(si)
+    if unreadable(grid, log):
+        return Row(grid.name, 1, {}, {}, frozenset(c.key for c in spec.fields)), bool(si)
     for rng in grid.merges:
         try:
             c1, r1, c2, r2 = range_boundaries(rng)

@@ -1,0 +1,137 @@
+"""What a clean workbook becomes: the rating.model.Bridge, faithfully and in core units."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from inventory_helpers import check, explicit, fresh
+
+from rating.model import (
+    BuiltUpSection,
+    ConnectorKind,
+    DeadLoadBasis,
+    DeadLoadKind,
+    EyebarSet,
+    FindingRegion,
+    RodEnd,
+    RodSet,
+    RolledShape,
+    SupportKind,
+    VehicleCategory,
+)
+
+
+@pytest.fixture(scope="module")
+def base(tmp_path_factory):
+    r = check(tmp_path_factory.mktemp("base"), fresh())
+    assert r.errors == ()
+    return r.bridge
+
+
+def test_bridge_info_and_cross_section(base) -> None:
+    assert base.info.structure_id == "TEST-1" and base.info.year_built == 1900
+    assert base.info.inspection_date.isoformat() == "2024-06-01"
+    assert base.cross_section.truss_spacing_ft == 16.0
+    assert base.cross_section.curb_left_ft == 1.0  # centred: (16 - 14) / 2
+
+
+def test_generated_geometry_and_stiffness_areas(base) -> None:
+    g = base.geometry
+    assert g.form == "pratt" and g.span_ft == 64.0
+    assert {m.label for m in g.members} == {d.member for d in base.member_designs}
+    # stiffness area = gross area as built: 2 bars 3.5 x 0.875 in (closed form)
+    assert g.member("L0L1").area_in2 == pytest.approx(2 * 3.5 * 0.875)
+    # loop rods: 2 x pi/4 x 1.125^2 (closed form)
+    assert g.member("L1U1").area_in2 == pytest.approx(2 * math.pi / 4 * 1.125**2)
+    assert [d.member for d in base.member_designs] == [m.label for m in g.members]
+
+
+def test_sections_as_given(base) -> None:
+    eb = base.design_of("L0L1").section
+    assert isinstance(eb, EyebarSet) and (eb.count, eb.width_in, eb.thickness_in) == (2, 3.5, 0.875)
+    rod = base.design_of("L1U1").section
+    assert isinstance(rod, RodSet) and rod.end is RodEnd.LOOP
+    tc = base.design_of("U1U2").section
+    assert isinstance(tc, BuiltUpSection) and len(tc.parts) == 6
+    assert tc.connectors.kind is ConnectorKind.LACING and tc.connectors.spacing_in == 14.0
+    assert tc.holes_per_section == 4 and tc.shear_lag_U == 0.85
+    assert isinstance(base.design_of("L2U2").section, RolledShape)
+    assert base.design_of("L0L1").material.F_y == 30.0
+    assert base.design_of("L1U1").material.assumed  # default by year
+
+
+def test_findings_carried_faithfully(base) -> None:
+    f = base.findings_for("L1L2")[0]
+    assert (f.component, f.region, f.station_ft, f.percent_loss, f.condition_rating) == (
+        "bar 2", FindingRegion.BODY, 8.0, 15.0, 5)
+    assert f.where == "Findings!B5"
+    rod = base.findings_for("L1U1")[0]
+    assert rod.component == "bar 1" and rod.region is FindingRegion.THREAD  # "rod 1" named
+
+
+def test_pins_loads_vehicles_settings(base) -> None:
+    pin = base.pins[0]
+    assert pin.joint == "L2" and pin.diameter_in == 3.5 and len(pin.packing) == 10
+    assert pin.packing[0].gap_before_in == 0.0 and pin.packing[1].gap_before_in == 0.0625
+    assert pin.material.F_y == 30.0
+    kinds = {(d.kind, d.basis) for d in base.dead_loads}
+    assert kinds == {(DeadLoadKind.DC, DeadLoadBasis.PSF_DECK),
+                     (DeadLoadKind.DC, DeadLoadBasis.KIP_PER_FLOORBEAM)}
+    v = base.owner_vehicles[0]
+    assert v.category is VehicleCategory.OWNER and v.axle_loads_kip == (12.0, 22.0)
+    assert v.gross_weight_tons == 17.0 and v.spacings[0].min_ft == 14.0
+    assert base.settings.vehicle_ids == ("HL-93", "OWN-1")
+    assert base.settings.detail_allowance == 0.15 and not base.settings.detail_allowance_given
+
+
+def test_settings_percentages_become_fractions(tmp_path) -> None:
+    d = fresh()
+    d["settings"].update(im_override=10.0, detail_allowance=20.0, gamma_ll_override=1.45,
+                         df_override=0.6)
+    d["bridge"].update(adtt=120, riding_surface="smooth", ws_thickness=2.0,
+                       ws_unit_weight=144.0, ws_measured="yes")
+    r = check(tmp_path, d)
+    s = r.bridge.settings
+    assert (s.im_override, s.detail_allowance, s.detail_allowance_given) == (0.1, 0.2, True)
+    assert (s.gamma_ll_override, s.distribution_factor_override) == (1.45, 0.6)
+    assert s.adtt_one_direction == 120 and s.wearing_surface_measured
+    ws = [x for x in r.bridge.dead_loads if x.kind is DeadLoadKind.DW]
+    # 2 in at 144 pcf = 24 psf (closed form)
+    assert len(ws) == 1 and ws[0].intensity == pytest.approx(24.0)
+    assert ws[0].where.startswith("Bridge!B")
+
+
+def test_fractions_tension_only_and_consistent_loss(tmp_path) -> None:
+    d = fresh()
+    d["tables"]["Eyebars"][0]["thickness"] = "7/8"
+    d["tables"]["Members"][11]["tension_only"] = "yes"  # U1L2
+    d["tables"]["Findings"].append({"member": "L3L4", "component": "bar 2",
+                                    "remaining": 0.7, "loss": 20.0})
+    d["tables"]["Vehicles"][0]["gross"] = None
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    assert r.bridge.design_of("L0L1").section.thickness_in == 0.875
+    assert r.bridge.geometry.member("U1L2").tension_only
+    assert r.bridge.owner_vehicles[0].gross_weight_tons == 17.0  # (12 + 22) / 2
+
+
+def test_polygonal_heights(tmp_path) -> None:
+    d = fresh()
+    d["bridge"].update(truss_form="parker", height=None)
+    d["tables"]["Heights"] = [{"point": 1, "height": 16.0}, {"point": 2, "height": 20.0},
+                              {"point": 3, "height": 16.0}]
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    g = r.bridge.geometry
+    assert (g.joint("U1").y_ft, g.joint("U2").y_ft, g.joint("U3").y_ft) == (16.0, 20.0, 16.0)
+
+
+def test_explicit_geometry(tmp_path) -> None:
+    r = check(tmp_path, explicit())
+    assert r.errors == (), [p.format() for p in r.errors]
+    g = r.bridge.geometry
+    assert g.form == "explicit" and g.deck_joints == ("L0", "L1", "L2")
+    assert {(s.joint, s.kind) for s in g.supports} == {("L0", SupportKind.PIN),
+                                                       ("L2", SupportKind.ROLLER)}
+    assert g.member("L1U1").tension_only and not g.member("L0L1").tension_only
