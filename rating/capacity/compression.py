@@ -76,7 +76,7 @@ def effective_length_factor(end_condition: str = "pinned", *, K_pinned: float = 
 def modified_slenderness(KL_r_o, a_in, r_i_in):
     """(KL/r)_m = sqrt((KL/r)_o^2 + (a/r_i)^2), built-up member with snug-tight connectors.
 
-    Chen (ed.), Structural Engineering Handbook, Sec. 31.9. [read]
+    Chen (ed.), Structural Engineering Handbook, Sec. 31.9. [V]
     """
     return np.sqrt(np.asarray(KL_r_o, dtype=float) ** 2 + (np.asarray(a_in) / r_i_in) ** 2)
 
@@ -139,7 +139,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                        limit_secondary: float = 140.0) -> CompressionResult:
     """Flexural buckling of the member at its governing location, or zero if tension-only.
 
-    AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [read].
+    AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [V].
 
     Args:
         K: effective length factor. length_ft: panel-point to panel-point length, ft.

@@ -84,7 +84,7 @@ def system_factor_row(section: Section, carrying_count: int) -> str:
 def combined_factor(phi_c: float, phi_s: float, floor: float | None = None) -> float:
     """phi_c x phi_s, not less than 0.85.
 
-    Khan 2010, p. 187: phi_c phi_s >= 0.85. [read]
+    Khan 2010, p. 187: phi_c phi_s >= 0.85. [V]
     """
     lo = factor_tables()["product_floor"]["value"] if floor is None else floor
     return max(phi_c * phi_s, lo)
@@ -104,7 +104,7 @@ class MemberFactors:
 
     @property
     def phi_cs(self) -> float:
-        """phi_c phi_s with the 0.85 floor applied (Khan 2010, p. 187) [read]."""
+        """phi_c phi_s with the 0.85 floor applied (Khan 2010, p. 187) [V]."""
         return max(self.phi_c * self.phi_s, self.floor)
 
     @property
@@ -137,7 +137,7 @@ def member_factors(design: MemberDesign, findings: Sequence[Finding], carrying_c
                    *, floor: float | None = None) -> MemberFactors:
     """phi_c from the member's findings (or owner), phi_s from its section (or owner).
 
-    MBE Tables 6A.4.2.3-1 and 6A.4.2.4-1 [value from memory]; floor Khan 2010 p. 187 [read].
+    MBE Tables 6A.4.2.3-1 and 6A.4.2.4-1 [value from memory]; floor Khan 2010 p. 187 [V].
     """
     tabs = factor_tables()
     lo = tabs["product_floor"]["value"] if floor is None else floor

@@ -70,7 +70,7 @@ class MemberCapacity:
 
     @property
     def phi_cs(self) -> float:
-        """phi_c phi_s with the floor applied (Khan 2010, p. 187) [read]."""
+        """phi_c phi_s with the floor applied (Khan 2010, p. 187) [V]."""
         return max(self.phi_c * self.phi_s, self.phi_cs_floor)
 
     def checks_in(self, sense: Sense | str) -> tuple[Check, ...]:
@@ -85,7 +85,7 @@ class MemberCapacity:
     def factored_resistance(self, sense: Sense | str) -> float:
         """C = phi_c phi_s phi R_n of the governing check, kip.
 
-        MBE 6A.4.2.1, Eq. 6A.4.2.1-2 with phi_c phi_s >= 0.85 (Khan 2010, p. 187) [read].
+        MBE 6A.4.2.1, Eq. 6A.4.2.1-2 with phi_c phi_s >= 0.85 (Khan 2010, p. 187) [V].
         """
         g = self.governing(sense)
         return 0.0 if g is None else self.phi_cs * g.phi_R_n_kip
@@ -120,7 +120,7 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                     phi_cs_floor: float | None = None) -> MemberCapacity:
     """Resistances of one member after the recorded section loss, with phi_c and phi_s.
 
-    AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [read].
+    AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [V].
 
     Args:
         design: section and material; ``design.K`` overrides the effective length factor.

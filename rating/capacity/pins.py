@@ -1,6 +1,6 @@
 """Pins: moment and shear from the packing, combined flexure and shear, bearing of each plate.
 
-Loading method (Berg, Safe Building, "Rivets, Riveting and Pins", Parts 10-15 [read]): each
+Loading method (Berg, Safe Building, "Rivets, Riveting and Pins", Parts 10-15 [V]): each
 member's force is shared over its plates on the pin in proportion to their thickness and acts
 at each plate's mid-thickness, square to the pin, directed along the member (tension pulls the
 pin toward the member's far end). The pin is a beam loaded by those forces; horizontal and
@@ -46,7 +46,7 @@ GAMMA_M0 = 1.00
 GAMMA_M2 = 1.25
 """Partial factor gamma_M2, EN 1993-1-8 Table 2.1 (recommended value). [value from memory]"""
 FIT_CLEARANCE_IN = 1.0 / 32.0
-"""Hole not more than the pin + 1/32 in, AISC LRFD 1999 D3.2. [read]"""
+"""Hole not more than the pin + 1/32 in, AISC LRFD 1999 D3.2. [V]"""
 FLOORBEAM = "floorbeam"
 
 
@@ -71,7 +71,7 @@ def lrfd_bearing_nominal(t, D, F_y):
 def en_moment_resistance(D, f_yp, gamma_M0: float = GAMMA_M0):
     """M_Rd = 1.5 W_el f_yp / gamma_M0 with W_el = pi D^3 / 32, kip-in.
 
-    EN 1993-1-8 Table 3.10, bending resistance of the pin. [read]
+    EN 1993-1-8 Table 3.10, bending resistance of the pin. [V]
     """
     return 1.5 * (math.pi * D**3 / 32.0) * f_yp / gamma_M0
 
@@ -79,7 +79,7 @@ def en_moment_resistance(D, f_yp, gamma_M0: float = GAMMA_M0):
 def en_shear_resistance(D, f_up, gamma_M2: float = GAMMA_M2):
     """F_v,Rd = 0.6 A f_up / gamma_M2 with A = pi D^2 / 4 (one shear plane), kip.
 
-    EN 1993-1-8 Table 3.10, shear resistance of the pin. [read]
+    EN 1993-1-8 Table 3.10, shear resistance of the pin. [V]
     """
     return 0.6 * (math.pi * D**2 / 4.0) * f_up / gamma_M2
 
@@ -87,7 +87,7 @@ def en_shear_resistance(D, f_up, gamma_M2: float = GAMMA_M2):
 def en_bearing_resistance(t, D, f_y, gamma_M0: float = GAMMA_M0):
     """F_b,Rd = 1.5 t d f_y / gamma_M0 (f_y the lower of plate and pin), kip.
 
-    EN 1993-1-8 Table 3.10, bearing resistance of the plate and the pin. [read]
+    EN 1993-1-8 Table 3.10, bearing resistance of the plate and the pin. [V]
     """
     return 1.5 * np.asarray(t, dtype=float) * D * f_y / gamma_M0
 
@@ -95,7 +95,7 @@ def en_bearing_resistance(t, D, f_y, gamma_M0: float = GAMMA_M0):
 def en_interaction(M, V, M_Rd, F_v_Rd):
     """(M_Ed/M_Rd)^2 + (F_v,Ed/F_v,Rd)^2 <= 1 (vectorised).
 
-    EN 1993-1-8 Table 3.10, combined bending and shear of the pin. [read]
+    EN 1993-1-8 Table 3.10, combined bending and shear of the pin. [V]
     """
     return (np.asarray(M, dtype=float) / M_Rd) ** 2 + (np.asarray(V, dtype=float) / F_v_Rd) ** 2
 
@@ -189,8 +189,8 @@ class PinCheck:
     warnings: tuple[str, ...]
     assumptions: tuple[str, ...]
     provision: str = ("AASHTO LRFD 6.7.6.2.1 and 6.7.6.2.2 [value from memory]; loading Berg, "
-                      "Safe Building, Parts 10-15 [read]; cross-check EN 1993-1-8 Table 3.10 "
-                      "[read]")
+                      "Safe Building, Parts 10-15 [V]; cross-check EN 1993-1-8 Table 3.10 "
+                      "[V]")
 
     @property
     def M_u_kip_in(self) -> float:
@@ -311,7 +311,7 @@ def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, Mem
                 warnings: list[str], max_clearance_in: float) -> None:
     """Pin against the eyebar holes and bar counts.
 
-    AISC LRFD 1999 D3.2: hole <= pin + 1/32 in; pin >= 7/8 of the body width. [read]
+    AISC LRFD 1999 D3.2: hole <= pin + 1/32 in; pin >= 7/8 of the body width. [V]
     """
     j, D = pin.joint, pin.diameter_in
     for n in dict.fromkeys(i for i in items if i is not None):
@@ -405,7 +405,7 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
               equilibrium_tolerance: float = 1e-3) -> PinCheck:
     """Moment, shear and bearing of a pin under the concurrent member forces of ONE load state.
 
-    AASHTO LRFD 6.7.6.2.1-1 and 6.7.6.2.2-2 [value from memory]; loading Berg Parts 10-15 [read].
+    AASHTO LRFD 6.7.6.2.1-1 and 6.7.6.2.2-2 [value from memory]; loading Berg Parts 10-15 [V].
 
     Args:
         pin: diameter, packing (order, thicknesses, gaps) and material.
@@ -426,7 +426,8 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
         f"pin at joint {pin.joint}: the rating uses AASHTO LRFD 6.7.6.2.1 (flexure and shear, "
         f"limit {limit:g}) and 6.7.6.2.2 (bearing); EN 1993-1-8 Table 3.10 is shown as a "
         f"cross-check only (gamma_M0 = {gamma_M0:g}, gamma_M2 = {gamma_M2:g}, recommended "
-        "values from memory)",
+        "values from memory; its combined bending-shear criterion, written for replaceable "
+        "pins, is applied to every pin)",
     ]
     mat = _material(pin, default_pin_material, assumptions)
     D, Fy, Fu = float(pin.diameter_in), mat.F_y, mat.F_u

@@ -666,8 +666,7 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
                        length_ft: float | None = None, where: str = "") -> SectionReport:
     """Properties of the section as built and at every location of the loss findings.
 
-    Closed-form section properties (rectangles, parallel-axis theorem); loss as recorded per
-    issue 4 item 4. [common practice]
+    Closed-form section properties (rectangles, parallel-axis theorem). [common practice]
     """
     validate_section(section, member, where)
     warnings: list[str] = []

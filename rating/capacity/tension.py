@@ -32,7 +32,7 @@ SECONDARY_ROLES = frozenset({MemberRole.SUB_STRUT, MemberRole.SUB_TIE})
 def yielding_nominal(A_g, F_y):
     """Nominal tensile yielding on the gross section, P_ny = F_y A_g, kip.
 
-    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-1 [value from memory]; SSDH Section 13, Eq. 13.11 [read].
+    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-1 [value from memory]; SSDH Section 13, Eq. 13.11 [V].
     """
     return F_y * A_g
 
@@ -40,7 +40,7 @@ def yielding_nominal(A_g, F_y):
 def fracture_nominal(A_n, F_u, U=1.0):
     """Nominal tensile fracture on the net section, P_nu = F_u A_n U, kip.
 
-    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-2 [value from memory]; SSDH Section 13, Eq. 13.12 [read].
+    AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-2 [value from memory]; SSDH Section 13, Eq. 13.12 [V].
     """
     return F_u * A_n * U
 
@@ -48,7 +48,7 @@ def fracture_nominal(A_n, F_u, U=1.0):
 def pin_plate_effective_width_in(t, edge_in):
     """Effective width b_eff = 2t + 0.63 in, not more than the hole-to-edge distance, in.
 
-    AISC LRFD 1999 D3.1(a), b_eff definition. [read]
+    AISC LRFD 1999 D3.1(a), b_eff definition. [V]
     """
     return np.minimum(2.0 * np.asarray(t, dtype=float) + B_EFF_ADD_IN, edge_in)
 
@@ -56,7 +56,7 @@ def pin_plate_effective_width_in(t, edge_in):
 def pin_plate_tension_nominal(t, edge_in, F_u):
     """Tension on the net effective area of a pin-connected plate, P_n = 2 t b_eff F_u, kip.
 
-    AISC LRFD 1999 D3.1(a), Eq. D3-1. [read]
+    AISC LRFD 1999 D3.1(a), Eq. D3-1. [V]
     """
     return 2.0 * np.asarray(t, dtype=float) * pin_plate_effective_width_in(t, edge_in) * F_u
 
@@ -64,7 +64,7 @@ def pin_plate_tension_nominal(t, edge_in, F_u):
 def pin_plate_shear_nominal(t, a_in, d_hole_in, F_u):
     """Shear on the effective area beyond the hole, P_n = 0.6 A_sf F_u, A_sf = 2 t (a + d/2).
 
-    AISC LRFD 1999 D3.1(b), Eq. D3-2. [read]
+    AISC LRFD 1999 D3.1(b), Eq. D3-2. [V]
     """
     A_sf = 2.0 * np.asarray(t, dtype=float) * (a_in + d_hole_in / 2.0)
     return 0.6 * A_sf * F_u
@@ -100,7 +100,7 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
                    slenderness_limit_secondary: float = 240.0) -> TensionResult:
     """Every tension check of the member at its governing location.
 
-    AASHTO LRFD 6.8.2.1 (phi_y 0.95, phi_u 0.80) [value from memory]; AISC LRFD 1999 D3 [read].
+    AASHTO LRFD 6.8.2.1 (phi_y 0.95, phi_u 0.80) [value from memory]; AISC LRFD 1999 D3 [V].
 
     Args:
         report: section as built and at every location (``section_properties``).
@@ -109,9 +109,9 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             1999 D3 (conservative for heads that meet the eyebar proportions); False checks
             the head net section through the hole by LRFD 6.8.2.1 fracture instead.
         head_ratio_min: least head net section through the hole / body area (Waddell 1898,
-            p. 176: 50% more than the body) [read].
+            p. 176: 50% more than the body) [V].
         beyond_ratio_min: least section beyond the hole / section through the hole (Waddell
-            1898, p. 176: 65%) [read].
+            1898, p. 176: 65%) [V].
         slenderness_limit, slenderness_limit_secondary: L/r limits of tension members other
             than eyebars and rods, primary / secondary (AASHTO LRFD 6.8.4) [value from memory].
     """
@@ -122,9 +122,9 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
     assumptions: list[str] = []
     checks: list[Check] = []
     yield_prov = ("AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-1 [value from memory]; SSDH Section 13, "
-                  "Eq. 13.11 [read]")
+                  "Eq. 13.11 [V]")
     frac_prov = ("AASHTO LRFD 6.8.2.1, Eq. 6.8.2.1-2 [value from memory]; SSDH Section 13, "
-                 "Eq. 13.12 [read]")
+                 "Eq. 13.12 [V]")
     if report.carrying_count == 0:
         warnings.append(f"member {m}: no bar or part is left carrying load; its tensile "
                         "resistance is zero")
@@ -133,7 +133,7 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
         head = _in({None, FindingRegion.HEAD}, T)
         checks.append(_governing(
             "eyebar body yielding", phi_y, yield_prov + "; body as A_g, AISC LRFD 1999 D3.2 "
-            "[read]", body,
+            "[V]", body,
             lambda s: float(yielding_nominal(sum(b.body_area_in2 for b in s.eyebars), Fy)),
             lambda s: f"{len(s.eyebars)} bars, A_body = "
                       f"{sum(b.body_area_in2 for b in s.eyebars):.3f} in2, F_y = {Fy:g} ksi"))
@@ -148,7 +148,7 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
         if head_as_pin_plate:
             checks.append(_governing(
                 "eyebar head, tension through the pin hole (pin-plate form)", phi_pin_plate,
-                "AISC LRFD 1999 D3.1(a), Eq. D3-1 [read]; phi 0.75 [value from memory]", head,
+                "AISC LRFD 1999 D3.1(a), Eq. D3-1 [V]; phi 0.75 [value from memory]", head,
                 lambda s: float(np.sum(pin_plate_tension_nominal(
                     _arr(s, "head_thickness_in"), _arr(s, "side_edge_in"), Fu))),
                 lambda s: f"{len(s.eyebars)} heads, t_h = "
@@ -164,7 +164,7 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
                 lambda s: f"A_n (head through hole) = {s.A_n_in2:.3f} in2, F_u = {Fu:g} ksi"))
         checks.append(_governing(
             "eyebar head, shear beyond the pin hole", phi_pin_plate,
-            "AISC LRFD 1999 D3.1(b), Eq. D3-2 [read]; phi 0.75 [value from memory]", head,
+            "AISC LRFD 1999 D3.1(b), Eq. D3-2 [V]; phi 0.75 [value from memory]", head,
             lambda s: float(np.sum(pin_plate_shear_nominal(
                 _arr(s, "head_thickness_in"), _arr(s, "beyond_hole_in"),
                 _arr(s, "hole_diameter_in"), Fu))),
@@ -214,7 +214,7 @@ def _eyebar_proportions(report: SectionReport, head_ratio_min: float,
                         beyond_ratio_min: float) -> list[str]:
     """Period head proportions, as built.
 
-    Waddell, De Pontibus, 1898, p. 176 [read]; AISC LRFD 1999 D3.2 dimensions [read].
+    Waddell, De Pontibus, 1898, p. 176 [V]; AISC LRFD 1999 D3.2 dimensions [V].
     """
     out: list[str] = []
     m = report.member

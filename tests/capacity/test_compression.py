@@ -1,6 +1,6 @@
 """Compression: the LRFD curve against AISC 360-16 E3, hand values, K, built-up members, Q.
 
-AISC 360-16 E3 (Eqs. E3-2 to E3-4) is the same column curve with phi = 0.90 [read, form];
+AISC 360-16 E3 (Eqs. E3-2 to E3-4) is the same column curve with phi = 0.90 [V, form];
 AASHTO LRFD 6.9.4.1.1 uses phi_c = 0.95 [value from memory].
 """
 
@@ -39,7 +39,7 @@ E, FY, AG = 29000.0, 36.0, 10.0
 
 
 def aisc_360_16_e3_Fcr(KL_r: float, F_y: float, E: float) -> float:
-    """AISC 360-16 Eqs. E3-2 to E3-4, written out here independently. [read, form]"""
+    """AISC 360-16 Eqs. E3-2 to E3-4, written out here independently. [V, form]"""
     Fe = math.pi**2 * E / KL_r**2
     if KL_r <= 4.71 * math.sqrt(E / F_y):
         return 0.658 ** (F_y / Fe) * F_y
@@ -48,7 +48,7 @@ def aisc_360_16_e3_Fcr(KL_r: float, F_y: float, E: float) -> float:
 
 @pytest.mark.parametrize("KL_r", [10.0, 25.0, 50.0, 80.0, 100.0, 120.0, 150.0, 200.0, 250.0])
 def test_curve_matches_aisc_360_16_e3(KL_r):
-    # AISC 360-16 E3 [read]: phi_c P_n = 0.90 F_cr A_g; ours 0.95 P_n: ratio 0.95/0.90 exactly
+    # AISC 360-16 E3 [V]: phi_c P_n = 0.90 F_cr A_g; ours 0.95 P_n: ratio 0.95/0.90 exactly
     ours = 0.95 * nominal_compressive_resistance(AG, FY, E, KL_r)
     aisc = 0.90 * aisc_360_16_e3_Fcr(KL_r, FY, E) * AG
     assert ours / aisc == pytest.approx(0.95 / 0.90, rel=1e-12)
@@ -57,7 +57,7 @@ def test_curve_matches_aisc_360_16_e3(KL_r):
 def test_curve_near_the_transition():
     # LRFD switches at P_e/P_o = 0.44 (P_o/P_e 2.273), AISC at 4.71 sqrt(E/F_y) (F_y/F_e 2.248):
     # in between the two branches differ by less than 0.2% (0.658^2.25 = 0.3900 vs
-    # 0.877/2.25 = 0.3898) -- AISC 360-16 E3 [read] vs AASHTO LRFD 6.9.4.1.1 [value from memory]
+    # 0.877/2.25 = 0.3898) -- AISC 360-16 E3 [V] vs AASHTO LRFD 6.9.4.1.1 [value from memory]
     KL_r = 134.0  # F_y/F_e = 2.258, inside the band
     ours = nominal_compressive_resistance(AG, FY, E, KL_r)
     aisc = aisc_360_16_e3_Fcr(KL_r, FY, E) * AG
@@ -92,7 +92,7 @@ def test_effective_length_factors():
 
 
 def test_modified_slenderness_chen():
-    # Chen, Structural Engineering Handbook, Sec. 31.9 [read]: sqrt(60^2 + (24/0.8)^2) = 67.08
+    # Chen, Structural Engineering Handbook, Sec. 31.9 [V]: sqrt(60^2 + (24/0.8)^2) = 67.08
     assert modified_slenderness(60.0, 24.0, 0.8) == pytest.approx(math.sqrt(3600 + 900))
 
 
@@ -126,7 +126,7 @@ def test_builtup_post_modified_slenderness_governs_out_of_plane():
     c = run(POST)
     r = section_properties(POST, member="M").tension[0]
     klr_x = 0.875 * 288 / r.r_x_in
-    klr_y = math.hypot(0.875 * 288 / r.r_y_in, 16.0 / r.r_i_in)  # Chen Sec. 31.9 [read]
+    klr_y = math.hypot(0.875 * 288 / r.r_y_in, 16.0 / r.r_i_in)  # Chen Sec. 31.9 [V]
     assert c.KL_r == pytest.approx(max(klr_x, klr_y))
     (chk,) = c.checks
     assert chk.R_n_kip == pytest.approx(nominal_compressive_resistance(

@@ -68,7 +68,7 @@ def test_system_factor_table_and_mapping():
 
 
 def test_product_floor():
-    # Khan 2010, p. 187 [read]: phi_c phi_s >= 0.85
+    # Khan 2010, p. 187 [V]: phi_c phi_s >= 0.85
     assert combined_factor(0.85, 0.85) == 0.85
     assert combined_factor(1.0, 0.9) == pytest.approx(0.9)
 

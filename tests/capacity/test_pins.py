@@ -1,7 +1,7 @@
 """Pins: packing statics (closed forms and an anaStruct beam model), the LRFD interaction,
 the EN 1993-1-8 Table 3.10 cross-check, the load multiplier, and bad input.
 
-Loading method: Berg, Safe Building, "Rivets, Riveting and Pins", Parts 10-15 [read] -- each
+Loading method: Berg, Safe Building, "Rivets, Riveting and Pins", Parts 10-15 [V] -- each
 bar's force at its mid-thickness, components taken separately and combined.
 """
 
@@ -52,7 +52,7 @@ def clevis(a: float, b: float, c: float, D: float = 4.0) -> Pin:
 
 
 def test_clevis_against_en_1993_1_8_closed_form():
-    # EN 1993-1-8 3.13.2, Table 3.10 [read]: M_Ed = F_Ed (b + 4c + 2a)/8 for the inner plate's
+    # EN 1993-1-8 3.13.2, Table 3.10 [V]: M_Ed = F_Ed (b + 4c + 2a)/8 for the inner plate's
     # load spread over its thickness. Berg's loading puts it at mid-thickness, which adds
     # F b / 8 (closed form): M = F/2 (a/2 + c + b/2) = F (2a + 4c + 2b)/8.
     a, b, c, F = 1.0, 2.0, 0.25, 100.0
@@ -166,7 +166,7 @@ def test_interaction_lrfd_and_en_values():
     assert lrfd_flexure_shear(200.0, 60.0, D, Fy) == pytest.approx(0.625 + 0.275**3)
     # LRFD 6.7.6.2.2 [value from memory]: 1.5 t D F_y = 1.5 x 1.25 x 4 x 30 = 225
     assert lrfd_bearing_nominal(1.25, D, Fy) == pytest.approx(225.0)
-    # EN 1993-1-8 Table 3.10 [read], gamma_M0 1.00, gamma_M2 1.25 [value from memory]:
+    # EN 1993-1-8 Table 3.10 [V], gamma_M0 1.00, gamma_M2 1.25 [value from memory]:
     # M_Rd = 1.5 (pi 64/32) 30 = 282.74; F_v,Rd = 0.6 (pi 16/4) 60/1.25 = 361.91;
     # F_b,Rd = 1.5 x 1.25 x 4 x 30 = 225
     M_Rd, Fv = en_moment_resistance(D, Fy), en_shear_resistance(D, Fu)
@@ -293,7 +293,7 @@ def test_pin_and_hole_fit():
     with pytest.raises(InputError, match="smaller than the pin hole of member A"):
         pin_check(clevis(1.0, 2.0, 0.25, D=3.5), acts, designs=designs)
     worn = pin_check(clevis(1.0, 2.0, 0.25, D=3.9), acts, designs=designs)
-    assert any("1/32" in w for w in worn.warnings)  # AISC LRFD 1999 D3.2 [read]
+    assert any("1/32" in w for w in worn.warnings)  # AISC LRFD 1999 D3.2 [V]
     weak = {k: MemberDesign(k, v.section, Material(MaterialKind.WROUGHT_IRON, 24.0, 48.0))
             for k, v in designs.items()}
     r = pin_check(clevis(1.0, 2.0, 0.25, D=4.0), acts, designs=weak)

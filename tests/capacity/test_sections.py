@@ -117,7 +117,7 @@ def test_eyebar_areas_and_head_loss_location():
 
 
 def test_body_width_limited_to_8t():
-    # AISC LRFD 1999 D3.2 [read]: body width taken not more than 8 t in calculation
+    # AISC LRFD 1999 D3.2 [V]: body width taken not more than 8 t in calculation
     r = section_properties(EyebarSet(1, 8.0, 0.75, 16, 6.03), member="M")
     assert r.tension[0].A_g_in2 == pytest.approx(6.0 * 0.75)
     assert any("8 t" in w for w in r.warnings)

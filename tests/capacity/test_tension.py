@@ -47,19 +47,19 @@ def by_name(result, word):
 
 def test_lrfd_yield_and_fracture_forms():
     # AASHTO LRFD 6.8.2.1, Eqs. 6.8.2.1-1/-2 [value from memory]; SSDH Sec. 13, Eqs. 13.11-13.12
-    # [read]: P_ny = F_y A_g = 36 x 10 = 360; P_nu = F_u A_n U = 58 x 8.5 x 0.85 = 419.05
+    # [V]: P_ny = F_y A_g = 36 x 10 = 360; P_nu = F_u A_n U = 58 x 8.5 x 0.85 = 419.05
     assert yielding_nominal(10.0, 36.0) == pytest.approx(360.0)
     assert fracture_nominal(8.5, 58.0, 0.85) == pytest.approx(419.05)
 
 
 def test_aisc_1999_d3_pin_plate_forms():
-    # AISC LRFD 1999 D3.1(a) [read]: b_eff = 2t + 0.63 <= edge; P_n = 2 t b_eff F_u
+    # AISC LRFD 1999 D3.1(a) [V]: b_eff = 2t + 0.63 <= edge; P_n = 2 t b_eff F_u
     # t = 1, edge 4.5: b_eff = 2.63, P_n = 2 x 1 x 2.63 x 58 = 305.08
     assert pin_plate_effective_width_in(1.0, 4.5) == pytest.approx(2.63)
     assert pin_plate_tension_nominal(1.0, 4.5, 58.0) == pytest.approx(305.08)
     # t = 2, edge 3.0: 2t + 0.63 = 4.63 > 3.0, so b_eff = 3.0; P_n = 2 x 2 x 3 x 58 = 696
     assert pin_plate_tension_nominal(2.0, 3.0, 58.0) == pytest.approx(696.0)
-    # AISC LRFD 1999 D3.1(b) [read]: A_sf = 2 t (a + d/2) = 2 x 1 x (4.5 + 2.5) = 14;
+    # AISC LRFD 1999 D3.1(b) [V]: A_sf = 2 t (a + d/2) = 2 x 1 x (4.5 + 2.5) = 14;
     # P_n = 0.6 A_sf F_u = 0.6 x 14 x 58 = 487.2
     assert pin_plate_shear_nominal(1.0, 4.5, 5.0, 58.0) == pytest.approx(487.2)
 
@@ -95,7 +95,7 @@ def test_eyebar_head_loss_governs_at_its_location():
 
 
 def test_waddell_head_proportions():
-    # Waddell, De Pontibus 1898, p. 176 [read]: through the hole >= 1.5 x body;
+    # Waddell, De Pontibus 1898, p. 176 [V]: through the hole >= 1.5 x body;
     # beyond the hole >= 0.65 x through the hole
     small = checks(EyebarSet(1, 6.0, 1.0, 12.0, 5.03))  # (12 - 5.03)/6 = 1.16 < 1.5
     assert any("1.16 x the body" in w for w in small.warnings)
@@ -127,7 +127,7 @@ def test_rods_threaded_upset_loop():
     assert by_name(ups, "upset end").R_n_kip == pytest.approx(52.0 * math.pi * 0.75**2)
     loop = checks(RodSet(1, 1.25, RodEnd.LOOP))
     flagged = section_properties(RodSet(1, 1.25, RodEnd.LOOP), member="M").warnings
-    assert any("VTRC 11-R13" in w for w in flagged)  # forge-welded loops flagged [read]
+    assert any("VTRC 11-R13" in w for w in flagged)  # forge-welded loops flagged [V]
     assert by_name(loop, "forge line").phi == 0.80
 
 
