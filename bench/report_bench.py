@@ -1,0 +1,182 @@
+"""Benchmarks of the report and the batch (not tests; results go in bench/README.md).
+
+1. One workbook to its report, wall time of ``python -m rating.cli rate`` in a fresh
+   interpreter (interpreter start and imports included), median of several runs, and the
+   same chain timed stage by stage in one process. Target: under 1.5 s.
+2. Batch throughput: a generated folder of N workbooks (copies of the bundled samples,
+   round-robin) rated by ``python -m rating.cli batch --workers W``. Target: at least
+   1,000 bridges per minute on 2 cores.
+
+Run from the repository root:
+    python bench/report_bench.py                 # both, 200 workbooks, 2 workers
+    python bench/report_bench.py --count 40      # a quicker batch
+    python bench/report_bench.py --only single
+    python bench/report_bench.py --only stand-in   # batch machinery + report, no engine
+Outputs go to a temporary folder (or --keep DIR); nothing is written into the checkout.
+"""
+
+from __future__ import annotations
+
+import argparse
+import functools
+import os
+import platform
+import shutil
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+REPO = Path(__file__).resolve().parents[1]
+SAMPLES = REPO / "sample_inventory"
+
+
+def sample_workbooks() -> list[Path]:
+    books = sorted(p for p in SAMPLES.glob("*.xlsx") if not p.name.startswith("~$"))
+    if not books:
+        sys.exit("no sample workbooks in sample_inventory/ (run sample_inventory/make_samples.py)")
+    return books
+
+
+def single(runs: int, work: Path) -> None:
+    books = sample_workbooks()
+    print(f"== one workbook to report ({runs} runs each, fresh interpreter) ==")
+    for book in books:
+        times, codes = [], set()
+        for k in range(runs):
+            out = work / f"single-{book.stem}-{k}"
+            t0 = time.perf_counter()
+            proc = subprocess.run([sys.executable, "-m", "rating.cli", "rate", str(book),
+                                   "--out", str(out)], capture_output=True, text=True,
+                                  cwd=REPO)
+            times.append(time.perf_counter() - t0)
+            codes.add(proc.returncode)
+        status = "rated" if codes == {0} else f"NOT RATED (exit {sorted(codes)})"
+        print(f"{book.name:<32} median {statistics.median(times):6.2f} s  "
+              f"min {min(times):6.2f} s  {status}")
+    stages(books[0])
+
+
+def stages(book: Path) -> None:
+    """The chain of one workbook timed stage by stage in this process (after imports)."""
+    t0 = time.perf_counter()
+    from rating.inventory.reader import read_workbook
+    from rating.lrfr.engine import rate_bridge
+    from rating.report.html import render_report
+    from rating.results import results_json
+    from rating.results_build import build_results
+
+    t_import = time.perf_counter() - t0
+    t = time.perf_counter()
+    reading = read_workbook(book)
+    t_read = time.perf_counter() - t
+    print(f"stages for {book.name}: imports {t_import:.2f} s, read {t_read:.2f} s", end="")
+    if reading.bridge is None or reading.errors:
+        print(" (workbook has errors: not rated)")
+        return
+    t = time.perf_counter()
+    try:
+        rating = rate_bridge(reading.bridge, None)
+    except Exception as exc:  # a benchmark reports, it does not stop
+        print(f", rate failed after {time.perf_counter() - t:.2f} s: {exc}")
+        return
+    t_rate = time.perf_counter() - t
+    t = time.perf_counter()
+    results = build_results(rating)
+    t_build = time.perf_counter() - t
+    t = time.perf_counter()
+    html = render_report(results)
+    t_html = time.perf_counter() - t
+    t = time.perf_counter()
+    js = results_json(results)
+    t_json = time.perf_counter() - t
+    print(f", rate {t_rate:.2f} s, results {t_build:.3f} s, report {t_html:.3f} s "
+          f"({len(html) / 1e3:.0f} kB), JSON {t_json:.3f} s ({len(js) / 1e3:.0f} kB)")
+
+
+def batch(count: int, workers: int, work: Path) -> None:
+    books = sample_workbooks()
+    folder = work / "batch-in"
+    out = work / "batch-out"
+    folder.mkdir(parents=True, exist_ok=True)
+    for k in range(count):
+        src = books[k % len(books)]
+        shutil.copyfile(src, folder / f"bridge_{k:04d}_{src.name}")
+    print(f"== batch of {count} workbooks, {workers} worker(s) ==")
+    t0 = time.perf_counter()
+    proc = subprocess.run([sys.executable, "-m", "rating.cli", "batch", str(folder), "--out",
+                           str(out), "--workers", str(workers)], capture_output=True, text=True,
+                          cwd=REPO)
+    wall = time.perf_counter() - t0
+    head = proc.stdout.splitlines()[:1]
+    print(f"wall {wall:.1f} s -> {count / wall * 60:.0f} workbooks per minute "
+          f"(exit {proc.returncode}; {head[0] if head else 'no summary'})")
+
+
+@functools.lru_cache(maxsize=1)
+def _sample() -> object:
+    sys.path.insert(0, str(REPO / "tests" / "report"))
+    from sample_results import sample_results
+
+    return sample_results()
+
+
+def _stand_in_rate(path: Path, vehicle_ids: object = None) -> object:
+    """Every workbook "rates" as the hand-built 31-member sample of tests/report, built once
+    per process (measures the batch machinery, the report and the JSON, not the engine)."""
+    from rating.pipeline import RateOutcome
+
+    return RateOutcome(Path(path), _sample(), ())
+
+
+def stand_in(count: int, workers: int, work: Path) -> None:
+    from rating.batch import rate_folder
+    from rating.report.html import render_report
+
+    sys.path.insert(0, str(REPO / "tests" / "report"))
+    from sample_results import sample_results
+
+    r = sample_results()
+    render_report(r)  # templates compiled once per process
+    t = time.perf_counter()
+    for _ in range(20):
+        render_report(r)
+    print(f"== report of the 31-member sample results: {(time.perf_counter() - t) / 20:.3f} s "
+          "per report (in process, templates compiled) ==")
+    folder = work / "standin-in"
+    folder.mkdir(parents=True, exist_ok=True)
+    for k in range(count):
+        (folder / f"bridge_{k:04d}.xlsx").write_bytes(b"stand-in")
+    t0 = time.perf_counter()
+    s = rate_folder(folder, work / "standin-out", workers=workers, rate=_stand_in_rate)
+    wall = time.perf_counter() - t0
+    print(f"== batch machinery with a stand-in rating, {count} workbooks, {workers} worker(s): "
+          f"wall {wall:.1f} s -> {count / wall * 60:.0f} per minute "
+          f"({len(s.rated)} reports and JSON files written) ==")
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--only", choices=("single", "batch", "stand-in"), default=None)
+    ap.add_argument("--runs", type=int, default=5)
+    ap.add_argument("--count", type=int, default=200)
+    ap.add_argument("--workers", type=int, default=2)
+    ap.add_argument("--keep", type=Path, default=None, help="keep the outputs in this folder")
+    a = ap.parse_args()
+    print(f"python {platform.python_version()} on {platform.machine()}, "
+          f"{len(os.sched_getaffinity(0))} core(s) available")
+    with tempfile.TemporaryDirectory(prefix="pintruss-bench-") as tmp:
+        work = a.keep or Path(tmp)
+        work.mkdir(parents=True, exist_ok=True)
+        if a.only in (None, "single"):
+            single(a.runs, work)
+        if a.only in (None, "stand-in"):
+            stand_in(a.count, a.workers, work)
+        if a.only in (None, "batch"):
+            batch(a.count, a.workers, work)
+
+
+if __name__ == "__main__":
+    main()
