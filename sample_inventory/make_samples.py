@@ -23,10 +23,12 @@ from rating.model.builders import build_truss
 HERE = Path(__file__).resolve().parent
 
 # --- tuning knobs for the Parker truss (bridge b) ----------------------------------------
-PARKER_HANGER_LOSS_PERCENT = (38.0, 33.0)  # rod 1, rod 2 of hanger L1U1, at the lower loop
+PARKER_HANGER_LOSS_PERCENT = (45.0, 40.0)  # rod 1, rod 2 of hanger L1U1, at the lower loop
 PARKER_CHORD_BAR_LOSS_PERCENT = 42.0  # bar 3 of bottom chord L2L3, pitting at the pack
 PARKER_DIAGONAL_LOSS_PERCENT = 30.0  # bar 1 of main diagonal U2L3, at the lower head
-PARKER_BROKEN_COUNTER = True  # counter U5L6 found broken at its turnbuckle
+PARKER_COUNTER_PANELS = (4, 5, 6, 7)  # live load reverses the mains in these panels
+PARKER_PIN_IN = 5.0  # one pin size throughout; smaller pins make the end pins govern
+PARKER_BROKEN_COUNTER = False  # True: counter U5L6 broken (a broken counter rates as closed)
 
 Row = dict[str, object]
 
@@ -72,10 +74,11 @@ def _laced_channels(sid: str, depth: float, bf: float, tw: float, tf: float, bac
 
 
 def _packing(g: TrussGeometry, joint: str, plates_of: Callable[[str], list[float]],
-             gap: float) -> list[Row]:
+             gap: float, stirrup: float = 0.0) -> list[Row]:
     """Symmetric packing on the pin at ``joint``: built-up pin plates outside, eyebars and
     loop rods inside, each member's plates split evenly about the centre of the pin
-    (heaviest bars close together keep the pin moment down; Berg, Safe Building)."""
+    (heaviest bars close together keep the pin moment down; Berg, Safe Building), and at a
+    deck panel point the two legs of the floorbeam stirrup in the middle."""
     members = [m.label for m in g.members_at(joint)]
     outer = [m for m in members if plates_of(m) and plates_of(m)[0] < 0]
     inner = [m for m in members if m not in outer]
@@ -87,6 +90,8 @@ def _packing(g: TrussGeometry, joint: str, plates_of: Callable[[str], list[float
         left += [(m, t) for t in ts[:half]]
         if len(ts) % 2:
             middle.append((m, ts[half]))
+    if stirrup and joint in g.deck_joints:
+        middle = [("floorbeam", stirrup), *middle, ("floorbeam", stirrup)]
     order = left + middle + list(reversed(left))
     rows: list[Row] = []
     for k, (m, t) in enumerate(order, start=1):
@@ -97,7 +102,7 @@ def _packing(g: TrussGeometry, joint: str, plates_of: Callable[[str], list[float
 
 def _sections_packing(g: TrussGeometry, assign: dict[str, str], sheets: dict[str, list[Row]],
                       pin_of: Callable[[str], float], pin_material: str | None,
-                      gap: float) -> None:
+                      gap: float, stirrup: float) -> None:
     """Pins at every joint with the packing made from the members' sections."""
     eyebar = {r["section"]: r for r in sheets["Eyebars"]}
     rods = {r["section"]: r for r in sheets["Rods"]}
@@ -126,7 +131,7 @@ def _sections_packing(g: TrussGeometry, assign: dict[str, str], sheets: dict[str
     for j in g.joints:
         sheets["Pins"].append({"joint": j.label, "diameter": pin_of(j.label),
                                "material": pin_material})
-        sheets["Packing"] += _packing(g, j.label, plates_of, gap)
+        sheets["Packing"] += _packing(g, j.label, plates_of, gap, stirrup)
 
 
 def _empty_sheets() -> dict[str, list[Row]]:
@@ -157,7 +162,7 @@ def _holes_for(g: TrussGeometry, assign: dict[str, str], sid: str,
 
 def pratt_1898() -> WorkbookContent:
     n, p, h = 8, 18.0, 22.0
-    g = build_truss("pratt", n, p, h, DeckPosition.THROUGH, counter_panels=(4, 5))
+    g = build_truss("pratt", n, p, h, DeckPosition.THROUGH, counter_panels=(3, 4, 5, 6))
     assign: dict[str, str] = {}
     for m in g.members:
         a, b = m.start, m.end
@@ -181,7 +186,7 @@ def pratt_1898() -> WorkbookContent:
             assign[m.label] = {2: "DG-1", 3: "DG-2", 4: "DG-3"}[k]
 
     def pin_of(joint: str) -> float:
-        return 4.0 if joint.startswith("L") or joint in ("U1", f"U{n - 1}") else 3.5
+        return 4.5  # one pin size throughout, as on many county trusses of the period
 
     sheets = _empty_sheets()
     for sid, count, w, t in (("BC-1", 2, 4.0, 0.875), ("BC-2", 2, 5.0, 1.0),
@@ -193,7 +198,7 @@ def pratt_1898() -> WorkbookContent:
         {"section": "HG-1", "count": 2, "shape": "round", "diameter": 1.25, "rod_end": "loop",
          "note": "loop rods, hanger"},
         {"section": "DG-3", "count": 2, "shape": "round", "diameter": 1.375, "rod_end": "loop"},
-        {"section": "CT-1", "count": 1, "shape": "round", "diameter": 1.125, "rod_end": "loop",
+        {"section": "CT-1", "count": 1, "shape": "round", "diameter": 1.375, "rod_end": "loop",
          "note": "adjustable counter, turnbuckle at mid-length"},
     ]
     _add_builtup(sheets, _laced_channels("TC-1", 10.0, 2.6, 0.24, 0.436, 10.25, (14.0, 0.3125),
@@ -208,7 +213,7 @@ def pratt_1898() -> WorkbookContent:
     for m in g.members:
         sheets["Members"].append({"member": m.label, "start": m.start, "end": m.end,
                                   "role": m.role.value, "section": assign[m.label]})
-    _sections_packing(g, assign, sheets, pin_of, None, 0.0625)
+    _sections_packing(g, assign, sheets, pin_of, None, 0.0625, stirrup=0.875)
     L = g.member_length_ft
     sheets["Findings"] += [
         {"member": "L1L2", "component": "bar 2", "region": "body", "station": 9.0,
@@ -225,8 +230,9 @@ def pratt_1898() -> WorkbookContent:
         {"member": "L1U1", "component": "rod 1", "region": "thread", "station": 0.6,
          "loss": 15.0, "condition": 5, "photo": "IMG_2029",
          "note": "corrosion at the lower loop forge weld; no crack found with dye penetrant"},
-        {"member": "L3U4", "component": "rod 1", "region": "body", "bar_state": "loose",
-         "condition": 5, "photo": "IMG_2041", "note": "counter slack; turnbuckle seized"},
+        {"member": "L3U4", "component": "rod 1", "region": "body", "bar_state": "bent",
+         "condition": 5, "photo": "IMG_2041",
+         "note": "counter bowed about 1 in at mid-length; turnbuckle seized"},
         {"member": "U2U3", "component": "cover", "region": "body", "station": 9.0,
          "loss": 15.0, "condition": 6, "photo": "IMG_2045"},
         {"member": "L2U2", "component": "channel L", "region": "connection", "station": 0.8,
@@ -256,7 +262,7 @@ def pratt_1898() -> WorkbookContent:
         "owner": "Tamarack County Highway Department", "year_built": 1898,
         "material": "steel", "geometry": "generated", "truss_form": "pratt",
         "deck_position": "through", "panel_count": n, "panel_length": p, "height": h,
-        "counter_panels": "4, 5", "truss_spacing": 17.0, "roadway_width": 15.0,
+        "counter_panels": "3, 4, 5, 6", "truss_spacing": 17.0, "roadway_width": 15.0,
         "adtt": 40, "riding_surface": "minor deviations",
         "inspection_date": dt.date(2024, 5, 14), "inspector": "R. Okafor, PE (invented)",
     }
@@ -271,7 +277,8 @@ def pratt_1898() -> WorkbookContent:
 def parker_1907() -> WorkbookContent:
     n, p = 10, 19.0
     heights = [21.0, 24.5, 27.0, 28.5, 29.0, 28.5, 27.0, 24.5, 21.0]  # U1..U9
-    g = build_truss("parker", n, p, heights, DeckPosition.THROUGH, counter_panels=(5, 6))
+    g = build_truss("parker", n, p, heights, DeckPosition.THROUGH,
+                    counter_panels=PARKER_COUNTER_PANELS)
     assign: dict[str, str] = {}
     for m in g.members:
         i = sorted(int(s[1:]) for s in (m.start, m.end))
@@ -296,12 +303,12 @@ def parker_1907() -> WorkbookContent:
             assign[m.label] = {2: "DG-1", 3: "DG-2", 4: "DG-3", 5: "DG-4"}[k]
 
     def pin_of(joint: str) -> float:
-        return 4.5 if joint.startswith("L") or joint in ("U1", f"U{n - 1}") else 4.0
+        return PARKER_PIN_IN
 
     sheets = _empty_sheets()
     for sid, count, w, t in (("BC-1", 2, 5.0, 1.0), ("BC-2", 4, 5.0, 1.0),
                              ("BC-3", 4, 6.0, 1.125), ("DG-1", 2, 5.0, 1.125),
-                             ("DG-2", 2, 4.0, 1.0), ("DG-3", 2, 4.0, 0.875)):
+                             ("DG-2", 2, 4.0, 1.0), ("DG-3", 2, 5.0, 1.0)):
         sheets["Eyebars"].append(
             _eyebars(sid, count, w, t, _holes_for(g, assign, sid, pin_of, 1 / 32)))
     sheets["Rods"] += [
@@ -329,7 +336,7 @@ def parker_1907() -> WorkbookContent:
         sheets["Members"].append({"member": m.label, "section": assign[m.label],
                                   "material": "CT-2019"})
     sheets["Heights"] += [{"point": k, "height": v} for k, v in enumerate(heights, start=1)]
-    _sections_packing(g, assign, sheets, pin_of, "PIN", 0.0625)
+    _sections_packing(g, assign, sheets, pin_of, "PIN", 0.0625, stirrup=1.0)
     r1, r2 = PARKER_HANGER_LOSS_PERCENT
     findings: list[Row] = [
         {"member": "L1U1", "component": "rod 1", "region": "thread", "station": 0.5,
@@ -357,10 +364,10 @@ def parker_1907() -> WorkbookContent:
                          "note": "counter broken at the turnbuckle"})
     sheets["Findings"] += findings
     sheets["DeadLoads"] += [
-        {"description": "concrete-filled steel grid deck, 4.5 in", "component": "DC",
-         "psf_deck": 46.0},
-        {"description": "steel stringers, 6 lines W 18", "component": "DC",
-         "plf_bridge": 300.0},
+        {"description": "timber plank deck on nailing strips, 4 in", "component": "DC",
+         "psf_deck": 18.0},
+        {"description": "steel stringers, 6 lines I 15", "component": "DC",
+         "plf_bridge": 250.0},
         {"description": "floorbeam, built-up 30 in", "component": "DC", "kip_floorbeam": 2.4},
         {"description": "steel railing", "component": "DC", "plf_truss": 30.0},
         {"description": "water line, 8 in, on brackets", "component": "DW",
@@ -380,7 +387,8 @@ def parker_1907() -> WorkbookContent:
         "owner": "Tamarack County Highway Department", "year_built": 1907,
         "material": "steel", "geometry": "generated", "truss_form": "parker",
         "deck_position": "through", "panel_count": n, "panel_length": p,
-        "counter_panels": "5, 6", "truss_spacing": 20.0, "roadway_width": 18.0,
+        "counter_panels": ", ".join(map(str, PARKER_COUNTER_PANELS)),
+        "truss_spacing": 20.0, "roadway_width": 18.0,
         "adtt": 260, "riding_surface": "smooth", "ws_thickness": 1.5,
         "ws_measured": "yes", "inspection_date": dt.date(2024, 9, 3),
         "inspector": "M. Lindqvist, PE (invented)",
@@ -416,7 +424,7 @@ def pony_1903_si() -> WorkbookContent:
             assign[m.label] = {2: "DG-1", 3: "DG-2"}[k]
 
     def pin_of(joint: str) -> float:  # mm
-        return 76.0 if joint.startswith("L") else 70.0
+        return 76.0
 
     sheets = _empty_sheets()
     for sid, count, w, t in (("BC-1", 2, 76.0, 19.0), ("BC-2", 2, 89.0, 22.0),
@@ -466,7 +474,7 @@ def pony_1903_si() -> WorkbookContent:
 
     for j in g.joints:
         sheets["Pins"].append({"joint": j.label, "diameter": pin_of(j.label)})
-        sheets["Packing"] += _packing(g, j.label, plates_of, 1.5)
+        sheets["Packing"] += _packing(g, j.label, plates_of, 1.5, stirrup=19.0)
     sheets["Findings"] += [
         {"member": "L0L1", "component": "bar 2", "region": "body", "station": 1.2,
          "remaining": 15.5, "condition": 5, "photo": "DSC_0412",

@@ -14,6 +14,7 @@ from collections.abc import Iterable, Mapping
 from pathlib import Path
 
 from rating.capacity.materials import default_material
+from rating.capacity.pins import FLOORBEAM
 from rating.capacity.sections import (
     gross_area_as_built_in2,
     part_reference_thickness_in,
@@ -73,6 +74,7 @@ from rating.vehicles.library import library, rating_loads
 __all__ = ["read_workbook", "WorkbookReading"]
 
 _TOL_IN = 1e-6
+MAX_PIN_CLEARANCE_IN = 0.25  # beyond this a hole is a data error (as rating.capacity.pins)
 _LABEL_PAIR = re.compile(r"^([A-Za-z]+\d+)([A-Za-z]+\d+)$")
 _BAR = re.compile(r"^(?:bar|eyebar|rod)\s*(?:no\.?|#)?\s*(\d+)$", re.IGNORECASE)
 
@@ -967,11 +969,18 @@ class _Reading:
                           "for this packing")
                 continue
             member = _s(r, "member")
-            if member is not None and g is not None:
+            if member is not None and member.strip().lower() == FLOORBEAM:
+                member = FLOORBEAM
+                if g is not None and joint not in g.deck_joints:
+                    log.error(r.ref("member"), f"joint {joint} is not a deck panel point, so no "
+                              "floorbeam hangs on its pin")
+                    continue
+            elif member is not None and g is not None:
                 at = [m.label for m in g.members_at(joint)] if joint in g.joint_index else []
                 if member not in g.member_index:
                     log.error(r.ref("member"), f"member {member} on the pin at {joint} is not a "
-                              "member of the truss")
+                              "member of the truss (write 'floorbeam' for a floorbeam hanger, "
+                              "or leave blank for a filler)")
                     continue
                 if member not in at:
                     log.error(r.ref("member"), f"member {member} does not meet at joint {joint}; "
@@ -979,11 +988,16 @@ class _Reading:
                     continue
                 d = by_member.get(member)
                 pin = pins.get(joint)
-                if (d is not None and pin is not None and isinstance(d.section, EyebarSet)
-                        and d.section.pin_hole_diameter_in < pin[0] - _TOL_IN):
-                    log.error(r.ref("member"), f"the eyebars of {member} have a "
-                              f"{_g(d.section.pin_hole_diameter_in)} in pin hole, smaller than "
-                              f"the {_g(pin[0])} in pin at {joint}")
+                if d is not None and pin is not None and isinstance(d.section, EyebarSet):
+                    hole = d.section.pin_hole_diameter_in
+                    if hole < pin[0] - _TOL_IN:
+                        log.error(r.ref("member"), f"the eyebars of {member} have a {_g(hole)} in "
+                                  f"pin hole, smaller than the {_g(pin[0])} in pin at {joint}")
+                    elif hole - pin[0] > MAX_PIN_CLEARANCE_IN:
+                        log.error(r.ref("member"), f"the eyebars of {member} have a {_g(hole)} in "
+                                  f"pin hole, {_g(hole - pin[0])} in larger than the "
+                                  f"{_g(pin[0])} in pin at {joint} (more than "
+                                  f"{_g(MAX_PIN_CLEARANCE_IN)} in): check the pin or the hole")
             if t is None:
                 continue
             packing.setdefault(joint, []).append(
@@ -994,16 +1008,17 @@ class _Reading:
                 continue
             items = sorted(packing.get(joint, []), key=lambda x: x[0])
             if not items and not any(_s(p, "joint") == joint for p in self.t[sc.PACKING.name].rows):
-                log.warning(r.ref("joint"), f"the pin at {joint} has no packing rows; it cannot "
-                            "be checked without the order of the bars on it")
+                log.error(r.ref("joint"), f"the pin at {joint} has no packing rows; list the bars "
+                          "on it in order on the Packing sheet (the pin is checked from them), or "
+                          "delete the pin row")
             if g is not None and items and joint in g.joint_index:
                 on_pin = {it.member for _, it, _ in items}
                 absent = [m.label for m in g.members_at(joint) if m.label not in on_pin]
                 if absent:
-                    log.warning(r.ref("joint"), f"members {_listing(absent)} meet at {joint} but "
-                                "are not in its packing; they are taken as not bearing on this "
-                                "pin")
-                for m_label in sorted(on_pin - {None}):
+                    log.error(r.ref("joint"), f"members {_listing(absent)} meet at {joint} but "
+                              "have no plate in its packing; every bar on the pin is needed to "
+                              "check it")
+                for m_label in sorted(on_pin - {None, FLOORBEAM}):
                     d = by_member.get(str(m_label))
                     n_plates = sum(1 for _, it, _ in items if it.member == m_label)
                     if d is not None and isinstance(d.section, EyebarSet) and (

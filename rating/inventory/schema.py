@@ -565,13 +565,13 @@ PINS = TableSheet(
 
 PACKING = TableSheet(
     "Packing", "Packing of bars on the pins",
-    "One row per plate on the pin, in order from one end (position 1). Leave Member blank "
-    "for a filler or spacer ring.",
+    "One row per plate on the pin, in order from one end (position 1). Member: the member "
+    "whose bar this is, 'floorbeam' for a floorbeam hanger, blank for a filler or spacer ring.",
     (
         _c("joint", "Joint", Kind.LABEL, required=True, width=10),
         _c("position", "Position", Kind.INTEGER, required=True, ge=1, le=60),
         _c("member", "Member", Kind.LABEL, list_source=MEMBER_LIST, width=10,
-           blank_means="filler or spacer"),
+           blank_means="filler or spacer", help="Or 'floorbeam' for a floorbeam hanger."),
         _c("thickness", "Plate thickness", Kind.NUMBER, DIM, required=True, gt=0, le=6),
         _c("gap", "Gap before", Kind.NUMBER, DIM, ge=0, le=12, blank_means="0"),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),

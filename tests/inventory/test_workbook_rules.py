@@ -657,7 +657,8 @@ def _pins() -> tuple[dict, Edit | None]:
     add(d, "Packing", {"joint": "L1", "position": 1, "member": "L0L1", "thickness": 0.875},
         {"joint": "L2", "position": 3, "member": "U1L2", "thickness": 0.75},
         {"joint": "L2", "position": 11, "member": "ZZZ", "thickness": 0.5},
-        {"joint": "L2", "position": 12, "member": "L0L1", "thickness": 0.875})
+        {"joint": "L2", "position": 12, "member": "L0L1", "thickness": 0.875},
+        {"joint": "U1", "position": 1, "member": "Floorbeam", "thickness": 0.875})
     return d, None
 
 
@@ -666,7 +667,7 @@ def _pin_default() -> tuple[dict, Edit | None]:
     d = fresh()
     for m in d["tables"]["Members"]:
         m["material"] = "M-1"
-    d["tables"]["Pins"][0]["material"] = None
+    d["tables"]["Pins"][0].update(material=None, diameter=3.25)
     return d, None
 
 
@@ -694,14 +695,16 @@ CASES += [
          "joint Q7 of this pin is not a joint of the truss"),
     Case("pin material unknown", "pins", cell("Pins", 3, "material"),
          "material M-9 of the pin at L3 is not on the Materials sheet"),
-    Case("pin without packing", "pins", cell("Pins", 4, "joint"),
-         "the pin at U1 has no packing rows; it cannot be checked", "warning"),
+    Case("pin without packing", "pins", cell("Pins", 3, "joint"),
+         "the pin at L3 has no packing rows; list the bars on it in order"),
     Case("packing without pin", "pins", cell("Packing", 10, "joint"),
          "there is no pin at joint L1 on the Pins sheet for this packing"),
     Case("position twice", "pins", cell("Packing", 11, "position"),
          "position 3 on the pin at L2 is already taken at Packing!C"),
     Case("packing member unknown", "pins", cell("Packing", 12, "member"),
-         "member ZZZ on the pin at L2 is not a member of the truss"),
+         "member ZZZ on the pin at L2 is not a member of the truss (write 'floorbeam'"),
+    Case("floorbeam off the deck", "pins", cell("Packing", 14, "member"),
+         "joint U1 is not a deck panel point, so no floorbeam hangs on its pin"),
     Case("member not at joint", "pins", cell("Packing", 13, "member"),
          "member L0L1 does not meet at joint L2; the members there are L1L2, L2L3, L2U2, U1L2, "
          "L2U3"),
@@ -710,7 +713,10 @@ CASES += [
     Case("hole smaller than pin", "pin-hole", cell("Packing", 1, "member"),
          "the eyebars of L1L2 have a 3.53 in pin hole, smaller than the 3.75 in pin at L2"),
     Case("members not packed", "packing-partial", cell("Pins", 0, "joint"),
-         "members L2U2, U1L2, L2U3 meet at L2 but are not in its packing", "warning"),
+         "members L2U2, U1L2, L2U3 meet at L2 but have no plate in its packing"),
+    Case("hole far larger than pin", "pin-default", cell("Packing", 1, "member"),
+         "the eyebars of L1L2 have a 3.53 in pin hole, 0.28 in larger than the 3.25 in pin at "
+         "L2 (more than 0.25 in)"),
     Case("plates differ from bars", "packing-partial", cell("Pins", 0, "joint"),
          "member L2L3 has 2 eyebars but 1 plates on the pin at L2", "warning"),
 ]

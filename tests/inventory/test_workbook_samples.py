@@ -78,7 +78,7 @@ def test_pratt_has_counters_in_middle_panels_and_moderate_loss(committed) -> Non
     g = b.geometry
     assert g.form == "pratt" and len(g.deck_joints) == 9  # 8 panels
     counters = {m.label for m in g.members if m.role.value == "counter"}
-    assert counters == {"L3U4", "U4L5"}  # panels 4 and 5, crossing U3L4 and L4U5
+    assert counters == {"L2U3", "L3U4", "U4L5", "U5L6"}  # panels 3 to 6 of 8
     losses = [f.percent_loss for f in b.findings if f.percent_loss is not None]
     assert losses and max(losses) <= 25.0
     assert b.info.year_built == 1898
@@ -92,7 +92,9 @@ def test_parker_loss_pattern_heavy_on_hanger_and_chord(committed) -> None:
     assert len(heights) > 1  # polygonal top chord
     hanger = [f for f in b.findings if f.member == "L1U1"]
     assert len(hanger) == 2 and min(f.percent_loss or 0 for f in hanger) >= 30.0
-    assert any(f.bar_state is BarState.BROKEN for f in b.findings)
+    assert any(f.bar_state is BarState.BROKEN for f in b.findings) == MAKE.PARKER_BROKEN_COUNTER
+    chord = [f for f in b.findings if f.member == "L2L3"]
+    assert chord and chord[0].percent_loss == MAKE.PARKER_CHORD_BAR_LOSS_PERCENT
     assert any(f.region is FindingRegion.HEAD for f in b.findings if f.member == "U2L3")
     assert b.settings.wearing_surface_measured
 
