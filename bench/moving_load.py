@@ -248,7 +248,7 @@ def main() -> None:
         m = len(gn.members)
         pts = len(gn.deck_joints)
         fm = FrameModel(gn)
-        sample = 40
+        sample = 100
         _, _, k, ts = fe_stepping(fm, fe_vehicles[0], limit=sample)
         fe_n = sum(n_positions(gn, w) for w in fe_vehicles) * ts / k
         print(f"{n:6d}  {m:7d}  {pts:6d}  {t_ours * 1e3:7.1f}  "
