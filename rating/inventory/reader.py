@@ -20,7 +20,7 @@ from rating.capacity.sections import (
     part_reference_thickness_in,
     validate_section,
 )
-from rating.errors import GeometryError, InputError
+from rating.errors import GeometryError, InputError, InstabilityError
 from rating.inventory import schema as sc
 from rating.inventory.book import Book, open_book
 from rating.inventory.problems import ProblemLog, WorkbookReading
@@ -145,6 +145,7 @@ class _Reading:
         self.log = log
         self.today = dt.date.today()
         self.broken: set[str] = set()  # section ids defined on a row with a problem
+        self.joint_rows: dict[str, Row] = {}
 
     # -- top level ------------------------------------------------------------------------
 
@@ -166,6 +167,8 @@ class _Reading:
         sections = self._sections()
         materials = self._materials()
         designs, geometry = self._member_designs(geometry, member_rows, sections, materials)
+        if geometry is not None and geometry.form == "explicit" and not log.has_errors:
+            self._stability(geometry)
         findings = self._findings(geometry, designs)
         pins = self._pins(geometry, designs, materials)
         cross = self._cross_section()
@@ -374,6 +377,7 @@ class _Reading:
                 supports.append(Support(label, SupportKind(sup)))
             if _b(r, "deck"):
                 deck.append(j)
+        self.joint_rows = {label: r for label, (_j, r) in joints.items()}
         if not jt.rows:
             log.error(jt.header_ref("joint"), "Geometry is 'explicit' but no joints are listed "
                       "on the Joints sheet")
@@ -414,6 +418,23 @@ class _Reading:
             where = self._locate(exc.message, joints, rows) or jt.header_ref("joint")
             log.error(where, f"the truss as listed is not valid: {exc.message}")
             return None
+
+    def _stability(self, g: TrussGeometry) -> None:
+        """A listed truss must be stable with all its members (the rating cannot start else)."""
+        from numpy.linalg import LinAlgError
+
+        from rating.analysis.truss import LinearTruss  # the solver's own stability test
+
+        try:
+            LinearTruss(g)
+        except InstabilityError as exc:
+            row = self.joint_rows.get(exc.joint)
+            where = row.ref("joint") if row else self.t[sc.JOINTS.name].header_ref("joint")
+            self.log.error(where, f"the truss as listed is not stable: {exc.message}")
+        except LinAlgError:
+            self.log.error(self.t[sc.JOINTS.name].header_ref("joint"), "the truss as listed is "
+                           "not stable (its stiffness cannot be factorized); check the joints "
+                           "and members for a missing diagonal or support")
 
     @staticmethod
     def _locate(message: str, joints: Mapping[str, tuple[Joint, Row]],

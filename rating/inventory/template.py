@@ -174,8 +174,8 @@ INSTRUCTIONS = (
     "Units: every header shows [US | SI]. The workbook is read in US customary units unless "
     "'Units of this workbook' on the Bridge sheet says SI; then the second unit applies "
     "everywhere. Do not mix. Inch dimensions may be typed as fractions, e.g. 1-1/4.",
-    "Example rows: grey rows with 'example' in column A are never read. Overwrite them or leave "
-    "them; your own rows have column A blank.",
+    "Example rows: grey rows with 'example' in column A are never read (their values are in US "
+    "units). Leave them or delete them; your own rows have column A blank.",
     "Tinted cells are for input; closed lists have a dropdown. Hover over a header for help.",
     "Formulas are allowed, but the workbook must have been saved by a spreadsheet program so "
     "that their results are stored; a formula without a stored result is reported.",

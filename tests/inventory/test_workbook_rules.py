@@ -414,7 +414,20 @@ def _explicit_geometry() -> tuple[dict, Edit | None]:
     return d, None
 
 
+@group("explicit-mechanism")
+def _explicit_mechanism() -> tuple[dict, Edit | None]:
+    d = explicit()
+    d["tables"]["Members"] = [m for m in d["tables"]["Members"] if m["member"] != "U1L2"]
+    d["tables"]["Joints"].append({"joint": "U2", "x": 32.0, "y": 16.0})
+    d["tables"]["Members"] += [
+        {"member": "U1U2", "start": "U1", "end": "U2", "role": "top chord", "section": "PV"},
+        {"member": "L2U2", "start": "L2", "end": "U2", "role": "end post", "section": "PV"}]
+    return d, None
+
+
 CASES += [
+    Case("mechanism named at its joint", "explicit-mechanism", cell("Joints", 1, "joint"),
+         "the truss as listed is not stable: the truss is a mechanism: joint L1 can move"),
     Case("joint twice", "explicit-refs", cell("Joints", 4, "joint"),
          "joint L1 is listed twice (first at Joints!B"),
     Case("end not a joint", "explicit-refs", cell("Members", 1, "end"),
