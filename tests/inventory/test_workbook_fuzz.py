@@ -27,7 +27,7 @@ from rating.inventory.schema import Column, Kind
 from rating.inventory.template import build_template, fill
 
 WHERE = re.compile(r"^[A-Za-z]+![A-Z]{1,3}\d+$")
-SETTINGS = settings(max_examples=10, deadline=None,
+SETTINGS = settings(max_examples=8, deadline=None,
                     suppress_health_check=[HealthCheck.function_scoped_fixture])
 
 

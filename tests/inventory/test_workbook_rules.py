@@ -183,16 +183,11 @@ def _si_header() -> tuple[dict, Edit | None]:
 CASES += [
     Case("header unit vs SI", "si-header", header("Plates", "width"),
          "says [in] but the Bridge sheet declares SI units, so the values would be read in mm"),
-    Case("bad units cell", "bad-units", form_cell("Bridge", "units"),
+    Case("bad units cell", "form-missing", form_cell("Bridge", "units"),
          "Units of this workbook must be one of: US, SI; found the text 'metric'"),
 ]
 
 
-@group("bad-units")
-def _bad_units() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["bridge"]["units"] = "metric"
-    return d, None
 
 
 @group("missing-sheets")
@@ -239,17 +234,13 @@ def _bridge_dates() -> tuple[dict, Edit | None]:
     return d, None
 
 
-@group("future-date")
-def _future_date() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["bridge"]["inspection_date"] = "2999-01-01"
-    return d, None
 
 
 @group("roadway")
 def _roadway() -> tuple[dict, Edit | None]:
     d = fresh()
     d["bridge"]["roadway_width"] = 18.0
+    d["bridge"].update(ws_thickness=2.0)
     return d, None
 
 
@@ -260,11 +251,6 @@ def _curb() -> tuple[dict, Edit | None]:
     return d, None
 
 
-@group("wearing")
-def _wearing() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["bridge"].update(ws_thickness=2.0)
-    return d, None
 
 
 CASES += [
@@ -272,7 +258,7 @@ CASES += [
          "Year built 2099 is in the future"),
     Case("inspected before built", "bridge-dates", form_cell("Bridge", "inspection_date"),
          "Inspection date 1890-01-01 is before the year built (2099)"),
-    Case("inspection in future", "future-date", form_cell("Bridge", "inspection_date"),
+    Case("inspection in future", "counter", form_cell("Bridge", "inspection_date"),
          "Inspection date 2999-01-01 is in the future", "warning"),
     Case("roadway wider than trusses", "roadway", form_cell("Bridge", "roadway_width"),
          "Roadway width 18 ft is wider than the truss spacing 16 ft"),
@@ -282,7 +268,7 @@ CASES += [
          "2 lanes on a 14 ft roadway is less than 12 ft per lane", "warning"),
     Case("measured without thickness", "curb", form_cell("Bridge", "ws_measured"),
          "marked as measured but no thickness is given", "warning"),
-    Case("wearing unit weight assumed", "wearing", form_cell("Bridge", "ws_unit_weight"),
+    Case("wearing unit weight assumed", "roadway", form_cell("Bridge", "ws_unit_weight"),
          "assumed: wearing surface unit weight 140 pcf (AASHTO LRFD Table 3.5.1-1", "warning"),
 ]
 
@@ -324,6 +310,7 @@ def _heights() -> tuple[dict, Edit | None]:
     d = fresh()
     add(d, "Heights", {"point": 1, "height": 18.0}, {"point": 1, "height": 19.0},
         {"point": 5, "height": 20.0})
+    d["settings"]["vehicles"] = "HL-93, OWN-1, HL-93"
     return d, None
 
 
@@ -338,6 +325,7 @@ def _no_height() -> tuple[dict, Edit | None]:
 def _form_missing() -> tuple[dict, Edit | None]:
     d = fresh()
     d["bridge"].update(truss_form=None, panel_count=None)
+    d["bridge"]["units"] = "metric"
     return d, None
 
 
@@ -345,14 +333,10 @@ def _form_missing() -> tuple[dict, Edit | None]:
 def _counter() -> tuple[dict, Edit | None]:
     d = fresh()
     d["bridge"]["counter_panels"] = "2, 7"
+    d["bridge"]["inspection_date"] = "2999-01-01"
     return d, None
 
 
-@group("builder")
-def _builder() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["bridge"]["truss_form"] = "baltimore"
-    return d, None
 
 
 CASES += [
@@ -373,7 +357,7 @@ CASES += [
          "Panel count is needed to generate the geometry"),
     Case("counter outside", "counter", form_cell("Bridge", "counter_panels"),
          "counter panel 7 does not exist: the truss has panels 1 to 4"),
-    Case("builder refuses", "builder", form_cell("Bridge", "truss_form"),
+    Case("builder refuses", "loads-vehicles", form_cell("Bridge", "truss_form"),
          "the baltimore truss cannot be generated: a Baltimore/Pennsylvania truss"),
 ]
 
@@ -563,11 +547,6 @@ def _materials() -> tuple[dict, Edit | None]:
     return d, None
 
 
-@group("no-material")
-def _no_material() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["bridge"]["material"] = None
-    return d, None
 
 
 CASES += [
@@ -585,7 +564,7 @@ CASES += [
          "material M-9 of member L0L1 is not on the Materials sheet"),
     Case("unknown section", "materials", cell("Members", 1, "section"),
          "section ZZ of member L1L2 is not on Eyebars, Rods, BuiltUp or Rolled"),
-    Case("no material anywhere", "no-material", form_cell("Bridge", "material"),
+    Case("no material anywhere", "packing-partial", form_cell("Bridge", "material"),
          "no truss material is given here and members L1U1, L3U3 have no material id"),
 ]
 
@@ -699,6 +678,7 @@ def _packing_partial() -> tuple[dict, Edit | None]:
         {"joint": "L2", "position": 2, "member": "L2L3", "thickness": 0.875},
         {"joint": "L2", "position": 3, "member": "L1L2", "thickness": 0.875},
     ]
+    d["bridge"]["material"] = None
     return d, None
 
 
@@ -765,14 +745,10 @@ def _loads_vehicles() -> tuple[dict, Edit | None]:
     ]
     add(d, "Axles", *ax)
     d["settings"]["vehicles"] = "HL-93, NOPE"
+    d["bridge"]["truss_form"] = "baltimore"
     return d, None
 
 
-@group("settings-dup")
-def _settings_dup() -> tuple[dict, Edit | None]:
-    d = fresh()
-    d["settings"]["vehicles"] = "HL-93, OWN-1, HL-93"
-    return d, None
 
 
 CASES += [
@@ -804,7 +780,7 @@ CASES += [
          "warning"),
     Case("unknown vehicle to rate", "loads-vehicles", form_cell("Settings", "vehicles"),
          "vehicle NOPE is neither in the vehicle library nor on the Vehicles sheet"),
-    Case("vehicle listed twice", "settings-dup", form_cell("Settings", "vehicles"),
+    Case("vehicle listed twice", "heights", form_cell("Settings", "vehicles"),
          "vehicle HL-93 is listed twice; it is rated once", "warning"),
 ]
 
