@@ -147,8 +147,8 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
     for v in results.vehicles:
         entry = results.posting.get(v.id)
         rf = entry.rf if entry is not None else None
-        if rf is not None and (math.isnan(rf) or math.isinf(rf)):
-            rf = None
+        if rf is not None and (math.isnan(rf) or rf == math.inf):
+            rf = None  # no live-load effect: no rating factor
         posting = None
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
             posting = float(math.floor(d.convert(entry.posting_tons, "weight") + 1e-6))
@@ -318,9 +318,12 @@ def vehicle_order(rows: Sequence[BridgeRow]) -> tuple[tuple[str, str], ...]:
 
 
 def _rf_text(rf: float | None) -> str:
-    """RF rounded down to 2 decimals as in the report; empty when none."""
-    if rf is None or not math.isfinite(rf):
+    """RF rounded down to 2 decimals as in the report; empty when none; "-inf" when the
+    member cannot carry its dead load."""
+    if rf is None or math.isnan(rf) or rf == math.inf:
         return ""
+    if rf == -math.inf:
+        return "-inf"
     return f"{math.floor(rf * 100.0 + 1e-7) / 100.0:.2f}"
 
 
@@ -409,8 +412,9 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
             if v is None:
                 cells.append(_IndexCell("", "", ""))
             else:
-                cells.append(_IndexCell(_rf_text(v.rf) or "\u2014", bands.band(v.rf).key
-                                        if v.rf is not None else "nr", v.member))
+                text = _rf_text(v.rf).replace("-inf", "\u2212\u221e") or "\u2014"
+                cells.append(_IndexCell(text, bands.band(v.rf).key if v.rf is not None
+                                        else "nr", v.member))
         item = _IndexRow(r, tuple(cells), r.errors[:max_problems],
                          max(0, len(r.errors) - max_problems))
         (rated if r.rated else failed).append(item)

@@ -17,6 +17,7 @@ from rating.units import from_core
 
 DASH = "\u2014"  # shown where there is no number (no live load of that sense, not rated)
 MINUS = "\u2212"
+NEG_INF = "\u2212\u221e"  # RF = -inf
 
 # decimals by dimension and unit system: (US, SI)
 _DECIMALS: dict[str, tuple[int, int]] = {
@@ -93,9 +94,12 @@ class Display:
 
     def rf(self, value: float | None) -> str:
         """Rating factor to 2 decimals, rounded down (0.996 shows 0.99, never 1.00);
-        +inf (no live-load effect) and missing as a dash."""
-        if value is None or not _is_number(value) or math.isnan(value) or math.isinf(value):
+        +inf (no live-load effect) and missing as a dash; -inf (the member cannot carry
+        its dead load, or has no resistance in the sense loaded) as minus infinity."""
+        if value is None or not _is_number(value) or math.isnan(value):
             return DASH
+        if math.isinf(value):
+            return DASH if value > 0 else NEG_INF
         return _fixed(math.floor(float(value) * 100.0 + 1e-7) / 100.0, 2)
 
     def posting(self, value: float | None) -> str:

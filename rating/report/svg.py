@@ -225,10 +225,15 @@ def elevation_svg(results: RatingResults, display: Display,
     y_low = max(p[1] for p in pos.values())
     for jid, j in joints.items():
         x, y = pos[jid]
-        if j.deck:
-            body.append(f'<rect class="floorbeam" x="{_f(x - 4)}" y="{_f(y - 4)}" width="8" '
-                        f'height="8" fill="#fff" stroke="#222" stroke-width="1.2">'
+        if j.deck and not j.support:  # a floorbeam hangs below the deck panel point
+            body.append(f'<rect class="floorbeam" x="{_f(x - 4)}" y="{_f(y + 5)}" width="8" '
+                        f'height="7" fill="#fff" stroke="#222" stroke-width="1.2">'
                         f'<title>deck panel point {escape(jid)} (floorbeam)</title></rect>')
+        elif j.deck:
+            body.append(f'<rect class="floorbeam" x="{_f(x - 3)}" y="{_f(y - 3)}" width="6" '
+                        f'height="6" fill="#fff" stroke="#222" stroke-width="1.2">'
+                        f'<title>deck panel point {escape(jid)} (floorbeam over the bearing)'
+                        f'</title></rect>')
         if j.support:
             body.append(_bearing(x, y, j.support))
     pins = {p.joint: p for p in results.pins}
@@ -247,7 +252,8 @@ def elevation_svg(results: RatingResults, display: Display,
     body.extend(labels)
     for jid, (x, y) in pos.items():  # joint labels outside the truss
         below = y >= y_low - 1e-6 or joints[jid].support
-        jy = y + (28 if joints[jid].support else 17) if below else y - 9
+        jy = y + (28 if joints[jid].support else 22 if joints[jid].deck else 14) \
+            if below else y - 9
         body.append(_text(x, jy, jid, size=8, fill="#555", cls="jlabel"))
     # span dimension line
     deck = sorted((j for j in joints.values() if j.deck), key=lambda j: j.x)

@@ -8,6 +8,7 @@ workbook stays plain ``str`` (the template escapes it); drawings are ``Markup``.
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
@@ -15,7 +16,7 @@ from typing import Any
 from markupsafe import Markup
 
 from rating.report import svg
-from rating.report.display import DASH, Display
+from rating.report.display import DASH, NEG_INF, Display
 from rating.results import (
     MemberResult,
     PinResult,
@@ -269,13 +270,15 @@ class ReportView:
     source_file: str
     footer: str
     band_labels: tuple[svg.Band, ...] = field(default=())
+    has_neg_inf: bool = False
 
 
 # ------------------------------------------------------------------ helpers
 
 def _pin_key(element: str) -> str:
-    e = element.strip()
-    return e[4:].strip() if e.lower().startswith("pin ") else e
+    """The joint of a pin named "pin L2", "pin at L2" or "L2"."""
+    m = re.match(r"^\s*pin\s+(?:at\s+)?(\S+)\s*$", element, re.IGNORECASE)
+    return m.group(1) if m else element.strip()
 
 
 def controls(results: RatingResults) -> tuple[Control, ...]:
@@ -387,11 +390,13 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     units = Units(d.unit("force"), d.unit("length"), d.unit("dimension"), d.unit("area"),
                   d.unit("stress"), d.unit("weight"), d.unit("line load"))
     has_dash = False
+    has_neg_inf = False
 
     def rf_cell(rf: float | None) -> Cell:
-        nonlocal has_dash
+        nonlocal has_dash, has_neg_inf
         c = _cell(d, bands, rf)
         has_dash = has_dash or c.text == DASH
+        has_neg_inf = has_neg_inf or c.text == NEG_INF
         return c
 
     bridge_facts = tuple(Fact(k, v) for k, v in (
@@ -589,7 +594,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         warnings=warnings, sections=sections, checks=checks, has_dash=has_dash, paper=p,
         paper_note=paper_note, generator=results.generator,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
-        band_labels=bands.bands)
+        band_labels=bands.bands, has_neg_inf=has_neg_inf)
 
 
 def _from_memory(text: str) -> bool:

@@ -3,6 +3,8 @@
 from __future__ import annotations
 
 import importlib.util
+import multiprocessing
+from concurrent.futures import ProcessPoolExecutor
 from pathlib import Path
 from typing import Any
 
@@ -46,11 +48,24 @@ def sample_workbooks(tmp: Path) -> list[Path]:
 
 @pytest.fixture(scope="session")
 def sample_outcomes(tmp_path_factory: pytest.TempPathFactory) -> list[Any]:
-    """Every sample workbook rated through the real pipeline (outcomes, rated or not)."""
+    """Every sample workbook rated through the real pipeline (outcomes, rated or not), in
+    parallel on the available cores (the rating is the slow part of these tests)."""
+    from rating.batch import default_workers
     from rating.pipeline import rate_workbook
 
     books = sample_workbooks(tmp_path_factory.mktemp("samples"))
-    return [rate_workbook(b) for b in books]
+    workers = min(default_workers(), len(books))
+    if workers <= 1:
+        return [rate_workbook(b) for b in books]
+    ctx = multiprocessing.get_context("spawn")
+    with ProcessPoolExecutor(max_workers=workers, mp_context=ctx) as pool:
+        return list(pool.map(rate_workbook, books))
+
+
+def smallest_rated(outcomes: list[Any]) -> Any | None:
+    """The rated sample with the fewest members (the quickest to rate again)."""
+    rated = [o for o in outcomes if o.results is not None]
+    return min(rated, key=lambda o: len(o.results.members), default=None)
 
 
 @pytest.fixture(scope="session")

@@ -36,9 +36,10 @@ SIZES = """(() => {
     });
   }
   const body = document.body.getBoundingClientRect();
-  const wide = [...document.querySelectorAll('table, figure, svg, .recommendation')]
+  const wide = [...document.querySelectorAll('body *')]
     .filter(e => e.getBoundingClientRect().right > body.right + 1)
-    .map(e => e.tagName + ' ' + (e.getAttribute('class') || ''));
+    .map(e => e.tagName + ' ' + (e.getAttribute('class') || '') + ': '
+         + (e.textContent || '').trim().slice(0, 60));
   out.overflow = wide;
   out.scroll = [document.documentElement.scrollWidth, document.documentElement.clientWidth];
   return out;

@@ -13,7 +13,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from rating.report.display import DASH, MINUS, Display
+from rating.report.display import DASH, MINUS, NEG_INF, Display
 from rating.results import FindingEcho, PostingResultEntry, SectionSummary
 
 US, SI = Display("US"), Display("SI")
@@ -47,6 +47,7 @@ def test_rf_two_decimals_rounded_down_and_dash() -> None:
     assert US.rf(-0.154) == MINUS + "0.16"
     for v in (math.inf, math.nan, None):
         assert US.rf(v) == DASH
+    assert US.rf(-math.inf) == NEG_INF  # cannot carry its dead load: not a dash
 
 
 @settings(max_examples=200, deadline=None)

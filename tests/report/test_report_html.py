@@ -144,3 +144,26 @@ def test_templates_from_package_data_with_autoescape() -> None:
     env = environment()
     assert env.autoescape is True
     assert str(env.from_string("{{ x }}").render(x="<b>")) == "&lt;b&gt;"
+
+
+def test_pin_named_either_way_controls(results_us: RatingResults) -> None:
+    """The engine names a pin "pin at L2"; "pin L2" and "L2" are understood too."""
+    from dataclasses import replace
+
+    for name in ("pin at L2", "pin L2", "Pin  at  L2"):
+        posting = {k: replace(p, member=name) if p.member == "pin L2" else p
+                   for k, p in results_us.posting.items()}
+        ctl = controls(replace(results_us, posting=posting))
+        pins = [c for c in ctl if c.kind == "pin"]
+        assert pins and all(c.rating is not None for c in pins), name
+
+
+def test_minus_infinity_is_explained(results_us: RatingResults) -> None:
+    from dataclasses import replace
+
+    m = results_us.members[0]
+    vid = next(iter(m.ratings))
+    bad = replace(m, ratings={**m.ratings, vid: replace(m.ratings[vid], rf=float("-inf"))})
+    r = replace(results_us, members=(bad, *results_us.members[1:]))
+    html = render_report(r)
+    assert "\u2212\u221e" in html and "no rating is possible" in html

@@ -4,6 +4,7 @@ photos, even text that lands in the CSS page footer)."""
 from __future__ import annotations
 
 import re
+from pathlib import Path
 
 from htmlcheck import read
 from sample_results import IMG, SCRIPT
@@ -38,3 +39,36 @@ def test_css_footer_cannot_close_the_style(results_hostile: RatingResults) -> No
     assert "<" not in style.group(1)
     assert html.count("</style>") == 1
     assert css_string('a"</style>\\') == '"a\\000022\\00003C\\00002Fstyle\\00003E\\00005C"'
+
+
+def test_markup_typed_into_a_real_workbook_stays_text(tmp_path: Path) -> None:
+    """End to end: script and markup typed into a sample workbook's names and notes."""
+    import openpyxl
+    import pytest
+    from conftest import SAMPLES
+
+    from rating.pipeline import rate_workbook
+
+    src = SAMPLES / "tc0903_pony_1903_si.xlsx"
+    if not src.is_file():
+        pytest.skip("sample workbook tc0903_pony_1903_si.xlsx not present")
+    wb = openpyxl.load_workbook(src)
+    wb["Bridge"]["B6"] = "Quarry Lane " + SCRIPT
+    wb["Bridge"]["B8"] = 'Owner <b onclick="x()">bold</b>'
+    f = wb["Findings"]
+    f["K5"] = IMG
+    f["L5"] = "note " + SCRIPT
+    path = tmp_path / "hostile.xlsx"
+    wb.save(path)
+    outcome = rate_workbook(path)
+    if outcome.results is None:
+        pytest.skip(f"the sample does not rate: {[p.format() for p in outcome.errors][:1]}")
+    html = render_report(outcome.results)
+    doc = read(html)
+    assert doc.errors == []
+    names = {t for t, _ in doc.tags}
+    assert not names & {"script", "img", "b"}
+    assert not any(k.startswith("on") for _, attrs in doc.tags for k in attrs)
+    text = "".join(doc.text)
+    assert "Quarry Lane " + SCRIPT in text and IMG in text and "note " + SCRIPT in text
+    assert "<script" not in html and "<img" not in html
