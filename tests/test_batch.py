@@ -109,6 +109,17 @@ def test_batch_rates_the_others_and_lists_the_broken_one(tmp_path: Path, workers
     assert len(lines) == 3 and lines[-1].startswith("[3/3]")
 
 
+def test_second_run_gives_byte_identical_outputs(tmp_path: Path) -> None:
+    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": b"broken"})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    first = {p.name: p.read_bytes() for p in out.iterdir() if p.name != INDEX_HTML}
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    second = {p.name: p.read_bytes() for p in out.iterdir() if p.name != INDEX_HTML}
+    assert first == second  # reports, results and the CSV (the index records the run time)
+    assert set(first) == {"a.rating.html", "a.rating.json", SUMMARY_CSV}
+
+
 def test_program_fault_is_recorded_and_the_batch_goes_on(tmp_path: Path) -> None:
     folder = _folder(tmp_path, {"ok.xlsx": GOOD, "bad.xlsx": b"FAULT"})
     s = rate_folder(folder, tmp_path / "out", workers=1, rate=fake_rate)

@@ -318,6 +318,19 @@ def legend_svg(bands: RFBands | None = None) -> Markup:
 
 # ------------------------------------------------------------------ influence line
 
+def _stagger(xs: Sequence[float], min_gap: float, step: float) -> list[float]:
+    """Vertical lift of each label so that labels closer than ``min_gap`` px along x do
+    not overlap: each takes the lowest level not used by a near neighbour already placed."""
+    placed: list[tuple[float, int]] = []
+    lifts = []
+    for x in xs:
+        busy = {lvl for px, lvl in placed if abs(px - x) < min_gap}
+        lvl = next(k for k in range(len(xs) + 1) if k not in busy)
+        placed.append((x, lvl))
+        lifts.append(lvl * step)
+    return lifts
+
+
 def influence_svg(line: InfluenceLineData, position: Position | None,
                   vehicle: VehicleResult | None, display: Display, *,
                   deck_stations: Sequence[float] = ()) -> Markup:
@@ -340,7 +353,7 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     def X(s: float) -> float:
         return left + (s - lo) * sx
 
-    deck_y = 104.0
+    deck_y = 120.0
     y_pos = max(float(np.max(y)), 0.0)
     y_neg = max(-float(np.min(y)), 0.0)
     room = 118.0  # px between the top and the bottom of the line
@@ -375,6 +388,7 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     # axles: arrows sized by load, pointing down onto the deck
     if axle_x.size:
         pmax = float(axle_p.max()) if axle_p.size else 1.0
+        label_lift = _stagger([X(s) for s in axle_x], min_gap=24.0, step=9.0)
         for k, (s, p) in enumerate(zip(axle_x, axle_p, strict=False)):
             length = 14.0 + 46.0 * (p / pmax if pmax > 0 else 0.0)
             on = st[0] - 1e-9 <= s <= st[-1] + 1e-9
@@ -384,8 +398,8 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
                         f'stroke-width="2" marker-end="url(#axle)"><title>axle {k + 1}: '
                         f'{escape(display.force(p))} {display.unit("force")} at '
                         f'{escape(display.length(s))} {display.unit("length")}</title></line>')
-            body.append(_text(X(s), deck_y - 14 - length, display.force(float(p)), size=8,
-                              fill=colour))
+            body.append(_text(X(s), deck_y - 14 - length - label_lift[k],
+                              display.force(float(p)), size=8, fill=colour))
             if on:  # drop line to the influence line
                 v = float(np.interp(s, st, y))
                 body.append(f'<line x1="{_f(X(s))}" y1="{_f(deck_y + 2)}" x2="{_f(X(s))}" '
@@ -396,13 +410,13 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
         d = 1.0 if (position and position.direction != "reverse") else -1.0
         xa = float(axle_x.min() if d > 0 else axle_x.max())
         xb = float(axle_x.max() if d > 0 else axle_x.min())
-        ty = 14.0
+        ty = 20.0
         x1, x2 = X(xa), X(xb) + d * 30
         x1, x2 = min(max(x1, left), WIDTH - right), min(max(x2, left), WIDTH - right)
         body.append(f'<line class="travel" x1="{_f(x1)}" y1="{_f(ty)}" x2="{_f(x2)}" '
                     f'y2="{_f(ty)}" stroke="#333" stroke-width="1.5" '
                     f'marker-end="url(#travel)"/>')
-        body.append(_text((x1 + x2) / 2, ty + 11, "direction of travel", size=8.5,
+        body.append(_text((x1 + x2) / 2, ty - 5, "direction of travel", size=8.5,
                           fill="#333"))
     body.append(_text(6, deck_y - 40, f"axles ({display.unit('force')})", size=8,
                       anchor="start", fill="#555"))
@@ -421,11 +435,12 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     body.append(f'<polyline class="il" points="{pts}" fill="none" stroke="#222" '
                 f'stroke-width="1.6"/>')
     k_max, k_min = int(np.argmax(y)), int(np.argmin(y))
-    if y[k_max] > 0:
+    tiny = 1e-6 * float(np.max(np.abs(y)) or 1.0)
+    if y[k_max] > tiny:
         body.append(_text(X(st[k_max]), Y(y[k_max]) - 4,
                           display.number(float(y[k_max]), None, 3, signed=True), size=8,
                           halo=True))
-    if y[k_min] < 0:
+    if y[k_min] < -tiny:
         body.append(_text(X(st[k_min]), Y(y[k_min]) + 11,
                           display.number(float(y[k_min]), None, 3, signed=True), size=8,
                           halo=True))

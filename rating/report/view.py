@@ -150,6 +150,7 @@ class InfluenceView:
     position: str
     lane: str
     drawing: Markup
+    note: str = ""
 
 
 @dataclass(frozen=True)
@@ -477,11 +478,19 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             lane = (f"lane load {d.field(crit.vehicle, 'lane_load')} {units.line_load} on "
                     + ", ".join(f"{d.length(a)}\u2013{d.length(b_)}"
                                 for a, b_ in pos.lane_segments) + f" {units.length}")
+        note = ""
+        if crit.rating is not None and crit.rating.method == "load multiplier":
+            note = ("This member is rated by the load multiplier on the exact load path "
+                    "(tension-only members change which diagonals act as the load grows), so "
+                    "its force is not the linear line drawn")
+            if line is not None and not any(abs(o) > 1e-9 for o in line.ordinates):
+                note += ": the line is zero because the member is slack in the truss as drawn"
+            note += "; the vehicle is shown where it governs."
         influence.append(InfluenceView(
             member=element, role=m.role, vehicle=_vehicle_label(crit.vehicle, crit.vehicle.id),
             controls=names, rf=rf_cell(crit.rf),
             check=crit.rating.check if crit.rating else "", position=_position_text(pos, d),
-            lane=lane, drawing=drawing))
+            lane=lane, drawing=drawing, note=note))
 
     # member table
     rows: list[MemberRow] = []

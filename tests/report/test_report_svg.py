@@ -13,6 +13,7 @@ import pytest
 from rating.report.display import Display
 from rating.report.svg import (
     RFBands,
+    _stagger,
     elevation_svg,
     influence_svg,
     legend_svg,
@@ -149,3 +150,13 @@ def test_packing_drawn_to_scale(results_us: RatingResults) -> None:
         assert gap == pytest.approx(pin.packing[k].gap_before * s, abs=0.3)
     empty = packing_svg(replace(pin, packing=()), US)
     assert "packing not given" in str(empty)
+
+
+def test_close_axle_labels_are_lifted_apart() -> None:
+    xs = [100.0, 110.0, 120.0, 300.0, 305.0]
+    lifts = _stagger(xs, min_gap=24.0, step=9.0)
+    assert lifts[0] == 0.0 and lifts[3] == 0.0
+    for i in range(len(xs)):
+        for j in range(i):
+            if abs(xs[i] - xs[j]) < 24.0:
+                assert lifts[i] != lifts[j]
