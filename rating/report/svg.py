@@ -10,6 +10,7 @@ Drawing coordinates are in pixels of the SVG viewBox; numbers shown are converte
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 
@@ -486,6 +487,7 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
     body.append(f'<rect x="{_f(x - 12)}" y="{_f(pin_y - pin_h / 2)}" '
                 f'width="{_f(total * s + 24)}" height="{_f(pin_h)}" fill="#e8e8e8" '
                 f'stroke="#444" stroke-width="1"/>')
+    first_face = x + rows[0].gap_before * s
     for k, r in enumerate(rows):
         x += r.gap_before * s
         w = max(r.thickness * s, 1.0)
@@ -499,8 +501,25 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
         body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
         body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))
         x += r.thickness * s
-    body.append(_text(WIDTH / 2, pin_y + 62,
+    z = governing_z_in(pin.governing_section)
+    if z is not None and 0.0 <= z <= total + 1e-9:
+        gx = first_face + z * s
+        body.append(f'<line class="governing" x1="{_f(gx)}" y1="{_f(pin_y - 44)}" '
+                    f'x2="{_f(gx)}" y2="{_f(pin_y + 38)}" stroke="#8e1b1b" stroke-width="1.6" '
+                    f'stroke-dasharray="4 2"><title>governing section</title></line>')
+        body.append(_text(gx, pin_y + 60, "governing section", size=8, fill="#8e1b1b"))
+    body.append(_text(WIDTH / 2, pin_y + 76,
                       f"pin {pin.joint}, diameter {display.field(pin, 'diameter')} "
                       f"{display.unit('dimension')}; plates in order along the pin "
                       f"(numbers as in the table)", size=8.5, fill="#333"))
-    return _svg(WIDTH, pin_y + 70, f"packing of pin {pin.joint}", body, "packing")
+    return _svg(WIDTH, pin_y + 84, f"packing of pin {pin.joint}", body, "packing")
+
+
+_GOVERNING_Z = re.compile(r"\bz\s*=\s*([0-9]+(?:\.[0-9]+)?)\s*in\b")
+
+
+def governing_z_in(text: str) -> float | None:
+    """Distance of the governing section from the first plate's outer face, in, when the
+    results' governing-section text gives it as "z = 1.23 in ..."; else ``None``."""
+    m = _GOVERNING_Z.search(text or "")
+    return float(m.group(1)) if m else None

@@ -137,6 +137,21 @@ class PinView:
     lowest: Cell
     drawing: Markup
     warnings: tuple[str, ...]
+    lowest_vehicle: str = ""
+    lowest_check: str = ""
+    packing_chunks: tuple[tuple[PackingLine, ...], ...] = ()
+
+
+@dataclass(frozen=True)
+class PinRow:
+    joint: str
+    cells: tuple[Cell, ...]
+
+
+@dataclass(frozen=True)
+class PinTable:
+    vehicles: tuple[VehicleResult, ...]
+    rows: tuple[PinRow, ...]
 
 
 @dataclass(frozen=True)
@@ -272,6 +287,7 @@ class ReportView:
     footer: str
     band_labels: tuple[svg.Band, ...] = field(default=())
     has_neg_inf: bool = False
+    pin_tables: tuple[PinTable, ...] = ()
 
 
 # ------------------------------------------------------------------ helpers
@@ -534,6 +550,14 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         live_tables.append(LiveTable(chunk, tuple(lrows)))
 
     pins = tuple(_pin_view(p, d, bands, vmap, rf_cell) for p in results.pins)
+    pin_tables: list[PinTable] = []
+    step_p = max(1, 2 * vehicles_per_table)
+    for k in range(0, len(vs) if results.pins else 0, step_p):
+        chunk = tuple(vs[k:k + step_p])
+        prow = tuple(PinRow(p.joint, tuple(
+            rf_cell(p.ratings[v.id].rf if v.id in p.ratings else None) for v in chunk))
+            for p in results.pins)
+        pin_tables.append(PinTable(chunk, prow))
 
     findings = tuple(FindingRow(
         member=f.member, component=f.component, region=f.region,
@@ -603,7 +627,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         warnings=warnings, sections=sections, checks=checks, has_dash=has_dash, paper=p,
         paper_note=paper_note, generator=results.generator,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
-        band_labels=bands.bands, has_neg_inf=has_neg_inf)
+        band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables))
 
 
 def _from_memory(text: str) -> bool:
@@ -618,5 +642,8 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
     ratings = tuple(PinRating(_vehicle_label(vmap.get(vid), vid), rf_cell(r.rf), r.check,
                               r.method) for vid, r in p.ratings.items())
     low = svg.lowest_rating(p.ratings.items())
+    chunks = tuple(packing[k:k + 12] for k in range(0, len(packing), 12))
     return PinView(p.joint, d.field(p, "diameter"), p.governing_section, packing, ratings,
-                   rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings)
+                   rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
+                   lowest_vehicle=_vehicle_label(vmap.get(low[0]), low[0]) if low else "",
+                   lowest_check=low[1].check if low else "", packing_chunks=chunks)

@@ -15,6 +15,7 @@ from rating.report.svg import (
     RFBands,
     _stagger,
     elevation_svg,
+    governing_z_in,
     influence_svg,
     legend_svg,
     lowest_rating,
@@ -148,6 +149,13 @@ def test_packing_drawn_to_scale(results_us: RatingResults) -> None:
         prev = float(rects[k - 1].get("x")) + float(rects[k - 1].get("width"))
         gap = float(rects[k].get("x")) - prev
         assert gap == pytest.approx(pin.packing[k].gap_before * s, abs=0.3)
+    # the governing section, when the results give its distance, is marked to the same scale
+    z_pin = replace(pin, governing_section="z = 2.0625 in from the first plate's outer face")
+    gov = next(ln for ln in _parse(packing_svg(z_pin, US)).findall(".//s:line", NS)
+               if ln.get("class") == "governing")
+    assert float(gov.get("x1")) == pytest.approx(float(rects[0].get("x")) + 2.0625 * s,
+                                                 abs=0.3)
+    assert governing_z_in("section 3, between U1L2 and L1L2") is None
     empty = packing_svg(replace(pin, packing=()), US)
     assert "packing not given" in str(empty)
 
