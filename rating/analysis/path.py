@@ -10,12 +10,12 @@ that is consistent at that load level (documented in docs/tension-only.md).
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+from collections.abc import Hashable, Iterable, Iterator
 from dataclasses import dataclass
 
 import numpy as np
 
-from rating.analysis.truss import TrussFamily, solve_tension_only
+from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
 from rating.errors import ConvergenceError
 
 
@@ -35,13 +35,19 @@ class PathSegment:
 
 
 def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
-              lam_max: float = 1e3, max_segments: int = 60) -> Iterator[PathSegment]:
-    """Yield the linear pieces of the load path from lam = 0 up to ``lam_max``."""
+              lam_max: float = 1e3, max_segments: int = 60,
+              dead_state: ActiveSetSolution | None = None) -> Iterator[PathSegment]:
+    """Yield the linear pieces of the load path from lam = 0 up to ``lam_max``.
+
+    ``dead_state`` is the tension-only solution under ``P_dead`` when the caller has it
+    already (it is the same for every vehicle position).
+    """
     g = family.geometry
     t_only = np.array([m.tension_only for m in g.members])
     labels = [m.label for m in g.members]
     lam = 0.0
-    state = solve_tension_only(g, P_dead, family=family)
+    state = dead_state if dead_state is not None else solve_tension_only(g, P_dead,
+                                                                         family=family)
     scale = max(float(np.abs(P_dead).max()), float(np.abs(P_live).max()), 1.0)
     for _ in range(max_segments):
         lt = family.solver(state.slack)
@@ -74,18 +80,43 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
         f"the load path changed its set of slack members more than {max_segments} times")
 
 
+class PathCache:
+    """Load paths kept by a caller's key: one vehicle position at one factor set is followed
+    once, then shared by every member and pin rated with it."""
+
+    def __init__(self, family: TrussFamily, lam_max: float = 1e3) -> None:
+        self.family = family
+        self.lam_max = lam_max
+        self._paths: dict[Hashable, tuple[PathSegment, ...]] = {}
+
+    def segments(self, key: Hashable, P_dead: np.ndarray, P_live: np.ndarray,
+                 dead_state: ActiveSetSolution | None = None) -> tuple[PathSegment, ...]:
+        hit = self._paths.get(key)
+        if hit is None:
+            hit = tuple(load_path(self.family, P_dead, P_live, self.lam_max,
+                                  dead_state=dead_state))
+            self._paths[key] = hit
+        return hit
+
+
 def member_load_multiplier(family: TrussFamily, member: str, sense: int, capacity_kip: float,
                            P_dead: np.ndarray, P_live: np.ndarray,
-                           lam_max: float = 1e3) -> tuple[float, PathSegment]:
+                           lam_max: float = 1e3,
+                           dead_state: ActiveSetSolution | None = None,
+                           segments: Iterable[PathSegment] | None = None
+                           ) -> tuple[float, PathSegment]:
     """Smallest lam >= 0 at which sense * N_member(P_dead + lam P_live) reaches capacity.
 
     Returns (lam, the segment it lies in); lam = inf when the member never reaches it (it goes
     slack, or the live load unloads it). When the factored dead load alone already exceeds the
     capacity, lam is the (negative) linear extrapolation on the dead-load active set.
+    ``segments``: the path already followed (see :class:`PathCache`).
     """
     i = family.geometry.member_index[member]
     first: PathSegment | None = None
-    for seg in load_path(family, P_dead, P_live, lam_max):
+    path = segments if segments is not None else load_path(family, P_dead, P_live, lam_max,
+                                                            dead_state=dead_state)
+    for seg in path:
         if first is None:
             first = seg
             n0 = sense * seg.N_dead[i]

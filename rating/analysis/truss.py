@@ -103,6 +103,7 @@ class LinearTruss:
         K_ff = K[np.ix_(f, f)]
         self._check_stability(K_ff)
         self._chol = sla.cho_factor(K_ff, lower=True, check_finite=False)
+        self._potrs = sla.get_lapack_funcs("potrs", (K_ff,))
 
     def _free_dof_name(self, dof: int) -> tuple[str, str]:
         joint = self.geometry.joints[dof // 2].label
@@ -119,6 +120,15 @@ class LinearTruss:
                 f"{direction} direction", joint, direction)
         scale = 1.0 / np.sqrt(diag)
         S = K_ff * scale[:, None] * scale[None, :]
+        # Cholesky pivots never fall below the least eigenvalue, and a singular truss gives a
+        # round-off pivot; only a small pivot calls for the eigen-solution (which names the
+        # free joint or confirms the truss is merely ill-conditioned).
+        try:
+            L = np.linalg.cholesky(S)
+            if float(np.min(np.diag(L)) ** 2) >= _MECHANISM_TOL:
+                return
+        except np.linalg.LinAlgError:
+            pass
         w, v = np.linalg.eigh(S)
         if w[0] < _MECHANISM_TOL * max(w[-1], 1.0):
             mode = np.zeros(2 * len(self.geometry.joints))
@@ -168,7 +178,10 @@ class LinearTruss:
         P2 = P.reshape(2 * nj, -1)
         f = self._t.free_dofs
         u = np.zeros_like(P2)
-        u[f] = sla.cho_solve(self._chol, P2[f], check_finite=False)
+        sol, info = self._potrs(self._chol[0], P2[f], lower=True)  # LAPACK, no checks
+        if info != 0:  # pragma: no cover - the factorization succeeded, so this cannot fail
+            raise ValueError(f"LAPACK potrs failed with info={info}")
+        u[f] = sol
         elong = self._B @ u
         N = self._k_axial[:, None] * elong
         R = self._B.T @ N - P2  # internal nodal forces minus applied = support reactions

@@ -548,9 +548,111 @@ def pin_load_multiplier(pin: Pin, base: Sequence[MemberAction], added: Sequence[
 
     if u(0.0) >= 1.0:
         return 0.0
-    lo, hi = 0.0, 1.0
+    lo, hi = 0.0, min(1.0, lam_max)
     while u(hi) < 1.0:
-        lo, hi = hi, hi * 2.0
-        if hi > lam_max:
+        if hi >= lam_max:
             return math.inf
+        lo, hi = hi, min(hi * 2.0, lam_max)
     return float(brentq(lambda x: u(x) - 1.0, lo, hi, xtol=1e-10, rtol=1e-12))
+
+
+# --------------------------------------------------------------------------------------------
+# many load states at once (the rating searches many vehicle positions per pin)
+# --------------------------------------------------------------------------------------------
+
+
+class PinModel:
+    """One pin with its layout fixed, evaluated for whole batches of load states.
+
+    Same forms as :func:`pin_check` (AASHTO LRFD 6.7.6.2.1 and 6.7.6.2.2 [value from
+    memory]; loading Berg, Safe Building, Parts 10-15 [read]), vectorized over leading axes.
+    """
+
+    def __init__(self, pin: Pin, members: Sequence[str],
+                 directions: Sequence[tuple[float, float]], *, has_external: bool = True,
+                 designs: Mapping[str, MemberDesign] | None = None,
+                 default_pin_material: Material | None = None, phi_f: float = PHI_F,
+                 phi_v: float = PHI_V, phi_b: float = PHI_B, limit: float = INTERACTION_LIMIT,
+                 max_clearance_in: float = 0.25) -> None:
+        actions = [MemberAction(m, 0.0, d) for m, d in zip(members, directions, strict=True)]
+        self.material = _material(pin, default_pin_material, [])
+        self.layout = _layout(pin, actions, has_external, self.material.F_y, designs, [], [],
+                              max_clearance_in)
+        u = np.array(directions, dtype=float).reshape(-1, 2)
+        self._unit = u / np.linalg.norm(u, axis=1)[:, None]
+        self.D = float(pin.diameter_in)
+        self.phi_f, self.phi_v, self.limit = phi_f, phi_v, limit
+        z = self.layout.z
+        dz = z[:, None] - z[None, :]
+        self._mL = np.maximum(dz, 0.0)
+        self._mR = np.maximum(-dz, 0.0)
+        self._before = (dz > 0).astype(float)
+        self._upto = (dz >= 0).astype(float)
+        npl = self.layout.n_plates
+        self._bearing_cap = phi_b * lrfd_bearing_nominal(self.layout.t[:npl], self.D,
+                                                         self.layout.Fy_bearing[:npl])
+
+    def point_forces(self, member_forces_kip: np.ndarray,
+                     external_kip: np.ndarray | None = None) -> np.ndarray:
+        """(..., n_points, 2) forces on the pin from member forces (..., n_members)."""
+        N = np.asarray(member_forces_kip, dtype=float)
+        F = self.layout.share @ (N[..., :, None] * self._unit)
+        if external_kip is not None:
+            F = F + self.layout.ext_share[:, None] * np.asarray(external_kip)[..., None, :]
+        return F
+
+    def utilization(self, F: np.ndarray) -> np.ndarray:
+        """Governing utilization (1.0 at the limit) of each load state in the batch."""
+        def nrm(a):
+            return np.hypot(a[..., 0], a[..., 1])
+
+        M = np.maximum(nrm(self._mL @ F), nrm(self._mR @ F))
+        V_Lm = self._before @ F
+        V_Lp = self._upto @ F
+        total = F.sum(axis=-2, keepdims=True)
+        V = np.maximum.reduce([nrm(V_Lm), nrm(V_Lp), nrm(total - V_Lp), nrm(total - V_Lm)])
+        fs = lrfd_flexure_shear(M, V, self.D, self.material.F_y, self.phi_f, self.phi_v)
+        npl = self.layout.n_plates
+        u = fs.max(axis=-1) / self.limit
+        if npl:
+            u = np.maximum(u, (nrm(F[..., :npl, :]) / self._bearing_cap).max(axis=-1))
+        return u
+
+    def multipliers(self, F_base: np.ndarray, F_added: np.ndarray,
+                    lam_max: float = 1e3) -> np.ndarray:
+        """lam with utilization(F_base + lam F_added) = 1 for each state pair (P, n, 2).
+
+        ``F_base`` is one state (n, 2) shared by all, or one per added state (P, n, 2).
+
+        The utilization is convex in lam (norms of affine forces, raised to powers >= 1), so
+        from below the limit it crosses 1.0 once: a geometric grid brackets it, four finer
+        grids narrow it, a secant step closes it. 0.0 where the base alone reaches the limit,
+        inf where it is not reached below lam_max.
+        """
+        F1 = np.asarray(F_added, dtype=float)
+        F0 = np.broadcast_to(np.asarray(F_base, dtype=float), F1.shape)
+        grid = np.concatenate(([0.0], np.geomspace(1e-2, lam_max, 31)))
+        U = self.utilization(F0[:, None] + grid[None, :, None, None] * F1[:, None])
+        over = U >= 1.0
+        out = np.full(F1.shape[0], np.inf)
+        first = np.where(over.any(axis=1), over.argmax(axis=1), -1)
+        out[first == 0] = 0.0
+        todo = np.nonzero(first > 0)[0]
+        if todo.size:
+            lo = grid[first[todo] - 1]
+            hi = grid[first[todo]]
+            Ft, F0t = F1[todo], F0[todo]
+            frac = np.linspace(0.0, 1.0, 17)
+            for _ in range(5):  # each pass narrows the bracket 16 times
+                sub = lo[:, None] + (hi - lo)[:, None] * frac[None, :]
+                u = self.utilization(F0t[:, None] + sub[:, :, None, None] * Ft[:, None])
+                k = np.clip((u >= 1.0).argmax(axis=1), 1, 16)
+                rows = np.arange(todo.size)
+                lo, hi = sub[rows, k - 1], sub[rows, k]
+            # the bracket is now ~1e-6 wide: a secant step on the convex utilization
+            u_lo = self.utilization(F0t + lo[:, None, None] * Ft)
+            u_hi = self.utilization(F0t + hi[:, None, None] * Ft)
+            w = np.where(u_hi > u_lo, (1.0 - u_lo) / np.where(u_hi > u_lo, u_hi - u_lo, 1.0),
+                         1.0)
+            out[todo] = lo + np.clip(w, 0.0, 1.0) * (hi - lo)
+        return out

@@ -23,8 +23,8 @@ from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Envelope, Extreme, envelope
-from rating.analysis.path import member_load_multiplier
-from rating.analysis.truss import TrussFamily
+from rating.analysis.path import PathCache, member_load_multiplier
+from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
 from rating.capacity.member import MemberCapacity, member_capacity
 from rating.capacity.sections import gross_area_as_built_in2
 from rating.errors import InputError
@@ -298,6 +298,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     DC = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dc_kip, strict=True)}
     DW = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_kip, strict=True)}
 
+    dead_states = factored_dead_states(family, dead, dead_f)
+    paths = PathCache(family)
     live: dict[tuple[str, str], LiveEffect] = {}
     ratings: dict[tuple[str, str], MemberCaseRating] = {}
     env_cache: dict[tuple[str, frozenset[str]], Envelope] = {}
@@ -319,11 +321,12 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 df * best_max[0].total_kip(im), df * best_min[0].total_kip(im), df,
                 best_max[0], best_min[0], best_max[1])
             ratings[(lab, case.id)] = _rate_member(
-                g, family, m, capacities[lab], case, DC[lab], DW[lab], dead, dead_f, df,
-                [env_cache[(case.load.id, c)].of(lab) for c in cfgs], lab in dependent)
+                g, family, m, capacities[lab], case, DC[lab], DW[lab], dead_states, dead_f, df,
+                [env_cache[(case.load.id, c)].of(lab) for c in cfgs], lab in dependent, paths)
 
     pins = tuple(
-        rate_pin(pin, g, family, capacities, bridge, cases, configs, env_cache, dead, dead_f, df)
+        rate_pin(pin, g, family, bridge, cases, configs, env_cache, dead, dead_f, df,
+                 dead_states, dependent, paths)
         for pin in bridge.pins)
     postings = _postings(cases, ratings, pins, g)
     for p in pins:
@@ -340,8 +343,20 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     )
 
 
+def factored_dead_states(family: TrussFamily, dead: DeadLoadResult, dead_f
+                         ) -> dict[tuple[float, float], tuple[np.ndarray, ActiveSetSolution]]:
+    """Factored dead-load joint loads and their tension-only states, maximum and minimum
+    factor sets (AASHTO LRFD Table 3.4.1-2 [V]); the same for every vehicle position."""
+    out = {}
+    for gd, gw in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value),
+                   (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value)):
+        P = gd * dead.joint_loads_dc_kip + gw * dead.joint_loads_dw_kip
+        out[(gd, gw)] = (P, solve_tension_only(family.geometry, P, family=family))
+    return out
+
+
 def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
-                 dead: DeadLoadResult, dead_f, df: float, envs, dependent: bool
+                 dead_states, dead_f, df: float, envs, dependent: bool, paths: PathCache
                  ) -> MemberCaseRating:
     im = case.im.value
     g_ll = case.gamma_ll.value
@@ -369,14 +384,14 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
             # known beforehand (a slack counter carries none), so both factor sets are tried
             # and the lower multiplier governs (AASHTO LRFD 3.4.1 [V]).
             rf, ext = math.inf, None
-            for gd, gw in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value),
-                           (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value)):
-                P_dead = gd * dead.joint_loads_dc_kip + gw * dead.joint_loads_dw_kip
-                for e in extremes:
-                    if e.position is None and not e.lane_segments_ft:
-                        continue
+            unique = {(e.model, e.position, e.lane_segments_ft): e for e in extremes
+                      if e.position is not None or e.lane_segments_ft}
+            for (gd, gw), (P_dead, state) in dead_states.items():
+                for key, e in unique.items():
                     P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
-                    lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live)
+                    segs = paths.segments((case.id, gd, gw, key), P_dead, P_live, state)
+                    lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live,
+                                                    dead_state=state, segments=segs)
                     if lam < rf:
                         rf, ext, g_dc, g_dw = lam, e, gd, gw
             method = "load multiplier"

@@ -13,14 +13,20 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
 from rating.analysis.moving import Extreme
-from rating.analysis.path import load_path
-from rating.analysis.truss import TrussFamily
-from rating.capacity.pins import PinCheck, pin_actions, pin_check, pin_load_multiplier
+from rating.analysis.path import PathCache, load_path
+from rating.analysis.truss import ActiveSetSolution, TrussFamily
+from rating.capacity.pins import (
+    PinCheck,
+    PinModel,
+    pin_actions,
+    pin_check,
+    pin_load_multiplier,
+)
 from rating.lrfr.liveload import live_joint_loads
 from rating.model import Pin, TrussGeometry
 
@@ -51,14 +57,21 @@ def _external(g: TrussGeometry, joint: str, P: np.ndarray) -> tuple[float, float
 
 def pin_multiplier_on_path(pin: Pin, g: TrussGeometry, family: TrussFamily,
                            P_dead: np.ndarray, P_live: np.ndarray, designs: Mapping,
-                           lam_max: float = 1e3) -> tuple[float, PinCheck | None]:
-    """Least lam at which the pin reaches its limit along the exact load path."""
+                           lam_max: float = 1e3, dead_state: ActiveSetSolution | None = None,
+                           linear: bool = False) -> tuple[float, PinCheck | None]:
+    """Least lam at which the pin reaches its limit along the exact load path.
+
+    ``linear``: the forces at this joint do not depend on the active set, so the first piece
+    of the path is extended to ``lam_max``.
+    """
     labels = [m.label for m in g.members]
     here = {m.label for m in g.members_at(pin.joint)}
     idx = [i for i, lab in enumerate(labels) if lab in here]
     ext_d = _external(g, pin.joint, P_dead)
     ext_l = _external(g, pin.joint, P_live)
-    for seg in load_path(family, P_dead, P_live, lam_max):
+    for seg in load_path(family, P_dead, P_live, lam_max, dead_state=dead_state):
+        if linear:
+            seg = replace(seg, lam_end=lam_max)
         N0 = seg.forces(seg.lam_start)
         base = pin_actions(g, pin.joint, {labels[i]: float(N0[i]) for i in idx})
         added = pin_actions(g, pin.joint, {labels[i]: float(seg.N_live[i]) for i in idx})
@@ -73,16 +86,25 @@ def pin_multiplier_on_path(pin: Pin, g: TrussGeometry, family: TrussFamily,
                             external_kip=(ext_d[0] + total * ext_l[0],
                                           ext_d[1] + total * ext_l[1]), designs=designs)
             return total, chk
+        if linear:
+            break
     return math.inf, None
 
 
-def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, capacities, bridge, cases,
-             configs: Sequence[frozenset[str]], env_cache, dead, dead_f, df: float) -> PinRating:
-    """Rate one pin for every case (see the module docstring)."""
+def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
+             configs: Sequence[frozenset[str]], env_cache, dead, dead_f, df: float,
+             dead_states, dependent: frozenset[str], paths: PathCache) -> PinRating:
+    """Rate one pin for every case (see the module docstring).
+
+    Where no member at the joint depends on the counter panels' active set, the forces are
+    linear in lam on the dead-load active set and one multiplier search per position does.
+    """
     designs = {d.member: d for d in bridge.member_designs}
     g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
-    P_dead = g_dc * dead.joint_loads_dc_kip + g_dw * dead.joint_loads_dw_kip
+    P_dead, dead_state = dead_states[(g_dc, g_dw)]
     members_here = [m.label for m in g.members_at(pin.joint)]
+    linear = not (set(members_here) & dependent)
+    ratings: dict[str, PinCaseRating] = {}
     # the pin under factored dead load alone, for the report and its warnings
     labels = [m.label for m in g.members]
     dead_check = pin_check(
@@ -90,29 +112,76 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, capacities, bridge
                                                    + g_dw * dead.member_forces_dw_kip[i])
                                         for i, lab in enumerate(labels) if lab in members_here}),
         external_kip=_external(g, pin.joint, P_dead), designs=designs)
-    ratings: dict[str, PinCaseRating] = {}
+    idx = [g.member_index[lab] for lab in members_here]
+    jt = g.joint(pin.joint)
+    dirs = []
+    for lab in members_here:
+        m = g.member(lab)
+        far = g.joint(m.end if m.start == pin.joint else m.start)
+        dirs.append((far.x_ft - jt.x_ft, far.y_ft - jt.y_ft))
+    model = PinModel(pin, members_here, dirs, designs=designs)
+    solver = family.solver(dead_state.slack)
+    jrow = g.joint_index[pin.joint]
+    ext_dead = np.asarray(_external(g, pin.joint, P_dead))
+    F_base = model.point_forces(dead_state.solution.member_forces_kip[idx], ext_dead)
     for case in cases:
         im, g_ll = case.im.value, case.gamma_ll.value
-        seen: set = set()
-        best = PinCaseRating(case.id, math.inf, "not loaded by this vehicle", None, None)
+        unique: dict = {}
         for c in configs:
             env = env_cache[(case.load.id, c)]
             for lab in members_here:
                 me = env.of(lab)
                 for e in (me.max, me.min):
-                    key = (e.model, e.position, e.lane_segments_ft)
-                    if key in seen or (e.position is None and not e.lane_segments_ft):
+                    if e.position is None and not e.lane_segments_ft:
                         continue
-                    seen.add(key)
-                    P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
-                    lam, chk = pin_multiplier_on_path(pin, g, family, P_dead, P_live, designs)
-                    if lam < best.rf:
-                        what = "pin"
-                        if chk is not None:
-                            what = ("pin bearing" if chk.utilization_bearing
-                                    >= chk.utilization_flexure_shear else
-                                    f"pin flexure and shear at z = {chk.governing.z_in:.2f} in")
-                        best = PinCaseRating(case.id, lam, what, e, chk)
+                    unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
+        keys = list(unique)
+        best = PinCaseRating(case.id, math.inf, "not loaded by this vehicle", None, None)
+        exts = list(unique.values())
+        if not exts:
+            ratings[case.id] = best
+            continue
+        P_lives = [g_ll * live_joint_loads(g, case.load, e, im, df) for e in exts]
+        P = np.stack(P_lives, axis=-1)  # (n_joints, 2, n_positions)
+        ext_live = P[jrow].T  # (n_positions, 2)
+        if linear:
+            # forces at this joint are linear in lam on the dead-load active set: all
+            # positions in one vectorized search
+            N_live = solver.solve(P).member_forces_kip[idx].T  # (n_positions, n_here)
+            lams = model.multipliers(F_base, model.point_forces(N_live, ext_live))
+        else:
+            # piecewise linear along each position's exact load path: every piece of every
+            # path in one vectorized search, then the first piece that holds the crossing
+            owner, starts, lengths, F0s, F1s = [], [], [], [], []
+            for k, P_live in enumerate(P_lives):
+                for seg in paths.segments((case.id, g_dc, g_dw, keys[k]), P_dead, P_live,
+                                          dead_state):
+                    owner.append(k)
+                    starts.append(seg.lam_start)
+                    lengths.append(seg.lam_end - seg.lam_start)
+                    F0s.append(model.point_forces(seg.forces(seg.lam_start)[idx],
+                                                  ext_dead + seg.lam_start * ext_live[k]))
+                    F1s.append(model.point_forces(seg.N_live[idx], ext_live[k]))
+            rel = model.multipliers(np.stack(F0s), np.stack(F1s))
+            lams = np.full(len(exts), np.inf)
+            for k, s0, ln, r in zip(owner, starts, lengths, rel, strict=True):
+                if math.isinf(lams[k]) and r <= ln * (1 + 1e-9) + 1e-12:
+                    lams[k] = s0 + r
+        k = int(np.argmin(lams))
+        lam, chk = float(lams[k]), None
+        if math.isfinite(lam):  # the governing position once more, for its pin check
+            lam_chk, chk = pin_multiplier_on_path(pin, g, family, P_dead, P_lives[k], designs,
+                                                  dead_state=dead_state, linear=linear)
+            lam = lam_chk if math.isfinite(lam_chk) else lam
+        candidates = [(lam, exts[k], chk)]
+        for lam, e, chk in candidates:
+            if lam < best.rf:
+                what = "pin"
+                if chk is not None:
+                    what = ("pin bearing" if chk.utilization_bearing
+                            >= chk.utilization_flexure_shear else
+                            f"pin flexure and shear at z = {chk.governing.z_in:.2f} in")
+                best = PinCaseRating(case.id, lam, what, e, chk)
         ratings[case.id] = best
     return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,
                      dead_check.assumptions)

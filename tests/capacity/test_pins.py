@@ -305,3 +305,20 @@ def test_pin_without_material_uses_default_and_says_so():
     pin = Pin("L2", 4.0, (PackingItem("A", 1.0), PackingItem("B", 1.0)))
     r = pin_check(pin, [MemberAction("A", 1.0, (-1, 0)), MemberAction("B", 1.0, (1, 0))])
     assert r.F_y == 26.0 and any("pin material not recorded" in a for a in r.assumptions)
+
+
+def test_multiplier_found_when_the_limit_lies_just_inside_lam_max():
+    # regression: a crossing between the last doubling step and lam_max must not be missed
+    from rating.capacity.pins import MemberAction, pin_check, pin_load_multiplier
+    from rating.model import Material, MaterialKind, PackingItem, Pin
+
+    pin = Pin("J", 4.0, (PackingItem("A", 1.0), PackingItem("B", 1.0), PackingItem("A", 1.0)),
+                material=Material(MaterialKind.STEEL, 36.0, 58.0))
+    base = [MemberAction("A", 0.0, (1.0, 0.0)), MemberAction("B", 0.0, (-1.0, 0.0))]
+    added = [MemberAction("A", 50.0, (1.0, 0.0)), MemberAction("B", 50.0, (-1.0, 0.0))]
+    lam = pin_load_multiplier(pin, base, added)
+    assert math.isfinite(lam)
+    assert pin_load_multiplier(pin, base, added, lam_max=lam * 1.05) == pytest.approx(lam)
+    assert math.isinf(pin_load_multiplier(pin, base, added, lam_max=lam * 0.95))
+    at = [MemberAction(a.member, lam * a.force_kip, a.direction) for a in added]
+    assert pin_check(pin, at).utilization == pytest.approx(1.0, rel=1e-6)
