@@ -28,7 +28,7 @@ def dead_loads(w=-12.0):
     return P
 
 
-def brute_force(member, sense, C, P_d, P_l, step=0.002, lam_max=20.0):
+def brute_force(member, sense, C, P_d, P_l, step=0.005, lam_max=8.0):
     i = G.member_index[member]
     for lam in np.arange(0.0, lam_max, step):
         N = solve_tension_only(G, P_d + lam * P_l).solution.member_forces_kip[i]
@@ -37,21 +37,21 @@ def brute_force(member, sense, C, P_d, P_l, step=0.002, lam_max=20.0):
     return np.inf
 
 
-@settings(max_examples=15, deadline=None)
+@settings(max_examples=10, deadline=None)
 @given(x=st.floats(0.0, 160.0), load=st.floats(20.0, 80.0), C=st.floats(5.0, 120.0),
        member=st.sampled_from(["L3U4", "U3L4", "L4U4", "U4L5", "L3U3", "U3U4"]))
 def test_multiplier_matches_brute_force(x, load, C, member):
     P_d = dead_loads()
     P_l = axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load])
     sense = -1 if member in ("L4U4", "L3U3", "U3U4") else 1
-    lam, _ = member_load_multiplier(FAM, member, sense, C, P_d, P_l, lam_max=20.0)
+    lam, _ = member_load_multiplier(FAM, member, sense, C, P_d, P_l, lam_max=8.0)
     ref = brute_force(member, sense, C, P_d, P_l)
     if ref == 0.0:  # factored dead load alone reaches the capacity: RF <= 0
         assert lam <= 0.0
     elif np.isinf(ref):
-        assert lam >= 20.0 - 0.002 or np.isinf(lam)
+        assert lam >= 8.0 - 0.005 or np.isinf(lam)
     else:
-        assert ref - 0.002 - 1e-9 <= lam <= ref + 1e-9
+        assert ref - 0.005 - 1e-9 <= lam <= ref + 1e-9
 
 
 def test_path_segments_are_consistent():
