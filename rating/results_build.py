@@ -162,10 +162,16 @@ def recommendation(rating: BridgeRating, unit: str) -> str:
              and c.category is not VehicleCategory.EMERGENCY]
     for c in other:
         groups.append(f"{c.load.name} {amount(c):g} {unit}s")
-    single = min(posted, key=amount)
-    return ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)
-            + f". A single weight limit would be {amount(single):g} {unit}s (from "
-            f"{single.load.name}, controlled by {rating.postings[single.id].controlling})." + tail)
+    trucks = [c for c in posted if c.category is not VehicleCategory.EMERGENCY]
+    text = "Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups) + "."
+    if trucks:
+        single = min(trucks, key=amount)
+        text += (f" A single weight limit for trucks would be {amount(single):g} {unit}s (from "
+                 f"{single.load.name}, controlled by {rating.postings[single.id].controlling}).")
+    if ev:
+        text += (" Emergency vehicles are posted separately from the truck limit (common "
+                 "practice; the owner's policy governs).")
+    return text + tail
 
 
 def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),

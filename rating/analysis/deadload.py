@@ -17,7 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from rating.analysis.truss import ActiveSetSolution, LinearTruss, solve_tension_only
+from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
 from rating.errors import InputError
 from rating.model import (
     CrossSection,
@@ -94,6 +94,7 @@ def dead_load(
     member_weights: Mapping[str, MemberWeight],
     detail_allowance: float = 0.15,
     detail_allowance_given: bool = False,
+    family: TrussFamily | None = None,
 ) -> DeadLoadResult:
     """Dead-load forces in the more heavily loaded truss, DC and DW apart.
 
@@ -141,8 +142,9 @@ def dead_load(
     P_dc = loads[DeadLoadKind.DC][side] + self_weight
     P_dw = loads[DeadLoadKind.DW][side]
     # The active set follows the total dead load; DC and DW are then split on that set.
-    total = solve_tension_only(geometry, P_dc + P_dw)
-    lt = LinearTruss(geometry, total.slack)
+    fam = family if family is not None else TrussFamily(geometry)
+    total = solve_tension_only(geometry, P_dc + P_dw, family=fam)
+    lt = fam.solver(total.slack)
     assumptions = []
     if not detail_allowance_given:
         assumptions.append(

@@ -232,12 +232,15 @@ class TrussFamily:
     set is factorized once. Unstable sets are remembered too.
     """
 
-    def __init__(self, geometry: TrussGeometry) -> None:
+    def __init__(self, geometry: TrussGeometry, excluded: Iterable[str] = ()) -> None:
+        """``excluded``: members out of service (every bar loose, missing or broken), left out
+        of every active set."""
         self.geometry = geometry
+        self.excluded = frozenset(excluded)
         self._solvers: dict[frozenset[str], LinearTruss | InstabilityError] = {}
 
     def solver(self, slack: Iterable[str] = ()) -> LinearTruss:
-        key = frozenset(slack)
+        key = frozenset(slack) | self.excluded
         hit = self._solvers.get(key)
         if hit is None:
             try:

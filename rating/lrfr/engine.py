@@ -276,15 +276,33 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     weights = {m.label: MemberWeight(gross_area_as_built_in2(bridge.design_of(m.label).section),
                                      bridge.design_of(m.label).material.unit_weight_pcf)
                for m in g.members}
+    out_of_service = frozenset(
+        lab for lab, cap in capacities.items()
+        if cap.removed and cap.factored_resistance("tension") == 0.0
+        and cap.factored_resistance("compression") == 0.0)
+    family = TrussFamily(g, excluded=out_of_service)
+    if out_of_service:
+        names = ", ".join(sorted(out_of_service))
+        if family.is_stable(()):
+            warnings.insert(0, (
+                f"OUT OF SERVICE: member(s) {names} have every bar loose, missing, broken or "
+                "cracked; they are left out of the analysis and the rest of the truss is rated "
+                "without them. Repair is a matter for the engineer in responsible charge."))
+        else:
+            warnings.insert(0, (
+                f"OUT OF SERVICE: member(s) {names} have every bar loose, missing, broken or "
+                "cracked and the truss cannot stand without them; they are kept in the "
+                "analysis with zero resistance, so the rating calls for closing."))
+            family = TrussFamily(g)
+            out_of_service = frozenset()
     dead = dead_load(g, bridge.cross_section, bridge.dead_loads, weights,
-                     st.detail_allowance, st.detail_allowance_given)
+                     st.detail_allowance, st.detail_allowance_given, family=family)
     assumptions.extend(dead.assumptions)
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))
                         + " would have to carry compression")
 
-    family = TrussFamily(g)
     configs = active_set_configurations(family, dead.slack_members)
     lines = {c: family.solver(c).influence_lines for c in configs}
     dependent = _dependent_members(lines)
@@ -320,6 +338,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 df * best_max[0].value_kip, df * best_min[0].value_kip,
                 df * best_max[0].total_kip(im), df * best_min[0].total_kip(im), df,
                 best_max[0], best_min[0], best_max[1])
+            if lab in out_of_service:
+                ratings[(lab, case.id)] = MemberCaseRating(
+                    lab, case.id, math.inf, "", "out of service: every bar loose, missing, "
+                    "broken or cracked; left out of the analysis", "linear", 0.0, 0.0,
+                    case.gamma_ll.value, im, 0.0, capacities[lab].phi_c,
+                    capacities[lab].phi_s, None)
+                continue
             ratings[(lab, case.id)] = _rate_member(
                 g, family, m, capacities[lab], case, DC[lab], DW[lab], dead_states, dead_f, df,
                 [env_cache[(case.load.id, c)].of(lab) for c in cfgs], lab in dependent, paths)

@@ -209,3 +209,22 @@ def test_reversing_joint_labels_gives_the_same_ratings(rated, pratt_bridge):
     for case in FAST[1:]:
         assert r2.pins[0].ratings[case].rf == pytest.approx(rated.pins[0].ratings[case].rf,
                                                               rel=1e-6)
+
+
+def test_out_of_service_counter_is_left_out_and_said_so():
+    # a counter with every bar broken carries nothing (common practice): it leaves the
+    # analysis, and the main of that panel must then keep its dead-load tension (C = 0 check)
+    f = Finding("U4L5", "all", FindingRegion.BODY, bar_state=BarState.BROKEN, where="t!A1")
+    r = rate_bridge(make_pratt_bridge(findings=[f], pins=False), ["TYPE-3"])
+    assert r.warnings[0].startswith("OUT OF SERVICE: member(s) U4L5")
+    assert "out of service" in r.ratings[("U4L5", "TYPE-3")].check
+    main = r.ratings[("L4U5", "TYPE-3")]
+    assert main.sense == "compression" and main.check.startswith("compression: tension-only")
+    assert r.postings["TYPE-3"].controlling == "L4U5"
+
+
+def test_out_of_service_hanger_that_the_truss_needs_calls_for_closing():
+    f = Finding("L1U1", "all", FindingRegion.BODY, bar_state=BarState.MISSING, where="t!A2")
+    r = rate_bridge(make_pratt_bridge(findings=[f], pins=False), ["TYPE-3"])
+    assert "cannot stand without them" in r.warnings[0]
+    assert r.postings["TYPE-3"].result.action.value == "close"
