@@ -72,6 +72,9 @@ def write_atomic(target: Path, text: str) -> None:
     try:
         with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
             fh.write(text)
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(tmp, 0o666 & ~umask)  # an ordinary file, not mkstemp's private 0600
         os.replace(tmp, target)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)

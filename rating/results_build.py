@@ -255,14 +255,20 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
                                                     if c.id == cid).load.gross_weight_tons)
                for cid, cp in rating.postings.items()}
     # influence lines of the controlling members, for the drawings
-    controlling = []
-    for cp in rating.postings.values():
-        if cp.controlling and not cp.controlling.startswith("pin") and \
-                cp.controlling not in controlling:
-            controlling.append(cp.controlling)
-    ils = tuple(InfluenceLineData(lab, tuple(float(x) for x in rating.lines.stations_ft),
-                                  tuple(float(y) for y in rating.lines.row(lab)))
-                for lab in controlling)
+    # (drawn with the active set in which the controlling extreme was found)
+    controlling: dict[str, object] = {}
+    for cid, cp in rating.postings.items():
+        lab = cp.controlling
+        if lab and not lab.startswith("pin") and lab not in controlling:
+            r = rating.ratings[(lab, cid)]
+            e = rating.live[(lab, cid)]
+            controlling[lab] = e.min_config if r.sense == "compression" else e.config
+    ils = []
+    for lab, cfg in controlling.items():
+        lines = rating.lines_by_config.get(cfg, rating.lines)
+        ils.append(InfluenceLineData(lab, tuple(float(x) for x in lines.stations_ft),
+                                     tuple(float(y) for y in lines.row(lab))))
+    ils = tuple(ils)
     info = b.info
     findings = tuple(FindingEcho(
         f.member, f.component, f.region.value, f.station_ft, f.remaining_thickness_in,

@@ -82,7 +82,8 @@ class LiveEffect:
     distribution_factor: float
     max_extreme: Extreme
     min_extreme: Extreme
-    config: frozenset[str]
+    config: frozenset[str]  # slack members of the active set where the maximum was found
+    min_config: frozenset[str] = frozenset()  # and where the minimum was found
 
 
 @dataclass(frozen=True)
@@ -122,6 +123,7 @@ class BridgeRating:
     dead: DeadLoadResult
     lines: InfluenceLines
     configs: tuple[frozenset[str], ...]
+    lines_by_config: dict[frozenset[str], InfluenceLines]
     cases: tuple[RatingCase, ...]
     live: dict[tuple[str, str], LiveEffect]
     ratings: dict[tuple[str, str], MemberCaseRating]
@@ -337,7 +339,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
             live[(lab, case.id)] = LiveEffect(
                 df * best_max[0].value_kip, df * best_min[0].value_kip,
                 df * best_max[0].total_kip(im), df * best_min[0].total_kip(im), df,
-                best_max[0], best_min[0], best_max[1])
+                best_max[0], best_min[0], best_max[1], best_min[1])
             if lab in out_of_service:
                 ratings[(lab, case.id)] = MemberCaseRating(
                     lab, case.id, math.inf, "", "out of service: every bar loose, missing, "
@@ -358,7 +360,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         warnings.extend(p.warnings)
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
-        configs=configs, cases=cases, live=live, ratings=ratings, pins=pins,
+        configs=configs, lines_by_config=lines, cases=cases, live=live, ratings=ratings, pins=pins,
         postings=postings, distribution_factor=df, distribution_note=dist.description,
         dependent_members=dependent,
         warnings=tuple(dict.fromkeys(warnings)), assumptions=tuple(dict.fromkeys(assumptions)),
