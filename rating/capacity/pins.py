@@ -27,7 +27,6 @@ from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
-from scipy.optimize import brentq
 
 from rating.capacity.materials import default_material
 from rating.errors import InputError
@@ -553,7 +552,34 @@ def pin_load_multiplier(pin: Pin, base: Sequence[MemberAction], added: Sequence[
         if hi >= lam_max:
             return math.inf
         lo, hi = hi, min(hi * 2.0, lam_max)
-    return float(brentq(lambda x: u(x) - 1.0, lo, hi, xtol=1e-10, rtol=1e-12))
+    return _crossing(u, lo, hi)
+
+
+def _crossing(u, lo: float, hi: float) -> float:
+    """Root of u(x) = 1 in [lo, hi] with u(lo) < 1 <= u(hi), by Illinois regula falsi.
+
+    (A bracketing method is enough here: u is convex along the load path.)
+    """
+    f_lo, f_hi = u(lo) - 1.0, u(hi) - 1.0
+    side = 0
+    for _ in range(100):
+        x = hi - f_hi * (hi - lo) / (f_hi - f_lo) if f_hi != f_lo else 0.5 * (lo + hi)
+        if not lo < x < hi:
+            x = 0.5 * (lo + hi)
+        f = u(x) - 1.0
+        if f >= 0.0:
+            hi, f_hi = x, f
+            if side == 1:
+                f_lo *= 0.5
+            side = 1
+        else:
+            lo, f_lo = x, f
+            if side == -1:
+                f_hi *= 0.5
+            side = -1
+        if hi - lo <= 1e-12 * max(hi, 1.0) or abs(f) < 1e-13:
+            break
+    return float(hi if f_hi == 0.0 else x)
 
 
 # --------------------------------------------------------------------------------------------
@@ -618,38 +644,41 @@ class PinModel:
             u = np.maximum(u, (nrm(F[..., :npl, :]) / self._bearing_cap).max(axis=-1))
         return u
 
-    def multipliers(self, F_base: np.ndarray, F_added: np.ndarray,
-                    lam_max: float = 1e3) -> np.ndarray:
+    def multipliers(self, F_base: np.ndarray, F_added: np.ndarray, lam_max: float = 1e3,
+                    upper: np.ndarray | None = None) -> np.ndarray:
         """lam with utilization(F_base + lam F_added) = 1 for each state pair (P, n, 2).
 
-        ``F_base`` is one state (n, 2) shared by all, or one per added state (P, n, 2).
-
-        The utilization is convex in lam (norms of affine forces, raised to powers >= 1), so
-        from below the limit it crosses 1.0 once: a geometric grid brackets it, four finer
-        grids narrow it, a secant step closes it. 0.0 where the base alone reaches the limit,
-        inf where it is not reached below lam_max.
+        ``F_base`` is one state (n, 2) shared by all, or one per added state (P, n, 2);
+        ``upper`` (P,) limits the search of each pair (default ``lam_max``). The utilization
+        is convex in lam (norms of affine forces, raised to powers >= 1), so from below the
+        limit it crosses 1.0 once: a geometric grid brackets it, finer grids narrow it, a
+        secant step closes it. 0.0 where the base alone reaches the limit, inf where it is not
+        reached up to the upper limit.
         """
         F1 = np.asarray(F_added, dtype=float)
         F0 = np.broadcast_to(np.asarray(F_base, dtype=float), F1.shape)
-        grid = np.concatenate(([0.0], np.geomspace(1e-2, lam_max, 31)))
-        U = self.utilization(F0[:, None] + grid[None, :, None, None] * F1[:, None])
+        P = F1.shape[0]
+        top = np.full(P, float(lam_max)) if upper is None else np.asarray(upper, dtype=float)
+        frac = np.concatenate(([0.0], np.geomspace(1e-5, 1.0, 13)))
+        grid = top[:, None] * frac[None, :]  # (P, 14)
+        U = self.utilization(F0[:, None] + grid[:, :, None, None] * F1[:, None])
         over = U >= 1.0
-        out = np.full(F1.shape[0], np.inf)
+        out = np.full(P, np.inf)
         first = np.where(over.any(axis=1), over.argmax(axis=1), -1)
         out[first == 0] = 0.0
         todo = np.nonzero(first > 0)[0]
         if todo.size:
-            lo = grid[first[todo] - 1]
-            hi = grid[first[todo]]
+            rows = np.arange(todo.size)
+            lo = grid[todo, first[todo] - 1]
+            hi = grid[todo, first[todo]]
             Ft, F0t = F1[todo], F0[todo]
-            frac = np.linspace(0.0, 1.0, 17)
-            for _ in range(5):  # each pass narrows the bracket 16 times
-                sub = lo[:, None] + (hi - lo)[:, None] * frac[None, :]
+            sub_frac = np.linspace(0.0, 1.0, 9)
+            for _ in range(5):  # each pass narrows the bracket 8 times
+                sub = lo[:, None] + (hi - lo)[:, None] * sub_frac[None, :]
                 u = self.utilization(F0t[:, None] + sub[:, :, None, None] * Ft[:, None])
-                k = np.clip((u >= 1.0).argmax(axis=1), 1, 16)
-                rows = np.arange(todo.size)
+                k = np.clip((u >= 1.0).argmax(axis=1), 1, 8)
                 lo, hi = sub[rows, k - 1], sub[rows, k]
-            # the bracket is now ~1e-6 wide: a secant step on the convex utilization
+            # the bracket is now ~1e-4 of a grid step: a secant step on the convex utilization
             u_lo = self.utilization(F0t + lo[:, None, None] * Ft)
             u_hi = self.utilization(F0t + hi[:, None, None] * Ft)
             w = np.where(u_hi > u_lo, (1.0 - u_lo) / np.where(u_hi > u_lo, u_hi - u_lo, 1.0),

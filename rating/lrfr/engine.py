@@ -22,7 +22,7 @@ import numpy as np
 from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
-from rating.analysis.moving import Envelope, Extreme, envelope
+from rating.analysis.moving import Extreme, MemberEnvelope, envelope
 from rating.analysis.path import PathCache, member_load_multiplier
 from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
 from rating.capacity.member import MemberCapacity, member_capacity
@@ -243,6 +243,41 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
 # --------------------------------------------------------------------------- live loads
 
 
+class EnvelopeSet:
+    """Envelopes of every member in every active set, found in one search per rating load.
+
+    Members whose line does not change with the active set are searched once; the others once
+    per active set, all rows stacked into one set of influence lines.
+    """
+
+    def __init__(self, lines: dict[frozenset[str], InfluenceLines],
+                 configs: Sequence[frozenset[str]], dependent: frozenset[str]) -> None:
+        base = lines[configs[0]]
+        labels = list(base.member_labels)
+        rows = [base.ordinates]
+        self._label: dict[tuple[str, frozenset[str]], str] = {
+            (lab, c): lab for lab in base.member_labels for c in configs}
+        dep = [lab for lab in base.member_labels if lab in dependent]
+        idx = [base.member_labels.index(lab) for lab in dep]
+        for k, c in enumerate(configs[1:], start=1):
+            rows.append(lines[c].ordinates[idx])
+            for lab in dep:
+                key = f"{lab}\x00{k}"
+                labels.append(key)
+                self._label[(lab, c)] = key
+        self.lines = InfluenceLines(tuple(labels), base.stations_ft, np.vstack(rows))
+        self._envelopes: dict[tuple[str, float], dict[str, MemberEnvelope]] = {}
+
+    def of(self, load: RatingLoad, im: float, member: str, config: frozenset[str]
+           ) -> MemberEnvelope:
+        key = (load.id, im)
+        env = self._envelopes.get(key)
+        if env is None:
+            env = {e.member: e for e in envelope(self.lines, load, im=im).members}
+            self._envelopes[key] = env
+        return env[self._label[(member, config)]]
+
+
 def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset[str]:
     """Members whose influence line changes with the active set of the counter panels."""
     rows = [il.ordinates for il in lines.values()]
@@ -322,19 +357,15 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     paths = PathCache(family)
     live: dict[tuple[str, str], LiveEffect] = {}
     ratings: dict[tuple[str, str], MemberCaseRating] = {}
-    env_cache: dict[tuple[str, frozenset[str]], Envelope] = {}
+    envs = EnvelopeSet(lines, configs, dependent)
     for case in cases:
         im = case.im.value
-        for c in configs:
-            key = (case.load.id, c)
-            if key not in env_cache:
-                env_cache[key] = envelope(lines[c], case.load, im=im)
         for m in g.members:
             lab = m.label
             cfgs = configs if lab in dependent else configs[:1]
-            best_max = max(((env_cache[(case.load.id, c)].of(lab).max, c) for c in cfgs),
+            best_max = max(((envs.of(case.load, im, lab, c).max, c) for c in cfgs),
                            key=lambda t: t[0].total_kip(im))
-            best_min = min(((env_cache[(case.load.id, c)].of(lab).min, c) for c in cfgs),
+            best_min = min(((envs.of(case.load, im, lab, c).min, c) for c in cfgs),
                            key=lambda t: t[0].total_kip(im))
             live[(lab, case.id)] = LiveEffect(
                 df * best_max[0].value_kip, df * best_min[0].value_kip,
@@ -349,10 +380,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 continue
             ratings[(lab, case.id)] = _rate_member(
                 g, family, m, capacities[lab], case, DC[lab], DW[lab], dead_states, dead_f, df,
-                [env_cache[(case.load.id, c)].of(lab) for c in cfgs], lab in dependent, paths)
+                [envs.of(case.load, im, lab, c) for c in cfgs], lab in dependent, paths)
 
     pins = tuple(
-        rate_pin(pin, g, family, bridge, cases, configs, env_cache, dead, dead_f, df,
+        rate_pin(pin, g, family, bridge, cases, configs, envs, dead, dead_f, df,
                  dead_states, dependent, paths)
         for pin in bridge.pins)
     postings = _postings(cases, ratings, pins, g)

@@ -92,7 +92,7 @@ def pin_multiplier_on_path(pin: Pin, g: TrussGeometry, family: TrussFamily,
 
 
 def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
-             configs: Sequence[frozenset[str]], env_cache, dead, dead_f, df: float,
+             configs: Sequence[frozenset[str]], envs, dead, dead_f, df: float,
              dead_states, dependent: frozenset[str], paths: PathCache) -> PinRating:
     """Rate one pin for every case (see the module docstring).
 
@@ -128,9 +128,10 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         im, g_ll = case.im.value, case.gamma_ll.value
         unique: dict = {}
         for c in configs:
-            env = env_cache[(case.load.id, c)]
             for lab in members_here:
-                me = env.of(lab)
+                if c != configs[0] and lab not in dependent:
+                    continue  # the same envelope in every active set
+                me = envs.of(case.load, im, lab, c)
                 for e in (me.max, me.min):
                     if e.position is None and not e.lane_segments_ft:
                         continue
@@ -162,26 +163,39 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     F0s.append(model.point_forces(seg.forces(seg.lam_start)[idx],
                                                   ext_dead + seg.lam_start * ext_live[k]))
                     F1s.append(model.point_forces(seg.N_live[idx], ext_live[k]))
-            rel = model.multipliers(np.stack(F0s), np.stack(F1s))
+            F0a, F1a, ln = np.stack(F0s), np.stack(F1s), np.array(lengths)
+            # the first piece of each path whose end reaches the limit holds the crossing
+            u_end = model.utilization(F0a + ln[:, None, None] * F1a)
+            pick: dict[int, int] = {}
+            for i, (k, u) in enumerate(zip(owner, u_end, strict=True)):
+                if k not in pick and u >= 1.0:
+                    pick[k] = i
             lams = np.full(len(exts), np.inf)
-            for k, s0, ln, r in zip(owner, starts, lengths, rel, strict=True):
-                if math.isinf(lams[k]) and r <= ln * (1 + 1e-9) + 1e-12:
-                    lams[k] = s0 + r
+            if pick:
+                sel = np.array(list(pick.values()))
+                rel = model.multipliers(F0a[sel], F1a[sel], upper=ln[sel])
+                for k, i, r in zip(pick, sel, rel, strict=True):
+                    lams[k] = starts[i] + min(r, ln[i])
         k = int(np.argmin(lams))
-        lam, chk = float(lams[k]), None
-        if math.isfinite(lam):  # the governing position once more, for its pin check
-            lam_chk, chk = pin_multiplier_on_path(pin, g, family, P_dead, P_lives[k], designs,
-                                                  dead_state=dead_state, linear=linear)
-            lam = lam_chk if math.isfinite(lam_chk) else lam
-        candidates = [(lam, exts[k], chk)]
-        for lam, e, chk in candidates:
-            if lam < best.rf:
-                what = "pin"
-                if chk is not None:
-                    what = ("pin bearing" if chk.utilization_bearing
-                            >= chk.utilization_flexure_shear else
-                            f"pin flexure and shear at z = {chk.governing.z_in:.2f} in")
-                best = PinCaseRating(case.id, lam, what, e, chk)
+        lam = float(lams[k])
+        if math.isfinite(lam):
+            # the pin check at the rating load level of the governing position, for the report
+            if linear:
+                N_here = dead_state.solution.member_forces_kip[idx] + lam * N_live[k]
+            else:
+                seg_i = pick[k]
+                seg_start = starts[seg_i]
+                seg = next(sg for sg in paths.segments((case.id, g_dc, g_dw, keys[k]), P_dead,
+                                                       P_lives[k], dead_state)
+                           if sg.lam_start == seg_start)
+                N_here = seg.forces(lam)[idx]
+            chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
+                                                                    map(float, N_here),
+                                                                    strict=True))),
+                            external_kip=tuple(ext_dead + lam * ext_live[k]), designs=designs)
+            what = ("pin bearing" if chk.utilization_bearing >= chk.utilization_flexure_shear
+                    else f"pin flexure and shear at z = {chk.governing.z_in:.2f} in")
+            best = PinCaseRating(case.id, lam, what, exts[k], chk)
         ratings[case.id] = best
     return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,
                      dead_check.assumptions)
