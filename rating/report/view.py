@@ -525,7 +525,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             phi_rt=d.force(rt_), phi_rc=d.force(rc_),
             rf=rf_cell(low[1].rf if low else None),
             vehicle=low[0] if low else "not rated",
-            check=(f"{low[1].sense}: {low[1].check}" if low and low[1].check
+            check=(low[1].check if low and low[1].check.startswith(low[1].sense)
+                   else f"{low[1].sense}: {low[1].check}" if low and low[1].check
                    else (low[1].sense if low else "")),
             method=low[1].method if low else "",
             finding=finding))
