@@ -10,7 +10,7 @@ that is consistent at that load level (documented in docs/tension-only.md).
 
 from __future__ import annotations
 
-from collections.abc import Hashable, Iterable, Iterator
+from collections.abc import Callable, Hashable, Iterable, Iterator
 from dataclasses import dataclass
 
 import numpy as np
@@ -88,6 +88,14 @@ class PathCache:
         self.family = family
         self.lam_max = lam_max
         self._paths: dict[Hashable, tuple[PathSegment, ...]] = {}
+        self._loads: dict[Hashable, np.ndarray] = {}
+
+    def live_loads(self, key: Hashable, make: Callable[[], np.ndarray]) -> np.ndarray:
+        """The live-load vector of one position, made once per key."""
+        hit = self._loads.get(key)
+        if hit is None:
+            hit = self._loads[key] = make()
+        return hit
 
     def segments(self, key: Hashable, P_dead: np.ndarray, P_live: np.ndarray,
                  dead_state: ActiveSetSolution | None = None) -> tuple[PathSegment, ...]:

@@ -16,6 +16,7 @@ import itertools
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
+from functools import partial
 
 import numpy as np
 
@@ -446,7 +447,8 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
                       if e.position is not None or e.lane_segments_ft}
             for (gd, gw), (P_dead, state) in dead_states.items():
                 for key, e in unique.items():
-                    P_live = g_ll * live_joint_loads(g, case.load, e, im, df)
+                    P_live = paths.live_loads((case.id, key), partial(
+                        live_joint_loads, g, case.load, e, im, df, g_ll))
                     segs = paths.segments((case.id, gd, gw, key), P_dead, P_live, state)
                     lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live,
                                                     dead_state=state, segments=segs)

@@ -11,7 +11,7 @@ from rating.vehicles.library import RatingLoad
 
 
 def live_joint_loads(g: TrussGeometry, load: RatingLoad, ext: Extreme, im: float,
-                     df: float) -> np.ndarray:
+                     df: float, gamma_ll: float = 1.0) -> np.ndarray:
     """Panel-point loads (kip, one truss) of the loading that produced ``ext``, with IM on axles."""
     P = np.zeros((len(g.joints), 2))
     model = next((mo for mo in load.models if mo.name == ext.model), None)
@@ -23,4 +23,4 @@ def live_joint_loads(g: TrussGeometry, load: RatingLoad, ext: Extreme, im: float
         P += (1.0 + im) * axle_joint_loads(g, axle_stations(ext.position), loads)
     if ext.lane_klf and ext.lane_segments_ft:
         P += lane_joint_loads(g, ext.lane_segments_ft, ext.lane_klf)
-    return df * P
+    return gamma_ll * df * P

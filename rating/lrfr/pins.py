@@ -14,6 +14,7 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
+from functools import partial
 
 import numpy as np
 
@@ -142,7 +143,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         if not exts:
             ratings[case.id] = best
             continue
-        P_lives = [g_ll * live_joint_loads(g, case.load, e, im, df) for e in exts]
+        P_lives = [paths.live_loads((case.id, key), partial(
+            live_joint_loads, g, case.load, e, im, df, g_ll)) for key, e in unique.items()]
         P = np.stack(P_lives, axis=-1)  # (n_joints, 2, n_positions)
         ext_live = P[jrow].T  # (n_positions, 2)
         if linear:
