@@ -50,6 +50,9 @@ def _parser() -> argparse.ArgumentParser:
                    help="comma-separated vehicle ids to rate (default: the workbook's choice, "
                    "else the whole library); see 'pintruss vehicles'")
     r.add_argument("--no-report", action="store_true", help="write the results file only")
+    r.add_argument("--paper", choices=("letter", "a4", "auto"), default=None,
+                   help="page size of the printed report (default: Letter for US units, A4 "
+                   "for SI)")
 
     v = sub.add_parser("vehicles", help="list the rating vehicles in the library with sources",
                        description="List the rating vehicles: id, axle loads, spacings, gross "
@@ -62,6 +65,9 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("folder", type=Path, help="folder holding the inspection workbooks")
     b.add_argument("--out", type=Path, required=True, help="folder for reports and the summary")
     b.add_argument("--workers", type=int, default=None, help="processes (default: cores)")
+    b.add_argument("--vehicles", default=None,
+                   help="comma-separated vehicle ids to rate on every bridge (default: each "
+                   "workbook's choice, else the whole library)")
     return p
 
 

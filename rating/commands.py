@@ -87,13 +87,18 @@ def run_rate(args: argparse.Namespace) -> int:
               file=sys.stderr)
         return EXIT_INPUT
     res = outcome.results
-    html, js = write_outputs(res, html_path.parent, workbook.stem, report=not args.no_report)
+    html, js = write_outputs(res, html_path.parent, workbook.stem, report=not args.no_report,
+                             paper=args.paper)
     if args.json_path is not None:
         write_atomic(args.json_path, results_json(res))
         js = args.json_path
     print(f"{res.bridge.id} {res.bridge.name}")
+    import math
+
     for vid, p in res.posting.items():
-        rf = "no live load" if p.rf == float("inf") else f"{p.rf:.2f}"
+        # rounded down, as in the report: 0.996 is never shown as 1.00
+        rf = ("no live load" if p.rf == math.inf else "-inf" if p.rf == -math.inf
+              else f"{math.floor(p.rf * 100.0 + 1e-7) / 100.0:.2f}")
         print(f"  {vid:<12} RF {rf:>6}  controlled by {p.member or '-':<10} {p.action}")
     print(f"recommendation: {res.recommendation}")
     if html is not None:

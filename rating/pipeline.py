@@ -89,7 +89,7 @@ def output_paths(workbook: Path, out_dir: Path | None) -> tuple[Path, Path]:
 
 
 def write_outputs(results: RatingResults, out_dir: Path, stem: str,
-                  report: bool = True) -> tuple[Path | None, Path]:
+                  report: bool = True, paper: str | None = None) -> tuple[Path | None, Path]:
     """Write the report (HTML) and the results (JSON) atomically; returns their paths."""
     out_dir = Path(out_dir)
     json_path = out_dir / f"{stem}.rating.json"
@@ -99,5 +99,5 @@ def write_outputs(results: RatingResults, out_dir: Path, stem: str,
         from rating.report.html import render_report
 
         html_path = out_dir / f"{stem}.rating.html"
-        write_atomic(html_path, render_report(results))
+        write_atomic(html_path, render_report(results, paper=paper))
     return html_path, json_path
