@@ -28,6 +28,7 @@ DISPLAY_UNITS: dict[str, tuple[str, str]] = {
     "stress": ("ksi", "MPa"),
     "weight": ("ton", "tonne"),
     "line load": ("klf", "kN/m"),
+    "moment": ("kip-in", "kN-m"),
 }
 
 
@@ -153,6 +154,11 @@ class PinResult:
     governing_section: str = ""
     ratings: Mapping[str, Rating] = field(default_factory=dict)
     warnings: tuple[str, ...] = ()
+    governing_z: float | None = q("governing section from the first plate's outer face",
+                                  "dimension", default=None)
+    governing_M: float | None = q("moment at the governing section", "moment", default=None)
+    governing_V: float | None = q("shear at the governing section", "force", default=None)
+    governing_case: str = ""
 
 
 @dataclass(frozen=True)

@@ -31,7 +31,7 @@ from rating.results import (
     VehicleResult,
     units_block,
 )
-from rating.units import TON_PER_TONNE
+from rating.units import TON_PER_TONNE, from_core
 
 METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C - gDC DC - gDW DW) / (gLL (LL + IM)), "
           "C = phi_c phi_s phi R_n")
@@ -109,6 +109,23 @@ def _rating(r: MemberCaseRating, case: RatingCase) -> Rating:
         factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
         method=r.method, position=_position(r.extreme, case.load), finding=r.finding,
     )
+
+
+def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
+    """The governing pin section in words, in the bridge's units."""
+    if system is UnitSystem.SI:
+        z, M, V = (from_core(chk.governing.z_in, "mm"), from_core(chk.M_u_kip_in, "kN-m"),
+                   from_core(chk.V_u_kip, "kN"))
+        units = ("mm", "kN-m", "kN")
+        z_text = f"{z:.0f}"
+    else:
+        z, M, V = chk.governing.z_in, chk.M_u_kip_in, chk.V_u_kip
+        units = ("in", "kip-in", "kip")
+        z_text = f"{z:.2f}"
+    what = ("bearing governs" if chk.utilization_bearing >= chk.utilization_flexure_shear
+            else "flexure and shear govern")
+    return (f"z = {z_text} {units[0]} from the first plate's outer face ({what}): "
+            f"M = {M:.1f} {units[1]}, V = {V:.1f} {units[2]} ({case_id})")
 
 
 def _posting_entry(cp: CasePosting, system: UnitSystem, W_tons: float) -> PostingResultEntry:
@@ -233,23 +250,25 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     pins = []
     for p in rating.pins:
         pr = {}
-        governing = ""
+        governing, gov_chk, gov_case = "", None, ""
         worst = math.inf
         for case in rating.cases:
             r = p.ratings[case.id]
             pr[case.id] = Rating(rf=r.rf, sense="pin", check=r.check, method="load multiplier",
                                  position=_position(r.extreme, case.load))
             if r.rf < worst and r.at_rating is not None:
-                worst = r.rf
-                chk = r.at_rating
-                governing = (f"z = {chk.governing.z_in:.2f} in from the first plate's outer "
-                             f"face: M = {chk.M_u_kip_in:.1f} kip-in, V = {chk.V_u_kip:.1f} kip "
-                             f"({case.id})")
+                worst, gov_chk, gov_case = r.rf, r.at_rating, case.id
+        if gov_chk is not None:
+            governing = _pin_section_text(gov_chk, gov_case, system)
         pins.append(PinResult(
             joint=p.joint, diameter=p.pin.diameter_in,
             packing=tuple(PackingRow(it.member, it.thickness_in, it.gap_before_in)
                           for it in p.pin.packing),
-            governing_section=governing, ratings=pr, warnings=p.warnings))
+            governing_section=governing,
+            governing_z=gov_chk.governing.z_in if gov_chk else None,
+            governing_M=gov_chk.M_u_kip_in if gov_chk else None,
+            governing_V=gov_chk.V_u_kip if gov_chk else None, governing_case=gov_case,
+            ratings=pr, warnings=p.warnings))
     unit = "tonne" if system is UnitSystem.SI else "ton"
     posting = {cid: _posting_entry(cp, system, next(c for c in rating.cases
                                                     if c.id == cid).load.gross_weight_tons)

@@ -59,6 +59,9 @@ _UNITS: dict[str, Quantity] = {
     # unit weight
     "pcf": Quantity("unit weight", "pcf", 1.0),
     "kN/m3": Quantity("unit weight", "pcf", PCF_PER_KN_PER_M3),
+    # moment (pins)
+    "kip-in": Quantity("moment", "kip-in", 1.0),
+    "kN-m": Quantity("moment", "kip-in", KIP_PER_KN * 1000.0 * IN_PER_MM),
     # vehicle weight
     "ton": Quantity("weight", "ton", 1.0),
     "tonne": Quantity("weight", "ton", TON_PER_TONNE),
@@ -91,4 +94,4 @@ def known_units() -> tuple[str, ...]:
 
 # The SI counterpart of each core unit, for reports in SI.
 SI_OF_CORE = {"ft": "m", "in": "mm", "in2": "mm2", "kip": "kN", "ksi": "MPa", "klf": "kN/m",
-              "psf": "kPa", "pcf": "kN/m3", "ton": "tonne"}
+              "psf": "kPa", "pcf": "kN/m3", "ton": "tonne", "kip-in": "kN-m"}

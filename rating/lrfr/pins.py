@@ -196,7 +196,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                                                                     strict=True))),
                             external_kip=tuple(ext_dead + lam * ext_live[k]), designs=designs)
             what = ("pin bearing" if chk.utilization_bearing >= chk.utilization_flexure_shear
-                    else f"pin flexure and shear at z = {chk.governing.z_in:.2f} in")
+                    else "pin flexure and shear")
             best = PinCaseRating(case.id, lam, what, exts[k], chk)
         ratings[case.id] = best
     return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,

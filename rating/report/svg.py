@@ -501,7 +501,8 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
         body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
         body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))
         x += r.thickness * s
-    z = governing_z_in(pin.governing_section)
+    z = pin.governing_z if pin.governing_z is not None else governing_z_in(
+        pin.governing_section)
     if z is not None and 0.0 <= z <= total + 1e-9:
         gx = first_face + z * s
         body.append(f'<line class="governing" x1="{_f(gx)}" y1="{_f(pin_y - 44)}" '
