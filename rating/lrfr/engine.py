@@ -347,6 +347,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
 
     dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override)
     df = dist.factor
+    warnings.extend(dist.warnings)
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
