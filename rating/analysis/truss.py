@@ -1,4 +1,4 @@
-"""2-D pin-jointed truss by the direct stiffness method; one factorization, many load cases.
+"""2-D pin-jointed truss by the direct stiffness method; one inverse, many load cases.
 
 Each member is a two-force bar of axial stiffness E*A/L (the classical truss element, e.g.
 McGuire, Gallagher & Ziemian, *Matrix Structural Analysis*, 2nd ed., Ch. 2 — common practice).
@@ -16,7 +16,6 @@ from dataclasses import dataclass
 from functools import cached_property
 
 import numpy as np
-import scipy.linalg as sla
 
 from rating.analysis.influence import InfluenceLines
 from rating.errors import ConvergenceError, InstabilityError
@@ -78,7 +77,7 @@ class TrussSolution:
 
 
 class LinearTruss:
-    """A truss with a fixed set of active members, factorized once.
+    """A truss with a fixed set of active members, inverted once.
 
     ``inactive`` members (slack tension-only members) are left out of the stiffness.
     Raises :class:`InstabilityError` naming a joint and the free direction if the active
@@ -102,8 +101,9 @@ class LinearTruss:
         f = self._t.free_dofs
         K_ff = K[np.ix_(f, f)]
         self._check_stability(K_ff)
-        self._chol = sla.cho_factor(K_ff, lower=True, check_finite=False)
-        self._potrs = sla.get_lapack_funcs("potrs", (K_ff,))
+        # The free stiffness is small (two rows per joint) and solved many times over: its
+        # inverse, formed once, turns every later solve into one matrix product.
+        self._K_inv = np.linalg.inv(K_ff)
 
     def _free_dof_name(self, dof: int) -> tuple[str, str]:
         joint = self.geometry.joints[dof // 2].label
@@ -178,10 +178,7 @@ class LinearTruss:
         P2 = P.reshape(2 * nj, -1)
         f = self._t.free_dofs
         u = np.zeros_like(P2)
-        sol, info = self._potrs(self._chol[0], P2[f], lower=True)  # LAPACK, no checks
-        if info != 0:  # pragma: no cover - the factorization succeeded, so this cannot fail
-            raise ValueError(f"LAPACK potrs failed with info={info}")
-        u[f] = sol
+        u[f] = self._K_inv @ P2[f]
         elong = self._B @ u
         N = self._k_axial[:, None] * elong
         R = self._B.T @ N - P2  # internal nodal forces minus applied = support reactions
@@ -226,10 +223,10 @@ def joint_load_array(geometry: TrussGeometry, loads: Mapping[str, tuple[float, f
 
 
 class TrussFamily:
-    """One geometry with its factorized trusses cached by the set of slack members.
+    """One geometry with its solved trusses cached by the set of slack members.
 
     The rating solves the same truss many times with only a few distinct active sets; each
-    set is factorized once. Unstable sets are remembered too.
+    set is inverted once. Unstable sets are remembered too.
     """
 
     def __init__(self, geometry: TrussGeometry, excluded: Iterable[str] = ()) -> None:
