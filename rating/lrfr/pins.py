@@ -13,20 +13,19 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from functools import partial
 
 import numpy as np
 
 from rating.analysis.moving import Extreme
-from rating.analysis.path import PathCache, load_path
-from rating.analysis.truss import ActiveSetSolution, TrussFamily
+from rating.analysis.path import PathCache
+from rating.analysis.truss import TrussFamily
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
     pin_actions,
     pin_check,
-    pin_load_multiplier,
 )
 from rating.lrfr.liveload import live_joint_loads
 from rating.model import Pin, TrussGeometry
@@ -51,45 +50,11 @@ class PinRating:
     assumptions: tuple[str, ...]
 
 
-def _external(g: TrussGeometry, joint: str, P: np.ndarray) -> tuple[float, float]:
-    j = g.joint_index[joint]
-    return float(P[j, 0]), float(P[j, 1])
-
-
-def pin_multiplier_on_path(pin: Pin, g: TrussGeometry, family: TrussFamily,
-                           P_dead: np.ndarray, P_live: np.ndarray, designs: Mapping,
-                           lam_max: float = 1e3, dead_state: ActiveSetSolution | None = None,
-                           linear: bool = False) -> tuple[float, PinCheck | None]:
-    """Least lam at which the pin reaches its limit along the exact load path.
-
-    ``linear``: the forces at this joint do not depend on the active set, so the first piece
-    of the path is extended to ``lam_max``.
-    """
-    labels = [m.label for m in g.members]
-    here = {m.label for m in g.members_at(pin.joint)}
-    idx = [i for i, lab in enumerate(labels) if lab in here]
-    ext_d = _external(g, pin.joint, P_dead)
-    ext_l = _external(g, pin.joint, P_live)
-    for seg in load_path(family, P_dead, P_live, lam_max, dead_state=dead_state):
-        if linear:
-            seg = replace(seg, lam_end=lam_max)
-        N0 = seg.forces(seg.lam_start)
-        base = pin_actions(g, pin.joint, {labels[i]: float(N0[i]) for i in idx})
-        added = pin_actions(g, pin.joint, {labels[i]: float(seg.N_live[i]) for i in idx})
-        base_ext = (ext_d[0] + seg.lam_start * ext_l[0], ext_d[1] + seg.lam_start * ext_l[1])
-        lam = pin_load_multiplier(pin, base, added, base_external_kip=base_ext,
-                                  added_external_kip=ext_l, designs=designs,
-                                  lam_max=max(seg.lam_end - seg.lam_start, 1e-12) * 1.000001)
-        total = seg.lam_start + lam
-        if math.isfinite(lam) and total <= seg.lam_end * (1 + 1e-9) + 1e-12:
-            N = seg.forces(total)
-            chk = pin_check(pin, pin_actions(g, pin.joint, {labels[i]: float(N[i]) for i in idx}),
-                            external_kip=(ext_d[0] + total * ext_l[0],
-                                          ext_d[1] + total * ext_l[1]), designs=designs)
-            return total, chk
-        if linear:
-            break
-    return math.inf, None
+def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
+    """The force the pin takes from outside the bars (floorbeam hanger, bearing shoe):
+    minus the resultant of the bar forces on the joint, so the pin is in equilibrium.
+    ``unit`` (n_here, 2) points from the joint along each member; ``N`` (..., n_here)."""
+    return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
 def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
@@ -106,13 +71,6 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     members_here = [m.label for m in g.members_at(pin.joint)]
     linear = not (set(members_here) & dependent)
     ratings: dict[str, PinCaseRating] = {}
-    # the pin under factored dead load alone, for the report and its warnings
-    labels = [m.label for m in g.members]
-    dead_check = pin_check(
-        pin, pin_actions(g, pin.joint, {lab: float(g_dc * dead.member_forces_dc_kip[i]
-                                                   + g_dw * dead.member_forces_dw_kip[i])
-                                        for i, lab in enumerate(labels) if lab in members_here}),
-        external_kip=_external(g, pin.joint, P_dead), designs=designs)
     idx = [g.member_index[lab] for lab in members_here]
     jt = g.joint(pin.joint)
     dirs = []
@@ -120,11 +78,19 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         m = g.member(lab)
         far = g.joint(m.end if m.start == pin.joint else m.start)
         dirs.append((far.x_ft - jt.x_ft, far.y_ft - jt.y_ft))
+    unit = np.array(dirs, dtype=float)
+    unit /= np.linalg.norm(unit, axis=1)[:, None]
+    # the pin under factored dead load alone, for the report and its warnings
+    N_dead_here = (g_dc * dead.member_forces_dc_kip + g_dw * dead.member_forces_dw_kip)[idx]
+    dead_check = pin_check(
+        pin, pin_actions(g, pin.joint, dict(zip(members_here, map(float, N_dead_here),
+                                                strict=True))),
+        external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs)
     model = PinModel(pin, members_here, dirs, designs=designs)
     solver = family.solver(dead_state.slack)
-    jrow = g.joint_index[pin.joint]
-    ext_dead = np.asarray(_external(g, pin.joint, P_dead))
-    F_base = model.point_forces(dead_state.solution.member_forces_kip[idx], ext_dead)
+    N0 = dead_state.solution.member_forces_kip[idx]
+    ext_dead = _balancing(unit, N0)
+    F_base = model.point_forces(N0, ext_dead)
     for case in cases:
         im, g_ll = case.im.value, case.gamma_ll.value
         unique: dict = {}
@@ -146,12 +112,12 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         P_lives = [paths.live_loads((case.id, key), partial(
             live_joint_loads, g, case.load, e, im, df, g_ll)) for key, e in unique.items()]
         P = np.stack(P_lives, axis=-1)  # (n_joints, 2, n_positions)
-        ext_live = P[jrow].T  # (n_positions, 2)
         if linear:
             # forces at this joint are linear in lam on the dead-load active set: all
             # positions in one vectorized search
             N_live = solver.solve(P).member_forces_kip[idx].T  # (n_positions, n_here)
-            lams = model.multipliers(F_base, model.point_forces(N_live, ext_live))
+            lams = model.multipliers(F_base, model.point_forces(N_live,
+                                                                _balancing(unit, N_live)))
         else:
             # piecewise linear along each position's exact load path: every piece of every
             # path in one vectorized search, then the first piece that holds the crossing
@@ -162,9 +128,9 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     owner.append(k)
                     starts.append(seg.lam_start)
                     lengths.append(seg.lam_end - seg.lam_start)
-                    F0s.append(model.point_forces(seg.forces(seg.lam_start)[idx],
-                                                  ext_dead + seg.lam_start * ext_live[k]))
-                    F1s.append(model.point_forces(seg.N_live[idx], ext_live[k]))
+                    n0, n1 = seg.forces(seg.lam_start)[idx], seg.N_live[idx]
+                    F0s.append(model.point_forces(n0, _balancing(unit, n0)))
+                    F1s.append(model.point_forces(n1, _balancing(unit, n1)))
             F0a, F1a, ln = np.stack(F0s), np.stack(F1s), np.array(lengths)
             # the first piece of each path whose end reaches the limit holds the crossing
             u_end = model.utilization(F0a + ln[:, None, None] * F1a)
@@ -194,7 +160,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
                                                                     map(float, N_here),
                                                                     strict=True))),
-                            external_kip=tuple(ext_dead + lam * ext_live[k]), designs=designs)
+                            external_kip=tuple(_balancing(unit, N_here)), designs=designs)
             what = ("pin bearing" if chk.utilization_bearing >= chk.utilization_flexure_shear
                     else "pin flexure and shear")
             best = PinCaseRating(case.id, lam, what, exts[k], chk)

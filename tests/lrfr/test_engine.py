@@ -228,3 +228,12 @@ def test_out_of_service_hanger_that_the_truss_needs_calls_for_closing():
     r = rate_bridge(make_pratt_bridge(findings=[f], pins=False), ["TYPE-3"])
     assert "cannot stand without them" in r.warnings[0]
     assert r.postings["TYPE-3"].result.action.value == "close"
+
+
+def test_pins_are_in_equilibrium_with_their_bars(rated):
+    # statics: the floorbeam or bearing force is what balances the bars at the joint
+    for p in rated.pins:
+        assert max(map(abs, p.dead_check.residual_force_kip)) < 1e-6
+        for r in p.ratings.values():
+            if r.at_rating is not None:
+                assert max(map(abs, r.at_rating.residual_force_kip)) < 1e-6
