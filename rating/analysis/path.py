@@ -74,8 +74,24 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
             return
         lam = lam_end
         nudge = lam * (1 + 1e-7) + 1e-9
-        state = solve_tension_only(g, P_dead + nudge * P_live, initial_slack=state.slack,
-                                   family=family)
+        P_now = P_dead + nudge * P_live
+        state = solve_tension_only(g, P_now, initial_slack=state.slack, family=family)
+        # A member that has just reached zero force and is still unloading lies within the
+        # iteration's round-off tolerance at the nudge point: release it now (its counter
+        # coming in), or the next piece would carry it into compression.
+        lt = family.solver(state.slack)
+        n_now = lt.solve(P_now).member_forces_kip
+        n_rate = lt.solve(P_live).member_forces_kip
+        slack_now = np.array([lab in state.slack for lab in labels])
+        forced_now = np.array([lab in state.forced_compression for lab in labels])
+        tol = 1e-6 * max(float(np.abs(n_now).max()), 1.0)
+        going = {labels[i] for i in np.nonzero(
+            t_only & ~slack_now & ~forced_now & (n_rate < -1e-12 * scale) & (n_now <= tol))[0]}
+        if going:
+            start = (state.slack | going) - {p for m in going for p in family.partners(m)
+                                             if p in state.slack}
+            if family.is_stable(start):
+                state = solve_tension_only(g, P_now, initial_slack=start, family=family)
     raise ConvergenceError(
         f"the load path changed its set of slack members more than {max_segments} times")
 

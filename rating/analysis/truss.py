@@ -19,7 +19,7 @@ import numpy as np
 
 from rating.analysis.influence import InfluenceLines
 from rating.errors import ConvergenceError, InstabilityError
-from rating.model import SupportKind, TrussGeometry
+from rating.model import Member, SupportKind, TrussGeometry
 
 # relative size of the smallest eigenvalue of the scaled stiffness below which the truss is
 # a mechanism; scaled stiffness has unit diagonal so this is scale-free.
@@ -222,6 +222,21 @@ def joint_load_array(geometry: TrussGeometry, loads: Mapping[str, tuple[float, f
     return P
 
 
+def members_cross(g: TrussGeometry, a: Member, b: Member) -> bool:
+    """True when two members share no joint and cross inside a panel (a main and its counter)."""
+    if {a.start, a.end} & {b.start, b.end}:
+        return False
+    p1, p2 = g.joint(a.start), g.joint(a.end)
+    p3, p4 = g.joint(b.start), g.joint(b.end)
+
+    def orient(p, q, r) -> float:
+        return (q.x_ft - p.x_ft) * (r.y_ft - p.y_ft) - (q.y_ft - p.y_ft) * (r.x_ft - p.x_ft)
+
+    d1, d2 = orient(p3, p4, p1), orient(p3, p4, p2)
+    d3, d4 = orient(p1, p2, p3), orient(p1, p2, p4)
+    return d1 * d2 < 0 and d3 * d4 < 0
+
+
 class TrussFamily:
     """One geometry with its solved trusses cached by the set of slack members.
 
@@ -235,6 +250,16 @@ class TrussFamily:
         self.geometry = geometry
         self.excluded = frozenset(excluded)
         self._solvers: dict[frozenset[str], LinearTruss | InstabilityError] = {}
+        self._partners: dict[str, frozenset[str]] | None = None
+
+    def partners(self, member: str) -> frozenset[str]:
+        """Tension-only members crossing ``member`` in its panel (its counter or main)."""
+        if self._partners is None:
+            t = [m for m in self.geometry.members if m.tension_only]
+            self._partners = {m.label: frozenset(o.label for o in t if o is not m
+                                                 and members_cross(self.geometry, m, o))
+                              for m in t}
+        return self._partners.get(member, frozenset())
 
     def solver(self, slack: Iterable[str] = ()) -> LinearTruss:
         key = frozenset(slack) | self.excluded
@@ -285,10 +310,11 @@ def solve_tension_only(
     Method (documented in docs/tension-only.md): start from ``initial_slack``; solve the
     linear truss of the active members; then (a) a tension-only member in compression is made
     slack, the most compressed first if releasing all at once would make a mechanism, and (b) a
-    slack member whose ends move apart (it would be stretched) is made active again. Repeat
-    until no member changes. A member whose release would make a mechanism stays active and is
-    reported in ``forced_compression``. Cycling or no convergence within ``max_iterations``
-    raises :class:`ConvergenceError`.
+    slack member whose ends move apart (it would be stretched) is made active again; when a
+    release alone would leave a mechanism, the slack members crossing the released one (its
+    counter) come in with it. Repeat until no member changes. A member whose release would
+    make a mechanism stays active and is reported in ``forced_compression``. Cycling or no
+    convergence within ``max_iterations`` raises :class:`ConvergenceError`.
     """
     P = np.asarray(joint_loads_kip, dtype=float)
     fam = family if family is not None else TrussFamily(geometry)
@@ -304,14 +330,22 @@ def solve_tension_only(
         sol = lt.solve(P)
         N = sol.member_forces_kip
         el = lt.elongation(sol.displacements)[:, 0]
+        # compression beyond round-off of the forces themselves (a member at a change of
+        # active set carries a few parts in 1e9 of the largest force either way)
+        tol_N = max(scale, 1e-8 * float(np.abs(N).max()))
         compressed = [labels[i] for i in range(len(labels))
                       if labels[i] in t_only and labels[i] not in slack
-                      and labels[i] not in forced and N[i] < -scale]
+                      and labels[i] not in forced and N[i] < -tol_N]
         stretched = {labels[i] for i in range(len(labels))
                      if labels[i] in slack and el[i] > 1e-12 * max(np.abs(el).max(), 1e-30)}
         if not compressed and not stretched:
             return ActiveSetSolution(sol, slack, frozenset(forced), it)
         new = (slack - stretched) | set(compressed)
+        if not fam.is_stable(new):
+            # a compressed main can only go slack together with its counter coming in
+            swap = new - {p for c in compressed for p in fam.partners(c) if p in slack}
+            if swap != new and fam.is_stable(swap):
+                new = swap
         if not fam.is_stable(new):
             # release only the most compressed member (by stress) if that is stable
             idx = {lab: i for i, lab in enumerate(labels)}

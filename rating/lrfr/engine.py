@@ -25,7 +25,12 @@ from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
 from rating.analysis.path import PathCache, member_load_multiplier
-from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
+from rating.analysis.truss import (
+    ActiveSetSolution,
+    TrussFamily,
+    members_cross,
+    solve_tension_only,
+)
 from rating.capacity.member import MemberCapacity, member_capacity
 from rating.capacity.sections import gross_area_as_built_in2
 from rating.errors import InputError
@@ -161,20 +166,6 @@ def rating_geometry(bridge: Bridge) -> TrussGeometry:
     return replace(g, members=tuple(members))
 
 
-def _segments_cross(g: TrussGeometry, a: Member, b: Member) -> bool:
-    if {a.start, a.end} & {b.start, b.end}:
-        return False
-    p1, p2 = g.joint(a.start), g.joint(a.end)
-    p3, p4 = g.joint(b.start), g.joint(b.end)
-
-    def orient(p, q, r):
-        return (q.x_ft - p.x_ft) * (r.y_ft - p.y_ft) - (q.y_ft - p.y_ft) * (r.x_ft - p.x_ft)
-
-    d1, d2 = orient(p3, p4, p1), orient(p3, p4, p2)
-    d3, d4 = orient(p1, p2, p3), orient(p1, p2, p4)
-    return d1 * d2 < 0 and d3 * d4 < 0
-
-
 def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
                               max_pairs: int = 4) -> tuple[frozenset[str], ...]:
     """The dead-load set and the sets with crossing tension-only pairs flipped.
@@ -186,7 +177,7 @@ def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
     t_only = [m for m in g.members if m.tension_only]
     pairs = []
     for a, b in itertools.combinations(t_only, 2):
-        if (a.label in dead_slack) != (b.label in dead_slack) and _segments_cross(g, a, b):
+        if (a.label in dead_slack) != (b.label in dead_slack) and members_cross(g, a, b):
             slack, active = (a, b) if a.label in dead_slack else (b, a)
             pairs.append((slack.label, active.label))
     if len(pairs) <= max_pairs:

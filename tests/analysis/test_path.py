@@ -77,3 +77,33 @@ def test_member_unloaded_by_live_load_is_not_limited():
     P_l = axle_joint_loads(G, [100.0], [30.0])  # at L5: panel 4 shear not reversed
     lam, _ = member_load_multiplier(FAM, "L3U4", 1, 10.0, P_d, P_l, lam_max=50.0)
     assert lam == pytest.approx(np.inf) or lam > 50.0 - 1e-9
+
+
+@settings(max_examples=25, deadline=None)
+@given(x=st.floats(0.0, 160.0), load=st.floats(10.0, 80.0))
+def test_no_piece_carries_a_tension_only_member_into_compression(x, load):
+    # statics of a tension-only truss: on every piece of the path the active tension-only
+    # members stay in tension, and the piece agrees with a fresh solution at its middle
+    P_d = dead_loads()
+    P_l = axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load])
+    t_only = np.array([m.tension_only for m in G.members])
+    for seg in load_path(FAM, P_d, P_l, lam_max=12.0):
+        mid = 0.5 * (seg.lam_start + min(seg.lam_end, 12.0))
+        N = seg.forces(mid)
+        active = np.array([m.label not in seg.slack for m in G.members])
+        assert np.all(N[t_only & active] >= -1e-6 * max(np.abs(N).max(), 1.0))
+        ref = solve_tension_only(G, P_d + mid * P_l).solution.member_forces_kip
+        np.testing.assert_allclose(N, ref, atol=1e-7 * max(np.abs(ref).max(), 1.0))
+
+
+def test_main_just_past_zero_hands_over_to_its_counter():
+    # one load at L3 reverses the shear of panel 4: past the point where the main U3L4 falls
+    # to zero the counter L3U4 must take over (not the main kept in compression)
+    P_d = dead_loads(-2.0)
+    P_l = axle_joint_loads(G, [60.0], [1.0])
+    segs = list(load_path(FAM, P_d, P_l, lam_max=200.0))
+    change = next(s for s in segs if "U3L4" in s.slack)
+    lam = change.lam_start * (1 + 1e-4)
+    state = solve_tension_only(G, P_d + lam * P_l)
+    assert "U3L4" in state.slack and "L3U4" not in state.slack
+    assert not state.forced_compression
