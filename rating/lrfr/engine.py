@@ -494,6 +494,12 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
         out[case.id] = CasePosting(case.id, rf, who, result)
         if case.load.id == "NRL":
             nrl_ok = rf >= 1.0
+            if not nrl_ok:  # a screening load: the SHVs themselves are rated and posted
+                out[case.id] = CasePosting(
+                    case.id, rf, who, replace(result, posting_tons=None,
+                                              action=PostingAction.NONE),
+                    note=("screening load: with RF below 1.0 the single-unit SHVs are rated "
+                          "and posted one by one (FHWA SHV Q&A, March 2014)"))
     if nrl_ok:
         for cid, cp in out.items():
             if cid in ("SU4", "SU5", "SU6", "SU7"):

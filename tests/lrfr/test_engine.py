@@ -13,7 +13,7 @@ from dataclasses import replace
 
 import numpy as np
 import pytest
-from conftest import make_pratt_bridge
+from demo_bridge import make_pratt_bridge
 from hypothesis import given, settings
 from hypothesis import strategies as st
 

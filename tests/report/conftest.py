@@ -2,13 +2,13 @@
 
 from __future__ import annotations
 
-import importlib.util
 import multiprocessing
 from concurrent.futures import ProcessPoolExecutor
 from pathlib import Path
 from typing import Any
 
 import pytest
+from report_support import sample_workbooks
 from sample_results import sample_results
 
 from rating.results import RatingResults
@@ -29,23 +29,6 @@ def results_hostile() -> RatingResults:
     return sample_results("US", hostile=True)
 
 
-REPO = Path(__file__).resolve().parents[2]
-SAMPLES = REPO / "sample_inventory"
-
-
-def sample_workbooks(tmp: Path) -> list[Path]:
-    """The bundled sample workbooks; generated into ``tmp`` when not written yet."""
-    books = sorted(p for p in SAMPLES.glob("*.xlsx") if not p.name.startswith("~$"))
-    if books or not (SAMPLES / "make_samples.py").is_file():
-        return books
-    spec = importlib.util.spec_from_file_location("make_samples", SAMPLES / "make_samples.py")
-    if spec is None or spec.loader is None:
-        return []
-    mod = importlib.util.module_from_spec(spec)
-    spec.loader.exec_module(mod)
-    return sorted(mod.write_all(tmp))
-
-
 @pytest.fixture(scope="session")
 def sample_outcomes(tmp_path_factory: pytest.TempPathFactory) -> list[Any]:
     """Every sample workbook rated through the real pipeline (outcomes, rated or not), in
@@ -60,12 +43,6 @@ def sample_outcomes(tmp_path_factory: pytest.TempPathFactory) -> list[Any]:
     ctx = multiprocessing.get_context("spawn")
     with ProcessPoolExecutor(max_workers=workers, mp_context=ctx) as pool:
         return list(pool.map(rate_workbook, books))
-
-
-def smallest_rated(outcomes: list[Any]) -> Any | None:
-    """The rated sample with the fewest members (the quickest to rate again)."""
-    rated = [o for o in outcomes if o.results is not None]
-    return min(rated, key=lambda o: len(o.results.members), default=None)
 
 
 @pytest.fixture(scope="session")

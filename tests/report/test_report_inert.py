@@ -45,7 +45,7 @@ def test_markup_typed_into_a_real_workbook_stays_text(tmp_path: Path) -> None:
     """End to end: script and markup typed into a sample workbook's names and notes."""
     import openpyxl
     import pytest
-    from conftest import SAMPLES
+    from report_support import SAMPLES
 
     from rating.pipeline import rate_workbook
 

@@ -18,7 +18,7 @@ from pathlib import Path
 from typing import Any
 
 import pytest
-from conftest import smallest_rated
+from report_support import smallest_rated
 from sample_results import sample_results
 
 from rating.report import render_report
