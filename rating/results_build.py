@@ -107,7 +107,8 @@ def _rating(r: MemberCaseRating, case: RatingCase) -> Rating:
     return Rating(
         rf=r.rf, sense=r.sense, check=r.check,
         factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
-        method=r.method, position=_position(r.extreme, case.load), finding=r.finding,
+        method=r.method, position=_position(r.extreme, case.load),
+        finding=finding_text(r.finding),
     )
 
 

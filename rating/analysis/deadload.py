@@ -17,6 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from rating.analysis.distribution import lever_rule_fraction
 from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
 from rating.errors import InputError
 from rating.model import (
@@ -63,9 +64,7 @@ def lever_rule_share(offset_ft: float, truss_spacing_ft: float) -> tuple[float, 
 
     Statics of a simply supported floorbeam between the trusses (common practice).
     """
-    s = truss_spacing_ft
-    right = 0.5 + offset_ft / s
-    return 1.0 - right, right
+    return lever_rule_fraction(offset_ft + truss_spacing_ft / 2.0, truss_spacing_ft)
 
 
 def tributary_lengths_ft(geometry: TrussGeometry) -> np.ndarray:

@@ -12,7 +12,7 @@ from dataclasses import dataclass, field
 
 from rating.capacity.checks import Check, Sense
 from rating.capacity.compression import PHI_C, compression_checks, effective_length_factor
-from rating.capacity.factors import member_factors
+from rating.capacity.factors import combined_factor, member_factors
 from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.capacity.tension import PHI_PIN_PLATE, PHI_U, PHI_Y, tension_checks
 from rating.errors import InputError
@@ -71,7 +71,7 @@ class MemberCapacity:
     @property
     def phi_cs(self) -> float:
         """phi_c phi_s with the floor applied (Khan 2010, p. 187) [V]."""
-        return max(self.phi_c * self.phi_s, self.phi_cs_floor)
+        return combined_factor(self.phi_c, self.phi_s, self.phi_cs_floor)
 
     def checks_in(self, sense: Sense | str) -> tuple[Check, ...]:
         s = Sense(sense)

@@ -48,6 +48,7 @@ from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
     Bridge,
     EyebarSet,
+    Finding,
     Member,
     RodSet,
     TrussGeometry,
@@ -108,7 +109,7 @@ class MemberCaseRating:
     phi_c: float
     phi_s: float
     extreme: Extreme | None
-    finding: str = ""
+    finding: Finding | None = None
 
 
 @dataclass(frozen=True)
@@ -423,7 +424,7 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
         C = cap.factored_resistance(name)
         phi = check.phi if check is not None else 0.0
         check_name = check.name if check is not None else "no compression resistance"
-        finding = _finding_text(check)
+        finding = check.finding if check is not None else None
         g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
         g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
         if not dependent:
@@ -457,17 +458,6 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
         return MemberCaseRating(m.label, case.id, math.inf, "", "not loaded by this vehicle",
                                 "linear", 0.0, 0.0, g_ll, im, 0.0, cap.phi_c, cap.phi_s, None)
     return best
-
-
-def _finding_text(check) -> str:
-    if check is None:
-        return ""
-    f = check.finding
-    if f is None:
-        return ""
-    from rating.capacity.sections import describe_finding
-
-    return describe_finding(f)
 
 
 def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:

@@ -5,6 +5,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from rating.capacity.factors import combined_factor
 from rating.lrfr.factors import Factor
 
 
@@ -57,4 +58,4 @@ def factored_capacity(phi_c: float, phi_s: float, phi: float, R_n: float,
 
     MBE 6A.4.2.1, Eq. 6A.4.2.1-2 and -3 [Khan 2010, p. 187, read].
     """
-    return max(phi_c * phi_s, floor) * phi * R_n
+    return combined_factor(phi_c, phi_s, floor) * phi * R_n
