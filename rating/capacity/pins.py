@@ -469,7 +469,10 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
     plates = tuple(PlateLoad(i + 1, lay.items[i], float(lay.t[i]), float(lay.z[i]),
                              float(F[i, 0]), float(F[i, 1]), float(cap[i]), float(bear[i]))
                    for i in range(npl))
-    kg = int(np.argmax(lrfd))
+    # of sections tied within round-off (a plate between equal loads), the first along z,
+    # so the governing section does not hang on the last digit of the forces
+    near = np.flatnonzero(lrfd >= lrfd.max() - 1e-9 * max(abs(float(lrfd.max())), 1.0))
+    kg = int(near[np.argmin(lay.z[near])])
     gov = next(s for s in sections if s.z_in == float(lay.z[kg]))
     kb = int(np.argmax(bear)) if npl else -1
     u_fs = float(lrfd[kg]) / limit
@@ -627,8 +630,9 @@ class PinModel:
             F = F + self.layout.ext_share[:, None] * np.asarray(external_kip)[..., None, :]
         return F
 
-    def utilization(self, F: np.ndarray) -> np.ndarray:
-        """Governing utilization (1.0 at the limit) of each load state in the batch."""
+    def utilization_parts(self, F: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """(flexure and shear, bearing) utilizations, 1.0 at each limit, of each load state
+        in the batch (bearing 0 where no plate bears)."""
         def nrm(a):
             return np.hypot(a[..., 0], a[..., 1])
 
@@ -639,10 +643,15 @@ class PinModel:
         V = np.maximum.reduce([nrm(V_Lm), nrm(V_Lp), nrm(total - V_Lp), nrm(total - V_Lm)])
         fs = lrfd_flexure_shear(M, V, self.D, self.material.F_y, self.phi_f, self.phi_v)
         npl = self.layout.n_plates
-        u = fs.max(axis=-1) / self.limit
+        u_fs = fs.max(axis=-1) / self.limit
         if npl:
-            u = np.maximum(u, (nrm(F[..., :npl, :]) / self._bearing_cap).max(axis=-1))
-        return u
+            return u_fs, (nrm(F[..., :npl, :]) / self._bearing_cap).max(axis=-1)
+        return u_fs, np.zeros_like(u_fs)
+
+    def utilization(self, F: np.ndarray) -> np.ndarray:
+        """Governing utilization (1.0 at the limit) of each load state in the batch."""
+        u_fs, u_b = self.utilization_parts(F)
+        return np.maximum(u_fs, u_b)
 
     def multipliers(self, F_base: np.ndarray, F_added: np.ndarray, lam_max: float = 1e3,
                     upper: np.ndarray | None = None) -> np.ndarray:

@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import partial
 
 import numpy as np
@@ -37,7 +37,8 @@ class PinCaseRating:
     rf: float
     check: str
     extreme: Extreme | None
-    at_rating: PinCheck | None  # the pin check at the rating load level, for the report
+    at_rating: PinCheck | None  # the full pin check at the rating load level; kept for the
+    # pin's governing case only (the report shows that one)
 
 
 @dataclass(frozen=True)
@@ -89,9 +90,12 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     model = PinModel(pin, members_here, dirs, designs=designs)
     solver = family.solver(dead_state.slack)
     N0 = dead_state.solution.member_forces_kip[idx]
-    ext_dead = _balancing(unit, N0)
-    F_base = model.point_forces(N0, ext_dead)
-    for case in cases:
+    # every candidate position of every case, searched together
+    row_case: list[int] = []
+    row_key: list[tuple] = []
+    row_ext: list[Extreme] = []
+    row_P: list[np.ndarray] = []
+    for ci, case in enumerate(cases):
         im, g_ll = case.im.value, case.gamma_ll.value
         unique: dict = {}
         for c in configs:
@@ -103,67 +107,73 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     if e.position is None and not e.lane_segments_ft:
                         continue
                     unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
-        keys = list(unique)
-        best = PinCaseRating(case.id, math.inf, "not loaded by this vehicle", None, None)
-        exts = list(unique.values())
-        if not exts:
-            ratings[case.id] = best
+        for key, e in unique.items():
+            row_case.append(ci)
+            row_key.append(key)
+            row_ext.append(e)
+            row_P.append(paths.live_loads((case.id, key), partial(
+                live_joint_loads, g, case.load, e, im, df, g_ll)))
+    n_rows = len(row_P)
+    lams = np.full(n_rows, np.inf)
+    N_at = np.zeros((n_rows, len(idx)))  # member forces at the joint at lam, finite rows
+    if n_rows and linear:
+        # forces at this joint are linear in lam on the dead-load active set
+        N_live = solver.solve(np.stack(row_P, axis=-1)).member_forces_kip[idx].T
+        F_base = model.point_forces(N0, _balancing(unit, N0))
+        lams = model.multipliers(F_base, model.point_forces(N_live, _balancing(unit, N_live)))
+        fin = np.isfinite(lams)
+        N_at[fin] = N0 + lams[fin, None] * N_live[fin]
+    elif n_rows:
+        # piecewise linear along each position's exact load path: every piece of every path
+        # in one vectorized search, then the first piece of each path that holds the crossing
+        owner, starts, lengths, n0s, n1s = [], [], [], [], []
+        for k in range(n_rows):
+            for seg in paths.segments((cases[row_case[k]].id, g_dc, g_dw, row_key[k]), P_dead,
+                                      row_P[k], dead_state):
+                owner.append(k)
+                starts.append(seg.lam_start)
+                lengths.append(seg.lam_end - seg.lam_start)
+                n0s.append(seg.forces(seg.lam_start)[idx])
+                n1s.append(seg.N_live[idx])
+        n0a, n1a, ln = np.array(n0s), np.array(n1s), np.array(lengths)
+        F0a = model.point_forces(n0a, _balancing(unit, n0a))
+        F1a = model.point_forces(n1a, _balancing(unit, n1a))
+        hit = np.nonzero(model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0)[0]
+        if hit.size:
+            rows, first = np.unique(np.array(owner)[hit], return_index=True)
+            sel = hit[first]
+            rel = np.minimum(model.multipliers(F0a[sel], F1a[sel], upper=ln[sel]), ln[sel])
+            lams[rows] = np.array(starts)[sel] + rel
+            N_at[rows] = n0a[sel] + rel[:, None] * n1a[sel]
+    if n_rows:
+        u_fs, u_b = model.utilization_parts(model.point_forces(N_at, _balancing(unit, N_at)))
+    row_case_a = np.array(row_case, dtype=int)
+    worst_k, worst_lam = -1, math.inf
+    for ci, case in enumerate(cases):
+        here = np.nonzero(row_case_a == ci)[0]
+        if not here.size:
+            ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
+                                             None, None)
             continue
-        P_lives = [paths.live_loads((case.id, key), partial(
-            live_joint_loads, g, case.load, e, im, df, g_ll)) for key, e in unique.items()]
-        P = np.stack(P_lives, axis=-1)  # (n_joints, 2, n_positions)
-        if linear:
-            # forces at this joint are linear in lam on the dead-load active set: all
-            # positions in one vectorized search
-            N_live = solver.solve(P).member_forces_kip[idx].T  # (n_positions, n_here)
-            lams = model.multipliers(F_base, model.point_forces(N_live,
-                                                                _balancing(unit, N_live)))
-        else:
-            # piecewise linear along each position's exact load path: every piece of every
-            # path in one vectorized search, then the first piece that holds the crossing
-            owner, starts, lengths, F0s, F1s = [], [], [], [], []
-            for k, P_live in enumerate(P_lives):
-                for seg in paths.segments((case.id, g_dc, g_dw, keys[k]), P_dead, P_live,
-                                          dead_state):
-                    owner.append(k)
-                    starts.append(seg.lam_start)
-                    lengths.append(seg.lam_end - seg.lam_start)
-                    n0, n1 = seg.forces(seg.lam_start)[idx], seg.N_live[idx]
-                    F0s.append(model.point_forces(n0, _balancing(unit, n0)))
-                    F1s.append(model.point_forces(n1, _balancing(unit, n1)))
-            F0a, F1a, ln = np.stack(F0s), np.stack(F1s), np.array(lengths)
-            # the first piece of each path whose end reaches the limit holds the crossing
-            u_end = model.utilization(F0a + ln[:, None, None] * F1a)
-            pick: dict[int, int] = {}
-            for i, (k, u) in enumerate(zip(owner, u_end, strict=True)):
-                if k not in pick and u >= 1.0:
-                    pick[k] = i
-            lams = np.full(len(exts), np.inf)
-            if pick:
-                sel = np.array(list(pick.values()))
-                rel = model.multipliers(F0a[sel], F1a[sel], upper=ln[sel])
-                for k, i, r in zip(pick, sel, rel, strict=True):
-                    lams[k] = starts[i] + min(r, ln[i])
-        k = int(np.argmin(lams))
+        k = int(here[np.argmin(lams[here])])
         lam = float(lams[k])
-        if math.isfinite(lam):
-            # the pin check at the rating load level of the governing position, for the report
-            if linear:
-                N_here = dead_state.solution.member_forces_kip[idx] + lam * N_live[k]
-            else:
-                seg_i = pick[k]
-                seg_start = starts[seg_i]
-                seg = next(sg for sg in paths.segments((case.id, g_dc, g_dw, keys[k]), P_dead,
-                                                       P_lives[k], dead_state)
-                           if sg.lam_start == seg_start)
-                N_here = seg.forces(lam)[idx]
-            chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
-                                                                    map(float, N_here),
-                                                                    strict=True))),
-                            external_kip=tuple(_balancing(unit, N_here)), designs=designs)
-            what = ("pin bearing" if chk.utilization_bearing >= chk.utilization_flexure_shear
-                    else "pin flexure and shear")
-            best = PinCaseRating(case.id, lam, what, exts[k], chk)
-        ratings[case.id] = best
+        if not math.isfinite(lam):
+            ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
+                                             None, None)
+            continue
+        what = "pin bearing" if u_b[k] >= u_fs[k] else "pin flexure and shear"
+        ratings[case.id] = PinCaseRating(case.id, lam, what, row_ext[k], None)
+        if lam < worst_lam:
+            worst_k, worst_lam = k, lam
+    if worst_k >= 0:
+        # the full pin check (sections, plates, balance) at the rating load level of the
+        # governing case and position, for the report
+        N_here = N_at[worst_k]
+        chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
+                                                                map(float, N_here),
+                                                                strict=True))),
+                        external_kip=tuple(_balancing(unit, N_here)), designs=designs)
+        cid = cases[row_case[worst_k]].id
+        ratings[cid] = replace(ratings[cid], at_rating=chk)
     return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,
                      dead_check.assumptions)
