@@ -36,25 +36,34 @@ class PathSegment:
 
 def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
               lam_max: float = 1e3, max_segments: int = 60,
-              dead_state: ActiveSetSolution | None = None) -> Iterator[PathSegment]:
+              dead_state: ActiveSetSolution | None = None,
+              dead_solutions: dict[frozenset[str], tuple[np.ndarray, np.ndarray]] | None = None
+              ) -> Iterator[PathSegment]:
     """Yield the linear pieces of the load path from lam = 0 up to ``lam_max``.
 
     ``dead_state`` is the tension-only solution under ``P_dead`` when the caller has it
-    already (it is the same for every vehicle position).
+    already (it is the same for every vehicle position); ``dead_solutions`` keeps the linear
+    solutions of ``P_dead`` by active set across paths (the same ``P_dead`` only).
     """
     g = family.geometry
     t_only = np.array([m.tension_only for m in g.members])
     labels = [m.label for m in g.members]
+    dead_memo = dead_solutions if dead_solutions is not None else {}
     lam = 0.0
     state = dead_state if dead_state is not None else solve_tension_only(g, P_dead,
                                                                          family=family)
     scale = max(float(np.abs(P_dead).max()), float(np.abs(P_live).max()), 1.0)
+    live_now: tuple[frozenset[str], np.ndarray, np.ndarray] | None = None
     for _ in range(max_segments):
         lt = family.solver(state.slack)
-        sd, sl = lt.solve(P_dead), lt.solve(P_live)
-        N_d, N_l = sd.member_forces_kip, sl.member_forces_kip
-        el_d = lt.elongation(sd.displacements)[:, 0]
-        el_l = lt.elongation(sl.displacements)[:, 0]
+        dead_here = dead_memo.get(state.slack)
+        if dead_here is None:
+            dead_here = dead_memo[state.slack] = lt.forces_and_elongations(P_dead)
+        N_d, el_d = dead_here
+        if live_now is not None and live_now[0] == state.slack:
+            N_l, el_l = live_now[1], live_now[2]
+        else:
+            N_l, el_l = lt.forces_and_elongations(P_live)
         slack_mask = np.array([lab in state.slack for lab in labels])
         forced = np.array([lab in state.forced_compression for lab in labels])
         ends = [lam_max]
@@ -79,9 +88,9 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
         # A member that has just reached zero force and is still unloading lies within the
         # iteration's round-off tolerance at the nudge point: release it now (its counter
         # coming in), or the next piece would carry it into compression.
-        lt = family.solver(state.slack)
-        n_now = lt.solve(P_now).member_forces_kip
-        n_rate = lt.solve(P_live).member_forces_kip
+        n_now = state.solution.member_forces_kip
+        n_rate, el_rate = family.solver(state.slack).forces_and_elongations(P_live)
+        live_now = (state.slack, n_rate, el_rate)
         slack_now = np.array([lab in state.slack for lab in labels])
         forced_now = np.array([lab in state.forced_compression for lab in labels])
         tol = 1e-6 * max(float(np.abs(n_now).max()), 1.0)
@@ -96,15 +105,41 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
         f"the load path changed its set of slack members more than {max_segments} times")
 
 
+class LazyPath:
+    """A load path followed only as far as someone has asked: iterating it yields the pieces
+    found so far, then follows the path further (each piece is found once)."""
+
+    def __init__(self, pieces: Iterator[PathSegment]) -> None:
+        self._source: Iterator[PathSegment] | None = pieces
+        self._found: list[PathSegment] = []
+
+    def __iter__(self) -> Iterator[PathSegment]:
+        k = 0
+        while True:
+            if k < len(self._found):
+                yield self._found[k]
+                k += 1
+                continue
+            if self._source is None:
+                return
+            nxt = next(self._source, None)
+            if nxt is None:
+                self._source = None
+                return
+            self._found.append(nxt)
+
+
 class PathCache:
     """Load paths kept by a caller's key: one vehicle position at one factor set is followed
-    once, then shared by every member and pin rated with it."""
+    once, as far as any member or pin needs it, and shared by every member and pin rated
+    with it."""
 
     def __init__(self, family: TrussFamily, lam_max: float = 1e3) -> None:
         self.family = family
         self.lam_max = lam_max
-        self._paths: dict[Hashable, tuple[PathSegment, ...]] = {}
+        self._paths: dict[Hashable, LazyPath] = {}
         self._loads: dict[Hashable, np.ndarray] = {}
+        self._dead: dict[bytes, dict[frozenset[str], tuple[np.ndarray, np.ndarray]]] = {}
 
     def live_loads(self, key: Hashable, make: Callable[[], np.ndarray]) -> np.ndarray:
         """The live-load vector of one position, made once per key."""
@@ -114,11 +149,13 @@ class PathCache:
         return hit
 
     def segments(self, key: Hashable, P_dead: np.ndarray, P_live: np.ndarray,
-                 dead_state: ActiveSetSolution | None = None) -> tuple[PathSegment, ...]:
+                 dead_state: ActiveSetSolution | None = None) -> LazyPath:
         hit = self._paths.get(key)
         if hit is None:
-            hit = tuple(load_path(self.family, P_dead, P_live, self.lam_max,
-                                  dead_state=dead_state))
+            memo = self._dead.setdefault(np.ascontiguousarray(P_dead, dtype=float).tobytes(),
+                                         {})
+            hit = LazyPath(load_path(self.family, P_dead, P_live, self.lam_max,
+                                     dead_state=dead_state, dead_solutions=memo))
             self._paths[key] = hit
         return hit
 

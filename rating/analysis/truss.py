@@ -187,6 +187,17 @@ class LinearTruss:
         N_out = N[:, 0] if single else N
         return TrussSolution(N_out, R.reshape(shape), u.reshape(shape))
 
+    def forces_and_elongations(self, joint_loads_kip: np.ndarray
+                               ) -> tuple[np.ndarray, np.ndarray]:
+        """Member forces (kip) and elongations of every member (slack ones included) under
+        loads (n_joints, 2): :meth:`solve` without the reactions, for the load path."""
+        P = np.asarray(joint_loads_kip, dtype=float).reshape(-1)
+        f = self._t.free_dofs
+        u = np.zeros_like(P)
+        u[f] = self._K_inv @ P[f]
+        elong = self._B @ u
+        return self._k_axial * elong, elong
+
     def elongation(self, displacements: np.ndarray) -> np.ndarray:
         """Member elongations (all members, active or not) for a displacement field."""
         nj = len(self.geometry.joints)

@@ -124,27 +124,36 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         fin = np.isfinite(lams)
         N_at[fin] = N0 + lams[fin, None] * N_live[fin]
     elif n_rows:
-        # piecewise linear along each position's exact load path: every piece of every path
-        # in one vectorized search, then the first piece of each path that holds the crossing
-        owner, starts, lengths, n0s, n1s = [], [], [], [], []
-        for k in range(n_rows):
-            for seg in paths.segments((cases[row_case[k]].id, g_dc, g_dw, row_key[k]), P_dead,
-                                      row_P[k], dead_state):
-                owner.append(k)
-                starts.append(seg.lam_start)
-                lengths.append(seg.lam_end - seg.lam_start)
-                n0s.append(seg.forces(seg.lam_start)[idx])
-                n1s.append(seg.N_live[idx])
-        n0a, n1a, ln = np.array(n0s), np.array(n1s), np.array(lengths)
-        F0a = model.point_forces(n0a, _balancing(unit, n0a))
-        F1a = model.point_forces(n1a, _balancing(unit, n1a))
-        hit = np.nonzero(model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0)[0]
-        if hit.size:
-            rows, first = np.unique(np.array(owner)[hit], return_index=True)
-            sel = hit[first]
-            rel = np.minimum(model.multipliers(F0a[sel], F1a[sel], upper=ln[sel]), ln[sel])
-            lams[rows] = np.array(starts)[sel] + rel
-            N_at[rows] = n0a[sel] + rel[:, None] * n1a[sel]
+        # piecewise linear along each position's exact load path, followed piece by piece
+        # for all positions together until each reaches the limit (or its path ends): the
+        # first piece whose end reaches it holds the crossing
+        walks = {k: iter(paths.segments((cases[row_case[k]].id, g_dc, g_dw, row_key[k]),
+                                        P_dead, row_P[k], dead_state)) for k in range(n_rows)}
+        picked: list[tuple[int, float, float, np.ndarray, np.ndarray, np.ndarray,
+                           np.ndarray]] = []
+        while walks:
+            step = [(k, sg) for k, it in walks.items() if (sg := next(it, None)) is not None]
+            if not step:
+                break
+            walks = {k: walks[k] for k, _ in step}
+            n0a = np.array([sg.forces(sg.lam_start)[idx] for _, sg in step])
+            n1a = np.array([sg.N_live[idx] for _, sg in step])
+            ln = np.array([sg.lam_end - sg.lam_start for _, sg in step])
+            F0a = model.point_forces(n0a, _balancing(unit, n0a))
+            F1a = model.point_forces(n1a, _balancing(unit, n1a))
+            reach = model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0
+            for i in np.nonzero(reach)[0]:
+                k, sg = step[i]
+                picked.append((k, sg.lam_start, float(ln[i]), F0a[i], F1a[i], n0a[i], n1a[i]))
+                del walks[k]
+        if picked:
+            ks = np.array([t[0] for t in picked])
+            ln = np.array([t[2] for t in picked])
+            rel = np.minimum(model.multipliers(np.stack([t[3] for t in picked]),
+                                               np.stack([t[4] for t in picked]), upper=ln), ln)
+            lams[ks] = np.array([t[1] for t in picked]) + rel
+            N_at[ks] = np.stack([t[5] for t in picked]) + rel[:, None] * np.stack(
+                [t[6] for t in picked])
     if n_rows:
         u_fs, u_b = model.utilization_parts(model.point_forces(N_at, _balancing(unit, N_at)))
     row_case_a = np.array(row_case, dtype=int)
