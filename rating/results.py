@@ -9,6 +9,7 @@ Tension positive. Schema: docs/results-schema.md.
 from __future__ import annotations
 
 import dataclasses
+import functools
 import json
 import math
 from collections.abc import Mapping
@@ -292,14 +293,25 @@ def _number(x: float) -> float | str | None:
     return x
 
 
+@functools.cache
+def _fields_with_dimensions(cls: type) -> tuple[tuple[str, str | None], ...]:
+    return tuple((f.name, f.metadata.get("dimension") if f.metadata else None)
+                 for f in dataclasses.fields(cls))
+
+
 def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:
     """Plain JSON-ready data from the results objects, converted to ``system`` units."""
+    t = type(obj)
+    if t is float:
+        x = obj if dimension is None or system == "US" else _convert(obj, dimension, system)
+        return round(x, 6) + 0.0 if math.isfinite(x) else _number(x)
+    if t is int:
+        return _number(_convert(obj, dimension, system))
+    if t is str or t is bool or obj is None:
+        return obj
     if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
-        out = {}
-        for f in dataclasses.fields(obj):
-            dim = f.metadata.get("dimension") if f.metadata else None
-            out[f.name] = to_plain(getattr(obj, f.name), system, dim)
-        return out
+        return {name: to_plain(getattr(obj, name), system, dim)
+                for name, dim in _fields_with_dimensions(t)}
     if isinstance(obj, Mapping):
         return {str(k): to_plain(v, system, dimension) for k, v in obj.items()}
     if isinstance(obj, tuple | list):
@@ -310,9 +322,10 @@ def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:
 
 
 def results_json(results: RatingResults) -> str:
-    """Deterministic JSON text: same results, byte-identical file."""
+    """Deterministic JSON text: same results, byte-identical file. Compact (no indentation):
+    the file is for programs; ``python -m json.tool`` shows it indented."""
     system = "SI" if results.units.get("force") == "kN" else "US"
-    return json.dumps(to_plain(results, system), indent=2, sort_keys=False,
+    return json.dumps(to_plain(results, system), separators=(",", ":"), sort_keys=False,
                       ensure_ascii=False) + "\n"
 
 

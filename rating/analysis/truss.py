@@ -334,6 +334,7 @@ def solve_tension_only(
     forced: set[str] = set()
     seen: set[frozenset[str]] = set()
     labels = [m.label for m in geometry.members]
+    t_mask = np.array([m.tension_only for m in geometry.members], dtype=bool)
     scale = max(float(np.abs(P).max()), 1.0) * tol_kip
     for it in range(1, max_iterations + 1):
         seen.add(slack)
@@ -341,14 +342,15 @@ def solve_tension_only(
         sol = lt.solve(P)
         N = sol.member_forces_kip
         el = lt.elongation(sol.displacements)[:, 0]
+        slack_mask = np.array([lab in slack for lab in labels], dtype=bool)
+        forced_mask = np.array([lab in forced for lab in labels], dtype=bool)
         # compression beyond round-off of the forces themselves (a member at a change of
         # active set carries a few parts in 1e9 of the largest force either way)
         tol_N = max(scale, 1e-8 * float(np.abs(N).max()))
-        compressed = [labels[i] for i in range(len(labels))
-                      if labels[i] in t_only and labels[i] not in slack
-                      and labels[i] not in forced and N[i] < -tol_N]
-        stretched = {labels[i] for i in range(len(labels))
-                     if labels[i] in slack and el[i] > 1e-12 * max(np.abs(el).max(), 1e-30)}
+        compressed = [labels[i] for i in np.flatnonzero(
+            t_mask & ~slack_mask & ~forced_mask & (N < -tol_N))]
+        stretched = {labels[i] for i in np.flatnonzero(
+            slack_mask & (el > 1e-12 * max(float(np.abs(el).max()), 1e-30)))}
         if not compressed and not stretched:
             return ActiveSetSolution(sol, slack, frozenset(forced), it)
         new = (slack - stretched) | set(compressed)
