@@ -677,20 +677,38 @@ class PinModel:
         out[first == 0] = 0.0
         todo = np.nonzero(first > 0)[0]
         if todo.size:
-            rows = np.arange(todo.size)
             lo = grid[todo, first[todo] - 1]
             hi = grid[todo, first[todo]]
-            Ft, F0t = F1[todo], F0[todo]
-            sub_frac = np.linspace(0.0, 1.0, 9)
-            for _ in range(5):  # each pass narrows the bracket 8 times
-                sub = lo[:, None] + (hi - lo)[:, None] * sub_frac[None, :]
-                u = self.utilization(F0t[:, None] + sub[:, :, None, None] * Ft[:, None])
-                k = np.clip((u >= 1.0).argmax(axis=1), 1, 8)
-                lo, hi = sub[rows, k - 1], sub[rows, k]
-            # the bracket is now ~1e-4 of a grid step: a secant step on the convex utilization
-            u_lo = self.utilization(F0t + lo[:, None, None] * Ft)
-            u_hi = self.utilization(F0t + hi[:, None, None] * Ft)
-            w = np.where(u_hi > u_lo, (1.0 - u_lo) / np.where(u_hi > u_lo, u_hi - u_lo, 1.0),
-                         1.0)
-            out[todo] = lo + np.clip(w, 0.0, 1.0) * (hi - lo)
+            f_lo = U[todo, first[todo] - 1] - 1.0
+            f_hi = U[todo, first[todo]] - 1.0
+            out[todo] = self._crossings(F0[todo], F1[todo], lo, hi, f_lo, f_hi)
+        return out
+
+    def _crossings(self, F0: np.ndarray, F1: np.ndarray, lo: np.ndarray, hi: np.ndarray,
+                   f_lo: np.ndarray, f_hi: np.ndarray) -> np.ndarray:
+        """Roots of utilization(F0 + lam F1) = 1 within brackets f(lo) < 0 <= f(hi), all
+        at once: the Illinois regula falsi of :func:`_crossing`, row by row to convergence
+        (u is convex along lam, so the bracket is sound)."""
+        out = hi.copy()
+        side = np.zeros(lo.size, dtype=int)
+        live = np.arange(lo.size)
+        for _ in range(100):
+            d = f_hi - f_lo
+            x = np.where(d != 0.0, hi - f_hi * (hi - lo) / np.where(d != 0.0, d, 1.0),
+                         0.5 * (lo + hi))
+            x = np.where((lo < x) & (x < hi), x, 0.5 * (lo + hi))
+            f = self.utilization(F0[live] + x[:, None, None] * F1[live]) - 1.0
+            right = f >= 0.0
+            f_lo = np.where(right & (side == 1), 0.5 * f_lo, f_lo)
+            f_hi = np.where(~right & (side == -1), 0.5 * f_hi, f_hi)
+            hi, f_hi = np.where(right, x, hi), np.where(right, f, f_hi)
+            lo, f_lo = np.where(right, lo, x), np.where(right, f_lo, f)
+            side = np.where(right, 1, -1)
+            done = (hi - lo <= 1e-12 * np.maximum(hi, 1.0)) | (np.abs(f) < 1e-13)
+            out[live] = np.where(f_hi == 0.0, hi, x)
+            keep = ~done
+            if not keep.any():
+                break
+            live, lo, hi, f_lo, f_hi, side = (live[keep], lo[keep], hi[keep], f_lo[keep],
+                                              f_hi[keep], side[keep])
         return out

@@ -463,15 +463,19 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
 def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
     out: dict[str, CasePosting] = {}
     nrl_ok = None
+    def lower(a: float, b: float) -> bool:
+        # ties within round-off (symmetric members or pins) go to the first in order
+        return a < b - 1e-9 * max(abs(b), 1.0) if math.isfinite(b) else a < b
+
     for case in cases:
         rf, who = math.inf, ""
         for m in g.members:
             r = ratings[(m.label, case.id)]
-            if r.rf < rf:
+            if lower(r.rf, rf):
                 rf, who = r.rf, m.label
         for p in pins:
             r = p.ratings.get(case.id)
-            if r is not None and r.rf < rf:
+            if r is not None and lower(r.rf, rf):
                 rf, who = r.rf, f"pin at {p.joint}"
         W = case.load.gross_weight_tons
         result = posting(rf, W)

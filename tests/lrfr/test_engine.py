@@ -237,3 +237,15 @@ def test_pins_are_in_equilibrium_with_their_bars(rated):
         for r in p.ratings.values():
             if r.at_rating is not None:
                 assert max(map(abs, r.at_rating.residual_force_kip)) < 1e-6
+
+
+def test_controlling_member_of_a_tie_is_the_first_in_order(rated):
+    # a symmetric truss rates mirror members (and pins) alike within round-off; the one named
+    # controlling is the first in the member order (then the pins), never a last-digit pick
+    for case in rated.cases:
+        cp = rated.postings[case.id]
+        order = [(m.label, rated.ratings[(m.label, case.id)].rf) for m in rated.geometry.members]
+        order += [(f"pin at {p.joint}", p.ratings[case.id].rf) for p in rated.pins]
+        low = min(rf for _, rf in order)
+        tied = [who for who, rf in order if abs(rf - low) <= 1e-9 * max(abs(low), 1.0)]
+        assert cp.controlling == tied[0]
