@@ -15,7 +15,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from rating.analysis.truss import ActiveSetSolution, TrussFamily, solve_tension_only
+from rating.analysis.truss import (
+    ActiveSetSolution,
+    TrussFamily,
+    member_mask,
+    solve_tension_only,
+)
 from rating.errors import ConvergenceError
 
 
@@ -64,8 +69,8 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
             N_l, el_l = live_now[1], live_now[2]
         else:
             N_l, el_l = lt.forces_and_elongations(P_live)
-        slack_mask = np.array([lab in state.slack for lab in labels])
-        forced = np.array([lab in state.forced_compression for lab in labels])
+        slack_mask = member_mask(g, state.slack)
+        forced = member_mask(g, state.forced_compression)
         ends = [lam_max]
         # an active tension-only member whose force falls to zero ends the segment
         act = t_only & ~slack_mask & ~forced & (N_l < -1e-12 * scale)
@@ -91,8 +96,8 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
         n_now = state.solution.member_forces_kip
         n_rate, el_rate = family.solver(state.slack).forces_and_elongations(P_live)
         live_now = (state.slack, n_rate, el_rate)
-        slack_now = np.array([lab in state.slack for lab in labels])
-        forced_now = np.array([lab in state.forced_compression for lab in labels])
+        slack_now = member_mask(g, state.slack)
+        forced_now = member_mask(g, state.forced_compression)
         tol = 1e-6 * max(float(np.abs(n_now).max()), 1.0)
         going = {labels[i] for i in np.nonzero(
             t_only & ~slack_now & ~forced_now & (n_rate < -1e-12 * scale) & (n_now <= tol))[0]}

@@ -233,6 +233,15 @@ def joint_load_array(geometry: TrussGeometry, loads: Mapping[str, tuple[float, f
     return P
 
 
+def member_mask(geometry: TrussGeometry, labels: Iterable[str]) -> np.ndarray:
+    """Boolean array over the members, True for the given labels."""
+    mask = np.zeros(len(geometry.members), dtype=bool)
+    idx = [geometry.member_index[lab] for lab in labels]
+    if idx:
+        mask[idx] = True
+    return mask
+
+
 def members_cross(g: TrussGeometry, a: Member, b: Member) -> bool:
     """True when two members share no joint and cross inside a panel (a main and its counter)."""
     if {a.start, a.end} & {b.start, b.end}:
@@ -273,7 +282,9 @@ class TrussFamily:
         return self._partners.get(member, frozenset())
 
     def solver(self, slack: Iterable[str] = ()) -> LinearTruss:
-        key = frozenset(slack) | self.excluded
+        key = slack if type(slack) is frozenset else frozenset(slack)
+        if self.excluded:
+            key = key | self.excluded
         hit = self._solvers.get(key)
         if hit is None:
             try:
@@ -342,8 +353,8 @@ def solve_tension_only(
         sol = lt.solve(P)
         N = sol.member_forces_kip
         el = lt.elongation(sol.displacements)[:, 0]
-        slack_mask = np.array([lab in slack for lab in labels], dtype=bool)
-        forced_mask = np.array([lab in forced for lab in labels], dtype=bool)
+        slack_mask = member_mask(geometry, slack)
+        forced_mask = member_mask(geometry, forced)
         # compression beyond round-off of the forces themselves (a member at a change of
         # active set carries a few parts in 1e9 of the largest force either way)
         tol_N = max(scale, 1e-8 * float(np.abs(N).max()))

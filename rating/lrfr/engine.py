@@ -438,14 +438,18 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
             rf, ext = math.inf, None
             unique = {(e.model, e.position, e.lane_segments_ft): e for e in extremes
                       if e.position is not None or e.lane_segments_ft}
+            # The path is followed under the live load with gamma_LL = 1 (one path serves
+            # every rating level of the load); lam then scales by 1 / gamma_LL.
             for (gd, gw), (P_dead, state) in dead_states.items():
                 for key, e in unique.items():
-                    P_live = paths.live_loads((case.id, key), partial(
-                        live_joint_loads, g, case.load, e, im, df, g_ll))
-                    segs = paths.segments((case.id, gd, gw, key), P_dead, P_live, state)
-                    lam, _ = member_load_multiplier(family, m.label, sense, C, P_dead, P_live,
-                                                    dead_state=state, segments=segs)
-                    if lam < rf:
+                    P_live = paths.live_loads((case.load.id, im, key), partial(
+                        live_joint_loads, g, case.load, e, im, df))
+                    segs = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live,
+                                          state)
+                    lam_1, _ = member_load_multiplier(family, m.label, sense, C, P_dead,
+                                                      P_live, dead_state=state, segments=segs)
+                    lam = lam_1 / g_ll
+                    if lower_beyond_round_off(lam, rf):
                         rf, ext, g_dc, g_dw = lam, e, gd, gw
             method = "load multiplier"
             if ext is None:
@@ -460,22 +464,24 @@ def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float,
     return best
 
 
+def lower_beyond_round_off(a: float, b: float) -> bool:
+    """a < b by more than round-off: of ties (mirror members, pins or vehicle positions of a
+    symmetric truss) the first found stays, never a pick by the last digit."""
+    return a < b - 1e-9 * max(abs(b), 1.0) if math.isfinite(b) else a < b
+
+
 def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
     out: dict[str, CasePosting] = {}
     nrl_ok = None
-    def lower(a: float, b: float) -> bool:
-        # ties within round-off (symmetric members or pins) go to the first in order
-        return a < b - 1e-9 * max(abs(b), 1.0) if math.isfinite(b) else a < b
-
     for case in cases:
         rf, who = math.inf, ""
         for m in g.members:
             r = ratings[(m.label, case.id)]
-            if lower(r.rf, rf):
+            if lower_beyond_round_off(r.rf, rf):
                 rf, who = r.rf, m.label
         for p in pins:
             r = p.ratings.get(case.id)
-            if r is not None and lower(r.rf, rf):
+            if r is not None and lower_beyond_round_off(r.rf, rf):
                 rf, who = r.rf, f"pin at {p.joint}"
         W = case.load.gross_weight_tons
         result = posting(rf, W)

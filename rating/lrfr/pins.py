@@ -96,7 +96,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     row_ext: list[Extreme] = []
     row_P: list[np.ndarray] = []
     for ci, case in enumerate(cases):
-        im, g_ll = case.im.value, case.gamma_ll.value
+        im = case.im.value
         unique: dict = {}
         for c in configs:
             for lab in members_here:
@@ -111,8 +111,9 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             row_case.append(ci)
             row_key.append(key)
             row_ext.append(e)
-            row_P.append(paths.live_loads((case.id, key), partial(
-                live_joint_loads, g, case.load, e, im, df, g_ll)))
+            # gamma_LL = 1 here: one path serves every rating level of the load
+            row_P.append(paths.live_loads((case.load.id, im, key), partial(
+                live_joint_loads, g, case.load, e, im, df)))
     n_rows = len(row_P)
     lams = np.full(n_rows, np.inf)
     N_at = np.zeros((n_rows, len(idx)))  # member forces at the joint at lam, finite rows
@@ -127,8 +128,10 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # piecewise linear along each position's exact load path, followed piece by piece
         # for all positions together until each reaches the limit (or its path ends): the
         # first piece whose end reaches it holds the crossing
-        walks = {k: iter(paths.segments((cases[row_case[k]].id, g_dc, g_dw, row_key[k]),
-                                        P_dead, row_P[k], dead_state)) for k in range(n_rows)}
+        path_keys = [(cases[ci].load.id, cases[ci].im.value, g_dc, g_dw, key)
+                     for ci, key in zip(row_case, row_key, strict=True)]
+        walks = {k: iter(paths.segments(path_keys[k], P_dead, row_P[k], dead_state))
+                 for k in range(n_rows)}
         picked: list[tuple[int, float, float, np.ndarray, np.ndarray, np.ndarray,
                            np.ndarray]] = []
         while walks:
@@ -155,6 +158,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             N_at[ks] = np.stack([t[5] for t in picked]) + rel[:, None] * np.stack(
                 [t[6] for t in picked])
     if n_rows:
+        lams = lams / np.array([cases[ci].gamma_ll.value for ci in row_case])
         u_fs, u_b = model.utilization_parts(model.point_forces(N_at, _balancing(unit, N_at)))
     row_case_a = np.array(row_case, dtype=int)
     worst_k, worst_lam = -1, math.inf
@@ -164,7 +168,9 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
                                              None, None)
             continue
-        k = int(here[np.argmin(lams[here])])
+        low = float(lams[here].min())
+        tol = 1e-9 * max(abs(low), 1.0) if math.isfinite(low) else 0.0
+        k = int(here[np.flatnonzero(lams[here] <= low + tol)[0]])  # of ties, the first
         lam = float(lams[k])
         if not math.isfinite(lam):
             ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
@@ -172,7 +178,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             continue
         what = "pin bearing" if u_b[k] >= u_fs[k] else "pin flexure and shear"
         ratings[case.id] = PinCaseRating(case.id, lam, what, row_ext[k], None)
-        if lam < worst_lam:
+        if lam < worst_lam - 1e-9 * max(abs(worst_lam), 1.0) or worst_k < 0:
             worst_k, worst_lam = k, lam
     if worst_k >= 0:
         # the full pin check (sections, plates, balance) at the rating load level of the
