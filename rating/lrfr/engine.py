@@ -240,7 +240,8 @@ class EnvelopeSet:
     """Envelopes of every member in every active set, found in one search per rating load.
 
     Members whose line does not change with the active set are searched once; the others once
-    per active set, all rows stacked into one set of influence lines.
+    per distinct line (flipping a far panel's counter leaves most lines as they were), all
+    rows stacked into one set of influence lines.
     """
 
     def __init__(self, lines: dict[frozenset[str], InfluenceLines],
@@ -250,13 +251,21 @@ class EnvelopeSet:
         rows = [base.ordinates]
         self._label: dict[tuple[str, frozenset[str]], str] = {
             (lab, c): lab for lab in base.member_labels for c in configs}
-        dep = [lab for lab in base.member_labels if lab in dependent]
-        idx = [base.member_labels.index(lab) for lab in dep]
-        for k, c in enumerate(configs[1:], start=1):
-            rows.append(lines[c].ordinates[idx])
-            for lab in dep:
-                key = f"{lab}\x00{k}"
-                labels.append(key)
+        scale = max(float(np.abs(base.ordinates).max()), 1e-12)
+        for lab in base.member_labels:
+            if lab not in dependent:
+                continue
+            i = base.member_labels.index(lab)
+            seen = [(base.ordinates[i], lab)]
+            for k, c in enumerate(configs[1:], start=1):
+                row = lines[c].ordinates[i]
+                key = next((key for r, key in seen
+                            if np.abs(r - row).max() <= 1e-12 * scale), None)
+                if key is None:
+                    key = f"{lab}\x00{k}"
+                    seen.append((row, key))
+                    labels.append(key)
+                    rows.append(row[None, :])
                 self._label[(lab, c)] = key
         self.lines = InfluenceLines(tuple(labels), base.stations_ft, np.vstack(rows))
         self._envelopes: dict[tuple[str, float], dict[str, MemberEnvelope]] = {}
