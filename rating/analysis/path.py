@@ -51,8 +51,8 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
     solutions of ``P_dead`` by active set across paths (the same ``P_dead`` only).
     """
     g = family.geometry
-    t_only = np.array([m.tension_only for m in g.members])
-    labels = [m.label for m in g.members]
+    t_only = family.tension_only_mask
+    labels = family.labels
     dead_memo = dead_solutions if dead_solutions is not None else {}
     lam = 0.0
     state = dead_state if dead_state is not None else solve_tension_only(g, P_dead,
@@ -89,7 +89,9 @@ def load_path(family: TrussFamily, P_dead: np.ndarray, P_live: np.ndarray,
         lam = lam_end
         nudge = lam * (1 + 1e-7) + 1e-9
         P_now = P_dead + nudge * P_live
-        state = solve_tension_only(g, P_now, initial_slack=state.slack, family=family)
+        # the first trial of the new state is the current piece itself, by superposition
+        state = solve_tension_only(g, P_now, initial_slack=state.slack, family=family,
+                                   trial=(N_d + nudge * N_l, el_d + nudge * el_l))
         # A member that has just reached zero force and is still unloading lies within the
         # iteration's round-off tolerance at the nudge point: release it now (its counter
         # coming in), or the next piece would carry it into compression.

@@ -271,6 +271,11 @@ class TrussFamily:
         self.excluded = frozenset(excluded)
         self._solvers: dict[frozenset[str], LinearTruss | InstabilityError] = {}
         self._partners: dict[str, frozenset[str]] | None = None
+        self.labels = tuple(m.label for m in geometry.members)
+        self.tension_only_labels = frozenset(m.label for m in geometry.members
+                                             if m.tension_only)
+        self.tension_only_mask = np.array([m.tension_only for m in geometry.members],
+                                          dtype=bool)
 
     def partners(self, member: str) -> frozenset[str]:
         """Tension-only members crossing ``member`` in its panel (its counter or main)."""
@@ -326,6 +331,7 @@ def solve_tension_only(
     max_iterations: int = 50,
     tol_kip: float = 1e-9,
     family: TrussFamily | None = None,
+    trial: tuple[np.ndarray, np.ndarray] | None = None,
 ) -> ActiveSetSolution:
     """Active-set solution for a truss with tension-only members under one load state.
 
@@ -337,22 +343,29 @@ def solve_tension_only(
     counter) come in with it. Repeat until no member changes. A member whose release would
     make a mechanism stays active and is reported in ``forced_compression``. Cycling or no
     convergence within ``max_iterations`` raises :class:`ConvergenceError`.
+
+    ``trial``: the member forces and elongations of the ``initial_slack`` set under these
+    loads when the caller has them already (by superposition); the first solve is skipped.
     """
     P = np.asarray(joint_loads_kip, dtype=float)
     fam = family if family is not None else TrussFamily(geometry)
-    t_only = {m.label for m in geometry.members if m.tension_only}
+    t_only = fam.tension_only_labels
     slack = frozenset(initial_slack) & t_only
     forced: set[str] = set()
     seen: set[frozenset[str]] = set()
-    labels = [m.label for m in geometry.members]
-    t_mask = np.array([m.tension_only for m in geometry.members], dtype=bool)
+    labels = fam.labels
+    t_mask = fam.tension_only_mask
     scale = max(float(np.abs(P).max()), 1.0) * tol_kip
     for it in range(1, max_iterations + 1):
         seen.add(slack)
         lt = fam.solver(slack)
-        sol = lt.solve(P)
-        N = sol.member_forces_kip
-        el = lt.elongation(sol.displacements)[:, 0]
+        sol: TrussSolution | None = None
+        if it == 1 and trial is not None:
+            N, el = trial
+        else:
+            sol = lt.solve(P)
+            N = sol.member_forces_kip
+            el = lt.elongation(sol.displacements)[:, 0]
         slack_mask = member_mask(geometry, slack)
         forced_mask = member_mask(geometry, forced)
         # compression beyond round-off of the forces themselves (a member at a change of
@@ -363,7 +376,8 @@ def solve_tension_only(
         stretched = {labels[i] for i in np.flatnonzero(
             slack_mask & (el > 1e-12 * max(float(np.abs(el).max()), 1e-30)))}
         if not compressed and not stretched:
-            return ActiveSetSolution(sol, slack, frozenset(forced), it)
+            return ActiveSetSolution(sol if sol is not None else lt.solve(P), slack,
+                                     frozenset(forced), it)
         new = (slack - stretched) | set(compressed)
         if not fam.is_stable(new):
             # a compressed main can only go slack together with its counter coming in

@@ -272,12 +272,29 @@ class EnvelopeSet:
 
     def of(self, load: RatingLoad, im: float, member: str, config: frozenset[str]
            ) -> MemberEnvelope:
+        return self.of_row(load, im, self._label[(member, config)])
+
+    def of_row(self, load: RatingLoad, im: float, row: str) -> MemberEnvelope:
+        """The envelope of one stacked row (see :meth:`distinct`)."""
         key = (load.id, im)
         env = self._envelopes.get(key)
         if env is None:
             env = {e.member: e for e in envelope(self.lines, load, im=im).members}
             self._envelopes[key] = env
-        return env[self._label[(member, config)]]
+        return env[row]
+
+    def distinct(self, members: Sequence[str], configs: Sequence[frozenset[str]]
+                 ) -> list[tuple[str, frozenset[str]]]:
+        """The distinct rows of ``members`` over ``configs`` (configs outer, members inner),
+        each with the first config that has it: every envelope of them, once."""
+        out, seen = [], set()
+        for c in configs:
+            for lab in members:
+                row = self._label[(lab, c)]
+                if row not in seen:
+                    seen.add(row)
+                    out.append((row, c))
+        return out
 
 
 def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset[str]:
@@ -361,15 +378,17 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     live: dict[tuple[str, str], LiveEffect] = {}
     ratings: dict[tuple[str, str], MemberCaseRating] = {}
     envs = EnvelopeSet(lines, configs, dependent)
+    distinct_rows = {m.label: envs.distinct([m.label], configs if m.label in dependent
+                                            else configs[:1]) for m in g.members}
     for case in cases:
         im = case.im.value
         for m in g.members:
             lab = m.label
-            cfgs = configs if lab in dependent else configs[:1]
-            best_max = max(((envs.of(case.load, im, lab, c).max, c) for c in cfgs),
-                           key=lambda t: t[0].total_kip(im))
-            best_min = min(((envs.of(case.load, im, lab, c).min, c) for c in cfgs),
-                           key=lambda t: t[0].total_kip(im))
+            # one envelope per distinct line of the member over the active sets, each with
+            # the first set that has it (the same maxima as searching every set)
+            mine = [(envs.of_row(case.load, im, row), c) for row, c in distinct_rows[lab]]
+            best_max = max(((e.max, c) for e, c in mine), key=lambda t: t[0].total_kip(im))
+            best_min = min(((e.min, c) for e, c in mine), key=lambda t: t[0].total_kip(im))
             live[(lab, case.id)] = LiveEffect(
                 df * best_max[0].value_kip, df * best_min[0].value_kip,
                 df * best_max[0].total_kip(im), df * best_min[0].total_kip(im), df,
@@ -383,7 +402,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 continue
             ratings[(lab, case.id)] = _rate_member(
                 g, family, m, capacities[lab], case, DC[lab], DW[lab], dead_states, dead_f, df,
-                [envs.of(case.load, im, lab, c) for c in cfgs], lab in dependent, paths)
+                [e for e, _ in mine], lab in dependent, paths)
 
     pins = tuple(
         rate_pin(pin, g, family, bridge, cases, configs, envs, dead, dead_f, df,

@@ -95,18 +95,17 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     row_key: list[tuple] = []
     row_ext: list[Extreme] = []
     row_P: list[np.ndarray] = []
+    # every distinct envelope row of the members here over the active sets, in search order
+    rows_here = envs.distinct(members_here, configs)
     for ci, case in enumerate(cases):
         im = case.im.value
         unique: dict = {}
-        for c in configs:
-            for lab in members_here:
-                if c != configs[0] and lab not in dependent:
-                    continue  # the same envelope in every active set
-                me = envs.of(case.load, im, lab, c)
-                for e in (me.max, me.min):
-                    if e.position is None and not e.lane_segments_ft:
-                        continue
-                    unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
+        for row, _ in rows_here:
+            me = envs.of_row(case.load, im, row)
+            for e in (me.max, me.min):
+                if e.position is None and not e.lane_segments_ft:
+                    continue
+                unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
         for key, e in unique.items():
             row_case.append(ci)
             row_key.append(key)
