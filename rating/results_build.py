@@ -31,7 +31,7 @@ from rating.results import (
     VehicleResult,
     units_block,
 )
-from rating.units import TON_PER_TONNE, from_core
+from rating.units import TON_PER_TONNE, from_core, si_text
 
 METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C - gDC DC - gDW DW) / (gLL (LL + IM)), "
           "C = phi_c phi_s phi R_n")
@@ -103,12 +103,12 @@ def _position(ext: Extreme | None, load) -> Position | None:
     )
 
 
-def _rating(r: MemberCaseRating, case: RatingCase) -> Rating:
+def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t) -> Rating:
     return Rating(
         rf=r.rf, sense=r.sense, check=r.check,
         factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
         method=r.method, position=_position(r.extreme, case.load),
-        finding=finding_text(r.finding),
+        finding=text(finding_text(r.finding)),
     )
 
 
@@ -197,6 +197,11 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     b = rating.bridge
     g = rating.geometry
     system = b.settings.units
+
+    def text(t: str) -> str:
+        # our own wording quotes core units; an SI bridge reads them in SI
+        return si_text(t) if system is UnitSystem.SI else t
+
     support = {s.joint: s.kind.value for s in g.supports}
     deck = set(g.deck_joints)
     joints = tuple(JointResult(j.label, j.x_ft, j.y_ft, j.label in deck, support.get(j.label))
@@ -228,11 +233,12 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
                 distribution_factor=e.distribution_factor, im=case.im.value,
                 max_position=_position(e.max_extreme, case.load),
                 min_position=_position(e.min_extreme, case.load))
-            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case)
+            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case, text)
         s = cap.summary
         checks = tuple(
             CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, cap.phi_cs * c.phi_R_n_kip,
-                         c.provision, c.location.describe(), finding_text(c.finding))
+                         c.provision, text(c.location.describe()),
+                         text(finding_text(c.finding)))
             for c in cap.checks)
         t = cap.governing("tension")
         c_ = cap.governing("compression")
@@ -247,7 +253,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
                 tension=cap.factored_resistance("tension") if t is not None else None,
                 compression=cap.factored_resistance("compression") if c_ is not None else None,
                 checks=checks),
-            ratings=ratings, warnings=cap.warnings))
+            ratings=ratings, warnings=tuple(map(text, cap.warnings))))
     pins = []
     for p in rating.pins:
         pr = {}
@@ -269,7 +275,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             governing_z=gov_chk.governing.z_in if gov_chk else None,
             governing_M=gov_chk.M_u_kip_in if gov_chk else None,
             governing_V=gov_chk.V_u_kip if gov_chk else None, governing_case=gov_case,
-            ratings=pr, warnings=p.warnings))
+            ratings=pr, warnings=tuple(map(text, p.warnings))))
     unit = "tonne" if system is UnitSystem.SI else "ton"
     posting = {cid: _posting_entry(cp, system, next(c for c in rating.cases
                                                     if c.id == cid).load.gross_weight_tons)
@@ -302,6 +308,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     assumptions.append(f"Capacity: phi_c phi_s not less than {floor['phi_c_phi_s_min']} "
                        f"({floor['source']}).")
     assumptions.append(f"Posting: {p['posting']['source']} ({p['posting']['tag']}).")
+    assumptions = [text(a) for a in assumptions]
     return RatingResults(
         schema_version=SCHEMA_VERSION,
         bridge=BridgeSummary(
@@ -317,10 +324,11 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         provision_set=b.settings.provision_set,
         joints=joints, vehicles=tuple(vehicles), members=tuple(members), pins=tuple(pins),
         posting=posting, recommendation=recommendation(rating, unit),
-        warnings=group_member_notes(list(rating.warnings) + list(extra_warnings)),
+        warnings=group_member_notes([text(w) for w in list(rating.warnings)
+                                     + list(extra_warnings)]),
         assumptions=group_member_notes(assumptions),
         findings=findings, influence_lines=ils,
         distribution={"factor": rating.distribution_factor,
-                      "description": rating.distribution_note},
+                      "description": text(rating.distribution_note)},
         generator=f"pintruss {__version__}",
     )

@@ -8,6 +8,8 @@ Conversion factors are exact by definition (NIST SP 811, Appendix B).
 
 from __future__ import annotations
 
+import math
+import re
 from dataclasses import dataclass
 
 LB_PER_KIP = 1000.0
@@ -95,3 +97,41 @@ def known_units() -> tuple[str, ...]:
 # The SI counterpart of each core unit, for reports in SI.
 SI_OF_CORE = {"ft": "m", "in": "mm", "in2": "mm2", "kip": "kN", "ksi": "MPa", "klf": "kN/m",
               "psf": "kPa", "pcf": "kN/m3", "ton": "tonne", "kip-in": "kN-m"}
+
+
+# Quantities written in core units inside message text ("pin 2.99213 in", "E = 27000 ksi"),
+# as the capacity and rating layers word their warnings and assumptions.
+_TEXT_CORE_UNITS = {"kip-in": "kip-in", "kip": "kip", "ksi": "ksi", "klf": "klf", "plf": "plf",
+                    "psf": "psf", "pcf": "pcf", "in2": "in2", "in^2": "in2", "in²": "in2",
+                    "ft": "ft", "in": "in", "tons": "ton", "ton": "ton"}
+_SI_TEXT_NAME = {"tonne": "tonnes"}
+_TEXT_QUANTITY = re.compile(
+    r"(?<![\w./^-])(-?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?)( ?)"
+    r"(kip-in|kip|ksi|klf|plf|psf|pcf|in2|in\^2|in²|ft|in|tons|ton)(?![\w²^/-])")
+
+
+def _si_number(x: float) -> str:
+    """Four significant digits, never an exponent (a reading, not a computation)."""
+    if x == 0.0 or not math.isfinite(x):
+        return f"{x:g}"
+    if abs(x) >= 1000.0:
+        digits = 3 - int(math.floor(math.log10(abs(x))))
+        return f"{round(x, digits):.0f}"
+    return f"{x:.4g}"
+
+
+def si_text(text: str) -> str:
+    """``text`` with every quantity written in a core (US) unit restated in SI.
+
+    For the warnings and assumptions of an SI bridge: "pin 2.99213 in" becomes "pin 76 mm".
+    A fraction ("1/32 in", a code's own wording) is left as it stands.
+    """
+    def one(m: re.Match[str]) -> str:
+        unit = _TEXT_CORE_UNITS[m.group(3)]
+        core = to_core(float(m.group(1)), unit)
+        si = SI_OF_CORE[core_unit_of(unit)]
+        value = from_core(core, si)
+        name = _SI_TEXT_NAME.get(si, si) if m.group(3) == "tons" else si
+        return f"{_si_number(value)}{m.group(2) or ' '}{name}"
+
+    return _TEXT_QUANTITY.sub(one, text)

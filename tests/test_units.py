@@ -1,0 +1,57 @@
+"""Unit conversion of message text for SI bridges (factors exact by definition, NIST SP 811,
+Appendix B: 1 in = 25.4 mm, 1 ft = 0.3048 m, 1 lbf = 4.4482216152605 N)."""
+
+from __future__ import annotations
+
+import re
+
+import pytest
+
+from rating.units import si_text
+
+
+@pytest.mark.parametrize("us, si", [
+    ("pin 2.99213 in is less than", "pin 76 mm is less than"),
+    ("this span is 62.9921 ft.", "this span is 19.2 m."),
+    ("E = 29000 ksi", "E = 199900 MPa"),  # 29,000 ksi = 199,948 MPa, four digits
+    ("M = 100 kip-in, V = 10 kip", "M = 11.3 kN-m, V = 44.48 kN"),
+    ("lane 0.64 klf", "lane 9.34 kN/m"),
+    ("unit weight 150 pcf", "unit weight 23.56 kN/m3"),
+    ("area 1 in2", "area 645.2 mm2"),
+    ("20 tons", "18.14 tonnes"),
+])
+def test_core_quantities_are_restated_in_si(us, si):
+    assert si_text(us) == si
+
+
+@pytest.mark.parametrize("text", [
+    "more than 1/32 in over the pin",          # a code's own fraction stays as written
+    "member L2L3 runs L2-L3 in the truss",     # labels that end in a digit are not numbers
+    "AISC LRFD 1999 D3.2 proportion",
+    "Type 3-3 and HL-93",
+    "12 tonnes",                               # already SI
+    "remaining 3 inches",                      # not the unit symbol
+])
+def test_text_without_core_quantities_is_left_alone(text):
+    assert si_text(text) == text
+
+
+def test_sample_si_report_quotes_no_us_units():
+    # the bundled SI pony truss: warnings, assumptions and check texts read in SI
+    from pathlib import Path
+
+    from rating.pipeline import rate_workbook
+
+    root = Path(__file__).resolve().parents[1]
+    out = rate_workbook(root / "sample_inventory" / "tc0903_pony_1903_si.xlsx")
+    r = out.results
+    texts = list(r.warnings) + list(r.assumptions) + [r.distribution["description"]]
+    for pin in r.pins:
+        texts += list(pin.warnings)
+    for m in r.members:
+        texts += list(m.warnings) + [x.finding for x in m.ratings.values()]
+        texts += [c.location for c in m.resistance.checks] + [c.finding
+                                                              for c in m.resistance.checks]
+    us = re.compile(r"(?<![\w./^-])\d+(?:\.\d+)? ?(in|ft|ksi|kip|kip-in|klf|pcf|psf)(?![\w-])")
+    left = [t for t in texts if t and us.search(t)]
+    assert not left, left[:3]
