@@ -613,13 +613,19 @@ class PinModel:
         self.phi_f, self.phi_v, self.limit = phi_f, phi_v, limit
         z = self.layout.z
         dz = z[:, None] - z[None, :]
-        self._mL = np.maximum(dz, 0.0)
-        self._mR = np.maximum(-dz, 0.0)
-        self._before = (dz > 0).astype(float)
-        self._upto = (dz >= 0).astype(float)
         npl = self.layout.n_plates
         self._bearing_cap = phi_b * lrfd_bearing_nominal(self.layout.t[:npl], self.D,
                                                          self.layout.Fy_bearing[:npl])
+        # Every force vector the checks need is linear in the point forces: at each section
+        # (a point's mid-thickness) the moments from the left and from the right, the shears
+        # just before and just after it from the left and from the right, then each plate's
+        # own force for bearing. One matrix W gives them all: W @ F.
+        n = len(z)
+        self._n_sections = n
+        rows = [np.maximum(dz, 0.0), np.maximum(-dz, 0.0), dz > 0, dz >= 0, dz < 0, dz <= 0]
+        if npl:
+            rows.append(np.eye(n)[:npl])
+        self._W = np.vstack(rows).astype(float)
 
     def point_forces(self, member_forces_kip: np.ndarray,
                      external_kip: np.ndarray | None = None) -> np.ndarray:
@@ -633,20 +639,24 @@ class PinModel:
     def utilization_parts(self, F: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """(flexure and shear, bearing) utilizations, 1.0 at each limit, of each load state
         in the batch (bearing 0 where no plate bears)."""
-        def nrm(a):
-            return np.hypot(a[..., 0], a[..., 1])
+        return self._parts(self._W @ F)
 
-        M = np.maximum(nrm(self._mL @ F), nrm(self._mR @ F))
-        V_Lm = self._before @ F
-        V_Lp = self._upto @ F
-        total = F.sum(axis=-2, keepdims=True)
-        V = np.maximum.reduce([nrm(V_Lm), nrm(V_Lp), nrm(total - V_Lp), nrm(total - V_Lm)])
+    def _parts(self, G: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Utilizations from the projected vectors G = W @ F (..., K, 2)."""
+        g = np.hypot(G[..., 0], G[..., 1])
+        n = self._n_sections
+        M = np.maximum(g[..., :n], g[..., n:2 * n])
+        V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
+                       np.maximum(g[..., 4 * n:5 * n], g[..., 5 * n:6 * n]))
         fs = lrfd_flexure_shear(M, V, self.D, self.material.F_y, self.phi_f, self.phi_v)
-        npl = self.layout.n_plates
         u_fs = fs.max(axis=-1) / self.limit
-        if npl:
-            return u_fs, (nrm(F[..., :npl, :]) / self._bearing_cap).max(axis=-1)
+        if self.layout.n_plates:
+            return u_fs, (g[..., 6 * n:] / self._bearing_cap).max(axis=-1)
         return u_fs, np.zeros_like(u_fs)
+
+    def _utilization_projected(self, G: np.ndarray) -> np.ndarray:
+        u_fs, u_b = self._parts(G)
+        return np.maximum(u_fs, u_b)
 
     def utilization(self, F: np.ndarray) -> np.ndarray:
         """Governing utilization (1.0 at the limit) of each load state in the batch."""
@@ -667,10 +677,12 @@ class PinModel:
         F1 = np.asarray(F_added, dtype=float)
         F0 = np.broadcast_to(np.asarray(F_base, dtype=float), F1.shape)
         P = F1.shape[0]
+        # the checked vectors are linear in lam too: project once, then only norms per lam
+        G0, G1 = self._W @ F0, self._W @ F1
         top = np.full(P, float(lam_max)) if upper is None else np.asarray(upper, dtype=float)
         frac = np.concatenate(([0.0], np.geomspace(1e-5, 1.0, 13)))
         grid = top[:, None] * frac[None, :]  # (P, 14)
-        U = self.utilization(F0[:, None] + grid[:, :, None, None] * F1[:, None])
+        U = self._utilization_projected(G0[:, None] + grid[:, :, None, None] * G1[:, None])
         over = U >= 1.0
         out = np.full(P, np.inf)
         first = np.where(over.any(axis=1), over.argmax(axis=1), -1)
@@ -681,12 +693,13 @@ class PinModel:
             hi = grid[todo, first[todo]]
             f_lo = U[todo, first[todo] - 1] - 1.0
             f_hi = U[todo, first[todo]] - 1.0
-            out[todo] = self._crossings(F0[todo], F1[todo], lo, hi, f_lo, f_hi)
+            out[todo] = self._crossings(G0[todo], G1[todo], lo, hi, f_lo, f_hi)
         return out
 
-    def _crossings(self, F0: np.ndarray, F1: np.ndarray, lo: np.ndarray, hi: np.ndarray,
+    def _crossings(self, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray, hi: np.ndarray,
                    f_lo: np.ndarray, f_hi: np.ndarray) -> np.ndarray:
-        """Roots of utilization(F0 + lam F1) = 1 within brackets f(lo) < 0 <= f(hi), all
+        """Roots of utilization(G0 + lam G1) = 1 (projected vectors, see ``_parts``) within
+        brackets f(lo) < 0 <= f(hi), all
         at once: the Illinois regula falsi of :func:`_crossing`, row by row to convergence
         (u is convex along lam, so the bracket is sound)."""
         out = hi.copy()
@@ -697,7 +710,7 @@ class PinModel:
             x = np.where(d != 0.0, hi - f_hi * (hi - lo) / np.where(d != 0.0, d, 1.0),
                          0.5 * (lo + hi))
             x = np.where((lo < x) & (x < hi), x, 0.5 * (lo + hi))
-            f = self.utilization(F0[live] + x[:, None, None] * F1[live]) - 1.0
+            f = self._utilization_projected(G0[live] + x[:, None, None] * G1[live]) - 1.0
             right = f >= 0.0
             f_lo = np.where(right & (side == 1), 0.5 * f_lo, f_lo)
             f_hi = np.where(~right & (side == -1), 0.5 * f_hi, f_hi)
