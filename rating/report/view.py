@@ -449,8 +449,9 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         action = ACTION_TEXT.get(action_key, action_key) if entry is not None else DASH
         posting = DASH
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
-            posting = f"{d.posting(entry.posting_tons)} {units.weight}"
-            action = f"post for {posting}"
+            amount = d.posting(entry.posting_tons)
+            posting = f"{amount} {units.weight}"
+            action = f"post for {amount} {units.weight}{'' if amount == '1' else 's'}"
         note = entry.note if entry is not None else ""
         if v.rating_level in ("inventory", "operating") and action_key == "none":
             action = "design-load rating"
