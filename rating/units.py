@@ -106,7 +106,7 @@ _TEXT_CORE_UNITS = {"kip-in": "kip-in", "kip": "kip", "ksi": "ksi", "klf": "klf"
                     "ft": "ft", "in": "in", "tons": "ton", "ton": "ton"}
 _SI_TEXT_NAME = {"tonne": "tonnes"}
 _TEXT_QUANTITY = re.compile(
-    r"(?<![\w./^-])(-?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?)( ?)"
+    r"(?<![\w./^'\"-])(-?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?)( ?)"
     r"(kip-in|kip|ksi|klf|plf|psf|pcf|in2|in\^2|in²|ft|in|tons|ton)(?![\w²^/-])")
 
 
@@ -124,7 +124,8 @@ def si_text(text: str) -> str:
     """``text`` with every quantity written in a core (US) unit restated in SI.
 
     For the warnings and assumptions of an SI bridge: "pin 2.99213 in" becomes "pin 76 mm".
-    A fraction ("1/32 in", a code's own wording) is left as it stands.
+    A fraction ("1/32 in", a code's own wording) and a quoted value ('3 in', the user's own
+    words) are left as they stand.
     """
     def one(m: re.Match[str]) -> str:
         unit = _TEXT_CORE_UNITS[m.group(3)]

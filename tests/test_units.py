@@ -31,6 +31,7 @@ def test_core_quantities_are_restated_in_si(us, si):
     "Type 3-3 and HL-93",
     "12 tonnes",                               # already SI
     "remaining 3 inches",                      # not the unit symbol
+    "the cell holds '3 in'",                   # the user's own words, quoted
 ])
 def test_text_without_core_quantities_is_left_alone(text):
     assert si_text(text) == text

@@ -69,6 +69,7 @@ from rating.model import (
     VehicleCategory,
 )
 from rating.model.builders import build_truss
+from rating.units import si_text
 from rating.vehicles.library import library, rating_loads
 
 __all__ = ["read_workbook", "WorkbookReading"]
@@ -90,9 +91,14 @@ def read_workbook(path: Path) -> WorkbookReading:
     wanted.update({t.name: len(t.columns) + 12 for t in sc.TABLES})
     book = open_book(path, wanted, sc.MAX_ROWS + sc.HEADER_SEARCH_ROWS)
     log = ProblemLog()
-    bridge = _Reading(book, log).bridge()
-    return WorkbookReading(None if log.has_errors else bridge, tuple(log.problems),
-                           tuple(log.assumptions))
+    reading = _Reading(book, log)
+    bridge = reading.bridge()
+    problems, assumptions = tuple(log.problems), tuple(log.assumptions)
+    if getattr(reading, "si", False):
+        # the messages quote core units; an SI workbook reads them in SI
+        problems = tuple(dataclasses.replace(p, message=si_text(p.message)) for p in problems)
+        assumptions = tuple(si_text(a) for a in assumptions)
+    return WorkbookReading(None if log.has_errors else bridge, problems, assumptions)
 
 
 # --- small typed accessors ---------------------------------------------------------------

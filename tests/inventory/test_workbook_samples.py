@@ -169,3 +169,17 @@ def test_units_factor_used_is_nist() -> None:
     """1 in = 25.4 mm and 1 ft = 0.3048 m exactly (NIST SP 811 Appendix B)."""
     assert units.to_core(25.4, "mm") == pytest.approx(1.0, rel=1e-15)
     assert units.to_core(0.3048, "m") == pytest.approx(1.0, rel=1e-15)
+
+
+def test_si_workbook_messages_read_in_si() -> None:
+    # the SI pony truss: the reader's warnings and assumptions quote MPa, not ksi
+    import re
+
+    si = [n for n in NAMES if n.endswith("_si.xlsx")]
+    assert si
+    r = read_workbook(SAMPLES_DIR / si[0])
+    texts = [p.message for p in r.problems] + list(r.assumptions)
+    assert texts
+    us = re.compile(r"(?<![\w./^-])\d+(?:\.\d+)? ?(in|ft|ksi|kip|klf|pcf|psf)(?![\w-])")
+    assert not [t for t in texts if us.search(t)]
+    assert any("MPa" in t for t in texts)
