@@ -107,3 +107,56 @@ def test_main_just_past_zero_hands_over_to_its_counter():
     state = solve_tension_only(G, P_d + lam * P_l)
     assert "U3L4" in state.slack and "L3U4" not in state.slack
     assert not state.forced_compression
+
+
+@settings(max_examples=10, deadline=None)
+@given(x=st.floats(0.0, 160.0), load=st.floats(20.0, 80.0), stop=st.integers(0, 3))
+def test_lazy_path_is_the_same_path_however_far_it_is_read(x, load, stop):
+    # a path read part way, then again to the end, gives the pieces of one full walk
+    from rating.analysis.path import PathCache
+
+    P_d = dead_loads()
+    P_l = axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load])
+    full = list(load_path(FAM, P_d, P_l, lam_max=50.0))
+    cache = PathCache(FAM, lam_max=50.0)
+    lazy = cache.segments("k", P_d, P_l)
+    for k, _seg in enumerate(lazy):
+        if k >= stop:
+            break
+    again = list(cache.segments("k", P_d, P_l))
+    assert [(s.lam_start, s.lam_end, s.slack) for s in again] == \
+        [(s.lam_start, s.lam_end, s.slack) for s in full]
+    for a, b in zip(again, full, strict=True):
+        assert np.array_equal(a.N_live, b.N_live) and np.array_equal(a.N_dead, b.N_dead)
+
+
+def test_live_load_scaled_gives_the_same_path_with_lam_scaled():
+    # proportional loading: the path under c P_live is the path under P_live at lam / c, so
+    # one path serves every rating level of a load (gamma_LL only scales it)
+    P_d = dead_loads()
+    P_l = axle_joint_loads(G, [90.0, 76.0, 62.0], [8.0, 32.0, 32.0])
+    one = list(load_path(FAM, P_d, P_l, lam_max=40.0))
+    c = 1.75
+    scaled = list(load_path(FAM, P_d, c * P_l, lam_max=40.0 / c))
+    assert [s.slack for s in one] == [s.slack for s in scaled]
+    for a, b in zip(one, scaled, strict=True):
+        assert b.lam_end == pytest.approx(a.lam_end / c, rel=1e-9)
+        assert np.allclose(b.N_live, c * a.N_live, rtol=1e-9, atol=1e-9)
+
+
+def test_trial_state_by_superposition_gives_the_same_solution():
+    # the first trial of a tension-only solve may be handed in (forces and elongations of the
+    # starting set by superposition); the result is the solve from scratch
+    P_d = dead_loads()
+    P_l = axle_joint_loads(G, [100.0, 86.0, 72.0], [8.0, 32.0, 32.0])
+    dead = solve_tension_only(G, P_d, family=FAM)
+    lt = FAM.solver(dead.slack)
+    nd, ed = lt.forces_and_elongations(P_d)
+    nl, el = lt.forces_and_elongations(P_l)
+    for lam in (0.5, 2.0, 6.0):
+        ref = solve_tension_only(G, P_d + lam * P_l, initial_slack=dead.slack, family=FAM)
+        got = solve_tension_only(G, P_d + lam * P_l, initial_slack=dead.slack, family=FAM,
+                                 trial=(nd + lam * nl, ed + lam * el))
+        assert got.slack == ref.slack
+        assert np.allclose(got.solution.member_forces_kip, ref.solution.member_forces_kip,
+                           rtol=1e-10, atol=1e-9)

@@ -249,3 +249,25 @@ def test_controlling_member_of_a_tie_is_the_first_in_order(rated):
         low = min(rf for _, rf in order)
         tied = [who for who, rf in order if abs(rf - low) <= 1e-9 * max(abs(low), 1.0)]
         assert cp.controlling == tied[0]
+
+
+def test_envelope_set_gives_every_active_set_its_own_extremes(rated):
+    # one stacked row per distinct line: each (member, active set) still gets the extremes of
+    # its own influence line, as a search on that set alone gives them
+    from rating.analysis.moving import envelope
+    from rating.lrfr.engine import EnvelopeSet
+
+    envs = EnvelopeSet(rated.lines_by_config, rated.configs, rated.dependent_members)
+    extra = len(envs.lines.member_labels) - len(rated.geometry.members)
+    assert extra < (len(rated.configs) - 1) * len(rated.dependent_members)
+    case = next(c for c in rated.cases if c.id == "TYPE-3S2")
+    im = case.im.value
+    for c in rated.configs:
+        alone = {e.member: e for e in envelope(rated.lines_by_config[c], case.load,
+                                               im=im).members}
+        for lab in sorted(rated.dependent_members):
+            got = envs.of(case.load, im, lab, c)
+            assert got.max.total_kip(im) == pytest.approx(alone[lab].max.total_kip(im),
+                                                          rel=1e-9, abs=1e-9)
+            assert got.min.total_kip(im) == pytest.approx(alone[lab].min.total_kip(im),
+                                                          rel=1e-9, abs=1e-9)

@@ -1,0 +1,101 @@
+"""The vectorized pin model used by the rating (``PinModel``) against the one-state pin check
+and the scalar multiplier of the same module, which build the loading item by item (Berg,
+Safe Building, Parts 10-15 [V]; AASHTO LRFD 6.7.6.2.1 / 6.7.6.2.2 [value from memory]).
+
+The two paths share only the packing layout; the statics and the search are written twice, so
+agreement checks the vectorized projection (one matrix for every checked vector, linear in the
+load multiplier) and its bracketing and regula falsi.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from rating.capacity.pins import MemberAction, PinModel, pin_check, pin_load_multiplier
+from rating.model import Material, MaterialKind, PackingItem, Pin
+
+STEEL = Material(MaterialKind.STEEL, F_y=30.0, F_u=60.0)
+# a lower-chord joint of a Pratt truss: chord bars both ways, a diagonal, a hanger; directions
+# from the joint toward each member's far end
+DIRS = {"C1": (-1.0, 0.0), "C2": (1.0, 0.0), "D": (0.6, 0.8), "V": (0.0, 1.0)}
+
+
+def joint_pin(thick: list[float], order: list[str], D: float = 4.0) -> Pin:
+    items = tuple(PackingItem(m, t, 0.0625 if k else 0.0) for k, (m, t) in
+                  enumerate(zip(order, thick, strict=True)))
+    return Pin("L2", D, items, STEEL)
+
+
+ORDER = ["C1", "D", "V", "C2", "V", "D", "C1"]  # symmetric about the truss plane
+forces = st.floats(-120.0, 120.0, allow_nan=False)
+
+
+def actions(N: dict[str, float]) -> list[MemberAction]:
+    return [MemberAction(m, N[m], DIRS[m]) for m in DIRS]
+
+
+def balancing(N: dict[str, float]) -> tuple[float, float]:
+    fx = -sum(N[m] * DIRS[m][0] for m in DIRS)
+    fy = -sum(N[m] * DIRS[m][1] for m in DIRS)
+    return fx, fy
+
+
+@settings(max_examples=40, deadline=None)
+@given(n=st.lists(forces, min_size=4, max_size=4),
+       t=st.lists(st.floats(0.5, 1.5), min_size=7, max_size=7))
+def test_utilization_matches_the_one_state_check(n, t):
+    N = dict(zip(DIRS, n, strict=True))
+    pin = joint_pin(t, ORDER)
+    model = PinModel(pin, list(DIRS), list(DIRS.values()))
+    ext = balancing(N)
+    F = model.point_forces(np.array(n), np.array(ext))
+    u = float(model.utilization(F))
+    ref = pin_check(pin, actions(N), external_kip=ext)
+    assert u == pytest.approx(ref.utilization, rel=1e-9, abs=1e-12)
+    u_fs, u_b = model.utilization_parts(F)
+    assert float(u_fs) == pytest.approx(ref.utilization_flexure_shear, rel=1e-9, abs=1e-12)
+    assert float(u_b) == pytest.approx(ref.utilization_bearing, rel=1e-9, abs=1e-12)
+
+
+@settings(max_examples=40, deadline=None)
+@given(n0=st.lists(st.floats(-20.0, 20.0), min_size=4, max_size=4),
+       n1=st.lists(forces, min_size=4, max_size=4))
+def test_multipliers_match_the_scalar_search(n0, n1):
+    pin = joint_pin([1.0, 0.75, 0.5, 1.25, 0.5, 0.75, 1.0], ORDER)
+    model = PinModel(pin, list(DIRS), list(DIRS.values()))
+    N0, N1 = dict(zip(DIRS, n0, strict=True)), dict(zip(DIRS, n1, strict=True))
+    F0 = model.point_forces(np.array(n0), np.array(balancing(N0)))
+    F1 = model.point_forces(np.array(n1), np.array(balancing(N1)))
+    lam = float(model.multipliers(F0, F1[None])[0])
+    ref = pin_load_multiplier(pin, actions(N0), actions(N1), base_external_kip=balancing(N0),
+                              added_external_kip=balancing(N1), lam_max=1e3)
+    if math.isinf(ref):
+        assert math.isinf(lam)
+    else:
+        assert lam == pytest.approx(ref, rel=1e-7, abs=1e-9)
+
+
+def test_upper_limits_each_search_and_many_states_at_once():
+    pin = joint_pin([1.0, 0.75, 0.5, 1.25, 0.5, 0.75, 1.0], ORDER)
+    model = PinModel(pin, list(DIRS), list(DIRS.values()))
+    rng = np.random.default_rng(7)
+    n1 = rng.uniform(-80, 80, size=(25, 4))
+    F0 = model.point_forces(np.zeros(4), np.zeros(2))
+    F1 = model.point_forces(n1, np.stack([balancing(dict(zip(DIRS, r, strict=True)))
+                                          for r in n1]))
+    lam = model.multipliers(F0, F1)
+    assert np.all(np.isfinite(lam)) and np.all(lam > 0)
+    # each one alone gives the same; at lam the pin is at its limit
+    for k in (0, 11, 24):
+        assert model.multipliers(F0, F1[k:k + 1])[0] == pytest.approx(lam[k], rel=1e-12)
+        assert float(model.utilization(F0 + lam[k] * F1[k])) == pytest.approx(1.0, rel=1e-9)
+    # an upper limit below the crossing: not reached; above it: the same crossing
+    up = model.multipliers(np.broadcast_to(F0, F1.shape), F1, upper=0.5 * lam)
+    assert np.all(np.isinf(up))
+    up = model.multipliers(np.broadcast_to(F0, F1.shape), F1, upper=2.0 * lam)
+    assert up == pytest.approx(lam, rel=1e-9)
