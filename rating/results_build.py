@@ -308,6 +308,10 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     assumptions.append(f"Capacity: phi_c phi_s not less than {floor['phi_c_phi_s_min']} "
                        f"({floor['source']}).")
     assumptions.append(f"Posting: {p['posting']['source']} ({p['posting']['tag']}).")
+    assumptions.append("Scope: the truss members and their pins are rated; the floor system "
+                       "(stringers, floorbeams), the deck, bearings, substructure, connections "
+                       "other than pins, bracing and fatigue are not (they need their own "
+                       "ratings; the bridge's posting is the lowest of all).")
     assumptions = [text(a) for a in assumptions]
     return RatingResults(
         schema_version=SCHEMA_VERSION,

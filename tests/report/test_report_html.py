@@ -72,6 +72,10 @@ def test_summary_parts(html_us: str, results_us: RatingResults) -> None:
     assert "an aid to, not a substitute for, the judgement of the licensed engineer" in text
     assert "owner\u2019s bridge manual and local codes govern" in text
     assert "Posting and closure are recommendations" in text
+    # what is not rated is said beside the recommendation and among the cautions: floor
+    # systems often govern old trusses (Bowen & Engelhardt, TxDOT 1741-2, 2003)
+    assert "Scope: the truss members and their pins only" in text
+    assert "Only the truss members and pins are rated" in text
 
 
 def test_one_influence_figure_per_controlling_member(html_us: str,
