@@ -170,6 +170,14 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         klr_x = np.where(rx > 0, K * L_in / np.where(rx > 0, rx, 1.0), np.inf)
         klr_y = np.where(ry > 0, K * L_in / np.where(ry > 0, ry, 1.0), np.inf)
     use_mod = (connectors is not None and connectors.kind is not ConnectorKind.SOLID)
+    if use_mod:
+        # the lacing or battens themselves are not rated (common practice: they are taken as
+        # sound and able to make the parts act together; inspection judges them)
+        assumptions.append(f"member {m}: the {connectors.kind.value} bars or plates and their "
+                           "rivets are not checked; they are taken as sound and able to make "
+                           "the parts act together (loose, bent or missing "
+                           f"{connectors.kind.value} lowers the buckling resistance: engineer "
+                           "to judge from the inspection)")
     if use_mod and connectors.spacing_in is None:
         warnings.append(f"member {m}: {connectors.kind.value} spacing not recorded; the modified "
                         "slenderness of the built-up member could not be applied "

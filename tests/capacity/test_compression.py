@@ -177,3 +177,13 @@ def test_rolled_shape_compression():
     c = run(s, L=20.0, K=1.0)
     assert c.KL_r == pytest.approx(240.0 / 2.02)
     assert any("nonslender" in a for a in c.assumptions)
+
+
+def test_lacing_itself_is_not_rated_and_says_so():
+    # the lacing bars are taken as sound (common practice); the assumption says so, for the
+    # engineer to weigh against the inspection
+    c = run(POST)
+    assert any("lacing bars or plates and their rivets are not checked" in a
+               for a in c.assumptions)
+    solid = BuiltUpSection(parts=POST.parts, connectors=Connectors(ConnectorKind.SOLID))
+    assert not any("not checked" in a for a in run(solid).assumptions)
