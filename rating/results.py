@@ -196,6 +196,8 @@ class PostingResultEntry:
     member: str = ""
     action: str = "none"  # "none" | "post" | "close"
     note: str = ""
+    alike: tuple[str, ...] = q("members and pins rated the same within round-off",
+                               default=())
 
 
 @dataclass(frozen=True)

@@ -137,7 +137,8 @@ def _posting_entry(cp: CasePosting, system: UnitSystem, W_tons: float) -> Postin
         tonnes = math.floor(W_tons / TON_PER_TONNE / 0.7 * (cp.rf - 0.3) + 1e-9)
         posting_tons = tonnes * TON_PER_TONNE
     return PostingResultEntry(rf=cp.rf, rating_tons=res.rating_tons, posting_tons=posting_tons,
-                              member=cp.controlling, action=res.action.value, note=cp.note)
+                              member=cp.controlling, action=res.action.value, note=cp.note,
+                              alike=cp.alike)
 
 
 def recommendation(rating: BridgeRating, unit: str) -> str:

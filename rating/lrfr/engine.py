@@ -120,6 +120,7 @@ class CasePosting:
     result: PostingResult
     screened_out: bool = False
     note: str = ""
+    alike: tuple[str, ...] = ()  # others rated the same within round-off (mirror members)
 
 
 @dataclass(frozen=True, eq=False)
@@ -511,15 +512,23 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
             r = p.ratings.get(case.id)
             if r is not None and lower_beyond_round_off(r.rf, rf):
                 rf, who = r.rf, f"pin at {p.joint}"
+        alike = ()
+        if math.isfinite(rf):
+            alike = tuple(
+                [m.label for m in g.members if m.label != who
+                 and not lower_beyond_round_off(rf, ratings[(m.label, case.id)].rf)]
+                + [f"pin at {p.joint}" for p in pins if f"pin at {p.joint}" != who
+                   and p.ratings.get(case.id) is not None
+                   and not lower_beyond_round_off(rf, p.ratings[case.id].rf)])
         W = case.load.gross_weight_tons
         result = posting(rf, W)
         if not case.postable:
             result = replace(result, posting_tons=None, action=PostingAction.NONE)
             out[case.id] = CasePosting(case.id, rf, who, result, note=(
                 f"design-load rating at the {case.level.value} level; posting is decided from "
-                "the legal loads"))
+                "the legal loads"), alike=alike)
             continue
-        out[case.id] = CasePosting(case.id, rf, who, result)
+        out[case.id] = CasePosting(case.id, rf, who, result, alike=alike)
         if case.load.id == "NRL":
             nrl_ok = rf >= 1.0
             if not nrl_ok:  # a screening load: the SHVs themselves are rated and posted
@@ -527,7 +536,7 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                     case.id, rf, who, replace(result, posting_tons=None,
                                               action=PostingAction.NONE),
                     note=("screening load: with RF below 1.0 the single-unit SHVs are rated "
-                          "and posted one by one (FHWA SHV Q&A, March 2014)"))
+                          "and posted one by one (FHWA SHV Q&A, March 2014)"), alike=alike)
     if nrl_ok:
         for cid, cp in out.items():
             if cid in ("SU4", "SU5", "SU6", "SU7"):

@@ -73,6 +73,7 @@ class SummaryRow:
     action_key: str
     posting: str
     note: str
+    alike: str = ""  # others rated the same (mirror members of a symmetric truss)
 
 
 @dataclass(frozen=True)
@@ -462,7 +463,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             weight=d.field(v, "gross_weight"), element=c.element or DASH,
             check=(c.rating.check if c.rating is not None else ""),
             rf=rf_cell(rf), rating_tons=d.weight(rt), action=action, action_key=action_key,
-            posting=posting, note=note))
+            posting=posting, note=note,
+            alike=", ".join(entry.alike) if entry is not None else ""))
     actions = {s.action_key for s in summary}
     worst = "close" if "close" in actions else ("post" if "post" in actions else "none")
 

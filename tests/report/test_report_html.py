@@ -171,3 +171,19 @@ def test_minus_infinity_is_explained(results_us: RatingResults) -> None:
     r = replace(results_us, members=(bad, *results_us.members[1:]))
     html = render_report(r)
     assert "\u2212\u221e" in html and "no rating is possible" in html
+
+
+def test_mirror_members_rated_alike_are_named_beside_the_controlling_one() -> None:
+    # the SI pony truss is symmetric: its mirror diagonals rate the same within round-off;
+    # the first in the member order is named, its mirror beside it
+    from pathlib import Path
+
+    from rating.pipeline import rate_workbook
+    from rating.report.html import render_report
+
+    root = Path(__file__).resolve().parents[2]
+    r = rate_workbook(root / "sample_inventory" / "tc0903_pony_1903_si.xlsx").results
+    entry = r.posting["TYPE-3"]
+    assert entry.member == "U2L3" and entry.alike == ("L3U4",)
+    assert entry.rf == pytest.approx(r.member("L3U4").ratings["TYPE-3"].rf, rel=1e-9)
+    assert "same RF: L3U4" in render_report(r)
