@@ -505,6 +505,12 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             if line is not None and not any(abs(o) > 1e-9 for o in line.ordinates):
                 note += ": the line is zero because the member is slack in the truss as drawn"
             note += "; the vehicle is shown where it governs."
+        elif (crit.rating is not None and crit.rating.sense == "compression"
+              and m.tension_only):
+            note = ("The vehicle reverses this tension-only member: it would have to push, "
+                    "which its bars cannot, and no counter in its panel takes over. The rating "
+                    "factor is the live-load level at which its (minimum-factored) dead-load "
+                    "tension is used up.")
         influence.append(InfluenceView(
             member=element, role=m.role, vehicle=_vehicle_label(crit.vehicle, crit.vehicle.id),
             controls=names, rf=rf_cell(crit.rf),

@@ -186,4 +186,8 @@ def test_mirror_members_rated_alike_are_named_beside_the_controlling_one() -> No
     entry = r.posting["TYPE-3"]
     assert entry.member == "U2L3" and entry.alike == ("L3U4",)
     assert entry.rf == pytest.approx(r.member("L3U4").ratings["TYPE-3"].rf, rel=1e-9)
-    assert "same RF: L3U4" in render_report(r)
+    html = render_report(r)
+    assert "same RF: L3U4" in html
+    # its Type 3S2 rating is a load reversal of an eyebar diagonal without a counter: said so
+    assert r.posting["TYPE-3S2"].member == "U1L2"
+    assert "reverses this tension-only member" in html
