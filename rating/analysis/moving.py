@@ -244,13 +244,14 @@ def _adverse_grid(stations: np.ndarray, Y: np.ndarray, tol: float) -> np.ndarray
     h = np.diff(stations)
     with np.errstate(divide="ignore", invalid="ignore"):
         xc = stations[:-1] + h * a / (a - b)
-    xc = xc[cross]
-    grid = np.unique(np.concatenate((stations, xc)))
-    keep = np.ones(grid.size, dtype=bool)
-    keep[1:] = np.diff(grid) > tol
-    grid = grid[keep]
-    # stations are always kept exactly
-    return np.unique(np.concatenate((stations, grid[~np.isin(grid, stations)])))
+    xc = np.unique(xc[cross])
+    # a crossing within round-off of a station is that station (the station is kept exactly,
+    # on either side of it), and crossings within round-off of each other are one
+    if xc.size:
+        xc = xc[np.abs(xc[:, None] - stations[None, :]).min(axis=1) > tol]
+    if xc.size > 1:
+        xc = xc[np.concatenate(([True], np.diff(xc) > tol))]
+    return np.unique(np.concatenate((stations, xc)))
 
 
 def _interp_rows(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray) -> np.ndarray:

@@ -130,3 +130,20 @@ def test_variable_spacing_never_below_and_within_step(lines, loads, data, neglec
     # the spacing reported is inside the range
     assert np.all(ex.spacings_ft[..., k] >= gaps[k] - 1e-5)
     assert np.all(ex.spacings_ft[..., k] <= gaps[k] + extra + 1e-5)
+
+
+def test_zero_crossing_within_round_off_of_a_station_is_the_station():
+    # regression (found by the property test above): one member's zero crossing 1.7e-8 ft
+    # from a station, in the same search as another member, put a near-duplicate breakpoint
+    # there; the second member's exact maximum came out 2e-8 below the stepped one
+    s = np.array([0.0, 5.0, 5.5, 6.0, 6.5, 11.5])
+    Y = np.array([[0, 0, 6.76794576e-08, -2, 0, 0], [0, 1, 1, 0, 0, 0]], dtype=float)
+    lines = InfluenceLines(("M0", "M1"), s, Y)
+    gaps = [0.5, 4.0, 0.5, 0.5]
+    v = _vehicle([1.0] * 5, [AxleSpacing(g, g) for g in gaps])
+    ex = axle_extremes(lines, v, neglect_opposing_axles=True)
+    P = np.ones(5)
+    bmax, bmin = _brute(lines, P, [np.concatenate(([0.0], np.cumsum(gaps)))], 0.01, True)
+    eps = _round_off(lines, P)
+    assert np.all(ex.value_kip[0] >= bmax - eps)
+    assert np.all(ex.value_kip[1] <= bmin + eps)
