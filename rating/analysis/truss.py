@@ -190,13 +190,21 @@ class LinearTruss:
     def forces_and_elongations(self, joint_loads_kip: np.ndarray
                                ) -> tuple[np.ndarray, np.ndarray]:
         """Member forces (kip) and elongations of every member (slack ones included) under
-        loads (n_joints, 2): :meth:`solve` without the reactions, for the load path."""
-        P = np.asarray(joint_loads_kip, dtype=float).reshape(-1)
+        loads (n_joints, 2) -> (m,), or (n_joints, 2, k) -> (m, k): :meth:`solve` without the
+        reactions, for the load path."""
+        P = np.asarray(joint_loads_kip, dtype=float)
         f = self._t.free_dofs
-        u = np.zeros_like(P)
-        u[f] = self._K_inv @ P[f]
+        if P.ndim == 2:
+            P1 = P.reshape(-1)
+            u = np.zeros_like(P1)
+            u[f] = self._K_inv @ P1[f]
+            elong = self._B @ u
+            return self._k_axial * elong, elong
+        P2 = P.reshape(-1, P.shape[-1])
+        u = np.zeros_like(P2)
+        u[f] = self._K_inv @ P2[f]
         elong = self._B @ u
-        return self._k_axial * elong, elong
+        return self._k_axial[:, None] * elong, elong
 
     def elongation(self, displacements: np.ndarray) -> np.ndarray:
         """Member elongations (all members, active or not) for a displacement field."""

@@ -24,7 +24,7 @@ from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
-from rating.analysis.path import PathCache, member_load_multiplier
+from rating.analysis.path import PathCache, member_load_multipliers
 from rating.analysis.truss import (
     ActiveSetSolution,
     TrussFamily,
@@ -383,6 +383,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                                             else configs[:1]) for m in g.members}
     for case in cases:
         im = case.im.value
+        member_envs: dict[str, list[MemberEnvelope]] = {}
         for m in g.members:
             lab = m.label
             # one envelope per distinct line of the member over the active sets, each with
@@ -401,9 +402,24 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                     case.gamma_ll.value, im, 0.0, capacities[lab].phi_c,
                     capacities[lab].phi_s, None)
                 continue
+            member_envs[lab] = [e for e, _ in mine]
+        # the members whose force depends on the counters' active set: every position, sense
+        # and dead-load factor set of all of them followed together on the exact load path
+        plans = {lab: _sense_plans(g.member(lab), capacities[lab], case, DC[lab], DW[lab],
+                                   dead_f, df, envs_here, lab in dependent)
+                 for lab, envs_here in member_envs.items()}
+        tried = {lab: _multiplier_trials(g, case, plans[lab], dead_states, df, paths)
+                 for lab in plans if lab in dependent}
+        flat = [(lab, t) for lab, ts in tried.items() for t in ts]
+        lams = member_load_multipliers([(t.path, g.member_index[lab], t.sense, t.capacity)
+                                        for lab, t in flat])
+        lam_of: dict[str, list[float]] = {lab: [] for lab in tried}
+        for (lab, _), lam_1 in zip(flat, lams, strict=True):
+            lam_of[lab].append(lam_1)
+        for lab in plans:
             ratings[(lab, case.id)] = _rate_member(
-                g, family, m, capacities[lab], case, DC[lab], DW[lab], dead_states, dead_f, df,
-                [e for e, _ in mine], lab in dependent, paths)
+                g.member(lab), capacities[lab], case, DC[lab], DW[lab], plans[lab],
+                lab in dependent, tried.get(lab, []), lam_of.get(lab, []), dead_f)
 
     pins = tuple(
         rate_pin(pin, g, family, bridge, cases, configs, envs, dead, dead_f, df,
@@ -436,54 +452,105 @@ def factored_dead_states(family: TrussFamily, dead: DeadLoadResult, dead_f
     return out
 
 
-def _rate_member(g, family, m, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
-                 dead_states, dead_f, df: float, envs, dependent: bool, paths: PathCache
-                 ) -> MemberCaseRating:
+@dataclass(frozen=True)
+class _SensePlan:
+    """One sense a member is rated in for one case: its extremes and resistance."""
+
+    sense: int
+    name: str
+    extremes: tuple[Extreme, ...]
+    ll: tuple[float, ...]
+    capacity: float
+    check: object
+    gamma_dc: float
+    gamma_dw: float
+
+
+@dataclass(frozen=True)
+class _Trial:
+    """One load-multiplier search: a sense, a dead-load factor set and a vehicle position."""
+
+    sense: int
+    extreme: Extreme
+    gamma_dc: float
+    gamma_dw: float
+    path: object  # rating.analysis.path.LazyPath
+    capacity: float
+
+
+def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
+                 dead_f, df: float, envs, dependent: bool) -> list[_SensePlan]:
+    """The senses in which the vehicle loads the member (tension, compression), each with its
+    extremes over the active sets and its factored resistance; dead-load factors by the sign
+    of the dead load in that sense (AASHTO LRFD Table 3.4.1-2 [V])."""
     im = case.im.value
-    g_ll = case.gamma_ll.value
-    best: MemberCaseRating | None = None
+    plans = []
     for sense, name in SENSES:
-        extremes = [e.max if sense > 0 else e.min for e in envs]
-        ll = [sense * df * e.total_kip(im) for e in extremes]
+        extremes = tuple(e.max if sense > 0 else e.min for e in envs)
+        ll = tuple(sense * df * e.total_kip(im) for e in extremes)
         if max(ll) <= 0:
             continue  # the vehicle does not load the member this way
         if sense < 0 and m.tension_only and dependent:
             continue  # a tension-only member goes slack instead; not rated in compression
-        check = cap.governing(name)
-        C = cap.factored_resistance(name)
+        g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
+        g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
+        plans.append(_SensePlan(sense, name, extremes, ll, cap.factored_resistance(name),
+                                cap.governing(name), g_dc, g_dw))
+    return plans
+
+
+def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePlan],
+                       dead_states, df: float, paths: PathCache) -> list[_Trial]:
+    """Every load-multiplier search of one member: each sense, each dead-load factor set (whether
+    the dead load adds to or relieves the effect at the rating level is not known beforehand,
+    a slack counter carries none: both are tried, AASHTO LRFD 3.4.1 [V]) and each critical
+    position. The path is followed under the live load with gamma_LL = 1, so one path serves
+    every rating level of the load (lam scales by 1 / gamma_LL)."""
+    im = case.im.value
+    out = []
+    for pl in plans:
+        unique = {(e.model, e.position, e.lane_segments_ft): e for e in pl.extremes
+                  if e.position is not None or e.lane_segments_ft}
+        for (gd, gw), (P_dead, state) in dead_states.items():
+            for key, e in unique.items():
+                P_live = paths.live_loads((case.load.id, im, key), partial(
+                    live_joint_loads, g, case.load, e, im, df))
+                path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live, state)
+                out.append(_Trial(pl.sense, e, gd, gw, path, pl.capacity))
+    return out
+
+
+def _rate_member(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
+                 plans: list[_SensePlan], dependent: bool, trials: list[_Trial],
+                 lams: list[float], dead_f) -> MemberCaseRating:
+    """The member's rating for one case: the linear equation (MBE 6A.4.2.1 [value from
+    memory]) where its line does not depend on the counters' active set, else the least live
+    load multiplier of its trials (``lams``, found with gamma_LL = 1)."""
+    im = case.im.value
+    g_ll = case.gamma_ll.value
+    best: MemberCaseRating | None = None
+    for pl in plans:
+        check = pl.check
         phi = check.phi if check is not None else 0.0
         check_name = check.name if check is not None else "no compression resistance"
         finding = check.finding if check is not None else None
-        g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
-        g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
+        g_dc, g_dw = pl.gamma_dc, pl.gamma_dw
+        mine = [(t, lam) for t, lam in zip(trials, lams, strict=True) if t.sense == pl.sense]
         if not dependent:
-            k = int(np.argmax(ll))
-            r = rating_factor(C, SenseLoads(sense * DC, sense * DW, ll[k]), g_ll, dead_f)
-            rf, method, ext = r.rf, "linear", extremes[k]
+            k = int(np.argmax(pl.ll))
+            r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k]),
+                              g_ll, dead_f)
+            rf, method, ext = r.rf, "linear", pl.extremes[k]
         else:
-            # Whether the dead load adds to or relieves the effect at the rating level is not
-            # known beforehand (a slack counter carries none), so both factor sets are tried
-            # and the lower multiplier governs (AASHTO LRFD 3.4.1 [V]).
             rf, ext = math.inf, None
-            unique = {(e.model, e.position, e.lane_segments_ft): e for e in extremes
-                      if e.position is not None or e.lane_segments_ft}
-            # The path is followed under the live load with gamma_LL = 1 (one path serves
-            # every rating level of the load); lam then scales by 1 / gamma_LL.
-            for (gd, gw), (P_dead, state) in dead_states.items():
-                for key, e in unique.items():
-                    P_live = paths.live_loads((case.load.id, im, key), partial(
-                        live_joint_loads, g, case.load, e, im, df))
-                    segs = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live,
-                                          state)
-                    lam_1, _ = member_load_multiplier(family, m.label, sense, C, P_dead,
-                                                      P_live, dead_state=state, segments=segs)
-                    lam = lam_1 / g_ll
-                    if lower_beyond_round_off(lam, rf):
-                        rf, ext, g_dc, g_dw = lam, e, gd, gw
+            for t, lam_1 in mine:
+                lam = lam_1 / g_ll
+                if lower_beyond_round_off(lam, rf):
+                    rf, ext, g_dc, g_dw = lam, t.extreme, t.gamma_dc, t.gamma_dw
             method = "load multiplier"
             if ext is None:
                 continue
-        cand = MemberCaseRating(m.label, case.id, float(rf), name, check_name, method, g_dc,
+        cand = MemberCaseRating(m.label, case.id, float(rf), pl.name, check_name, method, g_dc,
                                 g_dw, g_ll, im, phi, cap.phi_c, cap.phi_s, ext, finding)
         if best is None or cand.rf < best.rf:
             best = cand

@@ -129,12 +129,14 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # first piece whose end reaches it holds the crossing
         path_keys = [(cases[ci].load.id, cases[ci].im.value, g_dc, g_dw, key)
                      for ci, key in zip(row_case, row_key, strict=True)]
-        walks = {k: iter(paths.segments(path_keys[k], P_dead, row_P[k], dead_state))
+        walks = {k: paths.segments(path_keys[k], P_dead, row_P[k], dead_state)
                  for k in range(n_rows)}
         picked: list[tuple[int, float, float, np.ndarray, np.ndarray, np.ndarray,
                            np.ndarray]] = []
+        piece = 0
         while walks:
-            step = [(k, sg) for k, it in walks.items() if (sg := next(it, None)) is not None]
+            PathCache.follow(list(walks.values()), piece)
+            step = [(k, sg) for k, lp in walks.items() if (sg := lp.piece(piece)) is not None]
             if not step:
                 break
             walks = {k: walks[k] for k, _ in step}
@@ -148,6 +150,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                 k, sg = step[i]
                 picked.append((k, sg.lam_start, float(ln[i]), F0a[i], F1a[i], n0a[i], n1a[i]))
                 del walks[k]
+            piece += 1
         if picked:
             ks = np.array([t[0] for t in picked])
             ln = np.array([t[2] for t in picked])

@@ -160,3 +160,32 @@ def test_trial_state_by_superposition_gives_the_same_solution():
         assert got.slack == ref.slack
         assert np.allclose(got.solution.member_forces_kip, ref.solution.member_forces_kip,
                            rtol=1e-10, atol=1e-9)
+
+
+@settings(max_examples=15, deadline=None)
+@given(xs=st.lists(st.floats(-30.0, 190.0), min_size=2, max_size=12),
+       load=st.floats(20.0, 80.0), w=st.floats(-20.0, -4.0))
+def test_paths_advanced_together_equal_paths_walked_one_by_one(xs, load, w):
+    # the vectorized advance (one solve per active set for all paths, the plain change of
+    # active set settled for all at once) gives the pieces of the one-path walk
+    from rating.analysis.path import PathWalker, advance
+
+    P_d = dead_loads(w)
+    dead = solve_tension_only(G, P_d, family=FAM)
+    loads = [axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load]) for x in xs]
+    memo: dict = {}
+    walkers = [PathWalker(FAM, P_d, P_l, 60.0, dead_state=dead, dead_solutions=memo)
+               for P_l in loads]
+    together: list[list] = [[] for _ in xs]
+    while not all(wk.ended for wk in walkers):
+        for k, seg in enumerate(advance(walkers)):
+            if seg is not None:
+                together[k].append(seg)
+    for P_l, got in zip(loads, together, strict=True):
+        ref = list(load_path(FAM, P_d, P_l, lam_max=60.0, dead_state=dead))
+        assert [s.slack for s in got] == [s.slack for s in ref]
+        for a, b in zip(got, ref, strict=True):
+            assert a.lam_start == pytest.approx(b.lam_start, rel=1e-9, abs=1e-12)
+            assert a.lam_end == pytest.approx(b.lam_end, rel=1e-9, abs=1e-12)
+            assert np.allclose(a.N_live, b.N_live, rtol=1e-9, atol=1e-9)
+            assert np.allclose(a.N_dead, b.N_dead, rtol=1e-9, atol=1e-9)
