@@ -205,7 +205,8 @@ def advance(walkers: Sequence[PathWalker]) -> list[PathSegment | None]:
         act = fam.tension_only_mask & ~slack_mask & ~member_mask(g, forced)
         scale = np.array([w.scale for w in ws])
         lam = np.array([w.lam for w in ws])
-        with np.errstate(divide="ignore", invalid="ignore"):
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            # (ratios of the entries not selected may overflow; they are discarded)
             r1 = np.where(act[None, :] & (N_l < -1e-12 * scale[:, None]),
                           (-N_d)[None, :] / N_l, np.inf)
             r2 = np.where(slack_mask[None, :] & (el_l > 1e-15), (-el_d)[None, :] / el_l,
