@@ -303,6 +303,12 @@ def _fields_with_dimensions(cls: type) -> tuple[tuple[str, str | None], ...]:
 
 def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:
     """Plain JSON-ready data from the results objects, converted to ``system`` units."""
+    return _plain(obj, system, dimension, {})
+
+
+def _plain(obj: Any, system: str, dimension: str | None, seen: dict[int, Any]) -> Any:
+    # ``seen``: results objects met before in this call (the same position recurs for many
+    # members and cases), by identity; they are immutable, so their plain form is too
     t = type(obj)
     if t is float:
         x = obj if dimension is None or system == "US" else _convert(obj, dimension, system)
@@ -312,12 +318,17 @@ def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:
     if t is str or t is bool or obj is None:
         return obj
     if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
-        return {name: to_plain(getattr(obj, name), system, dim)
-                for name, dim in _fields_with_dimensions(t)}
+        hit = seen.get(id(obj))
+        if hit is not None:
+            return hit[0]
+        out = {name: _plain(getattr(obj, name), system, dim, seen)
+               for name, dim in _fields_with_dimensions(t)}
+        seen[id(obj)] = (out, obj)
+        return out
     if isinstance(obj, Mapping):
-        return {str(k): to_plain(v, system, dimension) for k, v in obj.items()}
+        return {str(k): _plain(v, system, dimension, seen) for k, v in obj.items()}
     if isinstance(obj, tuple | list):
-        return [to_plain(v, system, dimension) for v in obj]
+        return [_plain(v, system, dimension, seen) for v in obj]
     if isinstance(obj, int | float) and not isinstance(obj, bool):
         return _number(_convert(obj, dimension, system))
     return obj

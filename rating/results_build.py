@@ -85,9 +85,17 @@ def group_member_notes(lines: list[str] | tuple[str, ...]) -> tuple[str, ...]:
     return tuple(out)
 
 
-def _position(ext: Extreme | None, load) -> Position | None:
+def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position | None:
+    """Where the vehicle stands for ``ext``; one object per extreme when ``memo`` is given
+    (the same extreme recurs for several members' cases and rating levels)."""
     if ext is None or (ext.position is None and not ext.lane_segments_ft):
         return None
+    if memo is not None:
+        key = (id(ext), load.id)
+        hit = memo.get(key)
+        if hit is None:
+            hit = memo[key] = (_position(ext, load), ext)  # ext kept alive with its id
+        return hit[0]
     model = next((m for m in load.models if m.name == ext.model), None)
     if ext.position is None or model is None or model.axles is None:
         return Position(0.0, "", (), (), (), ext.model, tuple(ext.lane_segments_ft))
@@ -103,11 +111,12 @@ def _position(ext: Extreme | None, load) -> Position | None:
     )
 
 
-def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t) -> Rating:
+def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t,
+            memo: dict | None = None) -> Rating:
     return Rating(
         rf=r.rf, sense=r.sense, check=r.check,
         factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
-        method=r.method, position=_position(r.extreme, case.load),
+        method=r.method, position=_position(r.extreme, case.load, memo),
         finding=text(finding_text(r.finding)),
     )
 
@@ -199,6 +208,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     g = rating.geometry
     system = b.settings.units
 
+    positions: dict = {}
+
     def text(t: str) -> str:
         # our own wording quotes core units; an SI bridge reads them in SI
         return si_text(t) if system is UnitSystem.SI else t
@@ -232,9 +243,10 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             live[case.id] = LiveLoadEffect(
                 max=e.max, min=e.min, max_with_im=e.max_with_im, min_with_im=e.min_with_im,
                 distribution_factor=e.distribution_factor, im=case.im.value,
-                max_position=_position(e.max_extreme, case.load),
-                min_position=_position(e.min_extreme, case.load))
-            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case, text)
+                max_position=_position(e.max_extreme, case.load, positions),
+                min_position=_position(e.min_extreme, case.load, positions))
+            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case, text,
+                                       positions)
         s = cap.summary
         checks = tuple(
             CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, cap.phi_cs * c.phi_R_n_kip,
@@ -263,7 +275,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         for case in rating.cases:
             r = p.ratings[case.id]
             pr[case.id] = Rating(rf=r.rf, sense="pin", check=r.check, method="load multiplier",
-                                 position=_position(r.extreme, case.load))
+                                 position=_position(r.extreme, case.load, positions))
             if r.rf < worst and r.at_rating is not None:
                 worst, gov_chk, gov_case = r.rf, r.at_rating, case.id
         if gov_chk is not None:
