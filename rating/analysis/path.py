@@ -425,7 +425,8 @@ def member_load_multiplier(family: TrussFamily, member: str, sense: int, capacit
             n0 = sense * seg.N_dead[i]
             if n0 >= capacity_kip:
                 slope = sense * seg.N_live[i]
-                lam = (capacity_kip - n0) / slope if slope > 0 else -np.inf
+                with np.errstate(over="ignore"):  # a vanishing slope: -inf, as it should
+                    lam = (capacity_kip - n0) / slope if slope > 0 else -np.inf
                 return float(lam), seg
         a, b = sense * seg.N_dead[i], sense * seg.N_live[i]
         if b > 0:
@@ -456,7 +457,8 @@ def member_load_multipliers(requests: Sequence[tuple[LazyPath, int, int, float]]
                 n0 = sense * seg.N_dead[i]
                 if n0 >= C:
                     slope = sense * seg.N_live[i]
-                    out[r] = float((C - n0) / slope) if slope > 0 else -float("inf")
+                    with np.errstate(over="ignore"):  # a vanishing slope: -inf
+                        out[r] = float((C - n0) / slope) if slope > 0 else -float("inf")
                     continue
             a, b = sense * seg.N_dead[i], sense * seg.N_live[i]
             if b > 0:
