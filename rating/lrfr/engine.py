@@ -173,7 +173,10 @@ def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
     """The dead-load set and the sets with crossing tension-only pairs flipped.
 
     A pair is a slack and an active tension-only member that cross in one panel (a counter and
-    its main). With up to ``max_pairs`` pairs every combination is formed, else single flips.
+    its main). With up to ``max_pairs`` pairs every combination is formed; beyond that, every
+    single flip and every double flip of two neighbouring panels (pairs whose bars share a
+    joint): in a truss with one diagonal acting per panel a member's line depends on its own
+    panel and, for a post between two counter panels, on both of them.
     """
     g = family.geometry
     t_only = [m for m in g.members if m.tension_only]
@@ -186,7 +189,12 @@ def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
         combos = itertools.chain.from_iterable(
             itertools.combinations(pairs, k) for k in range(1, len(pairs) + 1))
     else:
-        combos = ((p,) for p in pairs)
+        def joints_of(pair: tuple[str, str]) -> set[str]:
+            return {j for lab in pair for j in (g.member(lab).start, g.member(lab).end)}
+
+        neighbours = [(a, b) for a, b in itertools.combinations(pairs, 2)
+                      if joints_of(a) & joints_of(b)]
+        combos = itertools.chain(((p,) for p in pairs), neighbours)
     configs = [dead_slack]
     for combo in combos:
         s = set(dead_slack)
