@@ -183,6 +183,28 @@ def axle_offsets_ft(spacings_ft: Sequence[float]) -> np.ndarray:
     return np.concatenate(([0.0], np.cumsum(np.asarray(spacings_ft, dtype=float))))
 
 
+def panel_point_positions(stations_ft: Sequence[float], spacings_ft: Sequence[float]
+                          ) -> tuple[VehiclePosition, ...]:
+    """Every position with an axle exactly over a deck panel point, both directions, each
+    direction in order of increasing front-axle station (forward first).
+
+    Between two such positions every axle stays within one stringer span, so the panel-point
+    loads, and every force of one active set, are linear in the vehicle's station (statics
+    of the simple-span stringers, common practice).
+    """
+    s = np.asarray(stations_ft, dtype=float)
+    d = axle_offsets_ft(spacings_ft)
+    spac = tuple(float(x) for x in spacings_ft)
+    tol = 1e-9 * max(1.0, float(s[-1] - s[0]) + float(d[-1]))
+    out: list[VehiclePosition] = []
+    for direction, sign in ((Direction.FORWARD, 1.0), (Direction.REVERSE, -1.0)):
+        # forward: axle i at x - d_i; reverse: at x + d_i
+        x = np.unique((s[:, None] + sign * d[None, :]).ravel())
+        x = x[np.concatenate(([True], np.diff(x) > tol))] if x.size else x
+        out.extend(VehiclePosition(float(v), direction, spac) for v in x)
+    return tuple(out)
+
+
 def axle_stations(position: VehiclePosition) -> np.ndarray:
     """Station of every axle (ft), front to rear, for a vehicle standing at ``position``."""
     d = axle_offsets_ft(position.spacings_ft)

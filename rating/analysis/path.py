@@ -438,35 +438,49 @@ def member_load_multiplier(family: TrussFamily, member: str, sense: int, capacit
 
 
 def member_load_multipliers(requests: Sequence[tuple[LazyPath, int, int, float]]
-                            ) -> list[float]:
+                            ) -> list[tuple[float, PathSegment | None]]:
     """:func:`member_load_multiplier` for many (path, member index, sense, capacity) at once:
     the paths are followed together, piece by piece (:meth:`PathCache.follow`), each only
-    as far as its own crossing. Same results, request by request."""
-    out = [float("inf")] * len(requests)
-    active = list(range(len(requests)))
+    as far as its own crossing, and the crossing is tested for all in one step per piece.
+    Same multipliers, request by request, each with the piece it lies in (None where the
+    member never reaches its capacity)."""
+    n = len(requests)
+    lam_out = [float("inf")] * n
+    seg_out: list[PathSegment | None] = [None] * n
+    member = np.array([r[1] for r in requests], dtype=int)
+    sense = np.array([r[2] for r in requests], dtype=float)
+    cap = np.array([r[3] for r in requests], dtype=float)
+    active = np.arange(n)
     k = 0
-    while active:
+    while active.size:
         PathCache.follow([requests[r][0] for r in active], k)
-        still = []
-        for r in active:
-            path, i, sense, C = requests[r]
-            seg = path.piece(k)
-            if seg is None:
-                continue  # the path ended before the member reached its capacity
-            if k == 0:
-                n0 = sense * seg.N_dead[i]
-                if n0 >= C:
-                    slope = sense * seg.N_live[i]
-                    with np.errstate(over="ignore"):  # a vanishing slope: -inf
-                        out[r] = float((C - n0) / slope) if slope > 0 else -float("inf")
-                    continue
-            a, b = sense * seg.N_dead[i], sense * seg.N_live[i]
-            if b > 0:
-                lam = (C - a) / b
-                if seg.lam_start - 1e-9 <= lam <= seg.lam_end:
-                    out[r] = float(max(lam, 0.0))
-                    continue
-            still.append(r)
-        active = still
+        pieces = [requests[r][0].piece(k) for r in active]
+        keep = np.array([sg is not None for sg in pieces], dtype=bool)
+        active = active[keep]  # a path that ended before: the member never got there
+        segs = [sg for sg in pieces if sg is not None]
+        if not segs:
+            break
+        i = member[active]
+        a = sense[active] * np.array([sg.N_dead[j] for sg, j in zip(segs, i, strict=True)])
+        b = sense[active] * np.array([sg.N_live[j] for sg, j in zip(segs, i, strict=True)])
+        C = cap[active]
+        start = np.array([sg.lam_start for sg in segs])
+        end = np.array([sg.lam_end for sg in segs])
+        res = np.full(active.size, np.inf)
+        done = np.zeros(active.size, dtype=bool)
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            lam = np.where(b > 0, (C - a) / np.where(b > 0, b, 1.0), np.inf)
+        if k == 0:
+            # the factored dead load alone past the capacity: the (negative) extrapolation
+            over = a >= C
+            res[over] = np.where(b[over] > 0, lam[over], -np.inf)
+            done |= over
+        hit = ~done & (b > 0) & (start - 1e-9 <= lam) & (lam <= end)
+        res[hit] = np.maximum(lam[hit], 0.0)
+        done |= hit
+        for q in np.flatnonzero(done):
+            lam_out[active[q]] = float(res[q])
+            seg_out[active[q]] = segs[q]
+        active = active[~done]
         k += 1
-    return out
+    return list(zip(lam_out, seg_out, strict=True))

@@ -422,7 +422,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         lams = member_load_multipliers([(t.path, g.member_index[lab], t.sense, t.capacity)
                                         for lab, t in flat])
         lam_of: dict[str, list[float]] = {lab: [] for lab in tried}
-        for (lab, _), lam_1 in zip(flat, lams, strict=True):
+        for (lab, _), (lam_1, _seg) in zip(flat, lams, strict=True):
             lam_of[lab].append(lam_1)
         for lab in plans:
             ratings[(lab, case.id)] = _rate_member(
