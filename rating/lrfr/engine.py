@@ -23,7 +23,13 @@ import numpy as np
 from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
-from rating.analysis.moving import Extreme, MemberEnvelope, envelope
+from rating.analysis.moving import (
+    Extreme,
+    MemberEnvelope,
+    axle_stations,
+    envelope,
+    panel_point_positions,
+)
 from rating.analysis.path import PathCache, member_load_multipliers
 from rating.analysis.truss import (
     ActiveSetSolution,
@@ -292,6 +298,10 @@ class EnvelopeSet:
             self._envelopes[key] = env
         return env[row]
 
+    def row_of(self, member: str, config: frozenset[str]) -> str:
+        """The stacked row that holds the member's line in ``config``."""
+        return self._label[(member, config)]
+
     def distinct(self, members: Sequence[str], configs: Sequence[frozenset[str]]
                  ) -> list[tuple[str, frozenset[str]]]:
         """The distinct rows of ``members`` over ``configs`` (configs outer, members inner),
@@ -416,14 +426,33 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         plans = {lab: _sense_plans(g.member(lab), capacities[lab], case, DC[lab], DW[lab],
                                    dead_f, df, envs_here, lab in dependent)
                  for lab, envs_here in member_envs.items()}
-        tried = {lab: _multiplier_trials(g, case, plans[lab], dead_states, df, paths)
+        panel_points = panel_point_extremes(case.load, g.deck_stations_ft)
+        tried = {lab: _multiplier_trials(g, case, plans[lab], dead_states, df, paths,
+                                         panel_points)
                  for lab in plans if lab in dependent}
-        flat = [(lab, t) for lab, ts in tried.items() for t in ts]
-        lams = member_load_multipliers([(t.path, g.member_index[lab], t.sense, t.capacity)
-                                        for lab, t in flat])
-        lam_of: dict[str, list[float]] = {lab: [] for lab in tried}
-        for (lab, _), (lam_1, _seg) in zip(flat, lams, strict=True):
-            lam_of[lab].append(lam_1)
+        found_of: dict[str, list] = {lab: [] for lab in tried}
+        _follow_trials(g, {lab: list(ts) for lab, ts in tried.items()}, tried, found_of,
+                       add=False)
+        if panel_points:
+            # the panel-point positions that can lower a rating, then the points between two
+            # of them where the active set at the rating level changes
+            screen = _PanelPointScreen(g, family, case, configs, dead_states, df,
+                                       panel_points)
+            for _ in range(3):
+                # the sets met at the rating level join the bound; positions it can no longer
+                # exclude are followed; until no new position is needed
+                screen.add_states({seg.slack for fs in found_of.values() for _, seg in fs
+                                   if seg is not None})
+                more = {lab: screen.trials(lab, plans[lab], tried[lab],
+                                           min((f[0] for f in found_of[lab]),
+                                               default=math.inf), paths) for lab in tried}
+                if not any(more.values()):
+                    break
+                _follow_trials(g, more, tried, found_of)
+            more = {lab: _kink_trials(g, family, case, lab, tried[lab], found_of[lab], paths,
+                                      dead_states, df, screen.index) for lab in tried}
+            _follow_trials(g, more, tried, found_of)
+        lam_of = {lab: [lam for lam, _ in fs] for lab, fs in found_of.items()}
         for lab in plans:
             ratings[(lab, case.id)] = _rate_member(
                 g.member(lab), capacities[lab], case, DC[lab], DW[lab], plans[lab],
@@ -484,6 +513,7 @@ class _Trial:
     gamma_dw: float
     path: object  # rating.analysis.path.LazyPath
     capacity: float
+    panel_point: bool = False  # an axle over a panel point (see _kink_trials)
 
 
 def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
@@ -507,15 +537,35 @@ def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
     return plans
 
 
+def panel_point_extremes(load: RatingLoad, stations_ft) -> tuple[Extreme, ...]:
+    """Every position of the load's vehicle with an axle over a deck panel point, both
+    directions, as extremes to follow on the load path; empty for a load with a lane part or
+    a variable spacing (those keep the envelope positions alone)."""
+    if len(load.models) != 1:
+        return ()
+    mo = load.models[0]
+    v = mo.axles
+    if v is None or mo.lane_load_klf or any(sp.min_ft != sp.max_ft for sp in v.spacings):
+        return ()
+    return tuple(Extreme(0.0, 0.0, mo.name, v.id, pos) for pos in
+                 panel_point_positions(stations_ft, [sp.min_ft for sp in v.spacings]))
+
+
 def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePlan],
-                       dead_states, df: float, paths: PathCache) -> list[_Trial]:
+                       dead_states, df: float, paths: PathCache,
+                       panel_points: tuple[Extreme, ...] = ()) -> list[_Trial]:
     """Every load-multiplier search of one member: each sense, each dead-load factor set (whether
     the dead load adds to or relieves the effect at the rating level is not known beforehand,
     a slack counter carries none: both are tried, AASHTO LRFD 3.4.1 [V]) and each critical
     position. The path is followed under the live load with gamma_LL = 1, so one path serves
-    every rating level of the load (lam scales by 1 / gamma_LL)."""
+    every rating level of the load (lam scales by 1 / gamma_LL).
+
+    ``panel_points`` only marks the trials that stand on a panel-point position (see
+    :class:`_PanelPointScreen`).
+    """
     im = case.im.value
     out = []
+    on_panel_points = {(e.model, e.position, e.lane_segments_ft) for e in panel_points}
     for pl in plans:
         unique = {(e.model, e.position, e.lane_segments_ft): e for e in pl.extremes
                   if e.position is not None or e.lane_segments_ft}
@@ -524,7 +574,194 @@ def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePla
                 P_live = paths.live_loads((case.load.id, im, key), partial(
                     live_joint_loads, g, case.load, e, im, df))
                 path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live, state)
-                out.append(_Trial(pl.sense, e, gd, gw, path, pl.capacity))
+                out.append(_Trial(pl.sense, e, gd, gw, path, pl.capacity,
+                                  key in on_panel_points))
+    return out
+
+
+def _follow_trials(g: TrussGeometry, more: dict[str, list[_Trial]],
+                   tried: dict[str, list[_Trial]], found_of: dict[str, list],
+                   add: bool = True) -> None:
+    """Follow the trials in ``more`` on their load paths, all together, and keep what each
+    found beside it (``add``: the trials are new, append them to ``tried`` too)."""
+    flat = [(lab, t) for lab, ts in more.items() for t in ts]
+    found = member_load_multipliers([(t.path, g.member_index[lab], t.sense, t.capacity)
+                                     for lab, t in flat])
+    for (lab, t), f in zip(flat, found, strict=True):
+        if add:
+            tried[lab].append(t)
+        found_of[lab].append(f)
+
+
+class _PanelPointScreen:
+    """Which panel-point positions can lower a load-multiplier rating, for one case.
+
+    On the load path the member's multiplier is not the ratio of linear effects, so the
+    positions critical for its lines need not hold the least multiplier. In the piece of the
+    path where the member reaches its resistance the active set S is fixed and the forces are
+    N_dead(S) + lam N_live(S, x), so lam(x) = (C - N_dead(S)) / N_live(S, x). Hence
+    lam(x) >= LB(x), the least of that ratio over the active sets the paths can reach: the
+    sets of the counter panels searched for the envelopes, and every set met at the rating
+    level on the paths followed so far (``add_states``). Between two neighbouring panel-point
+    positions every axle stays within its stringer span, N_live(S, x) is linear in x and lam(x)
+    in one set is monotone, so there lam >= min(LB) of the two ends: a position is followed on
+    the exact path when its bound or a neighbour's is below the least multiplier found so far.
+    """
+
+    def __init__(self, g: TrussGeometry, family: TrussFamily, case: RatingCase,
+                 configs: Sequence[frozenset[str]], dead_states, df: float,
+                 panel_points: tuple[Extreme, ...]) -> None:
+        self.g, self.family, self.case, self.df = g, family, case, df
+        self.dead_states = dead_states
+        self.points = panel_points
+        self.keys = [(e.model, e.position, ()) for e in panel_points]
+        self.index = {k: n for n, k in enumerate(self.keys)}
+        mo = case.load.models[0]
+        v = mo.axles
+        self._P_axles = (1.0 + case.im.value) * df * np.asarray(v.axle_loads_kip) * v.axle_scale
+        self._X = np.array([axle_stations(e.position) for e in panel_points])  # (n, axles)
+        n = len(panel_points)
+        self._same_dir = np.array([panel_points[k].position.direction
+                                   == panel_points[k + 1].position.direction
+                                   for k in range(n - 1)], dtype=bool)
+        # per active set: the live force of every member at every position (gamma_LL = 1)
+        # and the dead-load solution of each factor set
+        self._states: list[frozenset[str]] = []
+        self._F = np.zeros((0, len(g.members), n))
+        self._dead = {fs: np.zeros((0, len(g.members))) for fs in dead_states}
+        self.add_states(configs)
+
+    def add_states(self, states) -> None:
+        new = [S for S in dict.fromkeys(states)
+               if S not in self._states and self.family.is_stable(S)]
+        if not new:
+            return
+        F, dead = [], {fs: [] for fs in self.dead_states}
+        for S in new:
+            lt = self.family.solver(S)
+            F.append(lt.influence_lines.evaluate(self._X) @ self._P_axles)  # (members, n)
+            for fs, (P, _) in self.dead_states.items():
+                dead[fs].append(lt.forces_and_elongations(P)[0])
+        self._states.extend(new)
+        self._F = np.concatenate([self._F, np.stack(F)])  # (states, members, n)
+        self._dead = {fs: np.concatenate([self._dead[fs], np.stack(d)])
+                      for fs, d in dead.items()}
+
+    def bound(self, member: str, sense: int, capacity: float, fs: tuple[float, float]
+              ) -> np.ndarray:
+        i = self.g.member_index[member]
+        f = sense * self._F[:, i, :]  # (states, n)
+        head = (capacity - sense * self._dead[fs][:, i])[:, None]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            lam = np.where(f > 0, head / np.where(f > 0, f, 1.0), np.inf)
+        return lam.min(axis=0) if lam.size else np.full(len(self.points), np.inf)
+
+    def trials(self, member: str, plans: list[_SensePlan], have: list[_Trial], best: float,
+               paths: PathCache) -> list[_Trial]:
+        """The panel-point trials that can lower ``best`` (lam with gamma_LL = 1) and are not
+        among ``have`` already."""
+        g, case, im = self.g, self.case, self.case.im.value
+        present = {(t.sense, t.gamma_dc, t.gamma_dw, (t.extreme.model, t.extreme.position,
+                                                      t.extreme.lane_segments_ft))
+                   for t in have}
+        out = []
+        for pl in plans:
+            for fs, (P_dead, state) in self.dead_states.items():
+                low = self.bound(member, pl.sense, pl.capacity, fs) < best * (1.0 - 1e-9)
+                pick = low.copy()
+                pick[:-1] |= low[1:] & self._same_dir
+                pick[1:] |= low[:-1] & self._same_dir
+                for k in np.flatnonzero(pick):
+                    e, key = self.points[k], self.keys[k]
+                    if (pl.sense, fs[0], fs[1], key) in present:
+                        continue
+                    P_live = paths.live_loads((case.load.id, im, key), partial(
+                        live_joint_loads, g, case.load, e, im, self.df))
+                    path = paths.segments((case.load.id, im, fs[0], fs[1], key), P_dead,
+                                          P_live, state)
+                    out.append(_Trial(pl.sense, e, fs[0], fs[1], path, pl.capacity, True))
+        return out
+
+
+def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member: str,
+                 trials: list[_Trial], found: list[tuple[float, object]], paths: PathCache,
+                 dead_states, df: float, vertex_index: dict) -> list[_Trial]:
+    """Positions between two neighbouring panel-point positions where the active set at the
+    rating level changes (a counter taking over just as the member reaches its resistance):
+    there the multiplier can have a minimum that no panel-point position shows.
+
+    Between the two positions every axle stays in its stringer span, so in the active set S
+    found at either end the member force and the force (or stretch) of each tension-only bar
+    whose state differs at the other end are linear in the station t and in lam: the member
+    at its resistance and that bar at zero are two equations, linear in lam and lam t, solved
+    exactly (Cramer's rule). A point is followed on the exact load path, like any other
+    position, when its lam so found is below the least lam found so far (a point that cannot
+    lower the rating is not followed).
+    """
+    im = case.im.value
+    i = g.member_index[member]
+    best = min((lam for lam, _ in found), default=math.inf)
+    if not math.isfinite(best):
+        return []
+    by_run: dict[tuple, dict[int, int]] = {}
+    for k, t in enumerate(trials):
+        if t.panel_point:
+            e = t.extreme
+            v = vertex_index[(e.model, e.position, e.lane_segments_ft)]
+            by_run.setdefault((t.sense, t.gamma_dc, t.gamma_dw, e.position.direction),
+                              {})[v] = k
+    out: list[_Trial] = []
+    seen: set[tuple] = set()
+    for (sense, gd, gw, direction), at in by_run.items():
+        P_dead, dead_state = dead_states[(gd, gw)]
+        for v in sorted(at):
+            if v + 1 not in at:
+                continue  # only neighbouring panel-point positions (no station between)
+            ka, kb = at[v], at[v + 1]
+            (_, seg_a), (_, seg_b) = found[ka], found[kb]
+            if seg_a is None or seg_b is None or seg_a.slack == seg_b.slack:
+                continue
+            ea, eb = trials[ka].extreme, trials[kb].extreme
+            xa, xb = ea.position.front_axle_ft, eb.position.front_axle_ft
+            Pa = paths.live_loads((case.load.id, im, (ea.model, ea.position, ())), partial(
+                live_joint_loads, g, case.load, ea, im, df))
+            Pb = paths.live_loads((case.load.id, im, (eb.model, eb.position, ())), partial(
+                live_joint_loads, g, case.load, eb, im, df))
+            switching = [family.labels.index(lab) for lab in seg_a.slack ^ seg_b.slack]
+            C = trials[ka].capacity
+            for S in (seg_a.slack, seg_b.slack):
+                lt = family.solver(S)
+                n_d, e_d = lt.forces_and_elongations(P_dead)
+                n_a, e_a = lt.forces_and_elongations(Pa)
+                n_b, e_b = lt.forces_and_elongations(Pb)
+                a1, b1 = sense * n_a[i], sense * (n_b[i] - n_a[i])
+                c1 = C - sense * n_d[i]
+                for j in switching:
+                    if family.labels[j] in S:  # slack in S: it comes in when stretched
+                        a2, b2, c2 = e_a[j], e_b[j] - e_a[j], -e_d[j]
+                    else:  # active in S: it goes slack at zero force
+                        a2, b2, c2 = n_a[j], n_b[j] - n_a[j], -n_d[j]
+                    det = a1 * b2 - a2 * b1
+                    if abs(det) <= 1e-12 * max(abs(a1 * b2), abs(a2 * b1), 1e-300):
+                        continue
+                    u = (c1 * b2 - c2 * b1) / det  # lam
+                    w = (a1 * c2 - a2 * c1) / det  # lam * t
+                    if not 0.0 < u < best * (1.0 - 1e-9):
+                        continue
+                    t_k = w / u
+                    if not 0.0 < t_k < 1.0:
+                        continue
+                    x = round(xa + t_k * (xb - xa), 9)
+                    if (x, gd, gw, direction) in seen:
+                        continue
+                    seen.add((x, gd, gw, direction))
+                    e = replace(ea, position=replace(ea.position, front_axle_ft=x))
+                    key = (e.model, e.position, ())
+                    P_live = paths.live_loads((case.load.id, im, key), partial(
+                        live_joint_loads, g, case.load, e, im, df))
+                    path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live,
+                                          dead_state)
+                    out.append(_Trial(sense, e, gd, gw, path, C))
     return out
 
 
