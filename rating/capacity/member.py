@@ -7,6 +7,7 @@ compression check, and the condition and system factors, and returns a frozen
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass, field
 
@@ -16,7 +17,7 @@ from rating.capacity.factors import combined_factor, member_factors
 from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.capacity.tension import PHI_PIN_PLATE, PHI_U, PHI_Y, tension_checks
 from rating.errors import InputError
-from rating.model import BuiltUpSection, Finding, MemberDesign, MemberRole
+from rating.model import BarState, BuiltUpSection, Finding, MemberDesign, MemberRole
 
 
 @dataclass(frozen=True)
@@ -112,6 +113,46 @@ def _material_notes(design: MemberDesign) -> tuple[list[str], list[str]]:
     return warnings, assumptions
 
 
+def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding, ...],
+                           length_ft: float, role: MemberRole, K: float, connectors,
+                           phi_c: float, report, c):
+    """A part whose slender (corroded) elements lower the whole section's Q may carry less
+    than nothing by the Q method; a part cannot weaken the member, so the section is also
+    rated without each such part, and without all of them, and the larger resistance kept
+    (common practice: a part that buckles locally is taken as not carrying compression).
+    AASHTO LRFD 6.9.4.2 [value from memory]."""
+    from rating.capacity.compression import unstiffened_Q
+
+    F_y, E = design.material.F_y, design.material.E
+    slender = sorted({e.part for s_ in report.compression for e in s_.elements
+                      if not e.stiffened and e.t_in > 0
+                      and float(unstiffened_Q(e.b_in / e.t_in, F_y, E)) < 1.0})
+    best = c
+    options = [[p] for p in slender] + ([slender] if len(slender) > 1 else [])
+    for parts in options:
+        extra = tuple(Finding(m, p, bar_state=BarState.LOOSE) for p in parts)
+        try:
+            rep = section_properties(design.section, member=m, findings=findings + extra,
+                                     length_ft=length_ft, where=design.where)
+        except InputError:
+            continue  # nothing left to carry the load without them
+        alt = compression_checks(rep, design.material, K=K, length_ft=length_ft, role=role,
+                                 connectors=connectors, phi_c=phi_c)
+        if alt.checks[0].R_n_kip > best.checks[0].R_n_kip:
+            note = (f"member {m}: {', '.join(parts)} taken as not carrying compression: "
+                    "its slender elements would lower the whole section's Q more than it "
+                    "adds (a part cannot weaken the member; common practice)")
+            # the location's findings are the inspection's own (the part left out is said
+            # in the note, not as a finding nobody recorded)
+            chk = alt.checks[0]
+            loc = chk.location
+            kept = tuple(f for f in loc.findings if f not in extra)
+            chk = dataclasses.replace(chk, location=dataclasses.replace(loc, findings=kept))
+            best = type(alt)((chk,), alt.warnings, alt.assumptions + (note,), alt.K,
+                             alt.KL_r, alt.Q)
+    return best
+
+
 def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                     findings: tuple[Finding, ...], tension_only: bool, *,
                     end_condition: str = "pinned", head_as_pin_plate: bool = True,
@@ -160,6 +201,9 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         else None
     c = compression_checks(report, design.material, K=K, length_ft=float(length_ft), role=role,
                            tension_only=tension_only, connectors=connectors, phi_c=phi_c_axial)
+    if isinstance(design.section, BuiltUpSection) and not tension_only and c.Q < 1.0:
+        c = _without_slender_parts(design, m, findings, float(length_ft), role, K,
+                                   connectors, phi_c_axial, report, c)
     if report.kind in ("built-up", "rolled shape") and not tension_only:
         assumptions.append(k_note)
     f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)

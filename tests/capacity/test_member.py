@@ -259,3 +259,20 @@ def test_every_check_is_cited_and_located(data):
         assert c.provision and c.R_n_kip >= 0.0 and math.isfinite(c.R_n_kip)
         assert c.location.finding is None or c.location.finding in fs
     assert mc.factored_resistance("tension") >= 0.0
+
+
+def test_a_corroded_slender_part_never_weakens_the_member():
+    # regression (found by the property test above): a channel at 58 % loss has slender
+    # flanges whose Q would lower the whole section below the section without that channel;
+    # a part cannot weaken the member, so the section without it governs, and says so
+    s = BuiltUpSection(
+        parts=(ChannelPart("C1", 6.0, 4.0, 0.5, 0.3046875, x_in=-2.0, toes=ChannelToes.LEFT),
+               ChannelPart("C2", 6.0, 4.0, 0.5, 0.3046875, x_in=2.0, toes=ChannelToes.RIGHT),
+               PlatePart("cover", 12.0, 0.5, x_in=0.0, y_in=3.5)),
+        connectors=Connectors(ConnectorKind.LACING, spacing_in=8.0))
+    corroded = (Finding("M", "C2", percent_loss=58.0),)
+    _, c_corroded = capacities(s, corroded)
+    _, c_without = capacities(s, corroded + (Finding("M", "C2", bar_state=BarState.LOOSE),))
+    assert c_without <= c_corroded * (1 + 1e-9)
+    mc = member_capacity(MemberDesign("M", s, STEEL), MemberRole.DIAGONAL, L, corroded, False)
+    assert any("C2 taken as not carrying compression" in a for a in mc.assumptions)
