@@ -28,7 +28,6 @@ from rating.analysis.moving import (
     MemberEnvelope,
     axle_stations,
     envelope,
-    panel_point_positions,
 )
 from rating.analysis.path import PathCache, member_load_multipliers
 from rating.analysis.truss import (
@@ -50,6 +49,7 @@ from rating.lrfr.factors import (
 )
 from rating.lrfr.liveload import live_joint_loads
 from rating.lrfr.pins import PinRating, rate_pin
+from rating.lrfr.positions import panel_point_extremes
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
     Bridge,
@@ -399,6 +399,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     envs = EnvelopeSet(lines, configs, dependent)
     distinct_rows = {m.label: envs.distinct([m.label], configs if m.label in dependent
                                             else configs[:1]) for m in g.members}
+    panel_points_of = {c.load.id: panel_point_extremes(c.load, g.deck_stations_ft)
+                       for c in cases}
     for case in cases:
         im = case.im.value
         member_envs: dict[str, list[MemberEnvelope]] = {}
@@ -426,7 +428,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         plans = {lab: _sense_plans(g.member(lab), capacities[lab], case, DC[lab], DW[lab],
                                    dead_f, df, envs_here, lab in dependent)
                  for lab, envs_here in member_envs.items()}
-        panel_points = panel_point_extremes(case.load, g.deck_stations_ft)
+        panel_points = panel_points_of[case.load.id]
         tried = {lab: _multiplier_trials(g, case, plans[lab], dead_states, df, paths,
                                          panel_points)
                  for lab in plans if lab in dependent}
@@ -460,7 +462,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
 
     pins = tuple(
         rate_pin(pin, g, family, bridge, cases, configs, envs, dead, dead_f, df,
-                 dead_states, dependent, paths)
+                 dead_states, dependent, paths, panel_points_of)
         for pin in bridge.pins)
     postings = _postings(cases, ratings, pins, g)
     for p in pins:
@@ -535,20 +537,6 @@ def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
         plans.append(_SensePlan(sense, name, extremes, ll, cap.factored_resistance(name),
                                 cap.governing(name), g_dc, g_dw))
     return plans
-
-
-def panel_point_extremes(load: RatingLoad, stations_ft) -> tuple[Extreme, ...]:
-    """Every position of the load's vehicle with an axle over a deck panel point, both
-    directions, as extremes to follow on the load path; empty for a load with a lane part or
-    a variable spacing (those keep the envelope positions alone)."""
-    if len(load.models) != 1:
-        return ()
-    mo = load.models[0]
-    v = mo.axles
-    if v is None or mo.lane_load_klf or any(sp.min_ft != sp.max_ft for sp in v.spacings):
-        return ()
-    return tuple(Extreme(0.0, 0.0, mo.name, v.id, pos) for pos in
-                 panel_point_positions(stations_ft, [sp.min_ft for sp in v.spacings]))
 
 
 def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePlan],

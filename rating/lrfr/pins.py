@@ -28,6 +28,7 @@ from rating.capacity.pins import (
     pin_check,
 )
 from rating.lrfr.liveload import live_joint_loads
+from rating.lrfr.positions import panel_point_extremes
 from rating.model import Pin, TrussGeometry
 
 
@@ -58,15 +59,85 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
+def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
+                    Pa: np.ndarray, Pb: np.ndarray,
+                    states: tuple[frozenset[str], frozenset[str]]) -> list[tuple]:
+    """For two panel-point positions (live loads ``Pa``, ``Pb``) whose active sets at the
+    rating level differ: in the set at either end, each bar whose state differs between the
+    ends passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
+    forces at the joint are N_dead + lam (N_a + t dN), t the station between the ends (0..1).
+    Returns (N_dead, N_a, dN, a, b, c) for each."""
+    out = []
+    labels = family.labels
+    for S in states:
+        lt = family.solver(S)
+        n_d, e_d = lt.forces_and_elongations(P_dead)
+        n_a, e_a = lt.forces_and_elongations(Pa)
+        n_b, e_b = lt.forces_and_elongations(Pb)
+        for lab in sorted(states[0] ^ states[1]):
+            j = labels.index(lab)
+            abc = ((e_a[j], e_b[j] - e_a[j], e_d[j]) if lab in S
+                   else (n_a[j], n_b[j] - n_a[j], n_d[j]))
+            out.append((n_d[idx], n_a[idx], (n_b - n_a)[idx], *abc))
+    return out
+
+
+def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[list[float]]:
+    """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
+    reaches its limit just as the bar passes zero: the pin check minus one along the bar's
+    zero is searched for sign changes on a grid of 64, all lines at once, and each bracket is
+    closed by bisection (all at once)."""
+    if not lines:
+        return []
+    Nd = np.array([ln[0] for ln in lines])
+    Na = np.array([ln[1] for ln in lines])
+    dN = np.array([ln[2] for ln in lines])
+    A = np.array([ln[3] for ln in lines])
+    B = np.array([ln[4] for ln in lines])
+    Cc = np.array([ln[5] for ln in lines])
+
+    def f(rows: np.ndarray, t: np.ndarray) -> np.ndarray:
+        den = A[rows] + B[rows] * t
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            lam = np.where(den != 0, -Cc[rows] / np.where(den != 0, den, 1.0), -1.0)
+        N = Nd[rows] + lam[:, None] * (Na[rows] + t[:, None] * dN[rows])
+        u = model.utilization(model.point_forces(N, _balancing(unit, N)))
+        return np.where(lam > 0, u - 1.0, np.nan)
+
+    grid = np.linspace(0.0, 1.0, 65)[1:-1]
+    n, m = len(lines), grid.size
+    rows = np.repeat(np.arange(n), m)
+    v = f(rows, np.tile(grid, n)).reshape(n, m)
+    ok = np.isfinite(v[:, :-1]) & np.isfinite(v[:, 1:]) & (np.sign(v[:, :-1])
+                                                           != np.sign(v[:, 1:]))
+    r, k = np.nonzero(ok)
+    out: list[list[float]] = [[] for _ in lines]
+    if not r.size:
+        return out
+    lo, hi, flo = grid[k], grid[k + 1], v[r, k]
+    for _ in range(25):
+        mid = 0.5 * (lo + hi)
+        fm = f(r, mid)
+        same = np.isfinite(fm) & (np.sign(fm) == np.sign(flo))
+        lo, flo = np.where(same, mid, lo), np.where(same, fm, flo)
+        hi = np.where(same, hi, mid)
+    for q, tq in zip(r, 0.5 * (lo + hi), strict=True):
+        out[q].append(float(tq))
+    return out
+
+
 def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
              configs: Sequence[frozenset[str]], envs, dead, dead_f, df: float,
-             dead_states, dependent: frozenset[str], paths: PathCache) -> PinRating:
+             dead_states, dependent: frozenset[str], paths: PathCache,
+             panel_points: Mapping[str, tuple[Extreme, ...]] | None = None) -> PinRating:
     """Rate one pin for every case (see the module docstring).
 
     Where no member at the joint depends on the counter panels' active set, the forces are
     linear in lam on the dead-load active set and one multiplier search per position does.
     """
     designs = {d.member: d for d in bridge.member_designs}
+    panel_points = panel_points if panel_points is not None else {
+        c.load.id: panel_point_extremes(c.load, g.deck_stations_ft) for c in cases}
     g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
     P_dead, dead_state = dead_states[(g_dc, g_dw)]
     members_here = [m.label for m in g.members_at(pin.joint)]
@@ -97,6 +168,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     row_P: list[np.ndarray] = []
     # every distinct envelope row of the members here over the active sets, in search order
     rows_here = envs.distinct(members_here, configs)
+    row_vertex: list[int] = []  # index among the case's panel-point positions, else -1
+    case_points: list[tuple[tuple[Extreme, ...], dict]] = []
     for ci, case in enumerate(cases):
         im = case.im.value
         unique: dict = {}
@@ -106,10 +179,14 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                 if e.position is None and not e.lane_segments_ft:
                     continue
                 unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
+        pts = panel_points.get(case.load.id, ()) if not linear else ()
+        vertex = {(e.model, e.position, e.lane_segments_ft): n for n, e in enumerate(pts)}
+        case_points.append((pts, vertex))
         for key, e in unique.items():
             row_case.append(ci)
             row_key.append(key)
             row_ext.append(e)
+            row_vertex.append(vertex.get(key, -1))
             # gamma_LL = 1 here: one path serves every rating level of the load
             row_P.append(paths.live_loads((case.load.id, im, key), partial(
                 live_joint_loads, g, case.load, e, im, df)))
@@ -127,38 +204,137 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # piecewise linear along each position's exact load path, followed piece by piece
         # for all positions together until each reaches the limit (or its path ends): the
         # first piece whose end reaches it holds the crossing
-        path_keys = [(cases[ci].load.id, cases[ci].im.value, g_dc, g_dw, key)
-                     for ci, key in zip(row_case, row_key, strict=True)]
-        walks = {k: paths.segments(path_keys[k], P_dead, row_P[k], dead_state)
-                 for k in range(n_rows)}
-        picked: list[tuple[int, float, float, np.ndarray, np.ndarray, np.ndarray,
-                           np.ndarray]] = []
-        piece = 0
-        while walks:
-            PathCache.follow(list(walks.values()), piece)
-            step = [(k, sg) for k, lp in walks.items() if (sg := lp.piece(piece)) is not None]
-            if not step:
-                break
-            walks = {k: walks[k] for k, _ in step}
-            n0a = np.array([sg.forces(sg.lam_start)[idx] for _, sg in step])
-            n1a = np.array([sg.N_live[idx] for _, sg in step])
-            ln = np.array([sg.lam_end - sg.lam_start for _, sg in step])
-            F0a = model.point_forces(n0a, _balancing(unit, n0a))
-            F1a = model.point_forces(n1a, _balancing(unit, n1a))
-            reach = model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0
-            for i in np.nonzero(reach)[0]:
-                k, sg = step[i]
-                picked.append((k, sg.lam_start, float(ln[i]), F0a[i], F1a[i], n0a[i], n1a[i]))
-                del walks[k]
-            piece += 1
-        if picked:
-            ks = np.array([t[0] for t in picked])
-            ln = np.array([t[2] for t in picked])
-            rel = np.minimum(model.multipliers(np.stack([t[3] for t in picked]),
-                                               np.stack([t[4] for t in picked]), upper=ln), ln)
-            lams[ks] = np.array([t[1] for t in picked]) + rel
-            N_at[ks] = np.stack([t[5] for t in picked]) + rel[:, None] * np.stack(
-                [t[6] for t in picked])
+        def walk(keys, Ps, cis):
+            n = len(keys)
+            lam_w, N_w = np.full(n, np.inf), np.zeros((n, len(idx)))
+            slack_w: list = [None] * n
+            walks = {k: paths.segments((cases[cis[k]].load.id, cases[cis[k]].im.value, g_dc,
+                                        g_dw, keys[k]), P_dead, Ps[k], dead_state)
+                     for k in range(n)}
+            picked = []
+            piece = 0
+            while walks:
+                PathCache.follow(list(walks.values()), piece)
+                step = [(k, sg) for k, lp in walks.items()
+                        if (sg := lp.piece(piece)) is not None]
+                if not step:
+                    break
+                walks = {k: walks[k] for k, _ in step}
+                n0a = np.array([sg.forces(sg.lam_start)[idx] for _, sg in step])
+                n1a = np.array([sg.N_live[idx] for _, sg in step])
+                ln = np.array([sg.lam_end - sg.lam_start for _, sg in step])
+                F0a = model.point_forces(n0a, _balancing(unit, n0a))
+                F1a = model.point_forces(n1a, _balancing(unit, n1a))
+                reach = model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0
+                for i in np.nonzero(reach)[0]:
+                    k, sg = step[i]
+                    picked.append((k, sg.lam_start, float(ln[i]), F0a[i], F1a[i], n0a[i],
+                                   n1a[i]))
+                    slack_w[k] = sg.slack
+                    del walks[k]
+                piece += 1
+            if picked:
+                ks = np.array([t[0] for t in picked])
+                ln = np.array([t[2] for t in picked])
+                rel = np.minimum(model.multipliers(np.stack([t[3] for t in picked]),
+                                                   np.stack([t[4] for t in picked]),
+                                                   upper=ln), ln)
+                lam_w[ks] = np.array([t[1] for t in picked]) + rel
+                N_w[ks] = np.stack([t[5] for t in picked]) + rel[:, None] * np.stack(
+                    [t[6] for t in picked])
+            return lam_w, N_w, slack_w
+
+        lams, N_at, slack_at = walk(row_key, row_P, row_case)
+
+        def add_rows(new_rows):
+            nonlocal lams, N_at, slack_at
+            keys, Ps, cis, exts, verts = [], [], [], [], []
+            for ci, e, v in new_rows:
+                case = cases[ci]
+                key = (e.model, e.position, e.lane_segments_ft)
+                keys.append(key)
+                exts.append(e)
+                cis.append(ci)
+                verts.append(v)
+                Ps.append(paths.live_loads((case.load.id, case.im.value, key), partial(
+                    live_joint_loads, g, case.load, e, case.im.value, df)))
+            lam_x, N_x, slack_x = walk(keys, Ps, cis)
+            lams = np.concatenate([lams, lam_x])
+            N_at = np.concatenate([N_at, N_x])
+            slack_at = slack_at + slack_x
+            row_case.extend(cis)
+            row_key.extend(keys)
+            row_ext.extend(exts)
+            row_vertex.extend(verts)
+            return lam_x
+
+        # On the load path the pin's multiplier is not a ratio of linear effects: the
+        # panel-point positions beside the critical ones (three each side) that come within
+        # 30 % of the case's least, where the least of the path lies (rating.lrfr.positions)
+        new_rows = []
+        for ci, (pts, _vertex) in enumerate(case_points):
+            ks = [k for k in range(len(row_key)) if row_case[k] == ci]
+            if not pts or not ks:
+                continue
+            best = float(lams[ks].min())
+            if not math.isfinite(best):
+                continue
+            have = {row_key[k] for k in ks}
+            near = sorted({n + d for k in ks if row_vertex[k] >= 0 and lams[k] <= 1.3 * best
+                           for d in range(-3, 4) for n in (row_vertex[k],)})
+            for n in near:
+                if 0 <= n < len(pts):
+                    e = pts[n]
+                    key = (e.model, e.position, e.lane_segments_ft)
+                    if key not in have:
+                        have.add(key)
+                        new_rows.append((ci, e, n))
+        if new_rows:
+            add_rows(new_rows)
+        n_rows = len(row_key)
+        # Between two neighbouring panel-point positions the pin's multiplier in one active
+        # set is least at an end (1 / a convex gauge of forces linear in the station); where
+        # the active set at the rating level changes between them it can dip, to where the
+        # pin reaches its limit just as a bar of the changing panel passes zero. In the set
+        # at either end that bar's zero gives lam as a function of the station, and the pin
+        # check along it is searched (grid of 64, then bisection); each point found is
+        # followed on the exact path like any other position.
+        kink_rows, lines, where = [], [], []
+        for ci in range(len(cases)):
+            here = [k for k in range(n_rows) if row_case[k] == ci and row_vertex[k] >= 0]
+            if not here:
+                continue
+            at = {row_vertex[k]: k for k in here}
+            best = float(lams[[k for k in range(n_rows) if row_case[k] == ci]].min())
+            if not math.isfinite(best):
+                continue
+            for v in sorted(at):
+                ka, kb = at[v], at.get(v + 1)
+                if kb is None or slack_at[ka] is None or slack_at[kb] is None:
+                    continue
+                if slack_at[ka] == slack_at[kb] or min(lams[ka], lams[kb]) > 1.1 * best:
+                    continue
+                Pa = paths.live_loads((cases[ci].load.id, cases[ci].im.value, row_key[ka]),
+                                      lambda: None)
+                Pb = paths.live_loads((cases[ci].load.id, cases[ci].im.value, row_key[kb]),
+                                      lambda: None)
+                for ln in _bar_zero_lines(family, idx, P_dead, Pa, Pb,
+                                          (slack_at[ka], slack_at[kb])):
+                    lines.append(ln)
+                    where.append((ci, row_ext[ka], row_ext[ka].position.front_axle_ft,
+                                  row_ext[kb].position.front_axle_ft))
+        seen_x: set = set()
+        for (ci, e, xa, xb), ts in zip(where, _pin_kinks(model, unit, lines), strict=True):
+            for t_k in ts:
+                x = round(xa + t_k * (xb - xa), 9)
+                if (ci, x, e.position.direction) in seen_x:
+                    continue
+                seen_x.add((ci, x, e.position.direction))
+                kink_rows.append((ci, replace(e, position=replace(e.position,
+                                                                  front_axle_ft=x)), -1))
+        if kink_rows:
+            add_rows(kink_rows)
+        n_rows = len(row_key)
     if n_rows:
         lams = lams / np.array([cases[ci].gamma_ll.value for ci in row_case])
         u_fs, u_b = model.utilization_parts(model.point_forces(N_at, _balancing(unit, N_at)))
