@@ -85,7 +85,7 @@ def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
 def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[list[float]]:
     """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
     reaches its limit just as the bar passes zero: the pin check minus one along the bar's
-    zero is searched for sign changes on a grid of 64, all lines at once, and each bracket is
+    zero is searched for sign changes on a grid of 32, all lines at once, and each bracket is
     closed by bisection (all at once)."""
     if not lines:
         return []
@@ -104,7 +104,7 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
         u = model.utilization(model.point_forces(N, _balancing(unit, N)))
         return np.where(lam > 0, u - 1.0, np.nan)
 
-    grid = np.linspace(0.0, 1.0, 65)[1:-1]
+    grid = np.linspace(0.0, 1.0, 33)[1:-1]
     n, m = len(lines), grid.size
     rows = np.repeat(np.arange(n), m)
     v = f(rows, np.tile(grid, n)).reshape(n, m)
@@ -269,8 +269,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             return lam_x
 
         # On the load path the pin's multiplier is not a ratio of linear effects: the
-        # panel-point positions beside the critical ones (three each side) that come within
-        # 30 % of the case's least, where the least of the path lies (rating.lrfr.positions)
+        # panel-point positions beside the critical ones (two each side) that come within
+        # 15 % of the case's least, where the least of the path lies (rating.lrfr.positions)
         new_rows = []
         for ci, (pts, _vertex) in enumerate(case_points):
             ks = [k for k in range(len(row_key)) if row_case[k] == ci]
@@ -280,8 +280,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             if not math.isfinite(best):
                 continue
             have = {row_key[k] for k in ks}
-            near = sorted({n + d for k in ks if row_vertex[k] >= 0 and lams[k] <= 1.3 * best
-                           for d in range(-3, 4) for n in (row_vertex[k],)})
+            near = sorted({n + d for k in ks if row_vertex[k] >= 0 and lams[k] <= 1.15 * best
+                           for d in range(-2, 3) for n in (row_vertex[k],)})
             for n in near:
                 if 0 <= n < len(pts):
                     e = pts[n]
@@ -297,7 +297,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # the active set at the rating level changes between them it can dip, to where the
         # pin reaches its limit just as a bar of the changing panel passes zero. In the set
         # at either end that bar's zero gives lam as a function of the station, and the pin
-        # check along it is searched (grid of 64, then bisection); each point found is
+        # check along it is searched (grid of 32, then bisection); each point found is
         # followed on the exact path like any other position.
         kink_rows, lines, where = [], [], []
         for ci in range(len(cases)):

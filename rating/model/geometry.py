@@ -110,7 +110,7 @@ class TrussGeometry:
         a, b = self.joint(m.start), self.joint(m.end)
         return math.hypot(b.x_ft - a.x_ft, b.y_ft - a.y_ft)
 
-    @property
+    @cached_property
     def deck_stations_ft(self) -> tuple[float, ...]:
         """x of each deck panel point, ft, in order along the span."""
         return tuple(self.joint(j).x_ft for j in self.deck_joints)
