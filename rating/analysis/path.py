@@ -371,12 +371,23 @@ class PathCache:
         self._paths: dict[Hashable, LazyPath] = {}
         self._loads: dict[Hashable, np.ndarray] = {}
         self._dead: dict[bytes, dict[frozenset[str], tuple[np.ndarray, np.ndarray]]] = {}
+        self._solved: dict[tuple, tuple[np.ndarray, np.ndarray]] = {}
 
     def live_loads(self, key: Hashable, make: Callable[[], np.ndarray]) -> np.ndarray:
         """The live-load vector of one position, made once per key."""
         hit = self._loads.get(key)
         if hit is None:
             hit = self._loads[key] = make()
+        return hit
+
+    def solved(self, slack: frozenset[str], key: Hashable, P: np.ndarray
+               ) -> tuple[np.ndarray, np.ndarray]:
+        """Member forces and elongations of the loads ``P`` (named by ``key``) in the linear
+        truss of one active set, solved once per (set, key)."""
+        hit = self._solved.get((slack, key))
+        if hit is None:
+            hit = self._solved[(slack, key)] = self.family.solver(
+                slack).forces_and_elongations(P)
         return hit
 
     def segments(self, key: Hashable, P_dead: np.ndarray, P_live: np.ndarray,

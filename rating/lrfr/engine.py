@@ -717,11 +717,12 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
                 live_joint_loads, g, case.load, eb, im, df))
             switching = [family.labels.index(lab) for lab in seg_a.slack ^ seg_b.slack]
             C = trials[ka].capacity
+            ka_key = (case.load.id, im, (ea.model, ea.position, ()))
+            kb_key = (case.load.id, im, (eb.model, eb.position, ()))
             for S in (seg_a.slack, seg_b.slack):
-                lt = family.solver(S)
-                n_d, e_d = lt.forces_and_elongations(P_dead)
-                n_a, e_a = lt.forces_and_elongations(Pa)
-                n_b, e_b = lt.forces_and_elongations(Pb)
+                n_d, e_d = paths.solved(S, ("dead", gd, gw), P_dead)
+                n_a, e_a = paths.solved(S, ka_key, Pa)
+                n_b, e_b = paths.solved(S, kb_key, Pb)
                 a1, b1 = sense * n_a[i], sense * (n_b[i] - n_a[i])
                 c1 = C - sense * n_d[i]
                 for j in switching:

@@ -61,7 +61,8 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
 
 def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
                     Pa: np.ndarray, Pb: np.ndarray,
-                    states: tuple[frozenset[str], frozenset[str]]) -> list[tuple]:
+                    states: tuple[frozenset[str], frozenset[str]], paths: PathCache,
+                    keys: tuple) -> list[tuple]:
     """For two panel-point positions (live loads ``Pa``, ``Pb``) whose active sets at the
     rating level differ: in the set at either end, each bar whose state differs between the
     ends passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
@@ -70,10 +71,9 @@ def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
     out = []
     labels = family.labels
     for S in states:
-        lt = family.solver(S)
-        n_d, e_d = lt.forces_and_elongations(P_dead)
-        n_a, e_a = lt.forces_and_elongations(Pa)
-        n_b, e_b = lt.forces_and_elongations(Pb)
+        n_d, e_d = paths.solved(S, keys[0], P_dead)
+        n_a, e_a = paths.solved(S, keys[1], Pa)
+        n_b, e_b = paths.solved(S, keys[2], Pb)
         for lab in sorted(states[0] ^ states[1]):
             j = labels.index(lab)
             abc = ((e_a[j], e_b[j] - e_a[j], e_d[j]) if lab in S
@@ -318,8 +318,11 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                                       lambda: None)
                 Pb = paths.live_loads((cases[ci].load.id, cases[ci].im.value, row_key[kb]),
                                       lambda: None)
+                lkey = (cases[ci].load.id, cases[ci].im.value)
                 for ln in _bar_zero_lines(family, idx, P_dead, Pa, Pb,
-                                          (slack_at[ka], slack_at[kb])):
+                                          (slack_at[ka], slack_at[kb]), paths,
+                                          (("dead", g_dc, g_dw), (*lkey, row_key[ka]),
+                                           (*lkey, row_key[kb]))):
                     lines.append(ln)
                     where.append((ci, row_ext[ka], row_ext[ka].position.front_axle_ft,
                                   row_ext[kb].position.front_axle_ft))
