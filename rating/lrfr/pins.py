@@ -85,7 +85,7 @@ def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
 def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[list[float]]:
     """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
     reaches its limit just as the bar passes zero: the pin check minus one along the bar's
-    zero is searched for sign changes on a grid of 32, all lines at once, and each bracket is
+    zero is searched for sign changes on a grid of 16, all lines at once, and each bracket is
     closed by bisection (all at once)."""
     if not lines:
         return []
@@ -104,7 +104,7 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
         u = model.utilization(model.point_forces(N, _balancing(unit, N)))
         return np.where(lam > 0, u - 1.0, np.nan)
 
-    grid = np.linspace(0.0, 1.0, 33)[1:-1]
+    grid = np.linspace(0.0, 1.0, 17)[1:-1]
     n, m = len(lines), grid.size
     rows = np.repeat(np.arange(n), m)
     v = f(rows, np.tile(grid, n)).reshape(n, m)
@@ -115,7 +115,7 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
     if not r.size:
         return out
     lo, hi, flo = grid[k], grid[k + 1], v[r, k]
-    for _ in range(25):
+    for _ in range(18):  # to 1/16/2^18 of the interval
         mid = 0.5 * (lo + hi)
         fm = f(r, mid)
         same = np.isfinite(fm) & (np.sign(fm) == np.sign(flo))
@@ -297,7 +297,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # the active set at the rating level changes between them it can dip, to where the
         # pin reaches its limit just as a bar of the changing panel passes zero. In the set
         # at either end that bar's zero gives lam as a function of the station, and the pin
-        # check along it is searched (grid of 32, then bisection); each point found is
+        # check along it is searched (grid of 16, then bisection); each point found is
         # followed on the exact path like any other position.
         kink_rows, lines, where = [], [], []
         for ci in range(len(cases)):
