@@ -59,6 +59,15 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
+def _station_key(e: Extreme) -> tuple | None:
+    """A position by its model, direction, spacings and front station to 1e-6 ft."""
+    if e.position is None or e.lane_segments_ft:
+        return None
+    pos = e.position
+    return (e.model, pos.direction, tuple(round(x, 6) for x in pos.spacings_ft),
+            round(pos.front_axle_ft, 6))
+
+
 def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
                     Pa: np.ndarray, Pb: np.ndarray,
                     states: tuple[frozenset[str], frozenset[str]], paths: PathCache,
@@ -180,13 +189,15 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     continue
                 unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
         pts = panel_points.get(case.load.id, ()) if not linear else ()
-        vertex = {(e.model, e.position, e.lane_segments_ft): n for n, e in enumerate(pts)}
+        # a critical position found by the envelope search stands on a panel-point position
+        # to round-off: matched by its station to 1e-6 ft
+        vertex = {_station_key(e): n for n, e in enumerate(pts)}
         case_points.append((pts, vertex))
         for key, e in unique.items():
             row_case.append(ci)
             row_key.append(key)
             row_ext.append(e)
-            row_vertex.append(vertex.get(key, -1))
+            row_vertex.append(vertex.get(_station_key(e), -1) if vertex else -1)
             # gamma_LL = 1 here: one path serves every rating level of the load
             row_P.append(paths.live_loads((case.load.id, im, key), partial(
                 live_joint_loads, g, case.load, e, im, df)))
@@ -271,25 +282,25 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # On the load path the pin's multiplier is not a ratio of linear effects: the
         # panel-point positions beside the critical ones (two each side) that come within
         # 15 % of the case's least, where the least of the path lies (rating.lrfr.positions)
-        new_rows = []
-        for ci, (pts, _vertex) in enumerate(case_points):
-            ks = [k for k in range(len(row_key)) if row_case[k] == ci]
-            if not pts or not ks:
-                continue
-            best = float(lams[ks].min())
-            if not math.isfinite(best):
-                continue
-            have = {row_key[k] for k in ks}
-            near = sorted({n + d for k in ks if row_vertex[k] >= 0 and lams[k] <= 1.15 * best
-                           for d in range(-2, 3) for n in (row_vertex[k],)})
-            for n in near:
-                if 0 <= n < len(pts):
-                    e = pts[n]
-                    key = (e.model, e.position, e.lane_segments_ft)
-                    if key not in have:
-                        have.add(key)
-                        new_rows.append((ci, e, n))
-        if new_rows:
+        for _ in range(4):  # until no position near the least is left unfollowed
+            new_rows = []
+            for ci, (pts, _vertex) in enumerate(case_points):
+                ks = [k for k in range(len(row_key)) if row_case[k] == ci]
+                if not pts or not ks:
+                    continue
+                best = float(lams[ks].min())
+                if not math.isfinite(best):
+                    continue
+                have = {row_vertex[k] for k in ks if row_vertex[k] >= 0}
+                near = sorted({row_vertex[k] + d for k in ks
+                               if row_vertex[k] >= 0 and lams[k] <= 1.15 * best
+                               for d in range(-2, 3)})
+                for n in near:
+                    if 0 <= n < len(pts) and n not in have:
+                        have.add(n)
+                        new_rows.append((ci, pts[n], n))
+            if not new_rows:
+                break
             add_rows(new_rows)
         n_rows = len(row_key)
         # Between two neighbouring panel-point positions the pin's multiplier in one active
