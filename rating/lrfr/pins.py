@@ -60,12 +60,12 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
 
 
 def _station_key(e: Extreme) -> tuple | None:
-    """A position by its model, direction, spacings and front station to 1e-6 ft."""
+    """A position of a fixed-spacing load by its model, direction and front station to
+    1e-6 ft (the spacings are the load's own)."""
     if e.position is None or e.lane_segments_ft:
         return None
     pos = e.position
-    return (e.model, pos.direction, tuple(round(x, 6) for x in pos.spacings_ft),
-            round(pos.front_axle_ft, 6))
+    return (e.model, pos.direction, round(pos.front_axle_ft, 6))
 
 
 def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
@@ -281,7 +281,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
 
         # On the load path the pin's multiplier is not a ratio of linear effects: the
         # panel-point positions beside the critical ones (two each side) that come within
-        # 15 % of the case's least, where the least of the path lies (rating.lrfr.positions)
+        # 8 % of the case's least, where the least of the path lies (rating.lrfr.positions)
         for _ in range(4):  # until no position near the least is left unfollowed
             new_rows = []
             for ci, (pts, _vertex) in enumerate(case_points):
@@ -293,7 +293,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     continue
                 have = {row_vertex[k] for k in ks if row_vertex[k] >= 0}
                 near = sorted({row_vertex[k] + d for k in ks
-                               if row_vertex[k] >= 0 and lams[k] <= 1.15 * best
+                               if row_vertex[k] >= 0 and lams[k] <= 1.08 * best
                                for d in range(-2, 3)})
                 for n in near:
                     if 0 <= n < len(pts) and n not in have:
