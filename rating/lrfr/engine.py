@@ -777,7 +777,16 @@ def _rate_member(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
             rf, method, ext = r.rf, "linear", pl.extremes[k]
         else:
             rf, ext = math.inf, None
-            for t, lam_1 in mine:
+            # Where the factored dead load alone is past the resistance the multiplier is the
+            # (negative) extrapolation (C - dead) / live, and the rating is the one with the
+            # largest live-load effect, the least negative, as the linear equation gives it
+            # (a position barely loading the member would give -inf); else the least.
+            past = [(t, lam_1) for t, lam_1 in mine if lam_1 < 0.0]
+            if past:
+                finite = [(t, lam_1) for t, lam_1 in past if math.isfinite(lam_1)]
+                t, lam_1 = max(finite, key=lambda q: q[1]) if finite else past[0]
+                rf, ext, g_dc, g_dw = lam_1 / g_ll, t.extreme, t.gamma_dc, t.gamma_dw
+            for t, lam_1 in ([] if past else mine):
                 lam = lam_1 / g_ll
                 if lower_beyond_round_off(lam, rf):
                     rf, ext, g_dc, g_dw = lam, t.extreme, t.gamma_dc, t.gamma_dw

@@ -145,3 +145,19 @@ def test_pin_rating_on_the_load_path_is_the_least_over_all_positions(joint, diam
     assert math.isfinite(best)
     assert ours <= best * (1.0 + 2e-3), (ours, best)
     assert ours >= best * (1.0 - 0.03), (ours, best)
+
+
+def test_dead_load_past_the_resistance_rates_at_the_largest_live_effect():
+    # a chord the factored dead load alone already breaks (the demo sections on a longer
+    # span): the multiplier is the negative extrapolation (C - dead) / live, and its rating
+    # is taken where the live effect is largest (least negative), as the linear equation of
+    # MBE 6A.4.2.1 gives it [value from memory], not -inf from a position that barely loads it
+    base = make_pratt_bridge(pins=False)
+    g = build_truss("pratt", 12, 20.0, 26.0, counter_panels=(5, 6, 7, 8))
+    designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    rated = rate_bridge(dataclasses.replace(base, geometry=g, member_designs=designs),
+                        ["TYPE-3"])
+    negative = [r for r in rated.ratings.values() if r.rf < 0]
+    assert negative  # the case this test is about
+    assert all(math.isfinite(r.rf) for r in negative)
