@@ -695,12 +695,16 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
     for k, t in enumerate(trials):
         if t.panel_point:
             e = t.extreme
-            v = vertex_index[(e.model, e.position, e.lane_segments_ft)]
-            by_run.setdefault((t.sense, t.gamma_dc, t.gamma_dw, e.position.direction),
+            v = vertex_index.get((e.model, e.position, e.lane_segments_ft))
+            if v is None:
+                continue
+            # one run per direction and per axle spacing and lane (their own positions)
+            by_run.setdefault((t.sense, t.gamma_dc, t.gamma_dw, e.position.direction,
+                               e.model, e.position.spacings_ft, e.lane_segments_ft),
                               {})[v] = k
     out: list[_Trial] = []
     seen: set[tuple] = set()
-    for (sense, gd, gw, direction), at in by_run.items():
+    for (sense, gd, gw, direction, *_), at in by_run.items():
         P_dead, dead_state = dead_states[(gd, gw)]
         for v in sorted(at):
             if v + 1 not in at:
@@ -711,14 +715,12 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
                 continue
             ea, eb = trials[ka].extreme, trials[kb].extreme
             xa, xb = ea.position.front_axle_ft, eb.position.front_axle_ft
-            Pa = paths.live_loads((case.load.id, im, (ea.model, ea.position, ())), partial(
-                live_joint_loads, g, case.load, ea, im, df))
-            Pb = paths.live_loads((case.load.id, im, (eb.model, eb.position, ())), partial(
-                live_joint_loads, g, case.load, eb, im, df))
+            ka_key = (case.load.id, im, (ea.model, ea.position, ea.lane_segments_ft))
+            kb_key = (case.load.id, im, (eb.model, eb.position, eb.lane_segments_ft))
+            Pa = paths.live_loads(ka_key, partial(live_joint_loads, g, case.load, ea, im, df))
+            Pb = paths.live_loads(kb_key, partial(live_joint_loads, g, case.load, eb, im, df))
             switching = [family.labels.index(lab) for lab in seg_a.slack ^ seg_b.slack]
             C = trials[ka].capacity
-            ka_key = (case.load.id, im, (ea.model, ea.position, ()))
-            kb_key = (case.load.id, im, (eb.model, eb.position, ()))
             for S in (seg_a.slack, seg_b.slack):
                 n_d, e_d = paths.solved(S, ("dead", gd, gw), P_dead)
                 n_a, e_a = paths.solved(S, ka_key, Pa)
@@ -741,11 +743,11 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
                     if not 0.0 < t_k < 1.0:
                         continue
                     x = round(xa + t_k * (xb - xa), 9)
-                    if (x, gd, gw, direction) in seen:
+                    if (x, gd, gw, direction, ea.lane_segments_ft) in seen:
                         continue
-                    seen.add((x, gd, gw, direction))
+                    seen.add((x, gd, gw, direction, ea.lane_segments_ft))
                     e = replace(ea, position=replace(ea.position, front_axle_ft=x))
-                    key = (e.model, e.position, ())
+                    key = (e.model, e.position, e.lane_segments_ft)
                     P_live = paths.live_loads((case.load.id, im, key), partial(
                         live_joint_loads, g, case.load, e, im, df))
                     path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live,
