@@ -24,10 +24,12 @@ from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import (
+    Direction,
     Extreme,
     MemberEnvelope,
     axle_stations,
     envelope,
+    panel_point_positions,
 )
 from rating.analysis.path import PathCache, member_load_multipliers
 from rating.analysis.truss import (
@@ -454,6 +456,23 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
             more = {lab: _kink_trials(g, family, case, lab, tried[lab], found_of[lab], paths,
                                       dead_states, df, screen.index) for lab in tried}
             _follow_trials(g, more, tried, found_of)
+        elif tried:
+            # a load with a lane part or a variable spacing: the panel-point positions of the
+            # governing vehicle (its spacing, direction and lane segments) beside its best
+            # position, taken again around every position near the least, then the change
+            # points between them, as for the axle loads above
+            runs: dict = {}
+            for _ in range(4):
+                more = {lab: _local_panel_point_trials(g, case, tried[lab], found_of[lab],
+                                                       paths, dead_states, df, runs)
+                        for lab in tried}
+                if not any(more.values()):
+                    break
+                _follow_trials(g, more, tried, found_of)
+            vertex_index = {key: n for run in runs.values() for key, n in run[1].items()}
+            more = {lab: _kink_trials(g, family, case, lab, tried[lab], found_of[lab], paths,
+                                      dead_states, df, vertex_index) for lab in tried}
+            _follow_trials(g, more, tried, found_of)
         lam_of = {lab: [lam for lam, _ in fs] for lab, fs in found_of.items()}
         for lab in plans:
             ratings[(lab, case.id)] = _rate_member(
@@ -669,6 +688,68 @@ class _PanelPointScreen:
                                           P_live, state)
                     out.append(_Trial(pl.sense, e, fs[0], fs[1], path, pl.capacity, True))
         return out
+
+
+def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_Trial],
+                              found: list[tuple[float, object]], paths: PathCache,
+                              dead_states, df: float, runs: dict) -> list[_Trial]:
+    """For a load with a lane part or a variable spacing: the panel-point positions of the
+    vehicle of the member's best trial (same model, spacing, lane segments and dead-load
+    factors), in both directions, three each side of it (and of the same stretch of deck
+    driven the other way) and of every such position within 8 % of the least, not followed
+    yet. ``runs`` keeps each vehicle's positions and their order, by direction."""
+    lams = [lam for lam, _ in found]
+    finite = [k for k, lam in enumerate(lams) if math.isfinite(lam) and lam >= 0.0]
+    if not finite:
+        return []
+    k_best = min(finite, key=lambda k: lams[k])
+    best, t_best = lams[k_best], trials[k_best]
+    e = t_best.extreme
+    mo = next((m for m in case.load.models if m.name == e.model), None)
+    if e.position is None or mo is None or mo.axles is None:
+        return []
+    length = float(sum(e.position.spacings_ft))
+    im = case.im.value
+    P_dead, state = dead_states[(t_best.gamma_dc, t_best.gamma_dw)]
+    out = []
+    for direction in (Direction.FORWARD, Direction.REVERSE):
+        run_key = (e.model, direction, e.position.spacings_ft, e.lane_segments_ft)
+        if run_key not in runs:
+            pts = [replace(e, position=pos) for pos in
+                   panel_point_positions(g.deck_stations_ft, e.position.spacings_ft)
+                   if pos.direction is direction]
+            runs[run_key] = (pts, {(q.model, q.position, q.lane_segments_ft): n
+                                   for n, q in enumerate(pts)})
+        pts, index = runs[run_key]
+        if not pts:
+            continue
+        fronts = np.array([q.position.front_axle_ft for q in pts])
+        x = e.position.front_axle_ft
+        if direction is not e.position.direction:  # the same stretch, driven the other way
+            x = x + length if direction is Direction.FORWARD else x - length
+        centres = {int(np.argmin(np.abs(fronts - x)))}
+        have: set[int] = set()
+        for t, lam in zip(trials, lams, strict=True):
+            q = t.extreme
+            n = index.get((q.model, q.position, q.lane_segments_ft))
+            if n is not None and (t.sense, t.gamma_dc, t.gamma_dw) == (
+                    t_best.sense, t_best.gamma_dc, t_best.gamma_dw):
+                have.add(n)
+                if math.isfinite(lam) and lam <= 1.08 * best:
+                    centres.add(n)
+        for n in sorted({c + d for c in centres for d in range(-3, 4)}):
+            if not 0 <= n < len(pts) or n in have:
+                continue
+            have.add(n)
+            q = pts[n]
+            key = (q.model, q.position, q.lane_segments_ft)
+            P_live = paths.live_loads((case.load.id, im, key), partial(
+                live_joint_loads, g, case.load, q, im, df))
+            path = paths.segments((case.load.id, im, t_best.gamma_dc, t_best.gamma_dw, key),
+                                  P_dead, P_live, state)
+            out.append(_Trial(t_best.sense, q, t_best.gamma_dc, t_best.gamma_dw, path,
+                              t_best.capacity, True))
+    return out
 
 
 def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member: str,
