@@ -27,7 +27,6 @@ from rating.analysis.moving import (
     Direction,
     Extreme,
     MemberEnvelope,
-    axle_stations,
     envelope,
     panel_point_positions,
 )
@@ -626,7 +625,12 @@ class _PanelPointScreen:
         mo = case.load.models[0]
         v = mo.axles
         self._P_axles = (1.0 + case.im.value) * df * np.asarray(v.axle_loads_kip) * v.axle_scale
-        self._X = np.array([axle_stations(e.position) for e in panel_points])  # (n, axles)
+        # axle stations of every position (n, axles): forward x - d, reverse x + d
+        d = np.concatenate(([0.0], np.cumsum(panel_points[0].position.spacings_ft)))
+        front = np.array([e.position.front_axle_ft for e in panel_points])
+        sign = np.array([1.0 if e.position.direction is Direction.FORWARD else -1.0
+                         for e in panel_points])
+        self._X = front[:, None] - sign[:, None] * d[None, :]
         n = len(panel_points)
         self._same_dir = np.array([panel_points[k].position.direction
                                    == panel_points[k + 1].position.direction
