@@ -16,7 +16,6 @@ import itertools
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
-from functools import partial
 
 import numpy as np
 
@@ -40,7 +39,7 @@ from rating.analysis.truss import (
 from rating.capacity.member import MemberCapacity, member_capacity
 from rating.capacity.sections import gross_area_as_built_in2
 from rating.errors import InputError
-from rating.lrfr.equation import SenseLoads, rating_factor
+from rating.lrfr.equation import SenseLoads, lower_beyond_round_off, rating_factor
 from rating.lrfr.factors import (
     Factor,
     RatingLevel,
@@ -48,7 +47,7 @@ from rating.lrfr.factors import (
     dynamic_load_allowance,
     live_load_factor,
 )
-from rating.lrfr.liveload import live_joint_loads
+from rating.lrfr.liveload import position_key, position_live_loads
 from rating.lrfr.pins import PinRating, rate_pin
 from rating.lrfr.positions import panel_point_extremes
 from rating.lrfr.posting import PostingAction, PostingResult, posting
@@ -536,6 +535,19 @@ class _Trial:
     panel_point: bool = False  # an axle over a panel point (see _kink_trials)
 
 
+def _trial(g: TrussGeometry, case: RatingCase, e: Extreme, sense: int,
+           factors: tuple[float, float], capacity: float, dead_states, df: float,
+           paths: PathCache, panel_point: bool = False) -> _Trial:
+    """One load-multiplier search: the extreme's loading followed on the exact load path of
+    its dead-load factor set (with gamma_LL = 1, shared through ``paths``)."""
+    im = case.im.value
+    P_dead, state = dead_states[factors]
+    P_live = position_live_loads(paths, g, case.load, e, im, df)
+    path = paths.segments((case.load.id, im, *factors, position_key(e)), P_dead, P_live,
+                          state)
+    return _Trial(sense, e, factors[0], factors[1], path, capacity, panel_point)
+
+
 def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
                  dead_f, df: float, envs, dependent: bool) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
@@ -569,19 +581,15 @@ def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePla
     ``panel_points`` only marks the trials that stand on a panel-point position (see
     :class:`_PanelPointScreen`).
     """
-    im = case.im.value
     out = []
-    on_panel_points = {(e.model, e.position, e.lane_segments_ft) for e in panel_points}
+    on_panel_points = {position_key(e) for e in panel_points}
     for pl in plans:
-        unique = {(e.model, e.position, e.lane_segments_ft): e for e in pl.extremes
+        unique = {position_key(e): e for e in pl.extremes
                   if e.position is not None or e.lane_segments_ft}
-        for (gd, gw), (P_dead, state) in dead_states.items():
+        for fs in dead_states:
             for key, e in unique.items():
-                P_live = paths.live_loads((case.load.id, im, key), partial(
-                    live_joint_loads, g, case.load, e, im, df))
-                path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live, state)
-                out.append(_Trial(pl.sense, e, gd, gw, path, pl.capacity,
-                                  key in on_panel_points))
+                out.append(_trial(g, case, e, pl.sense, fs, pl.capacity, dead_states, df,
+                                  paths, key in on_panel_points))
     return out
 
 
@@ -620,7 +628,7 @@ class _PanelPointScreen:
         self.g, self.family, self.case, self.df = g, family, case, df
         self.dead_states = dead_states
         self.points = panel_points
-        self.keys = [(e.model, e.position, ()) for e in panel_points]
+        self.keys = [position_key(e) for e in panel_points]
         self.index = {k: n for n, k in enumerate(self.keys)}
         mo = case.load.models[0]
         v = mo.axles
@@ -671,26 +679,19 @@ class _PanelPointScreen:
                paths: PathCache) -> list[_Trial]:
         """The panel-point trials that can lower ``best`` (lam with gamma_LL = 1) and are not
         among ``have`` already."""
-        g, case, im = self.g, self.case, self.case.im.value
-        present = {(t.sense, t.gamma_dc, t.gamma_dw, (t.extreme.model, t.extreme.position,
-                                                      t.extreme.lane_segments_ft))
-                   for t in have}
+        present = {(t.sense, t.gamma_dc, t.gamma_dw, position_key(t.extreme)) for t in have}
         out = []
         for pl in plans:
-            for fs, (P_dead, state) in self.dead_states.items():
+            for fs in self.dead_states:
                 low = self.bound(member, pl.sense, pl.capacity, fs) < best * (1.0 - 1e-9)
                 pick = low.copy()
                 pick[:-1] |= low[1:] & self._same_dir
                 pick[1:] |= low[:-1] & self._same_dir
                 for k in np.flatnonzero(pick):
-                    e, key = self.points[k], self.keys[k]
-                    if (pl.sense, fs[0], fs[1], key) in present:
+                    if (pl.sense, fs[0], fs[1], self.keys[k]) in present:
                         continue
-                    P_live = paths.live_loads((case.load.id, im, key), partial(
-                        live_joint_loads, g, case.load, e, im, self.df))
-                    path = paths.segments((case.load.id, im, fs[0], fs[1], key), P_dead,
-                                          P_live, state)
-                    out.append(_Trial(pl.sense, e, fs[0], fs[1], path, pl.capacity, True))
+                    out.append(_trial(self.g, self.case, self.points[k], pl.sense, fs,
+                                      pl.capacity, self.dead_states, self.df, paths, True))
         return out
 
 
@@ -713,8 +714,7 @@ def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_
     if e.position is None or mo is None or mo.axles is None:
         return []
     length = float(sum(e.position.spacings_ft))
-    im = case.im.value
-    P_dead, state = dead_states[(t_best.gamma_dc, t_best.gamma_dw)]
+    fs = (t_best.gamma_dc, t_best.gamma_dw)
     out = []
     for direction in (Direction.FORWARD, Direction.REVERSE):
         run_key = (e.model, direction, e.position.spacings_ft, e.lane_segments_ft)
@@ -722,8 +722,7 @@ def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_
             pts = [replace(e, position=pos) for pos in
                    panel_point_positions(g.deck_stations_ft, e.position.spacings_ft)
                    if pos.direction is direction]
-            runs[run_key] = (pts, {(q.model, q.position, q.lane_segments_ft): n
-                                   for n, q in enumerate(pts)})
+            runs[run_key] = (pts, {position_key(q): n for n, q in enumerate(pts)})
         pts, index = runs[run_key]
         if not pts:
             continue
@@ -734,10 +733,8 @@ def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_
         centres = {int(np.argmin(np.abs(fronts - x)))}
         have: set[int] = set()
         for t, lam in zip(trials, lams, strict=True):
-            q = t.extreme
-            n = index.get((q.model, q.position, q.lane_segments_ft))
-            if n is not None and (t.sense, t.gamma_dc, t.gamma_dw) == (
-                    t_best.sense, t_best.gamma_dc, t_best.gamma_dw):
+            n = index.get(position_key(t.extreme))
+            if n is not None and (t.sense, t.gamma_dc, t.gamma_dw) == (t_best.sense, *fs):
                 have.add(n)
                 if math.isfinite(lam) and lam <= 1.08 * best:
                     centres.add(n)
@@ -745,14 +742,8 @@ def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_
             if not 0 <= n < len(pts) or n in have:
                 continue
             have.add(n)
-            q = pts[n]
-            key = (q.model, q.position, q.lane_segments_ft)
-            P_live = paths.live_loads((case.load.id, im, key), partial(
-                live_joint_loads, g, case.load, q, im, df))
-            path = paths.segments((case.load.id, im, t_best.gamma_dc, t_best.gamma_dw, key),
-                                  P_dead, P_live, state)
-            out.append(_Trial(t_best.sense, q, t_best.gamma_dc, t_best.gamma_dw, path,
-                              t_best.capacity, True))
+            out.append(_trial(g, case, pts[n], t_best.sense, fs, t_best.capacity,
+                              dead_states, df, paths, True))
     return out
 
 
@@ -780,7 +771,7 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
     for k, t in enumerate(trials):
         if t.panel_point:
             e = t.extreme
-            v = vertex_index.get((e.model, e.position, e.lane_segments_ft))
+            v = vertex_index.get(position_key(e))
             if v is None:
                 continue
             # one run per direction and per axle spacing and lane (their own positions)
@@ -790,7 +781,7 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
     out: list[_Trial] = []
     seen: set[tuple] = set()
     for (sense, gd, gw, direction, *_), at in by_run.items():
-        P_dead, dead_state = dead_states[(gd, gw)]
+        P_dead = dead_states[(gd, gw)][0]
         for v in sorted(at):
             if v + 1 not in at:
                 continue  # only neighbouring panel-point positions (no station between)
@@ -800,10 +791,10 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
                 continue
             ea, eb = trials[ka].extreme, trials[kb].extreme
             xa, xb = ea.position.front_axle_ft, eb.position.front_axle_ft
-            ka_key = (case.load.id, im, (ea.model, ea.position, ea.lane_segments_ft))
-            kb_key = (case.load.id, im, (eb.model, eb.position, eb.lane_segments_ft))
-            Pa = paths.live_loads(ka_key, partial(live_joint_loads, g, case.load, ea, im, df))
-            Pb = paths.live_loads(kb_key, partial(live_joint_loads, g, case.load, eb, im, df))
+            ka_key = (case.load.id, im, position_key(ea))
+            kb_key = (case.load.id, im, position_key(eb))
+            Pa = position_live_loads(paths, g, case.load, ea, im, df)
+            Pb = position_live_loads(paths, g, case.load, eb, im, df)
             switching = [family.labels.index(lab) for lab in seg_a.slack ^ seg_b.slack]
             C = trials[ka].capacity
             for S in (seg_a.slack, seg_b.slack):
@@ -832,12 +823,7 @@ def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member
                         continue
                     seen.add((x, gd, gw, direction, ea.lane_segments_ft))
                     e = replace(ea, position=replace(ea.position, front_axle_ft=x))
-                    key = (e.model, e.position, e.lane_segments_ft)
-                    P_live = paths.live_loads((case.load.id, im, key), partial(
-                        live_joint_loads, g, case.load, e, im, df))
-                    path = paths.segments((case.load.id, im, gd, gw, key), P_dead, P_live,
-                                          dead_state)
-                    out.append(_Trial(sense, e, gd, gw, path, C))
+                    out.append(_trial(g, case, e, sense, (gd, gw), C, dead_states, df, paths))
     return out
 
 
@@ -888,12 +874,6 @@ def _rate_member(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
         return MemberCaseRating(m.label, case.id, math.inf, "", "not loaded by this vehicle",
                                 "linear", 0.0, 0.0, g_ll, im, 0.0, cap.phi_c, cap.phi_s, None)
     return best
-
-
-def lower_beyond_round_off(a: float, b: float) -> bool:
-    """a < b by more than round-off: of ties (mirror members, pins or vehicle positions of a
-    symmetric truss) the first found stays, never a pick by the last digit."""
-    return a < b - 1e-9 * max(abs(b), 1.0) if math.isfinite(b) else a < b
 
 
 def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:

@@ -59,3 +59,9 @@ def factored_capacity(phi_c: float, phi_s: float, phi: float, R_n: float,
     MBE 6A.4.2.1, Eq. 6A.4.2.1-2 and -3 [Khan 2010, p. 187, read].
     """
     return combined_factor(phi_c, phi_s, floor) * phi * R_n
+
+
+def lower_beyond_round_off(a: float, b: float) -> bool:
+    """a < b by more than round-off: of ties (mirror members, pins or vehicle positions of a
+    symmetric truss) the first found stays, never a pick by the last digit."""
+    return a < b - 1e-9 * max(abs(b), 1.0) if math.isfinite(b) else a < b

@@ -2,10 +2,13 @@
 
 from __future__ import annotations
 
+from functools import partial
+
 import numpy as np
 
 from rating.analysis.loading import axle_joint_loads, lane_joint_loads
 from rating.analysis.moving import Extreme, axle_stations
+from rating.analysis.path import PathCache
 from rating.model import TrussGeometry
 from rating.vehicles.library import RatingLoad
 
@@ -24,3 +27,16 @@ def live_joint_loads(g: TrussGeometry, load: RatingLoad, ext: Extreme, im: float
     if ext.lane_klf and ext.lane_segments_ft:
         P += lane_joint_loads(g, ext.lane_segments_ft, ext.lane_klf)
     return gamma_ll * df * P
+
+
+def position_key(e: Extreme) -> tuple:
+    """What makes one loading of a rating load: its model, position and lane segments."""
+    return (e.model, e.position, e.lane_segments_ft)
+
+
+def position_live_loads(paths: PathCache, g: TrussGeometry, load: RatingLoad, e: Extreme,
+                        im: float, df: float) -> np.ndarray:
+    """The panel-point loads of ``e`` with gamma_LL = 1 (one path serves every rating level
+    of the load), made once per load, IM and position through ``paths``."""
+    return paths.live_loads((load.id, im, position_key(e)),
+                            partial(live_joint_loads, g, load, e, im, df))

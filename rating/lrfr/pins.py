@@ -14,7 +14,6 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
-from functools import partial
 
 import numpy as np
 
@@ -27,8 +26,8 @@ from rating.capacity.pins import (
     pin_actions,
     pin_check,
 )
-from rating.lrfr.liveload import live_joint_loads
-from rating.lrfr.positions import panel_point_extremes
+from rating.lrfr.equation import lower_beyond_round_off
+from rating.lrfr.liveload import position_key, position_live_loads
 from rating.model import Pin, TrussGeometry
 
 
@@ -138,15 +137,13 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
 def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
              configs: Sequence[frozenset[str]], envs, dead, dead_f, df: float,
              dead_states, dependent: frozenset[str], paths: PathCache,
-             panel_points: Mapping[str, tuple[Extreme, ...]] | None = None) -> PinRating:
+             panel_points: Mapping[str, tuple[Extreme, ...]]) -> PinRating:
     """Rate one pin for every case (see the module docstring).
 
     Where no member at the joint depends on the counter panels' active set, the forces are
     linear in lam on the dead-load active set and one multiplier search per position does.
     """
     designs = {d.member: d for d in bridge.member_designs}
-    panel_points = panel_points if panel_points is not None else {
-        c.load.id: panel_point_extremes(c.load, g.deck_stations_ft) for c in cases}
     g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
     P_dead, dead_state = dead_states[(g_dc, g_dw)]
     members_here = [m.label for m in g.members_at(pin.joint)]
@@ -178,7 +175,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
     # every distinct envelope row of the members here over the active sets, in search order
     rows_here = envs.distinct(members_here, configs)
     row_vertex: list[int] = []  # index among the case's panel-point positions, else -1
-    case_points: list[tuple[tuple[Extreme, ...], dict]] = []
+    case_points: list[tuple[Extreme, ...]] = []  # panel-point positions of each case
     for ci, case in enumerate(cases):
         im = case.im.value
         unique: dict = {}
@@ -187,20 +184,18 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             for e in (me.max, me.min):
                 if e.position is None and not e.lane_segments_ft:
                     continue
-                unique.setdefault((e.model, e.position, e.lane_segments_ft), e)
+                unique.setdefault(position_key(e), e)
         pts = panel_points.get(case.load.id, ()) if not linear else ()
         # a critical position found by the envelope search stands on a panel-point position
         # to round-off: matched by its station to 1e-6 ft
         vertex = {_station_key(e): n for n, e in enumerate(pts)}
-        case_points.append((pts, vertex))
+        case_points.append(pts)
         for key, e in unique.items():
             row_case.append(ci)
             row_key.append(key)
             row_ext.append(e)
             row_vertex.append(vertex.get(_station_key(e), -1) if vertex else -1)
-            # gamma_LL = 1 here: one path serves every rating level of the load
-            row_P.append(paths.live_loads((case.load.id, im, key), partial(
-                live_joint_loads, g, case.load, e, im, df)))
+            row_P.append(position_live_loads(paths, g, case.load, e, im, df))
     n_rows = len(row_P)
     lams = np.full(n_rows, np.inf)
     N_at = np.zeros((n_rows, len(idx)))  # member forces at the joint at lam, finite rows
@@ -262,13 +257,11 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             keys, Ps, cis, exts, verts = [], [], [], [], []
             for ci, e, v in new_rows:
                 case = cases[ci]
-                key = (e.model, e.position, e.lane_segments_ft)
-                keys.append(key)
+                keys.append(position_key(e))
                 exts.append(e)
                 cis.append(ci)
                 verts.append(v)
-                Ps.append(paths.live_loads((case.load.id, case.im.value, key), partial(
-                    live_joint_loads, g, case.load, e, case.im.value, df)))
+                Ps.append(position_live_loads(paths, g, case.load, e, case.im.value, df))
             lam_x, N_x, slack_x = walk(keys, Ps, cis)
             lams = np.concatenate([lams, lam_x])
             N_at = np.concatenate([N_at, N_x])
@@ -284,7 +277,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
         # 8 % of the case's least, where the least of the path lies (rating.lrfr.positions)
         for _ in range(4):  # until no position near the least is left unfollowed
             new_rows = []
-            for ci, (pts, _vertex) in enumerate(case_points):
+            for ci, pts in enumerate(case_points):
                 ks = [k for k in range(len(row_key)) if row_case[k] == ci]
                 if not pts or not ks:
                     continue
@@ -325,10 +318,9 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                     continue
                 if slack_at[ka] == slack_at[kb] or min(lams[ka], lams[kb]) > 1.1 * best:
                     continue
-                Pa = paths.live_loads((cases[ci].load.id, cases[ci].im.value, row_key[ka]),
-                                      lambda: None)
-                Pb = paths.live_loads((cases[ci].load.id, cases[ci].im.value, row_key[kb]),
-                                      lambda: None)
+                im = cases[ci].im.value
+                Pa = position_live_loads(paths, g, cases[ci].load, row_ext[ka], im, df)
+                Pb = position_live_loads(paths, g, cases[ci].load, row_ext[kb], im, df)
                 lkey = (cases[ci].load.id, cases[ci].im.value)
                 for ln in _bar_zero_lines(family, idx, P_dead, Pa, Pb,
                                           (slack_at[ka], slack_at[kb]), paths,
@@ -370,7 +362,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
             continue
         what = "pin bearing" if u_b[k] >= u_fs[k] else "pin flexure and shear"
         ratings[case.id] = PinCaseRating(case.id, lam, what, row_ext[k], None)
-        if lam < worst_lam - 1e-9 * max(abs(worst_lam), 1.0) or worst_k < 0:
+        if worst_k < 0 or lower_beyond_round_off(lam, worst_lam):
             worst_k, worst_lam = k, lam
     if worst_k >= 0:
         # the full pin check (sections, plates, balance) at the rating load level of the
