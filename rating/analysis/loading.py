@@ -16,29 +16,40 @@ import numpy as np
 from rating.model import TrussGeometry
 
 
+def axle_panel_loads(stations_ft: Sequence[float], axle_stations_ft: np.ndarray,
+                     axle_loads_kip: Sequence[float]) -> np.ndarray:
+    """Downward panel-point loads (n_stations, X) of X positions of an axle series, the axle
+    stations given as (X, n_axles); axles off the bridge carry nothing to it."""
+    s = np.asarray(stations_ft, dtype=float)
+    x = np.atleast_2d(np.asarray(axle_stations_ft, dtype=float))
+    w = np.broadcast_to(np.asarray(axle_loads_kip, dtype=float), x.shape)
+    on = (x >= s[0]) & (x <= s[-1])
+    k = np.clip(np.searchsorted(s, x, side="right") - 1, 0, s.size - 2)
+    t = (x - s[k]) / (s[k + 1] - s[k])
+    w = np.where(on, w, 0.0)
+    col = np.broadcast_to(np.arange(x.shape[0])[:, None], x.shape)
+    panel = np.zeros((s.size, x.shape[0]))
+    np.add.at(panel, (k, col), w * (1.0 - t))
+    np.add.at(panel, (k + 1, col), w * t)
+    return panel
+
+
 def axle_joint_loads(geometry: TrussGeometry, axle_stations_ft: Sequence[float],
                      axle_loads_kip: Sequence[float]) -> np.ndarray:
     """(n_joints, 2) downward panel-point loads from axles at ``axle_stations_ft``.
 
     Axles off the bridge carry nothing to it.
     """
-    s = np.asarray(geometry.deck_stations_ft, dtype=float)
-    x = np.asarray(axle_stations_ft, dtype=float)
-    w = np.asarray(axle_loads_kip, dtype=float)
-    on = (x >= s[0]) & (x <= s[-1])
-    x, w = x[on], w[on]
-    k = np.clip(np.searchsorted(s, x, side="right") - 1, 0, s.size - 2)
-    t = (x - s[k]) / (s[k + 1] - s[k])
-    panel = np.zeros(s.size)
-    np.add.at(panel, k, w * (1.0 - t))
-    np.add.at(panel, k + 1, w * t)
+    x = np.asarray(axle_stations_ft, dtype=float)[None, :]
+    panel = axle_panel_loads(geometry.deck_stations_ft, x, axle_loads_kip)[:, 0]
     return _to_joints(geometry, panel)
 
 
-def lane_joint_loads(geometry: TrussGeometry, segments_ft: Sequence[tuple[float, float]],
+def lane_panel_loads(stations_ft: Sequence[float], segments_ft: Sequence[tuple[float, float]],
                      w_klf: float) -> np.ndarray:
-    """(n_joints, 2) panel-point loads from a uniform load ``w_klf`` on the given segments."""
-    s = np.asarray(geometry.deck_stations_ft, dtype=float)
+    """Downward panel-point loads (n_stations,) from a uniform load ``w_klf`` on the given
+    segments."""
+    s = np.asarray(stations_ft, dtype=float)
     panel = np.zeros(s.size)
     for a, b in segments_ft:
         a, b = max(a, s[0]), min(b, s[-1])
@@ -54,7 +65,13 @@ def lane_joint_loads(geometry: TrussGeometry, segments_ft: Sequence[tuple[float,
             t = (centroid - s[k]) / length
             panel[k] += load * (1.0 - t)
             panel[k + 1] += load * t
-    return _to_joints(geometry, panel)
+    return panel
+
+
+def lane_joint_loads(geometry: TrussGeometry, segments_ft: Sequence[tuple[float, float]],
+                     w_klf: float) -> np.ndarray:
+    """(n_joints, 2) panel-point loads from a uniform load ``w_klf`` on the given segments."""
+    return _to_joints(geometry, lane_panel_loads(geometry.deck_stations_ft, segments_ft, w_klf))
 
 
 def _to_joints(geometry: TrussGeometry, panel_loads: np.ndarray) -> np.ndarray:

@@ -192,17 +192,22 @@ def panel_point_positions(stations_ft: Sequence[float], spacings_ft: Sequence[fl
     loads, and every force of one active set, are linear in the vehicle's station (statics
     of the simple-span stringers, common practice).
     """
+    spac = tuple(float(x) for x in spacings_ft)
+    return tuple(VehiclePosition(float(v), direction, spac) for direction in BOTH_DIRECTIONS
+                 for v in panel_point_fronts(stations_ft, spacings_ft, direction))
+
+
+def panel_point_fronts(stations_ft: Sequence[float], spacings_ft: Sequence[float],
+                       direction: Direction) -> np.ndarray:
+    """Front-axle stations (ft, increasing) of every position in ``direction`` with an axle
+    exactly over a deck panel point (see :func:`panel_point_positions`)."""
     s = np.asarray(stations_ft, dtype=float)
     d = axle_offsets_ft(spacings_ft)
-    spac = tuple(float(x) for x in spacings_ft)
     tol = 1e-9 * max(1.0, float(s[-1] - s[0]) + float(d[-1]))
-    out: list[VehiclePosition] = []
-    for direction, sign in ((Direction.FORWARD, 1.0), (Direction.REVERSE, -1.0)):
-        # forward: axle i at x - d_i; reverse: at x + d_i
-        x = np.unique((s[:, None] + sign * d[None, :]).ravel())
-        x = x[np.concatenate(([True], np.diff(x) > tol))] if x.size else x
-        out.extend(VehiclePosition(float(v), direction, spac) for v in x)
-    return tuple(out)
+    sign = 1.0 if direction is Direction.FORWARD else -1.0
+    # forward: axle i at x - d_i; reverse: at x + d_i
+    x = np.unique((s[:, None] + sign * d[None, :]).ravel())
+    return x[np.concatenate(([True], np.diff(x) > tol))] if x.size else x
 
 
 def axle_stations(position: VehiclePosition) -> np.ndarray:

@@ -84,15 +84,19 @@ class LinearTruss:
     members do not make a stable truss.
     """
 
-    def __init__(self, geometry: TrussGeometry, inactive: Iterable[str] = ()) -> None:
+    def __init__(self, geometry: TrussGeometry, inactive: Iterable[str] = (),
+                 shared: tuple[_Topology, np.ndarray] | None = None) -> None:
+        """``shared``: the topology and compatibility matrix of ``geometry`` when the caller
+        has them (they do not depend on the active set)."""
         self.geometry = geometry
         self.inactive = frozenset(inactive)
         unknown = self.inactive - set(geometry.member_index)
         if unknown:
             raise KeyError(f"unknown members {sorted(unknown)}")
-        self._t = _topology(geometry)
-        n_dof = 2 * len(geometry.joints)
-        self._B = _compatibility(self._t, n_dof)
+        if shared is None:
+            t = _topology(geometry)
+            shared = (t, _compatibility(t, 2 * len(geometry.joints)))
+        self._t, self._B = shared
         active = np.array([m.label not in self.inactive for m in geometry.members])
         self.active_mask = active
         k_axial = np.where(active, self._t.area_in2 / self._t.length_ft, 0.0)
@@ -206,24 +210,39 @@ class LinearTruss:
         elong = self._B @ u
         return self._k_axial[:, None] * elong, elong
 
+    @cached_property
+    def redundancy(self) -> np.ndarray:
+        """For each active member, k b' K^-1 b (0 for slack members): 1 where the truss
+        needs the member (leaving it out is a mechanism), less than 1 where others can take
+        its part (the rank-one update of the stiffness, common practice)."""
+        f = self._t.free_dofs
+        Bf = self._B[:, f]
+        return self._k_axial * np.einsum("ij,jk,ik->i", Bf, self._K_inv, Bf)
+
     def elongation(self, displacements: np.ndarray) -> np.ndarray:
         """Member elongations (all members, active or not) for a displacement field."""
         nj = len(self.geometry.joints)
         return self._B @ np.asarray(displacements).reshape(2 * nj, -1)
 
     @cached_property
-    def influence_lines(self) -> InfluenceLines:
-        """Member forces for a 1-kip downward load at each deck panel point (all at once)."""
+    def unit_load_lines(self) -> tuple[np.ndarray, np.ndarray]:
+        """Member forces (kip) and elongations of every member, slack ones included, for a
+        1-kip downward load at each deck panel point: two arrays (n_members, n_deck_points)."""
         g = self.geometry
         nj = len(g.joints)
         P = np.zeros((nj, 2, len(g.deck_joints)))
         for k, label in enumerate(g.deck_joints):
             P[g.joint_index[label], 1, k] = -1.0
-        sol = self.solve(P)
+        return self.forces_and_elongations(P)
+
+    @cached_property
+    def influence_lines(self) -> InfluenceLines:
+        """Member forces for a 1-kip downward load at each deck panel point (all at once)."""
+        g = self.geometry
         return InfluenceLines(
             member_labels=tuple(m.label for m in g.members),
             stations_ft=np.array(g.deck_stations_ft, dtype=float),
-            ordinates=sol.member_forces_kip,
+            ordinates=self.unit_load_lines[0],
         )
 
 
@@ -284,6 +303,8 @@ class TrussFamily:
                                              if m.tension_only)
         self.tension_only_mask = np.array([m.tension_only for m in geometry.members],
                                           dtype=bool)
+        t = _topology(geometry)
+        self._shared = (t, _compatibility(t, 2 * len(geometry.joints)))
 
     def partners(self, member: str) -> frozenset[str]:
         """Tension-only members crossing ``member`` in its panel (its counter or main)."""
@@ -301,7 +322,7 @@ class TrussFamily:
         hit = self._solvers.get(key)
         if hit is None:
             try:
-                hit = LinearTruss(self.geometry, key)
+                hit = LinearTruss(self.geometry, key, self._shared)
             except InstabilityError as exc:
                 hit = exc
             self._solvers[key] = hit

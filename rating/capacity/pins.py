@@ -636,6 +636,11 @@ class PinModel:
             F = F + self.layout.ext_share[:, None] * np.asarray(external_kip)[..., None, :]
         return F
 
+    def project(self, F: np.ndarray) -> np.ndarray:
+        """The checked vectors W @ F (..., K, 2) of point forces F (..., n_points, 2): the
+        moments and shears at every section and each plate's force (see ``__init__``)."""
+        return self._W @ F
+
     def utilization_parts(self, F: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """(flexure and shear, bearing) utilizations, 1.0 at each limit, of each load state
         in the batch (bearing 0 where no plate bears)."""

@@ -22,14 +22,8 @@ import numpy as np
 from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
-from rating.analysis.moving import (
-    Direction,
-    Extreme,
-    MemberEnvelope,
-    envelope,
-    panel_point_positions,
-)
-from rating.analysis.path import PathCache, member_load_multipliers
+from rating.analysis.moving import Extreme, MemberEnvelope, envelope
+from rating.analysis.regions import RegionTable
 from rating.analysis.truss import (
     ActiveSetSolution,
     TrussFamily,
@@ -47,9 +41,10 @@ from rating.lrfr.factors import (
     dynamic_load_allowance,
     live_load_factor,
 )
-from rating.lrfr.liveload import position_key, position_live_loads
+from rating.lrfr.liveload import position_key
+from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points
 from rating.lrfr.pins import PinRating, rate_pin
-from rating.lrfr.positions import panel_point_extremes
+from rating.lrfr.positions import LoadPaths, PositionBatch, PositionSet, runs_of
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
     Bridge,
@@ -393,14 +388,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     DW = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_kip, strict=True)}
 
     dead_states = factored_dead_states(family, dead, dead_f)
-    paths = PathCache(family)
+    table = RegionTable(family, configs)
     live: dict[tuple[str, str], LiveEffect] = {}
     ratings: dict[tuple[str, str], MemberCaseRating] = {}
     envs = EnvelopeSet(lines, configs, dependent)
     distinct_rows = {m.label: envs.distinct([m.label], configs if m.label in dependent
                                             else configs[:1]) for m in g.members}
-    panel_points_of = {c.load.id: panel_point_extremes(c.load, g.deck_stations_ft)
-                       for c in cases}
+    plans_of: dict[str, dict[str, list[_SensePlan]]] = {}
     for case in cases:
         im = case.im.value
         member_envs: dict[str, list[MemberEnvelope]] = {}
@@ -423,64 +417,38 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                     capacities[lab].phi_s, None)
                 continue
             member_envs[lab] = [e for e, _ in mine]
-        # the members whose force depends on the counters' active set: every position, sense
-        # and dead-load factor set of all of them followed together on the exact load path
         plans = {lab: _sense_plans(g.member(lab), capacities[lab], case, DC[lab], DW[lab],
                                    dead_f, df, envs_here, lab in dependent)
                  for lab, envs_here in member_envs.items()}
-        panel_points = panel_points_of[case.load.id]
-        tried = {lab: _multiplier_trials(g, case, plans[lab], dead_states, df, paths,
-                                         panel_points)
-                 for lab in plans if lab in dependent}
-        found_of: dict[str, list] = {lab: [] for lab in tried}
-        _follow_trials(g, {lab: list(ts) for lab, ts in tried.items()}, tried, found_of,
-                       add=False)
-        if panel_points:
-            # the panel-point positions that can lower a rating, then the points between two
-            # of them where the active set at the rating level changes
-            screen = _PanelPointScreen(g, family, case, configs, dead_states, df,
-                                       panel_points)
-            for _ in range(3):
-                # the sets met at the rating level join the bound; positions it can no longer
-                # exclude are followed; until no new position is needed
-                screen.add_states({seg.slack for fs in found_of.values() for _, seg in fs
-                                   if seg is not None})
-                more = {lab: screen.trials(lab, plans[lab], tried[lab],
-                                           min((f[0] for f in found_of[lab]),
-                                               default=math.inf), paths) for lab in tried}
-                if not any(more.values()):
-                    break
-                _follow_trials(g, more, tried, found_of)
-            more = {lab: _kink_trials(g, family, case, lab, tried[lab], found_of[lab], paths,
-                                      dead_states, df, screen.index) for lab in tried}
-            _follow_trials(g, more, tried, found_of)
-        elif tried:
-            # a load with a lane part or a variable spacing: the panel-point positions of the
-            # governing vehicle (its spacing, direction and lane segments) beside its best
-            # position, taken again around every position near the least, then the change
-            # points between them, as for the axle loads above
-            runs: dict = {}
-            for _ in range(4):
-                more = {lab: _local_panel_point_trials(g, case, tried[lab], found_of[lab],
-                                                       paths, dead_states, df, runs)
-                        for lab in tried}
-                if not any(more.values()):
-                    break
-                _follow_trials(g, more, tried, found_of)
-            vertex_index = {key: n for run in runs.values() for key, n in run[1].items()}
-            more = {lab: _kink_trials(g, family, case, lab, tried[lab], found_of[lab], paths,
-                                      dead_states, df, vertex_index) for lab in tried}
-            _follow_trials(g, more, tried, found_of)
-        lam_of = {lab: [lam for lam, _ in fs] for lab, fs in found_of.items()}
-        for lab in plans:
-            ratings[(lab, case.id)] = _rate_member(
-                g.member(lab), capacities[lab], case, DC[lab], DW[lab], plans[lab],
-                lab in dependent, tried.get(lab, []), lam_of.get(lab, []), dead_f)
-
-    pins = tuple(
-        rate_pin(pin, g, family, bridge, cases, configs, envs, dead, dead_f, df,
-                 dead_states, dependent, paths, panel_points_of)
-        for pin in bridge.pins)
+        plans_of[case.id] = plans
+        for lab, pl in plans.items():
+            if lab not in dependent:
+                ratings[(lab, case.id)] = _rate_linear(g.member(lab), capacities[lab], case,
+                                                       DC[lab], DW[lab], pl, dead_f)
+    # The members whose force depends on the counters' active set, and the pins: every
+    # position of every rating load on its exact load path, all at once (one load at one IM
+    # serves all its rating levels: lam is found with gamma_LL = 1)
+    groups: dict[tuple[str, float], list[RatingCase]] = {}
+    for case in cases:
+        groups.setdefault((case.load.id, case.im.value), []).append(case)
+    group_cases = [tuple(gc) for gc in groups.values()]
+    group_plans = [plans_of[gc[0].id] for gc in group_cases]
+    batch = PositionBatch([_positions(g, gc[0], df, envs, distinct_rows, pl, dependent)
+                           for gc, pl in zip(group_cases, group_plans, strict=True)])
+    pieces = {fs: table.pieces(fs, P, state, batch.p) for fs, (P, state) in dead_states.items()}
+    on_path = _member_multipliers(g, table, dead_states, batch, pieces, group_plans, dependent)
+    for gi, (gc, plans) in enumerate(zip(group_cases, group_plans, strict=True)):
+        for case in gc:
+            for lab, pls in plans.items():
+                if lab in dependent:
+                    ratings[(lab, case.id)] = _rate_on_path(
+                        g.member(lab), capacities[lab], case, pls,
+                        [on_path[(gi, lab, pl.sense)] for pl in pls])
+    fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
+    load_paths = LoadPaths(tuple(group_cases), batch, pieces[fs_max], fs_max,
+                           *dead_states[fs_max])
+    pins = tuple(rate_pin(pin, g, bridge, dead, dead_f, table, load_paths, dependent)
+                 for pin in bridge.pins)
     postings = _postings(cases, ratings, pins, g)
     for p in pins:
         warnings.extend(p.warnings)
@@ -522,32 +490,6 @@ class _SensePlan:
     gamma_dw: float
 
 
-@dataclass(frozen=True)
-class _Trial:
-    """One load-multiplier search: a sense, a dead-load factor set and a vehicle position."""
-
-    sense: int
-    extreme: Extreme
-    gamma_dc: float
-    gamma_dw: float
-    path: object  # rating.analysis.path.LazyPath
-    capacity: float
-    panel_point: bool = False  # an axle over a panel point (see _kink_trials)
-
-
-def _trial(g: TrussGeometry, case: RatingCase, e: Extreme, sense: int,
-           factors: tuple[float, float], capacity: float, dead_states, df: float,
-           paths: PathCache, panel_point: bool = False) -> _Trial:
-    """One load-multiplier search: the extreme's loading followed on the exact load path of
-    its dead-load factor set (with gamma_LL = 1, shared through ``paths``)."""
-    im = case.im.value
-    P_dead, state = dead_states[factors]
-    P_live = position_live_loads(paths, g, case.load, e, im, df)
-    path = paths.segments((case.load.id, im, *factors, position_key(e)), P_dead, P_live,
-                          state)
-    return _Trial(sense, e, factors[0], factors[1], path, capacity, panel_point)
-
-
 def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
                  dead_f, df: float, envs, dependent: bool) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
@@ -569,311 +511,176 @@ def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
     return plans
 
 
-def _multiplier_trials(g: TrussGeometry, case: RatingCase, plans: list[_SensePlan],
-                       dead_states, df: float, paths: PathCache,
-                       panel_points: tuple[Extreme, ...] = ()) -> list[_Trial]:
-    """Every load-multiplier search of one member: each sense, each dead-load factor set (whether
+@dataclass(frozen=True, eq=False)
+class _OnPath:
+    """One member and sense on the load paths of every position of one load: lam (gamma_LL
+    = 1) at each candidate, block by block for each dead-load factor set (the maximum first),
+    each block over the same positions ``rows`` (indices of :attr:`_Candidates`)."""
+
+    lam: np.ndarray
+    rows: np.ndarray
+    factor_sets: tuple[tuple[float, float], ...]
+    candidates: _Candidates
+
+    def factors(self, k: int) -> tuple[float, float]:
+        return self.factor_sets[k // self.rows.size]
+
+    def extreme(self, k: int) -> Extreme:
+        return self.candidates.extreme(int(self.rows[k % self.rows.size]))
+
+
+@dataclass(frozen=True, eq=False)
+class _Candidates:
+    """The positions of the batch followed by the points added between them."""
+
+    batch: PositionBatch
+    extra: list[Extreme]
+
+    def extreme(self, j: int) -> Extreme:
+        n = self.batch.size
+        return self.batch.extreme(j) if j < n else self.extra[j - n]
+
+
+def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
+               distinct_rows: dict, plans: dict[str, list[_SensePlan]],
+               dependent: frozenset[str]) -> PositionSet:
+    """The positions of one load searched on the load path: the runs of its vehicle (for a
+    load with a lane part or a variable spacing, of every vehicle at the envelope positions
+    of the members rated on the path), then the envelope positions of every member in every
+    distinct active set (critical for some member or for a pin's members) not on a run."""
+    im = case.im.value
+    loose: dict[tuple, Extreme] = {}
+    for m in g.members:
+        for row, _ in distinct_rows[m.label]:
+            me = envs.of_row(case.load, im, row)
+            for e in (me.max, me.min):
+                if e.position is not None or e.lane_segments_ft:
+                    loose.setdefault(position_key(e), e)
+    # for a load with a lane part or a variable spacing: the vehicle of each such member's
+    # governing extreme (its model, spacing and lane segments) in each sense
+    governing = [pl.extremes[int(np.argmax(pl.ll))] for lab, pls in plans.items()
+                 if lab in dependent for pl in pls]
+    runs = runs_of(case.load, governing)
+    return PositionSet(g.deck_stations_ft, case.load, im, df, list(loose.values()), runs)
+
+
+def _member_multipliers(g: TrussGeometry, table: RegionTable, dead_states,
+                        batch: PositionBatch, pieces: dict,
+                        group_plans: list[dict[str, list[_SensePlan]]],
+                        dependent: frozenset[str]) -> dict[tuple[int, str, int], _OnPath]:
+    """lam of every dependent member in every sense it is rated in, for each load (its index
+    in the batch), at every position of the load and at the points between neighbouring
+    positions that can lower it (rating.lrfr.multiplier), both dead-load factor sets: whether
     the dead load adds to or relieves the effect at the rating level is not known beforehand,
-    a slack counter carries none: both are tried, AASHTO LRFD 3.4.1 [V]) and each critical
-    position. The path is followed under the live load with gamma_LL = 1, so one path serves
-    every rating level of the load (lam scales by 1 / gamma_LL).
-
-    ``panel_points`` only marks the trials that stand on a panel-point position (see
-    :class:`_PanelPointScreen`).
-    """
-    out = []
-    on_panel_points = {position_key(e) for e in panel_points}
-    for pl in plans:
-        unique = {position_key(e): e for e in pl.extremes
-                  if e.position is not None or e.lane_segments_ft}
-        for fs in dead_states:
-            for key, e in unique.items():
-                out.append(_trial(g, case, e, pl.sense, fs, pl.capacity, dead_states, df,
-                                  paths, key in on_panel_points))
+    a slack counter carries none, so both are tried (AASHTO LRFD 3.4.1 [V])."""
+    req: dict[tuple[str, int], float] = {}
+    for plans in group_plans:
+        for lab, pls in plans.items():
+            if lab in dependent:
+                for pl in pls:
+                    req.setdefault((lab, pl.sense), pl.capacity)
+    if not req:
+        return {}
+    keys = list(req)
+    member = np.array([g.member_index[lab] for lab, _ in keys], dtype=int)
+    sense = np.array([s_ for _, s_ in keys], dtype=float)
+    cap = np.array(list(req.values()), dtype=float)
+    n_groups = len(group_plans)
+    used = np.zeros((n_groups, len(keys)), dtype=bool)
+    for gi, plans in enumerate(group_plans):
+        for r, (lab, s_) in enumerate(keys):
+            used[gi, r] = lab in plans and any(pl.sense == s_ for pl in plans[lab])
+    lam = {fs: first_crossings(pc, member, sense, cap)[0] for fs, pc in pieces.items()}
+    best = np.full((n_groups, len(keys)), -np.inf)
+    for gi in range(n_groups):
+        rows = batch.rows(gi)
+        if rows.stop > rows.start:
+            low = np.min([v[rows].min(axis=0) for v in lam.values()], axis=0)
+            best[gi] = np.where(used[gi], low, -np.inf)
+    pairs, ts = [], []
+    per_interval = best[batch.group[batch.intervals[:, 0]]] if batch.intervals.size else best[:0]
+    for pc in pieces.values():
+        i, t = kink_points(pc, batch.intervals, member, sense, cap, per_interval)
+        pairs.append(batch.intervals[i])
+        ts.append(t)
+    extra: list[Extreme] = []
+    extra_group = np.zeros(0, dtype=int)
+    if any(t.size for t in ts):
+        p_new, extra, extra_group = batch.between(np.concatenate(pairs), np.concatenate(ts))
+        for fs, (P, state) in dead_states.items():
+            pc_new = table.pieces(fs, P, state, p_new)
+            lam[fs] = np.concatenate([lam[fs], first_crossings(pc_new, member, sense, cap)[0]])
+    cands = _Candidates(batch, extra)
+    order = tuple(lam)
+    out: dict[tuple[int, str, int], _OnPath] = {}
+    for gi in range(n_groups):
+        rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
+                               batch.size + np.flatnonzero(extra_group == gi)])
+        stacked = np.concatenate([lam[fs][rows] for fs in order], axis=0)
+        for r, (lab, s_) in enumerate(keys):
+            if used[gi, r]:
+                out[(gi, lab, s_)] = _OnPath(stacked[:, r], rows, order, cands)
     return out
 
 
-def _follow_trials(g: TrussGeometry, more: dict[str, list[_Trial]],
-                   tried: dict[str, list[_Trial]], found_of: dict[str, list],
-                   add: bool = True) -> None:
-    """Follow the trials in ``more`` on their load paths, all together, and keep what each
-    found beside it (``add``: the trials are new, append them to ``tried`` too)."""
-    flat = [(lab, t) for lab, ts in more.items() for t in ts]
-    found = member_load_multipliers([(t.path, g.member_index[lab], t.sense, t.capacity)
-                                     for lab, t in flat])
-    for (lab, t), f in zip(flat, found, strict=True):
-        if add:
-            tried[lab].append(t)
-        found_of[lab].append(f)
-
-
-class _PanelPointScreen:
-    """Which panel-point positions can lower a load-multiplier rating, for one case.
-
-    On the load path the member's multiplier is not the ratio of linear effects, so the
-    positions critical for its lines need not hold the least multiplier. In the piece of the
-    path where the member reaches its resistance the active set S is fixed and the forces are
-    N_dead(S) + lam N_live(S, x), so lam(x) = (C - N_dead(S)) / N_live(S, x). Hence
-    lam(x) >= LB(x), the least of that ratio over the active sets the paths can reach: the
-    sets of the counter panels searched for the envelopes, and every set met at the rating
-    level on the paths followed so far (``add_states``). Between two neighbouring panel-point
-    positions every axle stays within its stringer span, N_live(S, x) is linear in x and lam(x)
-    in one set is monotone, so there lam >= min(LB) of the two ends: a position is followed on
-    the exact path when its bound or a neighbour's is below the least multiplier found so far.
-    """
-
-    def __init__(self, g: TrussGeometry, family: TrussFamily, case: RatingCase,
-                 configs: Sequence[frozenset[str]], dead_states, df: float,
-                 panel_points: tuple[Extreme, ...]) -> None:
-        self.g, self.family, self.case, self.df = g, family, case, df
-        self.dead_states = dead_states
-        self.points = panel_points
-        self.keys = [position_key(e) for e in panel_points]
-        self.index = {k: n for n, k in enumerate(self.keys)}
-        mo = case.load.models[0]
-        v = mo.axles
-        self._P_axles = (1.0 + case.im.value) * df * np.asarray(v.axle_loads_kip) * v.axle_scale
-        # axle stations of every position (n, axles): forward x - d, reverse x + d
-        d = np.concatenate(([0.0], np.cumsum(panel_points[0].position.spacings_ft)))
-        front = np.array([e.position.front_axle_ft for e in panel_points])
-        sign = np.array([1.0 if e.position.direction is Direction.FORWARD else -1.0
-                         for e in panel_points])
-        self._X = front[:, None] - sign[:, None] * d[None, :]
-        n = len(panel_points)
-        self._same_dir = np.array([panel_points[k].position.direction
-                                   == panel_points[k + 1].position.direction
-                                   for k in range(n - 1)], dtype=bool)
-        # per active set: the live force of every member at every position (gamma_LL = 1)
-        # and the dead-load solution of each factor set
-        self._states: list[frozenset[str]] = []
-        self._F = np.zeros((0, len(g.members), n))
-        self._dead = {fs: np.zeros((0, len(g.members))) for fs in dead_states}
-        self.add_states(configs)
-
-    def add_states(self, states) -> None:
-        new = [S for S in dict.fromkeys(states)
-               if S not in self._states and self.family.is_stable(S)]
-        if not new:
-            return
-        F, dead = [], {fs: [] for fs in self.dead_states}
-        for S in new:
-            lt = self.family.solver(S)
-            F.append(lt.influence_lines.evaluate(self._X) @ self._P_axles)  # (members, n)
-            for fs, (P, _) in self.dead_states.items():
-                dead[fs].append(lt.forces_and_elongations(P)[0])
-        self._states.extend(new)
-        self._F = np.concatenate([self._F, np.stack(F)])  # (states, members, n)
-        self._dead = {fs: np.concatenate([self._dead[fs], np.stack(d)])
-                      for fs, d in dead.items()}
-
-    def bound(self, member: str, sense: int, capacity: float, fs: tuple[float, float]
-              ) -> np.ndarray:
-        i = self.g.member_index[member]
-        f = sense * self._F[:, i, :]  # (states, n)
-        head = (capacity - sense * self._dead[fs][:, i])[:, None]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            lam = np.where(f > 0, head / np.where(f > 0, f, 1.0), np.inf)
-        return lam.min(axis=0) if lam.size else np.full(len(self.points), np.inf)
-
-    def trials(self, member: str, plans: list[_SensePlan], have: list[_Trial], best: float,
-               paths: PathCache) -> list[_Trial]:
-        """The panel-point trials that can lower ``best`` (lam with gamma_LL = 1) and are not
-        among ``have`` already."""
-        present = {(t.sense, t.gamma_dc, t.gamma_dw, position_key(t.extreme)) for t in have}
-        out = []
-        for pl in plans:
-            for fs in self.dead_states:
-                low = self.bound(member, pl.sense, pl.capacity, fs) < best * (1.0 - 1e-9)
-                pick = low.copy()
-                pick[:-1] |= low[1:] & self._same_dir
-                pick[1:] |= low[:-1] & self._same_dir
-                for k in np.flatnonzero(pick):
-                    if (pl.sense, fs[0], fs[1], self.keys[k]) in present:
-                        continue
-                    out.append(_trial(self.g, self.case, self.points[k], pl.sense, fs,
-                                      pl.capacity, self.dead_states, self.df, paths, True))
-        return out
-
-
-def _local_panel_point_trials(g: TrussGeometry, case: RatingCase, trials: list[_Trial],
-                              found: list[tuple[float, object]], paths: PathCache,
-                              dead_states, df: float, runs: dict) -> list[_Trial]:
-    """For a load with a lane part or a variable spacing: the panel-point positions of the
-    vehicle of the member's best trial (same model, spacing, lane segments and dead-load
-    factors), in both directions, three each side of it (and of the same stretch of deck
-    driven the other way) and of every such position within 8 % of the least, not followed
-    yet. ``runs`` keeps each vehicle's positions and their order, by direction."""
-    lams = [lam for lam, _ in found]
-    finite = [k for k, lam in enumerate(lams) if math.isfinite(lam) and lam >= 0.0]
-    if not finite:
-        return []
-    k_best = min(finite, key=lambda k: lams[k])
-    best, t_best = lams[k_best], trials[k_best]
-    e = t_best.extreme
-    mo = next((m for m in case.load.models if m.name == e.model), None)
-    if e.position is None or mo is None or mo.axles is None:
-        return []
-    length = float(sum(e.position.spacings_ft))
-    fs = (t_best.gamma_dc, t_best.gamma_dw)
-    out = []
-    for direction in (Direction.FORWARD, Direction.REVERSE):
-        run_key = (e.model, direction, e.position.spacings_ft, e.lane_segments_ft)
-        if run_key not in runs:
-            pts = [replace(e, position=pos) for pos in
-                   panel_point_positions(g.deck_stations_ft, e.position.spacings_ft)
-                   if pos.direction is direction]
-            runs[run_key] = (pts, {position_key(q): n for n, q in enumerate(pts)})
-        pts, index = runs[run_key]
-        if not pts:
-            continue
-        fronts = np.array([q.position.front_axle_ft for q in pts])
-        x = e.position.front_axle_ft
-        if direction is not e.position.direction:  # the same stretch, driven the other way
-            x = x + length if direction is Direction.FORWARD else x - length
-        centres = {int(np.argmin(np.abs(fronts - x)))}
-        have: set[int] = set()
-        for t, lam in zip(trials, lams, strict=True):
-            n = index.get(position_key(t.extreme))
-            if n is not None and (t.sense, t.gamma_dc, t.gamma_dw) == (t_best.sense, *fs):
-                have.add(n)
-                if math.isfinite(lam) and lam <= 1.08 * best:
-                    centres.add(n)
-        for n in sorted({c + d for c in centres for d in range(-3, 4)}):
-            if not 0 <= n < len(pts) or n in have:
-                continue
-            have.add(n)
-            out.append(_trial(g, case, pts[n], t_best.sense, fs, t_best.capacity,
-                              dead_states, df, paths, True))
-    return out
-
-
-def _kink_trials(g: TrussGeometry, family: TrussFamily, case: RatingCase, member: str,
-                 trials: list[_Trial], found: list[tuple[float, object]], paths: PathCache,
-                 dead_states, df: float, vertex_index: dict) -> list[_Trial]:
-    """Positions between two neighbouring panel-point positions where the active set at the
-    rating level changes (a counter taking over just as the member reaches its resistance):
-    there the multiplier can have a minimum that no panel-point position shows.
-
-    Between the two positions every axle stays in its stringer span, so in the active set S
-    found at either end the member force and the force (or stretch) of each tension-only bar
-    whose state differs at the other end are linear in the station t and in lam: the member
-    at its resistance and that bar at zero are two equations, linear in lam and lam t, solved
-    exactly (Cramer's rule). A point is followed on the exact load path, like any other
-    position, when its lam so found is below the least lam found so far (a point that cannot
-    lower the rating is not followed).
-    """
-    im = case.im.value
-    i = g.member_index[member]
-    best = min((lam for lam, _ in found), default=math.inf)
-    if not math.isfinite(best):
-        return []
-    by_run: dict[tuple, dict[int, int]] = {}
-    for k, t in enumerate(trials):
-        if t.panel_point:
-            e = t.extreme
-            v = vertex_index.get(position_key(e))
-            if v is None:
-                continue
-            # one run per direction and per axle spacing and lane (their own positions)
-            by_run.setdefault((t.sense, t.gamma_dc, t.gamma_dw, e.position.direction,
-                               e.model, e.position.spacings_ft, e.lane_segments_ft),
-                              {})[v] = k
-    out: list[_Trial] = []
-    seen: set[tuple] = set()
-    for (sense, gd, gw, direction, *_), at in by_run.items():
-        P_dead = dead_states[(gd, gw)][0]
-        for v in sorted(at):
-            if v + 1 not in at:
-                continue  # only neighbouring panel-point positions (no station between)
-            ka, kb = at[v], at[v + 1]
-            (_, seg_a), (_, seg_b) = found[ka], found[kb]
-            if seg_a is None or seg_b is None or seg_a.slack == seg_b.slack:
-                continue
-            ea, eb = trials[ka].extreme, trials[kb].extreme
-            xa, xb = ea.position.front_axle_ft, eb.position.front_axle_ft
-            ka_key = (case.load.id, im, position_key(ea))
-            kb_key = (case.load.id, im, position_key(eb))
-            Pa = position_live_loads(paths, g, case.load, ea, im, df)
-            Pb = position_live_loads(paths, g, case.load, eb, im, df)
-            switching = [family.labels.index(lab) for lab in seg_a.slack ^ seg_b.slack]
-            C = trials[ka].capacity
-            for S in (seg_a.slack, seg_b.slack):
-                n_d, e_d = paths.solved(S, ("dead", gd, gw), P_dead)
-                n_a, e_a = paths.solved(S, ka_key, Pa)
-                n_b, e_b = paths.solved(S, kb_key, Pb)
-                a1, b1 = sense * n_a[i], sense * (n_b[i] - n_a[i])
-                c1 = C - sense * n_d[i]
-                for j in switching:
-                    if family.labels[j] in S:  # slack in S: it comes in when stretched
-                        a2, b2, c2 = e_a[j], e_b[j] - e_a[j], -e_d[j]
-                    else:  # active in S: it goes slack at zero force
-                        a2, b2, c2 = n_a[j], n_b[j] - n_a[j], -n_d[j]
-                    det = a1 * b2 - a2 * b1
-                    if abs(det) <= 1e-12 * max(abs(a1 * b2), abs(a2 * b1), 1e-300):
-                        continue
-                    u = (c1 * b2 - c2 * b1) / det  # lam
-                    w = (a1 * c2 - a2 * c1) / det  # lam * t
-                    if not 0.0 < u < best * (1.0 - 1e-9):
-                        continue
-                    t_k = w / u
-                    if not 0.0 < t_k < 1.0:
-                        continue
-                    x = round(xa + t_k * (xb - xa), 9)
-                    if (x, gd, gw, direction, ea.lane_segments_ft) in seen:
-                        continue
-                    seen.add((x, gd, gw, direction, ea.lane_segments_ft))
-                    e = replace(ea, position=replace(ea.position, front_axle_ft=x))
-                    out.append(_trial(g, case, e, sense, (gd, gw), C, dead_states, df, paths))
-    return out
-
-
-def _rate_member(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
-                 plans: list[_SensePlan], dependent: bool, trials: list[_Trial],
-                 lams: list[float], dead_f) -> MemberCaseRating:
-    """The member's rating for one case: the linear equation (MBE 6A.4.2.1 [value from
-    memory]) where its line does not depend on the counters' active set, else the least live
-    load multiplier of its trials (``lams``, found with gamma_LL = 1)."""
-    im = case.im.value
-    g_ll = case.gamma_ll.value
+def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
+                 plans: list[_SensePlan], dead_f) -> MemberCaseRating:
+    """The member's rating for one case by the linear equation on its envelope, where its line
+    does not depend on the counters' active set (MBE 6A.4.2.1 [value from memory])."""
     best: MemberCaseRating | None = None
     for pl in plans:
-        check = pl.check
-        phi = check.phi if check is not None else 0.0
-        check_name = check.name if check is not None else "no compression resistance"
-        finding = check.finding if check is not None else None
-        g_dc, g_dw = pl.gamma_dc, pl.gamma_dw
-        mine = [(t, lam) for t, lam in zip(trials, lams, strict=True) if t.sense == pl.sense]
-        if not dependent:
-            k = int(np.argmax(pl.ll))
-            r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k]),
-                              g_ll, dead_f)
-            rf, method, ext = r.rf, "linear", pl.extremes[k]
-        else:
-            rf, ext = math.inf, None
-            # Where the factored dead load alone is past the resistance the multiplier is the
-            # (negative) extrapolation (C - dead) / live, and the rating is the one with the
-            # largest live-load effect, the least negative, as the linear equation gives it
-            # (a position barely loading the member would give -inf); else the least.
-            past = [(t, lam_1) for t, lam_1 in mine if lam_1 < 0.0]
-            if past:
-                finite = [(t, lam_1) for t, lam_1 in past if math.isfinite(lam_1)]
-                t, lam_1 = max(finite, key=lambda q: q[1]) if finite else past[0]
-                rf, ext, g_dc, g_dw = lam_1 / g_ll, t.extreme, t.gamma_dc, t.gamma_dw
-            for t, lam_1 in ([] if past else mine):
-                lam = lam_1 / g_ll
-                if lower_beyond_round_off(lam, rf):
-                    rf, ext, g_dc, g_dw = lam, t.extreme, t.gamma_dc, t.gamma_dw
-            method = "load multiplier"
-            if ext is None:
-                continue
-        cand = MemberCaseRating(m.label, case.id, float(rf), pl.name, check_name, method, g_dc,
-                                g_dw, g_ll, im, phi, cap.phi_c, cap.phi_s, ext, finding)
+        k = int(np.argmax(pl.ll))
+        r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k]),
+                          case.gamma_ll.value, dead_f)
+        cand = _record(m, cap, case, pl, r.rf, "linear", pl.gamma_dc, pl.gamma_dw,
+                       pl.extremes[k])
         if best is None or cand.rf < best.rf:
             best = cand
-    if best is None:
-        return MemberCaseRating(m.label, case.id, math.inf, "", "not loaded by this vehicle",
-                                "linear", 0.0, 0.0, g_ll, im, 0.0, cap.phi_c, cap.phi_s, None)
-    return best
+    return best if best is not None else _not_loaded(cap, m.label, case)
+
+
+def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[_SensePlan],
+                  found: list[_OnPath]) -> MemberCaseRating:
+    """The member's rating for one case: the least live-load multiplier over its candidates
+    (found with gamma_LL = 1). Where the factored dead load alone is past the resistance the
+    multiplier is the (negative) extrapolation (C - dead) / live, and the rating is the one
+    with the largest live-load effect, the least negative, as the linear equation gives it (a
+    position barely loading the member would give -inf)."""
+    g_ll = case.gamma_ll.value
+    best: MemberCaseRating | None = None
+    for pl, op in zip(plans, found, strict=True):
+        lam = op.lam
+        past = lam < 0.0
+        if past.any():
+            finite = past & np.isfinite(lam)
+            k = (int(np.flatnonzero(finite)[np.argmax(lam[finite])]) if finite.any()
+                 else int(np.flatnonzero(past)[0]))
+        else:
+            k = first_of_least(lam)
+            if not math.isfinite(lam[k]):
+                continue
+        g_dc, g_dw = op.factors(k)
+        cand = _record(m, cap, case, pl, float(lam[k]) / g_ll, "load multiplier", g_dc, g_dw,
+                       op.extreme(k))
+        if best is None or cand.rf < best.rf:
+            best = cand
+    return best if best is not None else _not_loaded(cap, m.label, case)
+
+
+def _record(m: Member, cap: MemberCapacity, case: RatingCase, pl: _SensePlan, rf: float,
+            method: str, g_dc: float, g_dw: float, ext: Extreme | None) -> MemberCaseRating:
+    check = pl.check
+    return MemberCaseRating(
+        m.label, case.id, float(rf), pl.name,
+        check.name if check is not None else "no compression resistance", method, g_dc, g_dw,
+        case.gamma_ll.value, case.im.value, check.phi if check is not None else 0.0,
+        cap.phi_c, cap.phi_s, ext, check.finding if check is not None else None)
+
+
+def _not_loaded(cap: MemberCapacity, label: str, case: RatingCase) -> MemberCaseRating:
+    return MemberCaseRating(label, case.id, math.inf, "", "not loaded by this vehicle",
+                            "linear", 0.0, 0.0, case.gamma_ll.value, case.im.value, 0.0,
+                            cap.phi_c, cap.phi_s, None)
 
 
 def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:

@@ -1,25 +1,26 @@
 """Rating of pins with the concurrent forces of one vehicle position at a time.
 
-For a pin at joint J the candidate positions are every position that is critical (max or min)
-for any member meeting at J, in any active set; at each the forces of ALL members at J come
-from the same loading (never a sum of separate maxima). Along the exact load path of factored
-dead load + lam x factored (LL + IM) (docs/tension-only.md) the member forces are linear in lam
-within each piece, and the pin's utilization (AASHTO LRFD 6.7.6.2.1 / 6.7.6.2.2 [value from
-memory], see rating.capacity.pins) is driven to 1.0 piece by piece. The RF is the least lam.
-Dead load on pins takes the maximum load factors (it adds to the pin forces; common practice).
+For a pin at joint J the forces of ALL members at J come from the same loading (never a sum of
+separate maxima). Along the exact load path of factored dead load + lam x factored (LL + IM)
+(docs/tension-only.md) the member forces are linear in lam within each piece, and the pin's
+utilization (AASHTO LRFD 6.7.6.2.1 / 6.7.6.2.2 [value from memory], see rating.capacity.pins)
+is convex in lam there: the first piece whose end reaches the limit holds the crossing. The RF
+is the least lam over every vehicle position searched for the load (rating.lrfr.positions:
+the runs of panel-point positions and the envelope positions), and over the points between
+two neighbouring positions where the active set at the pin's limit changes. Dead load on pins
+takes the maximum load factors (it adds to the pin forces; common practice).
 """
 
 from __future__ import annotations
 
 import math
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
 from dataclasses import dataclass, replace
 
 import numpy as np
 
 from rating.analysis.moving import Extreme
-from rating.analysis.path import PathCache
-from rating.analysis.truss import TrussFamily
+from rating.analysis.regions import Pieces, RegionTable
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
@@ -27,7 +28,8 @@ from rating.capacity.pins import (
     pin_check,
 )
 from rating.lrfr.equation import lower_beyond_round_off
-from rating.lrfr.liveload import position_key, position_live_loads
+from rating.lrfr.multiplier import first_of_least
+from rating.lrfr.positions import LoadPaths
 from rating.model import Pin, TrussGeometry
 
 
@@ -58,31 +60,25 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
-def _station_key(e: Extreme) -> tuple | None:
-    """A position of a fixed-spacing load by its model, direction and front station to
-    1e-6 ft (the spacings are the load's own)."""
-    if e.position is None or e.lane_segments_ft:
-        return None
-    pos = e.position
-    return (e.model, pos.direction, round(pos.front_axle_ft, 6))
-
-
-def _bar_zero_lines(family: TrussFamily, idx: list[int], P_dead: np.ndarray,
-                    Pa: np.ndarray, Pb: np.ndarray,
-                    states: tuple[frozenset[str], frozenset[str]], paths: PathCache,
-                    keys: tuple) -> list[tuple]:
-    """For two panel-point positions (live loads ``Pa``, ``Pb``) whose active sets at the
-    rating level differ: in the set at either end, each bar whose state differs between the
-    ends passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
+def _bar_zero_lines(table: RegionTable, pc: Pieces, P_dead_key, P_dead: np.ndarray,
+                    p: np.ndarray, idx: list[int], a: int, b: int, sets: tuple[int, int]
+                    ) -> list[tuple]:
+    """For two neighbouring positions ``a``, ``b`` of a run whose active sets at the pin's
+    limit differ: in the set at either end, each bar whose state differs between the ends
+    passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
     forces at the joint are N_dead + lam (N_a + t dN), t the station between the ends (0..1).
     Returns (N_dead, N_a, dN, a, b, c) for each."""
     out = []
-    labels = family.labels
-    for S in states:
-        n_d, e_d = paths.solved(S, keys[0], P_dead)
-        n_a, e_a = paths.solved(S, keys[1], Pa)
-        n_b, e_b = paths.solved(S, keys[2], Pb)
-        for lab in sorted(states[0] ^ states[1]):
+    labels = table.family.labels
+    slack = (table.slack[sets[0]], table.slack[sets[1]])
+    Fd, Ed = table.dead(P_dead_key, P_dead)
+    for k in sets:
+        S = table.slack[k]
+        n_d, e_d = Fd[k], Ed[k]
+        n_a, n_b = pc.L[k, a], pc.L[k, b]
+        e_ab = table.live_elongations(k, p[:, [a, b]])
+        e_a, e_b = e_ab[:, 0], e_ab[:, 1]
+        for lab in sorted(slack[0] ^ slack[1]):
             j = labels.index(lab)
             abc = ((e_a[j], e_b[j] - e_a[j], e_d[j]) if lab in S
                    else (n_a[j], n_b[j] - n_a[j], n_d[j]))
@@ -134,21 +130,117 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
     return out
 
 
-def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
-             configs: Sequence[frozenset[str]], envs, dead, dead_f, df: float,
-             dead_states, dependent: frozenset[str], paths: PathCache,
-             panel_points: Mapping[str, tuple[Extreme, ...]]) -> PinRating:
-    """Rate one pin for every case (see the module docstring).
+def _pin_crossings(model: PinModel, unit: np.ndarray, idx: list[int], pc: Pieces,
+                   group: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """On each position's path, the least lam at which the pin reaches its limit: lam (X,)
+    (inf where it does not up to the path's end), the forces of the members at the joint
+    there (X, n) and the piece it lies in (X,), -1 for none. The first piece whose end
+    reaches the limit holds it (the utilization is convex in lam within a piece); 0 where
+    the factored dead load alone reaches it.
 
-    Where no member at the joint depends on the counter panels' active set, the forces are
-    linear in lam on the dead-load active set and one multiplier search per position does.
-    """
+    Only the least over the positions of each load (``group``, (X,)) is needed, so a position
+    is solved only as far as needed to show that it cannot be the least of its load: its lam
+    is then a lower bound, above that least beyond round-off (:func:`_least_roots`)."""
+    X = pc.n_loadings
+    valid = pc.k >= 0
+    lo = np.where(valid, pc.lo, 0.0)
+    ln = np.where(valid, pc.hi, 0.0) - lo
+    Nl = pc.N_live[:, :, idx]
+    N0 = pc.N_dead[:, :, idx] + lo[:, :, None] * Nl
+    # every vector the pin check needs is linear in the member forces: projected once
+    T = _projector(model, unit)
+    G0 = np.matmul(N0, T).reshape(*N0.shape[:2], -1, 2)
+    G1 = np.matmul(Nl, T).reshape(*Nl.shape[:2], -1, 2)
+    reach = valid & (model._utilization_projected(G0 + ln[:, :, None, None] * G1) >= 1.0)
+    has = reach.any(axis=1)
+    j = np.argmax(reach, axis=1)
+    lam = np.full(X, np.inf)
+    N_at = np.zeros((X, len(idx)))
+    rows = np.flatnonzero(has)
+    if rows.size:
+        jr = j[rows]
+        rel = _least_roots(model, G0[rows, jr], G1[rows, jr], lo[rows, jr], ln[rows, jr],
+                           group[rows])
+        lam[rows] = lo[rows, jr] + rel
+        N_at[rows] = N0[rows, jr] + rel[:, None] * Nl[rows, jr]
+    return lam, N_at, np.where(has, j, -1)
+
+
+def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
+    """(n_members, K * 2): the checked vectors of the pin (rating.capacity.pins.PinModel)
+    for a unit force in each member at the joint, with the pin kept in balance."""
+    eye = np.eye(unit.shape[0])
+    G = model.project(model.point_forces(eye, _balancing(unit, eye)))
+    return G.reshape(unit.shape[0], -1)
+
+
+def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray,
+                 ln: np.ndarray, group: np.ndarray) -> np.ndarray:
+    """For each row, lam in [0, ln] where the utilization of G0 + lam G1 reaches 1.0 (it
+    does at ln; it is convex in lam): the root (to 1e-12) where lo + lam can be the least of
+    its group, a lower bound above that least elsewhere.
+
+    The bracket of every root is narrowed by the Illinois regula falsi (as
+    rating.capacity.pins.PinModel.multipliers); on the convex utilization the chord of the
+    bracket crosses 1.0 before it does, so a row whose chord crossing is above the least
+    bracket end of its group beyond round-off cannot hold the least and is dropped."""
+    n = lo.size
+    util = model._utilization_projected
+    a = np.zeros(n)
+    b = ln.astype(float).copy()
+    fa = util(G0) - 1.0
+    fb = util(G0 + b[:, None, None] * G1) - 1.0
+    sa, sb = fa.copy(), fb.copy()  # Illinois-scaled values
+    side = np.zeros(n, dtype=int)
+    out = np.zeros(n)
+    live = np.flatnonzero(fa < 0.0)  # else the factored dead load alone reaches the limit
+    groups, pos = np.unique(group, return_inverse=True)
+    for _ in range(100):
+        if not live.size:
+            break
+        al, bl = a[live], b[live]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            chord = al - fa[live] * (bl - al) / (fb[live] - fa[live])
+        chord = np.where(np.isfinite(chord), np.clip(chord, al, bl), al)
+        least = np.full(groups.size, np.inf)
+        np.minimum.at(least, pos[live], lo[live] + bl)
+        keep = lo[live] + chord <= least[pos[live]] * (1.0 + 1e-9) + 1e-12
+        out[live[~keep]] = chord[~keep]  # a lower bound above the least
+        live = live[keep]
+        al, bl = a[live], b[live]
+        d = sb[live] - sa[live]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            x = np.where(d != 0.0, bl - sb[live] * (bl - al) / np.where(d != 0.0, d, 1.0),
+                         0.5 * (al + bl))
+        x = np.where((al < x) & (x < bl), x, 0.5 * (al + bl))
+        f = util(G0[live] + x[:, None, None] * G1[live]) - 1.0
+        right = f >= 0.0
+        sd = side[live]
+        sa[live] = np.where(right & (sd == 1), 0.5 * sa[live], sa[live])
+        sb[live] = np.where(~right & (sd == -1), 0.5 * sb[live], sb[live])
+        b[live] = np.where(right, x, bl)
+        fb[live] = np.where(right, f, fb[live])
+        sb[live] = np.where(right, f, sb[live])
+        a[live] = np.where(right, al, x)
+        fa[live] = np.where(right, fa[live], f)
+        sa[live] = np.where(right, sa[live], f)
+        side[live] = np.where(right, 1, -1)
+        close = np.abs(f) < 1e-13
+        done = close | (b[live] - a[live] <= 1e-12 * np.maximum(lo[live] + b[live], 1.0))
+        out[live[done]] = np.where(close[done], x[done], b[live[done]])
+        live = live[~done]
+    out[live] = b[live]
+    return out
+
+
+def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, table: RegionTable,
+             loads: LoadPaths, dependent: frozenset[str]) -> PinRating:
+    """Rate one pin for every case of every load (see the module docstring). ``loads``: the
+    positions of the rating loads with their paths under the maximum dead-load factors."""
     designs = {d.member: d for d in bridge.member_designs}
     g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
-    P_dead, dead_state = dead_states[(g_dc, g_dw)]
     members_here = [m.label for m in g.members_at(pin.joint)]
     linear = not (set(members_here) & dependent)
-    ratings: dict[str, PinCaseRating] = {}
     idx = [g.member_index[lab] for lab in members_here]
     jt = g.joint(pin.joint)
     dirs = []
@@ -165,214 +257,73 @@ def rate_pin(pin: Pin, g: TrussGeometry, family: TrussFamily, bridge, cases,
                                                 strict=True))),
         external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs)
     model = PinModel(pin, members_here, dirs, designs=designs)
-    solver = family.solver(dead_state.slack)
-    N0 = dead_state.solution.member_forces_kip[idx]
-    # every candidate position of every case, searched together
-    row_case: list[int] = []
-    row_key: list[tuple] = []
-    row_ext: list[Extreme] = []
-    row_P: list[np.ndarray] = []
-    # every distinct envelope row of the members here over the active sets, in search order
-    rows_here = envs.distinct(members_here, configs)
-    row_vertex: list[int] = []  # index among the case's panel-point positions, else -1
-    case_points: list[tuple[Extreme, ...]] = []  # panel-point positions of each case
-    for ci, case in enumerate(cases):
-        im = case.im.value
-        unique: dict = {}
-        for row, _ in rows_here:
-            me = envs.of_row(case.load, im, row)
-            for e in (me.max, me.min):
-                if e.position is None and not e.lane_segments_ft:
-                    continue
-                unique.setdefault(position_key(e), e)
-        pts = panel_points.get(case.load.id, ()) if not linear else ()
-        # a critical position found by the envelope search stands on a panel-point position
-        # to round-off: matched by its station to 1e-6 ft
-        vertex = {_station_key(e): n for n, e in enumerate(pts)}
-        case_points.append(pts)
-        for key, e in unique.items():
-            row_case.append(ci)
-            row_key.append(key)
-            row_ext.append(e)
-            row_vertex.append(vertex.get(_station_key(e), -1) if vertex else -1)
-            row_P.append(position_live_loads(paths, g, case.load, e, im, df))
-    n_rows = len(row_P)
-    lams = np.full(n_rows, np.inf)
-    N_at = np.zeros((n_rows, len(idx)))  # member forces at the joint at lam, finite rows
-    if n_rows and linear:
-        # forces at this joint are linear in lam on the dead-load active set
-        N_live = solver.solve(np.stack(row_P, axis=-1)).member_forces_kip[idx].T
-        F_base = model.point_forces(N0, _balancing(unit, N0))
-        lams = model.multipliers(F_base, model.point_forces(N_live, _balancing(unit, N_live)))
-        fin = np.isfinite(lams)
-        N_at[fin] = N0 + lams[fin, None] * N_live[fin]
-    elif n_rows:
-        # piecewise linear along each position's exact load path, followed piece by piece
-        # for all positions together until each reaches the limit (or its path ends): the
-        # first piece whose end reaches it holds the crossing
-        def walk(keys, Ps, cis):
-            n = len(keys)
-            lam_w, N_w = np.full(n, np.inf), np.zeros((n, len(idx)))
-            slack_w: list = [None] * n
-            walks = {k: paths.segments((cases[cis[k]].load.id, cases[cis[k]].im.value, g_dc,
-                                        g_dw, keys[k]), P_dead, Ps[k], dead_state)
-                     for k in range(n)}
-            picked = []
-            piece = 0
-            while walks:
-                PathCache.follow(list(walks.values()), piece)
-                step = [(k, sg) for k, lp in walks.items()
-                        if (sg := lp.piece(piece)) is not None]
-                if not step:
-                    break
-                walks = {k: walks[k] for k, _ in step}
-                n0a = np.array([sg.forces(sg.lam_start)[idx] for _, sg in step])
-                n1a = np.array([sg.N_live[idx] for _, sg in step])
-                ln = np.array([sg.lam_end - sg.lam_start for _, sg in step])
-                F0a = model.point_forces(n0a, _balancing(unit, n0a))
-                F1a = model.point_forces(n1a, _balancing(unit, n1a))
-                reach = model.utilization(F0a + ln[:, None, None] * F1a) >= 1.0
-                for i in np.nonzero(reach)[0]:
-                    k, sg = step[i]
-                    picked.append((k, sg.lam_start, float(ln[i]), F0a[i], F1a[i], n0a[i],
-                                   n1a[i]))
-                    slack_w[k] = sg.slack
-                    del walks[k]
-                piece += 1
-            if picked:
-                ks = np.array([t[0] for t in picked])
-                ln = np.array([t[2] for t in picked])
-                rel = np.minimum(model.multipliers(np.stack([t[3] for t in picked]),
-                                                   np.stack([t[4] for t in picked]),
-                                                   upper=ln), ln)
-                lam_w[ks] = np.array([t[1] for t in picked]) + rel
-                N_w[ks] = np.stack([t[5] for t in picked]) + rel[:, None] * np.stack(
-                    [t[6] for t in picked])
-            return lam_w, N_w, slack_w
-
-        lams, N_at, slack_at = walk(row_key, row_P, row_case)
-
-        def add_rows(new_rows):
-            nonlocal lams, N_at, slack_at
-            keys, Ps, cis, exts, verts = [], [], [], [], []
-            for ci, e, v in new_rows:
-                case = cases[ci]
-                keys.append(position_key(e))
-                exts.append(e)
-                cis.append(ci)
-                verts.append(v)
-                Ps.append(position_live_loads(paths, g, case.load, e, case.im.value, df))
-            lam_x, N_x, slack_x = walk(keys, Ps, cis)
-            lams = np.concatenate([lams, lam_x])
-            N_at = np.concatenate([N_at, N_x])
-            slack_at = slack_at + slack_x
-            row_case.extend(cis)
-            row_key.extend(keys)
-            row_ext.extend(exts)
-            row_vertex.extend(verts)
-            return lam_x
-
-        # On the load path the pin's multiplier is not a ratio of linear effects: the
-        # panel-point positions beside the critical ones (two each side) that come within
-        # 8 % of the case's least, where the least of the path lies (rating.lrfr.positions)
-        for _ in range(4):  # until no position near the least is left unfollowed
-            new_rows = []
-            for ci, pts in enumerate(case_points):
-                ks = [k for k in range(len(row_key)) if row_case[k] == ci]
-                if not pts or not ks:
-                    continue
-                best = float(lams[ks].min())
-                if not math.isfinite(best):
-                    continue
-                have = {row_vertex[k] for k in ks if row_vertex[k] >= 0}
-                near = sorted({row_vertex[k] + d for k in ks
-                               if row_vertex[k] >= 0 and lams[k] <= 1.08 * best
-                               for d in range(-2, 3)})
-                for n in near:
-                    if 0 <= n < len(pts) and n not in have:
-                        have.add(n)
-                        new_rows.append((ci, pts[n], n))
-            if not new_rows:
-                break
-            add_rows(new_rows)
-        n_rows = len(row_key)
-        # Between two neighbouring panel-point positions the pin's multiplier in one active
-        # set is least at an end (1 / a convex gauge of forces linear in the station); where
-        # the active set at the rating level changes between them it can dip, to where the
-        # pin reaches its limit just as a bar of the changing panel passes zero. In the set
-        # at either end that bar's zero gives lam as a function of the station, and the pin
-        # check along it is searched (grid of 16, then bisection); each point found is
-        # followed on the exact path like any other position.
-        kink_rows, lines, where = [], [], []
-        for ci in range(len(cases)):
-            here = [k for k in range(n_rows) if row_case[k] == ci and row_vertex[k] >= 0]
-            if not here:
+    ratings: dict[str, PinCaseRating] = {}
+    worst: tuple[float, str, np.ndarray] | None = None
+    batch, pc = loads.positions, loads.pieces
+    lam, N_at, slot = _pin_crossings(model, unit, idx, pc, batch.group)
+    extra: list[Extreme] = []
+    extra_group = np.zeros(0, dtype=int)
+    if not linear and batch.intervals.size and np.isfinite(lam).any():
+        # Between two neighbouring positions of a run the pin's multiplier in one active set
+        # is least at an end (1 / a convex gauge of forces linear in the station); where the
+        # active set at the limit changes between them it can dip, to where the pin reaches
+        # its limit just as a bar of the changing panel passes zero. In the set at either end
+        # that bar's zero gives lam as a function of the station, and the pin check along it
+        # is searched (grid of 16, then bisection); each point found is followed on the
+        # exact path like any other position.
+        best = np.array([lam[batch.rows(gi)].min(initial=np.inf)
+                         for gi in range(len(batch.sets))])
+        k_at = np.where(slot >= 0, np.take_along_axis(pc.k, np.maximum(slot, 0)[:, None],
+                                                      axis=1)[:, 0], -1)
+        lines, where = [], []
+        for a, b in batch.intervals.tolist():
+            ka, kb = int(k_at[a]), int(k_at[b])
+            if ka < 0 or kb < 0 or table.slack[ka] == table.slack[kb]:
                 continue
-            at = {row_vertex[k]: k for k in here}
-            best = float(lams[[k for k in range(n_rows) if row_case[k] == ci]].min())
-            if not math.isfinite(best):
+            if min(lam[a], lam[b]) > 1.1 * best[batch.group[a]]:
                 continue
-            for v in sorted(at):
-                ka, kb = at[v], at.get(v + 1)
-                if kb is None or slack_at[ka] is None or slack_at[kb] is None:
-                    continue
-                if slack_at[ka] == slack_at[kb] or min(lams[ka], lams[kb]) > 1.1 * best:
-                    continue
-                im = cases[ci].im.value
-                Pa = position_live_loads(paths, g, cases[ci].load, row_ext[ka], im, df)
-                Pb = position_live_loads(paths, g, cases[ci].load, row_ext[kb], im, df)
-                lkey = (cases[ci].load.id, cases[ci].im.value)
-                for ln in _bar_zero_lines(family, idx, P_dead, Pa, Pb,
-                                          (slack_at[ka], slack_at[kb]), paths,
-                                          (("dead", g_dc, g_dw), (*lkey, row_key[ka]),
-                                           (*lkey, row_key[kb]))):
-                    lines.append(ln)
-                    where.append((ci, row_ext[ka], row_ext[ka].position.front_axle_ft,
-                                  row_ext[kb].position.front_axle_ft))
-        seen_x: set = set()
-        for (ci, e, xa, xb), ts in zip(where, _pin_kinks(model, unit, lines), strict=True):
-            for t_k in ts:
-                x = round(xa + t_k * (xb - xa), 9)
-                if (ci, x, e.position.direction) in seen_x:
-                    continue
-                seen_x.add((ci, x, e.position.direction))
-                kink_rows.append((ci, replace(e, position=replace(e.position,
-                                                                  front_axle_ft=x)), -1))
-        if kink_rows:
-            add_rows(kink_rows)
-        n_rows = len(row_key)
-    if n_rows:
-        lams = lams / np.array([cases[ci].gamma_ll.value for ci in row_case])
-        u_fs, u_b = model.utilization_parts(model.point_forces(N_at, _balancing(unit, N_at)))
-    row_case_a = np.array(row_case, dtype=int)
-    worst_k, worst_lam = -1, math.inf
-    for ci, case in enumerate(cases):
-        here = np.nonzero(row_case_a == ci)[0]
-        if not here.size:
-            ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
-                                             None, None)
-            continue
-        low = float(lams[here].min())
-        tol = 1e-9 * max(abs(low), 1.0) if math.isfinite(low) else 0.0
-        k = int(here[np.flatnonzero(lams[here] <= low + tol)[0]])  # of ties, the first
-        lam = float(lams[k])
-        if not math.isfinite(lam):
-            ratings[case.id] = PinCaseRating(case.id, math.inf, "not loaded by this vehicle",
-                                             None, None)
-            continue
-        what = "pin bearing" if u_b[k] >= u_fs[k] else "pin flexure and shear"
-        ratings[case.id] = PinCaseRating(case.id, lam, what, row_ext[k], None)
-        if worst_k < 0 or lower_beyond_round_off(lam, worst_lam):
-            worst_k, worst_lam = k, lam
-    if worst_k >= 0:
+            for ln in _bar_zero_lines(table, pc, loads.key, loads.P_dead, batch.p, idx, a, b,
+                                      (ka, kb)):
+                lines.append(ln)
+                where.append((a, b))
+        pairs, ts = [], []
+        for ab, found in zip(where, _pin_kinks(model, unit, lines), strict=True):
+            for t_k in found:
+                pairs.append(ab)
+                ts.append(t_k)
+        if pairs:
+            p_new, extra, extra_group = batch.between(np.array(pairs, dtype=int),
+                                                      np.array(ts))
+            pc_new = table.pieces(loads.key, loads.P_dead, loads.state, p_new)
+            lam_new, N_new, _ = _pin_crossings(model, unit, idx, pc_new, extra_group)
+            lam = np.concatenate([lam, lam_new])
+            N_at = np.concatenate([N_at, N_new])
+    for gi, group in enumerate(loads.cases):
+        rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
+                               batch.size + np.flatnonzero(extra_group == gi)])
+        for case in group:
+            lam_c = lam[rows] / case.gamma_ll.value
+            k = first_of_least(lam_c) if lam_c.size else -1
+            if k < 0 or not math.isfinite(lam_c[k]):
+                ratings[case.id] = PinCaseRating(case.id, math.inf,
+                                                 "not loaded by this vehicle", None, None)
+                continue
+            j = int(rows[k])
+            ext = batch.extreme(j) if j < batch.size else extra[j - batch.size]
+            u_fs, u_b = model.utilization_parts(
+                model.point_forces(N_at[j], _balancing(unit, N_at[j])))
+            what = "pin bearing" if float(u_b) >= float(u_fs) else "pin flexure and shear"
+            ratings[case.id] = PinCaseRating(case.id, float(lam_c[k]), what, ext, None)
+            if worst is None or lower_beyond_round_off(float(lam_c[k]), worst[0]):
+                worst = (float(lam_c[k]), case.id, N_at[j])
+    if worst is not None:
         # the full pin check (sections, plates, balance) at the rating load level of the
         # governing case and position, for the report
-        N_here = N_at[worst_k]
+        _, cid, N_here = worst
         chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
                                                                 map(float, N_here),
                                                                 strict=True))),
                         external_kip=tuple(_balancing(unit, N_here)), designs=designs)
-        cid = cases[row_case[worst_k]].id
         ratings[cid] = replace(ratings[cid], at_rating=chk)
     return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,
                      dead_check.assumptions)

@@ -1,8 +1,34 @@
-"""Vehicle positions tried on the exact load path besides the envelope positions."""
+"""Vehicle positions tried on the exact load path, as panel-point loads for all at once.
+
+Two kinds: the positions critical for the members' influence lines in any active set (the
+envelope positions, each with its own load model, spacing and lane segments), and *runs*: one
+vehicle of the rating load driven across in one direction with an axle over each deck panel
+point in turn. Between two neighbouring positions of a run every axle stays within its
+stringer span, so the panel-point loads, and every force of one active set, are linear in the
+vehicle's station (statics of simple-span stringers, common practice); the load-multiplier
+search uses that (rating.lrfr.multiplier, rating.lrfr.pins).
+"""
 
 from __future__ import annotations
 
-from rating.analysis.moving import Extreme, panel_point_positions
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+from rating.analysis.loading import axle_panel_loads, lane_panel_loads
+from rating.analysis.moving import (
+    BOTH_DIRECTIONS,
+    Direction,
+    Extreme,
+    VehiclePosition,
+    axle_offsets_ft,
+    axle_stations,
+    panel_point_fronts,
+    panel_point_positions,
+)
+from rating.analysis.regions import Pieces
+from rating.analysis.truss import ActiveSetSolution
 from rating.vehicles.library import RatingLoad
 
 
@@ -10,11 +36,224 @@ def panel_point_extremes(load: RatingLoad, stations_ft) -> tuple[Extreme, ...]:
     """Every position of the load's vehicle with an axle over a deck panel point, both
     directions, as extremes to follow on the load path; empty for a load with a lane part or
     a variable spacing (those keep the envelope positions alone)."""
-    if len(load.models) != 1:
+    if not fixed_axles_only(load):
         return ()
     mo = load.models[0]
     v = mo.axles
-    if v is None or mo.lane_load_klf or any(sp.min_ft != sp.max_ft for sp in v.spacings):
-        return ()
     return tuple(Extreme(0.0, 0.0, mo.name, v.id, pos) for pos in
                  panel_point_positions(stations_ft, [sp.min_ft for sp in v.spacings]))
+
+
+def fixed_axles_only(load: RatingLoad) -> bool:
+    """One load model of axles alone with fixed spacings (the legal loads, SHVs, NRL,
+    emergency and owner vehicles)."""
+    if len(load.models) != 1:
+        return False
+    mo = load.models[0]
+    v = mo.axles
+    return not (v is None or mo.lane_load_klf or any(sp.min_ft != sp.max_ft
+                                                     for sp in v.spacings))
+
+
+@dataclass(frozen=True)
+class Run:
+    """One vehicle of a rating load (model, axle spacings and lane segments fixed) driven
+    across the bridge in one direction."""
+
+    model: str
+    vehicle_id: str
+    direction: Direction
+    spacings_ft: tuple[float, ...]
+    lane_klf: float = 0.0
+    lane_segments_ft: tuple[tuple[float, float], ...] = ()
+    neglect_opposing_axles: bool = False
+
+    def extreme(self, front_axle_ft: float) -> Extreme:
+        return Extreme(0.0, 0.0, self.model, self.vehicle_id,
+                       VehiclePosition(float(front_axle_ft), self.direction, self.spacings_ft),
+                       self.lane_klf, self.lane_segments_ft, self.neglect_opposing_axles)
+
+
+def runs_of(load: RatingLoad, extremes: Iterable[Extreme]) -> list[Run]:
+    """The runs to search for a load: its one vehicle both ways for a load of fixed-spacing
+    axles alone; otherwise every vehicle (model, spacing, lane segments) among ``extremes``
+    (the envelope positions of the members rated on the load path), both ways."""
+    if fixed_axles_only(load):
+        mo = load.models[0]
+        spac = tuple(float(sp.min_ft) for sp in mo.axles.spacings)
+        return [Run(mo.name, mo.axles.id, d, spac) for d in BOTH_DIRECTIONS]
+    out: dict[tuple, None] = {}
+    for e in extremes:
+        if e.position is None:
+            continue
+        for d in BOTH_DIRECTIONS:
+            out.setdefault((e.model, e.vehicle_id, d, tuple(e.position.spacings_ft), e.lane_klf,
+                            tuple(e.lane_segments_ft), e.neglect_opposing_axles))
+    return [Run(*key) for key in out]
+
+
+def _run_key(r: Run | Extreme) -> tuple:
+    """What makes the loading of a run, or of an extreme on one, apart from its station."""
+    if isinstance(r, Run):
+        return (r.model, r.direction, r.spacings_ft, r.lane_klf if r.lane_segments_ft else 0.0,
+                r.lane_segments_ft)
+    pos = r.position
+    return (r.model, pos.direction if pos else None, tuple(pos.spacings_ft) if pos else (),
+            r.lane_klf if r.lane_segments_ft else 0.0, tuple(r.lane_segments_ft))
+
+
+class PositionSet:
+    """The positions of one rating load at one IM: panel-point loads (n_stations, X) with
+    gamma_LL = 1, IM on the axles and the lateral distribution factor applied; the runs
+    first, each in order of station (forward before reverse: the order in which the
+    envelope search keeps the first of equal extremes), then the loose positions given that
+    no run has (in the order given)."""
+
+    def __init__(self, stations_ft: Sequence[float], load: RatingLoad, im: float, df: float,
+                 loose: Sequence[Extreme], runs: Sequence[Run]) -> None:
+        self.stations = np.asarray(stations_ft, dtype=float)
+        self.load = load
+        self.im = im
+        self.df = df
+        self.runs = list(runs)
+        self._models = {mo.name: mo for mo in load.models}
+        cols, run_of, fronts, intervals = [], [], [], []
+        self._extremes: list[Extreme | None] = []
+        on_runs: dict[tuple, set[float]] = {}
+        for r, run in enumerate(self.runs):
+            x = panel_point_fronts(self.stations, run.spacings_ft, run.direction)
+            start = len(run_of)
+            cols.append(self.run_loads(run, x))
+            run_of.extend([r] * x.size)
+            fronts.extend(x.tolist())
+            self._extremes.extend([None] * x.size)
+            intervals.extend((start + i, start + i + 1) for i in range(x.size - 1))
+            on_runs[_run_key(run)] = set(np.round(x, 6).tolist())
+        # the loose positions a run does not have already (same loading)
+        for e in loose:
+            if e.position is not None and round(e.position.front_axle_ft, 6) in on_runs.get(
+                    _run_key(e), ()):
+                continue
+            cols.append(self._loads_of(e)[:, None])
+            run_of.append(-1)
+            fronts.append(e.position.front_axle_ft if e.position is not None else np.nan)
+            self._extremes.append(e)
+        self.p = (np.concatenate(cols, axis=1) if cols else np.zeros((self.stations.size, 0)))
+        self.run = np.array(run_of, dtype=int)
+        self.front_ft = np.array(fronts, dtype=float)
+        self.intervals = np.array(intervals, dtype=int).reshape(-1, 2)
+
+    @property
+    def size(self) -> int:
+        return self.p.shape[1]
+
+    def _loads_of(self, e: Extreme) -> np.ndarray:
+        """Panel-point loads of the loading that gave the extreme ``e`` (all its axles as
+        they stand, IM on them, the lane on its segments)."""
+        mo = self._models.get(e.model)
+        out = np.zeros(self.stations.size)
+        if mo is None:
+            return out
+        if mo.axles is not None and e.position is not None:
+            v = mo.axles
+            out += (1.0 + self.im) * axle_panel_loads(
+                self.stations, axle_stations(e.position)[None, :],
+                np.asarray(v.axle_loads_kip) * v.axle_scale)[:, 0]
+        if e.lane_klf and e.lane_segments_ft:
+            out += lane_panel_loads(self.stations, e.lane_segments_ft, e.lane_klf)
+        return self.df * out
+
+    def run_loads(self, run: Run, fronts_ft: np.ndarray) -> np.ndarray:
+        """Panel-point loads (n_stations, n) of ``run`` with its front axle at each station."""
+        mo = self._models[run.model]
+        v = mo.axles
+        d = axle_offsets_ft(run.spacings_ft)
+        sign = 1.0 if run.direction is Direction.FORWARD else -1.0
+        xs = np.asarray(fronts_ft, dtype=float)[:, None] - sign * d[None, :]
+        p = (1.0 + self.im) * axle_panel_loads(self.stations, xs,
+                                               np.asarray(v.axle_loads_kip) * v.axle_scale)
+        if run.lane_klf and run.lane_segments_ft:
+            p += lane_panel_loads(self.stations, run.lane_segments_ft, run.lane_klf)[:, None]
+        return self.df * p
+
+    def extreme(self, j: int) -> Extreme:
+        """The loading of position ``j`` as an extreme (for the results and the report)."""
+        e = self._extremes[j]
+        if e is None:
+            e = self._extremes[j] = self.runs[self.run[j]].extreme(self.front_ft[j])
+        return e
+
+    def between(self, pairs: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, list[Extreme]]:
+        """Positions at fraction ``t`` of the way between the neighbouring positions
+        ``pairs`` (n, 2) of a run (front station rounded to 1e-9 ft), distinct: their
+        panel-point loads (n_stations, n') and extremes."""
+        xa, xb = self.front_ft[pairs[:, 0]], self.front_ft[pairs[:, 1]]
+        x = np.round(xa + t * (xb - xa), 9)
+        runs = self.run[pairs[:, 0]]
+        cols, exts = [], []
+        for r in dict.fromkeys(runs.tolist()):
+            xr = np.array(list(dict.fromkeys(x[runs == r].tolist())))
+            cols.append(self.run_loads(self.runs[r], xr))
+            exts.extend(self.runs[r].extreme(v) for v in xr.tolist())
+        p = np.concatenate(cols, axis=1) if cols else np.zeros((self.stations.size, 0))
+        return p, exts
+
+
+class PositionBatch:
+    """The positions of several rating loads side by side: one column of panel-point loads
+    per position, load after load (``offsets``), so that the load paths of all of them are
+    found in one computation."""
+
+    def __init__(self, sets: Sequence[PositionSet]) -> None:
+        self.sets = list(sets)
+        sizes = [ps.size for ps in self.sets]
+        self.offsets = np.concatenate(([0], np.cumsum(sizes))).astype(int)
+        n_st = self.sets[0].stations.size if self.sets else 0
+        self.p = (np.concatenate([ps.p for ps in self.sets], axis=1) if self.sets
+                  else np.zeros((n_st, 0)))
+        self.group = np.repeat(np.arange(len(self.sets)), sizes)
+        self.intervals = (np.concatenate([ps.intervals + off for ps, off in
+                                          zip(self.sets, self.offsets, strict=False)])
+                          if self.sets else np.zeros((0, 2), dtype=int))
+
+    @property
+    def size(self) -> int:
+        return int(self.offsets[-1])
+
+    def rows(self, g: int) -> slice:
+        return slice(int(self.offsets[g]), int(self.offsets[g + 1]))
+
+    def extreme(self, j: int) -> Extreme:
+        g = int(self.group[j])
+        return self.sets[g].extreme(j - int(self.offsets[g]))
+
+    def between(self, pairs: np.ndarray, t: np.ndarray
+                ) -> tuple[np.ndarray, list[Extreme], np.ndarray]:
+        """:meth:`PositionSet.between` for neighbouring positions of any load: the new
+        positions' panel-point loads (n_stations, n), extremes and loads (n,)."""
+        cols, exts, groups = [], [], []
+        grp = self.group[pairs[:, 0]] if pairs.size else np.zeros(0, dtype=int)
+        for g in np.unique(grp).tolist():
+            sel = grp == g
+            p, e = self.sets[g].between(pairs[sel] - self.offsets[g], t[sel])
+            cols.append(p)
+            exts.extend(e)
+            groups.extend([g] * len(e))
+        n_st = self.p.shape[0]
+        p = np.concatenate(cols, axis=1) if cols else np.zeros((n_st, 0))
+        return p, exts, np.array(groups, dtype=int)
+
+
+@dataclass(frozen=True, eq=False)
+class LoadPaths:
+    """The positions of the rating loads (one :class:`PositionSet` each, at its IM) with
+    their load paths under one set of factored dead loads (``key`` names it in the region
+    table, ``P_dead`` and ``state`` are its joint loads and tension-only state), and the
+    rating cases of each load."""
+
+    cases: tuple[tuple, ...]
+    positions: PositionBatch
+    pieces: Pieces
+    key: tuple[float, float]
+    P_dead: np.ndarray
+    state: ActiveSetSolution

@@ -1,0 +1,111 @@
+"""Live-load multipliers of members on the exact load path, over every vehicle position at once.
+
+For the members whose force depends on the counters' active set the rating factor is the
+least live-load multiplier lam (with gamma_LL = 1; the rating divides by gamma_LL) at which the
+member reaches its factored resistance on the load path of factored dead load + lam x
+(LL + IM), over every vehicle position (docs/tension-only.md, "Which vehicle positions"). The
+paths come from :class:`rating.analysis.regions.RegionTable`; here they are searched:
+
+* :func:`first_crossings`: on each position's path, the first piece where the member reaches
+  its resistance, for every member, sense and position at once;
+* :func:`kink_points`: between two neighbouring positions of a run (every axle within its
+  stringer span) the forces in one active set are linear in the station t, so the multiplier
+  (C - a) / (b_a + t db) in that set is monotone in t, and the set holds along it on one
+  interval of t (each condition of the set, times the positive denominator, is linear in t).
+  The least over the run is therefore at a position of the run or at an end of such an
+  interval, where the set at the rating level changes: those ends, solved exactly, are the
+  points to add.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from rating.analysis.regions import Pieces
+
+_ROUND_OFF = 1e-9
+
+
+def first_crossings(pc: Pieces, member: np.ndarray, sense: np.ndarray, capacity: np.ndarray
+                    ) -> tuple[np.ndarray, np.ndarray]:
+    """Least lam >= 0 at which sense x N reaches ``capacity`` on each position's path, for
+    the requests (member index, sense +1/-1, capacity kip), each (R,): lam (X, R), inf where
+    it never does; and the piece it lies in (X, R), -1 for none. Where the factored dead load
+    alone is past the capacity, lam is the (negative) linear extrapolation on the first piece
+    (-inf when the live load does not add to the effect).
+
+    The crossing in a piece is one linear equation (MBE 6A.4.2.1 rearranged for the live-load
+    multiplier [value from memory]); pieces hold on disjoint intervals of lam, so the least
+    crossing that lies in its piece is the first one along the path.
+    """
+    a = sense * pc.N_dead[:, :, member]  # (X, J, R)
+    b = sense * pc.N_live[:, :, member]
+    C = capacity[None, None, :]
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        lam = np.where(b > 0, (C - a) / np.where(b > 0, b, 1.0), np.inf)
+    ok = ((b > 0) & (lam >= pc.lo[:, :, None] - _ROUND_OFF) & (lam <= pc.hi[:, :, None])
+          & (pc.k[:, :, None] >= 0))
+    val = np.where(ok, np.maximum(lam, 0.0), np.inf)
+    slot = np.argmin(val, axis=1)  # (X, R)
+    best = np.take_along_axis(val, slot[:, None, :], axis=1)[:, 0, :]
+    over = a[:, 0, :] >= C[0]
+    best = np.where(over, np.where(b[:, 0, :] > 0, lam[:, 0, :], -np.inf), best)
+    slot = np.where(over, 0, np.where(np.isfinite(best), slot, -1))
+    return best, slot
+
+
+def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np.ndarray,
+                capacity: np.ndarray, best: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Points between neighbouring positions that can lower a request's least multiplier
+    ``best`` ((R,), or (I, R) per interval): (interval index, t in (0, 1)) of each, where in
+    some active set the member reaches its resistance just as a condition of that set reaches
+    its limit (see the module docstring). Uses every set of the table; the positions of
+    ``intervals`` (I, 2) index the loadings of ``pc``."""
+    if not intervals.size or not member.size:
+        return np.zeros(0, dtype=int), np.zeros(0)
+    xa, xb = intervals[:, 0], intervals[:, 1]
+    best = np.broadcast_to(best, (xa.size, member.size))
+    Kc = capacity[None, :] - sense[None, :] * pc.F_dead[:, member]  # (K, R)
+    # in one set the multiplier along the interval is at least Kc / max(b_a, b_b) (it is
+    # monotone), so only sets where an end is loaded beyond Kc / best can lower it
+    S = pc.L[:, :, member] * sense  # (K, X, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        thr = np.where(best > 0, Kc[:, None, :] / np.where(best > 0, best, 1.0)[None],
+                       np.inf) * (1.0 + _ROUND_OFF)  # (K, I, R)
+    hot = ((S[:, xa, :] > thr) | (S[:, xb, :] > thr)) & (Kc[:, None, :] > 0)
+    k, i, r = np.nonzero(hot)
+    if not k.size:
+        return np.zeros(0, dtype=int), np.zeros(0)
+    b0 = S[k, xa[i], r]
+    b1 = S[k, xb[i], r] - b0
+    K = Kc[k, r]
+    A = pc.A[k]  # (n, C)
+    Ba, Bb = pc.B[k, xa[i]], pc.B[k, xb[i]]
+    # every condition of the set along lam = K / (b0 + t b1), times that positive
+    # denominator, and the denominator itself, are linear in t
+    h0 = np.concatenate([A * b0[:, None] + K[:, None] * Ba, b0[:, None]], axis=1)
+    h1 = np.concatenate([A * b1[:, None] + K[:, None] * (Bb - Ba), b1[:, None]], axis=1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        root = -h0 / h1
+    t1 = np.maximum(np.where(h1 > 0, root, -np.inf).max(axis=1), 0.0)
+    t2 = np.minimum(np.where(h1 < 0, root, np.inf).min(axis=1), 1.0)
+    never = ((h1 == 0) & (h0 < 0)).any(axis=1)
+    feasible = ~never & (t1 <= t2)
+    out_i, out_t = [], []
+    for t in (t1, t2):
+        den = b0 + t * b1
+        with np.errstate(divide="ignore", invalid="ignore"):
+            lam = np.where(den > 0, K / np.where(den > 0, den, 1.0), np.inf)
+        keep = feasible & (t > 0.0) & (t < 1.0) & (lam < best[i, r] * (1.0 - _ROUND_OFF))
+        out_i.append(i[keep])
+        out_t.append(t[keep])
+    return np.concatenate(out_i), np.concatenate(out_t)
+
+
+def first_of_least(values: np.ndarray) -> int:
+    """Index of the first value within round-off of the least (ties keep the first found:
+    mirror positions of a symmetric truss never depend on the last digit)."""
+    low = float(values.min())
+    if not np.isfinite(low):
+        return int(np.argmin(values))
+    return int(np.flatnonzero(values <= low + _ROUND_OFF * max(abs(low), 1.0))[0])
