@@ -27,6 +27,7 @@ import numpy as np
 from rating.analysis.path import PathWalker
 from rating.analysis.truss import ActiveSetSolution, TrussFamily
 
+LAM_MAX = 1e3  # load paths are followed up to this live-load multiplier (gamma_LL = 1)
 _TOL_REL = 1e-11  # consistency tolerance, relative to the largest dead-load force or stretch
 _LAM_TOL = 1e-9  # pieces closer than this in lam are taken to meet
 
@@ -41,7 +42,8 @@ class Pieces:
     the live-load forces of every loading in every set of the table, ``F_dead`` (K, m) the
     dead-load forces, ``A`` (K, C) and ``B`` (K, X, C) the conditions of every set over the
     members ``conditioned`` (C,) (:meth:`RegionTable.conditions`), ``walked`` (X,): paths
-    that left the family and were walked.
+    that left the family and were walked, ``cover`` (X,): how far each path is known (the
+    table's ``lam_max``, or less for a path not walked where the family leaves a gap).
     """
 
     k: np.ndarray
@@ -55,6 +57,7 @@ class Pieces:
     B: np.ndarray
     conditioned: np.ndarray
     walked: np.ndarray
+    cover: np.ndarray
 
     @property
     def n_loadings(self) -> int:
@@ -191,60 +194,137 @@ class RegionTable:
         return A, B, cons
 
     def pieces(self, key: Hashable, P_dead: np.ndarray, dead_state: ActiveSetSolution,
-               p: np.ndarray, lam_max: float = 1e3) -> Pieces:
+               p: np.ndarray, lam_max: float = LAM_MAX, walk: bool = True) -> Pieces:
         """The load path of every loading ``p`` (s, X) under ``P_dead`` + lam x loading, from
-        lam = 0 to ``lam_max`` (``dead_state``: the tension-only solution of ``P_dead``)."""
+        lam = 0 to ``lam_max`` (``dead_state``: the tension-only solution of ``P_dead``).
+
+        A path that leaves the family is walked (``walk``) or kept as far as the family
+        covers it (``Pieces.cover``; :meth:`complete` walks it later, where needed)."""
         p = np.asarray(p, dtype=float)
-        X = p.shape[1]
         self.index(dead_state.slack)
         A, B, cons, lo, hi, kk, cover = self._paths(key, P_dead, p, lam_max)
-        # a path that leaves the family is walked; the sets it meets join the table, and the
-        # other paths with a gap are tried again with them before they are walked too
-        walked = np.zeros(X, dtype=bool)
-        walked_paths = {}
-        gap = np.flatnonzero(cover < lam_max * (1.0 - _LAM_TOL))
-        while gap.size:
-            x = int(gap[0])
-            walker = PathWalker(self.family, P_dead, self.joint_loads(p[:, x]), lam_max,
-                                dead_state=dead_state)
-            segs = []
-            while not walker.ended:
-                segs.append(walker.step())
-            walked_paths[x] = segs
-            walked[x] = True
-            before = len(self.slack)
-            for sg in segs:
-                self.index(sg.slack)
-            rest = gap[1:]
-            if len(self.slack) > before and rest.size:
-                A, B, cons, lo, hi, kk, cover = self._paths(key, P_dead, p, lam_max)
-                rest = rest[cover[rest] < lam_max * (1.0 - _LAM_TOL)]
-            gap = rest
+        walked_paths: dict[int, list] = {}
+        if walk:
+            # the sets a walked path meets join the table, and the other paths with a gap
+            # are tried again with them before they are walked too
+            gap = np.flatnonzero(cover < lam_max * (1.0 - _LAM_TOL))
+            while gap.size:
+                x = int(gap[0])
+                before = len(self.slack)
+                walked_paths[x] = self._walk(P_dead, dead_state, p[:, x], lam_max)
+                rest = gap[1:]
+                if len(self.slack) > before and rest.size:
+                    A, B, cons, lo, hi, kk, cover = self._paths(key, P_dead, p, lam_max)
+                    rest = rest[cover[rest] < lam_max * (1.0 - _LAM_TOL)]
+                gap = rest
         if A.shape[0] != len(self.slack):
             A, B, cons = self.conditions(key, P_dead, p)
         L = self.live_forces(p)
         Fd, _ = self.dead(key, P_dead)
-        J = kk.shape[1]
-        if walked_paths:
-            J = max(J, max(len(s) for s in walked_paths.values()))
-            kk = np.pad(kk, ((0, 0), (0, J - kk.shape[1])), constant_values=-1)
-        rows = np.arange(X)[:, None]
+        X, J = kk.shape
         valid = kk >= 0
         k_safe = np.where(valid, kk, 0)
         hi_p = np.where(valid, _gather(hi, k_safe), np.inf)
         lo_p = np.where(valid, _gather(lo, k_safe), np.inf)
         N_dead = np.where(valid[:, :, None], Fd[k_safe], 0.0)
-        N_live = np.where(valid[:, :, None], L[k_safe, rows], 0.0)
-        for x, segs in walked_paths.items():
-            kk[x] = -1
-            lo_p[x] = hi_p[x] = np.inf
+        N_live = np.where(valid[:, :, None], L[k_safe, np.arange(X)[:, None]], 0.0)
+        pc = Pieces(kk, lo_p, hi_p, N_dead, N_live, L, Fd, A, B, cons,
+                    np.zeros(X, dtype=bool), np.minimum(cover, lam_max))
+        return self._with_walks(pc, walked_paths) if walked_paths else pc
+
+    def complete(self, pc: Pieces, need: np.ndarray, key: Hashable, P_dead: np.ndarray,
+                 dead_state: ActiveSetSolution, p: np.ndarray, lam_max: float = LAM_MAX
+                 ) -> Pieces:
+        """``pc`` with the path of every loading known at least up to ``need`` (X,), lam
+        (the same ``key``, dead load and loadings ``p`` as made ``pc``).
+
+        A path the family does not cover that far is walked (to ``need``); the sets it
+        meets join the table, and the other paths are tried again with them before they
+        are walked too (a few walks usually teach the table every set that matters)."""
+        need = np.minimum(need, lam_max)
+        while True:
+            todo = np.flatnonzero(pc.cover < need * (1.0 - _LAM_TOL))
+            if not todo.size:
+                return pc
+            if pc.A.shape[0] < len(self.slack):
+                # sets met since ``pc`` was made (on other paths) may cover these
+                fresh = self.pieces(key, P_dead, dead_state, p, lam_max, walk=False)
+                pc = fresh if not pc.walked.any() else self._keep_walks(fresh, pc)
+                continue
+            before = len(self.slack)
+            walks: dict[int, list] = {}
+            while todo.size:
+                x = int(todo[0])
+                n_sets = len(self.slack)
+                walks[x] = self._walk(P_dead, dead_state, p[:, x], float(need[x]))
+                rest = todo[1:]
+                if len(self.slack) > n_sets and rest.size:
+                    cover = self._paths(key, P_dead, p[:, rest], lam_max)[-1]
+                    rest = rest[cover < need[rest] * (1.0 - _LAM_TOL)]
+                todo = rest
+            if len(self.slack) == before:
+                return self._with_walks(pc, walks)
+            # with the new sets the regions cover more: the paths again, and the walks kept
+            # where they still know more
+            pc = self._keep_walks(self.pieces(key, P_dead, dead_state, p, lam_max,
+                                              walk=False), self._with_walks(pc, walks))
+
+    def _keep_walks(self, fresh: Pieces, old: Pieces) -> Pieces:
+        """``fresh`` with the walked paths of ``old`` where they know more."""
+        rows = np.flatnonzero(old.walked & (old.cover > fresh.cover))
+        if not rows.size:
+            return fresh
+        J = max(fresh.k.shape[1], old.k.shape[1])
+        pad = ((0, 0), (0, J - fresh.k.shape[1]))
+        k, lo, hi = (np.pad(fresh.k, pad, constant_values=-1),
+                     np.pad(fresh.lo, pad, constant_values=np.inf),
+                     np.pad(fresh.hi, pad, constant_values=np.inf))
+        N_dead = np.pad(fresh.N_dead, pad + ((0, 0),))
+        N_live = np.pad(fresh.N_live, pad + ((0, 0),))
+        w = old.k.shape[1]
+        k[rows] = -1
+        lo[rows] = hi[rows] = np.inf
+        N_dead[rows] = N_live[rows] = 0.0
+        k[rows, :w], lo[rows, :w], hi[rows, :w] = old.k[rows], old.lo[rows], old.hi[rows]
+        N_dead[rows, :w], N_live[rows, :w] = old.N_dead[rows], old.N_live[rows]
+        walked, cover = fresh.walked.copy(), fresh.cover.copy()
+        walked[rows], cover[rows] = True, old.cover[rows]
+        return Pieces(k, lo, hi, N_dead, N_live, fresh.L, fresh.F_dead, fresh.A, fresh.B,
+                      fresh.conditioned, walked, cover)
+
+    def _walk(self, P_dead: np.ndarray, dead_state: ActiveSetSolution, p: np.ndarray,
+              lam_max: float) -> list:
+        """One loading's path, walked a change of active set at a time (its sets join the
+        table)."""
+        walker = PathWalker(self.family, P_dead, self.joint_loads(p), lam_max,
+                            dead_state=dead_state)
+        segs = []
+        while not walker.ended:
+            segs.append(walker.step())
+        for sg in segs:
+            self.index(sg.slack)
+        return segs
+
+    def _with_walks(self, pc: Pieces, walks: dict[int, list]) -> Pieces:
+        J = max(pc.k.shape[1], max(len(s) for s in walks.values()))
+        pad = J - pc.k.shape[1]
+        kk = np.pad(pc.k, ((0, 0), (0, pad)), constant_values=-1)
+        lo = np.pad(pc.lo, ((0, 0), (0, pad)), constant_values=np.inf)
+        hi = np.pad(pc.hi, ((0, 0), (0, pad)), constant_values=np.inf)
+        N_dead = np.pad(pc.N_dead, ((0, 0), (0, pad), (0, 0)))
+        N_live = np.pad(pc.N_live, ((0, 0), (0, pad), (0, 0)))
+        walked, cover = pc.walked.copy(), pc.cover.copy()
+        for x, segs in walks.items():
+            kk[x], lo[x], hi[x] = -1, np.inf, np.inf
             N_dead[x] = N_live[x] = 0.0
             for j, sg in enumerate(segs):
                 kk[x, j] = self._index[sg.slack]
-                lo_p[x, j], hi_p[x, j] = sg.lam_start, sg.lam_end
+                lo[x, j], hi[x, j] = sg.lam_start, sg.lam_end
                 N_dead[x, j], N_live[x, j] = sg.N_dead, sg.N_live
-        return Pieces(kk, lo_p, hi_p, N_dead, N_live, L, Fd, A, B, cons, walked)
-
+            walked[x] = True
+            cover[x] = segs[-1].lam_end
+        return Pieces(kk, lo, hi, N_dead, N_live, pc.L, pc.F_dead, pc.A, pc.B,
+                      pc.conditioned, walked, cover)
 
     def _paths(self, key: Hashable, P_dead: np.ndarray, p: np.ndarray, lam_max: float
                ) -> tuple[np.ndarray, ...]:
@@ -301,3 +381,30 @@ def _chains(lo: np.ndarray, hi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.
     cover = np.where(n_chain > 0, np.take_along_axis(
         reach, np.maximum(n_chain - 1, 0)[:, None], axis=1)[:, 0], 0.0)
     return order, n_chain, cover
+
+
+class PathStore:
+    """The load paths of a batch of loadings under one dead load: found from the regions of
+    the family, and walked further only where a caller needs them (:meth:`complete`)."""
+
+    def __init__(self, table: RegionTable, key: Hashable, P_dead: np.ndarray,
+                 dead_state: ActiveSetSolution, p: np.ndarray) -> None:
+        self.table = table
+        self.key = key
+        self.P_dead = P_dead
+        self.state = dead_state
+        self.p = np.asarray(p, dtype=float)
+        self.pieces = table.pieces(key, P_dead, dead_state, self.p, walk=False)
+
+    def complete(self, need: np.ndarray) -> bool:
+        """Know every path at least up to ``need`` (X,), lam (:meth:`RegionTable.complete`);
+        True when a path had to be followed further."""
+        before = self.pieces
+        self.pieces = self.table.complete(before, need, self.key, self.P_dead, self.state,
+                                          self.p)
+        return self.pieces is not before
+
+    def more(self, p: np.ndarray) -> Pieces:
+        """The paths (walked in full) of other loadings ``p`` (s, X') under the same dead
+        load."""
+        return self.table.pieces(self.key, self.P_dead, self.state, p)

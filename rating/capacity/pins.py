@@ -659,6 +659,59 @@ class PinModel:
             return u_fs, (g[..., 6 * n:] / self._bearing_cap).max(axis=-1)
         return u_fs, np.zeros_like(u_fs)
 
+    def multiplier_bounds(self, G0: np.ndarray, G1: np.ndarray
+                          ) -> tuple[np.ndarray, np.ndarray]:
+        """Bounds on the least lam >= 0 at which the utilization of the projected vectors
+        G0 + lam G1 (P, K, 2) reaches 1.0, without solving for it: (lower, upper), (P,).
+
+        Lower: every checked vector is no longer than |G0| + lam |G1| (triangle inequality),
+        so the checks of those lengths (flexure and shear with the larger moment and shear
+        at each section, AASHTO LRFD 6.7.6.2.1 [value from memory]; bearing, 6.7.6.2.2)
+        reach their limits no later; for flexure and shear, convex in lam, the chord of that
+        bound below its root. Upper: each vector is at least lam |G1| - |G0| long, so one
+        moment, one shear or one plate's bearing alone reaches its limit there.
+        """
+        a = np.hypot(G0[..., 0], G0[..., 1])
+        b = np.hypot(G1[..., 0], G1[..., 1])
+        n = self._n_sections
+        c1 = self.phi_f * self.D**3 * self.material.F_y
+        c2 = self.phi_v * self.D**2 * self.material.F_y
+        lim = self.limit
+        m_lim, v_lim = lim * c1 / 6.0, lim ** (1.0 / 3.0) * c2 / 2.2
+        mA, mB = np.maximum(a[:, :n], a[:, n:2 * n]), np.maximum(b[:, :n], b[:, n:2 * n])
+        vA = a[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
+        vB = b[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
+
+        def f(lam: np.ndarray) -> np.ndarray:
+            return 6.0 * (mA + lam * mB) / c1 + (2.2 * (vA + lam * vB) / c2) ** 3 - lim
+
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            f0 = f(0.0)
+            hi = np.maximum(np.minimum(np.where(mB > 0, (m_lim - mA) / mB, np.inf),
+                                       np.where(vB > 0, (v_lim - vA) / vB, np.inf)), 0.0)
+            fin = np.isfinite(hi)
+            h = np.where(fin, hi, 0.0)
+            for _ in range(2):  # Newton from above: stays above the root of a convex f
+                slope = 6.0 * mB / c1 + 3.0 * (2.2 / c2) ** 3 * (vA + h * vB) ** 2 * vB
+                h = np.where(slope > 0, np.maximum(h - f(h) / np.where(slope > 0, slope, 1.0),
+                                                   0.0), h)
+            fh = f(h)
+            chord = np.where(fh > f0, h * (-f0) / (fh - f0), h)
+            low_fs = np.where(f0 >= 0, 0.0, np.where(fin, np.where(fh >= 0, chord, h),
+                                                     np.inf)).min(axis=1)
+            ub_m = np.where(b[:, :2 * n] > 0, (m_lim + a[:, :2 * n]) / b[:, :2 * n],
+                            np.inf).min(axis=1)
+            ub_v = np.where(b[:, 2 * n:6 * n] > 0, (v_lim + a[:, 2 * n:6 * n])
+                            / b[:, 2 * n:6 * n], np.inf).min(axis=1)
+            low, up = low_fs, np.minimum(ub_m, ub_v)
+            if self.layout.n_plates:
+                cap = self._bearing_cap
+                ap, bp = a[:, 6 * n:], b[:, 6 * n:]
+                low = np.minimum(low, np.where(ap >= cap, 0.0, np.where(
+                    bp > 0, (cap - ap) / bp, np.inf)).min(axis=1))
+                up = np.minimum(up, np.where(bp > 0, (cap + ap) / bp, np.inf).min(axis=1))
+        return np.maximum(low * (1.0 - 1e-12), 0.0), up
+
     def _utilization_projected(self, G: np.ndarray) -> np.ndarray:
         u_fs, u_b = self._parts(G)
         return np.maximum(u_fs, u_b)

@@ -23,7 +23,7 @@ from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
-from rating.analysis.regions import RegionTable
+from rating.analysis.regions import LAM_MAX, PathStore, RegionTable
 from rating.analysis.truss import (
     ActiveSetSolution,
     TrussFamily,
@@ -435,8 +435,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     group_plans = [plans_of[gc[0].id] for gc in group_cases]
     batch = PositionBatch([_positions(g, gc[0], df, envs, distinct_rows, pl, dependent)
                            for gc, pl in zip(group_cases, group_plans, strict=True)])
-    pieces = {fs: table.pieces(fs, P, state, batch.p) for fs, (P, state) in dead_states.items()}
-    on_path = _member_multipliers(g, table, dead_states, batch, pieces, group_plans, dependent)
+    stores = {fs: PathStore(table, fs, P, state, batch.p)
+              for fs, (P, state) in dead_states.items()}
+    on_path = _member_multipliers(g, stores, batch, group_plans, dependent)
     for gi, (gc, plans) in enumerate(zip(group_cases, group_plans, strict=True)):
         for case in gc:
             for lab, pls in plans.items():
@@ -445,9 +446,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                         g.member(lab), capacities[lab], case, pls,
                         [on_path[(gi, lab, pl.sense)] for pl in pls])
     fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
-    load_paths = LoadPaths(tuple(group_cases), batch, pieces[fs_max], fs_max,
-                           *dead_states[fs_max])
-    pins = tuple(rate_pin(pin, g, bridge, dead, dead_f, table, load_paths, dependent)
+    load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
+    pins = tuple(rate_pin(pin, g, bridge, dead, dead_f, load_paths, dependent)
                  for pin in bridge.pins)
     postings = _postings(cases, ratings, pins, g)
     for p in pins:
@@ -564,9 +564,8 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
     return PositionSet(g.deck_stations_ft, case.load, im, df, list(loose.values()), runs)
 
 
-def _member_multipliers(g: TrussGeometry, table: RegionTable, dead_states,
-                        batch: PositionBatch, pieces: dict,
-                        group_plans: list[dict[str, list[_SensePlan]]],
+def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], PathStore],
+                        batch: PositionBatch, group_plans: list[dict[str, list[_SensePlan]]],
                         dependent: frozenset[str]) -> dict[tuple[int, str, int], _OnPath]:
     """lam of every dependent member in every sense it is rated in, for each load (its index
     in the batch), at every position of the load and at the points between neighbouring
@@ -590,26 +589,40 @@ def _member_multipliers(g: TrussGeometry, table: RegionTable, dead_states,
     for gi, plans in enumerate(group_plans):
         for r, (lab, s_) in enumerate(keys):
             used[gi, r] = lab in plans and any(pl.sense == s_ for pl in plans[lab])
-    lam = {fs: first_crossings(pc, member, sense, cap)[0] for fs, pc in pieces.items()}
-    best = np.full((n_groups, len(keys)), -np.inf)
-    for gi in range(n_groups):
-        rows = batch.rows(gi)
-        if rows.stop > rows.start:
-            low = np.min([v[rows].min(axis=0) for v in lam.values()], axis=0)
-            best[gi] = np.where(used[gi], low, -np.inf)
+    def least() -> np.ndarray:
+        best = np.full((n_groups, len(keys)), -np.inf)
+        for gi in range(n_groups):
+            rows = batch.rows(gi)
+            if rows.stop > rows.start:
+                low = np.min([v[rows].min(axis=0) for v in lam.values()], axis=0)
+                best[gi] = np.where(used[gi], low, -np.inf)
+        return best
+
+    lam = {fs: first_crossings(st.pieces, member, sense, cap)[0] for fs, st in stores.items()}
+    best = least()
+    # a path the family covers only so far is walked on where the member's limit, not met
+    # on the part known, could lie below the least found
+    for fs, st in stores.items():
+        at = best[batch.group]
+        unknown = np.isinf(lam[fs]) & (st.pieces.cover[:, None] < at)
+        need = np.where(unknown, np.where(np.isfinite(at), at * (1.0 + 1e-6), LAM_MAX),
+                        0.0).max(axis=1, initial=0.0)
+        if st.complete(need):
+            lam[fs] = first_crossings(st.pieces, member, sense, cap)[0]
+    best = least()
     pairs, ts = [], []
     per_interval = best[batch.group[batch.intervals[:, 0]]] if batch.intervals.size else best[:0]
-    for pc in pieces.values():
-        i, t = kink_points(pc, batch.intervals, member, sense, cap, per_interval)
+    for st in stores.values():
+        i, t = kink_points(st.pieces, batch.intervals, member, sense, cap, per_interval)
         pairs.append(batch.intervals[i])
         ts.append(t)
     extra: list[Extreme] = []
     extra_group = np.zeros(0, dtype=int)
     if any(t.size for t in ts):
         p_new, extra, extra_group = batch.between(np.concatenate(pairs), np.concatenate(ts))
-        for fs, (P, state) in dead_states.items():
-            pc_new = table.pieces(fs, P, state, p_new)
-            lam[fs] = np.concatenate([lam[fs], first_crossings(pc_new, member, sense, cap)[0]])
+        for fs, st in stores.items():
+            lam[fs] = np.concatenate([lam[fs], first_crossings(st.more(p_new), member, sense,
+                                                               cap)[0]])
     cands = _Candidates(batch, extra)
     order = tuple(lam)
     out: dict[tuple[int, str, int], _OnPath] = {}

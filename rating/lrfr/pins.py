@@ -20,7 +20,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from rating.analysis.moving import Extreme
-from rating.analysis.regions import Pieces, RegionTable
+from rating.analysis.regions import LAM_MAX, PathStore, Pieces
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
@@ -60,23 +60,23 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
-def _bar_zero_lines(table: RegionTable, pc: Pieces, P_dead_key, P_dead: np.ndarray,
-                    p: np.ndarray, idx: list[int], a: int, b: int, sets: tuple[int, int]
-                    ) -> list[tuple]:
+def _bar_zero_lines(store: PathStore, idx: list[int], a: int, b: int,
+                    sets: tuple[int, int]) -> list[tuple]:
     """For two neighbouring positions ``a``, ``b`` of a run whose active sets at the pin's
     limit differ: in the set at either end, each bar whose state differs between the ends
     passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
     forces at the joint are N_dead + lam (N_a + t dN), t the station between the ends (0..1).
     Returns (N_dead, N_a, dN, a, b, c) for each."""
     out = []
+    table, pc = store.table, store.pieces
     labels = table.family.labels
     slack = (table.slack[sets[0]], table.slack[sets[1]])
-    Fd, Ed = table.dead(P_dead_key, P_dead)
+    Fd, Ed = table.dead(store.key, store.P_dead)
     for k in sets:
         S = table.slack[k]
         n_d, e_d = Fd[k], Ed[k]
         n_a, n_b = pc.L[k, a], pc.L[k, b]
-        e_ab = table.live_elongations(k, p[:, [a, b]])
+        e_ab = table.live_elongations(k, store.p[:, [a, b]])
         e_a, e_b = e_ab[:, 0], e_ab[:, 1]
         for lab in sorted(slack[0] ^ slack[1]):
             j = labels.index(lab)
@@ -130,40 +130,98 @@ def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[li
     return out
 
 
-def _pin_crossings(model: PinModel, unit: np.ndarray, idx: list[int], pc: Pieces,
-                   group: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
+                   group: np.ndarray, linear: bool = False, near: float = 1.0,
+                   intervals: np.ndarray | None = None
+                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """On each position's path, the least lam at which the pin reaches its limit: lam (X,)
     (inf where it does not up to the path's end), the forces of the members at the joint
-    there (X, n) and the piece it lies in (X,), -1 for none. The first piece whose end
-    reaches the limit holds it (the utilization is convex in lam within a piece); 0 where
-    the factored dead load alone reaches it.
+    there (X, n), the piece it lies in (X,), -1 for none, and how far (lam) each position's
+    path must be known to tell (X,), 0 where it is (rating.analysis.regions.Pieces.cover).
+    The first piece whose end reaches the limit holds it (the utilization is convex in lam
+    within a piece); 0 where the factored dead load alone reaches it. ``T``:
+    :func:`_projector` of the pin. ``linear``: no member at the joint depends on the active
+    set, so the forces there are those of the first piece all along the path.
 
-    Only the least over the positions of each load (``group``, (X,)) is needed, so a position
-    is solved only as far as needed to show that it cannot be the least of its load: its lam
-    is then a lower bound, above that least beyond round-off (:func:`_least_roots`)."""
+    Only the least over the positions of each load (``group``, (X,)) is needed, and the
+    positions within the factor ``near`` of it with their neighbours (``intervals``, pairs
+    of neighbouring positions): the others are shown not to be by bounds
+    (rating.capacity.pins.PinModel.multiplier_bounds), and get a lower bound for lam and no
+    piece (-1); so are positions solved only as far as needed (:func:`_least_roots`)."""
     X = pc.n_loadings
-    valid = pc.k >= 0
-    lo = np.where(valid, pc.lo, 0.0)
-    ln = np.where(valid, pc.hi, 0.0) - lo
-    Nl = pc.N_live[:, :, idx]
-    N0 = pc.N_dead[:, :, idx] + lo[:, :, None] * Nl
+    if linear:
+        valid = pc.k[:, :1] >= 0
+        lo = np.zeros((X, 1))
+        hi = np.where(valid, pc.hi[np.arange(X), np.maximum((pc.k >= 0).sum(axis=1) - 1, 0)]
+                      [:, None], 0.0)
+    else:
+        valid = pc.k >= 0
+        lo = np.where(valid, pc.lo, 0.0)
+        hi = np.where(valid, pc.hi, 0.0)
+    r, j = np.nonzero(valid)  # by position, then piece: in order along each path
+    lo_q, ln = lo[r, j], hi[r, j] - lo[r, j]
+    Nl = pc.N_live[r, j][:, idx]
+    N0 = pc.N_dead[r, j][:, idx] + lo_q[:, None] * Nl
     # every vector the pin check needs is linear in the member forces: projected once
-    T = _projector(model, unit)
-    G0 = np.matmul(N0, T).reshape(*N0.shape[:2], -1, 2)
-    G1 = np.matmul(Nl, T).reshape(*Nl.shape[:2], -1, 2)
-    reach = valid & (model._utilization_projected(G0 + ln[:, :, None, None] * G1) >= 1.0)
-    has = reach.any(axis=1)
-    j = np.argmax(reach, axis=1)
-    lam = np.full(X, np.inf)
+    G0 = np.matmul(N0, T).reshape(r.size, -1, 2)
+    G1 = np.matmul(Nl, T).reshape(r.size, -1, 2)
+    low, up = model.multiplier_bounds(G0, G1)
+    row_low = np.full(X, np.inf)
+    np.minimum.at(row_low, r, np.where(low <= ln, lo_q + low, np.inf))
+    # a path the family covers only so far: the limit may lie beyond what is known
+    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
+    row_low = np.where(short, np.minimum(row_low, pc.cover), row_low)
+    row_up = np.full(X, np.inf)
+    np.minimum.at(row_up, r, np.where(up <= ln, lo_q + up, np.inf))
+    groups, pos = np.unique(group, return_inverse=True)
+    lam = row_low.copy()
     N_at = np.zeros((X, len(idx)))
-    rows = np.flatnonzero(has)
-    if rows.size:
-        jr = j[rows]
-        rel = _least_roots(model, G0[rows, jr], G1[rows, jr], lo[rows, jr], ln[rows, jr],
-                           group[rows])
-        lam[rows] = lo[rows, jr] + rel
-        N_at[rows] = N0[rows, jr] + rel[:, None] * Nl[rows, jr]
-    return lam, N_at, np.where(has, j, -1)
+    slot = np.full(X, -1)
+
+    def solve(rows: np.ndarray) -> None:
+        """The exact crossing at the positions ``rows`` (bool, (X,))."""
+        sel = np.flatnonzero(rows[r])
+        lam[rows] = np.inf
+        if not sel.size:
+            return
+        rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
+        reach = model._utilization_projected(G0[sel] + ln_s[:, None, None] * G1[sel]) >= 1.0
+        # the first piece of each position that reaches the limit
+        hit = np.flatnonzero(reach)
+        if not hit.size:
+            return
+        q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))]
+        at = rs[q]
+        rel = _least_roots(model, G0[sel][q], G1[sel][q], lo_s[q], ln_s[q], group[at])
+        lam[at] = lo_s[q] + rel
+        N_at[at] = N0[sel][q] + rel[:, None] * Nl[sel][q]
+        slot[at] = js[q]
+
+    # the most promising position of each load solved first: its lam bounds the least
+    first = np.zeros(X, dtype=bool)
+    order = np.lexsort((row_low, pos))
+    starts = np.flatnonzero(np.concatenate(([True], pos[order][1:] != pos[order][:-1])))
+    first[order[starts]] = True
+    first &= np.isfinite(row_low)
+    solve(first)
+    least = np.full(groups.size, np.inf)
+    np.minimum.at(least, pos, np.minimum(row_up, np.where(first, lam, np.inf)))
+    keep = (row_low <= least[pos] * max(near, 1.0 + 1e-9) + 1e-12) & ~first
+    solve(keep)
+    if intervals is not None and intervals.size:
+        # the neighbours of the positions near the least, for the search between them
+        best = np.full(groups.size, np.inf)
+        np.minimum.at(best, pos, lam)
+        close = lam <= best[pos] * near
+        a, b = intervals[:, 0], intervals[:, 1]
+        more = np.zeros(X, dtype=bool)
+        more[a[close[b]]] = True
+        more[b[close[a]]] = True
+        solve(more & ~(keep | first))
+    best = np.full(groups.size, np.inf)
+    np.minimum.at(best, pos, lam)
+    target = np.where(np.isfinite(best[pos]), best[pos] * near * (1.0 + 1e-6), LAM_MAX)
+    return lam, N_at, slot, np.where(short & (slot < 0) & np.isinf(lam), target, 0.0)
 
 
 def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
@@ -233,8 +291,8 @@ def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray
     return out
 
 
-def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, table: RegionTable,
-             loads: LoadPaths, dependent: frozenset[str]) -> PinRating:
+def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
+             dependent: frozenset[str]) -> PinRating:
     """Rate one pin for every case of every load (see the module docstring). ``loads``: the
     positions of the rating loads with their paths under the maximum dead-load factors."""
     designs = {d.member: d for d in bridge.member_designs}
@@ -257,10 +315,17 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, table: RegionTabl
                                                 strict=True))),
         external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs)
     model = PinModel(pin, members_here, dirs, designs=designs)
+    T = _projector(model, unit)
     ratings: dict[str, PinCaseRating] = {}
     worst: tuple[float, str, np.ndarray] | None = None
-    batch, pc = loads.positions, loads.pieces
-    lam, N_at, slot = _pin_crossings(model, unit, idx, pc, batch.group)
+    batch, store = loads.positions, loads.paths
+    while True:
+        lam, N_at, slot, need = _pin_crossings(
+            model, T, idx, store.pieces, batch.group, linear, near=1.0 if linear else 1.1,
+            intervals=None if linear else batch.intervals)
+        if not (need.any() and store.complete(need)):
+            break
+    pc = store.pieces
     extra: list[Extreme] = []
     extra_group = np.zeros(0, dtype=int)
     if not linear and batch.intervals.size and np.isfinite(lam).any():
@@ -278,12 +343,11 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, table: RegionTabl
         lines, where = [], []
         for a, b in batch.intervals.tolist():
             ka, kb = int(k_at[a]), int(k_at[b])
-            if ka < 0 or kb < 0 or table.slack[ka] == table.slack[kb]:
+            if ka < 0 or kb < 0 or store.table.slack[ka] == store.table.slack[kb]:
                 continue
             if min(lam[a], lam[b]) > 1.1 * best[batch.group[a]]:
                 continue
-            for ln in _bar_zero_lines(table, pc, loads.key, loads.P_dead, batch.p, idx, a, b,
-                                      (ka, kb)):
+            for ln in _bar_zero_lines(store, idx, a, b, (ka, kb)):
                 lines.append(ln)
                 where.append((a, b))
         pairs, ts = [], []
@@ -294,8 +358,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, table: RegionTabl
         if pairs:
             p_new, extra, extra_group = batch.between(np.array(pairs, dtype=int),
                                                       np.array(ts))
-            pc_new = table.pieces(loads.key, loads.P_dead, loads.state, p_new)
-            lam_new, N_new, _ = _pin_crossings(model, unit, idx, pc_new, extra_group)
+            lam_new, N_new, _, _ = _pin_crossings(model, T, idx, store.more(p_new),
+                                                  extra_group)
             lam = np.concatenate([lam, lam_new])
             N_at = np.concatenate([N_at, N_new])
     for gi, group in enumerate(loads.cases):

@@ -27,8 +27,7 @@ from rating.analysis.moving import (
     panel_point_fronts,
     panel_point_positions,
 )
-from rating.analysis.regions import Pieces
-from rating.analysis.truss import ActiveSetSolution
+from rating.analysis.regions import PathStore
 from rating.vehicles.library import RatingLoad
 
 
@@ -82,14 +81,19 @@ def runs_of(load: RatingLoad, extremes: Iterable[Extreme]) -> list[Run]:
         mo = load.models[0]
         spac = tuple(float(sp.min_ft) for sp in mo.axles.spacings)
         return [Run(mo.name, mo.axles.id, d, spac) for d in BOTH_DIRECTIONS]
-    out: dict[tuple, None] = {}
+    out: dict[tuple, Run] = {}
     for e in extremes:
         if e.position is None:
             continue
+        # lane segments that differ by round-off (a zero crossing found from two lines)
+        # are one loading
+        segs = tuple((round(a, 6), round(b, 6)) for a, b in e.lane_segments_ft)
         for d in BOTH_DIRECTIONS:
-            out.setdefault((e.model, e.vehicle_id, d, tuple(e.position.spacings_ft), e.lane_klf,
-                            tuple(e.lane_segments_ft), e.neglect_opposing_axles))
-    return [Run(*key) for key in out]
+            out.setdefault((e.model, d, tuple(e.position.spacings_ft), segs),
+                           Run(e.model, e.vehicle_id, d, tuple(e.position.spacings_ft),
+                               e.lane_klf, tuple(e.lane_segments_ft),
+                               e.neglect_opposing_axles))
+    return list(out.values())
 
 
 def _run_key(r: Run | Extreme) -> tuple:
@@ -247,13 +251,9 @@ class PositionBatch:
 @dataclass(frozen=True, eq=False)
 class LoadPaths:
     """The positions of the rating loads (one :class:`PositionSet` each, at its IM) with
-    their load paths under one set of factored dead loads (``key`` names it in the region
-    table, ``P_dead`` and ``state`` are its joint loads and tension-only state), and the
-    rating cases of each load."""
+    their load paths under one set of factored dead loads, and the rating cases of each
+    load."""
 
     cases: tuple[tuple, ...]
     positions: PositionBatch
-    pieces: Pieces
-    key: tuple[float, float]
-    P_dead: np.ndarray
-    state: ActiveSetSolution
+    paths: PathStore
