@@ -351,8 +351,8 @@ def _intervals(A: np.ndarray, B: np.ndarray, lam_max: float) -> tuple[np.ndarray
     """Where A + lam B >= 0 holds for every member, for each set and loading: lo, hi (K, X);
     lo > hi where the set holds nowhere in [0, lam_max]."""
     Ab = np.broadcast_to(A[:, None, :], B.shape)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        r = -Ab / B
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        r = -Ab / B  # (a tiny B overflows to inf, where the condition holds all along)
     lower = np.where(B > 0, r, -np.inf).max(axis=2)
     upper = np.where(B < 0, r, np.inf).min(axis=2)
     never = ((B == 0) & (Ab < 0)).any(axis=2)

@@ -44,7 +44,13 @@ from rating.lrfr.factors import (
 from rating.lrfr.liveload import position_key
 from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points
 from rating.lrfr.pins import PinRating, rate_pin
-from rating.lrfr.positions import LoadPaths, PositionBatch, PositionSet, runs_of
+from rating.lrfr.positions import (
+    LoadPaths,
+    PositionBatch,
+    PositionSet,
+    fixed_axles_only,
+    runs_of,
+)
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
     Bridge,
@@ -433,7 +439,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         groups.setdefault((case.load.id, case.im.value), []).append(case)
     group_cases = [tuple(gc) for gc in groups.values()]
     group_plans = [plans_of[gc[0].id] for gc in group_cases]
-    batch = PositionBatch([_positions(g, gc[0], df, envs, distinct_rows, pl, dependent)
+    batch = PositionBatch([_positions(g, gc[0], df, envs, distinct_rows, pl, dependent, table,
+                                      dead_states)
                            for gc, pl in zip(group_cases, group_plans, strict=True)])
     stores = {fs: PathStore(table, fs, P, state, batch.p)
               for fs, (P, state) in dead_states.items()}
@@ -543,11 +550,15 @@ class _Candidates:
 
 def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
                distinct_rows: dict, plans: dict[str, list[_SensePlan]],
-               dependent: frozenset[str]) -> PositionSet:
-    """The positions of one load searched on the load path: the runs of its vehicle (for a
-    load with a lane part or a variable spacing, of every vehicle at the envelope positions
-    of the members rated on the path), then the envelope positions of every member in every
-    distinct active set (critical for some member or for a pin's members) not on a run."""
+               dependent: frozenset[str], table: RegionTable, dead_states
+               ) -> PositionSet:
+    """The positions of one load searched on the load path: the runs of its vehicle, then
+    the envelope positions of every member in every distinct active set (critical for some
+    member or for a pin's members) not on a run.
+
+    For a load with a lane part or a variable spacing (HL-93) the runs are those of the
+    vehicle (model, spacing, lane segments) at which each member rated on the path has its
+    least multiplier among the envelope positions, both ways."""
     im = case.im.value
     loose: dict[tuple, Extreme] = {}
     for m in g.members:
@@ -556,12 +567,37 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
             for e in (me.max, me.min):
                 if e.position is not None or e.lane_segments_ft:
                     loose.setdefault(position_key(e), e)
-    # for a load with a lane part or a variable spacing: the vehicle of each such member's
-    # governing extreme (its model, spacing and lane segments) in each sense
-    governing = [pl.extremes[int(np.argmax(pl.ll))] for lab, pls in plans.items()
-                 if lab in dependent for pl in pls]
-    runs = runs_of(case.load, governing)
-    return PositionSet(g.deck_stations_ft, case.load, im, df, list(loose.values()), runs)
+    loose_list = list(loose.values())
+    if fixed_axles_only(case.load):
+        return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
+                           runs_of(case.load, ()))
+    ps = PositionSet(g.deck_stations_ft, case.load, im, df, loose_list, ())
+    _, member, sense, cap = _requests(g, [plans], dependent)
+    if not member.size or not ps.size:
+        return ps
+    lam = np.min([first_crossings(table.pieces(fs, P, state, ps.p), member, sense, cap)[0]
+                  for fs, (P, state) in dead_states.items()], axis=0)
+    chosen = [ps.extreme(first_of_least(lam[:, r])) for r in range(member.size)
+              if np.isfinite(lam[:, r]).any()]
+    return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
+                       runs_of(case.load, chosen))
+
+
+def _requests(g: TrussGeometry, group_plans: list[dict[str, list[_SensePlan]]],
+              dependent: frozenset[str]
+              ) -> tuple[list[tuple[str, int]], np.ndarray, np.ndarray, np.ndarray]:
+    """Every (member, sense) rated on the load path for any of the loads, in order: the
+    keys, member indices, senses (+1/-1) and factored resistances."""
+    req: dict[tuple[str, int], float] = {}
+    for plans in group_plans:
+        for lab, pls in plans.items():
+            if lab in dependent:
+                for pl in pls:
+                    req.setdefault((lab, pl.sense), pl.capacity)
+    keys = list(req)
+    return (keys, np.array([g.member_index[lab] for lab, _ in keys], dtype=int),
+            np.array([s_ for _, s_ in keys], dtype=float),
+            np.array(list(req.values()), dtype=float))
 
 
 def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], PathStore],
@@ -572,18 +608,9 @@ def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], Path
     positions that can lower it (rating.lrfr.multiplier), both dead-load factor sets: whether
     the dead load adds to or relieves the effect at the rating level is not known beforehand,
     a slack counter carries none, so both are tried (AASHTO LRFD 3.4.1 [V])."""
-    req: dict[tuple[str, int], float] = {}
-    for plans in group_plans:
-        for lab, pls in plans.items():
-            if lab in dependent:
-                for pl in pls:
-                    req.setdefault((lab, pl.sense), pl.capacity)
-    if not req:
+    keys, member, sense, cap = _requests(g, group_plans, dependent)
+    if not keys:
         return {}
-    keys = list(req)
-    member = np.array([g.member_index[lab] for lab, _ in keys], dtype=int)
-    sense = np.array([s_ for _, s_ in keys], dtype=float)
-    cap = np.array(list(req.values()), dtype=float)
     n_groups = len(group_plans)
     used = np.zeros((n_groups, len(keys)), dtype=bool)
     for gi, plans in enumerate(group_plans):

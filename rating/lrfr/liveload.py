@@ -2,13 +2,10 @@
 
 from __future__ import annotations
 
-from functools import partial
-
 import numpy as np
 
 from rating.analysis.loading import axle_joint_loads, lane_joint_loads
 from rating.analysis.moving import Extreme, axle_stations
-from rating.analysis.path import PathCache
 from rating.model import TrussGeometry
 from rating.vehicles.library import RatingLoad
 
@@ -32,11 +29,3 @@ def live_joint_loads(g: TrussGeometry, load: RatingLoad, ext: Extreme, im: float
 def position_key(e: Extreme) -> tuple:
     """What makes one loading of a rating load: its model, position and lane segments."""
     return (e.model, e.position, e.lane_segments_ft)
-
-
-def position_live_loads(paths: PathCache, g: TrussGeometry, load: RatingLoad, e: Extreme,
-                        im: float, df: float) -> np.ndarray:
-    """The panel-point loads of ``e`` with gamma_LL = 1 (one path serves every rating level
-    of the load), made once per load, IM and position through ``paths``."""
-    return paths.live_loads((load.id, im, position_key(e)),
-                            partial(live_joint_loads, g, load, e, im, df))

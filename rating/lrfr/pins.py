@@ -185,14 +185,20 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         if not sel.size:
             return
         rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
-        reach = model._utilization_projected(G0[sel] + ln_s[:, None, None] * G1[sel]) >= 1.0
+        # a piece reaches the limit by its end where the bound says so, else where checked
+        reach = up[sel] <= ln_s
+        check = np.flatnonzero(~reach & (low[sel] <= ln_s))
+        if check.size:
+            reach[check] = model._utilization_projected(
+                G0[sel][check] + ln_s[check, None, None] * G1[sel][check]) >= 1.0
         # the first piece of each position that reaches the limit
         hit = np.flatnonzero(reach)
         if not hit.size:
             return
         q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))]
         at = rs[q]
-        rel = _least_roots(model, G0[sel][q], G1[sel][q], lo_s[q], ln_s[q], group[at])
+        rel = _least_roots(model, G0[sel][q], G1[sel][q], lo_s[q], low[sel][q],
+                           np.minimum(up[sel][q], ln_s[q]), group[at])
         lam[at] = lo_s[q] + rel
         N_at[at] = N0[sel][q] + rel[:, None] * Nl[sel][q]
         slot[at] = js[q]
@@ -233,61 +239,64 @@ def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
 
 
 def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray,
-                 ln: np.ndarray, group: np.ndarray) -> np.ndarray:
-    """For each row, lam in [0, ln] where the utilization of G0 + lam G1 reaches 1.0 (it
-    does at ln; it is convex in lam): the root (to 1e-12) where lo + lam can be the least of
-    its group, a lower bound above that least elsewhere.
+                 low: np.ndarray, high: np.ndarray, group: np.ndarray) -> np.ndarray:
+    """For each row, the least lam in [0, high] where the utilization of G0 + lam G1 reaches
+    1.0 (it has by ``high``; it is convex in lam; ``low`` is a lower bound): the root (to
+    1e-12) where lo + lam can be the least of its group, a lower bound above that least
+    elsewhere.
 
     The bracket of every root is narrowed by the Illinois regula falsi (as
     rating.capacity.pins.PinModel.multipliers); on the convex utilization the chord of the
     bracket crosses 1.0 before it does, so a row whose chord crossing is above the least
     bracket end of its group beyond round-off cannot hold the least and is dropped."""
-    n = lo.size
     util = model._utilization_projected
-    a = np.zeros(n)
-    b = ln.astype(float).copy()
-    fa = util(G0) - 1.0
+    out = np.zeros(lo.size)
+    b = high.astype(float).copy()
     fb = util(G0 + b[:, None, None] * G1) - 1.0
+    a = np.clip(low * (1.0 - 1e-12), 0.0, b)
+    fa = util(G0 + a[:, None, None] * G1) - 1.0
+    redo = np.flatnonzero((fa >= 0.0) & (a > 0.0))
+    if redo.size:  # round-off at the bound: from the start of the piece
+        a[redo] = 0.0
+        fa[redo] = util(G0[redo]) - 1.0
+    live = np.flatnonzero(fa < 0.0)  # else the limit is reached at once (out = 0)
+    out[live] = b[live]
+    a, fa, b, fb = a[live], fa[live], b[live], fb[live]
+    G0l, G1l, lol = G0[live], G1[live], lo[live]
+    groups, pos = np.unique(group[live], return_inverse=True)
     sa, sb = fa.copy(), fb.copy()  # Illinois-scaled values
-    side = np.zeros(n, dtype=int)
-    out = np.zeros(n)
-    live = np.flatnonzero(fa < 0.0)  # else the factored dead load alone reaches the limit
-    groups, pos = np.unique(group, return_inverse=True)
+    side = np.zeros(live.size, dtype=int)
     for _ in range(100):
         if not live.size:
             break
-        al, bl = a[live], b[live]
         with np.errstate(divide="ignore", invalid="ignore"):
-            chord = al - fa[live] * (bl - al) / (fb[live] - fa[live])
-        chord = np.where(np.isfinite(chord), np.clip(chord, al, bl), al)
+            chord = a - fa * (b - a) / (fb - fa)
+        chord = np.where(np.isfinite(chord), np.clip(chord, a, b), a)
         least = np.full(groups.size, np.inf)
-        np.minimum.at(least, pos[live], lo[live] + bl)
-        keep = lo[live] + chord <= least[pos[live]] * (1.0 + 1e-9) + 1e-12
-        out[live[~keep]] = chord[~keep]  # a lower bound above the least
-        live = live[keep]
-        al, bl = a[live], b[live]
-        d = sb[live] - sa[live]
+        np.minimum.at(least, pos, lol + b)
+        keep = lol + chord <= least[pos] * (1.0 + 1e-9) + 1e-12
+        if not keep.all():
+            out[live[~keep]] = chord[~keep]  # a lower bound above the least
+            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos = (
+                v[keep] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos))
+        d = sb - sa
         with np.errstate(divide="ignore", invalid="ignore"):
-            x = np.where(d != 0.0, bl - sb[live] * (bl - al) / np.where(d != 0.0, d, 1.0),
-                         0.5 * (al + bl))
-        x = np.where((al < x) & (x < bl), x, 0.5 * (al + bl))
-        f = util(G0[live] + x[:, None, None] * G1[live]) - 1.0
+            x = np.where(d != 0.0, b - sb * (b - a) / np.where(d != 0.0, d, 1.0), 0.5 * (a + b))
+        x = np.where((a < x) & (x < b), x, 0.5 * (a + b))
+        f = util(G0l + x[:, None, None] * G1l) - 1.0
         right = f >= 0.0
-        sd = side[live]
-        sa[live] = np.where(right & (sd == 1), 0.5 * sa[live], sa[live])
-        sb[live] = np.where(~right & (sd == -1), 0.5 * sb[live], sb[live])
-        b[live] = np.where(right, x, bl)
-        fb[live] = np.where(right, f, fb[live])
-        sb[live] = np.where(right, f, sb[live])
-        a[live] = np.where(right, al, x)
-        fa[live] = np.where(right, fa[live], f)
-        sa[live] = np.where(right, sa[live], f)
-        side[live] = np.where(right, 1, -1)
+        sa = np.where(right & (side == 1), 0.5 * sa, sa)
+        sb = np.where(~right & (side == -1), 0.5 * sb, sb)
+        b, fb, sb = np.where(right, x, b), np.where(right, f, fb), np.where(right, f, sb)
+        a, fa, sa = np.where(right, a, x), np.where(right, fa, f), np.where(right, sa, f)
+        side = np.where(right, 1, -1)
         close = np.abs(f) < 1e-13
-        done = close | (b[live] - a[live] <= 1e-12 * np.maximum(lo[live] + b[live], 1.0))
-        out[live[done]] = np.where(close[done], x[done], b[live[done]])
-        live = live[~done]
-    out[live] = b[live]
+        done = close | (b - a <= 1e-12 * np.maximum(lol + b, 1.0))
+        out[live[done]] = np.where(close[done], x[done], b[done])
+        if done.any():
+            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos = (
+                v[~done] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos))
+    out[live] = b
     return out
 
 

@@ -25,22 +25,9 @@ from rating.analysis.moving import (
     axle_offsets_ft,
     axle_stations,
     panel_point_fronts,
-    panel_point_positions,
 )
 from rating.analysis.regions import PathStore
 from rating.vehicles.library import RatingLoad
-
-
-def panel_point_extremes(load: RatingLoad, stations_ft) -> tuple[Extreme, ...]:
-    """Every position of the load's vehicle with an axle over a deck panel point, both
-    directions, as extremes to follow on the load path; empty for a load with a lane part or
-    a variable spacing (those keep the envelope positions alone)."""
-    if not fixed_axles_only(load):
-        return ()
-    mo = load.models[0]
-    v = mo.axles
-    return tuple(Extreme(0.0, 0.0, mo.name, v.id, pos) for pos in
-                 panel_point_positions(stations_ft, [sp.min_ft for sp in v.spacings]))
 
 
 def fixed_axles_only(load: RatingLoad) -> bool:

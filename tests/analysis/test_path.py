@@ -109,27 +109,6 @@ def test_main_just_past_zero_hands_over_to_its_counter():
     assert not state.forced_compression
 
 
-@settings(max_examples=10, deadline=None)
-@given(x=st.floats(0.0, 160.0), load=st.floats(20.0, 80.0), stop=st.integers(0, 3))
-def test_lazy_path_is_the_same_path_however_far_it_is_read(x, load, stop):
-    # a path read part way, then again to the end, gives the pieces of one full walk
-    from rating.analysis.path import PathCache
-
-    P_d = dead_loads()
-    P_l = axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load])
-    full = list(load_path(FAM, P_d, P_l, lam_max=50.0))
-    cache = PathCache(FAM, lam_max=50.0)
-    lazy = cache.segments("k", P_d, P_l)
-    for k, _seg in enumerate(lazy):
-        if k >= stop:
-            break
-    again = list(cache.segments("k", P_d, P_l))
-    assert [(s.lam_start, s.lam_end, s.slack) for s in again] == \
-        [(s.lam_start, s.lam_end, s.slack) for s in full]
-    for a, b in zip(again, full, strict=True):
-        assert np.array_equal(a.N_live, b.N_live) and np.array_equal(a.N_dead, b.N_dead)
-
-
 def test_live_load_scaled_gives_the_same_path_with_lam_scaled():
     # proportional loading: the path under c P_live is the path under P_live at lam / c, so
     # one path serves every rating level of a load (gamma_LL only scales it)
@@ -160,32 +139,3 @@ def test_trial_state_by_superposition_gives_the_same_solution():
         assert got.slack == ref.slack
         assert np.allclose(got.solution.member_forces_kip, ref.solution.member_forces_kip,
                            rtol=1e-10, atol=1e-9)
-
-
-@settings(max_examples=15, deadline=None)
-@given(xs=st.lists(st.floats(-30.0, 190.0), min_size=2, max_size=12),
-       load=st.floats(20.0, 80.0), w=st.floats(-20.0, -4.0))
-def test_paths_advanced_together_equal_paths_walked_one_by_one(xs, load, w):
-    # the vectorized advance (one solve per active set for all paths, the plain change of
-    # active set settled for all at once) gives the pieces of the one-path walk
-    from rating.analysis.path import PathWalker, advance
-
-    P_d = dead_loads(w)
-    dead = solve_tension_only(G, P_d, family=FAM)
-    loads = [axle_joint_loads(G, [x, x - 14.0, x - 28.0], [load / 4, load, load]) for x in xs]
-    memo: dict = {}
-    walkers = [PathWalker(FAM, P_d, P_l, 60.0, dead_state=dead, dead_solutions=memo)
-               for P_l in loads]
-    together: list[list] = [[] for _ in xs]
-    while not all(wk.ended for wk in walkers):
-        for k, seg in enumerate(advance(walkers)):
-            if seg is not None:
-                together[k].append(seg)
-    for P_l, got in zip(loads, together, strict=True):
-        ref = list(load_path(FAM, P_d, P_l, lam_max=60.0, dead_state=dead))
-        assert [s.slack for s in got] == [s.slack for s in ref]
-        for a, b in zip(got, ref, strict=True):
-            assert a.lam_start == pytest.approx(b.lam_start, rel=1e-9, abs=1e-12)
-            assert a.lam_end == pytest.approx(b.lam_end, rel=1e-9, abs=1e-12)
-            assert np.allclose(a.N_live, b.N_live, rtol=1e-9, atol=1e-9)
-            assert np.allclose(a.N_dead, b.N_dead, rtol=1e-9, atol=1e-9)
