@@ -86,6 +86,7 @@ class RegionTable:
         self._pull: list[np.ndarray] = []  # per set (m,) bool: must not go into compression
         self._slack: list[np.ndarray] = []  # per set (m,) bool: must not be stretched
         self._dead: dict[Hashable, tuple[np.ndarray, list[np.ndarray], list[np.ndarray]]] = {}
+        self._dead_stacked: dict[Hashable, tuple[np.ndarray, np.ndarray]] = {}
         self._arrays: tuple[int, np.ndarray, np.ndarray, np.ndarray, np.ndarray] | None = None
         for S in sets:
             self.index(S)
@@ -162,7 +163,10 @@ class RegionTable:
                 Fd.append(f)
                 Ed.append(e)
             hit = self._dead[key] = (np.asarray(P_dead, dtype=float), Fd, Ed)
-        return np.stack(hit[1]), np.stack(hit[2])
+        stacked = self._dead_stacked.get(key)
+        if stacked is None or stacked[0].shape[0] != len(hit[1]):
+            stacked = self._dead_stacked[key] = (np.stack(hit[1]), np.stack(hit[2]))
+        return stacked
 
     def joint_loads(self, panel_loads_kip: np.ndarray) -> np.ndarray:
         """(n_joints, 2) joint loads of downward panel-point loads (n_stations,)."""
@@ -175,6 +179,15 @@ class RegionTable:
     def live_forces(self, p: np.ndarray) -> np.ndarray:
         """Member forces (K, X, m) of the panel-point loads ``p`` (s, X) in every set."""
         return np.matmul(self._stacked()[0], p).transpose(0, 2, 1)
+
+    def slack_masks(self) -> np.ndarray:
+        """(K, m): the tension-only members slack in each set."""
+        return np.stack(self._slack)
+
+    def elongation_lines(self) -> np.ndarray:
+        """(K, m, s): member elongations for a 1-kip downward load at each deck panel point,
+        in each set."""
+        return np.stack(self._elong)
 
     def live_elongations(self, k: int, p: np.ndarray) -> np.ndarray:
         """Member elongations (m, X) of the loads ``p`` (s, X) in set ``k``."""

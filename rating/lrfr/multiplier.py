@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from rating.analysis.regions import Pieces
+from rating.analysis.regions import LAM_MAX, Pieces
 
 _ROUND_OFF = 1e-9
 
@@ -64,7 +64,8 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     if not intervals.size or not member.size:
         return np.zeros(0, dtype=int), np.zeros(0)
     xa, xb = intervals[:, 0], intervals[:, 1]
-    best = np.broadcast_to(best, (xa.size, member.size))
+    # (no path is followed beyond LAM_MAX: nothing found past it can count)
+    best = np.minimum(np.broadcast_to(best, (xa.size, member.size)), LAM_MAX)
     Kc = capacity[None, :] - sense[None, :] * pc.F_dead[:, member]  # (K, R)
     # in one set the multiplier along the interval is at least Kc / max(b_a, b_b) (it is
     # monotone), so only sets where an end is loaded beyond Kc / best can lower it

@@ -60,74 +60,82 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
-def _bar_zero_lines(store: PathStore, idx: list[int], a: int, b: int,
-                    sets: tuple[int, int]) -> list[tuple]:
-    """For two neighbouring positions ``a``, ``b`` of a run whose active sets at the pin's
-    limit differ: in the set at either end, each bar whose state differs between the ends
-    passes zero where (a + b t) lam + c = 0 (its force, or its stretch when slack); the
-    forces at the joint are N_dead + lam (N_a + t dN), t the station between the ends (0..1).
-    Returns (N_dead, N_a, dN, a, b, c) for each."""
-    out = []
+def _bar_zero_lines(store: PathStore, idx: list[int], ia: np.ndarray, ib: np.ndarray,
+                    ka: np.ndarray, kb: np.ndarray) -> tuple[np.ndarray, ...]:
+    """For pairs of neighbouring positions ``ia``, ``ib`` of a run whose active sets at the
+    pin's limit (``ka``, ``kb``) differ: in the set at either end, each bar whose state
+    differs between the ends passes zero where (a + b t) lam + c = 0 (its force, or its
+    stretch when slack); the forces at the joint are N_dead + lam (N_a + t dN), t the station
+    between the ends (0..1). Returns N_dead, N_a, dN (n, len(idx)), a, b, c (n,) of every
+    such line and the pair it belongs to (n,)."""
     table, pc = store.table, store.pieces
-    labels = table.family.labels
-    slack = (table.slack[sets[0]], table.slack[sets[1]])
+    slack = table.slack_masks()
+    lines = table.elongation_lines()
     Fd, Ed = table.dead(store.key, store.P_dead)
-    for k in sets:
-        S = table.slack[k]
-        n_d, e_d = Fd[k], Ed[k]
-        n_a, n_b = pc.L[k, a], pc.L[k, b]
-        e_ab = table.live_elongations(k, store.p[:, [a, b]])
-        e_a, e_b = e_ab[:, 0], e_ab[:, 1]
-        for lab in sorted(slack[0] ^ slack[1]):
-            j = labels.index(lab)
-            abc = ((e_a[j], e_b[j] - e_a[j], e_d[j]) if lab in S
-                   else (n_a[j], n_b[j] - n_a[j], n_d[j]))
-            out.append((n_d[idx], n_a[idx], (n_b - n_a)[idx], *abc))
-    return out
+    q, j = np.nonzero(slack[ka] ^ slack[kb])
+    out = []
+    for k in (ka, kb):
+        kq = k[q]
+        n_d, n_a, n_b = Fd[kq], pc.L[kq, ia[q]], pc.L[kq, ib[q]]
+        e_a = np.einsum("nms,sn->nm", lines[kq], store.p[:, ia[q]])
+        e_b = np.einsum("nms,sn->nm", lines[kq], store.p[:, ib[q]])
+        rows = np.arange(q.size)
+        s_ = slack[kq, j]
+        a = np.where(s_, e_a[rows, j], n_a[rows, j])
+        b = np.where(s_, e_b[rows, j], n_b[rows, j]) - a
+        c = np.where(s_, Ed[kq, j], n_d[rows, j])
+        out.append((n_d[:, idx], n_a[:, idx], (n_b - n_a)[:, idx], a, b, c, q))
+    return tuple(np.concatenate(parts) for parts in zip(*out, strict=True))
 
 
-def _pin_kinks(model: PinModel, unit: np.ndarray, lines: list[tuple]) -> list[list[float]]:
+def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
+               dN: np.ndarray, A: np.ndarray, B: np.ndarray, Cc: np.ndarray
+               ) -> tuple[np.ndarray, np.ndarray]:
     """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
     reaches its limit just as the bar passes zero: the pin check minus one along the bar's
     zero is searched for sign changes on a grid of 16, all lines at once, and each bracket is
-    closed by bisection (all at once)."""
-    if not lines:
-        return []
-    Nd = np.array([ln[0] for ln in lines])
-    Na = np.array([ln[1] for ln in lines])
-    dN = np.array([ln[2] for ln in lines])
-    A = np.array([ln[3] for ln in lines])
-    B = np.array([ln[4] for ln in lines])
-    Cc = np.array([ln[5] for ln in lines])
+    closed by the Illinois regula falsi (all at once). ``T``: :func:`_projector` of the pin.
+    Returns (line, t) of each point found."""
+    if not A.size:
+        return np.zeros(0, dtype=int), np.zeros(0)
+    GD, GA, GdN = Nd @ T, Na @ T, dN @ T
+    shape = (-1, T.shape[1] // 2, 2)
 
     def f(rows: np.ndarray, t: np.ndarray) -> np.ndarray:
         den = A[rows] + B[rows] * t
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             lam = np.where(den != 0, -Cc[rows] / np.where(den != 0, den, 1.0), -1.0)
-        N = Nd[rows] + lam[:, None] * (Na[rows] + t[:, None] * dN[rows])
-        u = model.utilization(model.point_forces(N, _balancing(unit, N)))
+        G = GD[rows] + lam[:, None] * (GA[rows] + t[:, None] * GdN[rows])
+        u = model._utilization_projected(G.reshape(shape))
         return np.where(lam > 0, u - 1.0, np.nan)
 
     grid = np.linspace(0.0, 1.0, 17)[1:-1]
-    n, m = len(lines), grid.size
-    rows = np.repeat(np.arange(n), m)
-    v = f(rows, np.tile(grid, n)).reshape(n, m)
+    n, m = A.size, grid.size
+    v = f(np.repeat(np.arange(n), m), np.tile(grid, n)).reshape(n, m)
     ok = np.isfinite(v[:, :-1]) & np.isfinite(v[:, 1:]) & (np.sign(v[:, :-1])
                                                            != np.sign(v[:, 1:]))
     r, k = np.nonzero(ok)
-    out: list[list[float]] = [[] for _ in lines]
     if not r.size:
-        return out
-    lo, hi, flo = grid[k], grid[k + 1], v[r, k]
-    for _ in range(18):  # to 1/16/2^18 of the interval
-        mid = 0.5 * (lo + hi)
-        fm = f(r, mid)
-        same = np.isfinite(fm) & (np.sign(fm) == np.sign(flo))
-        lo, flo = np.where(same, mid, lo), np.where(same, fm, flo)
-        hi = np.where(same, hi, mid)
-    for q, tq in zip(r, 0.5 * (lo + hi), strict=True):
-        out[q].append(float(tq))
-    return out
+        return r, np.zeros(0)
+    lo, hi, flo, fhi = grid[k], grid[k + 1], v[r, k], v[r, k + 1]
+    slo, shi = flo.copy(), fhi.copy()
+    side = np.zeros(r.size, dtype=int)
+    for _ in range(40):  # to 1e-9 of the interval
+        d = shi - slo
+        with np.errstate(divide="ignore", invalid="ignore"):
+            x = np.where(d != 0, hi - shi * (hi - lo) / np.where(d != 0, d, 1.0),
+                         0.5 * (lo + hi))
+        x = np.where((lo < x) & (x < hi), x, 0.5 * (lo + hi))
+        fx = f(r, x)
+        same = np.isfinite(fx) & (np.sign(fx) == np.sign(flo))
+        slo = np.where(same, fx, np.where(side == -1, 0.5 * slo, slo))
+        shi = np.where(same, np.where(side == 1, 0.5 * shi, shi), fx)
+        lo, flo = np.where(same, x, lo), np.where(same, fx, flo)
+        hi = np.where(same, hi, x)
+        side = np.where(same, 1, -1)
+        if np.all(hi - lo <= 1e-9):
+            break
+    return r, 0.5 * (lo + hi)
 
 
 def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
@@ -349,24 +357,18 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
                          for gi in range(len(batch.sets))])
         k_at = np.where(slot >= 0, np.take_along_axis(pc.k, np.maximum(slot, 0)[:, None],
                                                       axis=1)[:, 0], -1)
-        lines, where = [], []
-        for a, b in batch.intervals.tolist():
-            ka, kb = int(k_at[a]), int(k_at[b])
-            if ka < 0 or kb < 0 or store.table.slack[ka] == store.table.slack[kb]:
-                continue
-            if min(lam[a], lam[b]) > 1.1 * best[batch.group[a]]:
-                continue
-            for ln in _bar_zero_lines(store, idx, a, b, (ka, kb)):
-                lines.append(ln)
-                where.append((a, b))
-        pairs, ts = [], []
-        for ab, found in zip(where, _pin_kinks(model, unit, lines), strict=True):
-            for t_k in found:
-                pairs.append(ab)
-                ts.append(t_k)
-        if pairs:
-            p_new, extra, extra_group = batch.between(np.array(pairs, dtype=int),
-                                                      np.array(ts))
+        ia, ib = batch.intervals[:, 0], batch.intervals[:, 1]
+        ka, kb = k_at[ia], k_at[ib]
+        ok = (ka >= 0) & (kb >= 0) & (np.minimum(lam[ia], lam[ib])
+                                      <= 1.1 * best[batch.group[ia]])
+        slk = store.table.slack_masks()
+        ok[ok] = (slk[ka[ok]] != slk[kb[ok]]).any(axis=1)
+        sel = np.flatnonzero(ok)
+        *line, owner = _bar_zero_lines(store, idx, ia[sel], ib[sel], ka[sel], kb[sel])
+        at, ts = _pin_kinks(model, T, *line)
+        pairs = batch.intervals[sel[owner[at]]]
+        if pairs.size:
+            p_new, extra, extra_group = batch.between(pairs, ts)
             lam_new, N_new, _, _ = _pin_crossings(model, T, idx, store.more(p_new),
                                                   extra_group)
             lam = np.concatenate([lam, lam_new])

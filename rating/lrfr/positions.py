@@ -180,14 +180,16 @@ class PositionSet:
         panel-point loads (n_stations, n') and extremes."""
         xa, xb = self.front_ft[pairs[:, 0]], self.front_ft[pairs[:, 1]]
         x = np.round(xa + t * (xb - xa), 9)
-        runs = self.run[pairs[:, 0]]
-        cols, exts = [], []
-        for r in dict.fromkeys(runs.tolist()):
-            xr = np.array(list(dict.fromkeys(x[runs == r].tolist())))
-            cols.append(self.run_loads(self.runs[r], xr))
-            exts.extend(self.runs[r].extreme(v) for v in xr.tolist())
-        p = np.concatenate(cols, axis=1) if cols else np.zeros((self.stations.size, 0))
-        return p, exts
+        key = np.stack([self.run[pairs[:, 0]].astype(float), x], axis=1)
+        _, first = np.unique(key, axis=0, return_index=True)
+        first = np.sort(first)
+        pa, pb, x = pairs[first, 0], pairs[first, 1], x[first]
+        # between the two the loads are linear in the station (every axle stays within its
+        # stringer span), so they follow from the ends exactly
+        tt = (x - self.front_ft[pa]) / (self.front_ft[pb] - self.front_ft[pa])
+        p = self.p[:, pa] + tt * (self.p[:, pb] - self.p[:, pa])
+        return p, [self.runs[self.run[a]].extreme(v) for a, v in zip(pa.tolist(), x.tolist(),
+                                                                   strict=True)]
 
 
 class PositionBatch:
