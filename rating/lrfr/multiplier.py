@@ -68,15 +68,19 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     best = np.minimum(np.broadcast_to(best, (xa.size, member.size)), LAM_MAX)
     Kc = capacity[None, :] - sense[None, :] * pc.F_dead[:, member]  # (K, R)
     # in one set the multiplier along the interval is at least Kc / max(b_a, b_b) (it is
-    # monotone), so only sets where an end is loaded beyond Kc / best can lower it
+    # monotone), so only sets where an end is loaded beyond Kc / best can lower it: first
+    # the intervals where some set is, then the sets
     S = pc.L[:, :, member] * sense  # (K, X, R)
     with np.errstate(divide="ignore", invalid="ignore"):
-        thr = np.where(best > 0, Kc[:, None, :] / np.where(best > 0, best, 1.0)[None],
-                       np.inf) * (1.0 + _ROUND_OFF)  # (K, I, R)
-    hot = ((S[:, xa, :] > thr) | (S[:, xb, :] > thr)) & (Kc[:, None, :] > 0)
-    k, i, r = np.nonzero(hot)
-    if not k.size:
+        load = np.where(Kc[:, None, :] > 0, S / np.where(Kc > 0, Kc, 1.0)[:, None, :], 0.0)
+    top = load.max(axis=0)  # (X, R)
+    i, r = np.nonzero(np.maximum(top[xa], top[xb]) * best > 1.0 + _ROUND_OFF)
+    if not i.size:
         return np.zeros(0, dtype=int), np.zeros(0)
+    hot = (np.maximum(load[:, xa[i], r], load[:, xb[i], r]) * best[i, r]
+           > 1.0 + _ROUND_OFF)  # (K, n)
+    k, q = np.nonzero(hot)
+    i, r = i[q], r[q]
     b0 = S[k, xa[i], r]
     b1 = S[k, xb[i], r] - b0
     K = Kc[k, r]

@@ -118,24 +118,33 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     if not r.size:
         return r, np.zeros(0)
     lo, hi, flo, fhi = grid[k], grid[k + 1], v[r, k], v[r, k + 1]
-    slo, shi = flo.copy(), fhi.copy()
+    slo, shi = flo.copy(), fhi.copy()  # Illinois-scaled values
     side = np.zeros(r.size, dtype=int)
-    for _ in range(40):  # to 1e-9 of the interval
+    out = 0.5 * (lo + hi)
+    live = np.arange(r.size)
+    for _ in range(60):  # each bracket to 1e-9 of the interval
         d = shi - slo
         with np.errstate(divide="ignore", invalid="ignore"):
             x = np.where(d != 0, hi - shi * (hi - lo) / np.where(d != 0, d, 1.0),
                          0.5 * (lo + hi))
         x = np.where((lo < x) & (x < hi), x, 0.5 * (lo + hi))
-        fx = f(r, x)
+        fx = f(r[live], x)
         same = np.isfinite(fx) & (np.sign(fx) == np.sign(flo))
         slo = np.where(same, fx, np.where(side == -1, 0.5 * slo, slo))
         shi = np.where(same, np.where(side == 1, 0.5 * shi, shi), fx)
         lo, flo = np.where(same, x, lo), np.where(same, fx, flo)
         hi = np.where(same, hi, x)
         side = np.where(same, 1, -1)
-        if np.all(hi - lo <= 1e-9):
+        done = (hi - lo <= 1e-9) | (fx == 0.0)
+        out[live[done]] = np.where(fx[done] == 0.0, x[done], 0.5 * (lo[done] + hi[done]))
+        if done.all():
             break
-    return r, 0.5 * (lo + hi)
+        keep = ~done
+        live, lo, hi, flo, slo, shi, side = (v_[keep] for v_ in (live, lo, hi, flo, slo, shi,
+                                                                  side))
+    else:
+        out[live] = 0.5 * (lo + hi)
+    return r, out
 
 
 def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
@@ -173,15 +182,33 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
     # every vector the pin check needs is linear in the member forces: projected once
     G0 = np.matmul(N0, T).reshape(r.size, -1, 2)
     G1 = np.matmul(Nl, T).reshape(r.size, -1, 2)
-    low, up = model.multiplier_bounds(G0, G1)
+    groups, pos = np.unique(group, return_inverse=True)
+    # bounds piece by piece along the paths, as far as a piece can still hold the least:
+    # past a piece that surely reaches the limit, or beyond the least upper bound of the
+    # load, the rest of a path cannot matter (its start is the path's lower bound)
+    low = np.full(r.size, np.nan)
+    up = np.full(r.size, np.nan)
     row_low = np.full(X, np.inf)
-    np.minimum.at(row_low, r, np.where(low <= ln, lo_q + low, np.inf))
+    row_up = np.full(X, np.inf)
+    settled = np.zeros(X, dtype=bool)
+    for jj in range(int(j.max(initial=-1)) + 1):
+        least = np.full(groups.size, np.inf)
+        np.minimum.at(least, pos, row_up)
+        here = np.flatnonzero((j == jj) & ~settled[r])
+        beyond = lo_q[here] > least[pos[r[here]]] * max(near, 1.0 + 1e-9) + 1e-12
+        gone = here[beyond]
+        row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
+        settled[r[gone]] = True
+        q = here[~beyond]
+        if not q.size:
+            continue
+        low[q], up[q] = model.multiplier_bounds(G0[q], G1[q])
+        np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
+        np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
+        settled[r[q[up[q] <= ln[q]]]] = True
     # a path the family covers only so far: the limit may lie beyond what is known
     short = pc.cover < LAM_MAX * (1.0 - 1e-9)
     row_low = np.where(short, np.minimum(row_low, pc.cover), row_low)
-    row_up = np.full(X, np.inf)
-    np.minimum.at(row_up, r, np.where(up <= ln, lo_q + up, np.inf))
-    groups, pos = np.unique(group, return_inverse=True)
     lam = row_low.copy()
     N_at = np.zeros((X, len(idx)))
     slot = np.full(X, -1)
@@ -193,6 +220,9 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         if not sel.size:
             return
         rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
+        missing = sel[np.isnan(low[sel])]
+        if missing.size:  # pieces the bounds above did not need
+            low[missing], up[missing] = model.multiplier_bounds(G0[missing], G1[missing])
         # a piece reaches the limit by its end where the bound says so, else where checked
         reach = up[sel] <= ln_s
         check = np.flatnonzero(~reach & (low[sel] <= ln_s))
