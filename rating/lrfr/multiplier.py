@@ -74,7 +74,8 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     with np.errstate(divide="ignore", invalid="ignore"):
         load = np.where(Kc[:, None, :] > 0, S / np.where(Kc > 0, Kc, 1.0)[:, None, :], 0.0)
     top = load.max(axis=0)  # (X, R)
-    i, r = np.nonzero(np.maximum(top[xa], top[xb]) * best > 1.0 + _ROUND_OFF)
+    with np.errstate(invalid="ignore"):  # (0 x -inf for a request a load does not have)
+        i, r = np.nonzero(np.maximum(top[xa], top[xb]) * best > 1.0 + _ROUND_OFF)
     if not i.size:
         return np.zeros(0, dtype=int), np.zeros(0)
     hot = (np.maximum(load[:, xa[i], r], load[:, xb[i], r]) * best[i, r]
