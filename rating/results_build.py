@@ -3,9 +3,10 @@
 from __future__ import annotations
 
 import math
+from itertools import accumulate
 
 from rating import __version__
-from rating.analysis.moving import Extreme, axle_stations
+from rating.analysis.moving import Direction, Extreme
 from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction
@@ -86,28 +87,51 @@ def group_member_notes(lines: list[str] | tuple[str, ...]) -> tuple[str, ...]:
 
 
 def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position | None:
-    """Where the vehicle stands for ``ext``; one object per extreme when ``memo`` is given
-    (the same extreme recurs for several members' cases and rating levels)."""
+    """Where the vehicle stands for ``ext``. With ``memo`` (one dict per results object) the
+    same extreme gives the same object (it recurs for several members' cases and rating
+    levels), and so do extremes that stand the vehicle at the same place: the views then
+    convert and write each position once."""
     if ext is None or (ext.position is None and not ext.lane_segments_ft):
         return None
-    if memo is not None:
-        key = (id(ext), load.id)
-        hit = memo.get(key)
-        if hit is None:
-            hit = memo[key] = (_position(ext, load), ext)  # ext kept alive with its id
-        return hit[0]
+    if memo is None:
+        return _new_position(ext, load)
+    key = (id(ext), load.id)
+    hit = memo.get(key)
+    if hit is None:
+        try:
+            same = (ext.position, ext.model, ext.lane_segments_ft, load.id)
+            pos = memo.get(same)
+            if pos is None:
+                pos = memo[same] = _new_position(ext, load)
+        except TypeError:  # a part that cannot be a key: one object per extreme only
+            pos = _new_position(ext, load)
+        hit = memo[key] = (pos, ext)  # ext kept alive with its id
+    return hit[0]
+
+
+def _new_position(ext: Extreme, load) -> Position:
+    lane = tuple((float(a), float(b)) for a, b in ext.lane_segments_ft)
     model = next((m for m in load.models if m.name == ext.model), None)
     if ext.position is None or model is None or model.axles is None:
-        return Position(0.0, "", (), (), (), ext.model, tuple(ext.lane_segments_ft))
+        return Position(0.0, "", (), (), (), ext.model, lane)
     v = model.axles
+    at = ext.position
+    front = float(at.front_axle_ft)
+    spacings = tuple(float(s) for s in at.spacings_ft)
+    # as rating.analysis.moving.axle_stations, in plain floats (the same sums, term by term)
+    offsets = (0.0, *accumulate(spacings))
+    if at.direction is Direction.FORWARD:
+        stations = tuple(front - d for d in offsets)
+    else:
+        stations = tuple(front + d for d in offsets)
     return Position(
-        front_axle_station=ext.position.front_axle_ft,
-        direction=ext.position.direction.value,
-        spacings=tuple(ext.position.spacings_ft),
-        axle_stations=tuple(float(x) for x in axle_stations(ext.position)),
+        front_axle_station=front,
+        direction=at.direction.value,
+        spacings=spacings,
+        axle_stations=stations,
         axle_loads=tuple(float(p) * v.axle_scale for p in v.axle_loads_kip),
         load_model=ext.model,
-        lane_segments=tuple(ext.lane_segments_ft),
+        lane_segments=lane,
     )
 
 
@@ -115,10 +139,22 @@ def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t,
             memo: dict | None = None) -> Rating:
     return Rating(
         rf=r.rf, sense=r.sense, check=r.check,
-        factors=Factors(r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s),
+        factors=_factors(r, memo),
         method=r.method, position=_position(r.extreme, case.load, memo),
         finding=text(finding_text(r.finding)),
     )
+
+
+def _factors(r: MemberCaseRating, memo: dict | None) -> Factors:
+    """The factors of one rating; one object for equal factors (plain floats) with ``memo``."""
+    values = (r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s)
+    if memo is None or not all(type(x) is float for x in values):
+        return Factors(*values)
+    key = ("factors", values)
+    hit = memo.get(key)
+    if hit is None:
+        hit = memo[key] = Factors(*values)
+    return hit
 
 
 def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
