@@ -12,7 +12,8 @@ import dataclasses
 import functools
 import json
 import math
-from collections.abc import Mapping
+import operator
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -336,10 +337,128 @@ def _plain(obj: Any, system: str, dimension: str | None, seen: dict[int, Any]) -
 
 def results_json(results: RatingResults) -> str:
     """Deterministic JSON text: same results, byte-identical file. Compact (no indentation):
-    the file is for programs; ``python -m json.tool`` shows it indented."""
+    the file is for programs; ``python -m json.tool`` shows it indented.
+
+    Written in one pass by :class:`_JsonText`, the same text as
+    ``json.dumps(to_plain(results, system), separators=(",", ":"), ensure_ascii=False)``
+    without building the plain structure first."""
     system = "SI" if results.units.get("force") == "kN" else "US"
-    return json.dumps(to_plain(results, system), separators=(",", ":"), sort_keys=False,
-                      ensure_ascii=False) + "\n"
+    return _JsonText(system).value(results, None) + "\n"
+
+
+_encode_str = json.encoder.encode_basestring  # the json module's own, ensure_ascii=False
+
+
+def _dumps(value: Any) -> str:
+    return json.dumps(value, separators=(",", ":"), ensure_ascii=False)
+
+
+def _values_of(names: tuple[str, ...]) -> Callable[[Any], tuple[Any, ...]]:
+    """The values of the fields ``names`` of an object, as a tuple (one C call)."""
+    if len(names) > 1:
+        return operator.attrgetter(*names)
+    if names:
+        get = operator.attrgetter(names[0])
+        return lambda obj: (get(obj),)
+    return lambda obj: ()
+
+
+# a dataclass's field values, and for each field '"name":', its dimension and number cache
+_Fields = tuple[Callable[[Any], tuple[Any, ...]],
+                tuple[tuple[str, str | None, dict[float, str]], ...]]
+
+
+class _JsonText:
+    """JSON text of results objects, as :func:`to_plain` + ``json.dumps`` would write it.
+
+    One instance per file. It remembers the text of every results object met (by identity:
+    the same position recurs for many members and cases; the objects are immutable, so their
+    text is too), of every number written (per dimension) and each dataclass's fields."""
+
+    def __init__(self, system: str) -> None:
+        self.system = system
+        self.plain: dict[float, str] = {}  # numbers written as they are
+        # numbers of each dimension (converted in SI; in US units all share ``plain``)
+        self.numbers: dict[str | None, dict[float, str]] = {None: self.plain}
+        self.objects: dict[int, tuple[str, Any]] = {}
+        self.fields: dict[type, _Fields] = {}
+
+    def cache(self, dimension: str | None) -> dict[float, str]:
+        c = self.numbers.get(dimension)
+        if c is None:
+            c = self.numbers[dimension] = self.plain if self.system == "US" else {}
+        return c
+
+    def number(self, x: float, dimension: str | None, cache: dict[float, str]) -> str:
+        """A float: converted, rounded to 6 decimals; infinities as strings, NaN as null."""
+        text = cache.get(x)
+        if text is None:
+            y = _convert(x, dimension, self.system)
+            if math.isfinite(y):
+                text = float.__repr__(round(y, 6) + 0.0)
+            else:
+                text = _dumps(_number(y))
+            if x == x:  # NaN is never found again: not kept
+                cache[x] = text
+        return text
+
+    def items(self, obj: Any, dimension: str | None) -> str:
+        cache = self.cache(dimension)
+        number, value = self.number, self.value
+        return "[" + ",".join([cache.get(v) or number(v, dimension, cache)
+                               if type(v) is float else value(v, dimension)
+                               for v in obj]) + "]"
+
+    def dataclass(self, obj: Any, fields: _Fields) -> str:
+        hit = self.objects.get(id(obj))
+        if hit is not None:
+            return hit[0]
+        parts = []
+        for (head, dim, cache), v in zip(fields[1], fields[0](obj), strict=True):
+            t = type(v)
+            if t is float:
+                parts.append(head + (cache.get(v) or self.number(v, dim, cache)))
+            elif t is str:
+                parts.append(head + _encode_str(v))
+            elif v is None:
+                parts.append(head + "null")
+            else:
+                parts.append(head + self.value(v, dim))
+        text = "{" + ",".join(parts) + "}"
+        self.objects[id(obj)] = (text, obj)  # obj kept alive with its id
+        return text
+
+    def value(self, obj: Any, dimension: str | None) -> str:
+        t = type(obj)
+        fields = self.fields.get(t)
+        if fields is not None:
+            return self.dataclass(obj, fields)
+        if t is float:
+            return self.number(obj, dimension, self.cache(dimension))
+        if t is str:
+            return _encode_str(obj)
+        if obj is None:
+            return "null"
+        if t is tuple or t is list:
+            return self.items(obj, dimension)
+        if t is bool:
+            return "true" if obj else "false"
+        if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
+            names = _fields_with_dimensions(t)
+            fields = self.fields[t] = (
+                _values_of(tuple(name for name, _ in names)),
+                tuple((_encode_str(name) + ":", dim, self.cache(dim)) for name, dim in names))
+            return self.dataclass(obj, fields)
+        if isinstance(obj, Mapping):
+            plain = {str(k): v for k, v in obj.items()}
+            value = self.value
+            return "{" + ",".join([_encode_str(k) + ":" + value(v, dimension)
+                                   for k, v in plain.items()]) + "}"
+        if isinstance(obj, tuple | list):
+            return self.items(obj, dimension)
+        if isinstance(obj, int | float):
+            return _dumps(_number(_convert(obj, dimension, self.system)))
+        return _dumps(obj)
 
 
 def units_block(system: str) -> dict[str, str]:

@@ -6,14 +6,24 @@ from __future__ import annotations
 
 import hashlib
 import json
+import math
 import shutil
+import sys
+from dataclasses import replace
 from pathlib import Path
 
+import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
-from rating.cli import main
-from rating.pipeline import rate_workbook
-from rating.results import results_json
+sys.path.insert(0, str(Path(__file__).resolve().parent / "report"))
+
+from sample_results import sample_results  # noqa: E402
+
+from rating.cli import main  # noqa: E402
+from rating.pipeline import rate_workbook  # noqa: E402
+from rating.results import Position, results_json, to_plain  # noqa: E402
 
 ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = sorted((ROOT / "sample_inventory").glob("*.xlsx"))
@@ -85,3 +95,58 @@ def test_exit_codes(tmp_path, capsys):
     assert "broken.xlsx" in err and "Traceback" not in err
     assert main(["vehicles"]) == 0
     assert "HL-93" in capsys.readouterr().out
+
+
+def _through_json_module(res) -> str:
+    """The results file as the plain view (``to_plain``) written by the json module: what
+    ``results_json`` writes in one pass."""
+    system = "SI" if res.units.get("force") == "kN" else "US"
+    return json.dumps(to_plain(res, system), separators=(",", ":"), ensure_ascii=False) + "\n"
+
+
+@pytest.mark.parametrize("name", [p.name for p in SAMPLES])
+def test_results_file_is_the_plain_view_written_by_the_json_module(outcomes, name):
+    res = outcomes[name].results
+    assert res is not None
+    assert results_json(res) == _through_json_module(res)
+
+
+@pytest.mark.parametrize("system", ["US", "SI"])
+def test_results_file_odd_values_as_the_json_module_writes_them(system):
+    """Infinities, NaN, negative zero, integers with and without a unit, text that needs
+    escaping, odd mapping keys, shared and repeated objects."""
+    res = sample_results(system)
+    m = res.members[0]
+    vid, r = next(iter(m.ratings.items()))
+    pos = Position(-0.0, "reverse", (14, 14.0), (-0.0, 14.0, 28.0), (8.0, 32, 32.0), "truck",
+                   ((0.0, 1e-7), (2.5e-7, 160.0)))
+    odd = replace(
+        m, dead_load={"DC": math.inf, "DW": -0.0, 7: 3, True: -math.inf},
+        ratings={**m.ratings, vid: replace(r, rf=math.nan, position=pos),
+                 "other": replace(r, rf=-math.inf, position=pos)},
+        warnings=('quote " backslash \\ </script> \u00fc \u2014 \x01 tab\t', ""))
+    res = replace(res, members=(odd, *res.members[1:], odd),
+                  distribution={"factor": 0.8, "lanes": 2, "flag": True, "none": None,
+                                "list": [1, 2.5, math.inf, "x"], "nested": {"a": -0.0}},
+                  bridge=replace(res.bridge, year_built=1898, span=160))
+    assert results_json(res) == _through_json_module(res)
+
+
+@settings(max_examples=80, deadline=None)
+@given(front=st.floats(-400.0, 600.0), reverse=st.booleans(),
+       spacings=st.lists(st.floats(0.0, 40.0), min_size=6, max_size=6))
+def test_result_positions_place_the_axles_as_the_moving_load_search(front, reverse, spacings):
+    """The results hold each axle's station as plain floats, equal to the last bit to
+    ``rating.analysis.moving.axle_stations`` (the search's own)."""
+    from rating.analysis.moving import Direction, Extreme, VehiclePosition, axle_stations
+    from rating.results_build import _position
+    from rating.vehicles.library import rating_loads
+
+    load = next(x for x in rating_loads() if x.id == "SU7")
+    at = VehiclePosition(front, Direction.REVERSE if reverse else Direction.FORWARD,
+                         tuple(spacings))
+    ext = Extreme(1.0, 0.0, load.models[0].name, load.models[0].vehicle_id, at)
+    pos = _position(ext, load, {})
+    assert all(type(x) is float for x in pos.axle_stations)
+    assert np.array(pos.axle_stations).tobytes() == axle_stations(at).tobytes()
+    assert pos == _position(ext, load)
