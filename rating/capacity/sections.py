@@ -147,18 +147,20 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
     """
     if not rects:
         return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
-    a = np.array([(r.cx_in, r.cy_in, r.bx_in, r.by_in) for r in rects], dtype=float)
-    cx, cy, bx, by = a.T
-    A = bx * by
-    At = float(A.sum())
+    # a handful of rectangles: plain arithmetic (array set-up would cost more than the sums)
+    A = [r.bx_in * r.by_in for r in rects]
+    At = math.fsum(A)
     if At <= 0.0:
         return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
-    xc = float((A * cx).sum() / At)
-    yc = float((A * cy).sum() / At)
-    dx, dy = cx - xc, cy - yc
-    I_x = float((bx * by**3 / 12.0 + A * dy**2).sum())
-    I_y = float((by * bx**3 / 12.0 + A * dx**2).sum())
-    I_xy = float((A * dx * dy).sum())
+    xc = math.fsum(a * r.cx_in for a, r in zip(A, rects, strict=True)) / At
+    yc = math.fsum(a * r.cy_in for a, r in zip(A, rects, strict=True)) / At
+    parts_x, parts_y, parts_xy = [], [], []
+    for a, r in zip(A, rects, strict=True):
+        dx, dy = r.cx_in - xc, r.cy_in - yc
+        parts_x.append(r.bx_in * r.by_in**3 / 12.0 + a * dy**2)
+        parts_y.append(r.by_in * r.bx_in**3 / 12.0 + a * dx**2)
+        parts_xy.append(a * dx * dy)
+    I_x, I_y, I_xy = math.fsum(parts_x), math.fsum(parts_y), math.fsum(parts_xy)
     return AreaProperties(At, xc, yc, I_x, I_y, I_xy)
 
 
