@@ -38,6 +38,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 from enum import StrEnum
+from functools import cached_property
 
 import numpy as np
 
@@ -165,13 +166,29 @@ class AxleExtremes:
 
     def position(self, sense: int, k: int) -> VehiclePosition | None:
         """Critical position of member ``k`` for ``sense`` 0 (max) or 1 (min)."""
-        if not self.found[sense, k]:
-            return None
-        return VehiclePosition(
-            float(self.front_axle_ft[sense, k]),
-            Direction.REVERSE if self.reverse[sense, k] else Direction.FORWARD,
-            tuple(float(s) for s in self.spacings_ft[sense, k]),
-        )
+        return self.positions[sense][k]
+
+    @cached_property
+    def positions(self) -> tuple[tuple[VehiclePosition | None, ...], ...]:
+        """Every critical position, per sense and member (one object for equal positions)."""
+        made: dict[tuple, VehiclePosition] = {}
+        out = []
+        for found, front, rev, spac in zip(self.found.tolist(), self.front_axle_ft.tolist(),
+                                           self.reverse.tolist(), self.spacings_ft.tolist(),
+                                           strict=True):
+            row = []
+            for f, x, r, sp in zip(found, front, rev, spac, strict=True):
+                if not f:
+                    row.append(None)
+                    continue
+                key = (x, r, tuple(sp))
+                pos = made.get(key)
+                if pos is None:
+                    pos = made[key] = VehiclePosition(
+                        x, Direction.REVERSE if r else Direction.FORWARD, key[2])
+                row.append(pos)
+            out.append(tuple(row))
+        return tuple(out)
 
 
 # ---------------------------------------------------------------------------------------------
