@@ -59,8 +59,8 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     """Points between neighbouring positions that can lower a request's least multiplier
     ``best`` ((R,), or (I, R) per interval): (interval index, t in (0, 1)) of each, where in
     some active set the member reaches its resistance just as a condition of that set reaches
-    its limit (see the module docstring). Uses every set of the table; the positions of
-    ``intervals`` (I, 2) index the loadings of ``pc``."""
+    its limit (see the module docstring). Uses the sets on the paths at either end; the
+    positions of ``intervals`` (I, 2) index the loadings of ``pc``."""
     if not intervals.size or not member.size:
         return np.zeros(0, dtype=int), np.zeros(0)
     xa, xb = intervals[:, 0], intervals[:, 1]
@@ -70,20 +70,27 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     # in one set the multiplier along the interval is at least Kc / max(b_a, b_b) (it is
     # monotone), so only sets where an end is loaded beyond Kc / best can lower it: first
     # the intervals where some set is, then the sets
-    S = pc.L[:, :, member] * sense  # (K, X, R)
     with np.errstate(divide="ignore", invalid="ignore"):
-        load = np.where(Kc[:, None, :] > 0, S / np.where(Kc > 0, Kc, 1.0)[:, None, :], 0.0)
+        scale = np.where(Kc > 0, sense[None, :] / np.where(Kc > 0, Kc, 1.0), 0.0)  # (K, R)
+    load = pc.L[:, :, member]  # (K, X, R): the member's live force over Kc in each set
+    load *= scale[:, None, :]
     top = load.max(axis=0)  # (X, R)
     with np.errstate(invalid="ignore"):  # (0 x -inf for a request a load does not have)
         i, r = np.nonzero(np.maximum(top[xa], top[xb]) * best > 1.0 + _ROUND_OFF)
     if not i.size:
         return np.zeros(0, dtype=int), np.zeros(0)
-    hot = (np.maximum(load[:, xa[i], r], load[:, xb[i], r]) * best[i, r]
-           > 1.0 + _ROUND_OFF)  # (K, n)
-    k, q = np.nonzero(hot)
-    i, r = i[q], r[q]
-    b0 = S[k, xa[i], r]
-    b1 = S[k, xb[i], r] - b0
+    # the sets on the path at either end (an order of two changes of state can swap only
+    # once between two positions, so a set that holds in between holds at an end too)
+    ends = np.concatenate([pc.k[xa[i]], pc.k[xb[i]]], axis=1)  # (n, 2J)
+    ks = np.maximum(ends, 0)
+    hot = (ends >= 0) & (np.maximum(load[ks, xa[i][:, None], r[:, None]],
+                                    load[ks, xb[i][:, None], r[:, None]])
+                         * best[i, r][:, None] > 1.0 + _ROUND_OFF)
+    hot[:, 1:] &= ends[:, 1:] != ends[:, :-1]  # (a set twice in a row at one end)
+    q, c = np.nonzero(hot)
+    k, i, r = ks[q, c], i[q], r[q]
+    b0 = sense[r] * pc.L[k, xa[i], member[r]]
+    b1 = sense[r] * pc.L[k, xb[i], member[r]] - b0
     K = Kc[k, r]
     A = pc.A[k]  # (n, C)
     Ba, Bb = pc.B[k, xa[i]], pc.B[k, xb[i]]
