@@ -558,7 +558,8 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
 
     For a load with a lane part or a variable spacing (HL-93) the runs are those of the
     vehicle (model, spacing, lane segments) at which each member rated on the path has its
-    least multiplier among the envelope positions, both ways."""
+    least multiplier among the envelope positions, both ways, over two panels each side of
+    where it stands there."""
     im = case.im.value
     loose: dict[tuple, Extreme] = {}
     for m in g.members:
@@ -579,8 +580,9 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
                   for fs, (P, state) in dead_states.items()], axis=0)
     chosen = [ps.extreme(first_of_least(lam[:, r])) for r in range(member.size)
               if np.isfinite(lam[:, r]).any()]
+    reach = 2.0 * float(np.diff(g.deck_stations_ft).max())
     return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
-                       runs_of(case.load, chosen))
+                       runs_of(case.load, chosen, reach))
 
 
 def _requests(g: TrussGeometry, group_plans: list[dict[str, list[_SensePlan]]],

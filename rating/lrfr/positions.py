@@ -53,6 +53,12 @@ class Run:
     lane_klf: float = 0.0
     lane_segments_ft: tuple[tuple[float, float], ...] = ()
     neglect_opposing_axles: bool = False
+    window_ft: tuple[float, float] | None = None  # stations of the vehicle's middle searched
+
+    def middle_ft(self, fronts_ft: np.ndarray) -> np.ndarray:
+        """Station of the vehicle's middle (half way from front to rear axle)."""
+        half = 0.5 * float(sum(self.spacings_ft))
+        return fronts_ft - half if self.direction is Direction.FORWARD else fronts_ft + half
 
     def extreme(self, front_axle_ft: float) -> Extreme:
         return Extreme(0.0, 0.0, self.model, self.vehicle_id,
@@ -60,10 +66,11 @@ class Run:
                        self.lane_klf, self.lane_segments_ft, self.neglect_opposing_axles)
 
 
-def runs_of(load: RatingLoad, extremes: Iterable[Extreme]) -> list[Run]:
+def runs_of(load: RatingLoad, extremes: Iterable[Extreme], reach_ft: float = 0.0
+            ) -> list[Run]:
     """The runs to search for a load: its one vehicle both ways for a load of fixed-spacing
-    axles alone; otherwise every vehicle (model, spacing, lane segments) among ``extremes``
-    (the envelope positions of the members rated on the load path), both ways."""
+    axles alone; otherwise every vehicle (model, spacing, lane segments) among ``extremes``,
+    both ways, over the stretch of deck within ``reach_ft`` of where it stands in them."""
     if fixed_axles_only(load):
         mo = load.models[0]
         spac = tuple(float(sp.min_ft) for sp in mo.axles.spacings)
@@ -75,11 +82,16 @@ def runs_of(load: RatingLoad, extremes: Iterable[Extreme]) -> list[Run]:
         # lane segments that differ by round-off (a zero crossing found from two lines)
         # are one loading
         segs = tuple((round(a, 6), round(b, 6)) for a, b in e.lane_segments_ft)
+        spac = tuple(e.position.spacings_ft)
+        here = Run(e.model, e.vehicle_id, e.position.direction, spac)
+        mid = float(here.middle_ft(np.array([e.position.front_axle_ft]))[0])
         for d in BOTH_DIRECTIONS:
-            out.setdefault((e.model, d, tuple(e.position.spacings_ft), segs),
-                           Run(e.model, e.vehicle_id, d, tuple(e.position.spacings_ft),
-                               e.lane_klf, tuple(e.lane_segments_ft),
-                               e.neglect_opposing_axles))
+            key = (e.model, d, spac, segs)
+            lo, hi = mid - reach_ft, mid + reach_ft
+            if key in out and out[key].window_ft is not None:
+                lo, hi = min(lo, out[key].window_ft[0]), max(hi, out[key].window_ft[1])
+            out[key] = Run(e.model, e.vehicle_id, d, spac, e.lane_klf, tuple(e.lane_segments_ft),
+                           e.neglect_opposing_axles, (lo, hi))
     return list(out.values())
 
 
@@ -113,6 +125,9 @@ class PositionSet:
         on_runs: dict[tuple, set[float]] = {}
         for r, run in enumerate(self.runs):
             x = panel_point_fronts(self.stations, run.spacings_ft, run.direction)
+            if run.window_ft is not None:
+                mid = run.middle_ft(x)
+                x = x[(mid >= run.window_ft[0] - 1e-9) & (mid <= run.window_ft[1] + 1e-9)]
             start = len(run_of)
             cols.append(self.run_loads(run, x))
             run_of.extend([r] * x.size)
