@@ -89,13 +89,14 @@ def _bar_zero_lines(store: PathStore, idx: list[int], ia: np.ndarray, ib: np.nda
 
 
 def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
-               dN: np.ndarray, A: np.ndarray, B: np.ndarray, Cc: np.ndarray
-               ) -> tuple[np.ndarray, np.ndarray]:
+               dN: np.ndarray, A: np.ndarray, B: np.ndarray, Cc: np.ndarray,
+               below: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
     reaches its limit just as the bar passes zero: the pin check minus one along the bar's
     zero is searched for sign changes on a grid of 16, all lines at once, and each bracket is
     closed by the Illinois regula falsi (all at once). ``T``: :func:`_projector` of the pin.
-    Returns (line, t) of each point found."""
+    Only points with lam below ``below`` (per line) are wanted. Returns (line, t) of each
+    point found."""
     if not A.size:
         return np.zeros(0, dtype=int), np.zeros(0)
     GD, GA, GdN = Nd @ T, Na @ T, dN @ T
@@ -111,7 +112,16 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
 
     grid = np.linspace(0.0, 1.0, 17)[1:-1]
     n, m = A.size, grid.size
-    v = f(np.repeat(np.arange(n), m), np.tile(grid, n)).reshape(n, m)
+    # the pin check is needed only where 0 < lam < ``below`` on the line (and at the grid
+    # point next to such a stretch, to bracket a root near its end)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        lam_g = -Cc[:, None] / (A[:, None] + B[:, None] * grid[None, :])
+    want = (lam_g > 0) & (lam_g < below[:, None])
+    want[:, 1:] |= want[:, :-1]
+    want[:, :-1] |= want[:, 1:]
+    v = np.full((n, m), np.nan)
+    rr, kk = np.nonzero(want)
+    v[rr, kk] = f(rr, grid[kk])
     ok = np.isfinite(v[:, :-1]) & np.isfinite(v[:, 1:]) & (np.sign(v[:, :-1])
                                                            != np.sign(v[:, 1:]))
     r, k = np.nonzero(ok)
@@ -144,7 +154,10 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
                                                                   side))
     else:
         out[live] = 0.5 * (lo + hi)
-    return r, out
+    with np.errstate(divide="ignore", invalid="ignore"):
+        lam = -Cc[r] / (A[r] + B[r] * out)
+    keep = (lam > 0) & (lam < below[r])
+    return r[keep], out[keep]
 
 
 def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
@@ -395,7 +408,17 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
         ok[ok] = (slk[ka[ok]] != slk[kb[ok]]).any(axis=1)
         sel = np.flatnonzero(ok)
         *line, owner = _bar_zero_lines(store, idx, ia[sel], ib[sel], ka[sel], kb[sel])
-        at, ts = _pin_kinks(model, T, *line)
+        # on a bar's zero line lam = -c / (a + b t) is monotone in t: where it is at least
+        # the least already found at both ends, no point on it can lower the least
+        a_, b_, c_ = line[3], line[4], line[5]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ends = np.stack([-c_ / a_, -c_ / (a_ + b_)])
+        low_end = np.where(ends > 0, ends, np.inf).min(axis=0)
+        below = best[batch.group[ia[sel][owner]]] * (1.0 - 1e-9)
+        useful = low_end < below
+        line = [v[useful] for v in line]
+        owner = owner[useful]
+        at, ts = _pin_kinks(model, T, *line, below[useful])
         pairs = batch.intervals[sel[owner[at]]]
         if pairs.size:
             p_new, extra, extra_group = batch.between(pairs, ts)
