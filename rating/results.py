@@ -15,6 +15,7 @@ import math
 import operator
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
+from types import MappingProxyType
 from typing import Any
 
 from rating.units import from_core
@@ -300,6 +301,12 @@ def _number(x: float) -> float | str | None:
 def _fields_with_dimensions(cls: type) -> tuple[tuple[str, str | None], ...]:
     return tuple((f.name, f.metadata.get("dimension") if f.metadata else None)
                  for f in dataclasses.fields(cls))
+
+
+@functools.cache
+def dimensions(cls: type) -> Mapping[str, str | None]:
+    """Field name -> dimension (``None``: no unit) of a results dataclass."""
+    return MappingProxyType(dict(_fields_with_dimensions(cls)))
 
 
 def to_plain(obj: Any, system: str = "US", dimension: str | None = None) -> Any:

@@ -9,10 +9,10 @@ from __future__ import annotations
 import dataclasses
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Any
 
-from rating.results import DISPLAY_UNITS, RatingResults
+from rating.results import DISPLAY_UNITS, RatingResults, dimensions
 from rating.units import from_core
 
 DASH = "\u2014"  # shown where there is no number (no live load of that sense, not rated)
@@ -55,9 +55,15 @@ def _fixed(x: float, decimals: int, signed: bool = False) -> str:
 
 @dataclass(frozen=True)
 class Display:
-    """Formatting rules of one report: unit system and precision."""
+    """Formatting rules of one report: unit system and precision.
+
+    A report shows the same values many times (axle loads, stations, rating factors): each
+    float is formatted once per rule and remembered in ``_texts`` (a memo of this object's
+    pure functions, not part of its value)."""
 
     system: str = "US"
+    _texts: dict[tuple[Any, ...], str] = field(default_factory=dict, init=False, repr=False,
+                                               compare=False)
 
     # ------------------------------------------------------------------ units
     def unit(self, dimension: str) -> str:
@@ -76,6 +82,16 @@ class Display:
     def number(self, value: float | None, dimension: str | None = None,
                decimals: int | None = None, signed: bool = False) -> str:
         """A quantity converted and rounded; ``None``/NaN/infinite as a dash."""
+        if type(value) is float:  # the usual case, remembered (ints and bools are not)
+            key = (value, dimension, decimals, signed)
+            text = self._texts.get(key)
+            if text is None:
+                text = self._texts[key] = self._number(value, dimension, decimals, signed)
+            return text
+        return self._number(value, dimension, decimals, signed)
+
+    def _number(self, value: float | None, dimension: str | None, decimals: int | None,
+                signed: bool) -> str:
         if value is None or not _is_number(value) or not math.isfinite(value):
             return DASH
         if decimals is None:
@@ -96,6 +112,16 @@ class Display:
         """Rating factor to 2 decimals, rounded down (0.996 shows 0.99, never 1.00);
         +inf (no live-load effect) and missing as a dash; -inf (the member cannot carry
         its dead load, or has no resistance in the sense loaded) as minus infinity."""
+        if type(value) is float:
+            key = ("rf", value)
+            text = self._texts.get(key)
+            if text is None:
+                text = self._texts[key] = self._rf(value)
+            return text
+        return self._rf(value)
+
+    @staticmethod
+    def _rf(value: float | None) -> str:
         if value is None or not _is_number(value) or math.isnan(value):
             return DASH
         if math.isinf(value):
@@ -114,9 +140,7 @@ class Display:
 
     def field(self, obj: Any, name: str, signed: bool = False) -> str:
         """A dataclass field formatted by its own metadata (dimension)."""
-        f = {f.name: f for f in dataclasses.fields(obj)}[name]
-        dim = f.metadata.get("dimension") if f.metadata else None
-        return self.number(getattr(obj, name), dim, signed=signed)
+        return self.number(getattr(obj, name), dimensions(type(obj))[name], signed=signed)
 
     def label(self, obj: Any, name: str) -> str:
         """Column header of a field: its metadata label with the display unit."""

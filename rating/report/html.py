@@ -54,6 +54,7 @@ def environment() -> jinja2.Environment:
         trim_blocks=True,
         lstrip_blocks=True,
         keep_trailing_newline=True,
+        auto_reload=False,  # the templates are package data: never changed while running
     )
     env.filters["css_string"] = css_string
     return env

@@ -9,6 +9,7 @@ Drawing coordinates are in pixels of the SVG viewBox; numbers shown are converte
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from collections.abc import Iterable, Sequence
@@ -55,26 +56,36 @@ class RFBands:
 
     edges: tuple[float, float, float] = (0.3, 1.0, 1.2)
 
-    @property
+    @functools.cached_property
     def bands(self) -> tuple[Band, ...]:
         a, b, c = (f"{e:g}" for e in self.edges)
+        k0, k1, k2, k3, nr = _BAND_KEYS
         return (
-            Band("b0", f"RF < {a}", "#8e1b1b", 6.0),
-            Band("b1", f"{a} \u2264 RF < {b}", "#e0702a", 4.5),
-            Band("b2", f"{b} \u2264 RF < {c}", "#d9b526", 3.2),
-            Band("b3", f"RF \u2265 {c}", "#2f6f9f", 2.2),
-            Band("nr", "not rated", "#9a9a9a", 1.6, "5 3"),
+            Band(k0, f"RF < {a}", "#8e1b1b", 6.0),
+            Band(k1, f"{a} \u2264 RF < {b}", "#e0702a", 4.5),
+            Band(k2, f"{b} \u2264 RF < {c}", "#d9b526", 3.2),
+            Band(k3, f"RF \u2265 {c}", "#2f6f9f", 2.2),
+            Band(nr, "not rated", "#9a9a9a", 1.6, "5 3"),
         )
 
     def band(self, rf: float | None) -> Band:
         """The band of a lowest RF (``None``: not rated; +inf: no live load, drawn as >= top)."""
-        bands = self.bands
+        return self.bands[self._index(rf)]
+
+    def key(self, rf: float | None) -> str:
+        """The key of that band (``band(rf).key``), for shading a table cell."""
+        return _BAND_KEYS[self._index(rf)]
+
+    def _index(self, rf: float | None) -> int:
         if rf is None or (isinstance(rf, float) and math.isnan(rf)):
-            return bands[4]
+            return 4
         for k, edge in enumerate(self.edges):
             if rf < edge:
-                return bands[k]
-        return bands[3]
+                return k
+        return 3
+
+
+_BAND_KEYS = ("b0", "b1", "b2", "b3", "nr")  # the CSS classes of the bands, lowest first
 
 
 def lowest_rating(ratings: Iterable[tuple[str, Rating]]) -> tuple[str, Rating] | None:
@@ -99,18 +110,18 @@ def _f(x: float) -> str:
 def _text(x: float, y: float, content: str, *, size: float = 9, anchor: str = "middle",
           cls: str = "", weight: str = "normal", fill: str = "#222", halo: bool = False,
           rotate: float | None = None) -> str:
-    attrs = [f'x="{_f(x)}"', f'y="{_f(y)}"', f'font-size="{size:g}"',
-             f'text-anchor="{anchor}"', f'fill="{fill}"']
+    fx, fy = _f(x), _f(y)
+    more = ""
     if weight != "normal":
-        attrs.append(f'font-weight="{weight}"')
+        more += f' font-weight="{weight}"'
     if cls:
-        attrs.append(f'class="{escape(cls)}"')
+        more += f' class="{escape(cls)}"'
     if halo:
-        attrs.append('stroke="#fff" stroke-width="3" paint-order="stroke" '
-                     'stroke-linejoin="round"')
+        more += ' stroke="#fff" stroke-width="3" paint-order="stroke" stroke-linejoin="round"'
     if rotate is not None:
-        attrs.append(f'transform="rotate({rotate:g} {_f(x)} {_f(y)})"')
-    return f"<text {' '.join(attrs)}>{escape(content)}</text>"
+        more += f' transform="rotate({rotate:g} {fx} {fy})"'
+    return (f'<text x="{fx}" y="{fy}" font-size="{size:g}" text-anchor="{anchor}" '
+            f'fill="{fill}"{more}>{escape(content)}</text>')
 
 
 def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> Markup:
@@ -488,16 +499,16 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
                 f'width="{_f(total * s + 24)}" height="{_f(pin_h)}" fill="#e8e8e8" '
                 f'stroke="#444" stroke-width="1"/>')
     first_face = x + rows[0].gap_before * s
+    plate_y, unit = _f(pin_y - 34), display.unit("dimension")
     for k, r in enumerate(rows):
         x += r.gap_before * s
         w = max(r.thickness * s, 1.0)
-        filler = r.member is None
-        fill = "url(#fillhatch)" if filler else "#cfdbe6"
-        body.append(f'<rect x="{_f(x)}" y="{_f(pin_y - 34)}" width="{_f(w)}" height="68" '
-                    f'fill="{fill}" stroke="#222" stroke-width="1"><title>{k + 1}: '
-                    f'{escape(r.member or "filler")}, {escape(display.field(r, "thickness"))} '
-                    f'{display.unit("dimension")}</title></rect>')
+        fill = "url(#fillhatch)" if r.member is None else "#cfdbe6"
         name = r.member or "filler"
+        body.append(f'<rect x="{_f(x)}" y="{plate_y}" width="{_f(w)}" height="68" '
+                    f'fill="{fill}" stroke="#222" stroke-width="1"><title>{k + 1}: '
+                    f'{escape(name)}, {escape(display.field(r, "thickness"))} '
+                    f'{unit}</title></rect>')
         body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
         body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))
         x += r.thickness * s

@@ -94,16 +94,13 @@ class MemberRow:
 
 
 @dataclass(frozen=True)
-class LiveCell:
-    ll_max: str
-    ll_min: str
-    rf: Cell
-
-
-@dataclass(frozen=True)
 class LiveRow:
+    """One member's row of a live-load table. ``cells``: for each vehicle, LL+IM max and min
+    and the RF as HTML table cells (the largest table of the report: its cells are built
+    here, escaped, rather than cell by cell in the template)."""
+
     id: str
-    cells: tuple[LiveCell, ...]
+    cells: Markup
 
 
 @dataclass(frozen=True)
@@ -332,7 +329,7 @@ def controls(results: RatingResults) -> tuple[Control, ...]:
 
 
 def _cell(d: Display, bands: svg.RFBands, rf: float | None) -> Cell:
-    return Cell(d.rf(rf), bands.band(rf).key if rf is not None else bands.band(None).key)
+    return Cell(d.rf(rf), bands.key(rf))
 
 
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
@@ -409,10 +406,13 @@ def build_view(results: RatingResults, *, paper: str | None = None,
                   d.unit("stress"), d.unit("weight"), d.unit("line load"))
     has_dash = False
     has_neg_inf = False
+    rf_cells: dict[float | None, Cell] = {}  # one per RF shown (they repeat in the tables)
 
     def rf_cell(rf: float | None) -> Cell:
         nonlocal has_dash, has_neg_inf
-        c = _cell(d, bands, rf)
+        c = rf_cells.get(rf)
+        if c is None:
+            c = rf_cells[rf] = _cell(d, bands, rf)
         has_dash = has_dash or c.text == DASH
         has_neg_inf = has_neg_inf or c.text == NEG_INF
         return c
@@ -552,11 +552,14 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             for v in chunk:
                 ll = m.live_load.get(v.id)
                 r = m.ratings.get(v.id)
-                cells.append(LiveCell(
-                    d.force(ll.max_with_im, signed=True) if ll else DASH,
-                    d.force(ll.min_with_im, signed=True) if ll else DASH,
-                    rf_cell(r.rf if r else None)))
-            lrows.append(LiveRow(m.id, tuple(cells)))
+                hi = d.force(ll.max_with_im, signed=True) if ll else DASH
+                lo = d.force(ll.min_with_im, signed=True) if ll else DASH
+                rf = rf_cell(r.rf if r else None)
+                # numbers and band keys only, as Display and RFBands write them: nothing
+                # to escape
+                cells.append(f'<td class="num">{hi}</td><td class="num">{lo}</td>'
+                             f'<td class="rf {rf.band}">{rf.text}</td>')
+            lrows.append(LiveRow(m.id, Markup("".join(cells))))
         live_tables.append(LiveTable(chunk, tuple(lrows)))
 
     pins = tuple(_pin_view(p, d, bands, vmap, rf_cell) for p in results.pins)
