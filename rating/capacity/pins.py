@@ -55,8 +55,8 @@ def lrfd_flexure_shear(M_u, V_u, D, F_y, phi_f: float = PHI_F, phi_v: float = PH
     AASHTO LRFD 6.7.6.2.1, Eq. 6.7.6.2.1-1. [value from memory]
     """
     M_u = np.asarray(M_u, dtype=float)
-    V_u = np.asarray(V_u, dtype=float)
-    return 6.0 * M_u / (phi_f * D**3 * F_y) + (2.2 * V_u / (phi_v * D**2 * F_y)) ** 3
+    v = np.asarray(V_u, dtype=float) * (2.2 / (phi_v * D**2 * F_y))
+    return M_u * (6.0 / (phi_f * D**3 * F_y)) + v * v * v
 
 
 def lrfd_bearing_nominal(t, D, F_y):
@@ -590,6 +590,13 @@ def _crossing(u, lo: float, hi: float) -> float:
 # --------------------------------------------------------------------------------------------
 
 
+def _length(G: np.ndarray) -> np.ndarray:
+    """Length of each 2-vector of G (..., 2) (moments and forces of a few hundred kip-in: no
+    overflow to guard against, so no hypot, several times slower)."""
+    x, y = G[..., 0], G[..., 1]
+    return np.sqrt(x * x + y * y)
+
+
 class PinModel:
     """One pin with its layout fixed, evaluated for whole batches of load states.
 
@@ -648,7 +655,7 @@ class PinModel:
 
     def _parts(self, G: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Utilizations from the projected vectors G = W @ F (..., K, 2)."""
-        g = np.hypot(G[..., 0], G[..., 1])
+        g = _length(G)
         n = self._n_sections
         M = np.maximum(g[..., :n], g[..., n:2 * n])
         V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
@@ -671,8 +678,7 @@ class PinModel:
         bound below its root. Upper: each vector is at least lam |G1| - |G0| long, so one
         moment, one shear or one plate's bearing alone reaches its limit there.
         """
-        a = np.hypot(G0[..., 0], G0[..., 1])
-        b = np.hypot(G1[..., 0], G1[..., 1])
+        a, b = _length(G0), _length(G1)
         n = self._n_sections
         c1 = self.phi_f * self.D**3 * self.material.F_y
         c2 = self.phi_v * self.D**2 * self.material.F_y
@@ -682,8 +688,13 @@ class PinModel:
         vA = a[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
         vB = b[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
 
-        def f(lam: np.ndarray) -> np.ndarray:
-            return 6.0 * (mA + lam * mB) / c1 + (2.2 * (vA + lam * vB) / c2) ** 3 - lim
+        # 6 M / c1 + (2.2 V / c2)^3 - limit with M = mA + lam mB, V = vA + lam vB
+        m0, m1 = mA * (6.0 / c1), mB * (6.0 / c1)
+        v0, v1 = vA * (2.2 / c2), vB * (2.2 / c2)
+
+        def f(lam: np.ndarray | float) -> np.ndarray:
+            v = v0 + lam * v1
+            return m0 + lam * m1 + v * v * v - lim
 
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             f0 = f(0.0)
@@ -692,7 +703,8 @@ class PinModel:
             fin = np.isfinite(hi)
             h = np.where(fin, hi, 0.0)
             for _ in range(2):  # Newton from above: stays above the root of a convex f
-                slope = 6.0 * mB / c1 + 3.0 * (2.2 / c2) ** 3 * (vA + h * vB) ** 2 * vB
+                v = v0 + h * v1
+                slope = m1 + 3.0 * v * v * v1
                 h = np.where(slope > 0, np.maximum(h - f(h) / np.where(slope > 0, slope, 1.0),
                                                    0.0), h)
             fh = f(h)
