@@ -56,9 +56,11 @@ def test_utilization_matches_the_one_state_check(n, t):
     F = model.point_forces(np.array(n), np.array(ext))
     u = float(model.utilization(F))
     ref = pin_check(pin, actions(N), external_kip=ext)
-    assert u == pytest.approx(ref.utilization, rel=1e-9, abs=1e-12)
+    # (abs: the one-state check names the first of the sections within 1e-9 of the most
+    # utilized as governing, which for forces of a millionth of a kip is not the largest)
+    assert u == pytest.approx(ref.utilization, rel=1e-9, abs=2e-9)
     u_fs, u_b = model.utilization_parts(F)
-    assert float(u_fs) == pytest.approx(ref.utilization_flexure_shear, rel=1e-9, abs=1e-12)
+    assert float(u_fs) == pytest.approx(ref.utilization_flexure_shear, rel=1e-9, abs=2e-9)
     assert float(u_b) == pytest.approx(ref.utilization_bearing, rel=1e-9, abs=1e-12)
 
 
