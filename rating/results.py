@@ -401,7 +401,14 @@ class _JsonText:
         text = cache.get(x)
         if text is None:
             y = _convert(x, dimension, self.system)
-            if math.isfinite(y):
+            if 1e-4 <= abs(y) < 1e8:
+                # repr(round(y, 6)) is these 6 decimals without trailing zeros: both round
+                # the exact binary value correctly, and a decimal of at most 14 significant
+                # digits is the shortest text of its double (DBL_DIG = 15); faster
+                text = format(y, ".6f").rstrip("0")
+                if text[-1] == ".":
+                    text += "0"
+            elif math.isfinite(y):
                 text = float.__repr__(round(y, 6) + 0.0)
             else:
                 text = _dumps(_number(y))
@@ -429,6 +436,8 @@ class _JsonText:
                 parts.append(head + _encode_str(v))
             elif v is None:
                 parts.append(head + "null")
+            elif t is tuple:
+                parts.append(head + self.items(v, dim))
             else:
                 parts.append(head + self.value(v, dim))
         text = "{" + ",".join(parts) + "}"

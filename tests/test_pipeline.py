@@ -150,3 +150,17 @@ def test_result_positions_place_the_axles_as_the_moving_load_search(front, rever
     assert all(type(x) is float for x in pos.axle_stations)
     assert np.array(pos.axle_stations).tobytes() == axle_stations(at).tobytes()
     assert pos == _position(ext, load)
+
+
+@settings(max_examples=60, deadline=None)
+@given(values=st.lists(st.floats(allow_nan=True, allow_infinity=True) | st.floats(-1e9, 1e9)
+                       | st.integers(-10**6, 10**6), min_size=1, max_size=40),
+       system=st.sampled_from(["US", "SI"]))
+def test_results_file_numbers_as_the_json_module_writes_them(values, system):
+    """Any numbers, with a unit (converted in SI) and without, rounded to 6 decimals."""
+    res = sample_results(system)
+    m = res.members[0]
+    loads = {f"x{k}": v for k, v in enumerate(values)}
+    res = replace(res, members=(replace(m, dead_load=loads), *res.members[1:]),
+                  distribution={"values": values})
+    assert results_json(res) == _through_json_module(res)
