@@ -190,11 +190,18 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         hi = np.where(valid, pc.hi, 0.0)
     r, j = np.nonzero(valid)  # by position, then piece: in order along each path
     lo_q, ln = lo[r, j], hi[r, j] - lo[r, j]
-    Nl = pc.N_live[r, j][:, idx]
-    N0 = pc.N_dead[r, j][:, idx] + lo_q[:, None] * Nl
-    # every vector the pin check needs is linear in the member forces: projected once
-    G0 = np.matmul(N0, T).reshape(r.size, -1, 2)
-    G1 = np.matmul(Nl, T).reshape(r.size, -1, 2)
+    m = pc.N_live.shape[2]
+    flat = r * pc.k.shape[1] + j
+    cols = np.asarray(idx)[None, :]
+    N_dead_f, N_live_f = pc.N_dead.reshape(-1, m), pc.N_live.reshape(-1, m)
+
+    def forces(q: np.ndarray) -> tuple[np.ndarray, ...]:
+        """Forces at the joint at the start of pieces ``q`` and their rate, and the pin's
+        checked vectors of both (linear in the forces: one projection, :func:`_projector`)."""
+        Nl = N_live_f[flat[q][:, None], cols]
+        N0 = N_dead_f[flat[q][:, None], cols] + lo_q[q][:, None] * Nl
+        return N0, Nl, (N0 @ T).reshape(q.size, -1, 2), (Nl @ T).reshape(q.size, -1, 2)
+
     groups, pos = np.unique(group, return_inverse=True)
     # bounds piece by piece along the paths, as far as a piece can still hold the least:
     # past a piece that surely reaches the limit, or beyond the least upper bound of the
@@ -204,18 +211,19 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
     row_low = np.full(X, np.inf)
     row_up = np.full(X, np.inf)
     settled = np.zeros(X, dtype=bool)
+    margin = max(near, 1.0 + 1e-9)
     for jj in range(int(j.max(initial=-1)) + 1):
         least = np.full(groups.size, np.inf)
         np.minimum.at(least, pos, row_up)
         here = np.flatnonzero((j == jj) & ~settled[r])
-        beyond = lo_q[here] > least[pos[r[here]]] * max(near, 1.0 + 1e-9) + 1e-12
+        beyond = lo_q[here] > least[pos[r[here]]] * margin + 1e-12
         gone = here[beyond]
         row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
         settled[r[gone]] = True
         q = here[~beyond]
         if not q.size:
             continue
-        low[q], up[q] = model.multiplier_bounds(G0[q], G1[q])
+        low[q], up[q] = model.multiplier_bounds(*forces(q)[2:])
         np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
         np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
         settled[r[q[up[q] <= ln[q]]]] = True
@@ -233,25 +241,27 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         if not sel.size:
             return
         rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
-        missing = sel[np.isnan(low[sel])]
-        if missing.size:  # pieces the bounds above did not need
-            low[missing], up[missing] = model.multiplier_bounds(G0[missing], G1[missing])
+        N0, Nl, G0, G1 = forces(sel)
+        missing = np.isnan(low[sel])
+        if missing.any():  # pieces the bounds above did not need
+            low[sel[missing]], up[sel[missing]] = model.multiplier_bounds(G0[missing],
+                                                                          G1[missing])
         # a piece reaches the limit by its end where the bound says so, else where checked
         reach = up[sel] <= ln_s
         check = np.flatnonzero(~reach & (low[sel] <= ln_s))
         if check.size:
             reach[check] = model._utilization_projected(
-                G0[sel][check] + ln_s[check, None, None] * G1[sel][check]) >= 1.0
+                G0[check] + ln_s[check, None, None] * G1[check]) >= 1.0
         # the first piece of each position that reaches the limit
         hit = np.flatnonzero(reach)
         if not hit.size:
             return
         q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))]
         at = rs[q]
-        rel = _least_roots(model, G0[sel][q], G1[sel][q], lo_s[q], low[sel][q],
+        rel = _least_roots(model, G0[q], G1[q], lo_s[q], low[sel][q],
                            np.minimum(up[sel][q], ln_s[q]), group[at])
         lam[at] = lo_s[q] + rel
-        N_at[at] = N0[sel][q] + rel[:, None] * Nl[sel][q]
+        N_at[at] = N0[q] + rel[:, None] * Nl[q]
         slot[at] = js[q]
 
     # the most promising position of each load solved first: its lam bounds the least
