@@ -203,36 +203,11 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         return N0, Nl, (N0 @ T).reshape(q.size, -1, 2), (Nl @ T).reshape(q.size, -1, 2)
 
     groups, pos = np.unique(group, return_inverse=True)
-    # bounds piece by piece along the paths, as far as a piece can still hold the least:
-    # past a piece that surely reaches the limit, or beyond the least upper bound of the
-    # load, the rest of a path cannot matter (its start is the path's lower bound)
-    low = np.full(r.size, np.nan)
-    up = np.full(r.size, np.nan)
-    row_low = np.full(X, np.inf)
-    row_up = np.full(X, np.inf)
-    settled = np.zeros(X, dtype=bool)
-    margin = max(near, 1.0 + 1e-9)
-    for jj in range(int(j.max(initial=-1)) + 1):
-        least = np.full(groups.size, np.inf)
-        np.minimum.at(least, pos, row_up)
-        here = np.flatnonzero((j == jj) & ~settled[r])
-        beyond = lo_q[here] > least[pos[r[here]]] * margin + 1e-12
-        gone = here[beyond]
-        row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
-        settled[r[gone]] = True
-        q = here[~beyond]
-        if not q.size:
-            continue
-        low[q], up[q] = model.multiplier_bounds(*forces(q)[2:])
-        np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
-        np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
-        settled[r[q[up[q] <= ln[q]]]] = True
-    # a path the family covers only so far: the limit may lie beyond what is known
-    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
-    row_low = np.where(short, np.minimum(row_low, pc.cover), row_low)
-    lam = row_low.copy()
+    lam = np.full(X, np.inf)
     N_at = np.zeros((X, len(idx)))
     slot = np.full(X, -1)
+    low = np.full(r.size, np.nan)
+    up = np.full(r.size, np.nan)
 
     def solve(rows: np.ndarray) -> None:
         """The exact crossing at the positions ``rows`` (bool, (X,))."""
@@ -243,7 +218,7 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
         N0, Nl, G0, G1 = forces(sel)
         missing = np.isnan(low[sel])
-        if missing.any():  # pieces the bounds above did not need
+        if missing.any():  # pieces the bounds did not need
             low[sel[missing]], up[sel[missing]] = model.multiplier_bounds(G0[missing],
                                                                           G1[missing])
         # a piece reaches the limit by its end where the bound says so, else where checked
@@ -264,16 +239,45 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         N_at[at] = N0[q] + rel[:, None] * Nl[q]
         slot[at] = js[q]
 
-    # the most promising position of each load solved first: its lam bounds the least
-    first = np.zeros(X, dtype=bool)
-    order = np.lexsort((row_low, pos))
-    starts = np.flatnonzero(np.concatenate(([True], pos[order][1:] != pos[order][:-1])))
-    first[order[starts]] = True
-    first &= np.isfinite(row_low)
-    solve(first)
+    # Bounds piece by piece along the paths, as far as a piece can still hold the least:
+    # past a piece that surely reaches the limit, or beyond the least upper bound of the
+    # load, the rest of a path cannot matter (its start is the path's lower bound). After
+    # the first pieces, the most promising position of each load is solved: its lam bounds
+    # the least from above for the pieces that follow.
+    row_low = np.full(X, np.inf)
+    row_up = np.full(X, np.inf)
+    settled = np.zeros(X, dtype=bool)
+    lead = np.zeros(X, dtype=bool)
+    margin = max(near, 1.0 + 1e-9)
+    for jj in range(int(j.max(initial=-1)) + 1):
+        least = np.full(groups.size, np.inf)
+        np.minimum.at(least, pos, row_up)
+        here = np.flatnonzero((j == jj) & ~settled[r])
+        beyond = lo_q[here] > least[pos[r[here]]] * margin + 1e-12
+        gone = here[beyond]
+        row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
+        settled[r[gone]] = True
+        q = here[~beyond]
+        if q.size:
+            low[q], up[q] = model.multiplier_bounds(*forces(q)[2:])
+            np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
+            np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
+            settled[r[q[up[q] <= ln[q]]]] = True
+        if jj == 0:
+            order = np.lexsort((row_low, pos))
+            starts = np.flatnonzero(np.concatenate(([True], pos[order][1:]
+                                                    != pos[order][:-1])))
+            lead[order[starts]] = True
+            lead &= np.isfinite(row_low)
+            solve(lead)
+            row_up = np.where(lead, np.minimum(row_up, lam), row_up)
+    # a path the family covers only so far: the limit may lie beyond what is known
+    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
+    row_low = np.where(short, np.minimum(row_low, pc.cover), row_low)
+    lam = np.where(lead, lam, row_low)
     least = np.full(groups.size, np.inf)
-    np.minimum.at(least, pos, np.minimum(row_up, np.where(first, lam, np.inf)))
-    keep = (row_low <= least[pos] * max(near, 1.0 + 1e-9) + 1e-12) & ~first
+    np.minimum.at(least, pos, row_up)
+    keep = (row_low <= least[pos] * margin + 1e-12) & ~lead
     solve(keep)
     if intervals is not None and intervals.size:
         # the neighbours of the positions near the least, for the search between them
@@ -284,7 +288,7 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         more = np.zeros(X, dtype=bool)
         more[a[close[b]]] = True
         more[b[close[a]]] = True
-        solve(more & ~(keep | first))
+        solve(more & ~(keep | lead))
     best = np.full(groups.size, np.inf)
     np.minimum.at(best, pos, lam)
     target = np.where(np.isfinite(best[pos]), best[pos] * near * (1.0 + 1e-6), LAM_MAX)
