@@ -549,21 +549,24 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         if neglect_opposing_axles:
             # the zero crossings of a chunk's members join the breakpoints of that chunk only
             chunk = min(chunk, max(32, s.size))
+        # the maxima of +Y and -Y (the max and the min) in one search, rows stacked
+        bv, fr, rv = best_v.reshape(-1), front.reshape(-1), rev.reshape(-1)
+        sp_all = spac.reshape(2 * m, n_gaps)
         for d in dirs:
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
-            for sense, sign in ((0, 1.0), (1, -1.0)):
-                for r0 in range(0, m, chunk):
-                    rows = slice(r0, min(m, r0 + chunk))
-                    v, x, sp = _sup_forward(st, sign * Yd[rows], P, lo, hi,
-                                            neglect_opposing_axles, tol, vehicle.id)
-                    if d is Direction.REVERSE:
-                        x = -x
-                    better = v > best_v[sense, rows] + tol * 1e-3
-                    best_v[sense, rows] = np.where(better, v, best_v[sense, rows])
-                    front[sense, rows] = np.where(better, x, front[sense, rows])
-                    rev[sense, rows] = np.where(better, d is Direction.REVERSE, rev[sense, rows])
-                    spac[sense, rows] = np.where(better[:, None], sp, spac[sense, rows])
+            Ys = np.concatenate((Yd, -Yd))
+            for r0 in range(0, 2 * m, chunk):
+                rows = slice(r0, min(2 * m, r0 + chunk))
+                v, x, sp = _sup_forward(st, Ys[rows], P, lo, hi, neglect_opposing_axles, tol,
+                                        vehicle.id)
+                if d is Direction.REVERSE:
+                    x = -x
+                better = v > bv[rows] + tol * 1e-3
+                bv[rows] = np.where(better, v, bv[rows])
+                fr[rows] = np.where(better, x, fr[rows])
+                rv[rows] = np.where(better, d is Direction.REVERSE, rv[rows])
+                sp_all[rows] = np.where(better[:, None], sp, sp_all[rows])
         value[0] = best_v[0]
         value[1] = -best_v[1]
     scale = max(1.0, float(np.abs(Y).max(initial=0.0)) * float(P.sum(initial=0.0)))
@@ -594,8 +597,13 @@ def adverse_areas(lines: InfluenceLines) -> tuple[np.ndarray, np.ndarray]:
 
 def adverse_segments(stations_ft: np.ndarray, y: np.ndarray,
                      sign: float) -> tuple[tuple[float, float], ...]:
-    """Stretches of deck where the line ``y`` has the sign of ``sign`` (where a lane load goes)."""
+    """Stretches of deck where the line ``y`` has the sign of ``sign`` (where a lane load goes).
+
+    Ordinates within round-off of zero (1e-12 of the line's largest) count as zero: a
+    member whose line is exactly zero over part of the deck gets no lane there from the last
+    digits of the analysis."""
     v = sign * np.asarray(y, dtype=float)
+    v = np.where(np.abs(v) <= 1e-12 * float(np.abs(v).max(initial=0.0)), 0.0, v)
     s = np.asarray(stations_ft, dtype=float)
     out: list[list[float]] = []
     for i in range(s.size - 1):
