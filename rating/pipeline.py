@@ -11,10 +11,14 @@ import tempfile
 from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from rating.errors import ConvergenceError, InputError, PintrussError
-from rating.inventory.problems import Problem
 from rating.results import RatingResults, results_json
+
+if TYPE_CHECKING:  # the reader's package is imported where a workbook is read, so that
+    # writing files (the batch's summary, in the parent process) does not load it
+    from rating.inventory.problems import Problem
 
 
 @dataclass(frozen=True)
@@ -32,6 +36,7 @@ class RateOutcome:
 
 def rate_workbook(path: Path, vehicle_ids: Sequence[str] | None = None) -> RateOutcome:
     """Read and rate one inspection workbook. User errors become problems, never tracebacks."""
+    from rating.inventory.problems import Problem
     from rating.inventory.reader import read_workbook
     from rating.lrfr.engine import rate_bridge
     from rating.results_build import build_results
@@ -70,8 +75,8 @@ def write_atomic(target: Path, text: str) -> None:
     target.parent.mkdir(parents=True, exist_ok=True)
     fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
     try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
-            fh.write(text)
+        with os.fdopen(fd, "wb") as fh:  # UTF-8, newlines as they are
+            fh.write(text.encode("utf-8"))
         umask = os.umask(0)
         os.umask(umask)
         os.chmod(tmp, 0o666 & ~umask)  # an ordinary file, not mkstemp's private 0600
