@@ -398,8 +398,8 @@ class _IndexView:
 
 def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
     """The HTML index of a batch (same look and print rules as the reports)."""
-    from rating.report.html import environment
-    from rating.report.svg import RFBands
+    from rating.report.bands import RFBands
+    from rating.report.jinja import environment
 
     bands = RFBands()
     vehicles = vehicle_order(summary.rows)

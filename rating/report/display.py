@@ -43,12 +43,14 @@ def _is_number(x: Any) -> bool:
     return isinstance(x, int | float) and not isinstance(x, bool)
 
 
+_FORMATS = tuple(f",.{k}f" for k in range(8))  # the format of each number of decimals
+
+
 def _fixed(x: float, decimals: int, signed: bool = False) -> str:
-    text = f"{x:,.{decimals}f}"
-    if text.lstrip("-").strip("0.,") == "":  # -0.0 and 0.000 print without a sign
-        text = text.lstrip("-")
-        return text
-    if text.startswith("-"):
+    text = format(x, _FORMATS[decimals] if 0 <= decimals < 8 else f",.{decimals}f")
+    if not text.strip("-0.,"):  # -0.0 and 0.000 print without a sign
+        return text.lstrip("-")
+    if text[0] == "-":
         return MINUS + text[1:]
     return ("+" + text) if signed else text
 
@@ -97,7 +99,10 @@ class Display:
         if decimals is None:
             pair = _DECIMALS.get(dimension or "", (2, 2))
             decimals = pair[1] if self.system == "SI" else pair[0]
-        return _fixed(self.convert(float(value), dimension), decimals, signed)
+        x = float(value)
+        if dimension is not None and self.system != "US":  # as convert(), finite here
+            x = from_core(x, DISPLAY_UNITS[dimension][1])
+        return _fixed(x, decimals, signed)
 
     def force(self, value: float | None, signed: bool = False) -> str:
         return self.number(value, "force", signed=signed)

@@ -9,15 +9,15 @@ Drawing coordinates are in pixels of the SVG viewBox; numbers shown are converte
 
 from __future__ import annotations
 
-import functools
 import math
 import re
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
 
 import numpy as np
 from markupsafe import Markup, escape
 
+from rating.report.bands import Band as Band  # re-exported: the drawings' bands
+from rating.report.bands import RFBands
 from rating.report.display import Display
 from rating.results import (
     InfluenceLineData,
@@ -34,59 +34,7 @@ WIDTH = 720.0
 FONT = "font-family:'DejaVu Sans',Arial,Helvetica,sans-serif"
 
 
-# ------------------------------------------------------------------ rating-factor bands
-
-@dataclass(frozen=True)
-class Band:
-    key: str
-    label: str
-    colour: str
-    stroke_width: float
-    dash: str = ""
-
-
-@dataclass(frozen=True)
-class RFBands:
-    """Shading of members by their lowest rating factor (our own legend).
-
-    ``edges`` are the band limits; the bands are RF < e0, e0 <= RF < e1, e1 <= RF < e2,
-    RF >= e2, and "not rated". Lower bands are drawn heavier so that a black-and-white print
-    still tells them apart.
-    """
-
-    edges: tuple[float, float, float] = (0.3, 1.0, 1.2)
-
-    @functools.cached_property
-    def bands(self) -> tuple[Band, ...]:
-        a, b, c = (f"{e:g}" for e in self.edges)
-        k0, k1, k2, k3, nr = _BAND_KEYS
-        return (
-            Band(k0, f"RF < {a}", "#8e1b1b", 6.0),
-            Band(k1, f"{a} \u2264 RF < {b}", "#e0702a", 4.5),
-            Band(k2, f"{b} \u2264 RF < {c}", "#d9b526", 3.2),
-            Band(k3, f"RF \u2265 {c}", "#2f6f9f", 2.2),
-            Band(nr, "not rated", "#9a9a9a", 1.6, "5 3"),
-        )
-
-    def band(self, rf: float | None) -> Band:
-        """The band of a lowest RF (``None``: not rated; +inf: no live load, drawn as >= top)."""
-        return self.bands[self._index(rf)]
-
-    def key(self, rf: float | None) -> str:
-        """The key of that band (``band(rf).key``), for shading a table cell."""
-        return _BAND_KEYS[self._index(rf)]
-
-    def _index(self, rf: float | None) -> int:
-        if rf is None or (isinstance(rf, float) and math.isnan(rf)):
-            return 4
-        for k, edge in enumerate(self.edges):
-            if rf < edge:
-                return k
-        return 3
-
-
-_BAND_KEYS = ("b0", "b1", "b2", "b3", "nr")  # the CSS classes of the bands, lowest first
-
+# ------------------------------------------------------------------ lowest rating
 
 def lowest_rating(ratings: Iterable[tuple[str, Rating]]) -> tuple[str, Rating] | None:
     """(vehicle id, rating) with the lowest finite-or-infinite RF; ``None`` when none."""
