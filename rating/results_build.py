@@ -141,8 +141,20 @@ def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t,
         rf=r.rf, sense=r.sense, check=r.check,
         factors=_factors(r, memo),
         method=r.method, position=_position(r.extreme, case.load, memo),
-        finding=text(finding_text(r.finding)),
+        finding=_finding(r.finding, text, memo),
     )
+
+
+def _finding(f: Finding | None, text, memo: dict | None) -> str:
+    """A finding's words (in the bridge's units); written once per finding with ``memo`` (a
+    member's governing finding recurs in every case)."""
+    if memo is None or f is None:
+        return text(finding_text(f))
+    key = ("finding", id(f))
+    hit = memo.get(key)
+    if hit is None:
+        hit = memo[key] = (text(finding_text(f)), f)  # f kept alive with its id
+    return hit[0]
 
 
 def _factors(r: MemberCaseRating, memo: dict | None) -> Factors:
