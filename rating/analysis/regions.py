@@ -180,6 +180,11 @@ class RegionTable:
         """Member forces (K, X, m) of the panel-point loads ``p`` (s, X) in every set."""
         return np.matmul(self._stacked()[0], p).transpose(0, 2, 1)
 
+    def force_lines(self) -> np.ndarray:
+        """(K, m, s): member forces for a 1-kip downward load at each deck panel point, in
+        each set."""
+        return self._stacked()[0]
+
     def slack_masks(self) -> np.ndarray:
         """(K, m): the tension-only members slack in each set."""
         return np.stack(self._slack)

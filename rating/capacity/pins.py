@@ -746,9 +746,13 @@ class PinModel:
         """
         F1 = np.asarray(F_added, dtype=float)
         F0 = np.broadcast_to(np.asarray(F_base, dtype=float), F1.shape)
-        P = F1.shape[0]
         # the checked vectors are linear in lam too: project once, then only norms per lam
-        G0, G1 = self._W @ F0, self._W @ F1
+        return self.multipliers_projected(self._W @ F0, self._W @ F1, lam_max, upper)
+
+    def multipliers_projected(self, G0: np.ndarray, G1: np.ndarray, lam_max: float = 1e3,
+                              upper: np.ndarray | None = None) -> np.ndarray:
+        """:meth:`multipliers` of projected vectors G0 + lam G1 (P, K, 2) (see ``project``)."""
+        P = G1.shape[0]
         top = np.full(P, float(lam_max)) if upper is None else np.asarray(upper, dtype=float)
         frac = np.concatenate(([0.0], np.geomspace(1e-5, 1.0, 13)))
         grid = top[:, None] * frac[None, :]  # (P, 14)

@@ -162,7 +162,7 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
 
 def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
                    group: np.ndarray, linear: bool = False, near: float = 1.0,
-                   intervals: np.ndarray | None = None
+                   intervals: np.ndarray | None = None, floor: np.ndarray | None = None
                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """On each position's path, the least lam at which the pin reaches its limit: lam (X,)
     (inf where it does not up to the path's end), the forces of the members at the joint
@@ -175,8 +175,9 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
 
     Only the least over the positions of each load (``group``, (X,)) is needed, and the
     positions within the factor ``near`` of it with their neighbours (``intervals``, pairs
-    of neighbouring positions): the others are shown not to be by bounds
-    (rating.capacity.pins.PinModel.multiplier_bounds), and get a lower bound for lam and no
+    of neighbouring positions): the others are shown not to be by bounds (``floor`` (X,), a
+    lower bound of each position's lam, :func:`_gauge_floor`; then
+    rating.capacity.pins.PinModel.multiplier_bounds), and get a lower bound for lam and no
     piece (-1); so are positions solved only as far as needed (:func:`_least_roots`)."""
     X = pc.n_loadings
     if linear:
@@ -239,20 +240,35 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         N_at[at] = N0[q] + rel[:, None] * Nl[q]
         slot[at] = js[q]
 
-    # Bounds piece by piece along the paths, as far as a piece can still hold the least:
-    # past a piece that surely reaches the limit, or beyond the least upper bound of the
-    # load, the rest of a path cannot matter (its start is the path's lower bound). After
-    # the first pieces, the most promising position of each load is solved: its lam bounds
-    # the least from above for the pieces that follow.
-    row_low = np.full(X, np.inf)
-    row_up = np.full(X, np.inf)
-    settled = np.zeros(X, dtype=bool)
-    lead = np.zeros(X, dtype=bool)
+    # The most promising position of each load (by ``floor``, a lower bound of its lam) is
+    # solved first: its lam bounds the least from above. Then bounds piece by piece along the
+    # paths of the positions whose floor does not put them beyond it, as far as a piece can
+    # still hold the least: past a piece that surely reaches the limit, or beyond the least
+    # upper bound of the load, the rest of a path cannot matter (its start is the path's
+    # lower bound).
     margin = max(near, 1.0 + 1e-9)
+    floor = np.zeros(X) if floor is None else floor
+    # a path the family covers only so far: the limit may lie beyond what is known
+    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
+    floor = np.where(short, np.minimum(floor, pc.cover), floor)
+    order = np.lexsort((floor, pos))
+    lead = np.zeros(X, dtype=bool)
+    lead[order[np.flatnonzero(np.concatenate(([True], pos[order][1:] != pos[order][:-1])))]] \
+        = True
+    lead &= np.isfinite(floor) & valid.any(axis=1)
+    solve(lead)
+    row_up = np.where(lead, lam, np.inf)
+    least = np.full(groups.size, np.inf)
+    np.minimum.at(least, pos, row_up)
+    # (the floor is found by the same kind of root search: 1e-6 for its round-off)
+    row_low = np.where(lead, lam, floor)
+    settled = lead | (floor > least[pos] * margin * (1.0 + 1e-6) + 1e-12)
     for jj in range(int(j.max(initial=-1)) + 1):
         least = np.full(groups.size, np.inf)
         np.minimum.at(least, pos, row_up)
         here = np.flatnonzero((j == jj) & ~settled[r])
+        if jj == 0:
+            row_low[r[here]] = np.inf  # from the pieces' own bounds from here on
         beyond = lo_q[here] > least[pos[r[here]]] * margin + 1e-12
         gone = here[beyond]
         row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
@@ -263,17 +279,7 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
             np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
             np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
             settled[r[q[up[q] <= ln[q]]]] = True
-        if jj == 0:
-            order = np.lexsort((row_low, pos))
-            starts = np.flatnonzero(np.concatenate(([True], pos[order][1:]
-                                                    != pos[order][:-1])))
-            lead[order[starts]] = True
-            lead &= np.isfinite(row_low)
-            solve(lead)
-            row_up = np.where(lead, np.minimum(row_up, lam), row_up)
-    # a path the family covers only so far: the limit may lie beyond what is known
-    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
-    row_low = np.where(short, np.minimum(row_low, pc.cover), row_low)
+    row_low = np.maximum(row_low, floor)
     lam = np.where(lead, lam, row_low)
     least = np.full(groups.size, np.inf)
     np.minimum.at(least, pos, row_up)
@@ -293,6 +299,42 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
     np.minimum.at(best, pos, lam)
     target = np.where(np.isfinite(best[pos]), best[pos] * near * (1.0 + 1e-6), LAM_MAX)
     return lam, N_at, slot, np.where(short & (slot < 0) & np.isinf(lam), target, 0.0)
+
+
+def _gauge_floor(model: PinModel, T: np.ndarray, idx: list[int], store: PathStore,
+                 pc: Pieces, p: np.ndarray, linear: bool) -> np.ndarray:
+    """A lower bound (X,) of each position's lam at the pin's limit, from its panel loads.
+
+    In one active set k the pin's forces are those of the dead load D_k plus lam times the
+    live load; the states whose check stays within the limit form a convex set around D_k
+    (the utilization is convex in the forces), and lam at the limit is 1 / g(L), g the gauge
+    of that set, convex and positively homogeneous. The live load is a sum of panel loads
+    p_s >= 0 times the unit panel loads e_s, so g(L) <= sum p_s g(e_s): lam >= 1 / (sum p_s
+    g(e_s)), with g(e_s) found once per set and panel point (the same root search as any
+    position). The least over the sets on the position's path bounds its lam (the sets of
+    its first piece alone for a joint whose bars do not depend on them)."""
+    table = store.table
+    F = table.force_lines()
+    Fd, _ = table.dead(store.key, store.P_dead)
+    K, S = F.shape[0], F.shape[2]
+    Kp = T.shape[1] // 2
+    used = np.unique(pc.k[pc.k >= 0]) if not linear else np.unique(pc.k[:, 0][pc.k[:, 0] >= 0])
+    scale = max(float(np.abs(p).max(initial=0.0)), 1.0)  # a panel load of the size searched
+    Gd = (Fd[used][:, idx] @ T).reshape(used.size, 1, Kp, 2)
+    Q = np.einsum("kns,nc->ksc", F[used][:, idx, :], T).reshape(used.size, S, Kp, 2)
+    lam = model.multipliers_projected(np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
+                                      (scale * Q).reshape(-1, Kp, 2))
+    # not reached by 1,000 such loads: the gauge is at most 1 / (1,000 scale)
+    lam = np.minimum(lam, 1e3)
+    with np.errstate(divide="ignore"):
+        g = np.full((K, S), np.inf)
+        g[used] = np.where(lam > 0, 1.0 / (lam * scale), np.inf).reshape(used.size, S)
+    with np.errstate(invalid="ignore"):  # (inf x 0: a set the dead load alone breaks)
+        Gam = np.nan_to_num(g @ p, nan=np.inf)  # (K, X)
+    kk = pc.k[:, :1] if linear else pc.k
+    vals = np.where(kk >= 0, Gam[np.maximum(kk, 0), np.arange(kk.shape[0])[:, None]], 0.0)
+    with np.errstate(divide="ignore"):
+        return 1.0 / vals.max(axis=1, initial=0.0)
 
 
 def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
@@ -396,7 +438,8 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
     while True:
         lam, N_at, slot, need = _pin_crossings(
             model, T, idx, store.pieces, batch.group, linear, near=1.0 if linear else 1.1,
-            intervals=None if linear else batch.intervals)
+            intervals=None if linear else batch.intervals,
+            floor=_gauge_floor(model, T, idx, store, store.pieces, store.p, linear))
         if not (need.any() and store.complete(need)):
             break
     pc = store.pieces
@@ -436,8 +479,10 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
         pairs = batch.intervals[sel[owner[at]]]
         if pairs.size:
             p_new, extra, extra_group = batch.between(pairs, ts)
-            lam_new, N_new, _, _ = _pin_crossings(model, T, idx, store.more(p_new),
-                                                  extra_group)
+            pc_new = store.more(p_new)
+            lam_new, N_new, _, _ = _pin_crossings(
+                model, T, idx, pc_new, extra_group,
+                floor=_gauge_floor(model, T, idx, store, pc_new, p_new, linear))
             lam = np.concatenate([lam, lam_new])
             N_at = np.concatenate([N_at, N_new])
     for gi, group in enumerate(loads.cases):
