@@ -582,7 +582,7 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
               if np.isfinite(lam[:, r]).any()]
     reach = 2.0 * float(np.diff(g.deck_stations_ft).max())
     return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
-                       runs_of(case.load, chosen, reach))
+                       runs_of(case.load, chosen, reach), loose_loads=ps.p)
 
 
 def _requests(g: TrussGeometry, group_plans: list[dict[str, list[_SensePlan]]],

@@ -113,7 +113,10 @@ class PositionSet:
     no run has (in the order given)."""
 
     def __init__(self, stations_ft: Sequence[float], load: RatingLoad, im: float, df: float,
-                 loose: Sequence[Extreme], runs: Sequence[Run]) -> None:
+                 loose: Sequence[Extreme], runs: Sequence[Run],
+                 loose_loads: np.ndarray | None = None) -> None:
+        """``loose_loads``: the panel-point loads of ``loose`` (n_stations, len(loose)) when
+        the caller has them (:attr:`p` of a set of the same loose positions and no runs)."""
         self.stations = np.asarray(stations_ft, dtype=float)
         self.load = load
         self.im = im
@@ -136,11 +139,14 @@ class PositionSet:
             intervals.extend((start + i, start + i + 1) for i in range(x.size - 1))
             on_runs[_run_key(run)] = set(np.round(x, 6).tolist())
         # the loose positions a run does not have already (same loading)
-        for e in loose:
-            if e.position is not None and round(e.position.front_axle_ft, 6) in on_runs.get(
-                    _run_key(e), ()):
-                continue
-            cols.append(self._loads_of(e)[:, None])
+        kept = [k for k, e in enumerate(loose)
+                if not (e.position is not None and round(e.position.front_axle_ft, 6)
+                        in on_runs.get(_run_key(e), ()))]
+        if kept:
+            cols.append(loose_loads[:, kept] if loose_loads is not None
+                        else self._loads_of([loose[k] for k in kept]))
+        for k in kept:
+            e = loose[k]
             run_of.append(-1)
             fronts.append(e.position.front_axle_ft if e.position is not None else np.nan)
             self._extremes.append(e)
@@ -153,20 +159,28 @@ class PositionSet:
     def size(self) -> int:
         return self.p.shape[1]
 
-    def _loads_of(self, e: Extreme) -> np.ndarray:
-        """Panel-point loads of the loading that gave the extreme ``e`` (all its axles as
-        they stand, IM on them, the lane on its segments)."""
-        mo = self._models.get(e.model)
-        out = np.zeros(self.stations.size)
-        if mo is None:
-            return out
-        if mo.axles is not None and e.position is not None:
-            v = mo.axles
-            out += (1.0 + self.im) * axle_panel_loads(
-                self.stations, axle_stations(e.position)[None, :],
-                np.asarray(v.axle_loads_kip) * v.axle_scale)[:, 0]
-        if e.lane_klf and e.lane_segments_ft:
-            out += lane_panel_loads(self.stations, e.lane_segments_ft, e.lane_klf)
+    def _loads_of(self, extremes: Sequence[Extreme]) -> np.ndarray:
+        """Panel-point loads (n_stations, n) of the loadings that gave the ``extremes`` (all
+        axles as they stand, IM on them, the lane on its segments); the axles of one model
+        and spacing found together, each lane once."""
+        out = np.zeros((self.stations.size, len(extremes)))
+        by_vehicle: dict[tuple, list[int]] = {}
+        lanes: dict[tuple, list[int]] = {}
+        for k, e in enumerate(extremes):
+            mo = self._models.get(e.model)
+            if mo is None:
+                continue
+            if mo.axles is not None and e.position is not None:
+                by_vehicle.setdefault((e.model, tuple(e.position.spacings_ft)), []).append(k)
+            if e.lane_klf and e.lane_segments_ft:
+                lanes.setdefault((tuple(e.lane_segments_ft), e.lane_klf), []).append(k)
+        for (model, _), ks in by_vehicle.items():
+            v = self._models[model].axles
+            xs = np.array([axle_stations(extremes[k].position) for k in ks])
+            out[:, ks] += (1.0 + self.im) * axle_panel_loads(
+                self.stations, xs, np.asarray(v.axle_loads_kip) * v.axle_scale)
+        for (segs, klf), ks in lanes.items():
+            out[:, ks] += lane_panel_loads(self.stations, segs, klf)[:, None]
         return self.df * out
 
     def run_loads(self, run: Run, fronts_ft: np.ndarray) -> np.ndarray:
