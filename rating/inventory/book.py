@@ -1,9 +1,12 @@
 """Opening an untrusted workbook safely, read-only, as plain grids of cached cell values.
 
-openpyxl parses the XML through defusedxml when it is installed (it is a dependency). The
-file is opened for reading only and is never written: openpyxl (read-only, cached values) gives
+Two readers give the same grids. The fast one (:mod:`rating.inventory.xlsx`) reads the sheet
+XML straight from the package in one pass; it takes every workbook in the plain form
+spreadsheet programs write and refuses anything else. The reference reader takes the rest:
+openpyxl (read-only, cached values; it parses the XML through defusedxml, a dependency) gives
 the values, and one defusedxml pass over each sheet's XML tells which cells are merged and
-which hold a formula whose result was never saved.
+which hold a formula whose result was never saved. The file is opened for reading only and is
+never written.
 """
 
 from __future__ import annotations
@@ -12,6 +15,7 @@ import io
 import posixpath
 import re
 import zipfile
+from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -19,6 +23,7 @@ import openpyxl
 from defusedxml import ElementTree as SafeET
 
 from rating.errors import InputError
+from rating.inventory import xlsx
 
 MAX_UNCOMPRESSED_BYTES = 200_000_000  # refuse zip bombs
 _NS_REL = "http://schemas.openxmlformats.org/officeDocument/2006/relationships"
@@ -73,6 +78,12 @@ def _sheet_key(name: str) -> str:
 
 
 def _check_container(path: Path) -> None:
+    _open_container(path).close()
+
+
+def _open_container(path: Path) -> zipfile.ZipFile:
+    """The workbook's zip container, open; :class:`InputError` when it is not one or when it
+    unpacks to an implausible size (a zip bomb)."""
     if not path.exists():
         raise InputError("the workbook file does not exist", where=str(path))
     if not path.is_file():
@@ -84,14 +95,15 @@ def _check_container(path: Path) -> None:
         raise InputError("this file is not an .xlsx workbook (it is not a zip container); "
                          "save the workbook as .xlsx", where=str(path))
     try:
-        with zipfile.ZipFile(path) as z:
-            infos = z.infolist()
+        z = zipfile.ZipFile(path)
     except (zipfile.BadZipFile, OSError) as exc:
         raise InputError(f"the workbook cannot be opened: {exc}", where=str(path)) from exc
-    total = sum(i.file_size for i in infos)
+    total = sum(i.file_size for i in z.infolist())
     if total > MAX_UNCOMPRESSED_BYTES:
+        z.close()
         raise InputError("the workbook unpacks to an implausibly large size and is refused "
                          "(a damaged or hostile file)", where=str(path))
+    return z
 
 
 @dataclass(frozen=True)
@@ -103,13 +115,6 @@ class _Extras:
 
 _REF = re.compile(r"^([A-Z]{1,3})(\d+)$")
 _NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
-
-
-def _col_number(letters: str) -> int:
-    n = 0
-    for ch in letters:
-        n = n * 26 + ord(ch) - 64
-    return n
 
 
 _MAYBE_FORMULA_OR_MERGE = re.compile(rb"<(?:\w+:)?f[\s>/]|mergeCell")
@@ -157,7 +162,7 @@ def _scan(data: bytes, max_rows: int) -> _Extras:
                     v = child
             m = _REF.match(node.get("r", ""))
             if m and int(m.group(2)) <= max_rows:
-                rc = (int(m.group(2)), _col_number(m.group(1)))
+                rc = (int(m.group(2)), xlsx.col_number(m.group(1)))
                 if f is not None and (v is None or not (v.text or "")):
                     text = (f.text or "").strip()
                     uncached[rc] = "=" + text if text else "(a shared formula)"
@@ -196,6 +201,59 @@ def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
     Raises :class:`InputError` when the file is missing or is not a readable workbook.
     """
     path = Path(path)
+    with _open_container(path) as z:
+        try:
+            return open_book_fast(z, path, wanted, max_rows)
+        except Exception:  # noqa: BLE001 - not the plain form, or damaged: the reference decides
+            pass
+    return open_book_reference(path, wanted, max_rows)
+
+
+def open_book_fast(z: zipfile.ZipFile, path: Path, wanted: dict[str, int],
+                   max_rows: int) -> Book:
+    """:func:`open_book` through :mod:`rating.inventory.xlsx` from the open package ``z``;
+    raises (:class:`rating.inventory.xlsx.Unsupported` or the error of a damaged part) when
+    the reference reader must decide."""
+    package = xlsx.read_package(z, path)
+    book = Book(path, package.sheet_names, {})
+    grids: dict[str, SheetGrid] = {}
+    for wanted_name, ncols in wanted.items():
+        name = book.find(wanted_name)
+        if name is not None:
+            cells = package.cells(name, ncols, max_rows)
+            grids[wanted_name] = _grid(name, ncols, max_rows, cells.rows, cells.uncached,
+                                       cells.merges)
+    package.check_unread({g.name for g in grids.values()})
+    return Book(path, package.sheet_names, grids)
+
+
+def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[object]],
+          uncached: dict[tuple[int, int], str], merges: tuple[str, ...]) -> SheetGrid:
+    """The grid of one sheet from its rows as openpyxl's ``iter_rows`` yields them (from 1 to
+    ``max_rows + 1`` at most, each ``ncols`` wide; blank rows at the end may be left out):
+    blank rows at the end dropped except above a formula without a saved result;
+    ``truncated`` when row ``max_rows + 1`` holds a value."""
+    uncached = {k: v for k, v in uncached.items() if k[1] <= ncols}
+    rows: list[tuple[object, ...]] = []
+    truncated = False
+    for r, vrow in enumerate(rows_read, start=1):
+        if r > max_rows:
+            truncated = any(v is not None for v in vrow)
+            break
+        vals = tuple(vrow) + (None,) * (ncols - len(vrow))
+        rows.append(vals[:ncols])
+    last_formula_row = max((k[0] for k in uncached), default=0)
+    while len(rows) > last_formula_row and rows and all(v is None for v in rows[-1]):
+        rows.pop()
+    while len(rows) < last_formula_row:
+        rows.append((None,) * ncols)
+    return SheetGrid(name, tuple(rows), uncached, merges, truncated)
+
+
+def open_book_reference(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
+    """:func:`open_book` through openpyxl: the reader of every workbook the fast one refuses,
+    and the reference the tests compare it with."""
+    path = Path(path)
     _check_container(path)
     try:
         keys = {_sheet_key(n) for n in wanted}
@@ -222,18 +280,10 @@ def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
             if not hasattr(ws, "iter_rows"):  # a chart sheet
                 continue
             ex = extras.get(name, _Extras((), {}, {}))
-            uncached = {k: v for k, v in ex.uncached.items() if k[1] <= ncols}
-            rows: list[tuple[object, ...]] = []
-            truncated = False
             try:
-                for r, vrow in enumerate(ws.iter_rows(min_row=1, max_row=max_rows + 1,
-                                                      max_col=ncols, values_only=True),
-                                         start=1):
-                    if r > max_rows:
-                        truncated = any(v is not None for v in vrow)
-                        break
-                    vals = tuple(vrow) + (None,) * (ncols - len(vrow))
-                    rows.append(vals[:ncols])
+                grids[wanted_name] = _grid(name, ncols, max_rows, ws.iter_rows(
+                    min_row=1, max_row=max_rows + 1, max_col=ncols, values_only=True),
+                    ex.uncached, ex.merges)
             except Exception as exc:  # noqa: BLE001 - a damaged sheet part: say so, go on
                 try:
                     ex = _sheet_extras(path, max_rows, {_sheet_key(name)}, deep=True).get(
@@ -244,13 +294,6 @@ def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
                     name, (), {}, ex.merges, False,
                     failure=f"{type(exc).__name__}: {str(exc)[:80]}",
                     bad_numbers={k: v for k, v in ex.bad_numbers.items() if k[1] <= ncols})
-                continue
-            last_formula_row = max((k[0] for k in uncached), default=0)
-            while len(rows) > last_formula_row and rows and all(v is None for v in rows[-1]):
-                rows.pop()
-            while len(rows) < last_formula_row:
-                rows.append((None,) * ncols)
-            grids[wanted_name] = SheetGrid(name, tuple(rows), uncached, ex.merges, truncated)
         return Book(path, sheet_names, grids)
     finally:
         values_wb.close()

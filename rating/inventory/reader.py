@@ -87,9 +87,7 @@ def read_workbook(path: Path) -> WorkbookReading:
     everything wrong inside it is returned as problems (``bridge`` is then ``None``).
     """
     path = Path(path)
-    wanted = {sc.BRIDGE.name: 3, sc.SETTINGS.name: 3}
-    wanted.update({t.name: len(t.columns) + 12 for t in sc.TABLES})
-    book = open_book(path, wanted, sc.MAX_ROWS + sc.HEADER_SEARCH_ROWS)
+    book = open_book(path, sheets_read(), rows_read())
     log = ProblemLog()
     reading = _Reading(book, log)
     bridge = reading.bridge()
@@ -99,6 +97,18 @@ def read_workbook(path: Path) -> WorkbookReading:
         problems = tuple(dataclasses.replace(p, message=si_text(p.message)) for p in problems)
         assumptions = tuple(si_text(a) for a in assumptions)
     return WorkbookReading(None if log.has_errors else bridge, problems, assumptions)
+
+
+def sheets_read() -> dict[str, int]:
+    """The sheets the reader reads, with the number of columns read on each."""
+    wanted = {sc.BRIDGE.name: 3, sc.SETTINGS.name: 3}
+    wanted.update({t.name: len(t.columns) + 12 for t in sc.TABLES})
+    return wanted
+
+
+def rows_read() -> int:
+    """The rows read on each sheet (one more is looked at, to say a sheet is too long)."""
+    return sc.MAX_ROWS + sc.HEADER_SEARCH_ROWS
 
 
 # --- small typed accessors ---------------------------------------------------------------

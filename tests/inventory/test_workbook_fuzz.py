@@ -19,10 +19,12 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from inventory_helpers import content_of, fresh
 from openpyxl.utils import get_column_letter
+from xlsx_parts import compare
 
 from rating.inventory import read_workbook
 from rating.inventory import schema as sc
 from rating.inventory.problems import WorkbookReading
+from rating.inventory.reader import rows_read, sheets_read
 from rating.inventory.schema import Column, Kind
 from rating.inventory.template import build_template, fill
 
@@ -115,6 +117,13 @@ def _cell_xml(ref: str, style: str, value: object) -> str:
 
 def _read_patched(sheet: str, ref: str, value: object = ..., merge: str = "") -> WorkbookReading:
     """The base workbook with one cell replaced (and/or a merged range) in the sheet XML."""
+    with tempfile.TemporaryDirectory() as tmp:
+        path = Path(tmp) / "fuzz.xlsx"
+        path.write_bytes(_patched(sheet, ref, value, merge))
+        return read_workbook(path)
+
+
+def _patched(sheet: str, ref: str, value: object = ..., merge: str = "") -> bytes:
     part = f"xl/worksheets/sheet{sc.SHEET_ORDER.index(sheet) + 1}.xml"
     out = io.BytesIO()
     with zipfile.ZipFile(io.BytesIO(BASE)) as zin, zipfile.ZipFile(out, "w") as zout:
@@ -133,10 +142,7 @@ def _read_patched(sheet: str, ref: str, value: object = ..., merge: str = "") ->
                                       f'<mergeCell ref="{merge}"/></mergeCells>', 1)
                 data = xml.encode("utf-8")
             zout.writestr(item, data)
-    with tempfile.TemporaryDirectory() as tmp:
-        path = Path(tmp) / "fuzz.xlsx"
-        path.write_bytes(out.getvalue())
-        return read_workbook(path)
+    return out.getvalue()
 
 
 def _well_formed(r: WorkbookReading) -> None:
@@ -159,6 +165,18 @@ def _set(sheet: str, ref: str, value: object):
 def test_any_value_in_any_cell_never_a_traceback(target, value) -> None:
     sheet, ref, _col = target
     _well_formed(_read_patched(sheet, ref, value))
+
+
+@SETTINGS
+@given(target=st.sampled_from(TARGETS), value=anything,
+       merge=st.sampled_from(["", "B4:C4", "A2:A9"]))
+def test_any_value_in_any_cell_reads_the_same_both_ways(target, value, merge) -> None:
+    """The fast reader and openpyxl (the reference) give the same grids, cell by cell."""
+    sheet, ref, _col = target
+    with tempfile.TemporaryDirectory() as tmp:
+        path = Path(tmp) / "fuzz.xlsx"
+        path.write_bytes(_patched(sheet, ref, value, merge))
+        compare(path, sheets_read(), rows_read())
 
 
 @settings(max_examples=5, deadline=None)

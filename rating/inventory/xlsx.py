@@ -1,0 +1,659 @@
+"""The cached cell values of an .xlsx workbook, read straight from its package parts.
+
+This is the fast reader behind :func:`rating.inventory.book.open_book`. It gives exactly what
+the reference reader (openpyxl, read-only, cached values, plus one scan for merged cells and
+formulas whose result was never saved) gives, in one pass over each wanted sheet, or it raises
+(:class:`Unsupported`, or the error of a damaged part) and leaves the workbook to the reference
+reader. What keeps the two equal: whatever this module does not fully understand, it refuses.
+
+- The small package parts are read by openpyxl's own parsers, as the reference reader reads
+  them: the workbook part (sheets, 1900/1904 date system), its relationships, the document
+  properties and the stylesheet (which cell styles hold a date or a duration format).
+- Every part openpyxl reads when it opens a workbook (content types, shared strings,
+  workbook, relationships, properties, theme, styles, every worksheet and its relationships)
+  is read and checked here too, so a damaged part (bad zip checksum, XML that is not
+  well-formed, a missing part) sends the workbook to the reference reader, which refuses it or
+  reports the sheet exactly as before.
+- Worksheets and the shared strings are read only in the plain form spreadsheet programs
+  write: UTF-8; SpreadsheetML main as the one default namespace; no comments, CDATA sections,
+  processing instructions or document type declaration; rows and cells with their ``r``
+  reference, in order; cell content limited to ``<f>``, ``<v>`` and a plain inline
+  ``<is><t>``. Everything around the rows (or the strings) is checked by expat (namespaces
+  processed as ElementTree processes them; any document type declaration refused, so no
+  entity can be declared, expanded or fetched from outside). The rows themselves are matched
+  by regular expressions that accept only well-formed XML of that form (XML characters,
+  balanced tags, attributes once each, entity references limited to the five predefined ones
+  and character references to XML characters, attribute prefixes declared on the root).
+- Values follow openpyxl's read-only cell rules (worksheet/_reader.py ``parse_cell``):
+  numbers, shared and inline strings, booleans, errors, ISO dates, and numbers under a date or
+  duration format converted by openpyxl's own :func:`~openpyxl.utils.datetime.from_excel` in
+  the workbook's date system.
+
+Not repeated here: openpyxl's object-model checks of sheet elements the reader never uses
+(view, column widths, print settings, data validations, conditional formats). A sheet whose
+only defect is an invalid value there (which spreadsheet programs do not write) is read here,
+where the reference reader reported it unreadable.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import io
+import re
+import zipfile
+from dataclasses import dataclass
+from pathlib import Path
+from xml.parsers import expat
+
+from openpyxl.packaging.core import DocumentProperties
+from openpyxl.packaging.custom import CustomPropertyList
+from openpyxl.packaging.relationship import get_dependents, get_rels_path
+from openpyxl.packaging.workbook import WorkbookPackage
+from openpyxl.reader.strings import read_string_table
+from openpyxl.styles.stylesheet import Stylesheet
+from openpyxl.utils.cell import range_boundaries
+from openpyxl.utils.datetime import MAC_EPOCH, WINDOWS_EPOCH, from_excel, from_ISO8601
+from openpyxl.worksheet.merge import MergeCell
+from openpyxl.xml.constants import (
+    ARC_CONTENT_TYPES,
+    ARC_CORE,
+    ARC_CUSTOM,
+    ARC_STYLE,
+    ARC_THEME,
+    SHARED_STRINGS,
+    SHEET_MAIN_NS,
+    XLSM,
+    XLSX,
+    XLTM,
+    XLTX,
+)
+from openpyxl.xml.functions import fromstring  # defusedxml's, as openpyxl uses it
+
+# the file names openpyxl opens (it refuses others, so the reference reader does)
+SUPPORTED_SUFFIXES = (".xlsx", ".xlsm", ".xltx", ".xltm")
+
+
+class Unsupported(Exception):  # noqa: N818 - a decision, not an error: the reference reads it
+    """The workbook holds something this reader leaves to the reference reader."""
+
+
+@dataclass(frozen=True)
+class SheetCells:
+    """One worksheet as the reference reader sees it before trimming.
+
+    ``rows`` are the rows openpyxl's ``iter_rows(min_row=1, max_row=max_rows + 1,
+    max_col=ncols, values_only=True)`` yields (each ``ncols`` wide, gaps as empty rows), up to
+    the last one holding a value (blank rows after it are dropped in the grid anyway);
+    ``uncached`` holds every formula cell without a saved result in the first ``max_rows``
+    rows (any column); ``merges`` every merged range, in document order.
+    """
+
+    rows: tuple[tuple[object, ...], ...]
+    uncached: dict[tuple[int, int], str]
+    merges: tuple[str, ...]
+
+
+@dataclass(frozen=True)
+class _Plain:
+    """A part in the plain form: its text, and its content ``text[start:end]`` (the rows of
+    a worksheet, the strings of the string table) still to be matched."""
+
+    data: bytes
+    text: str
+    prefixes: frozenset[str]  # attribute prefixes declared on the root (and "xml")
+    start: int
+    end: int
+    tail: int  # after the content's closing tag
+
+
+@dataclass(frozen=True)
+class Package:
+    """The parts of one workbook this reader needs, read and checked."""
+
+    sheet_names: tuple[str, ...]
+    worksheets: tuple[_Plain, ...]  # one per sheet, in the order of the names
+    strings: tuple[str, ...]
+    date_styles: frozenset[int]
+    duration_styles: frozenset[int]
+    epoch: dt.datetime
+
+    def cells(self, name: str, ncols: int, max_rows: int) -> SheetCells:
+        """The cells of sheet ``name``, ``ncols`` columns wide (see :class:`SheetCells`);
+        the first sheet of that name, as openpyxl finds it."""
+        part = self.worksheets[self.sheet_names.index(name)]
+        return _SheetReader(self, ncols, max_rows).read(part)
+
+    def check_unread(self, read: set[str]) -> None:
+        """Check every sheet not read through :meth:`cells` (``read`` names those that were)
+        as openpyxl checks it on opening: well-formed (the whole part, to be sure)."""
+        for k, (name, part) in enumerate(zip(self.sheet_names, self.worksheets, strict=True)):
+            if name not in read or self.sheet_names.index(name) != k:
+                _parser().Parse(part.data, True)
+
+
+# --- XML: the safe parser, the plain form ----------------------------------------------------
+
+
+def _refuse_dtd(*_args: object) -> None:
+    raise Unsupported("a document type declaration")
+
+
+def _parser() -> expat.XMLParserType:
+    """An expat parser (namespaces processed, as ElementTree does) that refuses any DTD."""
+    parser = expat.ParserCreate(namespace_separator="}")
+    parser.StartDoctypeDeclHandler = _refuse_dtd
+    parser.EntityDeclHandler = _refuse_dtd
+    parser.UnparsedEntityDeclHandler = _refuse_dtd
+    parser.ExternalEntityRefHandler = _refuse_dtd  # type: ignore[assignment]
+    parser.SetParamEntityParsing(expat.XML_PARAM_ENTITY_PARSING_NEVER)
+    return parser
+
+
+_S = r"[ \t\r\n]"  # XML white space (not Python's \s)
+_NCNAME = r"[A-Za-z_][A-Za-z0-9_.\-]*"
+_ATTRS = rf"""(?:{_S}+{_NCNAME}(?::{_NCNAME})?{_S}*={_S}*(?:"[^"<]*"|'[^'<]*'))*"""
+_ATTR = re.compile(rf"""{_S}+({_NCNAME}(?::{_NCNAME})?){_S}*={_S}*(?:"([^"<]*)"|'([^'<]*)')""")
+_ENCODING = re.compile(rb"""^<\?xml[^>]*?\sencoding\s*=\s*["']([^"']*)["']""")
+_ROOT = re.compile(rf"(?:<\?xml[^>]*\?>)?{_S}*<({_NCNAME})({_ATTRS}){_S}*>")
+# text decoded from UTF-8 holds no surrogate and nothing above U+10FFFF: these are the rest
+_NOT_XML_CHAR = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\ufffe\uffff]")
+_BARE_AMPERSAND = re.compile(r"&(?!(?:lt|gt|amp|quot|apos|#[0-9]+|#x[0-9a-fA-F]+);)")
+_CHAR_REFERENCE = re.compile(r"&#(?:([0-9]+)|x([0-9a-fA-F]+));")
+_ATTR_PREFIX = re.compile(rf"{_S}({_NCNAME}):{_NCNAME}{_S}*=")
+
+
+def _attrs(blob: str) -> dict[str, str]:
+    """The attributes of a start tag (each once; plain values only)."""
+    pairs = _ATTR.findall(blob)
+    out: dict[str, str] = {}
+    for name, dq, sq in pairs:
+        value = dq or sq
+        if "&" in value or "\t" in value or "\n" in value or "\r" in value:
+            raise Unsupported("an attribute value with references or line breaks")
+        out[name] = value
+    if len(out) != len(pairs):
+        raise Unsupported("an attribute given twice")
+    return out
+
+
+def _plain(data: bytes, root: str, content: str | None = None) -> _Plain:
+    """``data`` as a part in the plain form, whose root ``root`` holds ``<content>`` (or
+    whose root is the content, when ``content`` is None).
+
+    Checked here: the encoding; the root in the main namespace; no namespace declared
+    before ``<content>`` except on the root (so the content is in the main namespace and its
+    attribute prefixes are those of the root); no comment, CDATA section, processing
+    instruction or DTD; everything but the inside of ``<content>`` well-formed (expat). The
+    inside is checked by :func:`_check_content` and the matching.
+    """
+    body = data[3:] if data.startswith(b"\xef\xbb\xbf") else data
+    enc = _ENCODING.match(body)
+    if enc and enc.group(1).lower() != b"utf-8":
+        raise Unsupported("an encoding other than UTF-8")
+    text = body.decode("utf-8")
+    if "<!" in text or text.find("<?", 1) >= 0:
+        raise Unsupported("comments, CDATA, processing instructions or a DTD")
+    m = _ROOT.match(text)
+    if not m or m.group(1) != root:
+        raise Unsupported(f"the root is not a plain <{root}>")
+    attrs = _attrs(m.group(2))
+    if attrs.get("xmlns") != SHEET_MAIN_NS:
+        raise Unsupported("another default namespace")
+    declared = {k[6:]: v for k, v in attrs.items() if k.startswith("xmlns:")}
+    if len(set(declared.values())) != len(declared):
+        raise Unsupported("two prefixes for one namespace")
+    if content is None:
+        start, end = m.end(), text.rfind(f"</{root}>")
+        tail = end
+    else:
+        i = text.find(f"<{content}", m.end())
+        o = re.compile(rf"<{content}{_S}*(/?)>").match(text, i) if i >= 0 else None
+        if o is None or text.count(f"<{content}") != 1 or f":{content}" in text:
+            raise Unsupported(f"no plain <{content}>")
+        if "xmlns" in text[m.end():i]:  # on an element around the content (or beside it)
+            raise Unsupported("a namespace declared inside the part")
+        start = end = tail = o.end()
+        if not o.group(1):
+            end = text.find(f"</{content}>", start)
+            tail = end + len(content) + 3
+    if end < start:
+        raise Unsupported("no end of the content")
+    _parser().Parse((text[:start] + text[end:]).encode("utf-8"), True)
+    return _Plain(data, text, frozenset(declared) | {"xml"}, start, end, tail)
+
+
+def _check_content(part: _Plain) -> None:
+    """What the matching leaves to check for the inside of the content to be well-formed:
+    XML characters only, ``&`` only in a predefined entity or a character reference to an
+    XML character, no ``]]>``, no namespace declaration. (Attribute prefixes are checked
+    where the attributes are read.)"""
+    inside = part.text[part.start:part.end]
+    if _NOT_XML_CHAR.search(inside) or "]]>" in inside or "xmlns" in inside:
+        raise Unsupported("characters or declarations outside the plain form")
+    if "&" in inside:
+        if _BARE_AMPERSAND.search(inside):
+            raise Unsupported("an undeclared entity")
+        for m in _CHAR_REFERENCE.finditer(inside):
+            code = int(m.group(1)) if m.group(1) else int(m.group(2), 16)
+            if not (code in (0x9, 0xA, 0xD) or 0x20 <= code <= 0xD7FF
+                    or 0xE000 <= code <= 0xFFFD or 0x10000 <= code <= 0x10FFFF):
+                raise Unsupported("a reference to a character XML does not allow")
+
+
+_NAMED = {"lt": "<", "gt": ">", "amp": "&", "quot": '"', "apos": "'"}
+_REFERENCE = re.compile(r"&(?:#([0-9]+)|#x([0-9a-fA-F]+)|(lt|gt|amp|quot|apos));")
+
+
+def _reference(m: re.Match[str]) -> str:
+    if m.group(1):
+        return chr(int(m.group(1)))
+    if m.group(2):
+        return chr(int(m.group(2), 16))
+    return _NAMED[m.group(3)]
+
+
+def _content(raw: str) -> str:
+    """Character data as an XML parser reports it: line ends normalised, then references
+    resolved (a ``&#13;`` stays a carriage return)."""
+    if "\r" in raw:
+        raw = raw.replace("\r\n", "\n").replace("\r", "\n")
+    if "&" in raw:
+        raw = _REFERENCE.sub(_reference, raw)
+    return raw
+
+
+def _children(data: bytes) -> tuple[dict[str, str], list[tuple[str, dict[str, str]]]]:
+    """The root's attributes and its children (local name, attributes), attributes in a
+    namespace left out as openpyxl leaves them out; for small parts read element by element."""
+    root: dict[str, str] = {}
+    children: list[tuple[str, dict[str, str]]] = []
+    depth = 0
+
+    def start(name: str, attrs: dict[str, str]) -> None:
+        nonlocal depth, root
+        plain = {k: v for k, v in attrs.items() if "}" not in k}
+        if depth == 0:
+            root = plain
+        elif depth == 1:
+            children.append((name.rsplit("}", 1)[-1], plain))
+        depth += 1
+
+    def end(_name: str) -> None:
+        nonlocal depth
+        depth -= 1
+
+    parser = _parser()
+    parser.StartElementHandler = start
+    parser.EndElementHandler = end
+    parser.Parse(data, True)
+    return root, children
+
+
+# --- the package -----------------------------------------------------------------------------
+
+
+def read_package(z: zipfile.ZipFile, path: Path) -> Package:
+    """Read from the open package ``z`` of ``path`` the parts the reader needs.
+
+    Raises :class:`Unsupported` (or the error of a damaged part) when the reference reader
+    must decide.
+    """
+    if path.suffix.lower() not in SUPPORTED_SUFFIXES:
+        raise Unsupported("a file name openpyxl does not open")
+    names = set(z.namelist())
+    overrides = _content_types(z.read(ARC_CONTENT_TYPES))
+    strings = _shared_strings(z, overrides)
+    wb_part = _workbook_part(overrides)
+    workbook = WorkbookPackage.from_tree(fromstring(z.read(wb_part)))
+    if workbook.externalReferences:
+        raise Unsupported("links to other workbooks")
+    if workbook.definedNames and any(d.localSheetId is not None
+                                     for d in workbook.definedNames.definedName):
+        raise Unsupported("names defined for one sheet")
+    if ARC_CORE in names:
+        DocumentProperties.from_tree(fromstring(z.read(ARC_CORE)))
+    if ARC_CUSTOM in names:
+        CustomPropertyList.from_tree(fromstring(z.read(ARC_CUSTOM)))
+    if ARC_THEME in names:
+        z.read(ARC_THEME)  # openpyxl reads it: a damaged theme part is noticed here too
+    dates: frozenset[int] = frozenset()
+    durations: frozenset[int] = frozenset()
+    if ARC_STYLE in names:
+        styles = Stylesheet.from_tree(fromstring(z.read(ARC_STYLE)))
+        if styles.cell_styles:
+            dates = frozenset(styles.date_formats)
+            durations = frozenset(styles.timedelta_formats)
+    sheet_names: list[str] = []
+    worksheets: list[_Plain] = []
+    rels = None
+    for sheet in workbook.sheets:
+        if not sheet.id:
+            continue  # openpyxl drops such a sheet (with a warning)
+        if rels is None:
+            rels = get_dependents(z, get_rels_path(wb_part)).to_dict()
+        rel = rels[sheet.id]
+        if rel.target not in names:
+            continue  # openpyxl drops a sheet whose part is missing
+        if rel.Type is None or "chartsheet" in rel.Type:
+            raise Unsupported("a chart sheet")
+        rels_path = get_rels_path(rel.target)
+        if rels_path in names:
+            _check_relationships(z.read(rels_path))
+        part = _plain(z.read(rel.target), "worksheet", "sheetData")
+        _check_dimension(part)
+        sheet_names.append(sheet.name)
+        worksheets.append(part)
+    epoch = MAC_EPOCH if workbook.properties.date1904 else WINDOWS_EPOCH
+    return Package(tuple(sheet_names), tuple(worksheets), strings, dates, durations, epoch)
+
+
+def _content_types(data: bytes) -> list[tuple[str, str]]:
+    """The (part name, content type) overrides, when the manifest is one openpyxl reads as
+    written (each entry with exactly its two attributes)."""
+    root, children = _children(data)
+    if root:
+        raise Unsupported("attributes on the content types")
+    overrides: list[tuple[str, str]] = []
+    defaults = 0
+    for tag, attrs in children:
+        if tag == "Override":
+            if set(attrs) != {"PartName", "ContentType"}:
+                raise Unsupported("an unusual content type override")
+            overrides.append((attrs["PartName"], attrs["ContentType"]))
+        elif tag == "Default":
+            if set(attrs) != {"Extension", "ContentType"}:
+                raise Unsupported("an unusual default content type")
+            defaults += 1
+    if not overrides or not defaults:
+        raise Unsupported("content types openpyxl completes with its own")
+    return overrides
+
+
+def _find(overrides: list[tuple[str, str]], content_type: str) -> str | None:
+    return next((part for part, ct in overrides if ct == content_type), None)
+
+
+def _workbook_part(overrides: list[tuple[str, str]]) -> str:
+    """The workbook part, found as openpyxl finds it (template and macro types first)."""
+    for content_type in (XLTM, XLTX, XLSM, XLSX):
+        part = _find(overrides, content_type)
+        if part:
+            return part[1:]
+    raise Unsupported("no workbook part among the overrides")
+
+
+def _check_relationships(data: bytes) -> None:
+    """A worksheet's relationships as openpyxl reads them: every one has a target."""
+    _root, children = _children(data)
+    for tag, attrs in children:
+        if tag == "Relationship" and (not set(attrs) <= {"Id", "Type", "Target", "TargetMode"}
+                                      or "Target" not in attrs):
+            raise Unsupported("an unusual relationship")
+
+
+def _shared_strings(z: zipfile.ZipFile, overrides: list[tuple[str, str]]) -> tuple[str, ...]:
+    """The shared strings, as openpyxl reads them (by its own reader unless plain)."""
+    part = _find(overrides, SHARED_STRINGS)
+    if part is None:
+        return ()
+    data = z.read(part[1:])
+    try:
+        return _plain_strings(data)
+    except Unsupported:
+        return tuple(read_string_table(io.BytesIO(data)))
+
+
+_T = rf"<t{_ATTRS}{_S}*(?:/>|>([^<]*)</t>)"
+_SI = re.compile(rf"{_S}*(?:<si>(?:{_T})?</si>|<si/>|<si>((?:<r>{_T}</r>)+)</si>)")
+_RUN_TEXT = re.compile(_T)
+
+
+def _plain_strings(data: bytes) -> tuple[str, ...]:
+    """Plain strings (text, or runs of text without formatting), as openpyxl's reader gives
+    them: the texts of a string joined, ``x005F_`` removed."""
+    part = _plain(data, "sst")
+    _check_content(part)
+    text = part.text
+    out: list[str] = []
+    pos = part.start
+    for m in _SI.finditer(text, part.start, part.end):
+        if m.start() != pos:
+            raise Unsupported("something other than plain strings")
+        pos = m.end()
+        if m.group(2) is not None:
+            s = "".join(_content(t) for t in _RUN_TEXT.findall(m.group(2)) if t)
+        else:
+            s = _content(m.group(1) or "")
+        out.append(s.replace("x005F_", ""))
+    if text[pos:part.end].strip(" \t\r\n"):
+        raise Unsupported("something other than plain strings")
+    return tuple(out)
+
+
+# --- worksheets ------------------------------------------------------------------------------
+
+_OUTSIDE = re.compile(r"<(?:[\w.\-]+:)?(?:row|c)[\s/>]|<[\w.\-]+:(?:mergeCell|dimension)[\s/>]")
+_DIMENSION = re.compile(rf"<dimension({_ATTRS}){_S}*/?>")
+_MERGE = re.compile(rf"<mergeCell({_ATTRS}){_S}*/?>")
+_MERGES = re.compile(rf"<mergeCells({_ATTRS}){_S}*/?>")
+
+
+def _check_dimension(part: _Plain) -> None:
+    """The sheet's dimension, which openpyxl reads on opening (a bad one fails there); no
+    rows, cells, merges or dimensions in another namespace or outside the rows."""
+    head, rest = part.text[:part.start], part.text[part.tail:]
+    if _OUTSIDE.search(head) or _OUTSIDE.search(rest):
+        raise Unsupported("rows or cells outside sheetData, or in another namespace")
+    dims = _DIMENSION.findall(head)
+    if len(dims) > 1:
+        raise Unsupported("two dimensions")
+    if dims:
+        attrs = {k: v for k, v in _attrs(dims[0]).items() if ":" not in k}
+        if set(attrs) != {"ref"}:
+            raise Unsupported("an unusual dimension")
+        range_boundaries(attrs["ref"])
+
+
+def col_number(letters: str) -> int:
+    """The column number of column letters (A = 1)."""
+    n = 0
+    for ch in letters:
+        n = n * 26 + ord(ch) - 64
+    return n
+
+
+# The plain form openpyxl and spreadsheet programs write: rows with r first, cells with r, s,
+# t in that order holding nothing, a value or an inline string. Matched as a whole (a cell's
+# row is its row's r, by the back reference), then read cell by cell.
+_PLAIN_CELL = (rf'<c r="[A-Z]{{1,3}}\1"(?: s="[0-9]+")?(?: t="[A-Za-z]+")?{_S}*'
+               rf'(?:/>|>(?:<v>[^<]*</v>|<is><t(?: xml:space="preserve")?>[^<]*</t></is>)?</c>)')
+_ROW_ATTRS = rf"""(?:{_S}+(?!r{_S}*=){_NCNAME}(?::{_NCNAME})?{_S}*={_S}*(?:"[^"<]*"|'[^'<]*'))*"""
+_PLAIN_ROWS = re.compile(rf'(?:{_S}*<row r="([1-9][0-9]*)"{_ROW_ATTRS}{_S}*'
+                         rf'(?:/>|>(?:{_S}*{_PLAIN_CELL})*{_S}*</row>))*{_S}*')
+_PLAIN_ROW_START = re.compile(rf'<row r="([1-9][0-9]*)"({_ROW_ATTRS})')
+_PLAIN_CELL_REF = re.compile(r'<c r="([A-Z]{1,3}[1-9][0-9]*)"')
+# groups: column letters, row, s, t, the value, "<is>" for an inline string, its text
+_VALUE_CELL = re.compile(r'<c r="([A-Z]{1,3})([1-9][0-9]*)"(?: s="([0-9]+)")?'
+                         r'(?: t="([A-Za-z]+)")?[ \t\r\n]*>(?:<v>([^<]*)</v>|'
+                         r'(<is>)<t(?: xml:space="preserve")?>([^<]*)</t></is>)</c>')
+# Any other order or quoting of attributes, a formula, white space between the elements,
+# one row or cell at a time. Groups: 1 the cell's attributes, 2 the formula element, 3 its
+# text, 4 the value, 5 the inline string element, 6 its text; 7 a row's attributes, 8 "/" for
+# an empty row; 9 the end of a row.
+_TOKEN = re.compile(
+    rf"{_S}*(?:<c({_ATTRS}){_S}*(?:/>|>{_S}*"
+    rf"(<f{_ATTRS}{_S}*(?:/>|>([^<]*)</f>){_S}*)?"
+    rf"(?:<v{_S}*/>|<v{_S}*>([^<]*)</v>)?{_S}*"
+    rf"(<is{_S}*>{_S}*(?:<t{_ATTRS}{_S}*(?:/>|>([^<]*)</t>){_S}*)?</is>|<is{_S}*/>)?{_S}*"
+    rf"</c>)|<row({_ATTRS}){_S}*(/?)>|(</row>))")
+_CELL_REF = re.compile(r"([A-Z]{1,3})([1-9][0-9]*)")
+_ATTR_NAMES = re.compile(rf"{_S}+({_NCNAME}(?::{_NCNAME})?){_S}*=")
+
+
+def _cast_number(text: str) -> int | float:
+    """A number as openpyxl reads it: a float when it has a point or an exponent."""
+    if "." in text or "E" in text or "e" in text:
+        return float(text)
+    return int(text)
+
+
+class _SheetReader:
+    """One pass over one worksheet's rows (a fresh instance per sheet; nothing is shared).
+
+    The values of rows 1 to ``max_rows + 1`` and columns 1 to ``ncols`` are kept; every cell
+    is converted all the same, so a value openpyxl cannot read sends the workbook to it.
+    """
+
+    def __init__(self, package: Package, ncols: int, max_rows: int) -> None:
+        self.package = package
+        self.ncols = ncols
+        self.max_rows = max_rows
+        self.columns: dict[str, int] = {}
+        self.grid: dict[int, list[object]] = {}
+        self.uncached: dict[tuple[int, int], str] = {}
+        self.prefixes = frozenset[str]()
+
+    def read(self, part: _Plain) -> SheetCells:
+        _check_content(part)
+        self.prefixes = part.prefixes
+        if not (_PLAIN_ROWS.fullmatch(part.text, part.start, part.end)
+                and self.read_plain(part)):
+            self.read_tokens(part)
+        n = max(self.grid, default=0)
+        empty = (None,) * self.ncols
+        rows = tuple(tuple(self.grid[r]) if r in self.grid else empty for r in range(1, n + 1))
+        return SheetCells(rows, self.uncached, self.merges(part))
+
+    def check_row_attrs(self, blob: str) -> None:
+        """Attributes once each, prefixes declared (what the matching cannot see)."""
+        names = _ATTR_NAMES.findall(blob)
+        if len(set(names)) != len(names) or any(
+                ":" in n and n.split(":", 1)[0] not in self.prefixes for n in names):
+            raise Unsupported("an attribute given twice, or an undeclared prefix")
+
+    def read_plain(self, part: _Plain) -> bool:
+        """Read rows matched as a whole, from the cells that hold something; False (nothing
+        read) when a cell is given twice (the last one counts, even empty)."""
+        refs = _PLAIN_CELL_REF.findall(part.text, part.start, part.end)
+        if len(set(refs)) != len(refs):
+            return False
+        row, blobs = 0, set()
+        for r, blob in _PLAIN_ROW_START.findall(part.text, part.start, part.end):
+            if int(r) <= row:
+                raise Unsupported("rows out of order")
+            row = int(r)
+            if blob and blob not in blobs:
+                self.check_row_attrs(blob)
+                blobs.add(blob)
+        put = self.put
+        for letters, digits, style, t, v, inline, inline_text in _VALUE_CELL.findall(
+                part.text, part.start, part.end):
+            put(int(digits), letters, self.value(
+                t or "n", int(style) if style else 0, _content(v) if v else None,
+                inline != "", inline_text))
+        return True
+
+    def read_tokens(self, part: _Plain) -> None:
+        text, end = part.text, part.end
+        pos, row, row_text, in_row = part.start, 0, "", False
+        while pos < end:
+            m = _TOKEN.match(text, pos, end)
+            if m is None:
+                if text[pos:end].strip(" \t\r\n"):
+                    raise Unsupported("something other than plain rows and cells")
+                break
+            pos = m.end()
+            if m.lastindex is not None and m.lastindex <= 6:
+                if not in_row:
+                    raise Unsupported("a cell outside a row")
+                attrs = self.token_attrs(m.group(0), m.group(1))
+                ref = _CELL_REF.fullmatch(attrs.get("r", ""))
+                if not ref or ref.group(2) != row_text:
+                    raise Unsupported("a cell without its row's reference")
+                style, t = attrs.get("s"), attrs.get("t")
+                v = _content(m.group(4)) if m.group(4) else None
+                if m.group(2) is not None and v is None and row <= self.max_rows:
+                    f = _content(m.group(3) or "").strip()
+                    col = self.column(ref.group(1))
+                    self.uncached[(row, col)] = "=" + f if f else "(a shared formula)"
+                # no s is style 0 and an empty s none; no t is a number (openpyxl's defaults)
+                self.put(row, ref.group(1), self.value(
+                    "n" if t is None else t, 0 if style is None else int(style) if style else -1,
+                    v, m.group(5) is not None, m.group(6)))
+            elif m.lastindex == 8:
+                if in_row:
+                    raise Unsupported("a row inside a row")
+                row_text = self.token_attrs(m.group(0), m.group(7)).get("r", "")
+                if not (row_text.isascii() and row_text.isdigit()) or int(row_text) <= row:
+                    raise Unsupported("rows without a plain number, or out of order")
+                row, in_row = int(row_text), not m.group(8)
+            else:
+                if not in_row:
+                    raise Unsupported("the end of a row that was not started")
+                in_row = False
+        if in_row:
+            raise Unsupported("a row without its end")
+
+    def token_attrs(self, token: str, blob: str) -> dict[str, str]:
+        """The attributes ``blob`` of a row's or cell's start tag, when every attribute
+        prefix in the whole ``token`` is declared on the root."""
+        if not set(_ATTR_PREFIX.findall(token)) <= self.prefixes:
+            raise Unsupported("an attribute prefix not declared on the root")
+        return _attrs(blob)
+
+    def column(self, letters: str) -> int:
+        col = self.columns.get(letters)
+        if col is None:
+            col = self.columns[letters] = col_number(letters)
+        return col
+
+    def put(self, row: int, letters: str, value: object) -> None:
+        col = self.column(letters)
+        if col <= self.ncols and row <= self.max_rows + 1:
+            values = self.grid.get(row)
+            if values is None:
+                if value is None:
+                    return
+                values = self.grid[row] = [None] * self.ncols
+            values[col - 1] = value
+
+    def value(self, t: str, style: int, v: str | None, inline: bool,
+              inline_text: str | None) -> object:
+        """One cell's value, by openpyxl's read-only rules (worksheet/_reader.py parse_cell)."""
+        if t == "inlineStr":
+            return _content(inline_text or "") if inline else None
+        if v is None:
+            return None
+        if t == "n":
+            number = _cast_number(v)
+            if style in self.package.date_styles:
+                try:
+                    return from_excel(number, self.package.epoch,
+                                      timedelta=style in self.package.duration_styles)
+                except (OverflowError, ValueError):
+                    return "#VALUE!"  # as openpyxl: outside the limits for dates
+            return number
+        if t == "s":
+            return self.package.strings[int(v)]
+        if t == "b":
+            return bool(int(v))
+        if t == "d":
+            return from_ISO8601(v)
+        return v
+
+    @staticmethod
+    def merges(part: _Plain) -> tuple[str, ...]:
+        """Merged ranges (every ``mergeCell`` with a ref), checked as openpyxl reads them."""
+        rest = part.text[:part.start] + part.text[part.tail:]
+        for blob in _MERGES.findall(rest):
+            attrs = _attrs(blob)
+            if not set(attrs) <= {"count"} or not attrs.get("count", "0").isdigit():
+                raise Unsupported("an unusual list of merged cells")
+        refs: list[str] = []
+        for blob in _MERGE.findall(rest):
+            attrs = _attrs(blob)
+            if set(attrs) != {"ref"}:
+                raise Unsupported("an unusual merged range")
+            MergeCell(attrs["ref"])  # openpyxl fails the sheet on a range it cannot read
+            refs.append(attrs["ref"])
+        return tuple(refs)
