@@ -96,8 +96,8 @@ class MemberRow:
 @dataclass(frozen=True)
 class LiveRow:
     """One member's row of a live-load table. ``cells``: for each vehicle, LL+IM max and min
-    and the RF as HTML table cells (the largest table of the report: its cells are built
-    here, escaped, rather than cell by cell in the template)."""
+    and the RF as HTML table cells (the largest table of the report: its cells, numbers and
+    band keys only, are built here rather than one by one in the template)."""
 
     id: str
     cells: Markup
