@@ -9,10 +9,13 @@ import xml.etree.ElementTree as ET
 from dataclasses import replace
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from rating.report.display import Display
 from rating.report.svg import (
     RFBands,
+    _f,
     _stagger,
     elevation_svg,
     governing_z_in,
@@ -168,3 +171,13 @@ def test_close_axle_labels_are_lifted_apart() -> None:
         for j in range(i):
             if abs(xs[i] - xs[j]) < 24.0:
                 assert lifts[i] != lifts[j]
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.floats(allow_nan=True, allow_infinity=True) | st.floats(-2e5, 2e5)
+       | st.integers(-10**6, 10**6).map(lambda k: k / 10 + 0.05))
+def test_coordinates_written_as_rounded_to_a_tenth(x: float) -> None:
+    """A coordinate's text is that of the value rounded to 0.1 in Python's general format
+    (6 significant digits, no trailing zeros, no negative zero)."""
+    v = round(float(x), 1) + 0.0
+    assert _f(x) == (f"{v:g}" if abs(v) < 1e6 else f"{v:.1f}")
