@@ -20,6 +20,9 @@ EXCEL_ERRORS = frozenset({"#DIV/0!", "#N/A", "#NAME?", "#NULL!", "#NUM!", "#REF!
 _TRUE = frozenset({"yes", "y", "true", "1", "x"})
 _FALSE = frozenset({"no", "n", "false", "0"})
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f]")
+_SPACES = re.compile(r"\s+")
+_LIST_SEPARATOR = re.compile(r"[,;]")
+_LIST_NUMBER = re.compile(r"\d{1,3}")
 # 1-1/4, 1 1/4, 3/4, optional trailing inch mark
 _FRACTION = re.compile(r"^(?:(\d+)[\s-]+)?(\d+)\s*/\s*(\d+)$")
 
@@ -102,51 +105,71 @@ def _fmt(v: float) -> str:
     return f"{v:.6g}"
 
 
+def _unit_words(col: Column, si: bool) -> str:
+    unit = col.unit_for(si)
+    return f" in {unit}" if unit and unit != "%" else ""
+
+
+def _not_a_number(raw: object, col: Column, si: bool) -> Invalid:
+    found = f"must be a number{_unit_words(col, si)}; found {describe(raw)}"
+    if isinstance(raw, dt.datetime | dt.date | dt.time) and not isinstance(raw, bool):
+        return Invalid(found + " (is the cell formatted as a date?)")
+    return Invalid(found)
+
+
+def _out_of_range(v: float, core: float, col: Column, si: bool) -> Invalid | None:
+    """Why ``core`` (``v`` as entered) is outside the hard limits of ``col``; None if inside."""
+    if col.gt is not None and not core > col.gt:
+        bound, limit = "greater than", col.gt
+    elif col.ge is not None and not core >= col.ge:
+        bound, limit = "at least", col.ge
+    elif col.le is not None and not core <= col.le:
+        bound, limit = "at most", col.le
+    else:
+        return None
+    unit = col.unit_for(si)
+    u = f" {unit}" if unit else ""
+    hint = ""
+    if bound == "at most" and col.unit == "ksi" and not si:
+        hint = " (is it in MPa? then set 'Units of this workbook' to SI on the Bridge sheet)"
+    return Invalid(f"must be {bound} {_fmt(from_column_unit(limit, col, si))}{u}; "
+                   f"found {_fmt(v)}{u}{hint}")
+
+
+def _unusual(v: float, col: Column, si: bool, words: str, limit: float) -> str:
+    """The warning for ``v`` beyond a soft limit; ``words`` e.g. "small (below"."""
+    unit = col.unit_for(si)
+    u = f" {unit}" if unit else ""
+    return (f"{_fmt(v)}{u} is unusually {words} {_fmt(from_column_unit(limit, col, si))}{u}); "
+            "please confirm")
+
+
 def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
-    entered_unit = col.unit_for(si)
-    unit_words = f" in {entered_unit}" if entered_unit and entered_unit != "%" else ""
-    if isinstance(raw, bool):
-        return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
-    if isinstance(raw, dt.datetime | dt.date | dt.time):
-        return Invalid(f"must be a number{unit_words}; found {describe(raw)} (is the cell "
-                       "formatted as a date?)")
-    if isinstance(raw, int | float):
+    if isinstance(raw, int | float) and not isinstance(raw, bool):
         v = float(raw)
     elif isinstance(raw, str):
-        got = _number_from_text(raw, entered_unit)
+        got = _number_from_text(raw, col.unit_for(si))
         if got is None:
-            return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
+            return _not_a_number(raw, col, si)
         v = got
     else:
-        return Invalid(f"must be a number{unit_words}; found {describe(raw)}")
+        return _not_a_number(raw, col, si)
     if not math.isfinite(v):
-        return Invalid(f"must be a finite number{unit_words}; found {describe(raw)}")
-    if col.kind is Kind.INTEGER:
+        return Invalid(f"must be a finite number{_unit_words(col, si)}; found {describe(raw)}")
+    integer = col.kind is Kind.INTEGER
+    if integer:
         if abs(v - round(v)) > 1e-9:
             return Invalid(f"must be a whole number; found {_fmt(v)}")
         v = float(round(v))
     core = to_column_unit(v, col, si)
-    u = f" {entered_unit}" if entered_unit else ""
-
-    def lim(x: float) -> str:
-        return _fmt(from_column_unit(x, col, si)) + u
-
-    hint = ""
-    if col.unit == "ksi" and not si and col.le is not None and core > col.le:
-        hint = " (is it in MPa? then set 'Units of this workbook' to SI on the Bridge sheet)"
-    if col.gt is not None and not core > col.gt:
-        return Invalid(f"must be greater than {lim(col.gt)}; found {_fmt(v)}{u}")
-    if col.ge is not None and not core >= col.ge:
-        return Invalid(f"must be at least {lim(col.ge)}; found {_fmt(v)}{u}")
-    if col.le is not None and not core <= col.le:
-        return Invalid(f"must be at most {lim(col.le)}; found {_fmt(v)}{u}{hint}")
-    value: object = int(core) if col.kind is Kind.INTEGER else core
+    refused = _out_of_range(v, core, col, si)
+    if refused is not None:
+        return refused
+    value: object = int(core) if integer else core
     if col.warn_below is not None and core < col.warn_below:
-        return Parsed(value, f"{_fmt(v)}{u} is unusually small (below {lim(col.warn_below)}); "
-                      "please confirm")
+        return Parsed(value, _unusual(v, col, si, "small (below", col.warn_below))
     if col.warn_above is not None and core > col.warn_above:
-        return Parsed(value, f"{_fmt(v)}{u} is unusually large (above {lim(col.warn_above)}); "
-                      "please confirm")
+        return Parsed(value, _unusual(v, col, si, "large (above", col.warn_above))
     return Parsed(value)
 
 
@@ -172,14 +195,14 @@ def parse_text(raw: object, col: Column) -> Parsed | Invalid:
     if len(t) > col.max_length:
         return Invalid(f"is {len(t)} characters long; at most {col.max_length} are read")
     if col.kind is Kind.LABEL:
-        t = re.sub(r"\s+", " ", t)
+        t = _SPACES.sub(" ", t)
         if "," in t:
             return Invalid(f"must be a single id without commas; found {describe(t)}")
     return Parsed(t)
 
 
 def norm_choice(text: str) -> str:
-    return re.sub(r"\s+", " ", text.strip()).lower()
+    return _SPACES.sub(" ", text.strip()).lower()
 
 
 def parse_choice(raw: object, col: Column) -> Parsed | Invalid:
@@ -221,7 +244,7 @@ def parse_list(raw: object, col: Column) -> Parsed | Invalid:
         return Invalid(f"must be a list separated by commas; found {describe(raw)}")
     if _CONTROL.search(t):
         return Invalid("contains control characters; retype the value")
-    items = [s.strip() for s in re.split(r"[,;]", t) if s.strip()]
+    items = [s.strip() for s in _LIST_SEPARATOR.split(t) if s.strip()]
     if col.kind is Kind.LABELLIST:
         too_long = [s for s in items if len(s) > col.max_length]
         if too_long:
@@ -229,7 +252,7 @@ def parse_list(raw: object, col: Column) -> Parsed | Invalid:
         return Parsed(tuple(items))
     out: list[int] = []
     for s in items:
-        if not re.fullmatch(r"\d{1,3}", s):
+        if not _LIST_NUMBER.fullmatch(s):
             return Invalid(f"must list whole numbers separated by commas (e.g. 4, 5); "
                            f"found {describe(s)}")
         out.append(int(s))

@@ -136,9 +136,12 @@ class FormSheet:
         return next(c for c in self.fields if c.key == key)
 
 
+_SPACES = re.compile(r"\s+")
+
+
 def header_words(text: str) -> str:
     """Normalised header/label words: before any ``[``, lower case, single spaces."""
-    return re.sub(r"\s+", " ", text.split("[", 1)[0]).strip().lower()
+    return _SPACES.sub(" ", text.split("[", 1)[0]).strip().lower()
 
 
 LENGTH = ("ft", "m")

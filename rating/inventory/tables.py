@@ -16,7 +16,7 @@ from openpyxl.utils import get_column_letter, range_boundaries
 
 from rating.inventory.book import Book, SheetGrid
 from rating.inventory.cells import Invalid, describe, is_blank, parse_value
-from rating.inventory.problems import ProblemLog
+from rating.inventory.problems import Problem, ProblemLog
 from rating.inventory.schema import (
     EXAMPLE_MARK,
     HEADER_ROW,
@@ -77,10 +77,18 @@ class TableData:
         return self.header_cells.get(key) or f"{self.sheet}!A{self.header_row}"
 
 
-def _context(template: str, values: Mapping[str, object]) -> str:
+def _context_names(template: str) -> list[str]:
+    return [f for _, f, _, _ in string.Formatter().parse(template) if f]
+
+
+def _context(template: str, values: Mapping[str, object],
+             names: list[str] | None = None) -> str:
+    """How a row is named in messages (``template`` filled from ``values``; "" when a value
+    is missing). ``names`` are the template's fields, when already known."""
     if not template:
         return ""
-    names = [f for _, f, _, _ in string.Formatter().parse(template) if f]
+    if names is None:
+        names = _context_names(template)
     if any(n not in values for n in names):
         return ""
     return template.format(**{n: values[n] for n in names})
@@ -141,28 +149,36 @@ def _check_merges(grid: SheetGrid, first_row: int, log: ProblemLog) -> None:
 def _parse_cell(grid: SheetGrid, row: int, col_idx: int, col: Column, si: bool,
                 ctx: str, log: ProblemLog) -> tuple[object, bool]:
     """(value or None when blank, usable?) for one cell; problems are logged."""
-    where = ref(grid.name, row, col_idx)
-    what = f"{col.title} of {ctx}" if ctx else col.title
-    formula = grid.formula_at(row, col_idx)
+    return _parse_raw(grid.value(row, col_idx), grid.formula_at(row, col_idx), col, si, ctx,
+                      log, ref(grid.name, row, col_idx))
+
+
+def _parse_raw(raw: object, formula: str | None, col: Column, si: bool, ctx: str,
+               log: ProblemLog, where: str) -> tuple[object, bool]:
+    """:func:`_parse_cell` of the cell at ``where`` holding ``raw`` (and ``formula``, a
+    formula without a saved result, or None)."""
     if formula is not None:
         shown = formula if len(formula) <= 40 else formula[:37] + "..."
-        log.error(where, f"{what}: the cell holds a formula ({shown}) whose result was never "
-                  "saved; open the workbook in the spreadsheet program and save it, or type "
-                  "the value")
+        log.error(where, f"{_what(col, ctx)}: the cell holds a formula ({shown}) whose result "
+                  "was never saved; open the workbook in the spreadsheet program and save it, "
+                  "or type the value")
         return None, False
-    raw = grid.value(row, col_idx)
-    if is_blank(raw):
+    if raw is None or isinstance(raw, str) and not raw.strip():  # blank
         if col.required:
-            log.error(where, f"{what} is required and is blank")
+            log.error(where, f"{_what(col, ctx)} is required and is blank")
             return None, False
         return None, True
     got = parse_value(raw, col, si)
     if isinstance(got, Invalid):
-        log.error(where, f"{what} {got.message}")
+        log.error(where, f"{_what(col, ctx)} {got.message}")
         return None, False
     if got.warning:
-        log.warning(where, f"{what}: {got.warning}")
+        log.warning(where, f"{_what(col, ctx)}: {got.warning}")
     return got.value, True
+
+
+def _what(col: Column, ctx: str) -> str:
+    return f"{col.title} of {ctx}" if ctx else col.title
 
 
 def _find_header_row(grid: SheetGrid, spec: TableSheet) -> int | None:
@@ -227,39 +243,54 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
                   f"{MAX_ROWS} are read")
     cols = [(c, colpos[c.key]) for c in spec.columns if c.key in colpos]
     key_cols = [(c, i) for c, i in cols if c.required][:2]
+    keys = {c.key for c, _ in key_cols}
+    places = [(c, i - 1, f"{grid.name}!{get_column_letter(i)}") for c, i in cols]
+    missing = frozenset(c.key for c in spec.columns if c.key not in colpos and c.required)
+    names = _context_names(spec.context)
+    uncached = grid.uncached_formulas
     rows: list[Row] = []
     for r in range(hdr + 1, grid.row_count + 1):
-        if mark_col is not None:
-            mark = grid.value(r, mark_col)
-            if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
-                continue
-        if all(is_blank(grid.value(r, i)) and grid.formula_at(r, i) is None for _, i in cols):
+        line = grid.rows[r - 1]  # every row of a grid is as wide as the columns read
+        mark = line[mark_col - 1] if mark_col is not None else None
+        if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
             continue
-        if mark_col is not None and not is_blank(grid.value(r, mark_col)):
+        if all(is_blank(line[k]) for _, k, _ in places) and (
+                not uncached or all((r, k + 1) not in uncached for _, k, _ in places)):
+            continue
+        if mark_col is not None and not is_blank(mark):
             log.warning(ref(grid.name, r, mark_col),
-                        f"column '{MARK_HEADER}' holds {describe(grid.value(r, mark_col))}; "
+                        f"column '{MARK_HEADER}' holds {describe(mark)}; "
                         f"only '{EXAMPLE_MARK}' has a meaning there (the row is read as data)")
-        # the row's name first, so every message can say which item it is about
+        number = str(r)
+        # the row's name first, so every message can say which item it is about; a key cell
+        # whose messages need no name is not parsed twice (its messages are kept for later)
         quiet = ProblemLog()
         pre: dict[str, object] = {}
+        first: dict[str, tuple[object, bool, list[Problem]]] = {}
         for c, i in key_cols:
-            v, ok = _parse_cell(grid, r, i, c, si, "", quiet)
+            v, ok = _parse_raw(line[i - 1], uncached.get((r, i)), c, si, "", quiet,
+                               f"{grid.name}!{get_column_letter(i)}{number}")
+            first[c.key] = (v, ok, quiet.problems)
+            quiet = ProblemLog()
             if ok and v is not None:
                 pre[c.key] = v
-        ctx = _context(spec.context, pre)
+        ctx = _context(spec.context, pre, names)
         values: dict[str, object] = {}
         cells: dict[str, str] = {}
-        bad: set[str] = set()
-        for c, i in cols:
-            cells[c.key] = ref(grid.name, r, i)
-            v, ok = _parse_cell(grid, r, i, c, si, "" if c.key in pre else ctx, log)
+        bad: set[str] = set(missing)
+        for c, k, place in places:
+            key = c.key
+            where = cells[key] = place + number
+            if key in keys and (key in pre or not ctx):
+                v, ok, logged = first[key]
+                log.problems.extend(logged)
+            else:
+                v, ok = _parse_raw(line[k], uncached.get((r, k + 1)) if uncached else None, c,
+                                   si, "" if key in pre else ctx, log, where)
             if not ok:
-                bad.add(c.key)
+                bad.add(key)
             elif v is not None:
-                values[c.key] = v
-        for c in spec.columns:
-            if c.key not in colpos and c.required:
-                bad.add(c.key)
+                values[key] = v
         rows.append(Row(grid.name, r, values, cells, frozenset(bad)))
     return TableData(spec, grid.name, True, tuple(rows), header_cells, hdr)
 
