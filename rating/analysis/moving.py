@@ -200,24 +200,15 @@ def axle_offsets_ft(spacings_ft: Sequence[float]) -> np.ndarray:
     return np.concatenate(([0.0], np.cumsum(np.asarray(spacings_ft, dtype=float))))
 
 
-def panel_point_positions(stations_ft: Sequence[float], spacings_ft: Sequence[float]
-                          ) -> tuple[VehiclePosition, ...]:
-    """Every position with an axle exactly over a deck panel point, both directions, each
-    direction in order of increasing front-axle station (forward first).
+def panel_point_fronts(stations_ft: Sequence[float], spacings_ft: Sequence[float],
+                       direction: Direction) -> np.ndarray:
+    """Front-axle stations (ft, increasing) of every position in ``direction`` with an axle
+    exactly over a deck panel point.
 
     Between two such positions every axle stays within one stringer span, so the panel-point
     loads, and every force of one active set, are linear in the vehicle's station (statics
     of the simple-span stringers, common practice).
     """
-    spac = tuple(float(x) for x in spacings_ft)
-    return tuple(VehiclePosition(float(v), direction, spac) for direction in BOTH_DIRECTIONS
-                 for v in panel_point_fronts(stations_ft, spacings_ft, direction))
-
-
-def panel_point_fronts(stations_ft: Sequence[float], spacings_ft: Sequence[float],
-                       direction: Direction) -> np.ndarray:
-    """Front-axle stations (ft, increasing) of every position in ``direction`` with an axle
-    exactly over a deck panel point (see :func:`panel_point_positions`)."""
     s = np.asarray(stations_ft, dtype=float)
     d = axle_offsets_ft(spacings_ft)
     tol = 1e-9 * max(1.0, float(s[-1] - s[0]) + float(d[-1]))

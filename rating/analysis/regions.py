@@ -194,10 +194,6 @@ class RegionTable:
         in each set."""
         return np.stack(self._elong)
 
-    def live_elongations(self, k: int, p: np.ndarray) -> np.ndarray:
-        """Member elongations (m, X) of the loads ``p`` (s, X) in set ``k``."""
-        return self._elong[k] @ p
-
     def conditions(self, key: Hashable, P_dead: np.ndarray, p: np.ndarray
                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """The consistency conditions A + lam B >= 0 of every set for every loading, over the
