@@ -198,6 +198,20 @@ def rate_one(task: _Task) -> BridgeRow:
                          seconds=time.perf_counter() - t0)
 
 
+def _largest_first(tasks: Sequence[_Task]) -> list[_Task]:
+    """The tasks with the largest workbooks first (a larger bridge takes longer to rate), so
+    that the pool does not end on one long workbook while the other processes wait; the
+    summary keeps the order of the names."""
+
+    def size(t: _Task) -> int:
+        try:
+            return t.workbook.stat().st_size
+        except OSError:  # gone since it was listed: rate_one records it
+            return 0
+
+    return sorted(tasks, key=size, reverse=True)
+
+
 # ------------------------------------------------------------------ progress on stderr
 
 @dataclass
@@ -284,7 +298,7 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         ctx = multiprocessing.get_context("spawn")
         with ProcessPoolExecutor(max_workers=n, mp_context=ctx,
                                  initializer=_limit_threads) as pool:
-            futures = {pool.submit(rate_one, t): t for t in tasks}
+            futures = {pool.submit(rate_one, t): t for t in _largest_first(tasks)}
             for fut in as_completed(futures):
                 t = futures[fut]
                 try:

@@ -216,3 +216,16 @@ def test_batch_end_to_end_on_a_sample_workbook(tmp_path: Path) -> None:
         pytest.skip(f"the sample workbook does not rate yet: {good.errors[:1]}")
     assert (tmp_path / "out" / good.report).is_file()
     assert good.vehicles and all(v.member for v in good.vehicles if v.rf is not None)
+
+
+def test_pool_starts_with_the_largest_workbooks(tmp_path: Path) -> None:
+    """Largest first (longest to rate), ties in name order, a vanished file last: the pool
+    does not end on one long workbook while the other processes wait."""
+    from rating.batch import _largest_first, _Task
+
+    folder = _folder(tmp_path, {"a.xlsx": b"x" * 10, "b.xlsx": b"x" * 30, "c.xlsx": b"x" * 10,
+                                "d.xlsx": b"x" * 20})
+    tasks = [_Task(folder / n, tmp_path, n[:-5], None) for n in ("a.xlsx", "b.xlsx",
+                                                                  "c.xlsx", "d.xlsx", "e.xlsx")]
+    assert [t.workbook.name for t in _largest_first(tasks)] == \
+        ["b.xlsx", "d.xlsx", "a.xlsx", "c.xlsx", "e.xlsx"]
