@@ -990,6 +990,10 @@ class _Reading:
             if d is not None:
                 pins[joint] = (d, mat)
         by_member = {d.member: d for d in designs}
+        at_joint: dict[str, list[str]] = {}  # the labels of g.members_at(joint), in order
+        for m in g.members if g is not None else ():
+            for end in dict.fromkeys((m.start, m.end)):
+                at_joint.setdefault(end, []).append(m.label)
         packing: dict[str, list[tuple[int, PackingItem, Row]]] = {}
         positions: dict[tuple[str, int], Row] = {}
         for r in self.t[sc.PACKING.name].rows:
@@ -1013,7 +1017,7 @@ class _Reading:
                               "floorbeam hangs on its pin")
                     continue
             elif member is not None and g is not None:
-                at = [m.label for m in g.members_at(joint)] if joint in g.joint_index else []
+                at = at_joint.get(joint, []) if joint in g.joint_index else []
                 if member not in g.member_index:
                     log.error(r.ref("member"), f"member {member} on the pin at {joint} is not a "
                               "member of the truss (write 'floorbeam' for a floorbeam hanger, "
@@ -1050,7 +1054,7 @@ class _Reading:
                           "delete the pin row")
             if g is not None and items and joint in g.joint_index:
                 on_pin = {it.member for _, it, _ in items}
-                absent = [m.label for m in g.members_at(joint) if m.label not in on_pin]
+                absent = [m for m in at_joint.get(joint, []) if m not in on_pin]
                 if absent:
                     log.error(r.ref("joint"), f"members {_listing(absent)} meet at {joint} but "
                               "have no plate in its packing; every bar on the pin is needed to "

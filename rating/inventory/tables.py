@@ -15,7 +15,7 @@ from dataclasses import dataclass
 from openpyxl.utils import get_column_letter, range_boundaries
 
 from rating.inventory.book import Book, SheetGrid
-from rating.inventory.cells import Invalid, describe, is_blank, parse_value
+from rating.inventory.cells import Invalid, Parsed, describe, is_blank, parse_value
 from rating.inventory.problems import Problem, ProblemLog
 from rating.inventory.schema import (
     EXAMPLE_MARK,
@@ -154,9 +154,12 @@ def _parse_cell(grid: SheetGrid, row: int, col_idx: int, col: Column, si: bool,
 
 
 def _parse_raw(raw: object, formula: str | None, col: Column, si: bool, ctx: str,
-               log: ProblemLog, where: str) -> tuple[object, bool]:
+               log: ProblemLog, where: str,
+               memo: dict[tuple[str, type, object], Parsed | Invalid] | None = None,
+               ) -> tuple[object, bool]:
     """:func:`_parse_cell` of the cell at ``where`` holding ``raw`` (and ``formula``, a
-    formula without a saved result, or None)."""
+    formula without a saved result, or None). ``memo`` keeps what :func:`parse_value` gave
+    for a value already met in the same column (values repeat down a table)."""
     if formula is not None:
         shown = formula if len(formula) <= 40 else formula[:37] + "..."
         log.error(where, f"{_what(col, ctx)}: the cell holds a formula ({shown}) whose result "
@@ -168,7 +171,16 @@ def _parse_raw(raw: object, formula: str | None, col: Column, si: bool, ctx: str
             log.error(where, f"{_what(col, ctx)} is required and is blank")
             return None, False
         return None, True
-    got = parse_value(raw, col, si)
+    if memo is None:
+        got = parse_value(raw, col, si)
+    else:
+        key = (col.key, type(raw), raw)
+        known = memo.get(key)
+        if known is None:
+            known = parse_value(raw, col, si)
+            if not (type(raw) is float and raw == 0):  # -0.0 reads as "-0", 0.0 as "0"
+                memo[key] = known
+        got = known
     if isinstance(got, Invalid):
         log.error(where, f"{_what(col, ctx)} {got.message}")
         return None, False
@@ -211,6 +223,7 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
         return TableData(spec, grid.name, True, (), {})
     _check_merges(grid, hdr, log)
     by_words = {header_words(c.title): c for c in spec.columns}
+    mark_words = header_words(MARK_HEADER)
     colpos: dict[str, int] = {}
     header_cells: dict[str, str] = {}
     mark_col: int | None = None
@@ -218,7 +231,7 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
         if not isinstance(v, str):
             continue
         w = header_words(v)
-        if w == header_words(MARK_HEADER):
+        if w == mark_words:
             mark_col = c_idx
             continue
         col = by_words.get(w)
@@ -242,12 +255,22 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
                   f"sheet '{grid.name}' has more than {MAX_ROWS} rows; only the first "
                   f"{MAX_ROWS} are read")
     cols = [(c, colpos[c.key]) for c in spec.columns if c.key in colpos]
+    missing = frozenset(c.key for c in spec.columns if c.key not in colpos and c.required)
+    rows = _read_rows(grid, spec, hdr, cols, mark_col, missing, si, log)
+    return TableData(spec, grid.name, True, rows, header_cells, hdr)
+
+
+def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Column, int]],
+               mark_col: int | None, missing: frozenset[str], si: bool,
+               log: ProblemLog) -> tuple[Row, ...]:
+    """The data rows below the header row ``hdr``: ``cols`` are the columns found (with their
+    column numbers), ``missing`` the required ones not found."""
     key_cols = [(c, i) for c, i in cols if c.required][:2]
     keys = {c.key for c, _ in key_cols}
     places = [(c, i - 1, f"{grid.name}!{get_column_letter(i)}") for c, i in cols]
-    missing = frozenset(c.key for c in spec.columns if c.key not in colpos and c.required)
     names = _context_names(spec.context)
     uncached = grid.uncached_formulas
+    memo: dict[tuple[str, type, object], Parsed | Invalid] = {}
     rows: list[Row] = []
     for r in range(hdr + 1, grid.row_count + 1):
         line = grid.rows[r - 1]  # every row of a grid is as wide as the columns read
@@ -264,14 +287,13 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
         number = str(r)
         # the row's name first, so every message can say which item it is about; a key cell
         # whose messages need no name is not parsed twice (its messages are kept for later)
-        quiet = ProblemLog()
         pre: dict[str, object] = {}
         first: dict[str, tuple[object, bool, list[Problem]]] = {}
         for c, i in key_cols:
-            v, ok = _parse_raw(line[i - 1], uncached.get((r, i)), c, si, "", quiet,
-                               f"{grid.name}!{get_column_letter(i)}{number}")
-            first[c.key] = (v, ok, quiet.problems)
             quiet = ProblemLog()
+            v, ok = _parse_raw(line[i - 1], uncached.get((r, i)), c, si, "", quiet,
+                               f"{grid.name}!{get_column_letter(i)}{number}", memo)
+            first[c.key] = (v, ok, quiet.problems)
             if ok and v is not None:
                 pre[c.key] = v
         ctx = _context(spec.context, pre, names)
@@ -281,18 +303,21 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
         for c, k, place in places:
             key = c.key
             where = cells[key] = place + number
+            raw = line[k]
             if key in keys and (key in pre or not ctx):
                 v, ok, logged = first[key]
                 log.problems.extend(logged)
+            elif raw is None and not c.required and (not uncached or (r, k + 1) not in uncached):
+                continue  # blank and optional: nothing to say, nothing to keep
             else:
-                v, ok = _parse_raw(line[k], uncached.get((r, k + 1)) if uncached else None, c,
-                                   si, "" if key in pre else ctx, log, where)
+                v, ok = _parse_raw(raw, uncached.get((r, k + 1)) if uncached else None, c, si,
+                                   "" if key in pre else ctx, log, where, memo)
             if not ok:
                 bad.add(key)
             elif v is not None:
                 values[key] = v
         rows.append(Row(grid.name, r, values, cells, frozenset(bad)))
-    return TableData(spec, grid.name, True, tuple(rows), header_cells, hdr)
+    return tuple(rows)
 
 
 def read_form(book: Book, spec: FormSheet, si: bool | None, log: ProblemLog,

@@ -50,7 +50,7 @@ from openpyxl.packaging.custom import CustomPropertyList
 from openpyxl.packaging.relationship import get_dependents, get_rels_path
 from openpyxl.packaging.workbook import WorkbookPackage
 from openpyxl.reader.strings import read_string_table
-from openpyxl.styles.stylesheet import Stylesheet
+from openpyxl.styles.numbers import BUILTIN_FORMATS, is_date_format, is_timedelta_format
 from openpyxl.utils.cell import range_boundaries
 from openpyxl.utils.datetime import MAC_EPOCH, WINDOWS_EPOCH, from_excel, from_ISO8601
 from openpyxl.worksheet.merge import MergeCell
@@ -155,8 +155,10 @@ _ATTRS = rf"""(?:{_S}+{_NCNAME}(?::{_NCNAME})?{_S}*={_S}*(?:"[^"<]*"|'[^'<]*'))*
 _ATTR = re.compile(rf"""{_S}+({_NCNAME}(?::{_NCNAME})?){_S}*={_S}*(?:"([^"<]*)"|'([^'<]*)')""")
 _ENCODING = re.compile(rb"""^<\?xml[^>]*?\sencoding\s*=\s*["']([^"']*)["']""")
 _ROOT = re.compile(rf"(?:<\?xml[^>]*\?>)?{_S}*<({_NCNAME})({_ATTRS}){_S}*>")
-# text decoded from UTF-8 holds no surrogate and nothing above U+10FFFF: these are the rest
-_NOT_XML_CHAR = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\ufffe\uffff]")
+# Characters XML does not allow, in UTF-8 (which has no surrogates and nothing above
+# U+10FFFF): the control bytes (never part of a longer sequence), U+FFFE and U+FFFF.
+_CONTROL_BYTES = bytes(range(0x09)) + b"\x0b\x0c" + bytes(range(0x0e, 0x20))
+_NOT_CHARACTERS = (b"\xef\xbf\xbe", b"\xef\xbf\xbf")
 _BARE_AMPERSAND = re.compile(r"&(?!(?:lt|gt|amp|quot|apos|#[0-9]+|#x[0-9a-fA-F]+);)")
 _CHAR_REFERENCE = re.compile(r"&#(?:([0-9]+)|x([0-9a-fA-F]+));")
 _ATTR_PREFIX = re.compile(rf"{_S}({_NCNAME}):{_NCNAME}{_S}*=")
@@ -228,8 +230,12 @@ def _check_content(part: _Plain) -> None:
     XML character, no ``]]>``, no namespace declaration. (Attribute prefixes are checked
     where the attributes are read.)"""
     inside = part.text[part.start:part.end]
-    if _NOT_XML_CHAR.search(inside) or "]]>" in inside or "xmlns" in inside:
-        raise Unsupported("characters or declarations outside the plain form")
+    data = part.data  # the whole part: what expat checked is free of these too
+    if (len(data.translate(None, _CONTROL_BYTES)) != len(data)
+            or any(c in data for c in _NOT_CHARACTERS)):
+        raise Unsupported("characters XML does not allow")
+    if "]]>" in inside or "xmlns" in inside:
+        raise Unsupported("a CDATA end or a namespace declaration among the rows")
     if "&" in inside:
         if _BARE_AMPERSAND.search(inside):
             raise Unsupported("an undeclared entity")
@@ -262,20 +268,18 @@ def _content(raw: str) -> str:
     return raw
 
 
-def _children(data: bytes) -> tuple[dict[str, str], list[tuple[str, dict[str, str]]]]:
-    """The root's attributes and its children (local name, attributes), attributes in a
-    namespace left out as openpyxl leaves them out; for small parts read element by element."""
-    root: dict[str, str] = {}
-    children: list[tuple[str, dict[str, str]]] = []
+def _elements(data: bytes, levels: int = 1) -> list[tuple[int, str, dict[str, str]]]:
+    """The elements of a small part down to ``levels`` below the root, in document order:
+    (level, local name, attributes), attributes in a namespace left out as openpyxl leaves
+    them out (the root is level 0)."""
+    out: list[tuple[int, str, dict[str, str]]] = []
     depth = 0
 
     def start(name: str, attrs: dict[str, str]) -> None:
-        nonlocal depth, root
-        plain = {k: v for k, v in attrs.items() if "}" not in k}
-        if depth == 0:
-            root = plain
-        elif depth == 1:
-            children.append((name.rsplit("}", 1)[-1], plain))
+        nonlocal depth
+        if depth <= levels:
+            plain = {k: v for k, v in attrs.items() if "}" not in k}
+            out.append((depth, name.rsplit("}", 1)[-1], plain))
         depth += 1
 
     def end(_name: str) -> None:
@@ -286,7 +290,13 @@ def _children(data: bytes) -> tuple[dict[str, str], list[tuple[str, dict[str, st
     parser.StartElementHandler = start
     parser.EndElementHandler = end
     parser.Parse(data, True)
-    return root, children
+    return out
+
+
+def _children(data: bytes) -> tuple[dict[str, str], list[tuple[str, dict[str, str]]]]:
+    """The root's attributes and its children (local name, attributes)."""
+    elements = _elements(data)
+    return elements[0][2], [(tag, attrs) for _, tag, attrs in elements[1:]]
 
 
 # --- the package -----------------------------------------------------------------------------
@@ -316,13 +326,7 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         CustomPropertyList.from_tree(fromstring(z.read(ARC_CUSTOM)))
     if ARC_THEME in names:
         z.read(ARC_THEME)  # openpyxl reads it: a damaged theme part is noticed here too
-    dates: frozenset[int] = frozenset()
-    durations: frozenset[int] = frozenset()
-    if ARC_STYLE in names:
-        styles = Stylesheet.from_tree(fromstring(z.read(ARC_STYLE)))
-        if styles.cell_styles:
-            dates = frozenset(styles.date_formats)
-            durations = frozenset(styles.timedelta_formats)
+    dates, durations = _date_styles(z.read(ARC_STYLE)) if ARC_STYLE in names else ((), ())
     sheet_names: list[str] = []
     worksheets: list[_Plain] = []
     rels = None
@@ -344,7 +348,8 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         sheet_names.append(sheet.name)
         worksheets.append(part)
     epoch = MAC_EPOCH if workbook.properties.date1904 else WINDOWS_EPOCH
-    return Package(tuple(sheet_names), tuple(worksheets), strings, dates, durations, epoch)
+    return Package(tuple(sheet_names), tuple(worksheets), strings, frozenset(dates),
+                   frozenset(durations), epoch)
 
 
 def _content_types(data: bytes) -> list[tuple[str, str]]:
@@ -380,6 +385,40 @@ def _workbook_part(overrides: list[tuple[str, str]]) -> str:
         if part:
             return part[1:]
     raise Unsupported("no workbook part among the overrides")
+
+
+def _date_styles(data: bytes) -> tuple[set[int], set[int]]:
+    """The cell styles (indexes into ``cellXfs``) whose number format shows a date or time,
+    and those showing a duration, derived as openpyxl derives them (Stylesheet
+    ``_normalise_numbers``): a style's ``numFmtId`` names a custom ``numFmt`` of the sheet or
+    else a built-in format, and openpyxl's own ``is_date_format`` and ``is_timedelta_format``
+    judge the format code. The rest of the stylesheet is only checked to be well-formed."""
+    custom: dict[int, str] = {}
+    formats: list[int] | None = None
+    lists = {"numFmts": 0, "cellXfs": 0}
+    parent = ""
+    for level, tag, attrs in _elements(data, levels=2):
+        if level == 1:
+            parent = tag
+            if tag in lists:
+                lists[tag] += 1
+                if tag == "cellXfs":
+                    formats = []
+        elif level == 2 and parent == "numFmts" and tag == "numFmt":
+            custom[int(attrs["numFmtId"])] = attrs["formatCode"]  # openpyxl needs both
+        elif level == 2 and parent == "cellXfs" and tag == "xf":
+            formats.append(int(attrs.get("numFmtId", 0)))  # type: ignore[union-attr]
+    if max(lists.values()) > 1:
+        raise Unsupported("a stylesheet with two lists of number or cell formats")
+    dates: set[int] = set()
+    durations: set[int] = set()
+    for idx, fmt_id in enumerate(formats or ()):
+        fmt = custom[fmt_id] if fmt_id in custom else BUILTIN_FORMATS.get(fmt_id)
+        if is_date_format(fmt):
+            dates.add(idx)
+        if is_timedelta_format(fmt):
+            durations.add(idx)
+    return dates, durations
 
 
 def _check_relationships(data: bytes) -> None:
@@ -545,12 +584,26 @@ class _SheetReader:
             if blob and blob not in blobs:
                 self.check_row_attrs(blob)
                 blobs.add(blob)
-        put = self.put
+        grid, ncols, last, columns = self.grid, self.ncols, self.max_rows + 1, self.columns
+        value = self.value
         for letters, digits, style, t, v, inline, inline_text in _VALUE_CELL.findall(
                 part.text, part.start, part.end):
-            put(int(digits), letters, self.value(
-                t or "n", int(style) if style else 0, _content(v) if v else None,
-                inline != "", inline_text))
+            if t == "inlineStr":
+                got = _content(inline_text) if inline else None
+            else:
+                got = None if not v else value(t or "n", int(style) if style else 0,
+                                               _content(v), False, None)
+            row = int(digits)
+            col = columns.get(letters)
+            if col is None:
+                col = columns[letters] = col_number(letters)
+            if col <= ncols and row <= last:
+                values = grid.get(row)
+                if values is None:
+                    if got is None:
+                        continue
+                    values = grid[row] = [None] * ncols
+                values[col - 1] = got
         return True
 
     def read_tokens(self, part: _Plain) -> None:
@@ -608,6 +661,8 @@ class _SheetReader:
         return col
 
     def put(self, row: int, letters: str, value: object) -> None:
+        """Keep ``value`` at (row, column ``letters``) when within the rows and columns read
+        (the last cell of a place counts, as in openpyxl)."""
         col = self.column(letters)
         if col <= self.ncols and row <= self.max_rows + 1:
             values = self.grid.get(row)

@@ -305,6 +305,63 @@ def test_number_formats_of_every_kind(tmp_path: Path) -> None:
     assert compare(_one_sheet(tmp_path, rows, styles=styles), WANTED, ROWS)
 
 
+STYLESHEETS = {
+    "formats of every kind": styles_xml(
+        {164: "d/m/yyyy", 165: "[$-409]h:mm AM/PM", 166: "[mm]:ss", 167: '"d"0', 168: "@"},
+        (0, 14, 164, 165, 166, 167, 168, 22, 45, 46, 47, 999)),
+    "a format given twice": styles_xml({164: "0.00", 165: "yyyy"}).replace(
+        'numFmtId="165"', 'numFmtId="164"'),
+    "a format without code": styles_xml({164: "yyyy"}, (0, 164)).replace(
+        ' formatCode="yyyy"', ""),
+    "a style without format": styles_xml().replace('<xf numFmtId="14" ', "<xf "),
+    "no cell styles": styles_xml().replace("<cellXfs", "<cellXfsX").replace(
+        "</cellXfs>", "</cellXfsX>"),
+    "empty cell styles": styles_xml({}, ()),
+}
+
+
+@pytest.mark.parametrize("styles", STYLESHEETS.values(), ids=STYLESHEETS.keys())
+def test_date_styles_as_openpyxl_derives_them(styles: str) -> None:
+    from openpyxl.styles.stylesheet import Stylesheet
+    from openpyxl.xml.functions import fromstring
+
+    try:
+        sheet = Stylesheet.from_tree(fromstring(styles.encode()))
+    except TypeError:  # refused by openpyxl: refused here too (the reference decides)
+        with pytest.raises(KeyError):
+            xlsx._date_styles(styles.encode())
+        return
+    expected = ((sheet.date_formats, sheet.timedelta_formats) if sheet.cell_styles
+                else (set(), set()))
+    assert xlsx._date_styles(styles.encode()) == expected
+
+
+def test_samples_date_styles_as_openpyxl_derives_them() -> None:
+    from openpyxl.styles.stylesheet import Stylesheet
+    from openpyxl.xml.functions import fromstring
+
+    for path in SAMPLES:
+        with zipfile.ZipFile(path) as z:
+            data = z.read("xl/styles.xml")
+        sheet = Stylesheet.from_tree(fromstring(data))
+        assert xlsx._date_styles(data) == (sheet.date_formats, sheet.timedelta_formats)
+
+
+def test_stylesheet_values_never_used_no_longer_refuse_the_workbook(tmp_path: Path) -> None:
+    """The one deliberate difference: openpyxl's checks of stylesheet values the reader never
+    uses (here a font family above 14, which some generators write) are not repeated; the
+    reference reader refused such a workbook as unreadable, the fast reader reads it."""
+    from rating.errors import InputError
+    from rating.inventory import book
+
+    styles = styles_xml().replace("<sz val=\"11\"/>", "<sz val=\"11\"/><family val=\"20\"/>")
+    path = _one_sheet(tmp_path, CELL_ROW, styles=styles)
+    with pytest.raises(InputError, match="cannot be read"):
+        book.open_book_reference(path, WANTED, ROWS)
+    got = book.open_book(path, WANTED, ROWS)
+    assert got.grids["Data"].value(2, 2) == 4
+
+
 def test_chart_sheet_is_left_to_the_reference(tmp_path: Path) -> None:
     chart = ('<?xml version="1.0"?><chartsheet xmlns="http://schemas.openxmlformats.org/'
              'spreadsheetml/2006/main"><sheetViews><sheetView workbookViewId="0"/>'
