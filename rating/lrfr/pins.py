@@ -310,9 +310,9 @@ def _gauge_floor(model: PinModel, T: np.ndarray, idx: list[int], store: PathStor
     (the utilization is convex in the forces), and lam at the limit is 1 / g(L), g the gauge
     of that set, convex and positively homogeneous. The live load is a sum of panel loads
     p_s >= 0 times the unit panel loads e_s, so g(L) <= sum p_s g(e_s): lam >= 1 / (sum p_s
-    g(e_s)), with g(e_s) found once per set and panel point (the same root search as any
-    position). The least over the sets on the position's path bounds its lam (the sets of
-    its first piece alone for a joint whose bars do not depend on them)."""
+    g(e_s)), with g(e_s) bounded from above once per set and panel point
+    (:func:`_root_below`). The least over the sets on the position's path bounds its lam
+    (the sets of its first piece alone for a joint whose bars do not depend on them)."""
     table = store.table
     F = table.force_lines()
     Fd, _ = table.dead(store.key, store.P_dead)
@@ -322,8 +322,8 @@ def _gauge_floor(model: PinModel, T: np.ndarray, idx: list[int], store: PathStor
     scale = max(float(np.abs(p).max(initial=0.0)), 1.0)  # a panel load of the size searched
     Gd = (Fd[used][:, idx] @ T).reshape(used.size, 1, Kp, 2)
     Q = np.einsum("kns,nc->ksc", F[used][:, idx, :], T).reshape(used.size, S, Kp, 2)
-    lam = model.multipliers_projected(np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
-                                      (scale * Q).reshape(-1, Kp, 2))
+    lam = _root_below(model, np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
+                      (scale * Q).reshape(-1, Kp, 2))
     # not reached by 1,000 such loads: the gauge is at most 1 / (1,000 scale)
     lam = np.minimum(lam, 1e3)
     with np.errstate(divide="ignore"):
@@ -335,6 +335,33 @@ def _gauge_floor(model: PinModel, T: np.ndarray, idx: list[int], store: PathStor
     vals = np.where(kk >= 0, Gam[np.maximum(kk, 0), np.arange(kk.shape[0])[:, None]], 0.0)
     with np.errstate(divide="ignore"):
         return 1.0 / vals.max(axis=1, initial=0.0)
+
+
+def _root_below(model: PinModel, G0: np.ndarray, G1: np.ndarray, steps: int = 4
+                ) -> np.ndarray:
+    """A lower bound, within a fraction of a per cent, of the least lam >= 0 at which the
+    utilization of G0 + lam G1 (P, K, 2) reaches 1.0 (inf where it never does, 0 where G0
+    alone does): from the bounds of rating.capacity.pins.PinModel.multiplier_bounds, a few
+    chords of the convex utilization, each crossing 1.0 before it does."""
+    util = model._utilization_projected
+    a, b = model.multiplier_bounds(G0, G1)
+    out = np.where(np.isfinite(b), a, np.inf)
+    live = np.flatnonzero(np.isfinite(b) & (b > a))
+    if not live.size:
+        return out
+    a, b, G0, G1 = a[live], b[live], G0[live], G1[live]
+    fa = util(G0 + a[:, None, None] * G1) - 1.0
+    fb = util(G0 + b[:, None, None] * G1) - 1.0
+    for _ in range(steps):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            z = np.where(fb > fa, a - fa * (b - a) / (fb - fa), a)
+        z = np.clip(z, a, b)
+        fz = util(G0 + z[:, None, None] * G1) - 1.0
+        below = fz < 0.0
+        a, fa = np.where(below, z, a), np.where(below, fz, fa)
+        b, fb = np.where(below, b, z), np.where(below, fb, fz)
+    out[live] = a
+    return out
 
 
 def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
