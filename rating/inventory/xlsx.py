@@ -193,8 +193,6 @@ def _plain(data: bytes, root: str, content: str | None = None) -> _Plain:
     if enc and enc.group(1).lower() != b"utf-8":
         raise Unsupported("an encoding other than UTF-8")
     text = body.decode("utf-8")
-    if "<!" in text or text.find("<?", 1) >= 0:
-        raise Unsupported("comments, CDATA, processing instructions or a DTD")
     m = _ROOT.match(text)
     if not m or m.group(1) != root:
         raise Unsupported(f"the root is not a plain <{root}>")
@@ -210,16 +208,23 @@ def _plain(data: bytes, root: str, content: str | None = None) -> _Plain:
     else:
         i = text.find(f"<{content}", m.end())
         o = re.compile(rf"<{content}{_S}*(/?)>").match(text, i) if i >= 0 else None
-        if o is None or text.count(f"<{content}") != 1 or f":{content}" in text:
+        if o is None:
             raise Unsupported(f"no plain <{content}>")
-        if "xmlns" in text[m.end():i]:  # on an element around the content (or beside it)
-            raise Unsupported("a namespace declared inside the part")
         start = end = tail = o.end()
         if not o.group(1):
             end = text.find(f"</{content}>", start)
             tail = end + len(content) + 3
     if end < start:
         raise Unsupported("no end of the content")
+    # the inside of the content is matched element by element (nothing else passes there)
+    head, rest = text[:start], text[tail:]
+    if "<!" in head or "<!" in rest or head.find("<?", 1) >= 0 or "<?" in rest:
+        raise Unsupported("comments, CDATA, processing instructions or a DTD")
+    if content is not None and (f"<{content}" in rest or f":{content}" in head
+                                or f":{content}" in rest):
+        raise Unsupported(f"a second <{content}>")
+    if "xmlns" in head[m.end():]:  # on an element around the content (or beside it)
+        raise Unsupported("a namespace declared inside the part")
     _parser().Parse((text[:start] + text[end:]).encode("utf-8"), True)
     return _Plain(data, text, frozenset(declared) | {"xml"}, start, end, tail)
 
@@ -585,14 +590,19 @@ class _SheetReader:
                 self.check_row_attrs(blob)
                 blobs.add(blob)
         grid, ncols, last, columns = self.grid, self.ncols, self.max_rows + 1, self.columns
-        value = self.value
-        for letters, digits, style, t, v, inline, inline_text in _VALUE_CELL.findall(
+        value, dates = self.value, self.package.date_styles
+        for letters, digits, style, t, v, inline, text in _VALUE_CELL.findall(
                 part.text, part.start, part.end):
+            if "&" in v or "\r" in v or "&" in text or "\r" in text:
+                v, text = _content(v), _content(text)
             if t == "inlineStr":
-                got = _content(inline_text) if inline else None
+                got = text if inline else None
+            elif not v:
+                got = None
+            elif (not t or t == "n") and (int(style) if style else 0) not in dates:
+                got = _cast_number(v)  # a number without a date or duration format
             else:
-                got = None if not v else value(t or "n", int(style) if style else 0,
-                                               _content(v), False, None)
+                got = value(t or "n", int(style) if style else 0, v, False, None)
             row = int(digits)
             col = columns.get(letters)
             if col is None:

@@ -172,6 +172,13 @@ def test_one_cell_reads_the_same_both_ways(tmp_path: Path, cell: str, fast: bool
     assert compare(_one_sheet(tmp_path, rows, root=EXCEL_ROOT), WANTED, ROWS) is fast
 
 
+def test_style_zero_with_a_date_format(tmp_path: Path) -> None:
+    """A cell without s has style 0 (openpyxl's default), a date here."""
+    styles = styles_xml({}, (14, 0))
+    rows = '<row r="2"><c r="B2"><v>45413</v></c><c r="C2" s="1"><v>45413</v></c></row>'
+    assert compare(_one_sheet(tmp_path, rows, styles=styles), WANTED, ROWS)
+
+
 def test_dates_of_the_1904_system(tmp_path: Path) -> None:
     rows = (f'<row r="2"><c r="B2" s="{D}"><v>40000</v></c><c r="C2" s="2"><v>0.5</v></c>'
             f'<c r="D2" s="{T}"><v>3.5</v></c></row>')
@@ -498,11 +505,38 @@ _cell = st.builds(
 
 @settings(max_examples=60, deadline=None,
           suppress_health_check=[HealthCheck.function_scoped_fixture])
-@given(cells=st.lists(_cell, min_size=1, max_size=4), date1904=st.booleans())
+@given(cells=st.lists(_cell, min_size=1, max_size=4), date1904=st.booleans(),
+       date_first=st.booleans())
 def test_random_cells_read_the_same_both_ways(tmp_path: Path, cells: list[str],
-                                              date1904: bool) -> None:
+                                              date1904: bool, date_first: bool) -> None:
     rows = f'<row r="2">{"".join(cells)}</row>'
-    compare(_one_sheet(tmp_path, rows, date1904=date1904), WANTED, ROWS)
+    styles = styles_xml() if not date_first else styles_xml(xf_formats=(14, 0, 22, 45, 46))
+    compare(_one_sheet(tmp_path, rows, date1904=date1904, styles=styles), WANTED, ROWS)
+
+
+_row_cells = st.lists(st.tuples(st.sampled_from("ABCDEFGH"), st.sampled_from([
+    "/>", "><v>1</v></c>", ' t="s"><v>0</v></c>', ' t="inlineStr"><is><t>x</t></is></c>',
+    "><f>A1</f></c>", "></c>", ' s="1"><v>45000.5</v></c>'])), max_size=4)
+_row = st.tuples(st.integers(1, ROWS + 3), _row_cells,
+                 st.sampled_from(["", ' spans="1:3"', ' x14ac:dyDescent="0.25"', ' ht="20"']),
+                 st.sampled_from(["", "\n  "]))
+
+
+def _rows_xml(rows: list[tuple[int, list[tuple[str, str]], str, str]]) -> str:
+    out = []
+    for r, cells, attrs, space in rows:
+        body = "".join(f'{space}<c r="{col}{r}"{rest}' for col, rest in cells)
+        out.append(f'{space}<row r="{r}"{attrs}>{body}</row>' if cells else
+                   f'{space}<row r="{r}"{attrs}/>')
+    return "".join(out)
+
+
+@settings(max_examples=40, deadline=None,
+          suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(rows=st.lists(_row, max_size=6), merged=st.booleans())
+def test_random_rows_read_the_same_both_ways(tmp_path: Path, rows, merged: bool) -> None:
+    tail = MERGES if merged else ""
+    compare(_one_sheet(tmp_path, _rows_xml(rows), root=EXCEL_ROOT, tail=tail), WANTED, ROWS)
 
 
 def test_datetime_values_are_typed_as_openpyxl_types_them(tmp_path: Path) -> None:
