@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import re
 import string
-from collections.abc import Mapping
+from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 
 from openpyxl.utils import get_column_letter, range_boundaries
@@ -64,6 +64,26 @@ class Row:
         return not self.bad
 
 
+class CellRefs(Mapping[str, str]):
+    """The ``Sheet!Cell`` of each column of one table row (by column key), made when asked:
+    most cells of a row are blank and never named in a message."""
+
+    __slots__ = ("_places", "_row")
+
+    def __init__(self, places: Mapping[str, str], row: str) -> None:
+        self._places = places  # column key -> "Sheet!B"
+        self._row = row
+
+    def __getitem__(self, key: str) -> str:
+        return self._places[key] + self._row
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._places)
+
+    def __len__(self) -> int:
+        return len(self._places)
+
+
 @dataclass(frozen=True)
 class TableData:
     spec: TableSheet
@@ -94,8 +114,11 @@ def _context(template: str, values: Mapping[str, object],
     return template.format(**{n: values[n] for n in names})
 
 
+_UNITS = re.compile(r"\[([^\]]*)\]")
+
+
 def _unit_tokens(text: str) -> list[str] | None:
-    m = re.search(r"\[([^\]]*)\]", text)
+    m = _UNITS.search(text)
     if not m:
         return None
     return [t.strip() for t in m.group(1).split("|") if t.strip()]
@@ -154,21 +177,21 @@ def _parse_cell(grid: SheetGrid, row: int, col_idx: int, col: Column, si: bool,
 
 
 def _parse_raw(raw: object, formula: str | None, col: Column, si: bool, ctx: str,
-               log: ProblemLog, where: str,
+               log: ProblemLog, where: str, row: str = "",
                memo: dict[tuple[str, type, object], Parsed | Invalid] | None = None,
                ) -> tuple[object, bool]:
-    """:func:`_parse_cell` of the cell at ``where`` holding ``raw`` (and ``formula``, a
-    formula without a saved result, or None). ``memo`` keeps what :func:`parse_value` gave
+    """:func:`_parse_cell` of the cell at ``where + row`` holding ``raw`` (and ``formula``,
+    a formula without a saved result, or None). ``memo`` keeps what :func:`parse_value` gave
     for a value already met in the same column (values repeat down a table)."""
     if formula is not None:
         shown = formula if len(formula) <= 40 else formula[:37] + "..."
-        log.error(where, f"{_what(col, ctx)}: the cell holds a formula ({shown}) whose result "
-                  "was never saved; open the workbook in the spreadsheet program and save it, "
-                  "or type the value")
+        log.error(where + row, f"{_what(col, ctx)}: the cell holds a formula ({shown}) whose "
+                  "result was never saved; open the workbook in the spreadsheet program and "
+                  "save it, or type the value")
         return None, False
     if raw is None or isinstance(raw, str) and not raw.strip():  # blank
         if col.required:
-            log.error(where, f"{_what(col, ctx)} is required and is blank")
+            log.error(where + row, f"{_what(col, ctx)} is required and is blank")
             return None, False
         return None, True
     if memo is None:
@@ -182,10 +205,10 @@ def _parse_raw(raw: object, formula: str | None, col: Column, si: bool, ctx: str
                 memo[key] = known
         got = known
     if isinstance(got, Invalid):
-        log.error(where, f"{_what(col, ctx)} {got.message}")
+        log.error(where + row, f"{_what(col, ctx)} {got.message}")
         return None, False
     if got.warning:
-        log.warning(where, f"{_what(col, ctx)}: {got.warning}")
+        log.warning(where + row, f"{_what(col, ctx)}: {got.warning}")
     return got.value, True
 
 
@@ -193,13 +216,16 @@ def _what(col: Column, ctx: str) -> str:
     return f"{col.title} of {ctx}" if ctx else col.title
 
 
-def _find_header_row(grid: SheetGrid, spec: TableSheet) -> int | None:
-    wanted = {header_words(c.title) for c in spec.columns}
+def _find_header_row(grid: SheetGrid, spec: TableSheet,
+                     wanted: set[str]) -> tuple[int, list[str | None]] | None:
+    """The header row (among the first rows) and the header words of its cells (None where
+    a cell holds no text); ``wanted`` are the header words of the columns."""
     first = header_words(spec.columns[0].title)
     for r in range(1, min(HEADER_SEARCH_ROWS, grid.row_count) + 1):
-        words = [header_words(v) for v in grid.rows[r - 1] if isinstance(v, str)]
-        if first in words and len(wanted.intersection(words)) >= min(2, len(wanted)):
-            return r
+        words = [header_words(v) if isinstance(v, str) else None for v in grid.rows[r - 1]]
+        present = [w for w in words if w is not None]
+        if first in present and len(wanted.intersection(present)) >= min(2, len(wanted)):
+            return r, words
     return None
 
 
@@ -214,23 +240,23 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
         return TableData(spec, spec.name, False, (), {})
     if unreadable(grid, log):
         return TableData(spec, grid.name, True, (), {})
-    hdr = _find_header_row(grid, spec)
-    if hdr is None:
+    by_words = {header_words(c.title): c for c in spec.columns}
+    found = _find_header_row(grid, spec, set(by_words))
+    if found is None:
         log.error(ref(grid.name, HEADER_ROW, 1),
                   f"no header row found on sheet '{grid.name}': expected the column headers "
                   + ", ".join(f"'{c.header}'" for c in spec.columns[:4]) + ", ... in one of "
                   f"the first {HEADER_SEARCH_ROWS} rows (as in the template)")
         return TableData(spec, grid.name, True, (), {})
+    hdr, words = found
     _check_merges(grid, hdr, log)
-    by_words = {header_words(c.title): c for c in spec.columns}
     mark_words = header_words(MARK_HEADER)
     colpos: dict[str, int] = {}
     header_cells: dict[str, str] = {}
     mark_col: int | None = None
-    for c_idx, v in enumerate(grid.rows[hdr - 1], start=1):
-        if not isinstance(v, str):
+    for c_idx, (v, w) in enumerate(zip(grid.rows[hdr - 1], words, strict=True), start=1):
+        if not isinstance(v, str) or w is None:
             continue
-        w = header_words(v)
         if w == mark_words:
             mark_col = c_idx
             continue
@@ -267,7 +293,8 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
     column numbers), ``missing`` the required ones not found."""
     key_cols = [(c, i) for c, i in cols if c.required][:2]
     keys = {c.key for c, _ in key_cols}
-    places = [(c, i - 1, f"{grid.name}!{get_column_letter(i)}") for c, i in cols]
+    places = {c.key: f"{grid.name}!{get_column_letter(i)}" for c, i in cols}
+    columns = [(c, c.key, i - 1, places[c.key]) for c, i in cols]
     names = _context_names(spec.context)
     uncached = grid.uncached_formulas
     memo: dict[tuple[str, type, object], Parsed | Invalid] = {}
@@ -277,8 +304,8 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         mark = line[mark_col - 1] if mark_col is not None else None
         if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
             continue
-        if all(is_blank(line[k]) for _, k, _ in places) and (
-                not uncached or all((r, k + 1) not in uncached for _, k, _ in places)):
+        if all(is_blank(line[k]) for _, _, k, _ in columns) and (
+                not uncached or all((r, k + 1) not in uncached for _, _, k, _ in columns)):
             continue
         if mark_col is not None and not is_blank(mark):
             log.warning(ref(grid.name, r, mark_col),
@@ -292,17 +319,14 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         for c, i in key_cols:
             quiet = ProblemLog()
             v, ok = _parse_raw(line[i - 1], uncached.get((r, i)), c, si, "", quiet,
-                               f"{grid.name}!{get_column_letter(i)}{number}", memo)
+                               places[c.key], number, memo)
             first[c.key] = (v, ok, quiet.problems)
             if ok and v is not None:
                 pre[c.key] = v
         ctx = _context(spec.context, pre, names)
         values: dict[str, object] = {}
-        cells: dict[str, str] = {}
         bad: set[str] = set(missing)
-        for c, k, place in places:
-            key = c.key
-            where = cells[key] = place + number
+        for c, key, k, place in columns:
             raw = line[k]
             if key in keys and (key in pre or not ctx):
                 v, ok, logged = first[key]
@@ -311,12 +335,12 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
                 continue  # blank and optional: nothing to say, nothing to keep
             else:
                 v, ok = _parse_raw(raw, uncached.get((r, k + 1)) if uncached else None, c, si,
-                                   "" if key in pre else ctx, log, where, memo)
+                                   "" if key in pre else ctx, log, place, number, memo)
             if not ok:
                 bad.add(key)
             elif v is not None:
                 values[key] = v
-        rows.append(Row(grid.name, r, values, cells, frozenset(bad)))
+        rows.append(Row(grid.name, r, values, CellRefs(places, number), frozenset(bad)))
     return tuple(rows)
 
 
