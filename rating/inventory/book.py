@@ -114,7 +114,8 @@ class _Extras:
 
 
 _REF = re.compile(r"^([A-Z]{1,3})(\d+)$")
-_NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
+# one way only to match a run of digits (a long unreadable number fails at once)
+_NUMBER = re.compile(r"^\s*[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?\s*$")
 
 
 _MAYBE_FORMULA_OR_MERGE = re.compile(rb"<(?:\w+:)?f[\s>/]|mergeCell")

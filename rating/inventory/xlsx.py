@@ -524,11 +524,13 @@ _VALUE_CELL = re.compile(r'<c r="([A-Z]{1,3})([1-9][0-9]*)"(?: s="([0-9]+)")?'
 # one row or cell at a time. Groups: 1 the cell's attributes, 2 the formula element, 3 its
 # text, 4 the value, 5 the inline string element, 6 its text; 7 a row's attributes, 8 "/" for
 # an empty row; 9 the end of a row.
+# (White space is matched once, after the element it follows, so that no run of it can be
+# split in more than one way: a cell of many spaces and something else fails at once.)
 _TOKEN = re.compile(
     rf"{_S}*(?:<c({_ATTRS}){_S}*(?:/>|>{_S}*"
     rf"(<f{_ATTRS}{_S}*(?:/>|>([^<]*)</f>){_S}*)?"
-    rf"(?:<v{_S}*/>|<v{_S}*>([^<]*)</v>)?{_S}*"
-    rf"(<is{_S}*>{_S}*(?:<t{_ATTRS}{_S}*(?:/>|>([^<]*)</t>){_S}*)?</is>|<is{_S}*/>)?{_S}*"
+    rf"(?:(?:<v{_S}*/>|<v{_S}*>([^<]*)</v>){_S}*)?"
+    rf"(<is{_S}*>{_S}*(?:<t{_ATTRS}{_S}*(?:/>|>([^<]*)</t>){_S}*)?</is>{_S}*|<is{_S}*/>{_S}*)?"
     rf"</c>)|<row({_ATTRS}){_S}*(/?)>|(</row>))")
 _CELL_REF = re.compile(r"([A-Z]{1,3})([1-9][0-9]*)")
 _ATTR_NAMES = re.compile(rf"{_S}+({_NCNAME}(?::{_NCNAME})?){_S}*=")

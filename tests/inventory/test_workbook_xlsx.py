@@ -163,6 +163,9 @@ CELLS = [
     ("value with attribute", '<c r="B2"><v a="1">1</v></c>', False),
     ("cell with extension", '<c r="B2"><v>1</v><extLst/></c>', False),
     ("unknown element", '<c r="B2"><x/><v>1</v></c>', False),
+    # long runs that a pattern able to split them in many ways would take forever over
+    ("white space, then something else", '<c r="B2">' + " " * 20000 + "<x/></c>", False),
+    ("long unreadable number", '<c r="B2"><f>1</f><v>' + "1" * 20000 + "x</v></c>", False),
 ]
 
 
