@@ -61,7 +61,10 @@ def describe(raw: object) -> str:
     if isinstance(raw, dt.datetime | dt.date | dt.time):
         return f"the date/time {raw}"
     if isinstance(raw, int | float):
-        return f"{raw:g}"
+        try:
+            return f"{raw:g}"
+        except OverflowError:  # an integer beyond the range of a float
+            return "a number too large to read"
     return f"a value of type {type(raw).__name__}"
 
 
@@ -146,7 +149,10 @@ def _unusual(v: float, col: Column, si: bool, words: str, limit: float) -> str:
 
 def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
     if isinstance(raw, int | float) and not isinstance(raw, bool):
-        v = float(raw)
+        try:
+            v = float(raw)
+        except OverflowError:  # an integer beyond the range of a float
+            v = math.inf
     elif isinstance(raw, str):
         got = _number_from_text(raw, col.unit_for(si))
         if got is None:
@@ -178,10 +184,12 @@ def _as_text(raw: object) -> str | Invalid:
         return raw
     if isinstance(raw, bool):
         return Invalid(f"must be text; found {describe(raw)}")
-    if isinstance(raw, int | float):
+    if isinstance(raw, int):
+        return str(raw)
+    if isinstance(raw, float):
         if not math.isfinite(raw):
             return Invalid(f"must be text; found {describe(raw)}")
-        return str(int(raw)) if float(raw).is_integer() else f"{raw:g}"
+        return str(int(raw)) if raw.is_integer() else f"{raw:g}"
     return Invalid(f"must be text; found {describe(raw)}")
 
 

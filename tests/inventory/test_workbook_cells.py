@@ -133,3 +133,11 @@ def test_text_and_labels() -> None:
     assert "at most 10 are read" in bad("x" * 11, LABEL)
     assert "must be text" in bad(True, LABEL)
     assert "without commas" in bad("L0L1, L1L2", LABEL)
+
+
+def test_integer_beyond_the_range_of_a_float_is_refused_not_a_crash() -> None:
+    huge = 10**400  # what a number cell of 401 digits reads as
+    assert "must be a finite number in in; found a number too large to read" in bad(huge, DIM)
+    assert "must be a date" in bad(huge, WHEN)
+    assert "at most 10 are read" in bad(huge, LABEL)
+    assert ok(12, LABEL) == "12"

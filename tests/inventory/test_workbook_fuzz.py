@@ -59,7 +59,7 @@ REQUIRED_TARGETS = [t for t in TARGETS if t[2].required]
 safe_text = st.text(alphabet=st.characters(blacklist_categories=("Cs", "Cc")), max_size=40)
 anything = st.one_of(
     st.none(), safe_text, st.booleans(),
-    st.integers(min_value=-(10**18), max_value=10**18),
+    st.integers(min_value=-(10**18), max_value=10**18), st.just(10**400),
     st.floats(allow_nan=True, allow_infinity=True),
     st.dates(min_value=dt.date(1900, 3, 1), max_value=dt.date(2100, 1, 1)),
     st.sampled_from(["=1/0", "=A1+1", "=SUM(B4:B9)", "#N/A", "#DIV/0!", "1-1/4", "3/0", " ",
