@@ -15,7 +15,7 @@ import zipfile
 from pathlib import Path
 from xml.sax.saxutils import escape
 
-from hypothesis import HealthCheck, given, settings
+from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 from inventory_helpers import content_of, fresh
 from openpyxl.utils import get_column_letter
@@ -185,6 +185,7 @@ def test_any_value_written_by_openpyxl_never_a_traceback(target, value) -> None:
     sheet, ref, _col = target
     if isinstance(value, str) and value.startswith("#"):
         value = " " + value  # openpyxl would store it as an error cell; covered above
+    assume(not isinstance(value, int) or abs(value) < 10**300)  # openpyxl cannot write it
     _well_formed(_read(_set(sheet, ref, value)))
 
 
