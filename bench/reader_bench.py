@@ -20,7 +20,7 @@ from __future__ import annotations
 
 import argparse
 import platform
-import time
+import timeit
 import zipfile
 from collections.abc import Callable
 from pathlib import Path
@@ -34,13 +34,9 @@ TARGET_S = 0.1
 
 
 def best(fn: Callable[[], object], runs: int) -> float:
+    """Least wall time of ``runs`` calls after one warm-up call."""
     fn()
-    times = []
-    for _ in range(runs):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return min(times)
+    return min(timeit.repeat(fn, number=1, repeat=runs))
 
 
 def snapshot(b: book.Book) -> object:

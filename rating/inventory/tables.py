@@ -294,7 +294,7 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
     key_cols = [(c, i) for c, i in cols if c.required][:2]
     keys = {c.key for c, _ in key_cols}
     places = {c.key: f"{grid.name}!{get_column_letter(i)}" for c, i in cols}
-    columns = [(c, c.key, i - 1, places[c.key]) for c, i in cols]
+    columns = [(c, c.key, i - 1, places[c.key], c.required, c.key in keys) for c, i in cols]
     names = _context_names(spec.context)
     uncached = grid.uncached_formulas
     memo: dict[tuple[str, type, object], Parsed | Invalid] = {}
@@ -304,8 +304,8 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         mark = line[mark_col - 1] if mark_col is not None else None
         if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
             continue
-        if all(is_blank(line[k]) for _, _, k, _ in columns) and (
-                not uncached or all((r, k + 1) not in uncached for _, _, k, _ in columns)):
+        if all(is_blank(line[k]) for _, _, k, _, _, _ in columns) and (
+                not uncached or all((r, k + 1) not in uncached for _, _, k, _, _, _ in columns)):
             continue
         if mark_col is not None and not is_blank(mark):
             log.warning(ref(grid.name, r, mark_col),
@@ -326,12 +326,12 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         ctx = _context(spec.context, pre, names)
         values: dict[str, object] = {}
         bad: set[str] = set(missing)
-        for c, key, k, place in columns:
+        for c, key, k, place, required, is_key in columns:
             raw = line[k]
-            if key in keys and (key in pre or not ctx):
+            if is_key and (key in pre or not ctx):
                 v, ok, logged = first[key]
                 log.problems.extend(logged)
-            elif raw is None and not c.required and (not uncached or (r, k + 1) not in uncached):
+            elif raw is None and not required and (not uncached or (r, k + 1) not in uncached):
                 continue  # blank and optional: nothing to say, nothing to keep
             else:
                 v, ok = _parse_raw(raw, uncached.get((r, k + 1)) if uncached else None, c, si,

@@ -6,14 +6,15 @@ formulas whose result was never saved) gives, in one pass over each wanted sheet
 (:class:`Unsupported`, or the error of a damaged part) and leaves the workbook to the reference
 reader. What keeps the two equal: whatever this module does not fully understand, it refuses.
 
-- The small package parts are read by openpyxl's own parsers, as the reference reader reads
-  them: the workbook part (sheets, 1900/1904 date system), its relationships, the document
-  properties and the stylesheet (which cell styles hold a date or a duration format).
+- The workbook part (sheets, 1900/1904 date system, names), its relationships and the
+  document properties are read by openpyxl's own parsers, as the reference reader reads them.
 - Every part openpyxl reads when it opens a workbook (content types, shared strings,
   workbook, relationships, properties, theme, styles, every worksheet and its relationships)
   is read and checked here too, so a damaged part (bad zip checksum, XML that is not
   well-formed, a missing part) sends the workbook to the reference reader, which refuses it or
   reports the sheet exactly as before.
+- From the stylesheet, only what decides a cell's value is read: which cell styles show a
+  date, a time or a duration, derived as openpyxl derives them.
 - Worksheets and the shared strings are read only in the plain form spreadsheet programs
   write: UTF-8; SpreadsheetML main as the one default namespace; no comments, CDATA sections,
   processing instructions or document type declaration; rows and cells with their ``r``
@@ -29,10 +30,11 @@ reader. What keeps the two equal: whatever this module does not fully understand
   duration format converted by openpyxl's own :func:`~openpyxl.utils.datetime.from_excel` in
   the workbook's date system.
 
-Not repeated here: openpyxl's object-model checks of sheet elements the reader never uses
-(view, column widths, print settings, data validations, conditional formats). A sheet whose
-only defect is an invalid value there (which spreadsheet programs do not write) is read here,
-where the reference reader reported it unreadable.
+Not repeated here: openpyxl's object-model checks of content the reader never uses (fonts,
+fills and borders of the stylesheet; the view, column widths, print settings, data
+validations and conditional formats of a sheet). A workbook whose only defect is an invalid
+value there (spreadsheet programs do not write one; some generators do, e.g. a font family
+above 14) is read here, where the reference reader refused the workbook or the sheet.
 """
 
 from __future__ import annotations
@@ -460,9 +462,7 @@ def _plain_strings(data: bytes) -> tuple[str, ...]:
     text = part.text
     out: list[str] = []
     pos = part.start
-    for m in _SI.finditer(text, part.start, part.end):
-        if m.start() != pos:
-            raise Unsupported("something other than plain strings")
+    while (m := _SI.match(text, pos, part.end)) is not None:  # one string after the other
         pos = m.end()
         if m.group(2) is not None:
             s = "".join(_content(t) for t in _RUN_TEXT.findall(m.group(2)) if t)
