@@ -33,6 +33,12 @@ from rating.inventory import xlsx
 from rating.inventory.reader import rows_read, sheets_read
 from rating.inventory.template import write_template
 
+# what openpyxl (the reference reader) says about the odd workbooks written here
+pytestmark = [
+    pytest.mark.filterwarnings("ignore:Cell .* is marked as a date:UserWarning"),
+    pytest.mark.filterwarnings("ignore:Unknown extension is not supported:UserWarning"),
+    pytest.mark.filterwarnings("ignore:.* contains invalid dependency definitions:UserWarning"),
+]
 SAMPLES = sorted(SAMPLES_DIR.glob("*.xlsx"))
 WANTED = {"Data": 6}
 ROWS = 20
