@@ -63,9 +63,6 @@ class Pieces:
     def n_loadings(self) -> int:
         return self.k.shape[0]
 
-    def sets_at(self, x: int) -> list[int]:
-        return [int(k) for k in self.k[x] if k >= 0]
-
 
 class RegionTable:
     """The active sets of one truss family with their unit-load lines and their conditions.
@@ -77,7 +74,6 @@ class RegionTable:
     def __init__(self, family: TrussFamily, sets: Sequence[frozenset[str]] = ()) -> None:
         self.family = family
         g = family.geometry
-        self.n_members = len(g.members)
         self.deck_joint_index = np.array([g.joint_index[j] for j in g.deck_joints], dtype=int)
         self.slack: list[frozenset[str]] = []
         self._index: dict[frozenset[str], int] = {}
@@ -87,7 +83,7 @@ class RegionTable:
         self._slack: list[np.ndarray] = []  # per set (m,) bool: must not be stretched
         self._dead: dict[Hashable, tuple[np.ndarray, list[np.ndarray], list[np.ndarray]]] = {}
         self._dead_stacked: dict[Hashable, tuple[np.ndarray, np.ndarray]] = {}
-        self._arrays: tuple[int, np.ndarray, np.ndarray, np.ndarray, np.ndarray] | None = None
+        self._arrays: tuple | None = None  # (K, and the arrays of _stacked) once stacked
         for S in sets:
             self.index(S)
 
@@ -288,23 +284,8 @@ class RegionTable:
         rows = np.flatnonzero(old.walked & (old.cover > fresh.cover))
         if not rows.size:
             return fresh
-        J = max(fresh.k.shape[1], old.k.shape[1])
-        pad = ((0, 0), (0, J - fresh.k.shape[1]))
-        k, lo, hi = (np.pad(fresh.k, pad, constant_values=-1),
-                     np.pad(fresh.lo, pad, constant_values=np.inf),
-                     np.pad(fresh.hi, pad, constant_values=np.inf))
-        N_dead = np.pad(fresh.N_dead, pad + ((0, 0),))
-        N_live = np.pad(fresh.N_live, pad + ((0, 0),))
-        w = old.k.shape[1]
-        k[rows] = -1
-        lo[rows] = hi[rows] = np.inf
-        N_dead[rows] = N_live[rows] = 0.0
-        k[rows, :w], lo[rows, :w], hi[rows, :w] = old.k[rows], old.lo[rows], old.hi[rows]
-        N_dead[rows, :w], N_live[rows, :w] = old.N_dead[rows], old.N_live[rows]
-        walked, cover = fresh.walked.copy(), fresh.cover.copy()
-        walked[rows], cover[rows] = True, old.cover[rows]
-        return Pieces(k, lo, hi, N_dead, N_live, fresh.L, fresh.F_dead, fresh.A, fresh.B,
-                      fresh.conditioned, walked, cover)
+        return _replaced(fresh, {int(x): (old.k[x], old.lo[x], old.hi[x], old.N_dead[x],
+                                          old.N_live[x], float(old.cover[x])) for x in rows})
 
     def _walk(self, P_dead: np.ndarray, dead_state: ActiveSetSolution, p: np.ndarray,
               lam_max: float) -> list:
@@ -320,25 +301,13 @@ class RegionTable:
         return segs
 
     def _with_walks(self, pc: Pieces, walks: dict[int, list]) -> Pieces:
-        J = max(pc.k.shape[1], max(len(s) for s in walks.values()))
-        pad = J - pc.k.shape[1]
-        kk = np.pad(pc.k, ((0, 0), (0, pad)), constant_values=-1)
-        lo = np.pad(pc.lo, ((0, 0), (0, pad)), constant_values=np.inf)
-        hi = np.pad(pc.hi, ((0, 0), (0, pad)), constant_values=np.inf)
-        N_dead = np.pad(pc.N_dead, ((0, 0), (0, pad), (0, 0)))
-        N_live = np.pad(pc.N_live, ((0, 0), (0, pad), (0, 0)))
-        walked, cover = pc.walked.copy(), pc.cover.copy()
-        for x, segs in walks.items():
-            kk[x], lo[x], hi[x] = -1, np.inf, np.inf
-            N_dead[x] = N_live[x] = 0.0
-            for j, sg in enumerate(segs):
-                kk[x, j] = self._index[sg.slack]
-                lo[x, j], hi[x, j] = sg.lam_start, sg.lam_end
-                N_dead[x, j], N_live[x, j] = sg.N_dead, sg.N_live
-            walked[x] = True
-            cover[x] = segs[-1].lam_end
-        return Pieces(kk, lo, hi, N_dead, N_live, pc.L, pc.F_dead, pc.A, pc.B,
-                      pc.conditioned, walked, cover)
+        """``pc`` with the paths of the loadings ``walks`` (index: its pieces) as walked."""
+        return _replaced(pc, {
+            x: (np.array([self._index[sg.slack] for sg in segs]),
+                np.array([sg.lam_start for sg in segs]), np.array([sg.lam_end for sg in segs]),
+                np.stack([sg.N_dead for sg in segs]), np.stack([sg.N_live for sg in segs]),
+                segs[-1].lam_end)
+            for x, segs in walks.items()})
 
     def _paths(self, key: Hashable, P_dead: np.ndarray, p: np.ndarray, lam_max: float
                ) -> tuple[np.ndarray, ...]:
@@ -352,6 +321,28 @@ class RegionTable:
         kk = order[:, :J].copy()
         kk[np.arange(J)[None, :] >= n_chain[:, None]] = -1
         return A, B, cons, lo, hi, kk, cover
+
+
+def _replaced(pc: Pieces, paths: dict[int, tuple]) -> Pieces:
+    """``pc`` with the paths of some loadings replaced by walked ones: index -> (sets, lo, hi,
+    N_dead, N_live of its pieces, how far it is known); padded to the longest path."""
+    J = max([pc.k.shape[1]] + [len(v[0]) for v in paths.values()])
+    pad = ((0, 0), (0, J - pc.k.shape[1]))
+    k = np.pad(pc.k, pad, constant_values=-1)
+    lo = np.pad(pc.lo, pad, constant_values=np.inf)
+    hi = np.pad(pc.hi, pad, constant_values=np.inf)
+    N_dead = np.pad(pc.N_dead, pad + ((0, 0),))
+    N_live = np.pad(pc.N_live, pad + ((0, 0),))
+    walked, cover = pc.walked.copy(), pc.cover.copy()
+    for x, (ks, los, his, nds, nls, known) in paths.items():
+        n = len(ks)
+        k[x], lo[x], hi[x] = -1, np.inf, np.inf
+        N_dead[x] = N_live[x] = 0.0
+        k[x, :n], lo[x, :n], hi[x, :n] = ks, los, his
+        N_dead[x, :n], N_live[x, :n] = nds, nls
+        walked[x], cover[x] = True, known
+    return Pieces(k, lo, hi, N_dead, N_live, pc.L, pc.F_dead, pc.A, pc.B, pc.conditioned,
+                  walked, cover)
 
 
 def _gather(a: np.ndarray, k: np.ndarray) -> np.ndarray:
