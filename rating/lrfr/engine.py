@@ -6,8 +6,9 @@ p. 187, read]. Members whose force does not depend on which diagonal of a counte
 active are rated with the linear equation on their influence line. Members whose force does
 (tension-only mains and counters, and the chords and verticals of those panels) are rated by
 the live-load multiplier that brings them to their resistance with the active set consistent
-at that load level (docs/tension-only.md), at every vehicle position that is critical for them
-in any active set.
+at that load level (docs/tension-only.md), the least over every position of the vehicle
+driven across both ways (rating.lrfr.positions) and the points between them where the set at
+the rating level changes (rating.lrfr.multiplier); the pins likewise (rating.lrfr.pins).
 """
 
 from __future__ import annotations
