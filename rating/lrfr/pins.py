@@ -132,7 +132,7 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     side = np.zeros(r.size, dtype=int)
     out = 0.5 * (lo + hi)
     live = np.arange(r.size)
-    for _ in range(60):  # each bracket to 1e-9 of the interval
+    for _ in range(60):  # each bracket to 1e-8 of the interval (1e-7 ft on a 10 ft one)
         d = shi - slo
         with np.errstate(divide="ignore", invalid="ignore"):
             x = np.where(d != 0, hi - shi * (hi - lo) / np.where(d != 0, d, 1.0),
@@ -145,7 +145,7 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
         lo, flo = np.where(same, x, lo), np.where(same, fx, flo)
         hi = np.where(same, hi, x)
         side = np.where(same, 1, -1)
-        done = (hi - lo <= 1e-9) | (fx == 0.0)
+        done = (hi - lo <= 1e-8) | (fx == 0.0)
         out[live[done]] = np.where(fx[done] == 0.0, x[done], 0.5 * (lo[done] + hi[done]))
         if done.all():
             break
@@ -512,6 +512,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
                 floor=_gauge_floor(model, T, idx, store, pc_new, p_new, linear))
             lam = np.concatenate([lam, lam_new])
             N_at = np.concatenate([N_at, N_new])
+    governs: dict[int, str] = {}
     for gi, group in enumerate(loads.cases):
         rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
                                batch.size + np.flatnonzero(extra_group == gi)])
@@ -524,9 +525,12 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
                 continue
             j = int(rows[k])
             ext = batch.extreme(j) if j < batch.size else extra[j - batch.size]
-            u_fs, u_b = model.utilization_parts(
-                model.point_forces(N_at[j], _balancing(unit, N_at[j])))
-            what = "pin bearing" if float(u_b) >= float(u_fs) else "pin flexure and shear"
+            what = governs.get(j)
+            if what is None:  # (the cases of a load mostly share their position)
+                u_fs, u_b = model.utilization_parts(
+                    model.point_forces(N_at[j], _balancing(unit, N_at[j])))
+                what = governs[j] = ("pin bearing" if float(u_b) >= float(u_fs)
+                                     else "pin flexure and shear")
             ratings[case.id] = PinCaseRating(case.id, float(lam_c[k]), what, ext, None)
             if worst is None or lower_beyond_round_off(float(lam_c[k]), worst[0]):
                 worst = (float(lam_c[k]), case.id, N_at[j])
