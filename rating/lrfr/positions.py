@@ -175,23 +175,25 @@ class PositionSet:
             if e.lane_klf and e.lane_segments_ft:
                 lanes.setdefault((tuple(e.lane_segments_ft), e.lane_klf), []).append(k)
         for (model, _), ks in by_vehicle.items():
-            v = self._models[model].axles
-            xs = np.array([axle_stations(extremes[k].position) for k in ks])
-            out[:, ks] += (1.0 + self.im) * axle_panel_loads(
-                self.stations, xs, np.asarray(v.axle_loads_kip) * v.axle_scale)
+            out[:, ks] += self._axle_loads(
+                model, np.array([axle_stations(extremes[k].position) for k in ks]))
         for (segs, klf), ks in lanes.items():
             out[:, ks] += lane_panel_loads(self.stations, segs, klf)[:, None]
         return self.df * out
 
+    def _axle_loads(self, model: str, axle_stations_ft: np.ndarray) -> np.ndarray:
+        """Panel-point loads (n_stations, n) of the model's axles standing at the stations
+        (n, n_axles), IM on them (no lateral distribution yet)."""
+        v = self._models[model].axles
+        return (1.0 + self.im) * axle_panel_loads(
+            self.stations, axle_stations_ft, np.asarray(v.axle_loads_kip) * v.axle_scale)
+
     def run_loads(self, run: Run, fronts_ft: np.ndarray) -> np.ndarray:
         """Panel-point loads (n_stations, n) of ``run`` with its front axle at each station."""
-        mo = self._models[run.model]
-        v = mo.axles
         d = axle_offsets_ft(run.spacings_ft)
         sign = 1.0 if run.direction is Direction.FORWARD else -1.0
-        xs = np.asarray(fronts_ft, dtype=float)[:, None] - sign * d[None, :]
-        p = (1.0 + self.im) * axle_panel_loads(self.stations, xs,
-                                               np.asarray(v.axle_loads_kip) * v.axle_scale)
+        p = self._axle_loads(run.model,
+                             np.asarray(fronts_ft, dtype=float)[:, None] - sign * d[None, :])
         if run.lane_klf and run.lane_segments_ft:
             p += lane_panel_loads(self.stations, run.lane_segments_ft, run.lane_klf)[:, None]
         return self.df * p
