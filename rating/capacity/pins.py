@@ -597,6 +597,90 @@ def _length(G: np.ndarray) -> np.ndarray:
     return np.sqrt(x * x + y * y)
 
 
+def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
+                     bearing_cap: np.ndarray | None
+                     ) -> tuple[np.ndarray, np.ndarray | None]:
+    """(flexure and shear, bearing) utilizations, 1.0 at each limit, of the projected vectors
+    G (..., K, 2) of a pin with ``n`` sections (:class:`PinModel`: moments from the left and
+    the right at each section, the four shears about it, then each plate's force): AASHTO
+    LRFD Eq. 6.7.6.2.1-1 with the larger moment and shear at each section, and each plate's
+    bearing against ``bearing_cap`` (6.7.6.2.2) [value from memory]. The pin's data (D,
+    F_y, phi_f, phi_v, limit) are numbers or arrays of G's leading shape (one pin per
+    state); ``bearing_cap`` (..., n_plates) or None where no plate bears (then bearing
+    None)."""
+    g = _length(G)
+    M = np.maximum(g[..., :n], g[..., n:2 * n])
+    V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
+                   np.maximum(g[..., 4 * n:5 * n], g[..., 5 * n:6 * n]))
+    D_, Fy_ = np.asarray(D)[..., None], np.asarray(F_y)[..., None]
+    fs = lrfd_flexure_shear(M, V, D_, Fy_, np.asarray(phi_f)[..., None],
+                            np.asarray(phi_v)[..., None])
+    u_fs = fs.max(axis=-1) / limit
+    if bearing_cap is None:
+        return u_fs, None
+    return u_fs, (g[..., 6 * n:] / bearing_cap).max(axis=-1)
+
+
+def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
+                      bearing_cap: np.ndarray | None) -> tuple[np.ndarray, np.ndarray]:
+    """Bounds on the least lam >= 0 at which the utilization (:func:`_projected_parts`) of
+    the projected vectors G0 + lam G1 (P, K, 2) reaches 1.0, without solving for it:
+    (lower, upper), (P,). The pin's data as in :func:`_projected_parts`, numbers or (P,).
+
+    Lower: every checked vector is no longer than |G0| + lam |G1| (triangle inequality),
+    so the checks of those lengths (flexure and shear with the larger moment and shear
+    at each section, AASHTO LRFD 6.7.6.2.1 [value from memory]; bearing, 6.7.6.2.2)
+    reach their limits no later; for flexure and shear, convex in lam, the chord of that
+    bound below its root. Upper: each vector is at least lam |G1| - |G0| long, so one
+    moment, one shear or one plate's bearing alone reaches its limit there.
+    """
+    a, b = _length(G0), _length(G1)
+    D_, Fy_ = np.asarray(D)[..., None], np.asarray(F_y)[..., None]
+    c1 = np.asarray(phi_f)[..., None] * D_**3 * Fy_
+    c2 = np.asarray(phi_v)[..., None] * D_**2 * Fy_
+    lim = np.asarray(limit)[..., None]
+    m_lim, v_lim = lim * c1 / 6.0, lim ** (1.0 / 3.0) * c2 / 2.2
+    mA, mB = np.maximum(a[:, :n], a[:, n:2 * n]), np.maximum(b[:, :n], b[:, n:2 * n])
+    vA = a[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
+    vB = b[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
+
+    # 6 M / c1 + (2.2 V / c2)^3 - limit with M = mA + lam mB, V = vA + lam vB
+    m0, m1 = mA * (6.0 / c1), mB * (6.0 / c1)
+    v0, v1 = vA * (2.2 / c2), vB * (2.2 / c2)
+
+    def f(lam: np.ndarray | float) -> np.ndarray:
+        v = v0 + lam * v1
+        return m0 + lam * m1 + v * v * v - lim
+
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        f0 = f(0.0)
+        hi = np.maximum(np.minimum(np.where(mB > 0, (m_lim - mA) / mB, np.inf),
+                                   np.where(vB > 0, (v_lim - vA) / vB, np.inf)), 0.0)
+        fin = np.isfinite(hi)
+        h = np.where(fin, hi, 0.0)
+        for _ in range(2):  # Newton from above: stays above the root of a convex f
+            v = v0 + h * v1
+            slope = m1 + 3.0 * v * v * v1
+            h = np.where(slope > 0, np.maximum(h - f(h) / np.where(slope > 0, slope, 1.0),
+                                               0.0), h)
+        fh = f(h)
+        chord = np.where(fh > f0, h * (-f0) / (fh - f0), h)
+        low_fs = np.where(f0 >= 0, 0.0, np.where(fin, np.where(fh >= 0, chord, h),
+                                                 np.inf)).min(axis=1)
+        ub_m = np.where(b[:, :2 * n] > 0, (m_lim + a[:, :2 * n]) / b[:, :2 * n],
+                        np.inf).min(axis=1)
+        ub_v = np.where(b[:, 2 * n:6 * n] > 0, (v_lim + a[:, 2 * n:6 * n])
+                        / b[:, 2 * n:6 * n], np.inf).min(axis=1)
+        low, up = low_fs, np.minimum(ub_m, ub_v)
+        if bearing_cap is not None:
+            cap = bearing_cap
+            ap, bp = a[:, 6 * n:], b[:, 6 * n:]
+            low = np.minimum(low, np.where(ap >= cap, 0.0, np.where(
+                bp > 0, (cap - ap) / bp, np.inf)).min(axis=1))
+            up = np.minimum(up, np.where(bp > 0, (cap + ap) / bp, np.inf).min(axis=1))
+    return np.maximum(low * (1.0 - 1e-12), 0.0), up
+
+
 class PinModel:
     """One pin with its layout fixed, evaluated for whole batches of load states.
 
@@ -655,74 +739,19 @@ class PinModel:
 
     def _parts(self, G: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Utilizations from the projected vectors G = W @ F (..., K, 2)."""
-        g = _length(G)
-        n = self._n_sections
-        M = np.maximum(g[..., :n], g[..., n:2 * n])
-        V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
-                       np.maximum(g[..., 4 * n:5 * n], g[..., 5 * n:6 * n]))
-        fs = lrfd_flexure_shear(M, V, self.D, self.material.F_y, self.phi_f, self.phi_v)
-        u_fs = fs.max(axis=-1) / self.limit
-        if self.layout.n_plates:
-            return u_fs, (g[..., 6 * n:] / self._bearing_cap).max(axis=-1)
-        return u_fs, np.zeros_like(u_fs)
+        u_fs, u_b = _projected_parts(G, self._n_sections, self.D, self.material.F_y,
+                                     self.phi_f, self.phi_v, self.limit,
+                                     self._bearing_cap if self.layout.n_plates else None)
+        return u_fs, (np.zeros_like(u_fs) if u_b is None else u_b)
 
     def multiplier_bounds(self, G0: np.ndarray, G1: np.ndarray
                           ) -> tuple[np.ndarray, np.ndarray]:
         """Bounds on the least lam >= 0 at which the utilization of the projected vectors
-        G0 + lam G1 (P, K, 2) reaches 1.0, without solving for it: (lower, upper), (P,).
-
-        Lower: every checked vector is no longer than |G0| + lam |G1| (triangle inequality),
-        so the checks of those lengths (flexure and shear with the larger moment and shear
-        at each section, AASHTO LRFD 6.7.6.2.1 [value from memory]; bearing, 6.7.6.2.2)
-        reach their limits no later; for flexure and shear, convex in lam, the chord of that
-        bound below its root. Upper: each vector is at least lam |G1| - |G0| long, so one
-        moment, one shear or one plate's bearing alone reaches its limit there.
-        """
-        a, b = _length(G0), _length(G1)
-        n = self._n_sections
-        c1 = self.phi_f * self.D**3 * self.material.F_y
-        c2 = self.phi_v * self.D**2 * self.material.F_y
-        lim = self.limit
-        m_lim, v_lim = lim * c1 / 6.0, lim ** (1.0 / 3.0) * c2 / 2.2
-        mA, mB = np.maximum(a[:, :n], a[:, n:2 * n]), np.maximum(b[:, :n], b[:, n:2 * n])
-        vA = a[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
-        vB = b[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
-
-        # 6 M / c1 + (2.2 V / c2)^3 - limit with M = mA + lam mB, V = vA + lam vB
-        m0, m1 = mA * (6.0 / c1), mB * (6.0 / c1)
-        v0, v1 = vA * (2.2 / c2), vB * (2.2 / c2)
-
-        def f(lam: np.ndarray | float) -> np.ndarray:
-            v = v0 + lam * v1
-            return m0 + lam * m1 + v * v * v - lim
-
-        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-            f0 = f(0.0)
-            hi = np.maximum(np.minimum(np.where(mB > 0, (m_lim - mA) / mB, np.inf),
-                                       np.where(vB > 0, (v_lim - vA) / vB, np.inf)), 0.0)
-            fin = np.isfinite(hi)
-            h = np.where(fin, hi, 0.0)
-            for _ in range(2):  # Newton from above: stays above the root of a convex f
-                v = v0 + h * v1
-                slope = m1 + 3.0 * v * v * v1
-                h = np.where(slope > 0, np.maximum(h - f(h) / np.where(slope > 0, slope, 1.0),
-                                                   0.0), h)
-            fh = f(h)
-            chord = np.where(fh > f0, h * (-f0) / (fh - f0), h)
-            low_fs = np.where(f0 >= 0, 0.0, np.where(fin, np.where(fh >= 0, chord, h),
-                                                     np.inf)).min(axis=1)
-            ub_m = np.where(b[:, :2 * n] > 0, (m_lim + a[:, :2 * n]) / b[:, :2 * n],
-                            np.inf).min(axis=1)
-            ub_v = np.where(b[:, 2 * n:6 * n] > 0, (v_lim + a[:, 2 * n:6 * n])
-                            / b[:, 2 * n:6 * n], np.inf).min(axis=1)
-            low, up = low_fs, np.minimum(ub_m, ub_v)
-            if self.layout.n_plates:
-                cap = self._bearing_cap
-                ap, bp = a[:, 6 * n:], b[:, 6 * n:]
-                low = np.minimum(low, np.where(ap >= cap, 0.0, np.where(
-                    bp > 0, (cap - ap) / bp, np.inf)).min(axis=1))
-                up = np.minimum(up, np.where(bp > 0, (cap + ap) / bp, np.inf).min(axis=1))
-        return np.maximum(low * (1.0 - 1e-12), 0.0), up
+        G0 + lam G1 (P, K, 2) reaches 1.0, without solving for it: (lower, upper), (P,)
+        (:func:`_projected_bounds`)."""
+        return _projected_bounds(G0, G1, self._n_sections, self.D, self.material.F_y,
+                                 self.phi_f, self.phi_v, self.limit,
+                                 self._bearing_cap if self.layout.n_plates else None)
 
     def _utilization_projected(self, G: np.ndarray) -> np.ndarray:
         u_fs, u_b = self._parts(G)
@@ -799,3 +828,55 @@ class PinModel:
             live, lo, hi, f_lo, f_hi, side = (live[keep], lo[keep], hi[keep], f_lo[keep],
                                               f_hi[keep], side[keep])
         return out
+
+
+class PinStack:
+    """Several :class:`PinModel` evaluated together: each pin's projected vectors padded to
+    one layout (``n`` sections, ``n_plates`` plates), so that states of different pins go
+    through the checks in one array computation (``which``: the pin of each state).
+
+    A padded section carries no moment or shear and a padded plate has an infinite bearing
+    capacity, so padding changes no utilization and no bound (they are maxima and minima
+    over the checked vectors)."""
+
+    def __init__(self, models: Sequence[PinModel]) -> None:
+        self.models = tuple(models)
+        self.n = max((m._n_sections for m in self.models), default=0)
+        self.n_plates = max((m.layout.n_plates for m in self.models), default=0)
+        n = self.n
+        self.K = 6 * n + self.n_plates
+        self.rows = []  # where each pin's K_i checked vectors go in the padded K
+        for m in self.models:
+            ni, npl = m._n_sections, m.layout.n_plates
+            self.rows.append(np.concatenate([b * n + np.arange(ni) for b in range(6)]
+                                            + [6 * n + np.arange(npl)]).astype(int))
+        self.D = np.array([m.D for m in self.models])
+        self.F_y = np.array([m.material.F_y for m in self.models])
+        self.phi_f = np.array([m.phi_f for m in self.models])
+        self.phi_v = np.array([m.phi_v for m in self.models])
+        self.limit = np.array([m.limit for m in self.models])
+        self.bearing_cap = np.full((len(self.models), self.n_plates), np.inf)
+        for i, m in enumerate(self.models):
+            self.bearing_cap[i, :m.layout.n_plates] = m._bearing_cap
+
+    def pad(self, i: int, G: np.ndarray) -> np.ndarray:
+        """Pin ``i``'s projected vectors (..., K_i, 2) in the padded layout (..., K, 2)."""
+        out = np.zeros(G.shape[:-2] + (self.K, 2))
+        out[..., self.rows[i], :] = G
+        return out
+
+    def _params(self, which: np.ndarray) -> tuple:
+        return (self.D[which], self.F_y[which], self.phi_f[which], self.phi_v[which],
+                self.limit[which], self.bearing_cap[which] if self.n_plates else None)
+
+    def utilization(self, G: np.ndarray, which: np.ndarray) -> np.ndarray:
+        """Governing utilization (1.0 at the limit) of padded projected vectors G (P, K, 2),
+        state p on pin ``which[p]`` (:func:`_projected_parts`)."""
+        u_fs, u_b = _projected_parts(G, self.n, *self._params(which))
+        return u_fs if u_b is None else np.maximum(u_fs, u_b)
+
+    def multiplier_bounds(self, G0: np.ndarray, G1: np.ndarray, which: np.ndarray
+                          ) -> tuple[np.ndarray, np.ndarray]:
+        """:meth:`PinModel.multiplier_bounds` of padded states, state p on pin
+        ``which[p]`` (:func:`_projected_bounds`)."""
+        return _projected_bounds(G0, G1, self.n, *self._params(which))

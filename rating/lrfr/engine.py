@@ -44,7 +44,7 @@ from rating.lrfr.factors import (
 )
 from rating.lrfr.liveload import position_key
 from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points
-from rating.lrfr.pins import PinRating, rate_pin
+from rating.lrfr.pins import PinRating, rate_pins
 from rating.lrfr.positions import (
     LoadPaths,
     PositionBatch,
@@ -455,8 +455,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                         [on_path[(gi, lab, pl.sense)] for pl in pls])
     fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
     load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
-    pins = tuple(rate_pin(pin, g, bridge, dead, dead_f, load_paths, dependent)
-                 for pin in bridge.pins)
+    pins = rate_pins(bridge.pins, g, bridge, dead, dead_f, load_paths, dependent)
     postings = _postings(cases, ratings, pins, g)
     for p in pins:
         warnings.extend(p.warnings)

@@ -14,7 +14,7 @@ takes the maximum load factors (it adds to the pin forces; common practice).
 from __future__ import annotations
 
 import math
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
@@ -24,6 +24,8 @@ from rating.analysis.regions import LAM_MAX, PathStore, Pieces
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
+    PinStack,
+    _length,
     pin_actions,
     pin_check,
 )
@@ -60,19 +62,21 @@ def _balancing(unit: np.ndarray, N: np.ndarray) -> np.ndarray:
     return -(np.asarray(N)[..., :, None] * unit).sum(axis=-2)
 
 
-def _bar_zero_lines(store: PathStore, idx: list[int], ia: np.ndarray, ib: np.ndarray,
+def _bar_zero_lines(store: PathStore, cols: np.ndarray, ia: np.ndarray, ib: np.ndarray,
                     ka: np.ndarray, kb: np.ndarray) -> tuple[np.ndarray, ...]:
     """For pairs of neighbouring positions ``ia``, ``ib`` of a run whose active sets at the
     pin's limit (``ka``, ``kb``) differ: in the set at either end, each bar whose state
     differs between the ends passes zero where (a + b t) lam + c = 0 (its force, or its
-    stretch when slack); the forces at the joint are N_dead + lam (N_a + t dN), t the station
-    between the ends (0..1). Returns N_dead, N_a, dN (n, len(idx)), a, b, c (n,) of every
-    such line and the pair it belongs to (n,)."""
+    stretch when slack); the forces at the joint (members ``cols`` (pairs, n) of each pair's
+    pin) are N_dead + lam (N_a + t dN), t the station between the ends (0..1). Returns
+    N_dead, N_a, dN (n, n_members), a, b, c (n,) of every such line and the pair it belongs
+    to (n,)."""
     table, pc = store.table, store.pieces
     slack = table.slack_masks()
     lines = table.elongation_lines()
     Fd, Ed = table.dead(store.key, store.P_dead)
     q, j = np.nonzero(slack[ka] ^ slack[kb])
+    cq = cols[q]
     out = []
     for k in (ka, kb):
         kq = k[q]
@@ -84,30 +88,67 @@ def _bar_zero_lines(store: PathStore, idx: list[int], ia: np.ndarray, ib: np.nda
         a = np.where(s_, e_a[rows, j], n_a[rows, j])
         b = np.where(s_, e_b[rows, j], n_b[rows, j]) - a
         c = np.where(s_, Ed[kq, j], n_d[rows, j])
-        out.append((n_d[:, idx], n_a[:, idx], (n_b - n_a)[:, idx], a, b, c, q))
+        r_ = rows[:, None]
+        out.append((n_d[r_, cq], n_a[r_, cq], (n_b - n_a)[r_, cq], a, b, c, q))
     return tuple(np.concatenate(parts) for parts in zip(*out, strict=True))
 
 
-def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
+@dataclass(frozen=True, eq=False)
+class _Joints:
+    """Pins searched together: their checks (rating.capacity.pins.PinStack), the columns of
+    the members at each joint (``cols`` (n_pins, n), padded with member 0) and each pin's
+    projector padded to the stack's layout (``T`` (n_pins, n, K * 2): zero rows for the
+    padded members, see :func:`_projector`)."""
+
+    stack: PinStack
+    cols: np.ndarray
+    T: np.ndarray
+
+    @classmethod
+    def of(cls, models: list[PinModel], idx: list[list[int]], T: list[np.ndarray]
+           ) -> _Joints:
+        stack = PinStack(models)
+        n = max(len(i) for i in idx)
+        cols = np.zeros((len(idx), n), dtype=int)
+        TT = np.zeros((len(idx), n, stack.K, 2))
+        for i, (ii, Ti) in enumerate(zip(idx, T, strict=True)):
+            cols[i, :len(ii)] = ii
+            TT[i, :len(ii)] = stack.pad(i, Ti.reshape(len(ii), -1, 2))
+        return cls(stack, cols, TT.reshape(len(idx), n, -1))
+
+    def project(self, N: np.ndarray, which: np.ndarray) -> np.ndarray:
+        """The pins' checked vectors (P, K, 2) of forces N (P, n) at the joints (state p at
+        the joint of pin ``which[p]``): linear in the forces, one projection per pin."""
+        out = np.empty((N.shape[0], self.T.shape[2]))
+        if self.T.shape[0] == 1:
+            out[:] = N @ self.T[0]
+        else:
+            for i in np.unique(which).tolist():
+                m = which == i
+                out[m] = N[m] @ self.T[i]
+        return out.reshape(N.shape[0], -1, 2)
+
+
+def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
                dN: np.ndarray, A: np.ndarray, B: np.ndarray, Cc: np.ndarray,
                below: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """For each line of :func:`_bar_zero_lines`, the stations t in (0, 1) where the pin
-    reaches its limit just as the bar passes zero: the pin check minus one along the bar's
-    zero is searched for sign changes on a grid of 16, all lines at once, and each bracket is
-    closed by the Illinois regula falsi (all at once). ``T``: :func:`_projector` of the pin.
-    Only points with lam below ``below`` (per line) are wanted. Returns (line, t) of each
-    point found."""
+    """For each line of :func:`_bar_zero_lines` (on the pin ``which`` (n,)), the stations t
+    in (0, 1) where the pin reaches its limit just as the bar passes zero: the pin check
+    minus one along the bar's zero is searched for sign changes on a grid of 16, all lines
+    at once, and each bracket is closed by the Illinois regula falsi (all at once). Only
+    points with lam below ``below`` (per line) are wanted. Returns (line, t) of each point
+    found."""
     if not A.size:
         return np.zeros(0, dtype=int), np.zeros(0)
-    GD, GA, GdN = Nd @ T, Na @ T, dN @ T
-    shape = (-1, T.shape[1] // 2, 2)
+    GD, GA, GdN = jn.project(Nd, which), jn.project(Na, which), jn.project(dN, which)
+    util = jn.stack.utilization
 
     def f(rows: np.ndarray, t: np.ndarray) -> np.ndarray:
         den = A[rows] + B[rows] * t
         with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
             lam = np.where(den != 0, -Cc[rows] / np.where(den != 0, den, 1.0), -1.0)
-        G = GD[rows] + lam[:, None] * (GA[rows] + t[:, None] * GdN[rows])
-        u = model._utilization_projected(G.reshape(shape))
+        G = GD[rows] + lam[:, None, None] * (GA[rows] + t[:, None, None] * GdN[rows])
+        u = util(G, which[rows])
         return np.where(lam > 0, u - 1.0, np.nan)
 
     grid = np.linspace(0.0, 1.0, 17)[1:-1]
@@ -117,6 +158,15 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         lam_g = -Cc[:, None] / (A[:, None] + B[:, None] * grid[None, :])
     want = (lam_g > 0) & (lam_g < below[:, None])
+    # where 0 < lam < below every checked vector is shorter than |GD| + below (|GA| + |GdN|)
+    # (triangle inequality) and the checks grow with the lengths: a line on which those
+    # lengths stay within the limit cannot hold a wanted point
+    reach = np.isfinite(below)
+    lens = _length(GD[reach]) + below[reach, None] * (_length(GA[reach])
+                                                       + _length(GdN[reach]))
+    reach[reach] = util(np.stack([lens, np.zeros_like(lens)], axis=-1),
+                        which[reach]) >= 1.0 - 1e-9
+    want &= reach[:, None]
     want[:, 1:] |= want[:, :-1]
     want[:, :-1] |= want[:, 1:]
     v = np.full((n, m), np.nan)
@@ -160,52 +210,56 @@ def _pin_kinks(model: PinModel, T: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     return r[keep], out[keep]
 
 
-def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
+def _pin_crossings(jn: _Joints, pc: Pieces, src: np.ndarray, which: np.ndarray,
                    group: np.ndarray, linear: bool = False, near: float = 1.0,
                    intervals: np.ndarray | None = None, floor: np.ndarray | None = None
                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """On each position's path, the least lam at which the pin reaches its limit: lam (X,)
-    (inf where it does not up to the path's end), the forces of the members at the joint
-    there (X, n), the piece it lies in (X,), -1 for none, and how far (lam) each position's
-    path must be known to tell (X,), 0 where it is (rating.analysis.regions.Pieces.cover).
-    The first piece whose end reaches the limit holds it (the utilization is convex in lam
-    within a piece); 0 where the factored dead load alone reaches it. ``T``:
-    :func:`_projector` of the pin. ``linear``: no member at the joint depends on the active
-    set, so the forces there are those of the first piece all along the path.
+    """On each row's path (row x: the position ``src[x]`` of ``pc`` at the pin
+    ``which[x]``), the least lam at which the pin reaches its limit: lam (X,) (inf where it
+    does not up to the path's end), the forces of the members at the joint there (X, n),
+    the piece it lies in (X,), -1 for none, and how far (lam) each row's path must be known
+    to tell (X,), 0 where it is (rating.analysis.regions.Pieces.cover). The first piece
+    whose end reaches the limit holds it (the utilization is convex in lam within a piece);
+    0 where the factored dead load alone reaches it. ``linear``: no member at the joints
+    depends on the active set, so the forces there are those of the first piece all along
+    the path.
 
-    Only the least over the positions of each load (``group``, (X,)) is needed, and the
-    positions within the factor ``near`` of it with their neighbours (``intervals``, pairs
-    of neighbouring positions): the others are shown not to be by bounds (``floor`` (X,), a
-    lower bound of each position's lam, :func:`_gauge_floor`; then
+    Only the least over the rows of each group (``group``, (X,): one pin under one load) is
+    needed, and the rows within the factor ``near`` of it with their neighbours
+    (``intervals``, pairs of neighbouring rows): the others are shown not to be by bounds
+    (``floor`` (X,), a lower bound of each row's lam, :func:`_gauge_floor`; then
     rating.capacity.pins.PinModel.multiplier_bounds), and get a lower bound for lam and no
-    piece (-1); so are positions solved only as far as needed (:func:`_least_roots`)."""
-    X = pc.n_loadings
+    piece (-1); so are rows solved only as far as needed (:func:`_least_roots`)."""
+    X = src.size
+    stack = jn.stack
+    k_src = pc.k[src]
     if linear:
-        valid = pc.k[:, :1] >= 0
+        valid = k_src[:, :1] >= 0
         lo = np.zeros((X, 1))
-        hi = np.where(valid, pc.hi[np.arange(X), np.maximum((pc.k >= 0).sum(axis=1) - 1, 0)]
+        hi = np.where(valid, pc.hi[src, np.maximum((k_src >= 0).sum(axis=1) - 1, 0)]
                       [:, None], 0.0)
     else:
-        valid = pc.k >= 0
-        lo = np.where(valid, pc.lo, 0.0)
-        hi = np.where(valid, pc.hi, 0.0)
-    r, j = np.nonzero(valid)  # by position, then piece: in order along each path
+        valid = k_src >= 0
+        lo = np.where(valid, pc.lo[src], 0.0)
+        hi = np.where(valid, pc.hi[src], 0.0)
+    r, j = np.nonzero(valid)  # by row, then piece: in order along each path
     lo_q, ln = lo[r, j], hi[r, j] - lo[r, j]
     m = pc.N_live.shape[2]
-    flat = r * pc.k.shape[1] + j
-    cols = np.asarray(idx)[None, :]
+    flat = src[r] * pc.k.shape[1] + j
+    w_q = which[r]
+    cols_q = jn.cols[w_q]
     N_dead_f, N_live_f = pc.N_dead.reshape(-1, m), pc.N_live.reshape(-1, m)
 
     def forces(q: np.ndarray) -> tuple[np.ndarray, ...]:
         """Forces at the joint at the start of pieces ``q`` and their rate, and the pin's
         checked vectors of both (linear in the forces: one projection, :func:`_projector`)."""
-        Nl = N_live_f[flat[q][:, None], cols]
-        N0 = N_dead_f[flat[q][:, None], cols] + lo_q[q][:, None] * Nl
-        return N0, Nl, (N0 @ T).reshape(q.size, -1, 2), (Nl @ T).reshape(q.size, -1, 2)
+        Nl = N_live_f[flat[q][:, None], cols_q[q]]
+        N0 = N_dead_f[flat[q][:, None], cols_q[q]] + lo_q[q][:, None] * Nl
+        return N0, Nl, jn.project(N0, w_q[q]), jn.project(Nl, w_q[q])
 
     groups, pos = np.unique(group, return_inverse=True)
     lam = np.full(X, np.inf)
-    N_at = np.zeros((X, len(idx)))
+    N_at = np.zeros((X, jn.cols.shape[1]))
     slot = np.full(X, -1)
     low = np.full(r.size, np.nan)
     up = np.full(r.size, np.nan)
@@ -220,21 +274,21 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         N0, Nl, G0, G1 = forces(sel)
         missing = np.isnan(low[sel])
         if missing.any():  # pieces the bounds did not need
-            low[sel[missing]], up[sel[missing]] = model.multiplier_bounds(G0[missing],
-                                                                          G1[missing])
+            low[sel[missing]], up[sel[missing]] = stack.multiplier_bounds(
+                G0[missing], G1[missing], w_q[sel[missing]])
         # a piece reaches the limit by its end where the bound says so, else where checked
         reach = up[sel] <= ln_s
         check = np.flatnonzero(~reach & (low[sel] <= ln_s))
         if check.size:
-            reach[check] = model._utilization_projected(
-                G0[check] + ln_s[check, None, None] * G1[check]) >= 1.0
+            reach[check] = stack.utilization(
+                G0[check] + ln_s[check, None, None] * G1[check], w_q[sel[check]]) >= 1.0
         # the first piece of each position that reaches the limit
         hit = np.flatnonzero(reach)
         if not hit.size:
             return
         q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))]
         at = rs[q]
-        rel = _least_roots(model, G0[q], G1[q], lo_s[q], low[sel][q],
+        rel = _least_roots(stack, which[at], G0[q], G1[q], lo_s[q], low[sel][q],
                            np.minimum(up[sel][q], ln_s[q]), group[at])
         lam[at] = lo_s[q] + rel
         N_at[at] = N0[q] + rel[:, None] * Nl[q]
@@ -249,8 +303,8 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
     margin = max(near, 1.0 + 1e-9)
     floor = np.zeros(X) if floor is None else floor
     # a path the family covers only so far: the limit may lie beyond what is known
-    short = pc.cover < LAM_MAX * (1.0 - 1e-9)
-    floor = np.where(short, np.minimum(floor, pc.cover), floor)
+    short = pc.cover[src] < LAM_MAX * (1.0 - 1e-9)
+    floor = np.where(short, np.minimum(floor, pc.cover[src]), floor)
     order = np.lexsort((floor, pos))
     lead = np.zeros(X, dtype=bool)
     lead[order[np.flatnonzero(np.concatenate(([True], pos[order][1:] != pos[order][:-1])))]] \
@@ -275,7 +329,7 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
         settled[r[gone]] = True
         q = here[~beyond]
         if q.size:
-            low[q], up[q] = model.multiplier_bounds(*forces(q)[2:])
+            low[q], up[q] = stack.multiplier_bounds(*forces(q)[2:], w_q[q])
             np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
             np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
             settled[r[q[up[q] <= ln[q]]]] = True
@@ -301,62 +355,75 @@ def _pin_crossings(model: PinModel, T: np.ndarray, idx: list[int], pc: Pieces,
     return lam, N_at, slot, np.where(short & (slot < 0) & np.isinf(lam), target, 0.0)
 
 
-def _gauge_floor(model: PinModel, T: np.ndarray, idx: list[int], store: PathStore,
-                 pc: Pieces, p: np.ndarray, linear: bool) -> np.ndarray:
-    """A lower bound (X,) of each position's lam at the pin's limit, from its panel loads.
+def _gauge_floor(jn: _Joints, store: PathStore, pc: Pieces, p: np.ndarray, src: np.ndarray,
+                 which: np.ndarray, linear: bool) -> np.ndarray:
+    """A lower bound (X,) of each row's lam at the pin's limit (row x: the position
+    ``src[x]`` with panel loads ``p[:, src[x]]`` and path in ``pc``, at the pin
+    ``which[x]``), from its panel loads.
 
     In one active set k the pin's forces are those of the dead load D_k plus lam times the
     live load; the states whose check stays within the limit form a convex set around D_k
     (the utilization is convex in the forces), and lam at the limit is 1 / g(L), g the gauge
     of that set, convex and positively homogeneous. The live load is a sum of panel loads
     p_s >= 0 times the unit panel loads e_s, so g(L) <= sum p_s g(e_s): lam >= 1 / (sum p_s
-    g(e_s)), with g(e_s) bounded from above once per set and panel point
+    g(e_s)), with g(e_s) bounded from above once per pin, set and panel point
     (:func:`_root_below`). The least over the sets on the position's path bounds its lam
     (the sets of its first piece alone for a joint whose bars do not depend on them)."""
     table = store.table
     F = table.force_lines()
     Fd, _ = table.dead(store.key, store.P_dead)
     K, S = F.shape[0], F.shape[2]
-    Kp = T.shape[1] // 2
+    n_pins, Kp = jn.T.shape[0], jn.stack.K
     used = np.unique(pc.k[pc.k >= 0]) if not linear else np.unique(pc.k[:, 0][pc.k[:, 0] >= 0])
     scale = max(float(np.abs(p).max(initial=0.0)), 1.0)  # a panel load of the size searched
-    Gd = (Fd[used][:, idx] @ T).reshape(used.size, 1, Kp, 2)
-    Q = np.einsum("kns,nc->ksc", F[used][:, idx, :], T).reshape(used.size, S, Kp, 2)
-    lam = _root_below(model, np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
+    U = used.size
+    Gd = np.empty((n_pins, U, 1, Kp, 2))
+    Q = np.empty((n_pins, U, S, Kp, 2))
+    for i in range(n_pins):
+        Fi = F[used][:, jn.cols[i], :]  # (U, n, S)
+        Gd[i] = (Fd[used][:, jn.cols[i]] @ jn.T[i]).reshape(U, 1, Kp, 2)
+        Q[i] = np.einsum("kns,nc->ksc", Fi, jn.T[i]).reshape(U, S, Kp, 2)
+    lam = _root_below(jn.stack, np.repeat(np.arange(n_pins), U * S),
+                      np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
                       (scale * Q).reshape(-1, Kp, 2))
     # not reached by 1,000 such loads: the gauge is at most 1 / (1,000 scale)
     lam = np.minimum(lam, 1e3)
     with np.errstate(divide="ignore"):
-        g = np.full((K, S), np.inf)
-        g[used] = np.where(lam > 0, 1.0 / (lam * scale), np.inf).reshape(used.size, S)
-    with np.errstate(invalid="ignore"):  # (inf x 0: a set the dead load alone breaks)
-        Gam = np.nan_to_num(g @ p, nan=np.inf)  # (K, X)
-    kk = pc.k[:, :1] if linear else pc.k
-    vals = np.where(kk >= 0, Gam[np.maximum(kk, 0), np.arange(kk.shape[0])[:, None]], 0.0)
+        g = np.full((n_pins, K, S), np.inf)
+        g[:, used] = np.where(lam > 0, 1.0 / (lam * scale), np.inf).reshape(n_pins, U, S)
+    kk = pc.k[src, :1] if linear else pc.k[src]
+    vals = np.zeros(kk.shape)
+    for i in np.unique(which).tolist():
+        rows = np.flatnonzero(which == i)
+        with np.errstate(invalid="ignore"):  # (inf x 0: a set the dead load alone breaks)
+            Gam = np.nan_to_num(g[i] @ p[:, src[rows]], nan=np.inf)  # (K, rows)
+        ki = kk[rows]
+        vals[rows] = np.where(ki >= 0, Gam[np.maximum(ki, 0),
+                                           np.arange(rows.size)[:, None]], 0.0)
     with np.errstate(divide="ignore"):
         return 1.0 / vals.max(axis=1, initial=0.0)
 
 
-def _root_below(model: PinModel, G0: np.ndarray, G1: np.ndarray, steps: int = 4
-                ) -> np.ndarray:
+def _root_below(stack: PinStack, which: np.ndarray, G0: np.ndarray, G1: np.ndarray,
+                steps: int = 4) -> np.ndarray:
     """A lower bound, within a fraction of a per cent, of the least lam >= 0 at which the
-    utilization of G0 + lam G1 (P, K, 2) reaches 1.0 (inf where it never does, 0 where G0
-    alone does): from the bounds of rating.capacity.pins.PinModel.multiplier_bounds, a few
-    chords of the convex utilization, each crossing 1.0 before it does."""
-    util = model._utilization_projected
-    a, b = model.multiplier_bounds(G0, G1)
+    utilization of G0 + lam G1 (P, K, 2) on the pins ``which`` (P,) reaches 1.0 (inf where
+    it never does, 0 where G0 alone does): from the bounds of
+    rating.capacity.pins.PinModel.multiplier_bounds, a few chords of the convex
+    utilization, each crossing 1.0 before it does."""
+    a, b = stack.multiplier_bounds(G0, G1, which)
     out = np.where(np.isfinite(b), a, np.inf)
     live = np.flatnonzero(np.isfinite(b) & (b > a))
     if not live.size:
         return out
-    a, b, G0, G1 = a[live], b[live], G0[live], G1[live]
-    fa = util(G0 + a[:, None, None] * G1) - 1.0
-    fb = util(G0 + b[:, None, None] * G1) - 1.0
+    a, b, G0, G1, w = a[live], b[live], G0[live], G1[live], which[live]
+    fa = stack.utilization(G0 + a[:, None, None] * G1, w) - 1.0
+    fb = stack.utilization(G0 + b[:, None, None] * G1, w) - 1.0
     for _ in range(steps):
         with np.errstate(divide="ignore", invalid="ignore"):
             z = np.where(fb > fa, a - fa * (b - a) / (fb - fa), a)
         z = np.clip(z, a, b)
-        fz = util(G0 + z[:, None, None] * G1) - 1.0
+        fz = stack.utilization(G0 + z[:, None, None] * G1, w) - 1.0
         below = fz < 0.0
         a, fa = np.where(below, z, a), np.where(below, fz, fa)
         b, fb = np.where(below, b, z), np.where(below, fb, fz)
@@ -372,10 +439,12 @@ def _projector(model: PinModel, unit: np.ndarray) -> np.ndarray:
     return G.reshape(unit.shape[0], -1)
 
 
-def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray,
-                 low: np.ndarray, high: np.ndarray, group: np.ndarray) -> np.ndarray:
-    """For each row, the least lam in [0, high] where the utilization of G0 + lam G1 reaches
-    1.0 (it has by ``high``; it is convex in lam; ``low`` is a lower bound): the root (to
+def _least_roots(stack: PinStack, which: np.ndarray, G0: np.ndarray, G1: np.ndarray,
+                 lo: np.ndarray, low: np.ndarray, high: np.ndarray, group: np.ndarray
+                 ) -> np.ndarray:
+    """For each row, the least lam in [0, high] where the utilization of G0 + lam G1 on the
+    pin ``which`` reaches 1.0 (it has by ``high``; it is convex in lam; ``low`` is a lower
+    bound): the root (to
     1e-12) where lo + lam can be the least of its group, a lower bound above that least
     elsewhere.
 
@@ -383,20 +452,20 @@ def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray
     rating.capacity.pins.PinModel.multipliers); on the convex utilization the chord of the
     bracket crosses 1.0 before it does, so a row whose chord crossing is above the least
     bracket end of its group beyond round-off cannot hold the least and is dropped."""
-    util = model._utilization_projected
+    util = stack.utilization
     out = np.zeros(lo.size)
     b = high.astype(float).copy()
-    fb = util(G0 + b[:, None, None] * G1) - 1.0
+    fb = util(G0 + b[:, None, None] * G1, which) - 1.0
     a = np.clip(low * (1.0 - 1e-12), 0.0, b)
-    fa = util(G0 + a[:, None, None] * G1) - 1.0
+    fa = util(G0 + a[:, None, None] * G1, which) - 1.0
     redo = np.flatnonzero((fa >= 0.0) & (a > 0.0))
     if redo.size:  # round-off at the bound: from the start of the piece
         a[redo] = 0.0
-        fa[redo] = util(G0[redo]) - 1.0
+        fa[redo] = util(G0[redo], which[redo]) - 1.0
     live = np.flatnonzero(fa < 0.0)  # else the limit is reached at once (out = 0)
     out[live] = b[live]
     a, fa, b, fb = a[live], fa[live], b[live], fb[live]
-    G0l, G1l, lol = G0[live], G1[live], lo[live]
+    G0l, G1l, lol, wl = G0[live], G1[live], lo[live], which[live]
     groups, pos = np.unique(group[live], return_inverse=True)
     sa, sb = fa.copy(), fb.copy()  # Illinois-scaled values
     side = np.zeros(live.size, dtype=int)
@@ -411,13 +480,13 @@ def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray
         keep = lol + chord <= least[pos] * (1.0 + 1e-9) + 1e-12
         if not keep.all():
             out[live[~keep]] = chord[~keep]  # a lower bound above the least
-            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos = (
-                v[keep] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos))
+            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, wl, pos = (
+                v[keep] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, wl, pos))
         d = sb - sa
         with np.errstate(divide="ignore", invalid="ignore"):
             x = np.where(d != 0.0, b - sb * (b - a) / np.where(d != 0.0, d, 1.0), 0.5 * (a + b))
         x = np.where((a < x) & (x < b), x, 0.5 * (a + b))
-        f = util(G0l + x[:, None, None] * G1l) - 1.0
+        f = util(G0l + x[:, None, None] * G1l, wl) - 1.0
         right = f >= 0.0
         sa = np.where(right & (side == 1), 0.5 * sa, sa)
         sb = np.where(~right & (side == -1), 0.5 * sb, sb)
@@ -428,20 +497,31 @@ def _least_roots(model: PinModel, G0: np.ndarray, G1: np.ndarray, lo: np.ndarray
         done = close | (b - a <= 1e-12 * np.maximum(lol + b, 1.0))
         out[live[done]] = np.where(close[done], x[done], b[done])
         if done.any():
-            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos = (
-                v[~done] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, pos))
+            live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, wl, pos = (
+                v[~done] for v in (live, a, fa, b, fb, sa, sb, side, G0l, G1l, lol, wl, pos))
     out[live] = b
     return out
 
 
-def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
-             dependent: frozenset[str]) -> PinRating:
-    """Rate one pin for every case of every load (see the module docstring). ``loads``: the
-    positions of the rating loads with their paths under the maximum dead-load factors."""
-    designs = {d.member: d for d in bridge.member_designs}
-    g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
+@dataclass(frozen=True, eq=False)
+class _PinAtJoint:
+    """One pin with what its search needs: the members at its joint (labels, columns, unit
+    vectors from the joint), its vectorized model and projector, and its check under
+    factored dead load alone."""
+
+    pin: Pin
+    members: list[str]
+    idx: list[int]
+    unit: np.ndarray
+    model: PinModel
+    T: np.ndarray
+    dead_check: PinCheck
+    linear: bool
+
+
+def _pin_at_joint(pin: Pin, g: TrussGeometry, designs: Mapping, N_dead: np.ndarray,
+                  dependent: frozenset[str]) -> _PinAtJoint:
     members_here = [m.label for m in g.members_at(pin.joint)]
-    linear = not (set(members_here) & dependent)
     idx = [g.member_index[lab] for lab in members_here]
     jt = g.joint(pin.joint)
     dirs = []
@@ -452,26 +532,55 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
     unit = np.array(dirs, dtype=float)
     unit /= np.linalg.norm(unit, axis=1)[:, None]
     # the pin under factored dead load alone, for the report and its warnings
-    N_dead_here = (g_dc * dead.member_forces_dc_kip + g_dw * dead.member_forces_dw_kip)[idx]
+    N_dead_here = N_dead[idx]
     dead_check = pin_check(
         pin, pin_actions(g, pin.joint, dict(zip(members_here, map(float, N_dead_here),
                                                 strict=True))),
         external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs)
     model = PinModel(pin, members_here, dirs, designs=designs)
-    T = _projector(model, unit)
-    ratings: dict[str, PinCaseRating] = {}
-    worst: tuple[float, str, np.ndarray] | None = None
+    return _PinAtJoint(pin, members_here, idx, unit, model, _projector(model, unit),
+                       dead_check, not (set(members_here) & dependent))
+
+
+@dataclass(frozen=True, eq=False)
+class _Found:
+    """One pin's least lam at every position of the batch (``lam``, forces at the joint
+    there ``N_at``) and at the points found between positions (``extra``, with their
+    extremes and loads)."""
+
+    lam: np.ndarray
+    N_at: np.ndarray
+    extra_lam: np.ndarray
+    extra_N: np.ndarray
+    extra: list[Extreme]
+    extra_group: np.ndarray
+
+
+def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Found]:
+    """Every position of every load on its exact path, for the pins ``here`` at once (all
+    linear, or none; see the module docstring)."""
+    jn = _Joints.of([h.model for h in here], [h.idx for h in here], [h.T for h in here])
     batch, store = loads.positions, loads.paths
+    X, n_pins, n_loads = batch.size, len(here), len(batch.sets)
+    src = np.tile(np.arange(X), n_pins)
+    which = np.repeat(np.arange(n_pins), X)
+    group = which * n_loads + batch.group[src]
+    intervals = (np.concatenate([batch.intervals + i * X for i in range(n_pins)])
+                 if not linear else None)
     while True:
         lam, N_at, slot, need = _pin_crossings(
-            model, T, idx, store.pieces, batch.group, linear, near=1.0 if linear else 1.1,
-            intervals=None if linear else batch.intervals,
-            floor=_gauge_floor(model, T, idx, store, store.pieces, store.p, linear))
-        if not (need.any() and store.complete(need)):
+            jn, store.pieces, src, which, group, linear, near=1.0 if linear else 1.1,
+            intervals=intervals,
+            floor=_gauge_floor(jn, store, store.pieces, store.p, src, which, linear))
+        need_x = np.zeros(X)
+        np.maximum.at(need_x, src, need)
+        if not (need_x.any() and store.complete(need_x)):
             break
     pc = store.pieces
-    extra: list[Extreme] = []
-    extra_group = np.zeros(0, dtype=int)
+    extra: list[list[Extreme]] = [[] for _ in here]
+    extra_lam = [np.zeros(0)] * n_pins
+    extra_N = [np.zeros((0, jn.cols.shape[1]))] * n_pins
+    extra_group = [np.zeros(0, dtype=int)] * n_pins
     if not linear and batch.intervals.size and np.isfinite(lam).any():
         # Between two neighbouring positions of a run the pin's multiplier in one active set
         # is least at an end (1 / a convex gauge of forces linear in the station); where the
@@ -480,42 +589,86 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
         # that bar's zero gives lam as a function of the station, and the pin check along it
         # is searched (grid of 16, then bisection); each point found is followed on the
         # exact path like any other position.
-        best = np.array([lam[batch.rows(gi)].min(initial=np.inf)
-                         for gi in range(len(batch.sets))])
-        k_at = np.where(slot >= 0, np.take_along_axis(pc.k, np.maximum(slot, 0)[:, None],
+        best = np.full(n_pins * n_loads, np.inf)
+        np.minimum.at(best, group, lam)
+        k_at = np.where(slot >= 0, np.take_along_axis(pc.k[src], np.maximum(slot, 0)[:, None],
                                                       axis=1)[:, 0], -1)
-        ia, ib = batch.intervals[:, 0], batch.intervals[:, 1]
+        ia, ib = intervals[:, 0], intervals[:, 1]
         ka, kb = k_at[ia], k_at[ib]
-        ok = (ka >= 0) & (kb >= 0) & (np.minimum(lam[ia], lam[ib])
-                                      <= 1.1 * best[batch.group[ia]])
+        ok = (ka >= 0) & (kb >= 0) & (np.minimum(lam[ia], lam[ib]) <= 1.1 * best[group[ia]])
         slk = store.table.slack_masks()
         ok[ok] = (slk[ka[ok]] != slk[kb[ok]]).any(axis=1)
         sel = np.flatnonzero(ok)
-        *line, owner = _bar_zero_lines(store, idx, ia[sel], ib[sel], ka[sel], kb[sel])
+        *line, owner = _bar_zero_lines(store, jn.cols[which[ia[sel]]], src[ia[sel]],
+                                       src[ib[sel]], ka[sel], kb[sel])
         # on a bar's zero line lam = -c / (a + b t) is monotone in t: where it is at least
         # the least already found at both ends, no point on it can lower the least
         a_, b_, c_ = line[3], line[4], line[5]
         with np.errstate(divide="ignore", invalid="ignore"):
             ends = np.stack([-c_ / a_, -c_ / (a_ + b_)])
         low_end = np.where(ends > 0, ends, np.inf).min(axis=0)
-        below = best[batch.group[ia[sel][owner]]] * (1.0 - 1e-9)
+        below = best[group[ia[sel][owner]]] * (1.0 - 1e-9)
         useful = low_end < below
         line = [v[useful] for v in line]
         owner = owner[useful]
-        at, ts = _pin_kinks(model, T, *line, below[useful])
-        pairs = batch.intervals[sel[owner[at]]]
-        if pairs.size:
-            p_new, extra, extra_group = batch.between(pairs, ts)
+        at, ts = _pin_kinks(jn, which[ia[sel][owner]], *line, below[useful])
+        rows = intervals[sel[owner[at]]]
+        if rows.size:
+            pin_of = which[rows[:, 0]]
+            cols, new_which, new_group = [], [], []
+            for i in np.unique(pin_of).tolist():
+                m = pin_of == i
+                p_i, extra[i], eg = batch.between(src[rows[m]], ts[m])
+                cols.append(p_i)
+                new_which.append(np.full(eg.size, i))
+                new_group.append(eg)
+                extra_group[i] = eg
+            p_new = np.concatenate(cols, axis=1)
+            w_new = np.concatenate(new_which)
+            s_new = np.arange(w_new.size)
             pc_new = store.more(p_new)
             lam_new, N_new, _, _ = _pin_crossings(
-                model, T, idx, pc_new, extra_group,
-                floor=_gauge_floor(model, T, idx, store, pc_new, p_new, linear))
-            lam = np.concatenate([lam, lam_new])
-            N_at = np.concatenate([N_at, N_new])
+                jn, pc_new, s_new, w_new, w_new * n_loads + np.concatenate(new_group),
+                floor=_gauge_floor(jn, store, pc_new, p_new, s_new, w_new, linear))
+            for i in np.unique(pin_of).tolist():
+                extra_lam[i], extra_N[i] = lam_new[w_new == i], N_new[w_new == i]
+    return [_Found(lam[i * X:(i + 1) * X], N_at[i * X:(i + 1) * X, :len(h.idx)],
+                   extra_lam[i], extra_N[i][:, :len(h.idx)], extra[i], extra_group[i])
+            for i, h in enumerate(here)]
+
+
+def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
+              dependent: frozenset[str]) -> tuple[PinRating, ...]:
+    """Rate every pin for every case of every load (see the module docstring), the pins
+    whose joints have no member depending on the active set searched together, the others
+    together. ``loads``: the positions of the rating loads with their paths under the
+    maximum dead-load factors."""
+    designs = {d.member: d for d in bridge.member_designs}
+    g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
+    N_dead = g_dc * dead.member_forces_dc_kip + g_dw * dead.member_forces_dw_kip
+    here = [_pin_at_joint(pin, g, designs, N_dead, dependent) for pin in pins]
+    found: dict[int, _Found] = {}
+    for linear in (True, False):
+        mine = [i for i, h in enumerate(here) if h.linear == linear]
+        if mine:
+            found.update(zip(mine, _search([here[i] for i in mine], loads, linear),
+                             strict=True))
+    return tuple(_rate_one(here[i], found[i], g, designs, loads) for i in range(len(here)))
+
+
+def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
+              loads: LoadPaths) -> PinRating:
+    """One pin's rating of every case from the least lam of each position found."""
+    batch = loads.positions
+    pin, model, unit = h.pin, h.model, h.unit
+    lam = np.concatenate([fd.lam, fd.extra_lam])
+    N_at = np.concatenate([fd.N_at, fd.extra_N])
+    ratings: dict[str, PinCaseRating] = {}
+    worst: tuple[float, str, np.ndarray] | None = None
     governs: dict[int, str] = {}
     for gi, group in enumerate(loads.cases):
         rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
-                               batch.size + np.flatnonzero(extra_group == gi)])
+                               batch.size + np.flatnonzero(fd.extra_group == gi)])
         for case in group:
             lam_c = lam[rows] / case.gamma_ll.value
             k = first_of_least(lam_c) if lam_c.size else -1
@@ -524,7 +677,7 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
                                                  "not loaded by this vehicle", None, None)
                 continue
             j = int(rows[k])
-            ext = batch.extreme(j) if j < batch.size else extra[j - batch.size]
+            ext = batch.extreme(j) if j < batch.size else fd.extra[j - batch.size]
             what = governs.get(j)
             if what is None:  # (the cases of a load mostly share their position)
                 u_fs, u_b = model.utilization_parts(
@@ -538,10 +691,10 @@ def rate_pin(pin: Pin, g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
         # the full pin check (sections, plates, balance) at the rating load level of the
         # governing case and position, for the report
         _, cid, N_here = worst
-        chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(members_here,
+        chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(h.members,
                                                                 map(float, N_here),
                                                                 strict=True))),
                         external_kip=tuple(_balancing(unit, N_here)), designs=designs)
         ratings[cid] = replace(ratings[cid], at_rating=chk)
-    return PinRating(pin.joint, pin, ratings, dead_check, dead_check.warnings,
-                     dead_check.assumptions)
+    return PinRating(pin.joint, pin, ratings, h.dead_check, h.dead_check.warnings,
+                     h.dead_check.assumptions)

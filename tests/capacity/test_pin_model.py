@@ -101,3 +101,39 @@ def test_upper_limits_each_search_and_many_states_at_once():
     assert np.all(np.isinf(up))
     up = model.multipliers(np.broadcast_to(F0, F1.shape), F1, upper=2.0 * lam)
     assert up == pytest.approx(lam, rel=1e-9)
+
+
+@settings(max_examples=30, deadline=None)
+@given(n0=st.lists(st.floats(-40.0, 40.0), min_size=3, max_size=3),
+       n1=st.lists(forces, min_size=3, max_size=3),
+       d=st.floats(2.5, 6.0))
+def test_pins_stacked_give_each_pin_its_own_checks_and_bounds(n0, n1, d):
+    # padding a pin's checked vectors to the layout of a larger pin (more sections, more
+    # plates) changes none of its utilizations and bounds: the stack is checked against
+    # each pin's own model (common practice: a padded section carries nothing)
+    from rating.capacity.pins import PinStack
+
+    big = joint_pin([1.0, 0.75, 0.5, 1.25, 0.5, 0.75, 1.0], ORDER)
+    dirs3 = {k: DIRS[k] for k in ("C1", "C2", "V")}
+    small = Pin("L1", d, tuple(PackingItem(m, t, 0.0625 if k else 0.0) for k, (m, t) in
+                                 enumerate(zip(["C1", "V", "C2"], [1.0, 0.5, 1.0],
+                                               strict=True))), STEEL)
+    models = [PinModel(big, list(DIRS), list(DIRS.values())),
+              PinModel(small, list(dirs3), list(dirs3.values()))]
+    stack = PinStack(models)
+    N0 = [np.array(n0 + [0.5 * n0[0]]), np.array(n0)]
+    N1 = [np.array(n1 + [-0.5 * n1[1]]), np.array(n1)]
+    for i, (m, a, b) in enumerate(zip(models, N0, N1, strict=True)):
+        dirs = DIRS if i == 0 else dirs3
+        ext = [-(a[:, None] * np.array(list(dirs.values()))).sum(axis=0),
+               -(b[:, None] * np.array(list(dirs.values()))).sum(axis=0)]
+        G0 = m.project(m.point_forces(a, ext[0]))[None]
+        G1 = m.project(m.point_forces(b, ext[1]))[None]
+        which = np.array([i])
+        for lam in (0.0, 0.3, 2.0):
+            assert stack.utilization(stack.pad(i, G0 + lam * G1), which)[0] == \
+                pytest.approx(float(m._utilization_projected(G0 + lam * G1)[0]), rel=1e-14)
+        lo, up = stack.multiplier_bounds(stack.pad(i, G0), stack.pad(i, G1), which)
+        lo1, up1 = m.multiplier_bounds(G0, G1)
+        assert lo[0] == pytest.approx(lo1[0], rel=1e-14) and up[0] == pytest.approx(up1[0],
+                                                                                   rel=1e-14)
