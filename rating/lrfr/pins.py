@@ -367,8 +367,10 @@ def _gauge_floor(jn: _Joints, store: PathStore, pc: Pieces, p: np.ndarray, src: 
     of that set, convex and positively homogeneous. The live load is a sum of panel loads
     p_s >= 0 times the unit panel loads e_s, so g(L) <= sum p_s g(e_s): lam >= 1 / (sum p_s
     g(e_s)), with g(e_s) bounded from above once per pin, set and panel point
-    (:func:`_root_below`). The least over the sets on the position's path bounds its lam
-    (the sets of its first piece alone for a joint whose bars do not depend on them)."""
+    (:func:`_root_below`). On the position's path the limit lies in one piece, in that
+    piece's set and not before the piece starts: the least over the pieces that can hold it
+    bounds its lam (the set of its first piece alone for a joint whose bars do not depend on
+    the active set)."""
     table = store.table
     F = table.force_lines()
     Fd, _ = table.dead(store.key, store.P_dead)
@@ -401,7 +403,16 @@ def _gauge_floor(jn: _Joints, store: PathStore, pc: Pieces, p: np.ndarray, src: 
         vals[rows] = np.where(ki >= 0, Gam[np.maximum(ki, 0),
                                            np.arange(rows.size)[:, None]], 0.0)
     with np.errstate(divide="ignore"):
-        return 1.0 / vals.max(axis=1, initial=0.0)
+        if linear:  # the first piece's set holds for the joint all along the path
+            return 1.0 / vals.max(axis=1, initial=0.0)
+        f = np.where(kk >= 0, 1.0 / vals, np.inf)
+    # The limit lies in some piece j of the path, where the forces are those of its set:
+    # lam >= max(lo_j, f_j) there, and a piece whose f_j is beyond its end (not the last
+    # piece: the path may go on) cannot hold it
+    lo, hi = pc.lo[src], pc.hi[src]
+    last = np.arange(kk.shape[1])[None, :] == ((kk >= 0).sum(axis=1) - 1)[:, None]
+    out = np.where((f > hi * (1.0 + 1e-9) + 1e-12) & ~last, np.inf, np.maximum(lo, f))
+    return np.where(kk >= 0, out, np.inf).min(axis=1, initial=np.inf)
 
 
 def _root_below(stack: PinStack, which: np.ndarray, G0: np.ndarray, G1: np.ndarray,
