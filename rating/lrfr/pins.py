@@ -158,14 +158,21 @@ def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         lam_g = -Cc[:, None] / (A[:, None] + B[:, None] * grid[None, :])
     want = (lam_g > 0) & (lam_g < below[:, None])
-    # where 0 < lam < below every checked vector is shorter than |GD| + below (|GA| + |GdN|)
-    # (triangle inequality) and the checks grow with the lengths: a line on which those
-    # lengths stay within the limit cannot hold a wanted point
-    reach = np.isfinite(below)
-    lens = _length(GD[reach]) + below[reach, None] * (_length(GA[reach])
-                                                       + _length(GdN[reach]))
-    reach[reach] = util(np.stack([lens, np.zeros_like(lens)], axis=-1),
-                        which[reach]) >= 1.0 - 1e-9
+    # lam = -c / (a + b t) is monotone in t between poles: where the line has none in
+    # (0, 1) it stays below the larger end, else below ``below`` where wanted. Every checked
+    # vector is then shorter than |GD| + lam_hi max(|GA|, |GA + GdN|) (triangle inequality;
+    # the norm of GA + t GdN is convex in t), and the checks grow with the lengths: a line
+    # on which those lengths stay within the limit cannot hold a wanted point
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        ends = -Cc / np.stack([A, A + B])
+    pole = (A * (A + B) <= 0) | ~np.isfinite(ends).all(axis=0)
+    lam_hi = np.where(pole, below, np.minimum(below, ends.max(axis=0)))
+    reach = ~(lam_hi <= 0.0)  # (no bound where lam_hi is not finite)
+    bounded = np.flatnonzero(reach & np.isfinite(lam_hi))
+    lens = _length(GD[bounded]) + lam_hi[bounded, None] * np.maximum(
+        _length(GA[bounded]), _length(GA[bounded] + GdN[bounded]))
+    reach[bounded] = util(np.stack([lens, np.zeros_like(lens)], axis=-1),
+                          which[bounded]) >= 1.0 - 1e-9
     want &= reach[:, None]
     want[:, 1:] |= want[:, :-1]
     want[:, :-1] |= want[:, 1:]
