@@ -683,7 +683,7 @@ def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
     N_at = np.concatenate([fd.N_at, fd.extra_N])
     ratings: dict[str, PinCaseRating] = {}
     worst: tuple[float, str, np.ndarray] | None = None
-    governs: dict[int, str] = {}
+    picks: list[tuple[object, float, int]] = []
     for gi, group in enumerate(loads.cases):
         rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
                                batch.size + np.flatnonzero(fd.extra_group == gi)])
@@ -694,17 +694,20 @@ def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
                 ratings[case.id] = PinCaseRating(case.id, math.inf,
                                                  "not loaded by this vehicle", None, None)
                 continue
-            j = int(rows[k])
-            ext = batch.extreme(j) if j < batch.size else fd.extra[j - batch.size]
-            what = governs.get(j)
-            if what is None:  # (the cases of a load mostly share their position)
-                u_fs, u_b = model.utilization_parts(
-                    model.point_forces(N_at[j], _balancing(unit, N_at[j])))
-                what = governs[j] = ("pin bearing" if float(u_b) >= float(u_fs)
-                                     else "pin flexure and shear")
-            ratings[case.id] = PinCaseRating(case.id, float(lam_c[k]), what, ext, None)
-            if worst is None or lower_beyond_round_off(float(lam_c[k]), worst[0]):
-                worst = (float(lam_c[k]), case.id, N_at[j])
+            picks.append((case, float(lam_c[k]), int(rows[k])))
+    # which check governs at each position that rates a case (the cases of a load mostly
+    # share their position): all such positions at once
+    at = sorted({j for _, _, j in picks})
+    if at:
+        u_fs, u_b = model.utilization_parts(
+            model.point_forces(N_at[at], _balancing(unit, N_at[at])))
+        governs = {j: "pin bearing" if float(b) >= float(f) else "pin flexure and shear"
+                   for j, f, b in zip(at, u_fs, u_b, strict=True)}
+    for case, rf, j in picks:
+        ext = batch.extreme(j) if j < batch.size else fd.extra[j - batch.size]
+        ratings[case.id] = PinCaseRating(case.id, rf, governs[j], ext, None)
+        if worst is None or lower_beyond_round_off(rf, worst[0]):
+            worst = (rf, case.id, N_at[j])
     if worst is not None:
         # the full pin check (sections, plates, balance) at the rating load level of the
         # governing case and position, for the report
