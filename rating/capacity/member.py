@@ -215,7 +215,10 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
     gc = c.checks[0]
     comp_at = next((s for s in report.compression if s.location == gc.location), None)
     mat = design.material
-    summary = SectionSummary(report.kind, A_g, A_n, gross_area_as_built_in2(design.section),
+    # a built-up section's as-built build is all its rectangles: the same sum, already made
+    A_as_built = report.as_built.A_g_in2 if isinstance(design.section, BuiltUpSection) \
+        else gross_area_as_built_in2(design.section)
+    summary = SectionSummary(report.kind, A_g, A_n, A_as_built,
                              mat.F_y, mat.F_u, mat.E, K, c.KL_r, float(length_ft),
                              comp_at.r_x_in if comp_at else 0.0,
                              comp_at.r_y_in if comp_at else 0.0, c.Q)

@@ -30,8 +30,8 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Sequence
-from dataclasses import dataclass, replace
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -102,9 +102,12 @@ class Rect:
 
     def thinned(self, t_new: float) -> Rect:
         """The same rectangle with thickness ``t_new`` (mid-line kept)."""
+        # the constructor directly: dataclasses.replace costs several times more
         if self.thick_along_x:
-            return replace(self, bx_in=t_new, t_in=t_new)
-        return replace(self, by_in=t_new, t_in=t_new)
+            return Rect(self.part, self.element, self.cx_in, self.cy_in, t_new, self.by_in,
+                        True, self.b_in, t_new, self.stiffened)
+        return Rect(self.part, self.element, self.cx_in, self.cy_in, self.bx_in, t_new,
+                    False, self.b_in, t_new, self.stiffened)
 
 
 @dataclass(frozen=True)
@@ -147,21 +150,30 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
     """
     if not rects:
         return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
-    # a handful of rectangles: plain arithmetic (array set-up would cost more than the sums)
+    # a handful of rectangles: plain arithmetic (array set-up would cost more than the sums);
+    # math.fsum is exact, so the sums do not depend on the order of the terms
     A = [r.bx_in * r.by_in for r in rects]
     At = math.fsum(A)
     if At <= 0.0:
         return AreaProperties(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
-    xc = math.fsum(a * r.cx_in for a, r in zip(A, rects, strict=True)) / At
-    yc = math.fsum(a * r.cy_in for a, r in zip(A, rects, strict=True)) / At
+    pairs = list(zip(A, rects, strict=True))
+    xc = math.fsum([a * r.cx_in for a, r in pairs]) / At
+    yc = math.fsum([a * r.cy_in for a, r in pairs]) / At
     parts_x, parts_y, parts_xy = [], [], []
-    for a, r in zip(A, rects, strict=True):
+    for a, r in pairs:
         dx, dy = r.cx_in - xc, r.cy_in - yc
-        parts_x.append(r.bx_in * r.by_in**3 / 12.0 + a * dy**2)
-        parts_y.append(r.by_in * r.bx_in**3 / 12.0 + a * dx**2)
+        bx, by = r.bx_in, r.by_in
+        parts_x.append(bx * by**3 / 12.0 + a * dy**2)
+        parts_y.append(by * bx**3 / 12.0 + a * dx**2)
         parts_xy.append(a * dx * dy)
-    I_x, I_y, I_xy = math.fsum(parts_x), math.fsum(parts_y), math.fsum(parts_xy)
-    return AreaProperties(At, xc, yc, I_x, I_y, I_xy)
+    return AreaProperties(At, xc, yc, math.fsum(parts_x), math.fsum(parts_y),
+                          math.fsum(parts_xy))
+
+
+def _rects_area_in2(rects: Sequence[Rect]) -> float:
+    """``area_properties(rects).A_in2`` without the centroid and second moments."""
+    At = math.fsum([r.bx_in * r.by_in for r in rects])
+    return 0.0 if At <= 0.0 else At
 
 
 def part_reference_thickness_in(part: Part) -> float:
@@ -217,10 +229,13 @@ def part_rectangles(part: Part) -> tuple[Rect, ...]:
 # --------------------------------------------------------------------------------------------
 
 
-def _pos(value: float | None, what: str, member: str, where: str) -> float:
+def _pos(value: float | None, what: str, member: str, where: str, of: str = "") -> float:
+    """``value`` as a float if it is a positive number; ``of`` prefixes ``what`` in the message."""
     if value is None or not isinstance(value, int | float) or not math.isfinite(value) \
             or value <= 0:
-        raise InputError(f"member {member}: {what} must be a positive number, got {value!r}",
+        # the message is built on failure only (validation runs for every member)
+        name = f"{of} {what}" if of else what
+        raise InputError(f"member {member}: {name} must be a positive number, got {value!r}",
                          where or None)
     return float(value)
 
@@ -259,66 +274,7 @@ def validate_section(section: Section, member: str, where: str = "") -> None:
                                  f"the rod diameter {d:g} in of a plain threaded rod",
                                  where or None)
     elif isinstance(section, BuiltUpSection):
-        if not section.parts:
-            raise InputError(f"member {member}: built-up section has no parts", where or None)
-        labels: set[str] = set()
-        for p in section.parts:
-            key = p.label.strip().lower()
-            if not key:
-                raise InputError(f"member {member}: a part of the built-up section has no "
-                                 "label", where or None)
-            if key in labels:
-                raise InputError(f"member {member}: part label {p.label!r} is used twice",
-                                 where or None)
-            labels.add(key)
-            what = f"part {p.label}"
-            for name in ("x_in", "y_in"):
-                v = getattr(p, name)
-                if not isinstance(v, int | float) or not math.isfinite(v):
-                    raise InputError(f"member {member}: {what} position {name} is not a "
-                                     "finite number", where or None)
-            if isinstance(p, PlatePart):
-                _pos(p.width_in, f"{what} width (in)", member, where)
-                _pos(p.thickness_in, f"{what} thickness (in)", member, where)
-            elif isinstance(p, ChannelPart):
-                d = _pos(p.depth_in, f"{what} depth (in)", member, where)
-                bf = _pos(p.flange_width_in, f"{what} flange width (in)", member, where)
-                tw = _pos(p.web_thickness_in, f"{what} web thickness (in)", member, where)
-                tf = _pos(p.flange_thickness_in, f"{what} flange thickness (in)", member,
-                          where)
-                if 2 * tf >= d or tw >= bf:
-                    raise InputError(f"member {member}: {what} channel dimensions are "
-                                     "inconsistent (flanges thicker than half the depth or "
-                                     "web thicker than the flange width)", where or None)
-            else:
-                lx = _pos(p.leg_x_in, f"{what} leg along x (in)", member, where)
-                ly = _pos(p.leg_y_in, f"{what} leg along y (in)", member, where)
-                t = _pos(p.thickness_in, f"{what} thickness (in)", member, where)
-                if t >= min(lx, ly):
-                    raise InputError(f"member {member}: {what} angle thickness {t:g} in is "
-                                     "not less than its legs", where or None)
-                if p.x_sign not in (1, -1) or p.y_sign not in (1, -1):
-                    raise InputError(f"member {member}: {what} leg directions must be +1 or "
-                                     "-1", where or None)
-        if section.hole_diameter_in < 0 or section.holes_per_section < 0:
-            raise InputError(f"member {member}: rivet hole diameter and count cannot be "
-                             "negative", where or None)
-        if not (0.0 < section.shear_lag_U <= 1.0):
-            raise InputError(f"member {member}: shear lag factor U must be in (0, 1], got "
-                             f"{section.shear_lag_U!r}", where or None)
-        c = section.connectors
-        if c is not None:
-            if c.spacing_in is not None:
-                _pos(c.spacing_in, "connector spacing (in)", member, where)
-            if c.r_i_in is not None:
-                _pos(c.r_i_in, "component radius of gyration r_i (in)", member, where)
-        rects = [r for p in section.parts for r in part_rectangles(p)]
-        Ag = area_properties(rects).A_in2
-        t_h = max(r.t_in for r in rects)
-        if section.holes_per_section * section.hole_diameter_in * t_h >= Ag:
-            raise InputError(f"member {member}: the rivet holes ({section.holes_per_section} "
-                             f"x {section.hole_diameter_in:g} in) remove the whole section",
-                             where or None)
+        _validated_rectangles(section, member, where)
     elif isinstance(section, RolledShape):
         A = _pos(section.area_in2, "rolled shape area (in2)", member, where)
         _pos(section.r_x_in, "rolled shape r_x (in)", member, where)
@@ -334,6 +290,73 @@ def validate_section(section: Section, member: str, where: str = "") -> None:
     else:
         raise InputError(f"member {member}: unknown section type {type(section).__name__}",
                          where or None)
+
+
+def _validated_rectangles(section: BuiltUpSection, member: str,
+                          where: str) -> tuple[tuple[Rect, ...], ...]:
+    """``validate_section`` of a built-up section; the rectangles of each part, as built."""
+    if not section.parts:
+        raise InputError(f"member {member}: built-up section has no parts", where or None)
+    labels: set[str] = set()
+    for p in section.parts:
+        key = p.label.strip().lower()
+        if not key:
+            raise InputError(f"member {member}: a part of the built-up section has no "
+                             "label", where or None)
+        if key in labels:
+            raise InputError(f"member {member}: part label {p.label!r} is used twice",
+                             where or None)
+        labels.add(key)
+        what = f"part {p.label}"
+        for name in ("x_in", "y_in"):
+            v = getattr(p, name)
+            if not isinstance(v, int | float) or not math.isfinite(v):
+                raise InputError(f"member {member}: {what} position {name} is not a "
+                                 "finite number", where or None)
+        if isinstance(p, PlatePart):
+            _pos(p.width_in, "width (in)", member, where, what)
+            _pos(p.thickness_in, "thickness (in)", member, where, what)
+        elif isinstance(p, ChannelPart):
+            d = _pos(p.depth_in, "depth (in)", member, where, what)
+            bf = _pos(p.flange_width_in, "flange width (in)", member, where, what)
+            tw = _pos(p.web_thickness_in, "web thickness (in)", member, where, what)
+            tf = _pos(p.flange_thickness_in, "flange thickness (in)", member, where,
+                      what)
+            if 2 * tf >= d or tw >= bf:
+                raise InputError(f"member {member}: {what} channel dimensions are "
+                                 "inconsistent (flanges thicker than half the depth or "
+                                 "web thicker than the flange width)", where or None)
+        else:
+            lx = _pos(p.leg_x_in, "leg along x (in)", member, where, what)
+            ly = _pos(p.leg_y_in, "leg along y (in)", member, where, what)
+            t = _pos(p.thickness_in, "thickness (in)", member, where, what)
+            if t >= min(lx, ly):
+                raise InputError(f"member {member}: {what} angle thickness {t:g} in is "
+                                 "not less than its legs", where or None)
+            if p.x_sign not in (1, -1) or p.y_sign not in (1, -1):
+                raise InputError(f"member {member}: {what} leg directions must be +1 or "
+                                 "-1", where or None)
+    if section.hole_diameter_in < 0 or section.holes_per_section < 0:
+        raise InputError(f"member {member}: rivet hole diameter and count cannot be "
+                         "negative", where or None)
+    if not (0.0 < section.shear_lag_U <= 1.0):
+        raise InputError(f"member {member}: shear lag factor U must be in (0, 1], got "
+                         f"{section.shear_lag_U!r}", where or None)
+    c = section.connectors
+    if c is not None:
+        if c.spacing_in is not None:
+            _pos(c.spacing_in, "connector spacing (in)", member, where)
+        if c.r_i_in is not None:
+            _pos(c.r_i_in, "component radius of gyration r_i (in)", member, where)
+    by_part = tuple(part_rectangles(p) for p in section.parts)
+    rects = [r for rs in by_part for r in rs]
+    Ag = _rects_area_in2(rects)
+    t_h = max(r.t_in for r in rects)
+    if section.holes_per_section * section.hole_diameter_in * t_h >= Ag:
+        raise InputError(f"member {member}: the rivet holes ({section.holes_per_section} "
+                         f"x {section.hole_diameter_in:g} in) remove the whole section",
+                         where or None)
+    return by_part
 
 
 # --------------------------------------------------------------------------------------------
@@ -357,7 +380,7 @@ def gross_area_as_built_in2(section: Section) -> float:
     if isinstance(section, RodSet):
         return section.count * float(rod_area_in2(section.diameter_in, section.shape))
     if isinstance(section, BuiltUpSection):
-        return area_properties([r for p in section.parts for r in part_rectangles(p)]).A_in2
+        return _rects_area_in2([r for p in section.parts for r in part_rectangles(p)])
     return section.area_in2
 
 
@@ -670,7 +693,12 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
 
     Closed-form section properties (rectangles, parallel-axis theorem). [common practice]
     """
-    validate_section(section, member, where)
+    if isinstance(section, BuiltUpSection):
+        work: _BuiltUpWork | None = _BuiltUpWork(section,
+                                                 _validated_rectangles(section, member, where))
+    else:
+        validate_section(section, member, where)
+        work = None
     warnings: list[str] = []
     assumptions: list[str] = []
     comps = _components(section, member)
@@ -728,7 +756,8 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
         fs = tuple(dict.fromkeys(lo.finding for lo in acting)) + removal_findings
         locations.append((Location(region, station, fs), acting))
 
-    builder = _BUILDERS[type(section)]
+    # a built-up section shares its as-built geometry and repeated states between the builds
+    builder = work.at if work is not None else _BUILDERS[type(section)]
     as_built = builder(section, member, Location(None, None, ()), [], frozenset(), frozenset(),
                        warnings, assumptions, record=False)
     gone = frozenset(removed)
@@ -841,11 +870,10 @@ def _rod_at(section: RodSet, member: str, loc: Location, acting: Sequence[_Loss]
     return SectionAtLocation(loc, Ag, An, rods=tuple(rods))
 
 
-def _open_axis(parts_rects: dict[str, list[Rect]], whole: AreaProperties) -> str:
+def _open_axis(part_props: Iterable[AreaProperties], whole: AreaProperties) -> str:
     """The axis on which the connectors work: the one whose I owes most to part offsets."""
     own_x = own_y = 0.0
-    for rects in parts_rects.values():
-        p = area_properties(rects)
+    for p in part_props:
         own_x += p.I_x_in4
         own_y += p.I_y_in4
     share_x = 1.0 - own_x / whole.I_x_in4 if whole.I_x_in4 > 0 else 0.0
@@ -853,62 +881,143 @@ def _open_axis(parts_rects: dict[str, list[Rect]], whole: AreaProperties) -> str
     return "x" if share_x >= share_y else "y"
 
 
-def _builtup_at(section: BuiltUpSection, member: str, loc: Location, acting: Sequence[_Loss],
-                gone: frozenset[str], _bent: frozenset[str], warnings: list[str],
-                assumptions: list[str], *, record: bool) -> SectionAtLocation:
-    by_part: dict[str, list[Rect]] = {}
-    kinds: dict[str, Part] = {}
-    for p in section.parts:
-        key = p.label.strip().lower()
-        if key in gone:
-            continue
-        t_ref = part_reference_thickness_in(p)
-        rects = []
-        for r in part_rectangles(p):
-            t_new = _min_left(r.t_in, t_ref, acting, key)
-            if t_new <= 0.0 and any(key in lo.components for lo in acting):
-                warnings.append(f"member {member}: the loss recorded on part {p.label} takes "
-                                f"away its whole {r.element} ({r.t_in:g} in) at "
-                                f"{loc.describe()}")
-            if t_new > 0.0:
-                rects.append(r.thinned(t_new))
-        if rects:
-            by_part[key] = rects
-            kinds[key] = p
-    all_rects = [r for rs in by_part.values() for r in rs]
-    props = area_properties(all_rects)
-    Ag = props.A_in2
-    t_h0 = max(r.t_in for p in section.parts for r in part_rectangles(p))
-    # holes through the thickest element, at its as-built thickness (conservative)
-    An = max(Ag - section.holes_per_section * section.hole_diameter_in * t_h0, 0.0)
-    if record and section.holes_per_section:
-        assumptions.append(f"member {member}: each of the {section.holes_per_section} rivet "
-                           f"holes ({section.hole_diameter_in:g} in) is deducted through the "
-                           f"thickest element at its as-built thickness ({t_h0:g} in) for the "
-                           "net area (conservative where that element has lost thickness)")
-    elements = tuple(ElementAtLocation(r.part, r.element, r.b_in, r.t_in, r.stiffened)
-                     for r in all_rects)
-    c = section.connectors
-    r_i = None
-    axis = None
-    if c is not None and c.kind is not ConnectorKind.SOLID and len(by_part) >= 2 and Ag > 0:
+@dataclass(frozen=True)
+class _BuiltUpState:
+    """What is left of a built-up section with some parts gone and some losses acting.
+
+    ``zeroed`` lists (part label, element, as-built thickness) of the elements the losses
+    take away whole; ``main_only`` says r_i came from the channels and angles alone.
+    """
+
+    zeroed: tuple[tuple[str, str, float], ...]
+    props: AreaProperties
+    A_n_in2: float
+    elements: tuple[ElementAtLocation, ...]
+    r_i_in: float | None
+    modified_axis: str | None
+    main_only: bool
+
+
+class _BuiltUpWork:
+    """The work on one built-up section that ``section_properties`` shares between builds.
+
+    The as-built rectangles, the thickest element and the connectors' axis do not depend on
+    the location; the same parts gone with the same losses acting (the as-built, tension and
+    compression builds of a location, as a rule) give the same state, worked out once. It
+    lives for one ``section_properties`` call only (no state outlives it); the key of a state
+    is the identity of its ``_Loss`` objects, which live as long as the call.
+    """
+
+    __slots__ = ("section", "parts", "t_h0", "_part_props", "_whole", "_axis", "_states")
+
+    def __init__(self, section: BuiltUpSection,
+                 rectangles: Sequence[tuple[Rect, ...]]) -> None:
+        """``rectangles``: ``part_rectangles`` of each part (validation has made them)."""
+        self.section = section
+        # (key, part, reference thickness, as-built rectangles), in the order of the parts
+        self.parts = tuple((p.label.strip().lower(), p, part_reference_thickness_in(p), rects)
+                           for p, rects in zip(section.parts, rectangles, strict=True))
+        self.t_h0 = max(r.t_in for _, _, _, rects in self.parts for r in rects)
+        self._part_props: dict[str, AreaProperties] = {}
+        self._whole: AreaProperties | None = None
+        self._axis: str | None = None
+        self._states: dict[tuple[frozenset[str], tuple[int, ...]], _BuiltUpState] = {}
+
+    def _as_built_part_props(self, key: str, rects: tuple[Rect, ...]) -> AreaProperties:
+        props = self._part_props.get(key)
+        if props is None:
+            props = self._part_props[key] = area_properties(rects)
+        return props
+
+    def _whole_as_built(self) -> AreaProperties:
+        if self._whole is None:
+            self._whole = area_properties([r for _, _, _, rects in self.parts for r in rects])
+        return self._whole
+
+    def _open_axis(self) -> str:
         # the axis the connectors work on is a property of the member as built
-        whole = {p.label.strip().lower(): list(part_rectangles(p)) for p in section.parts}
-        axis = _open_axis(whole, area_properties([r for rs in whole.values() for r in rs]))
-        if c.r_i_in is not None:
-            r_i = c.r_i_in
-        else:
-            main = [k for k, p in kinds.items() if isinstance(p, ChannelPart | AnglePart)] \
-                or list(kinds)
-            r_i = min(area_properties(by_part[k]).r_min_in for k in main)
-            if record:
-                assumptions.append(f"member {member}: r_i (one component between connectors) "
-                                   "taken as the least principal r of its "
-                                   + ("channels and angles" if len(main) < len(kinds)
-                                      else "parts") + " after loss")
-    return SectionAtLocation(loc, Ag, An, props.r_x_in, props.r_y_in, props,
-                             elements=elements, r_i_in=r_i, modified_axis=axis,
-                             shear_lag_U=section.shear_lag_U)
+        if self._axis is None:
+            self._axis = _open_axis((self._as_built_part_props(k, rects)
+                                     for k, _, _, rects in self.parts), self._whole_as_built())
+        return self._axis
+
+    def state(self, acting: Sequence[_Loss], gone: frozenset[str]) -> _BuiltUpState:
+        """The section with the parts ``gone`` out and the losses ``acting`` applied."""
+        key = (gone, tuple(id(lo) for lo in acting))
+        st = self._states.get(key)
+        if st is None:
+            st = self._states[key] = self._compute(acting, gone)
+        return st
+
+    def _compute(self, acting: Sequence[_Loss], gone: frozenset[str]) -> _BuiltUpState:
+        section = self.section
+        zeroed: list[tuple[str, str, float]] = []
+        # kept parts: (key, part, rectangles left, as built?)
+        kept: list[tuple[str, Part, tuple[Rect, ...], bool]] = []
+        for key, p, t_ref, rects0 in self.parts:
+            if key in gone:
+                continue
+            if not any(key in lo.components for lo in acting):
+                kept.append((key, p, rects0, True))  # no loss on this part: as built
+                continue
+            rects = []
+            for r in rects0:
+                t_new = _min_left(r.t_in, t_ref, acting, key)
+                if t_new <= 0.0:
+                    zeroed.append((p.label, r.element, r.t_in))
+                if t_new > 0.0:
+                    # _min_left gives back the as-built thickness itself when nothing is lost
+                    rects.append(r if t_new is r.t_in else r.thinned(t_new))
+            if rects:
+                kept.append((key, p, tuple(rects), False))
+        all_rects = [r for _, _, rects, _ in kept for r in rects]
+        whole = len(kept) == len(self.parts) and all(k[3] for k in kept)
+        props = self._whole_as_built() if whole else area_properties(all_rects)
+        Ag = props.A_in2
+        # holes through the thickest element, at its as-built thickness (conservative)
+        An = max(Ag - section.holes_per_section * section.hole_diameter_in * self.t_h0, 0.0)
+        elements = tuple(ElementAtLocation(r.part, r.element, r.b_in, r.t_in, r.stiffened)
+                         for r in all_rects)
+        c = section.connectors
+        r_i = None
+        axis = None
+        main_only = False
+        if c is not None and c.kind is not ConnectorKind.SOLID and len(kept) >= 2 and Ag > 0:
+            axis = self._open_axis()
+            if c.r_i_in is not None:
+                r_i = c.r_i_in
+            else:
+                main = [k for k in kept if isinstance(k[1], ChannelPart | AnglePart)] or kept
+                r_i = min((self._as_built_part_props(k, rects) if as_built
+                           else area_properties(rects)).r_min_in
+                          for k, _, rects, as_built in main)
+                main_only = len(main) < len(kept)
+        return _BuiltUpState(tuple(zeroed), props, An, elements, r_i, axis, main_only)
+
+    def at(self, section: BuiltUpSection, member: str, loc: Location,
+           acting: Sequence[_Loss], gone: frozenset[str], _bent: frozenset[str],
+           warnings: list[str], assumptions: list[str], *, record: bool) -> SectionAtLocation:
+        """The section at ``loc`` (the builder signature of ``_BUILDERS``)."""
+        st = self.state(acting, gone)
+        for label, element, t_in in st.zeroed:
+            warnings.append(f"member {member}: the loss recorded on part {label} takes "
+                            f"away its whole {element} ({t_in:g} in) at {loc.describe()}")
+        if record and section.holes_per_section:
+            assumptions.append(f"member {member}: each of the {section.holes_per_section} "
+                               f"rivet holes ({section.hole_diameter_in:g} in) is deducted "
+                               f"through the thickest element at its as-built thickness "
+                               f"({self.t_h0:g} in) for the net area (conservative where "
+                               "that element has lost thickness)")
+        if record and st.r_i_in is not None and section.connectors.r_i_in is None:
+            assumptions.append(f"member {member}: r_i (one component between connectors) "
+                               "taken as the least principal r of its "
+                               + ("channels and angles" if st.main_only else "parts")
+                               + " after loss")
+        props = st.props
+        return SectionAtLocation(loc, props.A_in2, st.A_n_in2, props.r_x_in, props.r_y_in,
+                                 props, elements=st.elements, r_i_in=st.r_i_in,
+                                 modified_axis=st.modified_axis,
+                                 shear_lag_U=section.shear_lag_U)
 
 
 def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequence[_Loss],
@@ -930,5 +1039,5 @@ def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequenc
                              shear_lag_U=section.shear_lag_U)
 
 
-_BUILDERS = {EyebarSet: _eyebar_at, RodSet: _rod_at, BuiltUpSection: _builtup_at,
-             RolledShape: _rolled_at}
+# a built-up section is built by its _BuiltUpWork (section_properties makes one per call)
+_BUILDERS = {EyebarSet: _eyebar_at, RodSet: _rod_at, RolledShape: _rolled_at}

@@ -15,6 +15,7 @@ from hypothesis import strategies as st
 
 from rating.capacity.checks import Sense
 from rating.capacity.member import member_capacity
+from rating.capacity.sections import gross_area_as_built_in2
 from rating.errors import InputError
 from rating.model import (
     BarState,
@@ -276,3 +277,15 @@ def test_a_corroded_slender_part_never_weakens_the_member():
     assert c_without <= c_corroded * (1 + 1e-9)
     mc = member_capacity(MemberDesign("M", s, STEEL), MemberRole.DIAGONAL, L, corroded, False)
     assert any("C2 taken as not carrying compression" in a for a in mc.assumptions)
+
+
+def test_as_built_gross_area_in_the_summary():
+    # the summary takes a built-up member's as-built area from its as-built build: the same
+    # sum of rectangle areas as gross_area_as_built_in2 (self-weight), to the bit
+    s = BuiltUpSection(parts=(PlatePart("Cover", 14.0, 0.375, y_in=5.2),
+                              ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0,
+                                          toes=ChannelToes.LEFT),
+                              ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0)))
+    fs = (Finding("M", "C1", percent_loss=30), Finding("M", "C2", bar_state=BarState.LOOSE))
+    cap = member_capacity(MemberDesign("M", s, STEEL), MemberRole.TOP_CHORD, L, fs, False)
+    assert cap.summary.A_g_as_built_in2 == gross_area_as_built_in2(s)

@@ -3,6 +3,12 @@
 Closed forms: rectangle b h^3 / 12 and the parallel-axis theorem (any mechanics of materials
 text); channel and angle areas from their rectangles. Eyebar and rod areas from their
 dimensions. The library cross-check is in tests/reference/test_sections_sectionproperties.py.
+
+``section_properties`` works a built-up section out once per distinct state (parts gone, losses
+acting) and shares it between the as-built, tension and compression builds; the last tests
+rebuild every location from scratch by the rules of ``rating.capacity.sections`` (loss evenly
+off both faces, a remaining thickness sets the depth of loss from the part's reference
+element, removed parts out, bent parts out in compression) and expect the same to the bit.
 """
 
 from __future__ import annotations
@@ -12,10 +18,14 @@ import math
 import pytest
 
 from rating.capacity.sections import (
+    REMOVING_STATES,
     THREADED_ROOT_AREA_RATIO,
+    AreaProperties,
+    Rect,
     area_properties,
     gross_area_as_built_in2,
     part_rectangles,
+    part_reference_thickness_in,
     section_properties,
 )
 from rating.errors import InputError
@@ -270,3 +280,108 @@ def test_bad_sections(section, needle):
         section_properties(section, member="U3U4", where="Sections!C12")
     assert ei.value.where == "Sections!C12"
     assert "member U3U4" in str(ei.value) and needle in str(ei.value)
+
+
+CHORD = BuiltUpSection(
+    parts=(PlatePart("Cover", 16.0, 0.5, y_in=6.25),
+           ChannelPart("C1", 12.0, 3.0, 0.4, 0.5, x_in=-6.0, toes=ChannelToes.LEFT),
+           ChannelPart("C2", 12.0, 3.0, 0.4, 0.5, x_in=6.0, toes=ChannelToes.RIGHT),
+           AnglePart("L1", 3.0, 3.0, 0.375, x_in=-6.0, y_in=-6.0, x_sign=1, y_sign=1)),
+    connectors=Connectors(ConnectorKind.LACING, spacing_in=18.0),
+    hole_diameter_in=0.875, holes_per_section=4)
+
+FINDINGS = (
+    Finding("M", "all", percent_loss=10, where="F!A1"),
+    Finding("M", "C1", station_ft=6.0, remaining_thickness_in=0.25, where="F!A2"),
+    Finding("M", "C1", station_ft=6.0, percent_loss=15, where="F!A3"),
+    Finding("M", "C2", FindingRegion.CONNECTION, station_ft=0.0, percent_loss=100, where="F!A4"),
+    Finding("M", "L1", bar_state=BarState.BENT, where="F!A5"),
+    Finding("M", "Cover", station_ft=12.0, remaining_thickness_in=0.3, where="F!A6"),
+)
+
+
+def _plain_area_properties(rects: list[Rect]) -> AreaProperties:
+    """I = sum(b h^3 / 12 + A d^2) in plain left-to-right sums (textbook form)."""
+    A = sum(r.bx_in * r.by_in for r in rects)
+    xc = sum(r.bx_in * r.by_in * r.cx_in for r in rects) / A
+    yc = sum(r.bx_in * r.by_in * r.cy_in for r in rects) / A
+    Ix = sum(r.bx_in * r.by_in**3 / 12 + r.bx_in * r.by_in * (r.cy_in - yc) ** 2 for r in rects)
+    Iy = sum(r.by_in * r.bx_in**3 / 12 + r.bx_in * r.by_in * (r.cx_in - xc) ** 2 for r in rects)
+    Ixy = sum(r.bx_in * r.by_in * (r.cx_in - xc) * (r.cy_in - yc) for r in rects)
+    return AreaProperties(A, xc, yc, Ix, Iy, Ixy)
+
+
+def _left(r: Rect, t_ref: float, f: Finding) -> float:
+    if f.remaining_thickness_in is not None:
+        return max(r.t_in - max(t_ref - min(f.remaining_thickness_in, t_ref), 0.0), 0.0)
+    return r.t_in * (1.0 - f.percent_loss / 100.0)
+
+
+def _rebuilt(section: BuiltUpSection, findings: tuple[Finding, ...], out: frozenset[str]):
+    """The rectangles left at a location, each part from scratch."""
+    kept: dict[str, tuple[object, list[Rect]]] = {}
+    for p in section.parts:
+        key = p.label.lower()
+        if key in out:
+            continue
+        t_ref = part_reference_thickness_in(p)
+        rects = []
+        for r in part_rectangles(p):
+            t = r.t_in
+            for f in findings:
+                if f.bar_state in REMOVING_STATES or f.component.lower() not in ("all", key):
+                    continue
+                if f.remaining_thickness_in is None and f.percent_loss is None:
+                    continue
+                t = min(t, _left(r, t_ref, f))
+            if t > 0.0:
+                rects.append(r.thinned(t))
+        if rects:
+            kept[key] = (p, rects)
+    return kept
+
+
+@pytest.mark.parametrize("findings", [(), FINDINGS, FINDINGS[:2] + FINDINGS[4:],
+                                      FINDINGS + (Finding("M", "C2", bar_state=BarState.LOOSE),)])
+def test_every_location_matches_a_build_from_scratch(findings):
+    r = section_properties(CHORD, member="M", findings=findings, length_ft=24.0)
+    removed = frozenset(c for c, _ in r.removed)
+    bent = frozenset(c for c, _ in r.bent)
+    whole = {p.label.lower(): part_rectangles(p) for p in CHORD.parts}
+    t_h0 = max(r_.t_in for rs in whole.values() for r_ in rs)
+    own = [area_properties(rs) for rs in whole.values()]
+    as_built = area_properties([r_ for rs in whole.values() for r_ in rs])
+    share_x = 1 - sum(p.I_x_in4 for p in own) / as_built.I_x_in4
+    share_y = 1 - sum(p.I_y_in4 for p in own) / as_built.I_y_in4
+    axis = "x" if share_x >= share_y else "y"
+    builds = [(s, removed) for s in r.tension] + [(s, removed | bent) for s in r.compression]
+    builds.append((r.as_built, frozenset()))
+    for s, out in builds:
+        kept = _rebuilt(CHORD, s.location.findings, out)
+        rects = [r_ for _, rs in kept.values() for r_ in rs]
+        props = area_properties(rects)
+        assert s.properties == props, s.location.describe()
+        assert (s.A_g_in2, s.r_x_in, s.r_y_in) == (props.A_in2, props.r_x_in, props.r_y_in)
+        assert s.A_n_in2 == max(props.A_in2 - 4 * 0.875 * t_h0, 0.0)
+        assert [(e.part, e.element, e.b_in, e.t_in) for e in s.elements] == \
+            [(r_.part, r_.element, r_.b_in, r_.t_in) for r_ in rects]
+        assert s.modified_axis == (axis if len(kept) >= 2 else None)
+        main = [k for k, (p, _) in kept.items() if isinstance(p, ChannelPart | AnglePart)] \
+            or list(kept)
+        r_i = min(area_properties(kept[k][1]).r_min_in for k in main) if len(kept) >= 2 \
+            else None
+        assert s.r_i_in == r_i
+        # the closed form in plain sums agrees to rounding
+        plain = _plain_area_properties(rects)
+        for name in ("A_in2", "x_c_in", "y_c_in", "I_x_in4", "I_y_in4"):
+            assert getattr(props, name) == pytest.approx(getattr(plain, name), rel=1e-12,
+                                                         abs=1e-9)
+
+
+def test_a_whole_element_lost_is_said_at_its_location():
+    r = section_properties(CHORD, member="M", findings=FINDINGS, length_ft=24.0)
+    assert len(r.tension) == 5  # whole member; body: whole length, 6 ft, 12 ft; connection
+    said = [w for w in r.warnings if "takes away its whole" in w]
+    # C2 at the connection: web and both flanges, once each although built twice (bent L1
+    # makes the compression build differ)
+    assert len(said) == 3 and all("part C2" in w and "F!A4" in w for w in said)
