@@ -163,12 +163,12 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     E, Fy = material.E, material.F_y
     C = report.compression
     L_in = length_ft * 12.0
-    A = np.array([s.A_g_in2 for s in C])
-    rx = np.array([s.r_x_in for s in C])
-    ry = np.array([s.r_y_in for s in C])
-    with np.errstate(divide="ignore"):
-        klr_x = np.where(rx > 0, K * L_in / np.where(rx > 0, rx, 1.0), np.inf)
-        klr_y = np.where(ry > 0, K * L_in / np.where(ry > 0, ry, 1.0), np.inf)
+    # a handful of locations: plain Python lists (numpy's call overhead would dominate); each
+    # value is the same IEEE operation as the element-wise numpy form (no r: KL/r infinite)
+    A = [s.A_g_in2 for s in C]
+    KL_in = K * L_in
+    klr_x = [KL_in / s.r_x_in if s.r_x_in > 0 else math.inf for s in C]
+    klr_y = [KL_in / s.r_y_in if s.r_y_in > 0 else math.inf for s in C]
     use_mod = (connectors is not None and connectors.kind is not ConnectorKind.SOLID)
     if use_mod:
         # the lacing or battens themselves are not rated (common practice: they are taken as
@@ -206,7 +206,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                 warnings.append(f"member {m}: a/r_i = {ratio:.0f} between connectors exceeds "
                                 f"3/4 of the member's KL/r = {gov:.0f} (AISC 360-10 E6.2, value "
                                 "from memory); the components may buckle between connectors")
-    klr = np.maximum(klr_x, klr_y)
+    # np.maximum's rule: the first on a tie, NaN if either is NaN
+    klr = [x if x >= y or x != x else y for x, y in zip(klr_x, klr_y, strict=True)]
     Qs = []
     for s in C:
         q, notes = _Q_at(s, Fy, E)
@@ -215,9 +216,9 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
             warnings.append(f"member {m}: slender stiffened element(s) at {s.location.describe()}"
                             f" ({'; '.join(notes)}); LRFD 6.9.4.2 limit exceeded, effective-"
                             "width factor Q_a not computed (unconservative)")
-    Q = np.array(Qs)
-    Pn = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, np.where(np.isfinite(klr),
-                                                                          klr, 1e9), Q))
+    Q = Qs
+    Pn = np.atleast_1d(nominal_compressive_resistance(
+        A, Fy, E, [v if math.isfinite(v) else 1e9 for v in klr], Q))
     k = int(np.argmin(Pn))
     if Q[k] < 1.0:
         warnings.append(f"member {m}: slender unstiffened element(s); Q = {Q[k]:.3f} reduces the "

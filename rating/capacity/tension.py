@@ -82,10 +82,14 @@ def _governing(name: str, phi: float, provision: str,
                nominal: Callable[[SectionAtLocation], float],
                detail: Callable[[SectionAtLocation], str]) -> Check:
     """The check at the location with the least nominal resistance (first on a tie)."""
-    values = np.array([nominal(s) for s in candidates], dtype=float)
-    k = int(np.argmin(values))
+    values = [float(nominal(s)) for s in candidates]
+    if values and all(v == v for v in values):
+        # a handful of locations: plain Python finds the first least value as np.argmin does
+        k = min(range(len(values)), key=values.__getitem__)
+    else:
+        k = int(np.argmin(np.array(values, dtype=float)))  # numpy's rules for NaN or none
     s = candidates[k]
-    return Check(name, Sense.TENSION, phi, float(values[k]), provision, s.location, detail(s))
+    return Check(name, Sense.TENSION, phi, values[k], provision, s.location, detail(s))
 
 
 def _in(regions: set[FindingRegion | None], tension: Sequence[SectionAtLocation]):
@@ -138,8 +142,16 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             lambda s: f"{len(s.eyebars)} bars, A_body = "
                       f"{sum(b.body_area_in2 for b in s.eyebars):.3f} in2, F_y = {Fy:g} ksi"))
 
+        arrays: dict[tuple[int, str], np.ndarray] = {}
+
         def _arr(s: SectionAtLocation, name: str) -> np.ndarray:
-            return np.array([getattr(b, name) for b in s.eyebars], dtype=float)
+            # each array once per location (several checks and their details read it); the
+            # locations live as long as this call, so their ids are a safe key
+            key = (id(s), name)
+            a = arrays.get(key)
+            if a is None:
+                a = arrays[key] = np.array([getattr(b, name) for b in s.eyebars], dtype=float)
+            return a
 
         def _beff(s: SectionAtLocation) -> np.ndarray:
             return pin_plate_effective_width_in(_arr(s, "head_thickness_in"),
@@ -149,8 +161,8 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             checks.append(_governing(
                 "eyebar head, tension through the pin hole (pin-plate form)", phi_pin_plate,
                 "AISC LRFD 1999 D3.1(a), Eq. D3-1 [V]; phi 0.75 [value from memory]", head,
-                lambda s: float(np.sum(pin_plate_tension_nominal(
-                    _arr(s, "head_thickness_in"), _arr(s, "side_edge_in"), Fu))),
+                lambda s: _total(pin_plate_tension_nominal(
+                    _arr(s, "head_thickness_in"), _arr(s, "side_edge_in"), Fu)),
                 lambda s: f"{len(s.eyebars)} heads, t_h = "
                           f"{_fmt(_arr(s, 'head_thickness_in'))} in, b_eff = "
                           f"{_fmt(_beff(s))} in, F_u = {Fu:g} ksi"))
@@ -165,9 +177,9 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
         checks.append(_governing(
             "eyebar head, shear beyond the pin hole", phi_pin_plate,
             "AISC LRFD 1999 D3.1(b), Eq. D3-2 [V]; phi 0.75 [value from memory]", head,
-            lambda s: float(np.sum(pin_plate_shear_nominal(
+            lambda s: _total(pin_plate_shear_nominal(
                 _arr(s, "head_thickness_in"), _arr(s, "beyond_hole_in"),
-                _arr(s, "hole_diameter_in"), Fu))),
+                _arr(s, "hole_diameter_in"), Fu)),
             lambda s: f"{len(s.eyebars)} heads, a = {_fmt(_arr(s, 'beyond_hole_in'))} in, "
                       f"d = {_fmt(_arr(s, 'hole_diameter_in'))} in, F_u = {Fu:g} ksi"))
         warnings.extend(_eyebar_proportions(report, head_ratio_min, beyond_ratio_min))
@@ -205,8 +217,13 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
     return TensionResult(tuple(checks), tuple(warnings), tuple(assumptions))
 
 
+def _total(a: np.ndarray) -> float:
+    """The sum over the bars, as ``np.sum`` makes it (its own call, less the wrapper)."""
+    return float(np.add.reduce(a, axis=None))
+
+
 def _fmt(a: np.ndarray) -> str:
-    vals = sorted({round(float(v), 4) for v in np.atleast_1d(a)})
+    vals = sorted({round(v, 4) for v in np.atleast_1d(a).tolist()})  # Python floats
     return "/".join(f"{v:g}" for v in vals) if vals else "-"
 
 

@@ -7,10 +7,12 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pytest
 
 from rating.capacity.sections import section_properties
 from rating.capacity.tension import (
+    _governing,
     fracture_nominal,
     pin_plate_effective_width_in,
     pin_plate_shear_nominal,
@@ -143,3 +145,24 @@ def test_builtup_yield_fracture_and_slenderness_warning():
     assert any("exceeds 200" in x for x in w)
     w2 = tension_checks(r, STEEL, role=MemberRole.SUB_TIE, length_ft=20.0).warnings
     assert any("exceeds 240" in x for x in w2)
+
+
+class _Loc:
+    """A stand-in location with a nominal resistance ``v``."""
+
+    def __init__(self, v: float, k: int) -> None:
+        self.v = v
+        self.location = f"location {k}"
+
+
+@pytest.mark.parametrize("values", [[3.0], [2.0, 1.0, 1.0, 4.0], [1.0, 1.0], [5.0, -0.0, 0.0],
+                                    [2.0, math.nan, 1.0], [math.nan, 1.0], [1.0, math.inf]])
+def test_governing_location_is_numpys_first_least(values):
+    # the governing location is the one np.argmin picks (first on a tie, the first NaN),
+    # found in plain Python for a handful of locations
+    c = _governing("x", 1.0, "", [_Loc(v, k) for k, v in enumerate(values)], lambda s: s.v,
+                   lambda s: "")
+    k = int(np.argmin(np.array(values)))
+    assert c.location == f"location {k}"
+    assert math.copysign(1.0, c.R_n_kip) == math.copysign(1.0, values[k])
+    assert c.R_n_kip == values[k] or (math.isnan(c.R_n_kip) and math.isnan(values[k]))
