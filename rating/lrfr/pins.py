@@ -655,6 +655,20 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
             for i, h in enumerate(here)]
 
 
+def _stacks(pins: list[int], here: list[_PinAtJoint], spread: float = 1.3
+            ) -> list[list[int]]:
+    """The pins searched together: by the number of their checked vectors, each stack
+    within ``spread`` of its smallest (a stack pads every pin to its largest)."""
+    size = {i: here[i].T.shape[1] for i in pins}
+    out: list[list[int]] = []
+    for i in sorted(pins, key=lambda i: size[i]):
+        if out and size[i] <= spread * size[out[-1][0]]:
+            out[-1].append(i)
+        else:
+            out.append([i])
+    return out
+
+
 def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads: LoadPaths,
               dependent: frozenset[str]) -> tuple[PinRating, ...]:
     """Rate every pin for every case of every load (see the module docstring), the pins
@@ -667,8 +681,7 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
     here = [_pin_at_joint(pin, g, designs, N_dead, dependent) for pin in pins]
     found: dict[int, _Found] = {}
     for linear in (True, False):
-        mine = [i for i, h in enumerate(here) if h.linear == linear]
-        if mine:
+        for mine in _stacks([i for i, h in enumerate(here) if h.linear == linear], here):
             found.update(zip(mine, _search([here[i] for i in mine], loads, linear),
                              strict=True))
     return tuple(_rate_one(here[i], found[i], g, designs, loads) for i in range(len(here)))
