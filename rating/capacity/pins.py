@@ -394,6 +394,36 @@ def _material(pin: Pin, default: Material | None, assumptions: list[str]) -> Mat
     return md.material
 
 
+@dataclass(frozen=True, eq=False)
+class PinPrepared:
+    """A pin's packing layout and material for the members at its joint (in this order),
+    worked out once: the checks of several load states share it (:func:`prepare_pin`)."""
+
+    pin: Pin
+    members: tuple[str, ...]
+    has_external: bool
+    material: Material
+    layout: _Layout
+    warnings: tuple[str, ...]
+    assumptions: tuple[str, ...]  # of the material, then of the layout
+
+
+def prepare_pin(pin: Pin, members: Sequence[str], directions: Sequence[tuple[float, float]],
+                *, has_external: bool = True,
+                designs: Mapping[str, MemberDesign] | None = None,
+                default_pin_material: Material | None = None,
+                max_clearance_in: float = 0.25) -> PinPrepared:
+    """The layout of :func:`pin_check` (and :class:`PinModel`) for these members, once."""
+    warnings: list[str] = []
+    assumptions: list[str] = []
+    mat = _material(pin, default_pin_material, assumptions)
+    actions = [MemberAction(m, 0.0, d) for m, d in zip(members, directions, strict=True)]
+    lay = _layout(pin, actions, has_external, mat.F_y, designs, warnings, assumptions,
+                  max_clearance_in)
+    return PinPrepared(pin, tuple(members), has_external, mat, lay, tuple(warnings),
+                       tuple(assumptions))
+
+
 def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
               external_kip: tuple[float, float] | None = None,
               designs: Mapping[str, MemberDesign] | None = None,
@@ -401,7 +431,8 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
               phi_f: float = PHI_F, phi_v: float = PHI_V, phi_b: float = PHI_B,
               limit: float = INTERACTION_LIMIT, gamma_M0: float = GAMMA_M0,
               gamma_M2: float = GAMMA_M2, max_clearance_in: float = 0.25,
-              equilibrium_tolerance: float = 1e-3) -> PinCheck:
+              equilibrium_tolerance: float = 1e-3,
+              prepared: PinPrepared | None = None) -> PinCheck:
     """Moment, shear and bearing of a pin under the concurrent member forces of ONE load state.
 
     AASHTO LRFD 6.7.6.2.1-1 and 6.7.6.2.2-2 [value from memory]; loading Berg Parts 10-15 [V].
@@ -416,6 +447,8 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
         max_clearance_in: a hole larger than the pin by more than this is taken as a data
             error (common practice); more than 1/32 in is a warning.
         equilibrium_tolerance: relative tolerance of the force and moment balance check.
+        prepared: the layout worked out before (:func:`prepare_pin`) for these members in
+            this order, with the same designs, material and clearance; used when it fits.
     """
     warnings: list[str] = []
     assumptions: list[str] = [
@@ -428,10 +461,21 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
         "values from memory; its combined bending-shear criterion, written for replaceable "
         "pins, is applied to every pin)",
     ]
-    mat = _material(pin, default_pin_material, assumptions)
+    if (prepared is not None and prepared.pin is pin
+            and prepared.has_external == (external_kip is not None)
+            and prepared.members == tuple(a.member for a in actions)):
+        for a in actions:
+            if not _num(a.force_kip):
+                raise InputError(f"pin at joint {pin.joint}: force of member {a.member} is "
+                                 "not a number", _where(pin))
+        mat, lay = prepared.material, prepared.layout
+        warnings.extend(prepared.warnings)
+        assumptions.extend(prepared.assumptions)
+    else:
+        mat = _material(pin, default_pin_material, assumptions)
+        lay = _layout(pin, actions, external_kip is not None, mat.F_y, designs, warnings,
+                      assumptions, max_clearance_in)
     D, Fy, Fu = float(pin.diameter_in), mat.F_y, mat.F_u
-    lay = _layout(pin, actions, external_kip is not None, Fy, designs, warnings, assumptions,
-                  max_clearance_in)
     if external_kip is not None and not all(_num(v) for v in external_kip):
         raise InputError(f"pin at joint {pin.joint}: the external load is not a pair of numbers",
                          _where(pin))
@@ -693,11 +737,15 @@ class PinModel:
                  designs: Mapping[str, MemberDesign] | None = None,
                  default_pin_material: Material | None = None, phi_f: float = PHI_F,
                  phi_v: float = PHI_V, phi_b: float = PHI_B, limit: float = INTERACTION_LIMIT,
-                 max_clearance_in: float = 0.25) -> None:
-        actions = [MemberAction(m, 0.0, d) for m, d in zip(members, directions, strict=True)]
-        self.material = _material(pin, default_pin_material, [])
-        self.layout = _layout(pin, actions, has_external, self.material.F_y, designs, [], [],
-                              max_clearance_in)
+                 max_clearance_in: float = 0.25, prepared: PinPrepared | None = None
+                 ) -> None:
+        if prepared is None or prepared.members != tuple(members) \
+                or prepared.has_external != has_external:
+            prepared = prepare_pin(pin, members, directions, has_external=has_external,
+                                   designs=designs, default_pin_material=default_pin_material,
+                                   max_clearance_in=max_clearance_in)
+        self.material = prepared.material
+        self.layout = prepared.layout
         u = np.array(directions, dtype=float).reshape(-1, 2)
         self._unit = u / np.linalg.norm(u, axis=1)[:, None]
         self.D = float(pin.diameter_in)

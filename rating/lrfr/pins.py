@@ -24,10 +24,12 @@ from rating.analysis.regions import LAM_MAX, PathStore, Pieces
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
+    PinPrepared,
     PinStack,
     _length,
     pin_actions,
     pin_check,
+    prepare_pin,
 )
 from rating.lrfr.equation import lower_beyond_round_off
 from rating.lrfr.multiplier import first_of_least
@@ -535,6 +537,7 @@ class _PinAtJoint:
     T: np.ndarray
     dead_check: PinCheck
     linear: bool
+    prepared: PinPrepared
 
 
 def _pin_at_joint(pin: Pin, g: TrussGeometry, designs: Mapping, N_dead: np.ndarray,
@@ -551,13 +554,15 @@ def _pin_at_joint(pin: Pin, g: TrussGeometry, designs: Mapping, N_dead: np.ndarr
     unit /= np.linalg.norm(unit, axis=1)[:, None]
     # the pin under factored dead load alone, for the report and its warnings
     N_dead_here = N_dead[idx]
+    prepared = prepare_pin(pin, members_here, dirs, designs=designs)
     dead_check = pin_check(
         pin, pin_actions(g, pin.joint, dict(zip(members_here, map(float, N_dead_here),
                                                 strict=True))),
-        external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs)
-    model = PinModel(pin, members_here, dirs, designs=designs)
+        external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs,
+        prepared=prepared)
+    model = PinModel(pin, members_here, dirs, designs=designs, prepared=prepared)
     return _PinAtJoint(pin, members_here, idx, unit, model, _projector(model, unit),
-                       dead_check, not (set(members_here) & dependent))
+                       dead_check, not (set(members_here) & dependent), prepared)
 
 
 @dataclass(frozen=True, eq=False)
@@ -728,7 +733,8 @@ def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
         chk = pin_check(pin, pin_actions(g, pin.joint, dict(zip(h.members,
                                                                 map(float, N_here),
                                                                 strict=True))),
-                        external_kip=tuple(_balancing(unit, N_here)), designs=designs)
+                        external_kip=tuple(_balancing(unit, N_here)), designs=designs,
+                        prepared=h.prepared)
         ratings[cid] = replace(ratings[cid], at_rating=chk)
     return PinRating(pin.joint, pin, ratings, h.dead_check, h.dead_check.warnings,
                      h.dead_check.assumptions)

@@ -137,3 +137,23 @@ def test_pins_stacked_give_each_pin_its_own_checks_and_bounds(n0, n1, d):
         lo1, up1 = m.multiplier_bounds(G0, G1)
         assert lo[0] == pytest.approx(lo1[0], rel=1e-14) and up[0] == pytest.approx(up1[0],
                                                                                    rel=1e-14)
+
+
+def test_a_prepared_layout_gives_the_same_check_and_guards_its_members():
+    # the layout worked out once (rating.capacity.pins.prepare_pin) and shared by the checks
+    # of several load states: the same check as one worked out afresh; actions that do not
+    # fit it (another order of the members) get their own
+    from rating.capacity.pins import prepare_pin
+
+    pin = joint_pin([1.0, 0.75, 0.5, 1.25, 0.5, 0.75, 1.0], ORDER)
+    prepared = prepare_pin(pin, list(DIRS), list(DIRS.values()))
+    N = {"C1": -40.0, "C2": 55.0, "D": 30.0, "V": -12.0}
+    fresh = pin_check(pin, actions(N), external_kip=balancing(N))
+    again = pin_check(pin, actions(N), external_kip=balancing(N), prepared=prepared)
+    assert again == fresh
+    turned = list(reversed(actions(N)))
+    assert pin_check(pin, turned, external_kip=balancing(N), prepared=prepared) == \
+        pin_check(pin, turned, external_kip=balancing(N))
+    with pytest.raises(Exception, match="not a number"):
+        pin_check(pin, actions({**N, "D": math.nan}), external_kip=balancing(N),
+                  prepared=prepared)
