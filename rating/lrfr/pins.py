@@ -364,7 +364,51 @@ def _pin_crossings(jn: _Joints, pc: Pieces, src: np.ndarray, which: np.ndarray,
     return lam, N_at, slot, np.where(short & (slot < 0) & np.isinf(lam), target, 0.0)
 
 
-def _gauge_floor(jn: _Joints, store: PathStore, pc: Pieces, p: np.ndarray, src: np.ndarray,
+class _Gauges:
+    """Upper bounds of the gauges g(e_s) of :func:`_gauge_floor`: for each pin of ``jn``, each
+    active set of the store's table and each unit panel load, worked out the first time a
+    set is needed (:func:`_root_below`, with panel loads of the size searched, ``scale``)."""
+
+    def __init__(self, jn: _Joints, store: PathStore, scale: float) -> None:
+        self.jn, self.store, self.scale = jn, store, scale
+        self.g = np.zeros((jn.T.shape[0], 0, store.p.shape[0]))
+        self.known = np.zeros(0, dtype=bool)
+
+    def of(self, used: np.ndarray) -> np.ndarray:
+        """(n_pins, K, S): the gauges, those of the sets ``used`` known (others inf)."""
+        jn, table = self.jn, self.store.table
+        F = table.force_lines()
+        K, S = F.shape[0], F.shape[2]
+        if K > self.known.size:
+            n_new = K - self.known.size
+            self.g = np.concatenate([self.g, np.full((self.g.shape[0], n_new, S), np.inf)],
+                                    axis=1)
+            self.known = np.concatenate([self.known, np.zeros(n_new, dtype=bool)])
+        todo = used[~self.known[used]]
+        if not todo.size:
+            return self.g
+        Fd, _ = table.dead(self.store.key, self.store.P_dead)
+        n_pins, Kp = jn.T.shape[0], jn.stack.K
+        U = todo.size
+        Gd = np.empty((n_pins, U, 1, Kp, 2))
+        Q = np.empty((n_pins, U, S, Kp, 2))
+        for i in range(n_pins):
+            Gd[i] = (Fd[todo][:, jn.cols[i]] @ jn.T[i]).reshape(U, 1, Kp, 2)
+            Q[i] = np.einsum("kns,nc->ksc", F[todo][:, jn.cols[i], :],
+                             jn.T[i]).reshape(U, S, Kp, 2)
+        lam = _root_below(jn.stack, np.repeat(np.arange(n_pins), U * S),
+                          np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
+                          (self.scale * Q).reshape(-1, Kp, 2))
+        # not reached by 1,000 such loads: the gauge is at most 1 / (1,000 scale)
+        lam = np.minimum(lam, 1e3)
+        with np.errstate(divide="ignore"):
+            self.g[:, todo] = np.where(lam > 0, 1.0 / (lam * self.scale),
+                                       np.inf).reshape(n_pins, U, S)
+        self.known[todo] = True
+        return self.g
+
+
+def _gauge_floor(gauges: _Gauges, pc: Pieces, p: np.ndarray, src: np.ndarray,
                  which: np.ndarray, linear: bool) -> np.ndarray:
     """A lower bound (X,) of each row's lam at the pin's limit (row x: the position
     ``src[x]`` with panel loads ``p[:, src[x]]`` and path in ``pc``, at the pin
@@ -376,32 +420,12 @@ def _gauge_floor(jn: _Joints, store: PathStore, pc: Pieces, p: np.ndarray, src: 
     of that set, convex and positively homogeneous. The live load is a sum of panel loads
     p_s >= 0 times the unit panel loads e_s, so g(L) <= sum p_s g(e_s): lam >= 1 / (sum p_s
     g(e_s)), with g(e_s) bounded from above once per pin, set and panel point
-    (:func:`_root_below`). On the position's path the limit lies in one piece, in that
+    (:class:`_Gauges`). On the position's path the limit lies in one piece, in that
     piece's set and not before the piece starts: the least over the pieces that can hold it
     bounds its lam (the set of its first piece alone for a joint whose bars do not depend on
     the active set)."""
-    table = store.table
-    F = table.force_lines()
-    Fd, _ = table.dead(store.key, store.P_dead)
-    K, S = F.shape[0], F.shape[2]
-    n_pins, Kp = jn.T.shape[0], jn.stack.K
     used = np.unique(pc.k[pc.k >= 0]) if not linear else np.unique(pc.k[:, 0][pc.k[:, 0] >= 0])
-    scale = max(float(np.abs(p).max(initial=0.0)), 1.0)  # a panel load of the size searched
-    U = used.size
-    Gd = np.empty((n_pins, U, 1, Kp, 2))
-    Q = np.empty((n_pins, U, S, Kp, 2))
-    for i in range(n_pins):
-        Fi = F[used][:, jn.cols[i], :]  # (U, n, S)
-        Gd[i] = (Fd[used][:, jn.cols[i]] @ jn.T[i]).reshape(U, 1, Kp, 2)
-        Q[i] = np.einsum("kns,nc->ksc", Fi, jn.T[i]).reshape(U, S, Kp, 2)
-    lam = _root_below(jn.stack, np.repeat(np.arange(n_pins), U * S),
-                      np.broadcast_to(Gd, Q.shape).reshape(-1, Kp, 2),
-                      (scale * Q).reshape(-1, Kp, 2))
-    # not reached by 1,000 such loads: the gauge is at most 1 / (1,000 scale)
-    lam = np.minimum(lam, 1e3)
-    with np.errstate(divide="ignore"):
-        g = np.full((n_pins, K, S), np.inf)
-        g[:, used] = np.where(lam > 0, 1.0 / (lam * scale), np.inf).reshape(n_pins, U, S)
+    g = gauges.of(used)
     kk = pc.k[src, :1] if linear else pc.k[src]
     vals = np.zeros(kk.shape)
     for i in np.unique(which).tolist():
@@ -590,11 +614,13 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
     group = which * n_loads + batch.group[src]
     intervals = (np.concatenate([batch.intervals + i * X for i in range(n_pins)])
                  if not linear else None)
+    # (a panel load of the size searched)
+    gauges = _Gauges(jn, store, max(float(np.abs(store.p).max(initial=0.0)), 1.0))
     while True:
         lam, N_at, slot, need = _pin_crossings(
             jn, store.pieces, src, which, group, linear, near=1.0 if linear else 1.1,
             intervals=intervals,
-            floor=_gauge_floor(jn, store, store.pieces, store.p, src, which, linear))
+            floor=_gauge_floor(gauges, store.pieces, store.p, src, which, linear))
         need_x = np.zeros(X)
         np.maximum.at(need_x, src, need)
         if not (need_x.any() and store.complete(need_x)):
@@ -652,7 +678,7 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
             pc_new = store.more(p_new)
             lam_new, N_new, _, _ = _pin_crossings(
                 jn, pc_new, s_new, w_new, w_new * n_loads + np.concatenate(new_group),
-                floor=_gauge_floor(jn, store, pc_new, p_new, s_new, w_new, linear))
+                floor=_gauge_floor(gauges, pc_new, p_new, s_new, w_new, linear))
             for i in np.unique(pin_of).tolist():
                 extra_lam[i], extra_N[i] = lam_new[w_new == i], N_new[w_new == i]
     return [_Found(lam[i * X:(i + 1) * X], N_at[i * X:(i + 1) * X, :len(h.idx)],
