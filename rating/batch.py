@@ -14,6 +14,7 @@ except the command line.
 from __future__ import annotations
 
 import csv
+import gc
 import io
 import math
 import multiprocessing
@@ -132,10 +133,14 @@ def output_stems(workbooks: Sequence[Path]) -> tuple[str, ...]:
 
 # ------------------------------------------------------------------ one workbook (worker)
 
-def _limit_threads() -> None:
-    """Pool initializer: one numeric thread per process (the pool is the parallelism)."""
+def _worker_setup() -> None:
+    """Pool initializer: one numeric thread per process (the pool is the parallelism), and
+    the cyclic garbage collector run less often: a rating makes many short-lived objects
+    that form no cycles, and the default threshold (700) has it scan them all the time
+    (about 5 % of a workbook's time); cycles are still collected."""
     for name in THREAD_ENV:
         os.environ.setdefault(name, "1")
+    gc.set_threshold(100_000, 50, 100)
 
 
 def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
@@ -290,14 +295,19 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
     bar = Progress(len(tasks), progress)
     rows: dict[str, BridgeRow] = {}
     if n == 1:
-        for t in tasks:
-            row = rate_one(t)
-            rows[t.workbook.name] = row
-            bar.update(row)
+        before = gc.get_threshold()
+        gc.set_threshold(100_000, 50, 100)  # as in a worker (_worker_setup), for this run
+        try:
+            for t in tasks:
+                row = rate_one(t)
+                rows[t.workbook.name] = row
+                bar.update(row)
+        finally:
+            gc.set_threshold(*before)
     else:
         ctx = multiprocessing.get_context("spawn")
         with ProcessPoolExecutor(max_workers=n, mp_context=ctx,
-                                 initializer=_limit_threads) as pool:
+                                 initializer=_worker_setup) as pool:
             futures = {pool.submit(rate_one, t): t for t in _largest_first(tasks)}
             for fut in as_completed(futures):
                 t = futures[fut]
