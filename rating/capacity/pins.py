@@ -634,7 +634,7 @@ def _crossing(u, lo: float, hi: float) -> float:
 # --------------------------------------------------------------------------------------------
 
 
-def _length(G: np.ndarray) -> np.ndarray:
+def vector_lengths(G: np.ndarray) -> np.ndarray:
     """Length of each 2-vector of G (..., 2) (moments and forces of a few hundred kip-in: no
     overflow to guard against, so no hypot, several times slower)."""
     x, y = G[..., 0], G[..., 1]
@@ -652,7 +652,7 @@ def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
     F_y, phi_f, phi_v, limit) are numbers or arrays of G's leading shape (one pin per
     state); ``bearing_cap`` (..., n_plates) or None where no plate bears (then bearing
     None)."""
-    g = _length(G)
+    g = vector_lengths(G)
     M = np.maximum(g[..., :n], g[..., n:2 * n])
     V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
                    np.maximum(g[..., 4 * n:5 * n], g[..., 5 * n:6 * n]))
@@ -678,7 +678,7 @@ def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi
     bound below its root. Upper: each vector is at least lam |G1| - |G0| long, so one
     moment, one shear or one plate's bearing alone reaches its limit there.
     """
-    a, b = _length(G0), _length(G1)
+    a, b = vector_lengths(G0), vector_lengths(G1)
     D_, Fy_ = np.asarray(D)[..., None], np.asarray(F_y)[..., None]
     c1 = np.asarray(phi_f)[..., None] * D_**3 * Fy_
     c2 = np.asarray(phi_v)[..., None] * D_**2 * Fy_

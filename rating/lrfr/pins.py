@@ -26,15 +26,22 @@ from rating.capacity.pins import (
     PinModel,
     PinPrepared,
     PinStack,
-    _length,
     pin_actions,
     pin_check,
     prepare_pin,
+    vector_lengths,
 )
 from rating.lrfr.equation import lower_beyond_round_off
 from rating.lrfr.multiplier import first_of_least
 from rating.lrfr.positions import LoadPaths
 from rating.model import Pin, TrussGeometry
+
+CHANGE_POINT_WINDOW = 1.1
+"""Between two neighbouring positions the search for change points (where the pin reaches
+its limit just as a bar of a counter panel passes zero) is made where the least lam at
+either position is within this factor of the load's least: a window of judgement, not a
+proven bound (common practice for a screen). On the bundled samples a window of 3.0 gives
+the same ratings (tests/lrfr/test_pin_window.py)."""
 
 
 @dataclass(frozen=True)
@@ -171,8 +178,8 @@ def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
     lam_hi = np.where(pole, below, np.minimum(below, ends.max(axis=0)))
     reach = ~(lam_hi <= 0.0)  # (no bound where lam_hi is not finite)
     bounded = np.flatnonzero(reach & np.isfinite(lam_hi))
-    lens = _length(GD[bounded]) + lam_hi[bounded, None] * np.maximum(
-        _length(GA[bounded]), _length(GA[bounded] + GdN[bounded]))
+    lens = vector_lengths(GD[bounded]) + lam_hi[bounded, None] * np.maximum(
+        vector_lengths(GA[bounded]), vector_lengths(GA[bounded] + GdN[bounded]))
     reach[bounded] = util(np.stack([lens, np.zeros_like(lens)], axis=-1),
                           which[bounded]) >= 1.0 - 1e-9
     want &= reach[:, None]
@@ -618,7 +625,8 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
     gauges = _Gauges(jn, store, max(float(np.abs(store.p).max(initial=0.0)), 1.0))
     while True:
         lam, N_at, slot, need = _pin_crossings(
-            jn, store.pieces, src, which, group, linear, near=1.0 if linear else 1.1,
+            jn, store.pieces, src, which, group, linear,
+            near=1.0 if linear else CHANGE_POINT_WINDOW,
             intervals=intervals,
             floor=_gauge_floor(gauges, store.pieces, store.p, src, which, linear))
         need_x = np.zeros(X)
@@ -644,7 +652,8 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
                                                       axis=1)[:, 0], -1)
         ia, ib = intervals[:, 0], intervals[:, 1]
         ka, kb = k_at[ia], k_at[ib]
-        ok = (ka >= 0) & (kb >= 0) & (np.minimum(lam[ia], lam[ib]) <= 1.1 * best[group[ia]])
+        ok = (ka >= 0) & (kb >= 0) & (np.minimum(lam[ia], lam[ib])
+                                      <= CHANGE_POINT_WINDOW * best[group[ia]])
         slk = store.table.slack_masks()
         ok[ok] = (slk[ka[ok]] != slk[kb[ok]]).any(axis=1)
         sel = np.flatnonzero(ok)
