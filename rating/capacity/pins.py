@@ -642,11 +642,11 @@ def vector_lengths(G: np.ndarray) -> np.ndarray:
 
 
 def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
-                     bearing_cap: np.ndarray | None
+                     bearing_cap: np.ndarray | None, nv: int = 4
                      ) -> tuple[np.ndarray, np.ndarray | None]:
     """(flexure and shear, bearing) utilizations, 1.0 at each limit, of the projected vectors
     G (..., K, 2) of a pin with ``n`` sections (:class:`PinModel`: moments from the left and
-    the right at each section, the four shears about it, then each plate's force): AASHTO
+    the right at each section, the ``nv`` shears about it, then each plate's force): AASHTO
     LRFD Eq. 6.7.6.2.1-1 with the larger moment and shear at each section, and each plate's
     bearing against ``bearing_cap`` (6.7.6.2.2) [value from memory]. The pin's data (D,
     F_y, phi_f, phi_v, limit) are numbers or arrays of G's leading shape (one pin per
@@ -654,19 +654,19 @@ def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
     None)."""
     g = vector_lengths(G)
     M = np.maximum(g[..., :n], g[..., n:2 * n])
-    V = np.maximum(np.maximum(g[..., 2 * n:3 * n], g[..., 3 * n:4 * n]),
-                   np.maximum(g[..., 4 * n:5 * n], g[..., 5 * n:6 * n]))
+    V = g[..., 2 * n:(2 + nv) * n].reshape(g.shape[:-1] + (nv, n)).max(axis=-2)
     D_, Fy_ = np.asarray(D)[..., None], np.asarray(F_y)[..., None]
     fs = lrfd_flexure_shear(M, V, D_, Fy_, np.asarray(phi_f)[..., None],
                             np.asarray(phi_v)[..., None])
     u_fs = fs.max(axis=-1) / limit
     if bearing_cap is None:
         return u_fs, None
-    return u_fs, (g[..., 6 * n:] / bearing_cap).max(axis=-1)
+    return u_fs, (g[..., (2 + nv) * n:] / bearing_cap).max(axis=-1)
 
 
 def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
-                      bearing_cap: np.ndarray | None) -> tuple[np.ndarray, np.ndarray]:
+                      bearing_cap: np.ndarray | None, nv: int = 4
+                      ) -> tuple[np.ndarray, np.ndarray]:
     """Bounds on the least lam >= 0 at which the utilization (:func:`_projected_parts`) of
     the projected vectors G0 + lam G1 (P, K, 2) reaches 1.0, without solving for it:
     (lower, upper), (P,). The pin's data as in :func:`_projected_parts`, numbers or (P,).
@@ -685,8 +685,9 @@ def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi
     lim = np.asarray(limit)[..., None]
     m_lim, v_lim = lim * c1 / 6.0, lim ** (1.0 / 3.0) * c2 / 2.2
     mA, mB = np.maximum(a[:, :n], a[:, n:2 * n]), np.maximum(b[:, :n], b[:, n:2 * n])
-    vA = a[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
-    vB = b[:, 2 * n:6 * n].reshape(-1, 4, n).max(axis=1)
+    e = (2 + nv) * n  # the end of the shears, the start of the plates
+    vA = a[:, 2 * n:e].reshape(-1, nv, n).max(axis=1)
+    vB = b[:, 2 * n:e].reshape(-1, nv, n).max(axis=1)
 
     # 6 M / c1 + (2.2 V / c2)^3 - limit with M = mA + lam mB, V = vA + lam vB
     m0, m1 = mA * (6.0 / c1), mB * (6.0 / c1)
@@ -713,12 +714,12 @@ def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi
                                                  np.inf)).min(axis=1)
         ub_m = np.where(b[:, :2 * n] > 0, (m_lim + a[:, :2 * n]) / b[:, :2 * n],
                         np.inf).min(axis=1)
-        ub_v = np.where(b[:, 2 * n:6 * n] > 0, (v_lim + a[:, 2 * n:6 * n])
-                        / b[:, 2 * n:6 * n], np.inf).min(axis=1)
+        ub_v = np.where(b[:, 2 * n:e] > 0, (v_lim + a[:, 2 * n:e])
+                        / b[:, 2 * n:e], np.inf).min(axis=1)
         low, up = low_fs, np.minimum(ub_m, ub_v)
         if bearing_cap is not None:
             cap = bearing_cap
-            ap, bp = a[:, 6 * n:], b[:, 6 * n:]
+            ap, bp = a[:, e:], b[:, e:]
             low = np.minimum(low, np.where(ap >= cap, 0.0, np.where(
                 bp > 0, (cap - ap) / bp, np.inf)).min(axis=1))
             up = np.minimum(up, np.where(bp > 0, (cap + ap) / bp, np.inf).min(axis=1))
@@ -737,8 +738,8 @@ class PinModel:
                  designs: Mapping[str, MemberDesign] | None = None,
                  default_pin_material: Material | None = None, phi_f: float = PHI_F,
                  phi_v: float = PHI_V, phi_b: float = PHI_B, limit: float = INTERACTION_LIMIT,
-                 max_clearance_in: float = 0.25, prepared: PinPrepared | None = None
-                 ) -> None:
+                 max_clearance_in: float = 0.25, prepared: PinPrepared | None = None,
+                 balanced: bool = False) -> None:
         if prepared is None or prepared.members != tuple(members) \
                 or prepared.has_external != has_external:
             prepared = prepare_pin(pin, members, directions, has_external=has_external,
@@ -758,10 +759,18 @@ class PinModel:
         # Every force vector the checks need is linear in the point forces: at each section
         # (a point's mid-thickness) the moments from the left and from the right, the shears
         # just before and just after it from the left and from the right, then each plate's
-        # own force for bearing. One matrix W gives them all: W @ F.
+        # own force for bearing. One matrix W gives them all: W @ F. Where every state is in
+        # balance (``balanced``: the caller adds the external force that balances the bars,
+        # and each member's share and the external one sum to one) the shears from the right
+        # are those from the left reversed, and only those are kept.
         n = len(z)
         self._n_sections = n
+        lay = self.layout
+        self._nv = 2 if (balanced and has_external
+                         and np.allclose(lay.share.sum(axis=0), 1.0, rtol=0.0, atol=1e-12)
+                         and abs(float(lay.ext_share.sum()) - 1.0) <= 1e-12) else 4
         rows = [np.maximum(dz, 0.0), np.maximum(-dz, 0.0), dz > 0, dz >= 0, dz < 0, dz <= 0]
+        rows = rows[:2 + self._nv]
         if npl:
             rows.append(np.eye(n)[:npl])
         self._W = np.vstack(rows).astype(float)
@@ -789,7 +798,8 @@ class PinModel:
         """Utilizations from the projected vectors G = W @ F (..., K, 2)."""
         u_fs, u_b = _projected_parts(G, self._n_sections, self.D, self.material.F_y,
                                      self.phi_f, self.phi_v, self.limit,
-                                     self._bearing_cap if self.layout.n_plates else None)
+                                     self._bearing_cap if self.layout.n_plates else None,
+                                     self._nv)
         return u_fs, (np.zeros_like(u_fs) if u_b is None else u_b)
 
     def multiplier_bounds(self, G0: np.ndarray, G1: np.ndarray
@@ -799,7 +809,8 @@ class PinModel:
         (:func:`_projected_bounds`)."""
         return _projected_bounds(G0, G1, self._n_sections, self.D, self.material.F_y,
                                  self.phi_f, self.phi_v, self.limit,
-                                 self._bearing_cap if self.layout.n_plates else None)
+                                 self._bearing_cap if self.layout.n_plates else None,
+                                 self._nv)
 
     def _utilization_projected(self, G: np.ndarray) -> np.ndarray:
         u_fs, u_b = self._parts(G)
@@ -892,12 +903,16 @@ class PinStack:
         self.n = max((m._n_sections for m in self.models), default=0)
         self.n_plates = max((m.layout.n_plates for m in self.models), default=0)
         n = self.n
-        self.K = 6 * n + self.n_plates
+        # shears: two where every pin's states are in balance, else four (a pin with two
+        # leaves the other two zero: padding)
+        self.nv = max((m._nv for m in self.models), default=4)
+        e = (2 + self.nv) * n
+        self.K = e + self.n_plates
         self.rows = []  # where each pin's K_i checked vectors go in the padded K
         for m in self.models:
             ni, npl = m._n_sections, m.layout.n_plates
-            self.rows.append(np.concatenate([b * n + np.arange(ni) for b in range(6)]
-                                            + [6 * n + np.arange(npl)]).astype(int))
+            self.rows.append(np.concatenate([b * n + np.arange(ni) for b in range(2 + m._nv)]
+                                            + [e + np.arange(npl)]).astype(int))
         self.D = np.array([m.D for m in self.models])
         self.F_y = np.array([m.material.F_y for m in self.models])
         self.phi_f = np.array([m.phi_f for m in self.models])
@@ -920,11 +935,11 @@ class PinStack:
     def utilization(self, G: np.ndarray, which: np.ndarray) -> np.ndarray:
         """Governing utilization (1.0 at the limit) of padded projected vectors G (P, K, 2),
         state p on pin ``which[p]`` (:func:`_projected_parts`)."""
-        u_fs, u_b = _projected_parts(G, self.n, *self._params(which))
+        u_fs, u_b = _projected_parts(G, self.n, *self._params(which), self.nv)
         return u_fs if u_b is None else np.maximum(u_fs, u_b)
 
     def multiplier_bounds(self, G0: np.ndarray, G1: np.ndarray, which: np.ndarray
                           ) -> tuple[np.ndarray, np.ndarray]:
         """:meth:`PinModel.multiplier_bounds` of padded states, state p on pin
         ``which[p]`` (:func:`_projected_bounds`)."""
-        return _projected_bounds(G0, G1, self.n, *self._params(which))
+        return _projected_bounds(G0, G1, self.n, *self._params(which), self.nv)

@@ -591,7 +591,9 @@ def _pin_at_joint(pin: Pin, g: TrussGeometry, designs: Mapping, N_dead: np.ndarr
                                                 strict=True))),
         external_kip=tuple(_balancing(unit, N_dead_here)), designs=designs,
         prepared=prepared)
-    model = PinModel(pin, members_here, dirs, designs=designs, prepared=prepared)
+    # (every state the rating checks is balanced by the external force, _balancing)
+    model = PinModel(pin, members_here, dirs, designs=designs, prepared=prepared,
+                     balanced=True)
     return _PinAtJoint(pin, members_here, idx, unit, model, _projector(model, unit),
                        dead_check, not (set(members_here) & dependent), prepared)
 

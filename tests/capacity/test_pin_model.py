@@ -157,3 +157,28 @@ def test_a_prepared_layout_gives_the_same_check_and_guards_its_members():
     with pytest.raises(Exception, match="not a number"):
         pin_check(pin, actions({**N, "D": math.nan}), external_kip=balancing(N),
                   prepared=prepared)
+
+
+@settings(max_examples=30, deadline=None)
+@given(n0=st.lists(st.floats(-40.0, 40.0), min_size=4, max_size=4),
+       n1=st.lists(forces, min_size=4, max_size=4))
+def test_balanced_states_need_the_shears_from_one_side_only(n0, n1):
+    # with the pin in balance the shears from the right are those from the left reversed
+    # (statics); the model told so keeps only those, with the same checks and bounds
+    pin = joint_pin([1.0, 0.75, 0.5, 1.25, 0.5, 0.75, 1.0], ORDER)
+    full = PinModel(pin, list(DIRS), list(DIRS.values()))
+    half = PinModel(pin, list(DIRS), list(DIRS.values()), balanced=True)
+    assert half._nv == 2 and full._nv == 4
+    G = []
+    for n in (n0, n1):
+        N = dict(zip(DIRS, n, strict=True))
+        F = full.point_forces(np.array(n), np.array(balancing(N)))
+        G.append((full.project(F)[None], half.project(F)[None]))
+    for lam in (0.0, 0.7, 3.0):
+        u_full = float(full._utilization_projected(G[0][0] + lam * G[1][0])[0])
+        u_half = float(half._utilization_projected(G[0][1] + lam * G[1][1])[0])
+        assert u_half == pytest.approx(u_full, rel=1e-12, abs=1e-14)
+    lo_f, up_f = full.multiplier_bounds(G[0][0], G[1][0])
+    lo_h, up_h = half.multiplier_bounds(G[0][1], G[1][1])
+    assert lo_h[0] == pytest.approx(lo_f[0], rel=1e-12, abs=1e-14)
+    assert up_h[0] == pytest.approx(up_f[0], rel=1e-12, abs=1e-14)
