@@ -12,7 +12,6 @@ import dataclasses
 import functools
 import json
 import math
-import operator
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
 from types import MappingProxyType
@@ -360,19 +359,51 @@ def _dumps(value: Any) -> str:
     return json.dumps(value, separators=(",", ":"), ensure_ascii=False)
 
 
-def _values_of(names: tuple[str, ...]) -> Callable[[Any], tuple[Any, ...]]:
-    """The values of the fields ``names`` of an object, as a tuple (one C call)."""
-    if len(names) > 1:
-        return operator.attrgetter(*names)
-    if names:
-        get = operator.attrgetter(names[0])
-        return lambda obj: (get(obj),)
-    return lambda obj: ()
+def _first_check(annotation: Any) -> str:
+    """The type a field's value is tried as first, from its annotation ("float | None" ->
+    float); only the order of the tests: every value still takes the branch of its type."""
+    text = annotation if isinstance(annotation, str) else getattr(annotation, "__name__", "")
+    head = text.split("|")[0].split("[")[0].strip()
+    return head if head in ("float", "str", "tuple") else ""
 
 
-# a dataclass's field values, and for each field '"name":', its dimension and number cache
-_Fields = tuple[Callable[[Any], tuple[Any, ...]],
-                tuple[tuple[str, str | None, dict[float, str]], ...]]
+# the text of one field's value, by the type tried first (``v``: the value, ``c``: the number
+# cache of its dimension ``d``): the same branches as _JsonText.value, inline
+_FIELD_TEXT = {
+    "float": "(c{k}.get(v) or num(v, d{k}, c{k})) if v.__class__ is float else val(v, d{k})",
+    "str": "enc(v) if v.__class__ is str else val(v, d{k})",
+    "tuple": "items(v, d{k}, c{k}) if v.__class__ is tuple else val(v, d{k})",
+    # a results object (or None, or any other value)
+    "": "'null' if v is None else w(v) if (w := writer_of(v.__class__)) else val(v, d{k})",
+}
+
+
+@functools.cache
+def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
+    """A function that makes the JSON writer of a results dataclass for one file: one
+    generated function per class, field by field (a loop over the fields, tests and joins
+    per value, took most of the time of a file). Compiled once per process."""
+    names = _fields_with_dimensions(cls)
+    first = [_first_check(f.type) for f in dataclasses.fields(cls)]
+    body = ["def write(o):",
+            "    hit = memo_get(id(o))",
+            "    if hit is not None:",
+            "        return hit[0]"]
+    for k, (name, _) in enumerate(names):
+        body.append(f"    v = o.{name}")
+        body.append(f"    s{k} = {_FIELD_TEXT[first[k]].format(k=k)}")
+    parts = "".join(f"{{h{k}}}{{s{k}}}" + ("," if k < len(names) - 1 else "")
+                    for k in range(len(names)))
+    body += [f"    text = f'{{{{{parts}}}}}'",
+             "    memo[id(o)] = (text, o)  # o kept alive with its id",
+             "    return text"]
+    params = ", ".join(["val", "items", "num", "enc", "memo", "memo_get", "writer_of",
+                        *(f"h{k}, d{k}, c{k}" for k in range(len(names)))])
+    source = f"def make({params}):\n" + "\n".join("    " + line for line in body) \
+        + "\n    return write\n"
+    scope: dict[str, Any] = {}
+    exec(compile(source, f"<json writer of {cls.__name__}>", "exec"), scope)
+    return scope["make"]
 
 
 class _JsonText:
@@ -380,7 +411,7 @@ class _JsonText:
 
     One instance per file. It remembers the text of every results object met (by identity:
     the same position recurs for many members and cases; the objects are immutable, so their
-    text is too), of every number written (per dimension) and each dataclass's fields."""
+    text is too), of every number written (per dimension) and each dataclass's writer."""
 
     def __init__(self, system: str) -> None:
         self.system = system
@@ -388,7 +419,7 @@ class _JsonText:
         # numbers of each dimension (converted in SI; in US units all share ``plain``)
         self.numbers: dict[str | None, dict[float, str]] = {None: self.plain}
         self.objects: dict[int, tuple[str, Any]] = {}
-        self.fields: dict[type, _Fields] = {}
+        self.writers: dict[type, Callable[[Any], str]] = {}
 
     def cache(self, dimension: str | None) -> dict[float, str]:
         c = self.numbers.get(dimension)
@@ -416,39 +447,30 @@ class _JsonText:
                 cache[x] = text
         return text
 
-    def items(self, obj: Any, dimension: str | None) -> str:
-        cache = self.cache(dimension)
+    def items(self, obj: Any, dimension: str | None,
+              cache: dict[float, str] | None = None) -> str:
+        if cache is None:
+            cache = self.cache(dimension)
         number, value = self.number, self.value
         return "[" + ",".join([cache.get(v) or number(v, dimension, cache)
-                               if type(v) is float else value(v, dimension)
+                               if v.__class__ is float else value(v, dimension)
                                for v in obj]) + "]"
 
-    def dataclass(self, obj: Any, fields: _Fields) -> str:
-        hit = self.objects.get(id(obj))
-        if hit is not None:
-            return hit[0]
-        parts = []
-        for (head, dim, cache), v in zip(fields[1], fields[0](obj), strict=True):
-            t = type(v)
-            if t is float:
-                parts.append(head + (cache.get(v) or self.number(v, dim, cache)))
-            elif t is str:
-                parts.append(head + _encode_str(v))
-            elif v is None:
-                parts.append(head + "null")
-            elif t is tuple:
-                parts.append(head + self.items(v, dim))
-            else:
-                parts.append(head + self.value(v, dim))
-        text = "{" + ",".join(parts) + "}"
-        self.objects[id(obj)] = (text, obj)  # obj kept alive with its id
-        return text
+    def writer(self, cls: type) -> Callable[[Any], str]:
+        """The writer of a dataclass for this file (its number caches, its objects)."""
+        objects = self.objects
+        args: list[Any] = [self.value, self.items, self.number, _encode_str, objects,
+                           objects.get, self.writers.get]
+        for name, dim in _fields_with_dimensions(cls):
+            args += [_encode_str(name) + ":", dim, self.cache(dim)]
+        w = self.writers[cls] = _writer_factory(cls)(*args)
+        return w
 
     def value(self, obj: Any, dimension: str | None) -> str:
         t = type(obj)
-        fields = self.fields.get(t)
-        if fields is not None:
-            return self.dataclass(obj, fields)
+        w = self.writers.get(t)
+        if w is not None:
+            return w(obj)
         if t is float:
             return self.number(obj, dimension, self.cache(dimension))
         if t is str:
@@ -460,11 +482,7 @@ class _JsonText:
         if t is bool:
             return "true" if obj else "false"
         if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
-            names = _fields_with_dimensions(t)
-            fields = self.fields[t] = (
-                _values_of(tuple(name for name, _ in names)),
-                tuple((_encode_str(name) + ":", dim, self.cache(dim)) for name, dim in names))
-            return self.dataclass(obj, fields)
+            return self.writer(t)(obj)
         if isinstance(obj, Mapping):
             plain = {str(k): v for k, v in obj.items()}
             value = self.value
