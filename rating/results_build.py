@@ -91,7 +91,10 @@ def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position |
     same extreme gives the same object (it recurs for several members' cases and rating
     levels), and so do extremes that stand the vehicle at the same place: the views then
     convert and write each position once."""
-    if ext is None or (ext.position is None and not ext.lane_segments_ft):
+    if ext is None:
+        return None
+    at = ext.position
+    if at is None and not ext.lane_segments_ft:
         return None
     if memo is None:
         return _new_position(ext, load)
@@ -99,56 +102,75 @@ def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position |
     hit = memo.get(key)
     if hit is None:
         try:
-            same = (ext.position, ext.model, ext.lane_segments_ft, load.id)
+            # a VehiclePosition's fields, its direction as a bool (an enum hashes in Python)
+            same = ((at.front_axle_ft, at.direction is Direction.FORWARD, at.spacings_ft)
+                    if at is not None else None, ext.model, ext.lane_segments_ft, load.id)
             pos = memo.get(same)
             if pos is None:
-                pos = memo[same] = _new_position(ext, load)
+                pos = memo[same] = _new_position(ext, load, memo)
         except TypeError:  # a part that cannot be a key: one object per extreme only
             pos = _new_position(ext, load)
         hit = memo[key] = (pos, ext)  # ext kept alive with its id
     return hit[0]
 
 
-def _new_position(ext: Extreme, load) -> Position:
+def _new_position(ext: Extreme, load, memo: dict | None = None) -> Position:
     lane = tuple((float(a), float(b)) for a, b in ext.lane_segments_ft)
-    model = next((m for m in load.models if m.name == ext.model), None)
-    if ext.position is None or model is None or model.axles is None:
-        return Position(0.0, "", (), (), (), ext.model, lane)
-    v = model.axles
     at = ext.position
+    axles = _axles(load, ext.model, memo)
+    if at is None or axles is None:
+        return Position(0.0, "", (), (), (), ext.model, lane)
     front = float(at.front_axle_ft)
-    spacings = tuple(float(s) for s in at.spacings_ft)
+    spacings, offsets = _offsets(at.spacings_ft, memo)
     # as rating.analysis.moving.axle_stations, in plain floats (the same sums, term by term)
-    offsets = (0.0, *accumulate(spacings))
     if at.direction is Direction.FORWARD:
-        stations = tuple(front - d for d in offsets)
+        stations = tuple([front - d for d in offsets])
     else:
-        stations = tuple(front + d for d in offsets)
-    return Position(
-        front_axle_station=front,
-        direction=at.direction.value,
-        spacings=spacings,
-        axle_stations=stations,
-        axle_loads=tuple(float(p) * v.axle_scale for p in v.axle_loads_kip),
-        load_model=ext.model,
-        lane_segments=lane,
-    )
+        stations = tuple([front + d for d in offsets])
+    return Position(front, at.direction.value, spacings, stations, axles, ext.model, lane)
+
+
+def _axles(load, model_name: str, memo: dict | None) -> tuple[float, ...] | None:
+    """The axle loads of a load's model (``None``: no such model, or no axles); one tuple per
+    model with ``memo``."""
+    key = ("axles", load.id, model_name)
+    if memo is not None and key in memo:
+        return memo[key]
+    model = next((m for m in load.models if m.name == model_name), None)
+    v = model.axles if model is not None else None
+    out = tuple([float(p) * v.axle_scale for p in v.axle_loads_kip]) if v is not None else None
+    if memo is not None:
+        memo[key] = out
+    return out
+
+
+def _offsets(spacings_ft: tuple[float, ...], memo: dict | None
+             ) -> tuple[tuple[float, ...], tuple[float, ...]]:
+    """The spacings in plain floats and each axle's distance behind the front axle (as
+    rating.analysis.moving.axle_offsets_ft, term by term); once per set of spacings with
+    ``memo``."""
+    key = ("offsets", spacings_ft)
+    hit = memo.get(key) if memo is not None else None
+    if hit is None:
+        spacings = tuple([float(s) for s in spacings_ft])
+        hit = (spacings, (0.0, *accumulate(spacings)))
+        if memo is not None:
+            memo[key] = hit
+    return hit
 
 
 def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t,
             memo: dict | None = None) -> Rating:
-    return Rating(
-        rf=r.rf, sense=r.sense, check=r.check,
-        factors=_factors(r, memo),
-        method=r.method, position=_position(r.extreme, case.load, memo),
-        finding=_finding(r.finding, text, memo),
-    )
+    return Rating(r.rf, r.sense, r.check, _factors(r, memo), r.method,
+                  _position(r.extreme, case.load, memo), _finding(r.finding, text, memo))
 
 
 def _finding(f: Finding | None, text, memo: dict | None) -> str:
     """A finding's words (in the bridge's units); written once per finding with ``memo`` (a
     member's governing finding recurs in every case)."""
-    if memo is None or f is None:
+    if f is None:
+        return ""
+    if memo is None:
         return text(finding_text(f))
     key = ("finding", id(f))
     hit = memo.get(key)
@@ -157,10 +179,13 @@ def _finding(f: Finding | None, text, memo: dict | None) -> str:
     return hit[0]
 
 
+_FLOAT_ONLY = frozenset((float,))
+
+
 def _factors(r: MemberCaseRating, memo: dict | None) -> Factors:
     """The factors of one rating; one object for equal factors (plain floats) with ``memo``."""
     values = (r.gamma_dc, r.gamma_dw, r.gamma_ll, r.im, r.phi, r.phi_c, r.phi_s)
-    if memo is None or not all(type(x) is float for x in values):
+    if memo is None or _FLOAT_ONLY != set(map(type, values)):
         return Factors(*values)
     key = ("factors", values)
     hit = memo.get(key)
@@ -281,20 +306,20 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             gamma_ll=case.gamma_ll.value, im=case.im.value))
     idx = g.member_index
     members = []
+    cases = [(case, case.id, case.load, case.im.value) for case in rating.cases]
+    live_of, rating_of = rating.live, rating.ratings
     for m in g.members:
         cap = rating.capacities[m.label]
         i = idx[m.label]
         live = {}
         ratings = {}
-        for case in rating.cases:
-            e = rating.live[(m.label, case.id)]
-            live[case.id] = LiveLoadEffect(
-                max=e.max, min=e.min, max_with_im=e.max_with_im, min_with_im=e.min_with_im,
-                distribution_factor=e.distribution_factor, im=case.im.value,
-                max_position=_position(e.max_extreme, case.load, positions),
-                min_position=_position(e.min_extreme, case.load, positions))
-            ratings[case.id] = _rating(rating.ratings[(m.label, case.id)], case, text,
-                                       positions)
+        for case, cid, load, im in cases:
+            e = live_of[(m.label, cid)]
+            live[cid] = LiveLoadEffect(
+                e.max, e.min, e.max_with_im, e.min_with_im, e.distribution_factor, im,
+                _position(e.max_extreme, load, positions),
+                _position(e.min_extreme, load, positions))
+            ratings[cid] = _rating(rating_of[(m.label, cid)], case, text, positions)
         s = cap.summary
         checks = tuple(
             CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, cap.phi_cs * c.phi_R_n_kip,
