@@ -4,7 +4,6 @@ index (our own legend)."""
 from __future__ import annotations
 
 import functools
-import math
 from dataclasses import dataclass
 
 
@@ -49,7 +48,7 @@ class RFBands:
         return _BAND_KEYS[self._index(rf)]
 
     def _index(self, rf: float | None) -> int:
-        if rf is None or (isinstance(rf, float) and math.isnan(rf)):
+        if rf is None or (rf != rf and isinstance(rf, float)):  # not rated, or NaN
             return 4
         for k, edge in enumerate(self.edges):
             if rf < edge:

@@ -44,10 +44,15 @@ def _is_number(x: Any) -> bool:
 
 
 _FORMATS = tuple(f",.{k}f" for k in range(8))  # the format of each number of decimals
+_PLAIN = tuple(f".{k}f" for k in range(8))  # the same without digit grouping
 
 
 def _fixed(x: float, decimals: int, signed: bool = False) -> str:
-    text = format(x, _FORMATS[decimals] if 0 <= decimals < 8 else f",.{decimals}f")
+    if -999.0 < x < 999.0 and 0 <= decimals < 8:
+        # below 999 (however it rounds) there is no group separator: the plain format, faster
+        text = format(x, _PLAIN[decimals])
+    else:
+        text = format(x, _FORMATS[decimals] if 0 <= decimals < 8 else f",.{decimals}f")
     if not text.strip("-0.,"):  # -0.0 and 0.000 print without a sign
         return text.lstrip("-")
     if text[0] == "-":
@@ -94,7 +99,9 @@ class Display:
 
     def _number(self, value: float | None, dimension: str | None, decimals: int | None,
                 signed: bool) -> str:
-        if value is None or not _is_number(value) or not math.isfinite(value):
+        if type(value) is not float and (value is None or not _is_number(value)):
+            return DASH
+        if not math.isfinite(value):
             return DASH
         if decimals is None:
             pair = _DECIMALS.get(dimension or "", (2, 2))
@@ -127,6 +134,11 @@ class Display:
 
     @staticmethod
     def _rf(value: float | None) -> str:
+        if type(value) is float and -999.0 < value < 999.0:
+            # the usual case, as below: rounded down to a multiple of 0.01 that is not -0.0,
+            # so the text is the plain format with the minus sign of the report
+            x = math.floor(value * 100.0 + 1e-7) / 100.0
+            return format(x, ".2f") if x >= 0.0 else MINUS + format(-x, ".2f")
         if value is None or not _is_number(value) or math.isnan(value):
             return DASH
         if math.isinf(value):

@@ -411,10 +411,10 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     def rf_cell(rf: float | None) -> Cell:
         nonlocal has_dash, has_neg_inf
         c = rf_cells.get(rf)
-        if c is None:
+        if c is None:  # the flags follow from the text: set once per cell
             c = rf_cells[rf] = _cell(d, bands, rf)
-        has_dash = has_dash or c.text == DASH
-        has_neg_inf = has_neg_inf or c.text == NEG_INF
+            has_dash = has_dash or c.text == DASH
+            has_neg_inf = has_neg_inf or c.text == NEG_INF
         return c
 
     bridge_facts = tuple(Fact(k, v) for k, v in (
@@ -544,16 +544,18 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     live_tables: list[LiveTable] = []
     vs = results.vehicles
     step = max(1, vehicles_per_table)
+    force = d.force
     for k in range(0, len(vs), step):
         chunk = tuple(vs[k:k + step])
         lrows = []
         for m in results.members:
             cells = []
+            live_of, rating_of = m.live_load.get, m.ratings.get
             for v in chunk:
-                ll = m.live_load.get(v.id)
-                r = m.ratings.get(v.id)
-                hi = d.force(ll.max_with_im, signed=True) if ll else DASH
-                lo = d.force(ll.min_with_im, signed=True) if ll else DASH
+                ll = live_of(v.id)
+                r = rating_of(v.id)
+                hi = force(ll.max_with_im, True) if ll else DASH
+                lo = force(ll.min_with_im, True) if ll else DASH
                 rf = rf_cell(r.rf if r else None)
                 # numbers and band keys only, as Display and RFBands write them: nothing
                 # to escape
