@@ -372,7 +372,9 @@ def _first_check(annotation: Any) -> str:
 _FIELD_TEXT = {
     "float": "(c{k}.get(v) or num(v, d{k}, c{k})) if v.__class__ is float else val(v, d{k})",
     "str": "enc(v) if v.__class__ is str else val(v, d{k})",
-    "tuple": "items(v, d{k}, c{k}) if v.__class__ is tuple else val(v, d{k})",
+    # a tuple, remembered by identity (results share the tuples of equal positions' parts)
+    "tuple": "(h[0] if (h := t{k}.get(id(v))) else seq(v, d{k}, c{k}, t{k})) "
+             "if v.__class__ is tuple else val(v, d{k})",
     # a results object (or None, or any other value)
     "": "'null' if v is None else w(v) if (w := writer_of(v.__class__)) else val(v, d{k})",
 }
@@ -397,8 +399,8 @@ def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
     body += [f"    text = f'{{{{{parts}}}}}'",
              "    memo[id(o)] = (text, o)  # o kept alive with its id",
              "    return text"]
-    params = ", ".join(["val", "items", "num", "enc", "memo", "memo_get", "writer_of",
-                        *(f"h{k}, d{k}, c{k}" for k in range(len(names)))])
+    params = ", ".join(["val", "seq", "num", "enc", "memo", "memo_get", "writer_of",
+                        *(f"h{k}, d{k}, c{k}, t{k}" for k in range(len(names)))])
     source = f"def make({params}):\n" + "\n".join("    " + line for line in body) \
         + "\n    return write\n"
     scope: dict[str, Any] = {}
@@ -420,6 +422,8 @@ class _JsonText:
         self.numbers: dict[str | None, dict[float, str]] = {None: self.plain}
         self.objects: dict[int, tuple[str, Any]] = {}
         self.writers: dict[type, Callable[[Any], str]] = {}
+        # tuples written as fields, by identity, per dimension (all alike in US units)
+        self.seqs: dict[str | None, dict[int, tuple[str, Any]]] = {}
 
     def cache(self, dimension: str | None) -> dict[float, str]:
         c = self.numbers.get(dimension)
@@ -430,28 +434,39 @@ class _JsonText:
     def number(self, x: float, dimension: str | None, cache: dict[float, str]) -> str:
         """A float: converted, rounded to 6 decimals; infinities as strings, NaN as null."""
         text = cache.get(x)
-        if text is None:
-            y = _convert(x, dimension, self.system)
-            if 1e-4 <= abs(y) < 1e8:
-                # repr(round(y, 6)) is these 6 decimals without trailing zeros: both round
-                # the exact binary value correctly, and a decimal of at most 14 significant
-                # digits is the shortest text of its double (DBL_DIG = 15); faster
-                text = format(y, ".6f").rstrip("0")
-                if text[-1] == ".":
-                    text += "0"
-            elif math.isfinite(y):
-                text = float.__repr__(round(y, 6) + 0.0)
-            else:
-                text = _dumps(_number(y))
-            if x == x:  # NaN is never found again: not kept
-                cache[x] = text
+        return self.new_number(x, dimension, cache) if text is None else text
+
+    def new_number(self, x: float, dimension: str | None, cache: dict[float, str]) -> str:
+        """:meth:`number` for a float not in ``cache`` yet."""
+        y = x if dimension is None or self.system == "US" else _convert(x, dimension,
+                                                                          self.system)
+        if 1e-4 <= abs(y) < 1e8:
+            # repr(round(y, 6)) is these 6 decimals without trailing zeros: both round
+            # the exact binary value correctly, and a decimal of at most 14 significant
+            # digits is the shortest text of its double (DBL_DIG = 15); faster
+            text = format(y, ".6f").rstrip("0")
+            if text[-1] == ".":
+                text += "0"
+        elif math.isfinite(y):
+            text = float.__repr__(round(y, 6) + 0.0)
+        else:
+            text = _dumps(_number(y))
+        if x == x:  # NaN is never found again: not kept
+            cache[x] = text
+        return text
+
+    def seq(self, obj: tuple[Any, ...], dimension: str | None, cache: dict[float, str],
+            memo: dict[int, tuple[str, Any]]) -> str:
+        """A tuple field's text, remembered in ``memo`` (obj kept alive with its id)."""
+        text = self.items(obj, dimension, cache)
+        memo[id(obj)] = (text, obj)
         return text
 
     def items(self, obj: Any, dimension: str | None,
               cache: dict[float, str] | None = None) -> str:
         if cache is None:
             cache = self.cache(dimension)
-        number, value = self.number, self.value
+        number, value = self.new_number, self.value
         return "[" + ",".join([cache.get(v) or number(v, dimension, cache)
                                if v.__class__ is float else value(v, dimension)
                                for v in obj]) + "]"
@@ -459,10 +474,11 @@ class _JsonText:
     def writer(self, cls: type) -> Callable[[Any], str]:
         """The writer of a dataclass for this file (its number caches, its objects)."""
         objects = self.objects
-        args: list[Any] = [self.value, self.items, self.number, _encode_str, objects,
+        args: list[Any] = [self.value, self.seq, self.new_number, _encode_str, objects,
                            objects.get, self.writers.get]
         for name, dim in _fields_with_dimensions(cls):
-            args += [_encode_str(name) + ":", dim, self.cache(dim)]
+            seqs = self.seqs.setdefault(None if self.system == "US" else dim, {})
+            args += [_encode_str(name) + ":", dim, self.cache(dim), seqs]
         w = self.writers[cls] = _writer_factory(cls)(*args)
         return w
 

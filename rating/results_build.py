@@ -115,7 +115,7 @@ def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position |
 
 
 def _new_position(ext: Extreme, load, memo: dict | None = None) -> Position:
-    lane = tuple((float(a), float(b)) for a, b in ext.lane_segments_ft)
+    lane = _lane(ext.lane_segments_ft, memo)
     at = ext.position
     axles = _axles(load, ext.model, memo)
     if at is None or axles is None:
@@ -142,6 +142,19 @@ def _axles(load, model_name: str, memo: dict | None) -> tuple[float, ...] | None
     if memo is not None:
         memo[key] = out
     return out
+
+
+def _lane(segments: tuple[tuple[float, float], ...], memo: dict | None
+          ) -> tuple[tuple[float, float], ...]:
+    """The lane-load segments in plain floats; one tuple for equal segments with ``memo`` (the
+    JSON view writes a shared tuple once)."""
+    key = ("lane", segments)
+    hit = memo.get(key) if memo is not None else None
+    if hit is None:
+        hit = tuple([(float(a), float(b)) for a, b in segments])
+        if memo is not None:
+            memo[key] = hit
+    return hit
 
 
 def _offsets(spacings_ft: tuple[float, ...], memo: dict | None
