@@ -49,7 +49,7 @@ def lowest_rating(ratings: Iterable[tuple[str, Rating]]) -> tuple[str, Rating] |
 
 # ------------------------------------------------------------------ small SVG helpers
 
-def _esc(text: str) -> str:
+def esc(text: str) -> str:
     """``escape(text)``: a plain string with none of ``& < > ' "`` (most ids, names and
     numbers) is the same text, returned as it is (escaping it took a fair share of a
     report's time)."""
@@ -79,20 +79,20 @@ def _text(x: float, y: float, content: str, *, size: float = 9, anchor: str = "m
     if weight != "normal":
         more += f' font-weight="{weight}"'
     if cls:
-        more += f' class="{_esc(cls)}"'
+        more += f' class="{esc(cls)}"'
     if halo:
         more += ' stroke="#fff" stroke-width="3" paint-order="stroke" stroke-linejoin="round"'
     if rotate is not None:
         more += f' transform="rotate({rotate:g} {fx} {fy})"'
     return (f'<text x="{fx}" y="{fy}" font-size="{size:g}" text-anchor="{anchor}" '
-            f'fill="{fill}"{more}>{_esc(content)}</text>')
+            f'fill="{fill}"{more}>{esc(content)}</text>')
 
 
 def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> Markup:
     head = (f'<svg xmlns="http://www.w3.org/2000/svg" class="{cls}" role="img" '
             f'viewBox="0 0 {_f(width)} {_f(height)}" width="{_f(width)}" '
             f'height="{_f(height)}" preserveAspectRatio="xMidYMid meet" style="{FONT}">')
-    return Markup(head + f"<title>{_esc(title)}</title>" + "".join(body) + "</svg>")
+    return Markup(head + f"<title>{esc(title)}</title>" + "".join(body) + "</svg>")
 
 
 def _arrow_marker(mid: str, colour: str) -> str:
@@ -190,8 +190,8 @@ def elevation_svg(results: RatingResults, display: Display,
         lines.append(
             f'<line class="member {band.key}" x1="{_f(ax)}" y1="{_f(ay)}" x2="{_f(bx)}" '
             f'y2="{_f(by)}" stroke="{band.colour}" stroke-width="{width:g}" '
-            f'stroke-linecap="round"{dash}><title>{_esc(m.id)} ({_esc(m.role)}): lowest '
-            f'RF {_esc(rf_text)}</title></line>')
+            f'stroke-linecap="round"{dash}><title>{esc(m.id)} ({esc(m.role)}): lowest '
+            f'RF {esc(rf_text)}</title></line>')
         t = fractions.get(m.id, 0.5)
         labels.append(_member_label(ax, ay, bx, by, t, f"{m.id} {rf_text}",
                                     below=m.role == "bottom chord"))
@@ -204,11 +204,11 @@ def elevation_svg(results: RatingResults, display: Display,
         if j.deck and not j.support:  # a floorbeam hangs below the deck panel point
             body.append(f'<rect class="floorbeam" x="{_f(x - 4)}" y="{_f(y + 5)}" width="8" '
                         f'height="7" fill="#fff" stroke="#222" stroke-width="1.2">'
-                        f'<title>deck panel point {_esc(jid)} (floorbeam)</title></rect>')
+                        f'<title>deck panel point {esc(jid)} (floorbeam)</title></rect>')
         elif j.deck:
             body.append(f'<rect class="floorbeam" x="{_f(x - 3)}" y="{_f(y - 3)}" width="6" '
                         f'height="6" fill="#fff" stroke="#222" stroke-width="1.2">'
-                        f'<title>deck panel point {_esc(jid)} (floorbeam over the bearing)'
+                        f'<title>deck panel point {esc(jid)} (floorbeam over the bearing)'
                         f'</title></rect>')
         if j.support:
             body.append(_bearing(x, y, j.support))
@@ -221,7 +221,7 @@ def elevation_svg(results: RatingResults, display: Display,
             rf_text = display.rf(low[1].rf) if low else "n.r."
             body.append(f'<circle class="pin {band.key}" cx="{_f(x)}" cy="{_f(y)}" r="5.5" '
                         f'fill="{band.colour}" stroke="#111" stroke-width="1.2"><title>pin '
-                        f'{_esc(jid)}: lowest RF {_esc(rf_text)}</title></circle>')
+                        f'{esc(jid)}: lowest RF {esc(rf_text)}</title></circle>')
         elif not joints[jid].deck:
             body.append(f'<circle class="joint" cx="{_f(x)}" cy="{_f(y)}" r="2.6" '
                         f'fill="#fff" stroke="#222" stroke-width="1"/>')
@@ -263,7 +263,7 @@ def _bearing(x: float, y: float, kind: str) -> str:
     hatch = f'<line x1="{_f(x - 11)}" y1="{_f(ground)}" x2="{_f(x + 11)}" y2="{_f(ground)}" ' \
             'stroke="#222" stroke-width="1.2"/>'
     what = "expansion bearing (roller)" if kind == "roller" else "fixed bearing (pin)"
-    return f'<g class="bearing {_esc(kind)}"><title>{what}</title>{tri}{extra}{hatch}</g>'
+    return f'<g class="bearing {esc(kind)}"><title>{what}</title>{tri}{extra}{hatch}</g>'
 
 
 def legend_svg(bands: RFBands | None = None) -> Markup:
@@ -372,8 +372,8 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
             body.append(f'<line class="axle" x1="{_f(X(s))}" y1="{_f(deck_y - 11 - length)}" '
                         f'x2="{_f(X(s))}" y2="{_f(deck_y - 11)}" stroke="{colour}" '
                         f'stroke-width="2" marker-end="url(#axle)"><title>axle {k + 1}: '
-                        f'{_esc(display.force(p))} {display.unit("force")} at '
-                        f'{_esc(display.length(s))} {display.unit("length")}</title></line>')
+                        f'{esc(display.force(p))} {display.unit("force")} at '
+                        f'{esc(display.length(s))} {display.unit("length")}</title></line>')
             body.append(_text(X(s), deck_y - 14 - length - label_lift[k],
                               display.force(float(p)), size=8, fill=colour))
             if on:  # drop line to the influence line
@@ -471,7 +471,7 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
         name = r.member or "filler"
         body.append(f'<rect x="{_f(x)}" y="{plate_y}" width="{_f(w)}" height="68" '
                     f'fill="{fill}" stroke="#222" stroke-width="1"><title>{k + 1}: '
-                    f'{_esc(name)}, {_esc(display.field(r, "thickness"))} '
+                    f'{esc(name)}, {esc(display.field(r, "thickness"))} '
                     f'{unit}</title></rect>')
         body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
         body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))

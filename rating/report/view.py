@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Mapping, Sequence
+from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -17,6 +17,7 @@ from markupsafe import Markup
 
 from rating.report import svg
 from rating.report.display import DASH, NEG_INF, Display
+from rating.report.svg import esc
 from rating.results import (
     MemberResult,
     PinResult,
@@ -118,6 +119,16 @@ class PackingLine:
 
 
 @dataclass(frozen=True)
+class PackingChunk:
+    """Up to 12 plates of a pin's packing table: the cells of each of its rows as HTML."""
+
+    order: Markup
+    member: Markup
+    thickness: Markup
+    gap: Markup
+
+
+@dataclass(frozen=True)
 class PinRating:
     vehicle: str
     rf: Cell
@@ -137,13 +148,16 @@ class PinView:
     warnings: tuple[str, ...]
     lowest_vehicle: str = ""
     lowest_check: str = ""
-    packing_chunks: tuple[tuple[PackingLine, ...], ...] = ()
+    packing_chunks: tuple[PackingChunk, ...] = ()
 
 
 @dataclass(frozen=True)
 class PinRow:
+    """A pin's row of the table of rating factors by vehicle; ``cells``: its RF cells as HTML
+    (numbers and band keys only)."""
+
     joint: str
-    cells: tuple[Cell, ...]
+    cells: Markup
 
 
 @dataclass(frozen=True)
@@ -206,27 +220,20 @@ class VehicleRow:
 
 @dataclass(frozen=True)
 class SectionRow:
+    """A member's governing section in the appendix; ``cells``: A_g, A_n, F_y, F_u, length,
+    K and KL/r as HTML table cells."""
+
     id: str
-    A_g: str
-    A_n: str
-    F_y: str
-    F_u: str
-    length: str
-    K: str
-    KL_r: str
+    cells: Markup
 
 
 @dataclass(frozen=True)
 class CheckRow:
+    """One resistance check in the appendix; ``cells``: check, sense, phi, R_n, factored
+    resistance, provision, location and finding as HTML table cells (escaped)."""
+
     member: str
-    name: str
-    sense: str
-    phi: str
-    R_n: str
-    factored: str
-    provision: str
-    location: str
-    finding: str
+    cells: Markup
 
 
 @dataclass(frozen=True)
@@ -330,6 +337,16 @@ def controls(results: RatingResults) -> tuple[Control, ...]:
 
 def _cell(d: Display, bands: svg.RFBands, rf: float | None) -> Cell:
     return Cell(d.rf(rf), bands.key(rf))
+
+
+def _num_cells(texts: Iterable[str]) -> Markup:
+    """Table cells of numbers (or other text, escaped), as the template wrote them."""
+    return Markup("".join([f'<td class="num">{esc(t)}</td>' for t in texts]))
+
+
+def _rf_cells(cells: Iterable[Cell]) -> Markup:
+    """RF table cells shaded by band (numbers and band keys only: nothing to escape)."""
+    return Markup("".join([f'<td class="rf {c.band}">{c.text}</td>' for c in cells]))
 
 
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
@@ -569,7 +586,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     step_p = max(1, 2 * vehicles_per_table)
     for k in range(0, len(vs) if results.pins else 0, step_p):
         chunk = tuple(vs[k:k + step_p])
-        prow = tuple(PinRow(p.joint, tuple(
+        prow = tuple(PinRow(p.joint, _rf_cells(
             rf_cell(p.ratings[v.id].rf if v.id in p.ratings else None) for v in chunk))
             for p in results.pins)
         pin_tables.append(PinTable(chunk, prow))
@@ -604,15 +621,19 @@ def build_view(results: RatingResults, *, paper: str | None = None,
                         *(w for m in results.members for w in m.warnings),
                         *(w for p in results.pins for w in p.warnings)])
 
-    sections = tuple(SectionRow(
-        m.id, d.field(m.section, "A_g"), d.field(m.section, "A_n"),
+    # the appendix's tables, the longest of the report, as HTML cells (a cell at a time in
+    # the template cost as much as the rest of the report's text)
+    sections = tuple(SectionRow(m.id, _num_cells((
+        d.field(m.section, "A_g"), d.field(m.section, "A_n"),
         d.field(m.section, "F_y"), d.field(m.section, "F_u"), d.field(m.section, "length"),
         DASH if m.section.K is None else f"{m.section.K:.3f}",
-        DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}")
+        DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}")))
         for m in results.members if m.section is not None)
-    checks = tuple(CheckRow(
-        m.id, c.name, c.sense, f"{c.phi:.2f}", d.field(c, "R_n"), d.field(c, "factored"),
-        c.provision, c.location, c.finding)
+    checks = tuple(CheckRow(m.id, Markup(
+        f"<td>{esc(c.name)}</td><td>{esc(c.sense)}</td>"
+        f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
+        f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
+        f"<td>{esc(c.location)}</td><td>{esc(c.finding)}</td>"))
         for m in results.members if m.resistance for c in m.resistance.checks)
 
     p = paper_for(d.system, paper)
@@ -657,7 +678,10 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
     ratings = tuple(PinRating(_vehicle_label(vmap.get(vid), vid), rf_cell(r.rf), r.check,
                               r.method) for vid, r in p.ratings.items())
     low = svg.lowest_rating(p.ratings.items())
-    chunks = tuple(packing[k:k + 12] for k in range(0, len(packing), 12))
+    chunks = tuple(PackingChunk(
+        _num_cells([str(x.order) for x in lines]), _num_cells([x.member for x in lines]),
+        _num_cells([x.thickness for x in lines]), _num_cells([x.gap for x in lines]))
+        for lines in (packing[k:k + 12] for k in range(0, len(packing), 12)))
     return PinView(p.joint, d.field(p, "diameter"), p.governing_section, packing, ratings,
                    rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
                    lowest_vehicle=_vehicle_label(vmap.get(low[0]), low[0]) if low else "",
