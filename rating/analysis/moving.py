@@ -251,24 +251,36 @@ def _check_lines(lines: InfluenceLines) -> None:
 # evaluation of lines at points, with one-sided limits at the ends
 
 
-def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndarray,
+def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndarray | None,
                tol: float, clip: bool) -> np.ndarray:
     """Ordinates of each row of ``Y`` at the points ``X`` (shape (m, a), one row per member).
 
     ``side`` (same shape) picks the value exactly at X (0), the limit from below (1) or from
     above (2); they differ only at the ends of the bridge, where the line jumps to zero.
+    None: the value exactly at X everywhere.
     """
     s0, s1 = stations[0], stations[-1]
+    n = stations.size
     flat = np.clip(X, s0, s1).ravel()
-    idx = np.clip(np.searchsorted(stations, flat, side="right") - 1, 0, stations.size - 2)
-    t = (flat - stations[idx]) / (stations[idx + 1] - stations[idx])
-    rows = np.repeat(np.arange(X.shape[0]), X.shape[1])
-    y = (Y[rows, idx] * (1.0 - t) + Y[rows, idx + 1] * t).reshape(X.shape)
-    at0 = np.abs(X - s0) <= tol
-    at1 = np.abs(X - s1) <= tol
-    inside = (X > s0 + tol) & (X < s1 - tol)
-    on = inside | (at0 & (side != _SIDE_L)) | (at1 & (side != _SIDE_R))
-    y = np.where(on, y, 0.0)
+    # flat >= s0 = stations[0]: the index is never below 0
+    idx = np.searchsorted(stations, flat, side="right")
+    idx -= 1
+    np.minimum(idx, n - 2, out=idx)
+    s_i = stations[idx]
+    t = (flat - s_i) / (stations[idx + 1] - s_i)
+    at = np.repeat(np.arange(0, X.shape[0] * n, n), X.shape[1])
+    at += idx
+    Yf = Y.ravel()
+    y = (Yf[at] * (1.0 - t) + Yf[at + 1] * t).reshape(X.shape)
+    on = (X > s0 + tol) & (X < s1 - tol)
+    if not on.all():
+        at0 = np.abs(X - s0) <= tol
+        at1 = np.abs(X - s1) <= tol
+        if side is None:
+            on |= at0 | at1
+        else:
+            on |= (at0 & (side != _SIDE_L)) | (at1 & (side != _SIDE_R))
+        y = np.where(on, y, 0.0)
     return np.maximum(y, 0.0) if clip else y
 
 
@@ -296,91 +308,207 @@ def _interp_rows(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray) -> np.nd
 
 
 # ---------------------------------------------------------------------------------------------
-# the scan of one rigid axle series over shared breakpoints
+# the scan of one rigid axle series, several searches at once
+#
+# One search is one direction of travel and one chunk of rows (members x sense) with its own
+# breakpoints. The searches of one vehicle are stacked row-wise into a batch: the small
+# per-search work (sorting candidates) is one array operation for all, the work per row is
+# done on each search's own block of rows, so that every row sees exactly the arithmetic of a
+# search of its own. Breakpoints are padded at the end with _PAD_FT, far beyond any candidate,
+# so that the padding sorts after every real candidate, in a tie group of its own.
+
+_PAD_FT = 1e300
+"""Station of the padding breakpoints of a batch (any candidate plus _PAD_FT is _PAD_FT)."""
+
+
+@dataclass(frozen=True, eq=False)
+class _Search:
+    """One forward search: the line's stations (mirrored for reverse travel), its rows of
+    ordinates and the breakpoints of the candidates (stations, plus zero crossings when
+    opposing axles are neglected)."""
+
+    stations: np.ndarray
+    Y: np.ndarray
+    B: np.ndarray
+
+
+@dataclass(frozen=True, eq=False)
+class _Batch:
+    """Searches stacked row-wise. Search p has the breakpoints ``B[p, :nb[p]]`` (the rest
+    _PAD_FT), the rows ``rows[p]`` of ``V`` (the lines at B, padded with the last value)
+    and of ``K``, the change of slope at each breakpoint (zero at the padding). ``jumps``:
+    some line is not zero at an end of the bridge."""
+
+    B: np.ndarray  # (n_p, nb_max)
+    nb: np.ndarray  # (n_p,)
+    V: np.ndarray  # (R, nb_max)
+    K: np.ndarray  # (R, nb_max)
+    rows: tuple[slice, ...]
+    pid: np.ndarray  # (R,) search of each row
+    jumps: bool
+
+
+def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
+    nb = np.array([s.B.size for s in searches])
+    nb_max = int(nb.max())
+    B = np.full((len(searches), nb_max), _PAD_FT)
+    Vs = []
+    rows = []
+    r0 = 0
+    for p, s in enumerate(searches):
+        B[p, :s.B.size] = s.B
+        V = np.maximum(_interp_rows(s.stations, s.Y, s.B), 0.0) if neglect else s.Y
+        if s.B.size < nb_max:
+            V = np.concatenate((V, np.repeat(V[:, -1:], nb_max - s.B.size, axis=1)), axis=1)
+        Vs.append(V)
+        rows.append(slice(r0, r0 + V.shape[0]))
+        r0 += V.shape[0]
+    V = np.concatenate(Vs) if len(Vs) > 1 else Vs[0]
+    pid = np.repeat(np.arange(len(searches)), [s.Y.shape[0] for s in searches])
+    jumps = bool(np.any(V[:, 0]) or np.any(V[:, -1]))
+    return _Batch(B, nb, V, _kinks(B, V, pid), tuple(rows), pid, jumps)
+
+
+def _kinks(B: np.ndarray, V: np.ndarray, pid: np.ndarray) -> np.ndarray:
+    """Change of slope of every row of V at every breakpoint (zero at the padding)."""
+    dB = np.diff(B, axis=1)[pid]
+    dV = np.diff(V, axis=1)
+    sl = np.divide(dV, dB, out=np.zeros_like(dV), where=dB > 0)
+    K = np.empty(V.shape)
+    # the differences of (0, sl, 0)
+    K[:, 0] = sl[:, 0]
+    np.subtract(sl[:, 1:], sl[:, :-1], out=K[:, 1:-1])
+    np.subtract(0.0, sl[:, -1], out=K[:, -1])
+    return K
 
 
 @dataclass(frozen=True, eq=False)
 class _Candidates:
-    """Sorted candidate front-axle positions for breakpoints ``B`` and axle offsets ``D``."""
+    """Sorted candidate front-axle positions of every search for axle offsets ``D``, as tie
+    groups (candidates within ``tol`` of the previous one), one row per search. The real
+    candidates of search p are its first ``nb[p] x a``; they form its first ``n_real[p]`` tie
+    groups."""
 
-    i_k: np.ndarray  # breakpoint index of each sorted candidate
-    j_k: np.ndarray  # axle index of each sorted candidate
-    starts: np.ndarray  # first sorted candidate of each tie group
-    group_of: np.ndarray  # tie group of each sorted candidate
-    u: np.ndarray  # position of each tie group (front-axle station), shape (U,)
+    i_k: np.ndarray  # breakpoint index of each sorted candidate, (n_p, n_cand)
+    P_k: np.ndarray  # axle load of each sorted candidate
+    starts: np.ndarray  # first sorted candidate of each real tie group, (n_p, U)
+    n_real: list[int]
+    u: np.ndarray  # position of each tie group (front-axle station), _PAD_FT if none, (n_p, U)
+    du: np.ndarray  # u[g + 1] - u[g] between real tie groups, else 0, (n_p, U - 1)
+    ends: np.ndarray | None  # tie group of axle j over the first / last breakpoint, (n_p, 2a)
 
 
-def _candidates(B: np.ndarray, D: np.ndarray, tol: float) -> _Candidates:
+def _candidates(bt: _Batch, P: np.ndarray, D: np.ndarray, tol: float) -> _Candidates:
+    n_p, nb_max = bt.B.shape
     a = D.size
-    x = (B[:, None] + D[None, :]).ravel()
-    order = np.argsort(x, kind="stable")
-    xs = x[order]
-    new = np.empty(xs.size, dtype=bool)
-    new[0] = True
-    new[1:] = np.diff(xs) > tol
-    starts = np.flatnonzero(new)
-    return _Candidates(order // a, order % a, starts, np.cumsum(new) - 1, xs[starts])
-
-
-def _kinks(B: np.ndarray, V: np.ndarray) -> np.ndarray:
-    dB = np.diff(B)
-    dV = np.diff(V, axis=1)
-    sl = np.divide(dV, dB, out=np.zeros_like(dV), where=dB > 0)
-    return np.diff(sl, axis=1, prepend=0.0, append=0.0)
+    x = (bt.B[:, :, None] + D).reshape(n_p, nb_max * a)
+    order = np.argsort(x, axis=1, kind="stable")
+    p_all = np.arange(n_p)[:, None]
+    xs = x[p_all, order]
+    new = np.empty(xs.shape, dtype=bool)
+    new[:, 0] = True
+    np.greater(np.diff(xs, axis=1), tol, out=new[:, 1:])
+    group_of = np.cumsum(new, axis=1)
+    group_of -= 1
+    n_real = group_of[:, -1] + (bt.nb == nb_max)  # the padding is the last group
+    U = int(n_real.max())
+    p_new, k_new = np.nonzero(new)
+    g_new = group_of[p_new, k_new]
+    starts = np.zeros((n_p, U + 1), dtype=np.intp)
+    starts[p_new, g_new] = k_new
+    u = np.full((n_p, U + 1), _PAD_FT)
+    u[p_new, g_new] = xs[p_new, k_new]
+    u = u[:, :U]
+    du = np.diff(u, axis=1)
+    du[u[:, 1:] >= _PAD_FT] = 0.0
+    ends = None
+    if bt.jumps:
+        # tie group of the candidates "axle j over the first (last) breakpoint"
+        rank = np.argsort(order, axis=1)
+        j = np.arange(a)
+        k = np.concatenate((np.broadcast_to(j, (n_p, a)), (bt.nb[:, None] - 1) * a + j), axis=1)
+        ends = group_of[p_all, rank[p_all, k]]
+    return _Candidates(order // a, P[order % a], starts[:, :U], n_real.tolist(), u, du, ends)
 
 
 @dataclass(frozen=True, eq=False)
 class _Scan:
-    """Effect of a rigid axle series at every tie group ``c.u``.
+    """Effect of a rigid axle series at every tie group ``c.u`` of each row's search.
 
-    ``EL`` (m, U): limit from below. Jumps happen only where an axle stands over an end of the
-    bridge, at the tie groups ``jcols`` (J,): entering ``Jen`` and leaving ``Jex`` (G, m, J)
-    for each axle group.
+    ``EL`` (R, U): limit from below, -inf at the padding. Jumps happen only where an axle
+    stands over an end of the bridge, at the tie groups ``jc`` (R, 2a) (``c.ends`` of the
+    row's search): entering ``Jen`` and leaving ``Jex`` (G, R, 2a) for each axle group;
+    None when no line jumps.
     """
 
     EL: np.ndarray
-    jcols: np.ndarray
-    Jen: np.ndarray
-    Jex: np.ndarray
+    jc: np.ndarray | None = None
+    Jen: np.ndarray | None = None
+    Jex: np.ndarray | None = None
 
 
-def _scan(c: _Candidates, B: np.ndarray, V: np.ndarray, P: np.ndarray, groups: np.ndarray,
+def _scan(c: _Candidates, bt: _Batch, P: np.ndarray, groups: np.ndarray,
           n_groups: int) -> _Scan:
-    m, nb = V.shape
-    U = c.u.size
-    K = _kinks(B, V)
-    dS = K[:, c.i_k] * P[c.j_k]
-    slope = np.cumsum(np.add.reduceat(dS, c.starts, axis=1), axis=1)
-    inc = np.zeros((m, U))
-    inc[:, 1:] = slope[:, :-1] * np.diff(c.u)
-    ent = np.flatnonzero(c.i_k == 0)
-    ext = np.flatnonzero(c.i_k == nb - 1)
-    jcols, inv = np.unique(c.group_of[np.concatenate((ent, ext))], return_inverse=True)
-    Jen = np.zeros((n_groups, m, jcols.size))
-    Jex = np.zeros((n_groups, m, jcols.size))
-    for arr, ks, col, q in ((Jen, ent, V[:, 0], inv[:ent.size]),
-                            (Jex, ext, -V[:, -1], inv[ent.size:])):
-        vals = col[:, None] * P[c.j_k[ks]][None, :]  # (m, len(ks))
-        np.add.at(arr, (groups[c.j_k[ks]], slice(None), q), vals.T)
-    J = np.zeros((m, U))
-    J[:, jcols] = Jen.sum(axis=0) + Jex.sum(axis=0)
-    ER = np.cumsum(inc + J, axis=1)
-    return _Scan(ER - J, jcols, Jen, Jex)
+    R = bt.V.shape[0]
+    U = c.u.shape[1]
+    a = P.size
+    S = np.zeros((R, U))
+    for p, rows in enumerate(bt.rows):
+        n_c = int(bt.nb[p]) * a
+        dS = np.take(bt.K[rows], c.i_k[p, :n_c], axis=1)
+        dS *= c.P_k[p, :n_c]
+        n = c.n_real[p]
+        # slope change of each tie group (a group of one candidate is that candidate)
+        S[rows, :n] = dS if n == n_c else np.add.reduceat(dS, c.starts[p, :n], axis=1)
+    slope = np.cumsum(S, axis=1)
+    inc = S  # reused: the increment of the effect from each tie group to the next
+    inc[:, 0] = 0.0
+    for p, rows in enumerate(bt.rows):
+        np.multiply(slope[rows, :-1], c.du[p], out=inc[rows, 1:])
+    if not bt.jumps:
+        sc = _Scan(np.cumsum(inc, axis=1))
+    else:
+        # the jumps of a tie group summed in the order of the sorted candidates
+        jc = c.ends[bt.pid]
+        Jen_d = np.zeros((n_groups, R, U))
+        Jex_d = np.zeros((n_groups, R, U))
+        gg = np.broadcast_to(groups, (R, a))
+        rr = np.broadcast_to(np.arange(R)[:, None], (R, a))
+        np.add.at(Jen_d, (gg, rr, jc[:, :a]), bt.V[:, :1] * P)
+        np.add.at(Jex_d, (gg, rr, jc[:, a:]), -bt.V[:, -1:] * P)
+        J = Jen_d.sum(axis=0) + Jex_d.sum(axis=0)
+        sc = _Scan(np.cumsum(inc + J, axis=1) - J, jc,
+                   np.take_along_axis(Jen_d, jc[None], axis=2),
+                   np.take_along_axis(Jex_d, jc[None], axis=2))
+    for p, rows in enumerate(bt.rows):
+        if c.n_real[p] < U:
+            sc.EL[rows, c.n_real[p]:] = -np.inf
+    return sc
 
 
-def _best_sides(sc: _Scan, combos: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Best value at every tie group over the allowed side combinations (m, U), and the
-    index of the combination chosen (m, U); the closed state (combination 0) wins ties."""
-    per = np.stack((sc.Jen, np.zeros_like(sc.Jen), sc.Jen + sc.Jex), axis=1)  # (G, 3, m, J)
-    EJ = sc.EL[:, sc.jcols]
+def _best_sides(sc: _Scan, combos: np.ndarray) -> tuple[np.ndarray, np.ndarray | None]:
+    """Best value at every tie group over the allowed side combinations (R, U), -inf at the
+    padding (``sc.EL``, overwritten), and the combination chosen at each jump tie group
+    ``sc.jc`` (R, 2a); the closed state (combination 0) wins ties."""
+    if sc.jc is None:
+        return sc.EL, None
+    rr = np.arange(sc.jc.shape[0])[:, None]
+    EJ = sc.EL[rr, sc.jc]
+    per = np.stack((sc.Jen, np.zeros_like(sc.Jen), sc.Jen + sc.Jex), axis=1)  # (G, 3, R, 2a)
     vals = np.broadcast_to(EJ, (combos.shape[0],) + EJ.shape).copy()
     for g in range(combos.shape[1]):
         vals += per[g, combos[:, g]]
-    best = sc.EL.copy()
-    choice = np.zeros(sc.EL.shape, dtype=np.intp)
-    best[:, sc.jcols] = vals.max(axis=0)
-    choice[:, sc.jcols] = vals.argmax(axis=0)
-    return best, choice
+    best = sc.EL  # a group listed twice in jc gets the same values twice
+    best[rr, sc.jc] = vals.max(axis=0)
+    return best, vals.argmax(axis=0)
+
+
+def _choice_at(jc: np.ndarray | None, choice: np.ndarray | None, q: np.ndarray) -> np.ndarray:
+    """Combination chosen at tie group q[r] of each row: 0 (closed) unless q is a jump."""
+    if jc is None:
+        return np.zeros(q.size, dtype=np.intp)
+    at = jc == q[:, None]
+    return np.where(at.any(axis=1), choice[np.arange(q.size), at.argmax(axis=1)], 0)
 
 
 _COMBOS_1 = np.array([[_SIDE_C], [_SIDE_L], [_SIDE_R]])
@@ -394,12 +522,12 @@ _COMBOS_HI = _PAIRS[_ORDER[_PAIRS[:, 0]] <= _ORDER[_PAIRS[:, 1]]]
 
 @dataclass
 class _Best:
-    """Per member: best value, front-axle position, variable-gap value, side of each group."""
+    """Per row: best value, front-axle position, variable-gap value, side of each group."""
 
     value: np.ndarray
     x: np.ndarray
     gap: np.ndarray
-    sides: np.ndarray  # (m, 2) side of front group, rear group
+    sides: np.ndarray  # (R, 2) side of front group, rear group
 
     def take(self, other: _Best) -> None:
         better = other.value > self.value
@@ -409,101 +537,145 @@ class _Best:
         self.sides = np.where(better[:, None], other.sides, self.sides)
 
 
-def _rigid_best(B, V, P, D, groups, combos, gap_value, tol) -> _Best:
-    c = _candidates(B, D, tol)
+def _rigid_best(bt: _Batch, P: np.ndarray, D: np.ndarray, groups: np.ndarray,
+                combos: np.ndarray, gap_value: float, tol: float) -> _Best:
+    c = _candidates(bt, P, D, tol)
     n_groups = combos.shape[1]
-    best, choice = _best_sides(_scan(c, B, V, P, groups, n_groups), combos)
-    m = V.shape[0]
-    rows = np.arange(m)
+    sc = _scan(c, bt, P, groups, n_groups)
+    best, choice = _best_sides(sc, combos)
+    R = bt.V.shape[0]
+    rows = np.arange(R)
     q = np.argmax(best, axis=1)
-    sides = combos[choice[rows, q]]
+    sides = combos[_choice_at(sc.jc, choice, q)]
     if n_groups == 1:
         sides = np.concatenate((sides, sides), axis=1)
-    return _Best(best[rows, q], c.u[q], np.full(m, gap_value), sides)
+    return _Best(best[rows, q], c.u[bt.pid, q], np.full(R, gap_value), sides)
 
 
-def _single_group(B, V, P, D, tol) -> tuple[_Candidates, np.ndarray, np.ndarray]:
-    """Best value over sides at every tie group of a rigid series, and the side chosen."""
-    c = _candidates(B, D, tol)
-    best, choice = _best_sides(_scan(c, B, V, P, np.zeros(P.size, dtype=int), 1), _COMBOS_1)
-    return c, best, _COMBOS_1[choice, 0]
-
-
-def _pair_best(B, V, P, D_front, D_rear, n_front, lo, hi, tol) -> _Best:
+def _pair_best(bt: _Batch, P: np.ndarray, D_front: np.ndarray, D_rear: np.ndarray,
+               n_front: int, lo: float, hi: float, tol: float) -> _Best:
     """Vertices with an axle of each group over a breakpoint and lo < gap < hi (strictly)."""
-    m = V.shape[0]
-    cF, Fb, Fs = _single_group(B, V, P[:n_front], D_front, tol)
-    cG, Gb, Gs = _single_group(B, V, P[n_front:], D_rear, tol)
+    R = bt.V.shape[0]
+    pid = bt.pid
+    PF, PG = P[:n_front], P[n_front:]
+    cF = _candidates(bt, PF, D_front, tol)
+    scF = _scan(cF, bt, PF, np.zeros(PF.size, dtype=int), 1)
+    Fb, Fc = _best_sides(scF, _COMBOS_1)
+    cG = _candidates(bt, PG, D_rear, tol)
+    scG = _scan(cG, bt, PG, np.zeros(PG.size, dtype=int), 1)
+    Gb, Gc = _best_sides(scG, _COMBOS_1)
     last_front = cF.u - D_front[-1]  # station of the last axle of the front group
-    lo_i = np.searchsorted(last_front, cG.u + lo + tol, side="right")
-    hi_i = np.searchsorted(last_front, cG.u + hi - tol, side="left")
-    UF = cF.u.size
-    Fpad = np.concatenate((Fb, np.full((m, 1), -np.inf)), axis=1)
-    idx = np.empty(2 * cG.u.size, dtype=np.intp)
-    idx[0::2] = lo_i
-    idx[1::2] = np.maximum(hi_i, lo_i)
-    win = np.maximum.reduceat(Fpad, np.minimum(idx, UF), axis=1)[:, 0::2]
-    win[:, hi_i <= lo_i] = -np.inf
+    # np.searchsorted per search, as counts (last_front is sorted, its padding beyond all)
+    lo_i = (last_front[:, None, :] <= (cG.u + lo + tol)[:, :, None]).sum(axis=2)[pid]
+    hi_i = (last_front[:, None, :] < (cG.u + hi - tol)[:, :, None]).sum(axis=2)[pid]
+    UF = cF.u.shape[1]
+    UG = cG.u.shape[1]
+    Fpad = np.concatenate((Fb, np.full((R, 1), -np.inf)), axis=1)
+    idx = np.empty((R, 2 * UG), dtype=np.intp)
+    idx[:, 0::2] = lo_i
+    np.maximum(hi_i, lo_i, out=idx[:, 1::2])
+    np.minimum(idx, UF, out=idx)
+    idx += (np.arange(R) * (UF + 1))[:, None]
+    # running maximum of F over each window: one reduceat over all rows (windows stay in
+    # their row; the odd outputs, between windows, are not used)
+    win = np.maximum.reduceat(Fpad.ravel(), idx.ravel()).reshape(R, 2 * UG)[:, 0::2]
+    win[hi_i <= lo_i] = -np.inf
     tot = win + Gb
     kG = np.argmax(tot, axis=1)
-    rows = np.arange(m)
+    rows = np.arange(R)
     best = tot[rows, kG]
     cols = np.arange(UF)[None, :]
-    inwin = (cols >= lo_i[kG][:, None]) & (cols < hi_i[kG][:, None])
+    inwin = (cols >= lo_i[rows, kG][:, None]) & (cols < hi_i[rows, kG][:, None])
     kF = np.argmax(np.where(inwin, Fb, -np.inf), axis=1)
-    x = cF.u[kF]
-    gap = last_front[kF] - cG.u[kG]
-    sides = np.stack((Fs[rows, kF], Gs[rows, kG]), axis=1)
+    x = cF.u[pid, kF]
+    gap = last_front[pid, kF] - cG.u[pid, kG]
+    sides = np.stack((_COMBOS_1[_choice_at(scF.jc, Fc, kF), 0],
+                      _COMBOS_1[_choice_at(scG.jc, Gc, kG), 0]), axis=1)
     ok = np.isfinite(best)
     return _Best(np.where(ok, best, -np.inf), x, np.where(ok, gap, lo), sides)
 
 
-def _sup_forward(stations: np.ndarray, Y: np.ndarray, P: np.ndarray, lo: np.ndarray,
-                 hi: np.ndarray, neglect: bool, tol: float, vehicle_id: str) -> tuple:
-    """Supremum over all forward positions (and spacings) of sum P_j y(x - d_j), per row."""
-    m = Y.shape[0]
-    if neglect:
-        B = _adverse_grid(stations, Y, tol)
-        V = np.maximum(_interp_rows(stations, Y, B), 0.0)
-    else:
-        B, V = stations, Y
+def _sup_forward(searches: Sequence[_Search], P: np.ndarray, lo: np.ndarray, hi: np.ndarray,
+                 neglect: bool, tol: float, vehicle_id: str
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Supremum over all forward positions (and spacings) of sum P_j y(x - d_j), per row of
+    the searches stacked: (value, front-axle station, spacings)."""
+    bt = _batch(searches, neglect)
+    R = bt.V.shape[0]
     a = P.size
     var = np.flatnonzero(hi - lo > tol)
     gaps = lo.copy()
     if var.size == 0:
         D = axle_offsets_ft(gaps)
-        best = _rigid_best(B, V, P, D, np.zeros(a, dtype=int), _COMBOS_1, 0.0, tol)
+        best = _rigid_best(bt, P, D, np.zeros(a, dtype=int), _COMBOS_1, 0.0, tol)
         gv = -1
     elif var.size == 1:
         gv = int(var[0])
         groups = (np.arange(a) > gv).astype(int)
         n_front = gv + 1
         gl = gaps.copy()
-        best = _rigid_best(B, V, P, axle_offsets_ft(gl), groups, _COMBOS_LO, lo[gv], tol)
+        best = _rigid_best(bt, P, axle_offsets_ft(gl), groups, _COMBOS_LO, lo[gv], tol)
         gl[gv] = hi[gv]
-        best.take(_rigid_best(B, V, P, axle_offsets_ft(gl), groups, _COMBOS_HI, hi[gv], tol))
+        best.take(_rigid_best(bt, P, axle_offsets_ft(gl), groups, _COMBOS_HI, hi[gv], tol))
         D_front = axle_offsets_ft(gaps[:gv])
         D_rear = axle_offsets_ft(gaps[gv + 1:])
-        best.take(_pair_best(B, V, P, D_front, D_rear, n_front, lo[gv], hi[gv], tol))
+        best.take(_pair_best(bt, P, D_front, D_rear, n_front, lo[gv], hi[gv], tol))
     else:
         raise InputError(
             f"vehicle {vehicle_id} has {var.size} variable axle spacings; the exact search "
             "handles one. Give the others as fixed values (one vehicle for each value that "
             "matters)")
     # one-sided limits: move the position to the side that governs
-    shift = _SIDE_SHIFT[best.sides] * NUDGE_FT  # (m, 2): front group, rear group
+    shift = _SIDE_SHIFT[best.sides] * NUDGE_FT  # (R, 2): front group, rear group
     x = best.x + shift[:, 0]
-    spac = np.broadcast_to(gaps, (m, gaps.size)).copy()
+    spac = np.broadcast_to(gaps, (R, gaps.size)).copy()
+    # exact value at the winning position, evaluated directly (no accumulated sums)
     if gv >= 0:
         spac[:, gv] = best.gap + shift[:, 0] - shift[:, 1]
-    # exact value at the winning position, evaluated directly (no accumulated sums)
-    D = np.concatenate((np.zeros((m, 1)), np.cumsum(np.where(
-        np.arange(gaps.size)[None, :] == gv, best.gap[:, None], gaps[None, :]), axis=1)), axis=1)
+        D = np.concatenate((np.zeros((R, 1)), np.cumsum(np.where(
+            np.arange(gaps.size)[None, :] == gv, best.gap[:, None], gaps[None, :]), axis=1)),
+            axis=1)
+        side = best.sides[:, (np.arange(a) > gv).astype(int)]
+    else:
+        D = axle_offsets_ft(gaps)[None, :]  # the same sums as row by row
+        side = best.sides[:, :1] if np.any(best.sides) else None
     X = best.x[:, None] - D
-    grp = (np.arange(a) > gv).astype(int) if gv >= 0 else np.zeros(a, dtype=int)
-    side = best.sides[:, grp]
-    value = _eval_line(stations, Y, X, side, tol, neglect) @ P if a else np.zeros(m)
+    value = np.empty(R)
+    k = 0
+    while k < len(searches):
+        # one evaluation for the consecutive searches on the same stations
+        k1 = k + 1
+        while k1 < len(searches) and searches[k1].stations is searches[k].stations:
+            k1 += 1
+        rows = slice(bt.rows[k].start, bt.rows[k1 - 1].stop)
+        Y = searches[k].Y if k1 == k + 1 else np.concatenate([s.Y for s in searches[k:k1]])
+        y = _eval_line(searches[k].stations, Y, X[rows],
+                       None if side is None else np.broadcast_to(side[rows], X[rows].shape),
+                       tol, neglect)
+        for p in range(k, k1):
+            # one product per search: BLAS sums a row differently by its place in the matrix
+            r = bt.rows[p]
+            np.matmul(y[r.start - rows.start:r.stop - rows.start], P, out=value[r])
+        k = k1
     return value, x, spac
+
+
+def _search(stations: np.ndarray, Y: np.ndarray, neglect: bool, tol: float) -> _Search:
+    return _Search(stations, Y, _adverse_grid(stations, Y, tol) if neglect else stations)
+
+
+def _batches(searches: Sequence[_Search], n_axles: int) -> list[list[_Search]]:
+    """Consecutive searches in batches of about _MAX_CHUNK_ELEMENTS / 6 candidates x rows."""
+    out: list[list[_Search]] = [[]]
+    rows = width = 0
+    for sr in searches:
+        r, w = rows + sr.Y.shape[0], max(width, sr.B.size)
+        if out[-1] and r * w * n_axles * 6 > _MAX_CHUNK_ELEMENTS:
+            out.append([])
+            r, w = sr.Y.shape[0], sr.B.size
+        out[-1].append(sr)
+        rows, width = r, w
+    return out
 
 
 def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
@@ -540,24 +712,31 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         if neglect_opposing_axles:
             # the zero crossings of a chunk's members join the breakpoints of that chunk only
             chunk = min(chunk, max(32, s.size))
-        # the maxima of +Y and -Y (the max and the min) in one search, rows stacked
-        bv, fr, rv = best_v.reshape(-1), front.reshape(-1), rev.reshape(-1)
-        sp_all = spac.reshape(2 * m, n_gaps)
+        # the maxima of +Y and -Y (the max and the min) in one search, rows stacked; every
+        # direction and chunk of rows is a search of its own, solved in few batches
+        searches = []
         for d in dirs:
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
             Ys = np.concatenate((Yd, -Yd))
-            for r0 in range(0, 2 * m, chunk):
-                rows = slice(r0, min(2 * m, r0 + chunk))
-                v, x, sp = _sup_forward(st, Ys[rows], P, lo, hi, neglect_opposing_axles, tol,
-                                        vehicle.id)
-                if d is Direction.REVERSE:
-                    x = -x
-                better = v > bv[rows] + tol * 1e-3
-                bv[rows] = np.where(better, v, bv[rows])
-                fr[rows] = np.where(better, x, fr[rows])
-                rv[rows] = np.where(better, d is Direction.REVERSE, rv[rows])
-                sp_all[rows] = np.where(better[:, None], sp, sp_all[rows])
+            searches += [_search(st, Ys[r0:r0 + chunk], neglect_opposing_axles, tol)
+                         for r0 in range(0, 2 * m, chunk)]
+        parts = [_sup_forward(b, P, lo, hi, neglect_opposing_axles, tol, vehicle.id)
+                 for b in _batches(searches, P.size)]
+        v_all, x_all, sp_found = (np.concatenate(z) if len(parts) > 1 else z[0]
+                                  for z in zip(*parts, strict=True))
+        bv, fr, rv = best_v.reshape(-1), front.reshape(-1), rev.reshape(-1)
+        sp_all = spac.reshape(2 * m, n_gaps)
+        for i, d in enumerate(dirs):
+            rows = slice(2 * m * i, 2 * m * (i + 1))
+            v, x = v_all[rows], x_all[rows]
+            if d is Direction.REVERSE:
+                x = -x
+            better = v > bv + tol * 1e-3
+            bv[:] = np.where(better, v, bv)
+            fr[:] = np.where(better, x, fr)
+            rv[:] = np.where(better, d is Direction.REVERSE, rv)
+            sp_all[:] = np.where(better[:, None], sp_found[rows], sp_all)
         value[0] = best_v[0]
         value[1] = -best_v[1]
     scale = max(1.0, float(np.abs(Y).max(initial=0.0)) * float(P.sum(initial=0.0)))
@@ -594,10 +773,10 @@ def adverse_segments(stations_ft: np.ndarray, y: np.ndarray,
     member whose line is exactly zero over part of the deck gets no lane there from the last
     digits of the analysis."""
     v = sign * np.asarray(y, dtype=float)
-    v = np.where(np.abs(v) <= 1e-12 * float(np.abs(v).max(initial=0.0)), 0.0, v)
-    s = np.asarray(stations_ft, dtype=float)
+    v = np.where(np.abs(v) <= 1e-12 * float(np.abs(v).max(initial=0.0)), 0.0, v).tolist()
+    s = np.asarray(stations_ft, dtype=float).tolist()  # plain floats: the same arithmetic
     out: list[list[float]] = []
-    for i in range(s.size - 1):
+    for i in range(len(s) - 1):
         a, b = v[i], v[i + 1]
         if a <= 0 and b <= 0:
             continue
@@ -697,7 +876,6 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
         load = as_rating_load(load)
     if not load.models:
         raise InputError(f"rating load {load.id} has no load model")
-    m = len(lines.member_labels)
     span = float(lines.stations_ft[-1] - lines.stations_ft[0])
     pos_area, neg_area = adverse_areas(lines)
     per_model: list[tuple[LoadModel, AxleExtremes | None, np.ndarray]] = []
@@ -709,22 +887,27 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
     totals = np.stack([
         (1.0 + im) * (ax.value_kip if ax is not None else 0.0) + lane
         for _, ax, lane in per_model])  # (n_models, 2, m)
-    gov = np.stack((np.argmax(totals[:, 0], axis=0), np.argmin(totals[:, 1], axis=0)))
+    gov = np.stack((np.argmax(totals[:, 0], axis=0), np.argmin(totals[:, 1], axis=0))).tolist()
+    # per model as plain lists: (model, axle values, positions, lane values), [sense][member]
+    plain = [(mo, ax.value_kip.tolist() if ax is not None else None,
+              ax.positions if ax is not None else None, lane.tolist())
+             for mo, ax, lane in per_model]
+    none = Extreme(0.0, 0.0, "", "", None, 0.0, ())  # immutable: one for every empty extreme
     members = []
-    for k in range(m):
+    for k, label in enumerate(lines.member_labels):
         ext = []
         for sense in (0, 1):
-            mo, ax, lane = per_model[gov[sense, k]]
-            axle_v = float(ax.value_kip[sense, k]) if ax is not None else 0.0
-            pos = ax.position(sense, k) if ax is not None else None
-            lane_v = float(lane[sense, k])
+            mo, axle, pos, lane = plain[gov[sense][k]]
+            axle_v = axle[sense][k] if axle is not None else 0.0
+            lane_v = lane[sense][k]
+            if axle_v == 0.0 and lane_v == 0.0:
+                ext.append(none)
+                continue
             segs = (adverse_segments(lines.stations_ft, lines.ordinates[k],
                                      1.0 if sense == 0 else -1.0)
                     if mo.lane_load_klf > 0 and lane_v != 0.0 else ())
-            if axle_v == 0.0 and lane_v == 0.0:
-                ext.append(Extreme(0.0, 0.0, "", "", None, 0.0, ()))
-                continue
-            ext.append(Extreme(axle_v, lane_v, mo.name, mo.vehicle_id, pos, mo.lane_load_klf,
+            ext.append(Extreme(axle_v, lane_v, mo.name, mo.vehicle_id,
+                               pos[sense][k] if pos is not None else None, mo.lane_load_klf,
                                segs, mo.neglect_opposing_axles))
-        members.append(MemberEnvelope(lines.member_labels[k], ext[0], ext[1]))
+        members.append(MemberEnvelope(label, ext[0], ext[1]))
     return Envelope(load, span, im, tuple(members), load.applies_to(span))
