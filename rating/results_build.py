@@ -87,10 +87,10 @@ def group_member_notes(lines: list[str] | tuple[str, ...]) -> tuple[str, ...]:
 
 
 def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position | None:
-    """Where the vehicle stands for ``ext``. With ``memo`` (one dict per results object) the
-    same extreme gives the same object (it recurs for several members' cases and rating
-    levels), and so do extremes that stand the vehicle at the same place: the views then
-    convert and write each position once."""
+    """Where the vehicle stands for ``ext``. With ``memo`` (one dict per results object)
+    extremes that stand the vehicle at the same place give the same object (an extreme
+    recurs for several members' cases and rating levels, and many stand the vehicle alike):
+    the views then convert and write each position once."""
     if ext is None:
         return None
     at = ext.position
@@ -98,20 +98,19 @@ def _position(ext: Extreme | None, load, memo: dict | None = None) -> Position |
         return None
     if memo is None:
         return _new_position(ext, load)
-    key = (id(ext), load.id)
-    hit = memo.get(key)
-    if hit is None:
-        try:
-            # a VehiclePosition's fields, its direction as a bool (an enum hashes in Python)
-            same = ((at.front_axle_ft, at.direction is Direction.FORWARD, at.spacings_ft)
-                    if at is not None else None, ext.model, ext.lane_segments_ft, load.id)
-            pos = memo.get(same)
-            if pos is None:
-                pos = memo[same] = _new_position(ext, load, memo)
-        except TypeError:  # a part that cannot be a key: one object per extreme only
-            pos = _new_position(ext, load)
-        hit = memo[key] = (pos, ext)  # ext kept alive with its id
-    return hit[0]
+    try:
+        # a VehiclePosition's fields, its direction as a bool (an enum hashes in Python)
+        key = ((at.front_axle_ft, at.direction is Direction.FORWARD, at.spacings_ft)
+               if at is not None else None, ext.model, ext.lane_segments_ft, load.id)
+        pos = memo.get(key)
+        if pos is None:
+            pos = memo[key] = _new_position(ext, load, memo)
+    except TypeError:  # a part that cannot be a key: an object of its own
+        pos = _new_position(ext, load)
+    return pos
+
+
+_FORWARD = Direction.FORWARD.value  # (an enum's value is a Python property)
 
 
 def _new_position(ext: Extreme, load, memo: dict | None = None) -> Position:
@@ -127,7 +126,8 @@ def _new_position(ext: Extreme, load, memo: dict | None = None) -> Position:
         stations = tuple([front - d for d in offsets])
     else:
         stations = tuple([front + d for d in offsets])
-    return Position(front, at.direction.value, spacings, stations, axles, ext.model, lane)
+    way = _FORWARD if at.direction is Direction.FORWARD else at.direction.value
+    return Position(front, way, spacings, stations, axles, ext.model, lane)
 
 
 def _axles(load, model_name: str, memo: dict | None) -> tuple[float, ...] | None:
@@ -296,9 +296,16 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
 
     positions: dict = {}
 
+    si_texts: dict[str, str] = {}  # the same wording recurs (checks' locations, findings)
+
     def text(t: str) -> str:
         # our own wording quotes core units; an SI bridge reads them in SI
-        return si_text(t) if system is UnitSystem.SI else t
+        if system is not UnitSystem.SI:
+            return t
+        out = si_texts.get(t)
+        if out is None:
+            out = si_texts[t] = si_text(t)
+        return out
 
     support = {s.joint: s.kind.value for s in g.supports}
     deck = set(g.deck_joints)
@@ -334,8 +341,9 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
                 _position(e.min_extreme, load, positions))
             ratings[cid] = _rating(rating_of[(m.label, cid)], case, text, positions)
         s = cap.summary
+        phi_cs = cap.phi_cs
         checks = tuple(
-            CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, cap.phi_cs * c.phi_R_n_kip,
+            CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, phi_cs * c.phi_R_n_kip,
                          c.provision, text(c.location.describe()),
                          text(finding_text(c.finding)))
             for c in cap.checks)
@@ -358,12 +366,12 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         pr = {}
         governing, gov_chk, gov_case = "", None, ""
         worst = math.inf
-        for case in rating.cases:
-            r = p.ratings[case.id]
-            pr[case.id] = Rating(rf=r.rf, sense="pin", check=r.check, method="load multiplier",
-                                 position=_position(r.extreme, case.load, positions))
+        for _, cid, load, _ in cases:
+            r = p.ratings[cid]
+            pr[cid] = Rating(r.rf, "pin", r.check, None, "load multiplier",
+                             _position(r.extreme, load, positions))
             if r.rf < worst and r.at_rating is not None:
-                worst, gov_chk, gov_case = r.rf, r.at_rating, case.id
+                worst, gov_chk, gov_case = r.rf, r.at_rating, cid
         if gov_chk is not None:
             governing = _pin_section_text(gov_chk, gov_case, system)
         pins.append(PinResult(
