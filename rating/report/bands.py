@@ -50,10 +50,8 @@ class RFBands:
     def _index(self, rf: float | None) -> int:
         if rf is None or (rf != rf and isinstance(rf, float)):  # not rated, or NaN
             return 4
-        for k, edge in enumerate(self.edges):
-            if rf < edge:
-                return k
-        return 3
+        e0, e1, e2 = self.edges
+        return 0 if rf < e0 else 1 if rf < e1 else 2 if rf < e2 else 3
 
 
 _BAND_KEYS = ("b0", "b1", "b2", "b3", "nr")  # the CSS classes of the bands, lowest first

@@ -74,7 +74,13 @@ def _f(x: float) -> str:
 def _text(x: float, y: float, content: str, *, size: float = 9, anchor: str = "middle",
           cls: str = "", weight: str = "normal", fill: str = "#222", halo: bool = False,
           rotate: float | None = None) -> str:
-    fx, fy = _f(x), _f(y)
+    return _text_at(_f(x), _f(y), content, size, anchor, cls, weight, fill, halo, rotate)
+
+
+def _text_at(fx: str, fy: str, content: str, size: float = 9, anchor: str = "middle",
+             cls: str = "", weight: str = "normal", fill: str = "#222", halo: bool = False,
+             rotate: float | None = None) -> str:
+    """:func:`_text` at coordinates already written by :func:`_f` (shared by several)."""
     more = ""
     if weight != "normal":
         more += f' font-weight="{weight}"'
@@ -171,8 +177,11 @@ def elevation_svg(results: RatingResults, display: Display,
     x0 = (WIDTH - draw_w) / 2
     height = top + dy * scale + bottom_room
 
+    # plain floats (numpy scalars make every sum and text of the drawing slower)
+    x_min, y_max = float(xs.min()), float(ys.max())
+
     def px(j: JointResult) -> tuple[float, float]:
-        return (x0 + (j.x - xs.min()) * scale, top + (ys.max() - j.y) * scale)
+        return (x0 + (j.x - x_min) * scale, top + (y_max - j.y) * scale)
 
     pos = {jid: px(j) for jid, j in joints.items()}
     body: list[str] = []
@@ -321,6 +330,9 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     axle_p = np.asarray(position.axle_loads if position else (), dtype=float)
     lo = float(min(st[0], axle_x.min() if axle_x.size else st[0]))
     hi = float(max(st[-1], axle_x.max() if axle_x.size else st[-1]))
+    # the same values as plain floats for the drawing (numpy scalars make it slower)
+    stations, ordinates = st.tolist(), y.tolist()
+    axle_at, axle_load = axle_x.tolist(), axle_p.tolist()
     pad = 0.03 * (hi - lo)
     lo, hi = lo - pad, hi + pad
     left, right = 62.0, 16.0
@@ -353,21 +365,21 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
                         f'width="{_f(max(X(b) - X(a), 0.5))}" height="8" '
                         f'fill="url(#lanehatch)" stroke="#6b8e23" stroke-width="0.8"/>')
     # the deck and its panel points
-    body.append(f'<line x1="{_f(X(st[0]))}" y1="{_f(deck_y)}" x2="{_f(X(st[-1]))}" '
-                f'y2="{_f(deck_y)}" stroke="#222" stroke-width="2"/>')
-    for s in (deck_stations or st):
+    body.append(f'<line x1="{_f(X(stations[0]))}" y1="{_f(deck_y)}" '
+                f'x2="{_f(X(stations[-1]))}" y2="{_f(deck_y)}" stroke="#222" stroke-width="2"/>')
+    for s in (deck_stations or stations):
         body.append(f'<line x1="{_f(X(s))}" y1="{_f(deck_y)}" x2="{_f(X(s))}" '
                     f'y2="{_f(deck_y + 5)}" stroke="#222" stroke-width="1"/>')
-    for s in (st[0], st[-1]):
+    for s in (stations[0], stations[-1]):
         body.append(f'<path d="M{_f(X(s))},{_f(deck_y + 1)} l-6,10 l12,0 z" fill="#fff" '
                     f'stroke="#222" stroke-width="1"/>')
     # axles: arrows sized by load, pointing down onto the deck
     if axle_x.size:
         pmax = float(axle_p.max()) if axle_p.size else 1.0
-        label_lift = _stagger([X(s) for s in axle_x], min_gap=24.0, step=9.0)
-        for k, (s, p) in enumerate(zip(axle_x, axle_p, strict=False)):
+        label_lift = _stagger([X(s) for s in axle_at], min_gap=24.0, step=9.0)
+        for k, (s, p) in enumerate(zip(axle_at, axle_load, strict=False)):
             length = 14.0 + 46.0 * (p / pmax if pmax > 0 else 0.0)
-            on = st[0] - 1e-9 <= s <= st[-1] + 1e-9
+            on = stations[0] - 1e-9 <= s <= stations[-1] + 1e-9
             colour = "#222" if on else "#9a9a9a"
             body.append(f'<line class="axle" x1="{_f(X(s))}" y1="{_f(deck_y - 11 - length)}" '
                         f'x2="{_f(X(s))}" y2="{_f(deck_y - 11)}" stroke="{colour}" '
@@ -397,8 +409,8 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     body.append(_text(6, deck_y - 40, f"axles ({display.unit('force')})", size=8,
                       anchor="start", fill="#555"))
     # the influence line
-    xs_line = np.concatenate([[lo, st[0]], st, [st[-1], hi]])
-    ys_line = np.concatenate([[0.0, 0.0], y, [0.0, 0.0]])
+    xs_line = [lo, stations[0], *stations, stations[-1], hi]
+    ys_line = [0.0, 0.0, *ordinates, 0.0, 0.0]
     pts = " ".join(f"{_f(X(a))},{_f(Y(b))}" for a, b in zip(xs_line, ys_line, strict=True))
     pos_poly = " ".join(f"{_f(X(a))},{_f(Y(max(b, 0.0)))}" for a, b in
                         zip(xs_line, ys_line, strict=True))
@@ -412,13 +424,13 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
                 f'stroke-width="1.6"/>')
     k_max, k_min = int(np.argmax(y)), int(np.argmin(y))
     tiny = 1e-6 * float(np.max(np.abs(y)) or 1.0)
-    if y[k_max] > tiny:
-        body.append(_text(X(st[k_max]), Y(y[k_max]) - 4,
-                          display.number(float(y[k_max]), None, 3, signed=True), size=8,
+    if ordinates[k_max] > tiny:
+        body.append(_text(X(stations[k_max]), Y(ordinates[k_max]) - 4,
+                          display.number(ordinates[k_max], None, 3, signed=True), size=8,
                           halo=True))
-    if y[k_min] < -tiny:
-        body.append(_text(X(st[k_min]), Y(y[k_min]) + 11,
-                          display.number(float(y[k_min]), None, 3, signed=True), size=8,
+    if ordinates[k_min] < -tiny:
+        body.append(_text(X(stations[k_min]), Y(ordinates[k_min]) + 11,
+                          display.number(ordinates[k_min], None, 3, signed=True), size=8,
                           halo=True))
     if amp_top > 8:
         body.append(_text(6, zero_y - amp_top / 2, "tension +", size=8, anchor="start",
@@ -428,11 +440,13 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
                           anchor="start", fill="#2a5a8a"))
     # station ticks
     ty = max(zero_y, top_y + room) + 16
-    for s in st:
-        body.append(f'<line x1="{_f(X(s))}" y1="{_f(zero_y - 3)}" x2="{_f(X(s))}" '
-                    f'y2="{_f(zero_y + 3)}" stroke="#555" stroke-width="0.8"/>')
-        body.append(_text(X(s), ty, display.number(float(s), "length", 1), size=7.5,
-                          fill="#555"))
+    tick_top, tick_bottom, tick_text = _f(zero_y - 3), _f(zero_y + 3), _f(ty)
+    for s in stations:
+        x = _f(X(s))
+        body.append(f'<line x1="{x}" y1="{tick_top}" x2="{x}" y2="{tick_bottom}" '
+                    f'stroke="#555" stroke-width="0.8"/>')
+        body.append(_text_at(x, tick_text, display.number(s, "length", 1), 7.5,
+                             fill="#555"))
     body.append(_text(WIDTH - right, ty + 13, f"station ({display.unit('length')})", size=8,
                       anchor="end", fill="#555"))
     height = ty + 20
@@ -464,6 +478,7 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
                 f'stroke="#444" stroke-width="1"/>')
     first_face = x + rows[0].gap_before * s
     plate_y, unit = _f(pin_y - 34), display.unit("dimension")
+    name_y, order_y = _f(pin_y - 40), _f(pin_y + 47)
     for k, r in enumerate(rows):
         x += r.gap_before * s
         w = max(r.thickness * s, 1.0)
@@ -473,8 +488,9 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
                     f'fill="{fill}" stroke="#222" stroke-width="1"><title>{k + 1}: '
                     f'{esc(name)}, {esc(display.field(r, "thickness"))} '
                     f'{unit}</title></rect>')
-        body.append(_text(x + w / 2, pin_y - 40, name, size=8, anchor="start", rotate=-60))
-        body.append(_text(x + w / 2, pin_y + 47, str(k + 1), size=8, fill="#555"))
+        mid = _f(x + w / 2)
+        body.append(_text_at(mid, name_y, name, 8, "start", rotate=-60))
+        body.append(_text_at(mid, order_y, str(k + 1), 8, fill="#555"))
         x += r.thickness * s
     z = pin.governing_z if pin.governing_z is not None else governing_z_in(
         pin.governing_section)

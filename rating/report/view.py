@@ -675,8 +675,9 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
               rf_cell: Any) -> PinView:
     packing = tuple(PackingLine(k + 1, r.member or "filler", d.field(r, "thickness"),
                                 d.field(r, "gap_before")) for k, r in enumerate(p.packing))
-    ratings = tuple(PinRating(_vehicle_label(vmap.get(vid), vid), rf_cell(r.rf), r.check,
-                              r.method) for vid, r in p.ratings.items())
+    label = _vehicle_label
+    ratings = tuple([PinRating(label(vmap.get(vid), vid), rf_cell(r.rf), r.check, r.method)
+                     for vid, r in p.ratings.items()])
     low = svg.lowest_rating(p.ratings.items())
     chunks = tuple(PackingChunk(
         _num_cells([str(x.order) for x in lines]), _num_cells([x.member for x in lines]),
