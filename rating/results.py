@@ -371,7 +371,7 @@ def _first_check(annotation: Any) -> str:
 # cache of its dimension ``d``): the same branches as _JsonText.value, inline
 _FIELD_TEXT = {
     "float": "(c{k}.get(v) or num(v, d{k}, c{k})) if v.__class__ is float else val(v, d{k})",
-    "str": "enc(v) if v.__class__ is str else val(v, d{k})",
+    "str": "(str_get(v) or enc(v)) if v.__class__ is str else val(v, d{k})",
     # a tuple, remembered by identity (results share the tuples of equal positions' parts)
     "tuple": "(h[0] if (h := t{k}.get(id(v))) else seq(v, d{k}, c{k}, t{k})) "
              "if v.__class__ is tuple else val(v, d{k})",
@@ -399,7 +399,7 @@ def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
     body += [f"    text = f'{{{{{parts}}}}}'",
              "    memo[id(o)] = (text, o)  # o kept alive with its id",
              "    return text"]
-    params = ", ".join(["val", "seq", "num", "enc", "memo", "memo_get", "writer_of",
+    params = ", ".join(["val", "seq", "num", "enc", "str_get", "memo", "memo_get", "writer_of",
                         *(f"h{k}, d{k}, c{k}, t{k}" for k in range(len(names)))])
     source = f"def make({params}):\n" + "\n".join("    " + line for line in body) \
         + "\n    return write\n"
@@ -424,6 +424,7 @@ class _JsonText:
         self.writers: dict[type, Callable[[Any], str]] = {}
         # tuples written as fields, by identity, per dimension (all alike in US units)
         self.seqs: dict[str | None, dict[int, tuple[str, Any]]] = {}
+        self.strings: dict[str, str] = {}  # the same words recur (checks, senses, models)
 
     def cache(self, dimension: str | None) -> dict[float, str]:
         c = self.numbers.get(dimension)
@@ -455,6 +456,11 @@ class _JsonText:
             cache[x] = text
         return text
 
+    def string(self, text: str) -> str:
+        """A string's JSON text, remembered."""
+        out = self.strings[text] = _encode_str(text)
+        return out
+
     def seq(self, obj: tuple[Any, ...], dimension: str | None, cache: dict[float, str],
             memo: dict[int, tuple[str, Any]]) -> str:
         """A tuple field's text, remembered in ``memo`` (obj kept alive with its id)."""
@@ -474,8 +480,8 @@ class _JsonText:
     def writer(self, cls: type) -> Callable[[Any], str]:
         """The writer of a dataclass for this file (its number caches, its objects)."""
         objects = self.objects
-        args: list[Any] = [self.value, self.seq, self.new_number, _encode_str, objects,
-                           objects.get, self.writers.get]
+        args: list[Any] = [self.value, self.seq, self.new_number, self.string,
+                           self.strings.get, objects, objects.get, self.writers.get]
         for name, dim in _fields_with_dimensions(cls):
             seqs = self.seqs.setdefault(None if self.system == "US" else dim, {})
             args += [_encode_str(name) + ":", dim, self.cache(dim), seqs]
@@ -490,7 +496,7 @@ class _JsonText:
         if t is float:
             return self.number(obj, dimension, self.cache(dimension))
         if t is str:
-            return _encode_str(obj)
+            return self.strings.get(obj) or self.string(obj)
         if obj is None:
             return "null"
         if t is tuple or t is list:
@@ -501,8 +507,8 @@ class _JsonText:
             return self.writer(t)(obj)
         if isinstance(obj, Mapping):
             plain = {str(k): v for k, v in obj.items()}
-            value = self.value
-            return "{" + ",".join([_encode_str(k) + ":" + value(v, dimension)
+            value, known, string = self.value, self.strings.get, self.string
+            return "{" + ",".join([(known(k) or string(k)) + ":" + value(v, dimension)
                                    for k, v in plain.items()]) + "}"
         if isinstance(obj, tuple | list):
             return self.items(obj, dimension)
