@@ -128,12 +128,13 @@ class Display:
             key = ("rf", value)
             text = self._texts.get(key)
             if text is None:
-                text = self._texts[key] = self._rf(value)
+                text = self._texts[key] = self.rf_text(value)
             return text
-        return self._rf(value)
+        return self.rf_text(value)
 
     @staticmethod
-    def _rf(value: float | None) -> str:
+    def rf_text(value: float | None) -> str:
+        """:meth:`rf` without remembering the text."""
         if type(value) is float and -999.0 < value < 999.0:
             # the usual case, as below: rounded down to a multiple of 0.01 that is not -0.0,
             # so the text is the plain format with the minus sign of the report

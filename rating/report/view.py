@@ -336,7 +336,8 @@ def controls(results: RatingResults) -> tuple[Control, ...]:
 
 
 def _cell(d: Display, bands: svg.RFBands, rf: float | None) -> Cell:
-    return Cell(d.rf(rf), bands.key(rf))
+    # build_view remembers each cell: the text need not be remembered by Display too
+    return Cell(d.rf_text(rf), bands.key(rf))
 
 
 def _num_cells(texts: Iterable[str]) -> Markup:
