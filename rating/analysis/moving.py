@@ -197,7 +197,10 @@ class AxleExtremes:
 
 def axle_offsets_ft(spacings_ft: Sequence[float]) -> np.ndarray:
     """Distance of every axle behind the front axle, ft, shape (n_axles,)."""
-    return np.concatenate(([0.0], np.cumsum(np.asarray(spacings_ft, dtype=float))))
+    gaps = np.asarray(spacings_ft, dtype=float)
+    d = np.zeros(gaps.size + 1)
+    np.cumsum(gaps, out=d[1:])
+    return d
 
 
 def panel_point_fronts(stations_ft: Sequence[float], spacings_ft: Sequence[float],
@@ -214,8 +217,12 @@ def panel_point_fronts(stations_ft: Sequence[float], spacings_ft: Sequence[float
     tol = 1e-9 * max(1.0, float(s[-1] - s[0]) + float(d[-1]))
     sign = 1.0 if direction is Direction.FORWARD else -1.0
     # forward: axle i at x - d_i; reverse: at x + d_i
-    x = np.unique((s[:, None] + sign * d[None, :]).ravel())
-    return x[np.concatenate(([True], np.diff(x) > tol))] if x.size else x
+    x = (s[:, None] + sign * d[None, :]).ravel()
+    x.sort()  # as np.unique; its exact repeats go with the others within tol
+    keep = np.empty(x.size, dtype=bool)
+    keep[:1] = True
+    np.greater(x[1:] - x[:-1], tol, out=keep[1:])
+    return x[keep]
 
 
 def axle_stations(position: VehiclePosition) -> np.ndarray:
@@ -243,7 +250,7 @@ def _check_vehicle(v: Vehicle) -> None:
 def _check_lines(lines: InfluenceLines) -> None:
     if lines.stations_ft.size < 2:
         raise InputError("an influence line needs at least two deck panel points")
-    if not (np.all(np.isfinite(lines.ordinates)) and np.all(np.isfinite(lines.stations_ft))):
+    if not (np.isfinite(lines.ordinates).all() and np.isfinite(lines.stations_ft).all()):
         raise InputError("an influence line has an ordinate that is not a finite number")
 
 
@@ -255,13 +262,13 @@ def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndar
                tol: float, clip: bool) -> np.ndarray:
     """Ordinates of each row of ``Y`` at the points ``X`` (shape (m, a), one row per member).
 
-    ``side`` (same shape) picks the value exactly at X (0), the limit from below (1) or from
-    above (2); they differ only at the ends of the bridge, where the line jumps to zero.
-    None: the value exactly at X everywhere.
+    ``side`` (shape of X, or broadcast to it) picks the value exactly at X (0), the limit from
+    below (1) or from above (2); they differ only at the ends of the bridge, where the line
+    jumps to zero. None: the value exactly at X everywhere.
     """
     s0, s1 = stations[0], stations[-1]
     n = stations.size
-    flat = np.clip(X, s0, s1).ravel()
+    flat = np.minimum(np.maximum(X, s0), s1).ravel()  # as np.clip
     # flat >= s0 = stations[0]: the index is never below 0
     idx = np.searchsorted(stations, flat, side="right")
     idx -= 1
@@ -284,27 +291,45 @@ def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndar
     return np.maximum(y, 0.0) if clip else y
 
 
-def _adverse_grid(stations: np.ndarray, Y: np.ndarray, tol: float) -> np.ndarray:
-    """Stations plus every zero crossing of every row (the breakpoints of max(y, 0))."""
+def _adverse_grids(stations: np.ndarray, Y: np.ndarray, chunk: int,
+                   tol: float) -> list[np.ndarray]:
+    """For each chunk of ``chunk`` rows of ``Y``: the stations plus every zero crossing of
+    every row of the chunk (the breakpoints of max(y, 0) for all of them), sorted."""
+    n = stations.size
+    R = Y.shape[0]
+    n_chunks = -(-R // chunk)
     a, b = Y[:, :-1], Y[:, 1:]
-    cross = (a * b) < 0
-    h = np.diff(stations)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        xc = stations[:-1] + h * a / (a - b)
-    xc = np.unique(xc[cross])
+    r, i = np.nonzero((a * b) < 0)
+    ar, br = a[r, i], b[r, i]
+    W = np.full((n_chunks, chunk * (n - 1)), _PAD_FT)
+    W[r // chunk, (r % chunk) * (n - 1) + i] = stations[i] + np.diff(stations)[i] * ar / (ar - br)
+    # the distinct crossings of each chunk, in order (np.unique), _PAD_FT after them
+    W.sort(axis=1)
+    keep = np.empty(W.shape, dtype=bool)
+    keep[:, 0] = True
+    np.not_equal(W[:, 1:], W[:, :-1], out=keep[:, 1:])
     # a crossing within round-off of a station is that station (the station is kept exactly,
     # on either side of it), and crossings within round-off of each other are one
-    if xc.size:
-        xc = xc[np.abs(xc[:, None] - stations[None, :]).min(axis=1) > tol]
-    if xc.size > 1:
-        xc = xc[np.concatenate(([True], np.diff(xc) > tol))]
-    return np.unique(np.concatenate((stations, xc)))
+    j = np.clip(np.searchsorted(stations, W), 1, n - 1)  # the nearest station: j - 1 or j
+    keep &= np.minimum(np.abs(W - stations[j - 1]), np.abs(W - stations[j])) > tol
+    W[~keep] = _PAD_FT
+    W.sort(axis=1)
+    near = np.diff(W, axis=1) <= tol
+    W[:, 1:][near] = _PAD_FT
+    B = np.concatenate((np.broadcast_to(stations, (n_chunks, n)), W), axis=1)
+    B.sort(axis=1)
+    nb = n + np.count_nonzero(W < _PAD_FT, axis=1)
+    return [B[c, :nb[c]] for c in range(n_chunks)]
 
 
-def _interp_rows(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray) -> np.ndarray:
+def _interp_chunks(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray,
+                   chunk_of: np.ndarray) -> np.ndarray:
+    """Ordinates of each row of ``Y`` at the points of its chunk's row of ``grid``."""
     idx = np.clip(np.searchsorted(stations, grid, side="right") - 1, 0, stations.size - 2)
     t = (grid - stations[idx]) / (stations[idx + 1] - stations[idx])
-    return Y[:, idx] * (1.0 - t) + Y[:, idx + 1] * t
+    idx, t = idx[chunk_of], t[chunk_of]
+    rows = np.arange(Y.shape[0])[:, None]
+    return Y[rows, idx] * (1.0 - t) + Y[rows, idx + 1] * t
 
 
 # ---------------------------------------------------------------------------------------------
@@ -337,7 +362,8 @@ class _Batch:
     """Searches stacked row-wise. Search p has the breakpoints ``B[p, :nb[p]]`` (the rest
     _PAD_FT), the rows ``rows[p]`` of ``V`` (the lines at B, padded with the last value)
     and of ``K``, the change of slope at each breakpoint (zero at the padding). ``jumps``:
-    some line is not zero at an end of the bridge."""
+    some line is not zero at an end of the bridge. ``runs``: the searches [k0, k1) on the
+    same stations (one direction of travel)."""
 
     B: np.ndarray  # (n_p, nb_max)
     nb: np.ndarray  # (n_p,)
@@ -346,33 +372,42 @@ class _Batch:
     rows: tuple[slice, ...]
     pid: np.ndarray  # (R,) search of each row
     jumps: bool
+    runs: tuple[tuple[int, int], ...]
 
 
 def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
     nb = np.array([s.B.size for s in searches])
     nb_max = int(nb.max())
     B = np.full((len(searches), nb_max), _PAD_FT)
-    Vs = []
-    rows = []
-    r0 = 0
     for p, s in enumerate(searches):
         B[p, :s.B.size] = s.B
-        V = np.maximum(_interp_rows(s.stations, s.Y, s.B), 0.0) if neglect else s.Y
-        if s.B.size < nb_max:
-            V = np.concatenate((V, np.repeat(V[:, -1:], nb_max - s.B.size, axis=1)), axis=1)
-        Vs.append(V)
-        rows.append(slice(r0, r0 + V.shape[0]))
-        r0 += V.shape[0]
-    V = np.concatenate(Vs) if len(Vs) > 1 else Vs[0]
-    pid = np.repeat(np.arange(len(searches)), [s.Y.shape[0] for s in searches])
-    jumps = bool(np.any(V[:, 0]) or np.any(V[:, -1]))
-    return _Batch(B, nb, V, _kinks(B, V, pid), tuple(rows), pid, jumps)
+    sizes = [s.Y.shape[0] for s in searches]
+    pid = np.repeat(np.arange(len(searches)), sizes)
+    r_end = np.cumsum(sizes).tolist()
+    rows = tuple(slice(r1 - r, r1) for r, r1 in zip(sizes, r_end, strict=True))
+    runs = []
+    k0 = 0
+    for k in range(1, len(searches) + 1):
+        if k == len(searches) or searches[k].stations is not searches[k0].stations:
+            runs.append((k0, k))
+            k0 = k
+    if neglect:
+        # each chunk's lines at its breakpoints; at the padding, the value at the last one
+        grid = np.where(B < _PAD_FT, B, B[np.arange(B.shape[0]), nb - 1][:, None])
+        V = np.concatenate([np.maximum(_interp_chunks(
+            searches[k0].stations, np.concatenate([s.Y for s in searches[k0:k1]]),
+            grid[k0:k1], pid[rows[k0].start:rows[k1 - 1].stop] - k0), 0.0)
+            for k0, k1 in runs])
+    else:
+        V = np.concatenate([s.Y for s in searches]) if len(searches) > 1 else searches[0].Y
+    jumps = bool(V[:, 0].any() or V[:, -1].any())
+    return _Batch(B, nb, V, _kinks(B, V, pid), rows, pid, jumps, tuple(runs))
 
 
 def _kinks(B: np.ndarray, V: np.ndarray, pid: np.ndarray) -> np.ndarray:
     """Change of slope of every row of V at every breakpoint (zero at the padding)."""
-    dB = np.diff(B, axis=1)[pid]
-    dV = np.diff(V, axis=1)
+    dB = (B[:, 1:] - B[:, :-1])[pid]
+    dV = V[:, 1:] - V[:, :-1]
     sl = np.divide(dV, dB, out=np.zeros_like(dV), where=dB > 0)
     K = np.empty(V.shape)
     # the differences of (0, sl, 0)
@@ -407,7 +442,7 @@ def _candidates(bt: _Batch, P: np.ndarray, D: np.ndarray, tol: float) -> _Candid
     xs = x[p_all, order]
     new = np.empty(xs.shape, dtype=bool)
     new[:, 0] = True
-    np.greater(np.diff(xs, axis=1), tol, out=new[:, 1:])
+    np.greater(xs[:, 1:] - xs[:, :-1], tol, out=new[:, 1:])
     group_of = np.cumsum(new, axis=1)
     group_of -= 1
     n_real = group_of[:, -1] + (bt.nb == nb_max)  # the padding is the last group
@@ -419,7 +454,7 @@ def _candidates(bt: _Batch, P: np.ndarray, D: np.ndarray, tol: float) -> _Candid
     u = np.full((n_p, U + 1), _PAD_FT)
     u[p_new, g_new] = xs[p_new, k_new]
     u = u[:, :U]
-    du = np.diff(u, axis=1)
+    du = u[:, 1:] - u[:, :-1]
     du[u[:, 1:] >= _PAD_FT] = 0.0
     ends = None
     if bt.jumps:
@@ -628,40 +663,30 @@ def _sup_forward(searches: Sequence[_Search], P: np.ndarray, lo: np.ndarray, hi:
     # one-sided limits: move the position to the side that governs
     shift = _SIDE_SHIFT[best.sides] * NUDGE_FT  # (R, 2): front group, rear group
     x = best.x + shift[:, 0]
-    spac = np.broadcast_to(gaps, (R, gaps.size)).copy()
+    spac = np.empty((R, gaps.size))
+    spac[:] = gaps
     # exact value at the winning position, evaluated directly (no accumulated sums)
     if gv >= 0:
         spac[:, gv] = best.gap + shift[:, 0] - shift[:, 1]
         D = np.concatenate((np.zeros((R, 1)), np.cumsum(np.where(
             np.arange(gaps.size)[None, :] == gv, best.gap[:, None], gaps[None, :]), axis=1)),
             axis=1)
-        side = best.sides[:, (np.arange(a) > gv).astype(int)]
+        side = best.sides[:, groups]
     else:
-        D = axle_offsets_ft(gaps)[None, :]  # the same sums as row by row
-        side = best.sides[:, :1] if np.any(best.sides) else None
-    X = best.x[:, None] - D
+        side = best.sides[:, :1] if best.sides.any() else None  # None: all at C
+    X = best.x[:, None] - D  # rigid: the offsets searched, the same sums as row by row
     value = np.empty(R)
-    k = 0
-    while k < len(searches):
-        # one evaluation for the consecutive searches on the same stations
-        k1 = k + 1
-        while k1 < len(searches) and searches[k1].stations is searches[k].stations:
-            k1 += 1
-        rows = slice(bt.rows[k].start, bt.rows[k1 - 1].stop)
-        Y = searches[k].Y if k1 == k + 1 else np.concatenate([s.Y for s in searches[k:k1]])
-        y = _eval_line(searches[k].stations, Y, X[rows],
-                       None if side is None else np.broadcast_to(side[rows], X[rows].shape),
+    for k0, k1 in bt.runs:
+        # one evaluation for the searches on the same stations
+        rows = slice(bt.rows[k0].start, bt.rows[k1 - 1].stop)
+        Y = searches[k0].Y if k1 == k0 + 1 else np.concatenate([s.Y for s in searches[k0:k1]])
+        y = _eval_line(searches[k0].stations, Y, X[rows], None if side is None else side[rows],
                        tol, neglect)
-        for p in range(k, k1):
+        for p in range(k0, k1):
             # one product per search: BLAS sums a row differently by its place in the matrix
             r = bt.rows[p]
             np.matmul(y[r.start - rows.start:r.stop - rows.start], P, out=value[r])
-        k = k1
     return value, x, spac
-
-
-def _search(stations: np.ndarray, Y: np.ndarray, neglect: bool, tol: float) -> _Search:
-    return _Search(stations, Y, _adverse_grid(stations, Y, tol) if neglect else stations)
 
 
 def _batches(searches: Sequence[_Search], n_axles: int) -> list[list[_Search]]:
@@ -702,7 +727,8 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
     value = np.zeros((2, m))
     front = np.zeros((2, m))
     rev = np.zeros((2, m), dtype=bool)
-    spac = np.broadcast_to(lo, (2, m, n_gaps)).copy()
+    spac = np.empty((2, m, n_gaps))
+    spac[:] = lo
     tol = _tolerance(lines, axle_offsets_ft(hi))
     if P.size and directions:
         dirs = tuple(Direction(d) for d in directions)
@@ -719,8 +745,10 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
             Ys = np.concatenate((Yd, -Yd))
-            searches += [_search(st, Ys[r0:r0 + chunk], neglect_opposing_axles, tol)
-                         for r0 in range(0, 2 * m, chunk)]
+            Bs = (_adverse_grids(st, Ys, chunk, tol) if neglect_opposing_axles
+                  else [st] * -(-2 * m // chunk))
+            searches += [_Search(st, Ys[r0:r0 + chunk], B)
+                         for r0, B in zip(range(0, 2 * m, chunk), Bs, strict=True)]
         parts = [_sup_forward(b, P, lo, hi, neglect_opposing_axles, tol, vehicle.id)
                  for b in _batches(searches, P.size)]
         v_all, x_all, sp_found = (np.concatenate(z) if len(parts) > 1 else z[0]
@@ -740,7 +768,9 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         value[0] = best_v[0]
         value[1] = -best_v[1]
     scale = max(1.0, float(np.abs(Y).max(initial=0.0)) * float(P.sum(initial=0.0)))
-    found = np.stack((value[0] > 1e-12 * scale, value[1] < -1e-12 * scale))
+    found = np.empty((2, m), dtype=bool)
+    np.greater(value[0], 1e-12 * scale, out=found[0])
+    np.less(value[1], -1e-12 * scale, out=found[1])
     value = np.where(found, value, 0.0)
     return AxleExtremes(lines.member_labels, vehicle.id, value, front, rev, spac, found)
 
@@ -772,21 +802,33 @@ def adverse_segments(stations_ft: np.ndarray, y: np.ndarray,
     Ordinates within round-off of zero (1e-12 of the line's largest) count as zero: a
     member whose line is exactly zero over part of the deck gets no lane there from the last
     digits of the analysis."""
-    v = sign * np.asarray(y, dtype=float)
-    v = np.where(np.abs(v) <= 1e-12 * float(np.abs(v).max(initial=0.0)), 0.0, v).tolist()
-    s = np.asarray(stations_ft, dtype=float).tolist()  # plain floats: the same arithmetic
-    out: list[list[float]] = []
-    for i in range(len(s) - 1):
-        a, b = v[i], v[i + 1]
-        if a <= 0 and b <= 0:
-            continue
-        x0 = s[i] if a > 0 else s[i] + (s[i + 1] - s[i]) * a / (a - b)
-        x1 = s[i + 1] if b > 0 else s[i] + (s[i + 1] - s[i]) * a / (a - b)
-        if out and abs(out[-1][1] - x0) <= 1e-12 * max(1.0, abs(x0)):
-            out[-1][1] = x1
-        elif x1 > x0:
-            out.append([x0, x1])
-    return tuple((float(p), float(q)) for p, q in out)
+    return _adverse_segments_rows(stations_ft, np.asarray(y, dtype=float)[None, :], sign)[0]
+
+
+def _adverse_segments_rows(stations_ft: np.ndarray, Y: np.ndarray,
+                           sign: float) -> list[tuple[tuple[float, float], ...]]:
+    """:func:`adverse_segments` of every row of ``Y``."""
+    v = sign * np.asarray(Y, dtype=float)
+    v = np.where(np.abs(v) <= 1e-12 * np.abs(v).max(axis=1, initial=0.0)[:, None], 0.0, v)
+    s = np.asarray(stations_ft, dtype=float)
+    a, b = v[:, :-1], v[:, 1:]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xc = s[:-1] + (s[1:] - s[:-1]) * a / (a - b)  # the zero crossing, where there is one
+    x0 = np.where(a > 0, s[:-1], xc).tolist()
+    x1 = np.where(b > 0, s[1:], xc).tolist()
+    adds = ((a > 0) | (b > 0)).tolist()
+    segs = []
+    for row0, row1, on in zip(x0, x1, adds, strict=True):
+        out: list[list[float]] = []
+        for p, q, add in zip(row0, row1, on, strict=True):
+            if not add:
+                continue
+            if out and abs(out[-1][1] - p) <= 1e-12 * max(1.0, abs(p)):
+                out[-1][1] = q
+            elif q > p:
+                out.append([p, q])
+        segs.append(tuple((p, q) for p, q in out))
+    return segs
 
 
 def line_integrals(lines: InfluenceLines, start_ft: float, end_ft: float) -> np.ndarray:
@@ -829,7 +871,7 @@ def concurrent_forces(lines: InfluenceLines, vehicle: Vehicle,
 
 def _tolerance(lines: InfluenceLines, x: np.ndarray) -> float:
     s = lines.stations_ft
-    return 1e-9 * max(1.0, float(s[-1] - s[0]) + float(np.ptp(x)))
+    return 1e-9 * max(1.0, float(s[-1] - s[0]) + float(x.max() - x.min()))  # as np.ptp
 
 
 def concurrent_lane_forces(lines: InfluenceLines, lane_klf: float,
@@ -893,6 +935,9 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
               ax.positions if ax is not None else None, lane.tolist())
              for mo, ax, lane in per_model]
     none = Extreme(0.0, 0.0, "", "", None, 0.0, ())  # immutable: one for every empty extreme
+    segments = ([_adverse_segments_rows(lines.stations_ft, lines.ordinates, sign)
+                 for sign in (1.0, -1.0)] if any(mo.lane_load_klf > 0 for mo in load.models)
+                else None)
     members = []
     for k, label in enumerate(lines.member_labels):
         ext = []
@@ -903,9 +948,7 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
             if axle_v == 0.0 and lane_v == 0.0:
                 ext.append(none)
                 continue
-            segs = (adverse_segments(lines.stations_ft, lines.ordinates[k],
-                                     1.0 if sense == 0 else -1.0)
-                    if mo.lane_load_klf > 0 and lane_v != 0.0 else ())
+            segs = segments[sense][k] if mo.lane_load_klf > 0 and lane_v != 0.0 else ()
             ext.append(Extreme(axle_v, lane_v, mo.name, mo.vehicle_id,
                                pos[sense][k] if pos is not None else None, mo.lane_load_klf,
                                segs, mo.neglect_opposing_axles))
