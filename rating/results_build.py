@@ -304,7 +304,14 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             return t
         out = si_texts.get(t)
         if out is None:
-            out = si_texts[t] = si_text(t)
+            head, sep, rest = t.partition(": ")
+            if sep and rest and head.startswith("member "):
+                # "member X: words", the same words for many members: converted once (no
+                # quantity reaches across ": ", so the parts convert as the whole)
+                out = text(head + sep) + text(rest)
+            else:
+                out = si_text(t)
+            si_texts[t] = out
         return out
 
     support = {s.joint: s.kind.value for s in g.supports}
