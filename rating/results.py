@@ -380,6 +380,11 @@ _FIELD_TEXT = {
 }
 
 
+# the results objects that recur within one results object (build_results shares equal
+# positions and factors): their text is remembered by identity; other objects occur once
+_SHARED = frozenset((Position, Factors))
+
+
 @functools.cache
 def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
     """A function that makes the JSON writer of a results dataclass for one file: one
@@ -387,18 +392,21 @@ def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
     per value, took most of the time of a file). Compiled once per process."""
     names = _fields_with_dimensions(cls)
     first = [_first_check(f.type) for f in dataclasses.fields(cls)]
-    body = ["def write(o):",
-            "    hit = memo_get(id(o))",
-            "    if hit is not None:",
-            "        return hit[0]"]
+    shared = cls in _SHARED
+    body = ["def write(o):"]
+    if shared:
+        body += ["    hit = memo_get(id(o))",
+                 "    if hit is not None:",
+                 "        return hit[0]"]
     for k, (name, _) in enumerate(names):
         body.append(f"    v = o.{name}")
         body.append(f"    s{k} = {_FIELD_TEXT[first[k]].format(k=k)}")
     parts = "".join(f"{{h{k}}}{{s{k}}}" + ("," if k < len(names) - 1 else "")
                     for k in range(len(names)))
-    body += [f"    text = f'{{{{{parts}}}}}'",
-             "    memo[id(o)] = (text, o)  # o kept alive with its id",
-             "    return text"]
+    body.append(f"    text = f'{{{{{parts}}}}}'")
+    if shared:
+        body.append("    memo[id(o)] = (text, o)  # o kept alive with its id")
+    body.append("    return text")
     params = ", ".join(["val", "seq", "num", "enc", "str_get", "memo", "memo_get", "writer_of",
                         *(f"h{k}, d{k}, c{k}, t{k}" for k in range(len(names)))])
     source = f"def make({params}):\n" + "\n".join("    " + line for line in body) \
@@ -411,9 +419,10 @@ def _writer_factory(cls: type) -> Callable[..., Callable[[Any], str]]:
 class _JsonText:
     """JSON text of results objects, as :func:`to_plain` + ``json.dumps`` would write it.
 
-    One instance per file. It remembers the text of every results object met (by identity:
-    the same position recurs for many members and cases; the objects are immutable, so their
-    text is too), of every number written (per dimension) and each dataclass's writer."""
+    One instance per file. It remembers the text of the results objects that recur (by
+    identity: the same position recurs for many members and cases; the objects are
+    immutable, so their text is too), of every number and string written (numbers per
+    dimension), of tuple fields and each dataclass's writer."""
 
     def __init__(self, system: str) -> None:
         self.system = system
