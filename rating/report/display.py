@@ -112,13 +112,13 @@ class Display:
         return _fixed(x, decimals, signed)
 
     def force(self, value: float | None, signed: bool = False) -> str:
-        return self.number(value, "force", signed=signed)
+        return self.number(value, "force", None, signed)
 
     def length(self, value: float | None) -> str:
-        return self.number(value, "length")
+        return self.number(value, "length", None, False)
 
     def weight(self, value: float | None) -> str:
-        return self.number(value, "weight")
+        return self.number(value, "weight", None, False)
 
     def rf(self, value: float | None) -> str:
         """Rating factor to 2 decimals, rounded down (0.996 shows 0.99, never 1.00);
@@ -158,7 +158,7 @@ class Display:
 
     def field(self, obj: Any, name: str, signed: bool = False) -> str:
         """A dataclass field formatted by its own metadata (dimension)."""
-        return self.number(getattr(obj, name), dimensions(type(obj))[name], signed=signed)
+        return self.number(getattr(obj, name), dimensions(type(obj))[name], None, signed)
 
     def label(self, obj: Any, name: str) -> str:
         """Column header of a field: its metadata label with the display unit."""
