@@ -814,21 +814,37 @@ def _adverse_segments_rows(stations_ft: np.ndarray, Y: np.ndarray,
     a, b = v[:, :-1], v[:, 1:]
     with np.errstate(divide="ignore", invalid="ignore"):
         xc = s[:-1] + (s[1:] - s[:-1]) * a / (a - b)  # the zero crossing, where there is one
-    x0 = np.where(a > 0, s[:-1], xc).tolist()
-    x1 = np.where(b > 0, s[1:], xc).tolist()
-    adds = ((a > 0) | (b > 0)).tolist()
-    segs = []
-    for row0, row1, on in zip(x0, x1, adds, strict=True):
-        out: list[list[float]] = []
-        for p, q, add in zip(row0, row1, on, strict=True):
-            if not add:
-                continue
-            if out and abs(out[-1][1] - p) <= 1e-12 * max(1.0, abs(p)):
-                out[-1][1] = q
-            elif q > p:
-                out.append([p, q])
-        segs.append(tuple((p, q) for p, q in out))
-    return segs
+    x0 = np.where(a > 0, s[:-1], xc)
+    x1 = np.where(b > 0, s[1:], xc)
+    # the panels that add, in order along each row; each adds on to the stretch before when it
+    # starts where that one ends (within round-off), else starts a stretch of its own
+    r, i = np.nonzero((a > 0) | (b > 0))
+    p, q = x0[r, i], x1[r, i]
+    out: list[list[tuple[float, float]]] = [[] for _ in range(v.shape[0])]
+    # a panel of no length that starts no stretch is left out: the rows with one, one by one
+    odd = np.zeros(v.shape[0], dtype=bool)
+    odd[r[q <= p]] = True
+    for k in np.flatnonzero(odd).tolist():
+        row: list[list[float]] = []
+        on = r == k
+        for pk, qk in zip(p[on].tolist(), q[on].tolist(), strict=True):
+            if row and abs(row[-1][1] - pk) <= 1e-12 * max(1.0, abs(pk)):
+                row[-1][1] = qk
+            elif qk > pk:
+                row.append([pk, qk])
+        out[k] = [(pk, qk) for pk, qk in row]
+    keep = ~odd[r]
+    r, p, q = r[keep], p[keep], q[keep]
+    joins = np.zeros(r.size, dtype=bool)
+    joins[1:] = (r[1:] == r[:-1]) & (np.abs(q[:-1] - p[1:])
+                                     <= 1e-12 * np.maximum(1.0, np.abs(p[1:])))
+    first = np.flatnonzero(~joins)
+    last = np.empty_like(first)
+    last[:-1] = first[1:] - 1
+    last[-1:] = r.size - 1
+    for k, pk, qk in zip(r[first].tolist(), p[first].tolist(), q[last].tolist(), strict=True):
+        out[k].append((pk, qk))
+    return [tuple(row) for row in out]
 
 
 def line_integrals(lines: InfluenceLines, start_ft: float, end_ft: float) -> np.ndarray:
@@ -935,9 +951,12 @@ def envelope(lines: InfluenceLines, load: RatingLoad | Vehicle, *, im: float = 0
               ax.positions if ax is not None else None, lane.tolist())
              for mo, ax, lane in per_model]
     none = Extreme(0.0, 0.0, "", "", None, 0.0, ())  # immutable: one for every empty extreme
-    segments = ([_adverse_segments_rows(lines.stations_ft, lines.ordinates, sign)
-                 for sign in (1.0, -1.0)] if any(mo.lane_load_klf > 0 for mo in load.models)
-                else None)
+    segments = None
+    if any(mo.lane_load_klf > 0 for mo in load.models):
+        m = len(lines.member_labels)
+        both = _adverse_segments_rows(  # -Y: the stretches of sign -1
+            lines.stations_ft, np.concatenate((lines.ordinates, -lines.ordinates)), 1.0)
+        segments = (both[:m], both[m:])
     members = []
     for k, label in enumerate(lines.member_labels):
         ext = []
