@@ -111,14 +111,6 @@ class LiveTable:
 
 
 @dataclass(frozen=True)
-class PackingLine:
-    order: int
-    member: str
-    thickness: str
-    gap: str
-
-
-@dataclass(frozen=True)
 class PackingChunk:
     """Up to 12 plates of a pin's packing table: the cells of each of its rows as HTML."""
 
@@ -129,20 +121,13 @@ class PackingChunk:
 
 
 @dataclass(frozen=True)
-class PinRating:
-    vehicle: str
-    rf: Cell
-    check: str
-    method: str
-
-
-@dataclass(frozen=True)
 class PinView:
+    """One pin's block: its lowest rating, packing drawing and packing table (its rating
+    factors by vehicle are in the pin tables)."""
+
     joint: str
     diameter: str
     governing_section: str
-    packing: tuple[PackingLine, ...]
-    ratings: tuple[PinRating, ...]
     lowest: Cell
     drawing: Markup
     warnings: tuple[str, ...]
@@ -674,17 +659,16 @@ def _from_memory(text: str) -> bool:
 
 def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, VehicleResult],
               rf_cell: Any) -> PinView:
-    packing = tuple(PackingLine(k + 1, r.member or "filler", d.field(r, "thickness"),
-                                d.field(r, "gap_before")) for k, r in enumerate(p.packing))
-    label = _vehicle_label
-    ratings = tuple([PinRating(label(vmap.get(vid), vid), rf_cell(r.rf), r.check, r.method)
-                     for vid, r in p.ratings.items()])
     low = svg.lowest_rating(p.ratings.items())
-    chunks = tuple(PackingChunk(
-        _num_cells([str(x.order) for x in lines]), _num_cells([x.member for x in lines]),
-        _num_cells([x.thickness for x in lines]), _num_cells([x.gap for x in lines]))
-        for lines in (packing[k:k + 12] for k in range(0, len(packing), 12)))
-    return PinView(p.joint, d.field(p, "diameter"), p.governing_section, packing, ratings,
+    rows = p.packing
+    orders = [str(k + 1) for k in range(len(rows))]
+    names = [r.member or "filler" for r in rows]
+    thick = [d.field(r, "thickness") for r in rows]
+    gaps = [d.field(r, "gap_before") for r in rows]
+    chunks = tuple(PackingChunk(_num_cells(orders[k:k + 12]), _num_cells(names[k:k + 12]),
+                                _num_cells(thick[k:k + 12]), _num_cells(gaps[k:k + 12]))
+                   for k in range(0, len(rows), 12))
+    return PinView(p.joint, d.field(p, "diameter"), p.governing_section,
                    rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
                    lowest_vehicle=_vehicle_label(vmap.get(low[0]), low[0]) if low else "",
                    lowest_check=low[1].check if low else "", packing_chunks=chunks)
