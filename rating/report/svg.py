@@ -90,8 +90,11 @@ def _text_at(fx: str, fy: str, content: str, size: float = 9, anchor: str = "mid
         more += ' stroke="#fff" stroke-width="3" paint-order="stroke" stroke-linejoin="round"'
     if rotate is not None:
         more += f' transform="rotate({rotate:g} {fx} {fy})"'
-    return (f'<text x="{fx}" y="{fy}" font-size="{size:g}" text-anchor="{anchor}" '
-            f'fill="{fill}"{more}>{esc(content)}</text>')
+    return (f'<text x="{fx}" y="{fy}" font-size="{_SIZES.get(size) or format(size, "g")}" '
+            f'text-anchor="{anchor}" fill="{fill}"{more}>{esc(content)}</text>')
+
+
+_SIZES = {7.5: "7.5", 8: "8", 8.5: "8.5", 9: "9"}  # the font sizes used, written as by :g
 
 
 def _svg(width: float, height: float, title: str, body: Sequence[str], cls: str) -> Markup:

@@ -138,8 +138,8 @@ class PinView:
 
 @dataclass(frozen=True)
 class PinRow:
-    """A pin's row of the table of rating factors by vehicle; ``cells``: its RF cells as HTML
-    (numbers and band keys only)."""
+    """A pin's row of the table of rating factors by vehicle; ``cells``: the pin and its RF
+    cells as HTML."""
 
     joint: str
     cells: Markup
@@ -205,8 +205,8 @@ class VehicleRow:
 
 @dataclass(frozen=True)
 class SectionRow:
-    """A member's governing section in the appendix; ``cells``: A_g, A_n, F_y, F_u, length,
-    K and KL/r as HTML table cells."""
+    """A member's governing section in the appendix; ``cells``: the member, A_g, A_n, F_y,
+    F_u, length, K and KL/r as HTML table cells."""
 
     id: str
     cells: Markup
@@ -214,8 +214,8 @@ class SectionRow:
 
 @dataclass(frozen=True)
 class CheckRow:
-    """One resistance check in the appendix; ``cells``: check, sense, phi, R_n, factored
-    resistance, provision, location and finding as HTML table cells (escaped)."""
+    """One resistance check in the appendix; ``cells``: the member, check, sense, phi, R_n,
+    factored resistance, provision, location and finding as HTML table cells (escaped)."""
 
     member: str
     cells: Markup
@@ -325,14 +325,20 @@ def _cell(d: Display, bands: svg.RFBands, rf: float | None) -> Cell:
     return Cell(d.rf_text(rf), bands.key(rf))
 
 
-def _num_cells(texts: Iterable[str]) -> Markup:
-    """Table cells of numbers (or other text, escaped), as the template wrote them."""
-    return Markup("".join([f'<td class="num">{esc(t)}</td>' for t in texts]))
+def _id_cell(text: str) -> str:
+    """HTML of the first cell of a row, an element's id (escaped)."""
+    return f'<td class="id">{esc(text)}</td>'
 
 
-def _rf_cells(cells: Iterable[Cell]) -> Markup:
-    """RF table cells shaded by band (numbers and band keys only: nothing to escape)."""
-    return Markup("".join([f'<td class="rf {c.band}">{c.text}</td>' for c in cells]))
+def _num_cells(texts: Iterable[str]) -> str:
+    """HTML of table cells of numbers (or other text, escaped), as the template wrote them."""
+    return "".join([f'<td class="num">{esc(t)}</td>' for t in texts])
+
+
+def _rf_cells(cells: Iterable[Cell]) -> str:
+    """HTML of RF table cells shaded by band (numbers and band keys only: nothing to
+    escape)."""
+    return "".join([f'<td class="rf {c.band}">{c.text}</td>' for c in cells])
 
 
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
@@ -572,8 +578,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     step_p = max(1, 2 * vehicles_per_table)
     for k in range(0, len(vs) if results.pins else 0, step_p):
         chunk = tuple(vs[k:k + step_p])
-        prow = tuple(PinRow(p.joint, _rf_cells(
-            rf_cell(p.ratings[v.id].rf if v.id in p.ratings else None) for v in chunk))
+        prow = tuple(PinRow(p.joint, Markup(_id_cell(p.joint) + _rf_cells(
+            rf_cell(p.ratings[v.id].rf if v.id in p.ratings else None) for v in chunk)))
             for p in results.pins)
         pin_tables.append(PinTable(chunk, prow))
 
@@ -609,14 +615,14 @@ def build_view(results: RatingResults, *, paper: str | None = None,
 
     # the appendix's tables, the longest of the report, as HTML cells (a cell at a time in
     # the template cost as much as the rest of the report's text)
-    sections = tuple(SectionRow(m.id, _num_cells((
+    sections = tuple(SectionRow(m.id, Markup(_id_cell(m.id) + _num_cells((
         d.field(m.section, "A_g"), d.field(m.section, "A_n"),
         d.field(m.section, "F_y"), d.field(m.section, "F_u"), d.field(m.section, "length"),
         DASH if m.section.K is None else f"{m.section.K:.3f}",
-        DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}")))
+        DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}"))))
         for m in results.members if m.section is not None)
     checks = tuple(CheckRow(m.id, Markup(
-        f"<td>{esc(c.name)}</td><td>{esc(c.sense)}</td>"
+        f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}</td><td>{esc(c.sense)}</td>'
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
         f"<td>{esc(c.location)}</td><td>{esc(c.finding)}</td>"))
@@ -665,8 +671,8 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
     names = [r.member or "filler" for r in rows]
     thick = [d.field(r, "thickness") for r in rows]
     gaps = [d.field(r, "gap_before") for r in rows]
-    chunks = tuple(PackingChunk(_num_cells(orders[k:k + 12]), _num_cells(names[k:k + 12]),
-                                _num_cells(thick[k:k + 12]), _num_cells(gaps[k:k + 12]))
+    chunks = tuple(PackingChunk(*(Markup(_num_cells(texts[k:k + 12]))
+                                  for texts in (orders, names, thick, gaps)))
                    for k in range(0, len(rows), 12))
     return PinView(p.joint, d.field(p, "diameter"), p.governing_section,
                    rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
