@@ -375,8 +375,9 @@ _FIELD_TEXT = {
     # a tuple, remembered by identity (results share the tuples of equal positions' parts)
     "tuple": "(h[0] if (h := t{k}.get(id(v))) else seq(v, d{k}, c{k}, t{k})) "
              "if v.__class__ is tuple else val(v, d{k})",
-    # a results object (or None, or any other value)
-    "": "'null' if v is None else w(v) if (w := writer_of(v.__class__)) else val(v, d{k})",
+    # a results object, remembered or not (or None, or any other value)
+    "": "'null' if v is None else h[0] if (h := memo_get(id(v))) else w(v) "
+        "if (w := writer_of(v.__class__)) else val(v, d{k})",
 }
 
 
@@ -497,6 +498,12 @@ class _JsonText:
         w = self.writers[cls] = _writer_factory(cls)(*args)
         return w
 
+    def mapping(self, obj: Mapping[Any, Any], dimension: str | None) -> str:
+        plain = {str(k): v for k, v in obj.items()}
+        value, known, string = self.value, self.strings.get, self.string
+        return "{" + ",".join([(known(k) or string(k)) + ":" + value(v, dimension)
+                               for k, v in plain.items()]) + "}"
+
     def value(self, obj: Any, dimension: str | None) -> str:
         t = type(obj)
         w = self.writers.get(t)
@@ -512,13 +519,12 @@ class _JsonText:
             return self.items(obj, dimension)
         if t is bool:
             return "true" if obj else "false"
+        if t is dict:
+            return self.mapping(obj, dimension)
         if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
             return self.writer(t)(obj)
         if isinstance(obj, Mapping):
-            plain = {str(k): v for k, v in obj.items()}
-            value, known, string = self.value, self.strings.get, self.string
-            return "{" + ",".join([(known(k) or string(k)) + ":" + value(v, dimension)
-                                   for k, v in plain.items()]) + "}"
+            return self.mapping(obj, dimension)
         if isinstance(obj, tuple | list):
             return self.items(obj, dimension)
         if isinstance(obj, int | float):
