@@ -39,11 +39,13 @@ FONT = "font-family:'DejaVu Sans',Arial,Helvetica,sans-serif"
 def lowest_rating(ratings: Iterable[tuple[str, Rating]]) -> tuple[str, Rating] | None:
     """(vehicle id, rating) with the lowest finite-or-infinite RF; ``None`` when none."""
     best: tuple[str, Rating] | None = None
+    low = 0.0
     for vid, r in ratings:
-        if r.rf is None or math.isnan(r.rf):
+        rf = r.rf
+        if rf is None or rf != rf:  # not rated, or NaN
             continue
-        if best is None or r.rf < best[1].rf:
-            best = (vid, r)
+        if best is None or rf < low:
+            best, low = (vid, r), rf
     return best
 
 
