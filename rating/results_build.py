@@ -172,12 +172,6 @@ def _offsets(spacings_ft: tuple[float, ...], memo: dict | None
     return hit
 
 
-def _rating(r: MemberCaseRating, case: RatingCase, text=lambda t: t,
-            memo: dict | None = None) -> Rating:
-    return Rating(r.rf, r.sense, r.check, _factors(r, memo), r.method,
-                  _position(r.extreme, case.load, memo), _finding(r.finding, text, memo))
-
-
 def _finding(f: Finding | None, text, memo: dict | None) -> str:
     """A finding's words (in the bridge's units); written once per finding with ``memo`` (a
     member's governing finding recurs in every case)."""
@@ -333,20 +327,24 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             gamma_ll=case.gamma_ll.value, im=case.im.value))
     idx = g.member_index
     members = []
-    cases = [(case, case.id, case.load, case.im.value) for case in rating.cases]
+    cases = [(case.id, case.load, case.im.value) for case in rating.cases]
     live_of, rating_of = rating.live, rating.ratings
     for m in g.members:
         cap = rating.capacities[m.label]
         i = idx[m.label]
         live = {}
         ratings = {}
-        for case, cid, load, im in cases:
+        for cid, load, im in cases:
             e = live_of[(m.label, cid)]
-            live[cid] = LiveLoadEffect(
-                e.max, e.min, e.max_with_im, e.min_with_im, e.distribution_factor, im,
-                _position(e.max_extreme, load, positions),
-                _position(e.min_extreme, load, positions))
-            ratings[cid] = _rating(rating_of[(m.label, cid)], case, text, positions)
+            hi, lo = e.max_extreme, e.min_extreme
+            at_hi, at_lo = _position(hi, load, positions), _position(lo, load, positions)
+            live[cid] = LiveLoadEffect(e.max, e.min, e.max_with_im, e.min_with_im,
+                                       e.distribution_factor, im, at_hi, at_lo)
+            r = rating_of[(m.label, cid)]
+            ext = r.extreme  # most often one of the two extremes, placed just above
+            at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
+            ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
+                                  _finding(r.finding, text, positions))
         s = cap.summary
         phi_cs = cap.phi_cs
         checks = tuple(
@@ -373,7 +371,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         pr = {}
         governing, gov_chk, gov_case = "", None, ""
         worst = math.inf
-        for _, cid, load, _ in cases:
+        for cid, load, _ in cases:
             r = p.ratings[cid]
             pr[cid] = Rating(r.rf, "pin", r.check, None, "load multiplier",
                              _position(r.extreme, load, positions))
