@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -96,6 +96,33 @@ class Display:
                 text = self._texts[key] = self._number(value, dimension, decimals, signed)
             return text
         return self._number(value, dimension, decimals, signed)
+
+    def formatter(self, dimension: str | None = None, decimals: int | None = None,
+                  signed: bool = False) -> Callable[[float | None], str]:
+        """``number`` with these rules, for a long run of values (a table): its own memo of
+        texts by value."""
+        texts: dict[float, str] = {}
+        number = self._number
+        # the rules of _number worked out once: decimals, and the SI unit to convert to
+        places = _DECIMALS.get(dimension or "", (2, 2))[1 if self.system == "SI" else 0] \
+            if decimals is None else decimals
+        si = DISPLAY_UNITS[dimension][1] if dimension is not None and self.system != "US" \
+            else None
+
+        def text(value: float | None) -> str:
+            if type(value) is float:
+                out = texts.get(value)
+                if out is None:
+                    if math.isfinite(value):
+                        out = _fixed(value if si is None else from_core(value, si), places,
+                                     signed)
+                    else:
+                        out = DASH
+                    texts[value] = out
+                return out
+            return number(value, dimension, decimals, signed)
+
+        return text
 
     def _number(self, value: float | None, dimension: str | None, decimals: int | None,
                 signed: bool) -> str:

@@ -553,7 +553,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     live_tables: list[LiveTable] = []
     vs = results.vehicles
     step = max(1, vehicles_per_table)
-    force = d.force
+    force = d.formatter("force", signed=True)
     for k in range(0, len(vs), step):
         chunk = tuple(vs[k:k + step])
         lrows = []
@@ -563,8 +563,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             for v in chunk:
                 ll = live_of(v.id)
                 r = rating_of(v.id)
-                hi = force(ll.max_with_im, True) if ll else DASH
-                lo = force(ll.min_with_im, True) if ll else DASH
+                hi = force(ll.max_with_im) if ll else DASH
+                lo = force(ll.min_with_im) if ll else DASH
                 rf = rf_cell(r.rf if r else None)
                 # numbers and band keys only, as Display and RFBands write them: nothing
                 # to escape

@@ -84,3 +84,50 @@ def test_fields_formatted_by_their_own_metadata() -> None:
     assert SI.field(f, "remaining_thickness") == "12.7"
     p = PostingResultEntry(rf=0.5, rating_tons=10.0, posting_tons=None)
     assert US.field(p, "posting_tons") == DASH
+
+
+def _fixed_as_written(x: float, decimals: int, signed: bool = False) -> str:
+    """The report's fixed-point text as first written: grouped digits, minus sign, zero
+    without a sign (the faster paths of Display must write the same)."""
+    text = format(x, f",.{decimals}f")
+    if not text.strip("-0.,"):
+        return text.lstrip("-")
+    if text[0] == "-":
+        return MINUS + text[1:]
+    return ("+" + text) if signed else text
+
+
+NUMBERS = (st.floats(allow_nan=True, allow_infinity=True)
+           | st.floats(-2000.0, 2000.0) | st.sampled_from([-999.0, 999.0, -998.96, 998.96,
+                                                           999.5, -0.0, 0.004, -0.004]))
+
+
+@settings(max_examples=400, deadline=None)
+@given(value=NUMBERS, dimension=st.sampled_from([None, "force", "length", "dimension", "area"]),
+       decimals=st.sampled_from([None, 0, 1, 2, 3]), signed=st.booleans(),
+       system=st.sampled_from(["US", "SI"]))
+def test_numbers_as_first_written(value: float, dimension: str | None, decimals: int | None,
+                                  signed: bool, system: str) -> None:
+    d = Display(system)
+    if not math.isfinite(value):
+        expected = DASH
+    else:
+        places = decimals if decimals is not None else \
+            {"force": (1, 1), "length": (2, 2), "dimension": (3, 1), "area": (2, 0)}.get(
+                dimension or "", (2, 2))[system == "SI"]
+        expected = _fixed_as_written(d.convert(value, dimension), places, signed)
+    assert d.number(value, dimension, decimals, signed) == expected
+    assert d.formatter(dimension, decimals, signed)(value) == expected  # a table's own memo
+
+
+@settings(max_examples=400, deadline=None)
+@given(st.floats(-1e12, 1e12) | st.sampled_from([math.nan, math.inf, -math.inf, -0.0, -999.0,
+                                                 999.0, 998.995, -998.995, 0.996, -0.001]))
+def test_rf_as_first_written(rf: float) -> None:
+    if math.isnan(rf) or rf == math.inf:
+        expected = DASH
+    elif rf == -math.inf:
+        expected = NEG_INF
+    else:
+        expected = _fixed_as_written(math.floor(rf * 100.0 + 1e-7) / 100.0, 2)
+    assert US.rf(rf) == expected == Display.rf_text(rf)
