@@ -39,6 +39,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from enum import StrEnum
 from functools import cached_property
+from itertools import accumulate
 
 import numpy as np
 
@@ -355,6 +356,7 @@ class _Search:
     stations: np.ndarray
     Y: np.ndarray
     B: np.ndarray
+    mirrored: bool = False  # the rows are Y0 then -Y0 (the max and the min of the same lines)
 
 
 @dataclass(frozen=True, eq=False)
@@ -363,7 +365,9 @@ class _Batch:
     _PAD_FT), the rows ``rows[p]`` of ``V`` (the lines at B, padded with the last value)
     and of ``K``, the change of slope at each breakpoint (zero at the padding). ``jumps``:
     some line is not zero at an end of the bridge. ``runs``: the searches [k0, k1) on the
-    same stations (one direction of travel)."""
+    same stations (one direction of travel). ``mirrored``: ``V`` holds the first half of each
+    search's rows only (the other half is their negative, see :func:`_rigid_best`);
+    ``out_rows[p]``: the rows of search p in the results."""
 
     B: np.ndarray  # (n_p, nb_max)
     nb: np.ndarray  # (n_p,)
@@ -373,6 +377,8 @@ class _Batch:
     pid: np.ndarray  # (R,) search of each row
     jumps: bool
     runs: tuple[tuple[int, int], ...]
+    mirrored: bool
+    out_rows: tuple[slice, ...]
 
 
 def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
@@ -381,10 +387,14 @@ def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
     B = np.full((len(searches), nb_max), _PAD_FT)
     for p, s in enumerate(searches):
         B[p, :s.B.size] = s.B
-    sizes = [s.Y.shape[0] for s in searches]
+    out_rows = _blocks([s.Y.shape[0] for s in searches])
+    mirrored = not neglect and all(s.mirrored for s in searches)
+    if mirrored:
+        V = np.concatenate([s.Y[:s.Y.shape[0] // 2] for s in searches])
+        mirrored = not (V[:, 0].any() or V[:, -1].any())  # jumps: each sense on its own
+    sizes = [s.Y.shape[0] // 2 if mirrored else s.Y.shape[0] for s in searches]
     pid = np.repeat(np.arange(len(searches)), sizes)
-    r_end = np.cumsum(sizes).tolist()
-    rows = tuple(slice(r1 - r, r1) for r, r1 in zip(sizes, r_end, strict=True))
+    rows = _blocks(sizes)
     runs = []
     k0 = 0
     for k in range(1, len(searches) + 1):
@@ -398,10 +408,16 @@ def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
             searches[k0].stations, np.concatenate([s.Y for s in searches[k0:k1]]),
             grid[k0:k1], pid[rows[k0].start:rows[k1 - 1].stop] - k0), 0.0)
             for k0, k1 in runs])
-    else:
+    elif not mirrored:
         V = np.concatenate([s.Y for s in searches]) if len(searches) > 1 else searches[0].Y
     jumps = bool(V[:, 0].any() or V[:, -1].any())
-    return _Batch(B, nb, V, _kinks(B, V, pid), rows, pid, jumps, tuple(runs))
+    return _Batch(B, nb, V, _kinks(B, V, pid), rows, pid, jumps, tuple(runs), mirrored,
+                  out_rows)
+
+
+def _blocks(sizes: Sequence[int]) -> tuple[slice, ...]:
+    """Consecutive blocks of rows of the given sizes."""
+    return tuple(slice(e - n, e) for n, e in zip(sizes, accumulate(sizes), strict=True))
 
 
 def _kinks(B: np.ndarray, V: np.ndarray, pid: np.ndarray) -> np.ndarray:
@@ -581,10 +597,33 @@ def _rigid_best(bt: _Batch, P: np.ndarray, D: np.ndarray, groups: np.ndarray,
     R = bt.V.shape[0]
     rows = np.arange(R)
     q = np.argmax(best, axis=1)
+    if bt.mirrored:
+        return _mirror(bt, c, best, q, gap_value)
     sides = combos[_choice_at(sc.jc, choice, q)]
     if n_groups == 1:
         sides = np.concatenate((sides, sides), axis=1)
     return _Best(best[rows, q], c.u[bt.pid, q], np.full(R, gap_value), sides)
+
+
+def _mirror(bt: _Batch, c: _Candidates, best: np.ndarray, q: np.ndarray,
+            gap_value: float) -> _Best:
+    """The results of a mirrored batch (rows y searched, -y not; no jumps): every sum of the
+    search of -y is the negative of that of y, exactly, so its maximum is at the first least
+    tie group of y (argmin; argmax of the negatives gives the same)."""
+    U = best.shape[1]
+    for p, r in enumerate(bt.rows):
+        if c.n_real[p] < U:
+            best[r, c.n_real[p]:] = np.inf
+    q_min = np.argmin(best, axis=1)
+    # each search's rows: those of y, then the same for -y
+    value, x = [], []
+    for p, r in enumerate(bt.rows):
+        rows = np.arange(r.start, r.stop)
+        value += [best[rows, q[r]], -best[rows, q_min[r]]]
+        x += [c.u[p, q[r]], c.u[p, q_min[r]]]
+    R = 2 * best.shape[0]
+    return _Best(np.concatenate(value), np.concatenate(x), np.full(R, gap_value),
+                 np.zeros((R, 2), dtype=np.intp))
 
 
 def _pair_best(bt: _Batch, P: np.ndarray, D_front: np.ndarray, D_rear: np.ndarray,
@@ -636,7 +675,7 @@ def _sup_forward(searches: Sequence[_Search], P: np.ndarray, lo: np.ndarray, hi:
     """Supremum over all forward positions (and spacings) of sum P_j y(x - d_j), per row of
     the searches stacked: (value, front-axle station, spacings)."""
     bt = _batch(searches, neglect)
-    R = bt.V.shape[0]
+    R = bt.out_rows[-1].stop
     a = P.size
     var = np.flatnonzero(hi - lo > tol)
     gaps = lo.copy()
@@ -678,13 +717,13 @@ def _sup_forward(searches: Sequence[_Search], P: np.ndarray, lo: np.ndarray, hi:
     value = np.empty(R)
     for k0, k1 in bt.runs:
         # one evaluation for the searches on the same stations
-        rows = slice(bt.rows[k0].start, bt.rows[k1 - 1].stop)
+        rows = slice(bt.out_rows[k0].start, bt.out_rows[k1 - 1].stop)
         Y = searches[k0].Y if k1 == k0 + 1 else np.concatenate([s.Y for s in searches[k0:k1]])
         y = _eval_line(searches[k0].stations, Y, X[rows], None if side is None else side[rows],
                        tol, neglect)
         for p in range(k0, k1):
             # one product per search: BLAS sums a row differently by its place in the matrix
-            r = bt.rows[p]
+            r = bt.out_rows[p]
             np.matmul(y[r.start - rows.start:r.stop - rows.start], P, out=value[r])
     return value, x, spac
 
@@ -741,13 +780,15 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         # the maxima of +Y and -Y (the max and the min) in one search, rows stacked; every
         # direction and chunk of rows is a search of its own, solved in few batches
         searches = []
+        # a rigid series on the lines as they are: -Y needs no search of its own
+        mirrored = not (neglect_opposing_axles or chunk < 2 * m or np.any(hi - lo > tol))
         for d in dirs:
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
             Ys = np.concatenate((Yd, -Yd))
             Bs = (_adverse_grids(st, Ys, chunk, tol) if neglect_opposing_axles
                   else [st] * -(-2 * m // chunk))
-            searches += [_Search(st, Ys[r0:r0 + chunk], B)
+            searches += [_Search(st, Ys[r0:r0 + chunk], B, mirrored)
                          for r0, B in zip(range(0, 2 * m, chunk), Bs, strict=True)]
         parts = [_sup_forward(b, P, lo, hi, neglect_opposing_axles, tol, vehicle.id)
                  for b in _batches(searches, P.size)]

@@ -176,3 +176,29 @@ def test_axles_sharing_a_tie_group_over_an_end_jump():
     assert both.position(1, 0).direction is Direction.REVERSE
     # the member without a jump, in the same search: 40 kip over its peak, 10 x 16/20 behind
     assert both.value_kip[0, 1] == pytest.approx(40.0 + 10.0 * 16.0 / 20.0)
+
+
+@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(lines=many_lines(min_members=2, max_members=30),
+       loads=st.lists(st.floats(0.5, 40.0, allow_nan=False), min_size=1, max_size=5),
+       data=st.data())
+def test_minimum_from_the_search_of_the_maximum(lines, loads, data):
+    # A rigid series with all axles counted searches lines that do not jump at the bridge
+    # ends once for both senses (the search of -y is that of y negated, exactly); one line
+    # that jumps (a deck truss's end vertical) makes every line of the set searched once per
+    # sense. Both ways must find the same critical positions.
+    gaps = data.draw(st.lists(SPACINGS, min_size=len(loads) - 1, max_size=len(loads) - 1))
+    v = _vehicle(loads, [AxleSpacing(g, g) for g in gaps])
+    s = lines.stations_ft
+    Y = lines.ordinates.copy()
+    Y[:, [0, -1]] = 0.0
+    end = np.zeros((1, s.size))
+    end[0, 0] = -1.0
+    once = axle_extremes(InfluenceLines(lines.member_labels, s, Y), v)
+    twice = axle_extremes(InfluenceLines(lines.member_labels + ("END",), s,
+                                         np.vstack((Y, end))), v)
+    for k in range(len(lines.member_labels)):
+        for sense in (0, 1):
+            assert once.position(sense, k) == twice.position(sense, k)
+            assert once.value_kip[sense, k] == pytest.approx(twice.value_kip[sense, k],
+                                                             rel=1e-12, abs=1e-12)
