@@ -260,12 +260,14 @@ def _check_lines(lines: InfluenceLines) -> None:
 
 
 def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndarray | None,
-               tol: float, clip: bool) -> np.ndarray:
+               tol: float, clip: bool, ends_zero: bool = False) -> np.ndarray:
     """Ordinates of each row of ``Y`` at the points ``X`` (shape (m, a), one row per member).
 
     ``side`` (shape of X, or broadcast to it) picks the value exactly at X (0), the limit from
     below (1) or from above (2); they differ only at the ends of the bridge, where the line
-    jumps to zero. None: the value exactly at X everywhere.
+    jumps to zero. None: the value exactly at X everywhere. ``ends_zero``: no row is above
+    zero at an end of the bridge (with ``clip``; else not zero), so a point off the bridge,
+    taken at the nearer end, gives zero anyway (perhaps -0.0).
     """
     s0, s1 = stations[0], stations[-1]
     n = stations.size
@@ -280,6 +282,8 @@ def _eval_line(stations: np.ndarray, Y: np.ndarray, X: np.ndarray, side: np.ndar
     at += idx
     Yf = Y.ravel()
     y = (Yf[at] * (1.0 - t) + Yf[at + 1] * t).reshape(X.shape)
+    if ends_zero:
+        return np.maximum(y, 0.0) if clip else y
     on = (X > s0 + tol) & (X < s1 - tol)
     if not on.all():
         at0 = np.abs(X - s0) <= tol
@@ -306,6 +310,7 @@ def _adverse_grids(stations: np.ndarray, Y: np.ndarray, chunk: int,
     W[r // chunk, (r % chunk) * (n - 1) + i] = stations[i] + np.diff(stations)[i] * ar / (ar - br)
     # the distinct crossings of each chunk, in order (np.unique), _PAD_FT after them
     W.sort(axis=1)
+    W = W[:, :max(1, int(np.bincount(r // chunk).max(initial=0)))]
     keep = np.empty(W.shape, dtype=bool)
     keep[:, 0] = True
     np.not_equal(W[:, 1:], W[:, :-1], out=keep[:, 1:])
@@ -720,7 +725,7 @@ def _sup_forward(searches: Sequence[_Search], P: np.ndarray, lo: np.ndarray, hi:
         rows = slice(bt.out_rows[k0].start, bt.out_rows[k1 - 1].stop)
         Y = searches[k0].Y if k1 == k0 + 1 else np.concatenate([s.Y for s in searches[k0:k1]])
         y = _eval_line(searches[k0].stations, Y, X[rows], None if side is None else side[rows],
-                       tol, neglect)
+                       tol, neglect, not bt.jumps)
         for p in range(k0, k1):
             # one product per search: BLAS sums a row differently by its place in the matrix
             r = bt.out_rows[p]
@@ -781,7 +786,7 @@ def axle_extremes(lines: InfluenceLines, vehicle: Vehicle, *,
         # direction and chunk of rows is a search of its own, solved in few batches
         searches = []
         # a rigid series on the lines as they are: -Y needs no search of its own
-        mirrored = not (neglect_opposing_axles or chunk < 2 * m or np.any(hi - lo > tol))
+        mirrored = not (neglect_opposing_axles or chunk < 2 * m or (hi - lo > tol).any())
         for d in dirs:
             st = s if d is Direction.FORWARD else -s[::-1]
             Yd = Y if d is Direction.FORWARD else Y[:, ::-1]
