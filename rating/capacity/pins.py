@@ -365,8 +365,11 @@ def _section_forces(z: np.ndarray, F: np.ndarray) -> tuple[np.ndarray, ...]:
     total = F.sum(axis=0)
     V_Rp = total[None, :] - V_Lp  # load beyond the point
     V_Rm = total[None, :] - V_Lm
-    M = np.maximum(np.linalg.norm(M_L, axis=1), np.linalg.norm(M_R, axis=1))
-    V = np.max(np.stack([np.linalg.norm(v, axis=1) for v in (V_Lm, V_Lp, V_Rp, V_Rm)]), axis=0)
+    # (the lengths of the 2-vectors, as np.linalg.norm(..., axis=1) gives them, in one pass)
+    lens = np.sqrt(np.add.reduce(np.square(np.stack([M_L, M_R, V_Lm, V_Lp, V_Rp, V_Rm])),
+                                 axis=2))
+    M = np.maximum(lens[0], lens[1])
+    V = lens[2:].max(axis=0)
     return M_L, V_Lp, M, V
 
 
@@ -485,7 +488,7 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
     M_Rd = en_moment_resistance(D, Fy, gamma_M0)
     Fv_Rd = en_shear_resistance(D, Fu, gamma_M2)
     en = en_interaction(M, V, M_Rd, Fv_Rd)
-    Fmag = np.linalg.norm(F, axis=1)
+    Fmag = np.sqrt(np.add.reduce(np.square(F), axis=1))
     npl = lay.n_plates
     cap = phi_b * lrfd_bearing_nominal(lay.t[:npl], D, lay.Fy_bearing[:npl])
     bear = Fmag[:npl] / cap
