@@ -13,6 +13,10 @@ How the search works, per direction (reverse travel is forward travel on the mir
   they are sorted once. Per member the effect's slope changes at a candidate by
   ``P_j x (kink of the line at the breakpoint)``, so the effect at every candidate follows from
   cumulative sums, vectorized over members x candidates: cost ~ members x panels x axles.
+  The maximum and the minimum are the maxima of y and of -y. Both directions (and, for many
+  members, every chunk of them) are stacked into one batch of searches; each row gets exactly
+  the sums of a search of its own. For a rigid series with all axles counted, the sums for -y
+  are those for y negated, exactly: one search gives both.
 * A line that is not zero at an end of the bridge (e.g. the end vertical of a deck truss)
   jumps there. The supremum is then taken over the one-sided limits too; when a limit
   governs, the reported position is moved 1e-6 ft to that side so that
@@ -52,6 +56,9 @@ NUDGE_FT = 1e-6
 """Distance a reported position is moved to the side of a one-sided limit (see module doc)."""
 
 _MAX_CHUNK_ELEMENTS = 2_000_000
+_PAD_FT = 1e300
+"""Station of the padding breakpoints of a batch of searches (far beyond any bridge: any
+candidate position plus _PAD_FT is _PAD_FT)."""
 _SIDE_C, _SIDE_L, _SIDE_R = 0, 1, 2
 _SIDE_SHIFT = np.array([0.0, -1.0, 1.0])
 
@@ -348,9 +355,6 @@ def _interp_chunks(stations: np.ndarray, Y: np.ndarray, grid: np.ndarray,
 # search of its own. Breakpoints are padded at the end with _PAD_FT, far beyond any candidate,
 # so that the padding sorts after every real candidate, in a tie group of its own.
 
-_PAD_FT = 1e300
-"""Station of the padding breakpoints of a batch (any candidate plus _PAD_FT is _PAD_FT)."""
-
 
 @dataclass(frozen=True, eq=False)
 class _Search:
@@ -371,7 +375,7 @@ class _Batch:
     and of ``K``, the change of slope at each breakpoint (zero at the padding). ``jumps``:
     some line is not zero at an end of the bridge. ``runs``: the searches [k0, k1) on the
     same stations (one direction of travel). ``mirrored``: ``V`` holds the first half of each
-    search's rows only (the other half is their negative, see :func:`_rigid_best`);
+    search's rows only (the other half is their negative, see :func:`_mirror`);
     ``out_rows[p]``: the rows of search p in the results."""
 
     B: np.ndarray  # (n_p, nb_max)
@@ -396,7 +400,8 @@ def _batch(searches: Sequence[_Search], neglect: bool) -> _Batch:
     mirrored = not neglect and all(s.mirrored for s in searches)
     if mirrored:
         V = np.concatenate([s.Y[:s.Y.shape[0] // 2] for s in searches])
-        mirrored = not (V[:, 0].any() or V[:, -1].any())  # jumps: each sense on its own
+        # a line that jumps at an end: each sense searched on its own (its own sides)
+        mirrored = not (V[:, 0].any() or V[:, -1].any())
     sizes = [s.Y.shape[0] // 2 if mirrored else s.Y.shape[0] for s in searches]
     pid = np.repeat(np.arange(len(searches)), sizes)
     rows = _blocks(sizes)

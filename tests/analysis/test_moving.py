@@ -262,6 +262,24 @@ def test_end_jump_one_sided_limit_and_isolated_state():
     assert concurrent_forces(lines, v, pos)[0] == pytest.approx(10.0, abs=1e-4)
 
 
+def test_axles_sharing_a_tie_group_over_an_end_jump():
+    # Deck-truss end vertical: -1 at the bearing station 0, zero from the next panel point
+    # (20 ft). Two 20-kip axles at zero spacing (one point load of 40 kip) with a third 10-kip
+    # axle 4 ft behind. Hand statics, forward travel (axles at x - d): the pair at x, the third
+    # at x - 4, on the deck for x >= 4: -40 (1 - x/20) - 10 (1 - (x - 4)/20), least at x = 4:
+    # -32 - 10 = -42 kip (the pair alone over the bearing gives -40). Reverse travel: the pair
+    # exactly over the bearing and the third axle 4 ft in: -40 - 10 x 16/20 = -48 kip.
+    lines = _lines([0.0, 20.0, 40.0], [-1.0, 0.0, 0.0], [0.0, 1.0, 0.0])
+    v = _veh([20.0, 20.0, 10.0], [0.0, 4.0])
+    fwd = axle_extremes(lines, v, directions=[Direction.FORWARD])
+    assert fwd.value_kip[1, 0] == pytest.approx(-42.0)
+    both = axle_extremes(lines, v)
+    assert both.value_kip[1, 0] == pytest.approx(-48.0)
+    assert both.position(1, 0).direction is Direction.REVERSE
+    # the member without a jump, in the same search: 40 kip over its peak, 10 x 16/20 behind
+    assert both.value_kip[0, 1] == pytest.approx(40.0 + 10.0 * 16.0 / 20.0)
+
+
 def test_lane_type_legal_load_applies_only_over_200_ft():
     # Lane-type legal load for spans over 200 ft: 0.75 x Type 3-3 + 0.2 klf [M MBE 6A.4.4.2.1].
     legal = rating_load("LEGAL-LANE")
