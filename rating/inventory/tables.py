@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import re
 import string
-from collections.abc import Iterator, Mapping
+from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass
 
 from openpyxl.utils import get_column_letter, range_boundaries
@@ -295,9 +295,12 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
     keys = {c.key for c, _ in key_cols}
     places = {c.key: f"{grid.name}!{get_column_letter(i)}" for c, i in cols}
     columns = [(c, c.key, i - 1, places[c.key], c.required, c.key in keys) for c, i in cols]
-    names = _context_names(spec.context)
+    template = spec.context
+    names = frozenset(_context_names(template))
     uncached = grid.uncached_formulas
     memo: dict[tuple[str, type, object], Parsed | Invalid] = {}
+    quiet = ProblemLog()  # the messages of a row's key cells, kept for later
+    problems = log.problems
     rows: list[Row] = []
     for r in range(hdr + 1, grid.row_count + 1):
         line = grid.rows[r - 1]  # every row of a grid is as wide as the columns read
@@ -315,27 +318,44 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         # the row's name first, so every message can say which item it is about; a key cell
         # whose messages need no name is not parsed twice (its messages are kept for later)
         pre: dict[str, object] = {}
-        first: dict[str, tuple[object, bool, list[Problem]]] = {}
+        first: dict[str, tuple[object, bool, Sequence[Problem]]] = {}
         for c, i in key_cols:
-            quiet = ProblemLog()
-            v, ok = _parse_raw(line[i - 1], uncached.get((r, i)), c, si, "", quiet,
-                               places[c.key], number, memo)
-            first[c.key] = (v, ok, quiet.problems)
+            raw = line[i - 1]
+            got = memo.get((c.key, type(raw), raw)) if raw is not None else None
+            logged: Sequence[Problem] = ()
+            if (got is not None and got.__class__ is Parsed and not got.warning  # type: ignore[union-attr]
+                    and (not uncached or (r, i) not in uncached)):
+                v, ok = got.value, True  # type: ignore[union-attr]
+            else:
+                v, ok = _parse_raw(raw, uncached.get((r, i)) if uncached else None, c, si, "",
+                                   quiet, places[c.key], number, memo)
+                if quiet.problems:
+                    logged, quiet.problems = quiet.problems, []
+            first[c.key] = (v, ok, logged)
             if ok and v is not None:
                 pre[c.key] = v
-        ctx = _context(spec.context, pre, names)
+        # how the row is named in messages ("" when a value of the name is missing)
+        ctx = template.format_map(pre) if template and pre.keys() >= names else ""
         values: dict[str, object] = {}
         bad: set[str] = set(missing)
         for c, key, k, place, required, is_key in columns:
             raw = line[k]
             if is_key and (key in pre or not ctx):
                 v, ok, logged = first[key]
-                log.problems.extend(logged)
-            elif raw is None and not required and (not uncached or (r, k + 1) not in uncached):
-                continue  # blank and optional: nothing to say, nothing to keep
-            else:
+                problems.extend(logged)
+            elif raw is None:
+                if not required and (not uncached or (r, k + 1) not in uncached):
+                    continue  # blank and optional: nothing to say, nothing to keep
                 v, ok = _parse_raw(raw, uncached.get((r, k + 1)) if uncached else None, c, si,
                                    "" if key in pre else ctx, log, place, number, memo)
+            else:
+                got = memo.get((key, type(raw), raw))  # a value met before, read quietly
+                if (got is not None and got.__class__ is Parsed and not got.warning  # type: ignore[union-attr]
+                        and (not uncached or (r, k + 1) not in uncached)):
+                    v, ok = got.value, True  # type: ignore[union-attr]
+                else:
+                    v, ok = _parse_raw(raw, uncached.get((r, k + 1)) if uncached else None, c,
+                                       si, "" if key in pre else ctx, log, place, number, memo)
             if not ok:
                 bad.add(key)
             elif v is not None:

@@ -508,18 +508,21 @@ def col_number(letters: str) -> int:
 
 # The plain form openpyxl and spreadsheet programs write: rows with r first, cells with r, s,
 # t in that order holding nothing, a value or an inline string. Matched as a whole (a cell's
-# row is its row's r, by the back reference), then read cell by cell.
-_PLAIN_CELL = (rf'<c r="[A-Z]{{1,3}}\1"(?: s="[0-9]+")?(?: t="[A-Za-z]+")?{_S}*'
-               rf'(?:/>|>(?:<v>[^<]*</v>|<is><t(?: xml:space="preserve")?>[^<]*</t></is>)?</c>)')
-_ROW_ATTRS = rf"""(?:{_S}+(?!r{_S}*=){_NCNAME}(?::{_NCNAME})?{_S}*={_S}*(?:"[^"<]*"|'[^'<]*'))*"""
-_PLAIN_ROWS = re.compile(rf'(?:{_S}*<row r="([1-9][0-9]*)"{_ROW_ATTRS}{_S}*'
-                         rf'(?:/>|>(?:{_S}*{_PLAIN_CELL})*{_S}*</row>))*{_S}*')
-_PLAIN_ROW_START = re.compile(rf'<row r="([1-9][0-9]*)"({_ROW_ATTRS})')
-_PLAIN_CELL_REF = re.compile(r'<c r="([A-Z]{1,3}[1-9][0-9]*)"')
+# row is its row's r, by the back reference), then read cell by cell. Every repetition is
+# possessive: what follows it never starts with a character it takes, so giving some back
+# could not help a match (the same texts match), and the matching keeps no way back.
+_PLAIN_CELL = (rf'<c r="[A-Z]{{1,3}}+\1"(?: s="[0-9]++")?(?: t="[A-Za-z]++")?{_S}*+'
+               rf'(?:/>|>(?:<v>[^<]*+</v>|<is><t(?: xml:space="preserve")?>[^<]*+</t></is>)?</c>)')
+_ROW_ATTRS = (rf"""(?:{_S}++(?!r{_S}*=){_NCNAME}(?::{_NCNAME})?{_S}*+={_S}*+"""
+              rf"""(?:"[^"<]*+"|'[^'<]*+'))*+""")
+_PLAIN_ROWS = re.compile(rf'(?:{_S}*+<row r="([1-9][0-9]*+)"{_ROW_ATTRS}{_S}*+'
+                         rf'(?:/>|>(?:{_S}*+{_PLAIN_CELL})*+{_S}*+</row>))*+{_S}*+')
+_PLAIN_ROW_START = re.compile(rf'<row r="([1-9][0-9]*+)"({_ROW_ATTRS})')
+_PLAIN_CELL_REF = re.compile(r'<c r="([A-Z]{1,3}+[1-9][0-9]*+)"')
 # groups: column letters, row, s, t, the value, "<is>" for an inline string, its text
-_VALUE_CELL = re.compile(r'<c r="([A-Z]{1,3})([1-9][0-9]*)"(?: s="([0-9]+)")?'
-                         r'(?: t="([A-Za-z]+)")?[ \t\r\n]*>(?:<v>([^<]*)</v>|'
-                         r'(<is>)<t(?: xml:space="preserve")?>([^<]*)</t></is>)</c>')
+_VALUE_CELL = re.compile(r'<c r="([A-Z]{1,3}+)([1-9][0-9]*+)"(?: s="([0-9]++)")?'
+                         r'(?: t="([A-Za-z]++)")?[ \t\r\n]*+>(?:<v>([^<]*+)</v>|'
+                         r'(<is>)<t(?: xml:space="preserve")?>([^<]*+)</t></is>)</c>')
 # Any other order or quoting of attributes, a formula, white space between the elements,
 # one row or cell at a time. Groups: 1 the cell's attributes, 2 the formula element, 3 its
 # text, 4 the value, 5 the inline string element, 6 its text; 7 a row's attributes, 8 "/" for
@@ -593,24 +596,40 @@ class _SheetReader:
                 blobs.add(blob)
         grid, ncols, last, columns = self.grid, self.ncols, self.max_rows + 1, self.columns
         value, dates = self.value, self.package.date_styles
-        for letters, digits, style, t, v, inline, text in _VALUE_CELL.findall(
-                part.text, part.start, part.end):
-            if "&" in v or "\r" in v or "&" in text or "\r" in text:
-                v, text = _content(v), _content(text)
+        text, start, end = part.text, part.start, part.end
+        # references or carriage returns anywhere among the rows: every text is resolved
+        escaped = text.find("&", start, end) >= 0 or text.find("\r", start, end) >= 0
+        plain: dict[str, bool] = {"": 0 not in dates}  # style -> its numbers are plain
+        at, row, values, inside = "", 0, None, False  # the row of the cells met last
+        for letters, digits, style, t, v, inline, inline_text in _VALUE_CELL.findall(
+                text, start, end):
+            if escaped:
+                v, inline_text = _content(v), _content(inline_text)
             if t == "inlineStr":
-                got = text if inline else None
+                got: object = inline_text if inline else None
             elif not v:
                 got = None
-            elif (not t or t == "n") and (int(style) if style else 0) not in dates:
-                got = _cast_number(v)  # a number without a date or duration format
+            elif not t or t == "n":
+                number = plain.get(style)
+                if number is None:
+                    number = plain[style] = int(style) not in dates
+                if not number:
+                    got = value("n", int(style) if style else 0, v, False, None)
+                elif "." in v or "E" in v or "e" in v:  # as _cast_number
+                    got = float(v)
+                else:
+                    got = int(v)
             else:
-                got = value(t or "n", int(style) if style else 0, v, False, None)
-            row = int(digits)
+                got = value(t, int(style) if style else 0, v, False, None)
+            if digits != at:  # a new row (its cells share its number, rows come in order)
+                at = digits
+                row = int(digits)
+                inside = row <= last
+                values = grid.get(row)
             col = columns.get(letters)
             if col is None:
                 col = columns[letters] = col_number(letters)
-            if col <= ncols and row <= last:
-                values = grid.get(row)
+            if inside and col <= ncols:
                 if values is None:
                     if got is None:
                         continue
