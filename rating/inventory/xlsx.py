@@ -8,6 +8,8 @@ reader. What keeps the two equal: whatever this module does not fully understand
 
 - The workbook part (sheets, 1900/1904 date system, names), its relationships and the
   document properties are read by openpyxl's own parsers, as the reference reader reads them.
+  Names defined for one sheet (print titles, print areas, filter ranges a spreadsheet program
+  adds on saving) are bound as openpyxl binds them to its sheets; the rating uses no name.
 - Every part openpyxl reads when it opens a workbook (content types, shared strings,
   workbook, relationships, properties, theme, styles, every worksheet and its relationships)
   is read and checked here too, so a damaged part (bad zip checksum, XML that is not
@@ -55,7 +57,9 @@ from openpyxl.reader.strings import read_string_table
 from openpyxl.styles.numbers import BUILTIN_FORMATS, is_date_format, is_timedelta_format
 from openpyxl.utils.cell import range_boundaries
 from openpyxl.utils.datetime import MAC_EPOCH, WINDOWS_EPOCH, from_excel, from_ISO8601
+from openpyxl.workbook.defined_name import DefinedNameList
 from openpyxl.worksheet.merge import MergeCell
+from openpyxl.worksheet.print_settings import PrintArea, PrintTitles
 from openpyxl.xml.constants import (
     ARC_CONTENT_TYPES,
     ARC_CORE,
@@ -324,9 +328,6 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
     workbook = WorkbookPackage.from_tree(fromstring(z.read(wb_part)))
     if workbook.externalReferences:
         raise Unsupported("links to other workbooks")
-    if workbook.definedNames and any(d.localSheetId is not None
-                                     for d in workbook.definedNames.definedName):
-        raise Unsupported("names defined for one sheet")
     if ARC_CORE in names:
         DocumentProperties.from_tree(fromstring(z.read(ARC_CORE)))
     if ARC_CUSTOM in names:
@@ -354,9 +355,36 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         _check_dimension(part)
         sheet_names.append(sheet.name)
         worksheets.append(part)
+    if workbook.definedNames:
+        _bind_sheet_names(workbook.definedNames, len(sheet_names))
     epoch = MAC_EPOCH if workbook.properties.date1904 else WINDOWS_EPOCH
     return Package(tuple(sheet_names), tuple(worksheets), strings, frozenset(dates),
                    frozenset(durations), epoch)
+
+
+def _bind_sheet_names(names: DefinedNameList, sheets: int) -> None:
+    """Names defined for one sheet, bound as openpyxl binds them when it opens the workbook
+    (reader/workbook.py ``assign_names``; ``sheets`` counts the sheets it keeps, in order): a
+    name for a sheet that is not there is passed over (openpyxl warns); print titles and print
+    areas are read by openpyxl's own parsers (what fails there fails here; a print area
+    openpyxl passes over with a warning is passed over); other names are kept by openpyxl or
+    ignored, and need nothing. None of them changes a value read."""
+    for idx, scoped in names.by_sheet().items():
+        if idx == "global":
+            continue
+        try:
+            range(sheets)[idx]  # openpyxl's list of sheets taken at this index
+        except IndexError:
+            continue
+        for defn in scoped.values():
+            reserved = defn.is_reserved
+            if reserved == "Print_Titles":
+                PrintTitles.from_string(defn.value)
+            elif reserved == "Print_Area":
+                try:
+                    PrintArea.from_string(defn.value)
+                except TypeError:
+                    continue  # openpyxl warns and goes on
 
 
 def _content_types(data: bytes) -> list[tuple[str, str]]:

@@ -11,8 +11,10 @@ from __future__ import annotations
 import datetime as dt
 import zipfile
 from pathlib import Path
+from unittest import mock
 from xml.sax.saxutils import escape
 
+import openpyxl
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
@@ -29,8 +31,8 @@ from xlsx_parts import (
     styles_xml,
 )
 
-from rating.inventory import xlsx
-from rating.inventory.reader import rows_read, sheets_read
+from rating.inventory import book, reader, xlsx
+from rating.inventory.reader import read_workbook, rows_read, sheets_read
 from rating.inventory.template import write_template
 
 # what openpyxl (the reference reader) says about the odd workbooks written here
@@ -483,12 +485,53 @@ def test_file_names_openpyxl_does_not_open(tmp_path: Path) -> None:
     assert compare(path, {"Data": 4}, ROWS) is False
 
 
-def test_names_defined_for_one_sheet_are_left_to_the_reference(tmp_path: Path) -> None:
-    wb = package(BASE_PARTS)
-    path = _write(tmp_path, _damage(wb, "xl/workbook.xml", lambda d: d.replace(
-        b"</sheets>", b'</sheets><definedNames><definedName name="_xlnm.Print_Titles" '
-        b'localSheetId="1">Data!$1:$3</definedName></definedNames>')))
-    assert compare(path, {"Data": 4}, ROWS) is False
+def _with_names(names: str) -> bytes:
+    return _damage(package(BASE_PARTS), "xl/workbook.xml", lambda d: d.replace(
+        b"</sheets>", b"</sheets><definedNames>" + names.encode() + b"</definedNames>"))
+
+
+@pytest.mark.parametrize(("names", "fast"), [
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="1">Data!$1:$3</definedName>', True),
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="0">Notes!$A:$B,Notes!$1:$2'
+     "</definedName>", True),
+    ('<definedName name="_xlnm.Print_Area" localSheetId="1">Data!$A$1:$D$9</definedName>', True),
+    ('<definedName name="_xlnm._FilterDatabase" localSheetId="1" hidden="1">Data!$A$1:$D$9'
+     "</definedName>", True),
+    ('<definedName name="span" localSheetId="1">Data!$B$2</definedName>'
+     '<definedName name="span">Notes!$A$1</definedName>', True),
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="7">Data!$1:$3</definedName>', True),
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="-1">Data!$1:$3</definedName>', True),
+    ('<definedName name="_xlnm.Print_Area" localSheetId="1"/>', True),  # openpyxl warns
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="1">nothing</definedName>',
+     False),  # openpyxl refuses the workbook
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="1"/>', False),
+    ('<definedName name="_xlnm.Print_Titles" localSheetId="one">Data!$1:$3</definedName>',
+     False),
+])
+@pytest.mark.filterwarnings("ignore:Defined names for sheet index:UserWarning")
+@pytest.mark.filterwarnings("ignore:Print area cannot be set:UserWarning")
+def test_names_defined_for_one_sheet_as_openpyxl_binds_them(tmp_path: Path, names: str,
+                                                             fast: bool) -> None:
+    path = _write(tmp_path, _with_names(names))
+    assert compare(path, {"Data": 4}, ROWS) is fast
+
+
+def test_sample_saved_with_print_titles_reads_on_the_fast_path(tmp_path: Path) -> None:
+    """A sample saved again with print titles on a sheet (as a spreadsheet program saves a
+    sheet set up for printing) reads by the fast reader, and reads as through openpyxl."""
+    wb = openpyxl.load_workbook(SAMPLES[0])
+    wb["Members"].print_title_rows = "1:2"
+    path = tmp_path / "titles.xlsx"
+    wb.save(path)
+    with zipfile.ZipFile(path) as z:
+        assert b'localSheetId="' in z.read("xl/workbook.xml")
+    assert compare(path, sheets_read(), rows_read()) is True
+    with mock.patch.object(book, "open_book_reference", side_effect=AssertionError):
+        fast = read_workbook(path)  # the reference reader is never asked
+    with mock.patch.object(reader, "open_book", book.open_book_reference):
+        reference = read_workbook(path)
+    assert fast == reference
+    assert fast.bridge is not None
 
 
 # --- random cells ----------------------------------------------------------------------------
