@@ -91,12 +91,12 @@ def _open_container(path: Path) -> zipfile.ZipFile:
     if path.suffix.lower() == ".xls":
         raise InputError("this is an old-format .xls file; open it in the spreadsheet program "
                          "and save it as an .xlsx workbook", where=str(path))
-    if not zipfile.is_zipfile(path):
-        raise InputError("this file is not an .xlsx workbook (it is not a zip container); "
-                         "save the workbook as .xlsx", where=str(path))
     try:
         z = zipfile.ZipFile(path)
     except (zipfile.BadZipFile, OSError) as exc:
+        if not zipfile.is_zipfile(path):  # asked only now: most files are
+            raise InputError("this file is not an .xlsx workbook (it is not a zip container); "
+                             "save the workbook as .xlsx", where=str(path)) from None
         raise InputError(f"the workbook cannot be opened: {exc}", where=str(path)) from exc
     total = sum(i.file_size for i in z.infolist())
     if total > MAX_UNCOMPRESSED_BYTES:
@@ -241,8 +241,11 @@ def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[obj
         if r > max_rows:
             truncated = any(v is not None for v in vrow)
             break
-        vals = tuple(vrow) + (None,) * (ncols - len(vrow))
-        rows.append(vals[:ncols])
+        if type(vrow) is tuple and len(vrow) == ncols:
+            rows.append(vrow)  # as wide as the grid already
+        else:
+            vals = tuple(vrow) + (None,) * (ncols - len(vrow))
+            rows.append(vals[:ncols])
     last_formula_row = max((k[0] for k in uncached), default=0)
     while len(rows) > last_formula_row and rows and all(v is None for v in rows[-1]):
         rows.pop()

@@ -13,7 +13,7 @@ import re
 from collections.abc import Iterable, Mapping
 from pathlib import Path
 
-from rating.capacity.materials import default_material
+from rating.capacity.materials import MaterialDefault, default_material
 from rating.capacity.pins import FLOORBEAM
 from rating.capacity.sections import (
     gross_area_as_built_in2,
@@ -115,22 +115,22 @@ def rows_read() -> int:
 
 
 def _f(row: Row, key: str) -> float | None:
-    v = row.get(key)
+    v = row.values.get(key)
     return float(v) if isinstance(v, int | float) else None
 
 
 def _i(row: Row, key: str) -> int | None:
-    v = row.get(key)
+    v = row.values.get(key)
     return int(v) if isinstance(v, int | float) else None
 
 
 def _s(row: Row, key: str) -> str | None:
-    v = row.get(key)
+    v = row.values.get(key)
     return v if isinstance(v, str) else None
 
 
 def _b(row: Row, key: str) -> bool | None:
-    v = row.get(key)
+    v = row.values.get(key)
     return v if isinstance(v, bool) else None
 
 
@@ -162,6 +162,7 @@ class _Reading:
         self.today = dt.date.today()
         self.broken: set[str] = set()  # section ids defined on a row with a problem
         self.joint_rows: dict[str, Row] = {}
+        self.defaults: dict[tuple[MaterialKind, int | None], MaterialDefault] = {}
 
     # -- top level ------------------------------------------------------------------------
 
@@ -687,7 +688,10 @@ class _Reading:
     # -- materials ------------------------------------------------------------------------
 
     def _default(self, kind: MaterialKind, where: str) -> Material:
-        d = default_material(kind, _i(self.b, "year_built"))
+        year = _i(self.b, "year_built")
+        d = self.defaults.get((kind, year))
+        if d is None:
+            d = self.defaults[(kind, year)] = default_material(kind, year)
         self.log.assume(where, d.assumption)
         return d.material
 
@@ -1119,6 +1123,7 @@ class _Reading:
     def _vehicles(self) -> tuple[Vehicle, ...]:
         log = self.log
         vrows: dict[str, Row] = {}
+        library_ids: frozenset[str] | None = None
         for r in self.t[sc.VEHICLES.name].rows:
             vid = _s(r, "vehicle")
             if vid is None:
@@ -1128,7 +1133,9 @@ class _Reading:
                           f"{vrows[vid].ref('vehicle')})")
                 continue
             vrows[vid] = r
-            if vid.casefold() in _library_ids():
+            if library_ids is None:
+                library_ids = _library_ids()
+            if vid.casefold() in library_ids:
                 log.warning(r.ref("vehicle"), f"vehicle {vid} has the id of a library vehicle; "
                             "the one on this sheet is used in its place")
         axles: dict[str, dict[int, Row]] = {}

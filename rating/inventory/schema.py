@@ -18,7 +18,6 @@ header and converted once, at the edge, through :mod:`rating.units`.
 
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass, field
 from enum import StrEnum
 
@@ -136,12 +135,10 @@ class FormSheet:
         return next(c for c in self.fields if c.key == key)
 
 
-_SPACES = re.compile(r"\s+")
-
-
 def header_words(text: str) -> str:
-    """Normalised header/label words: before any ``[``, lower case, single spaces."""
-    return _SPACES.sub(" ", text.split("[", 1)[0]).strip().lower()
+    """Normalised header/label words: before any ``[``, lower case, single spaces (runs of
+    white space as ``\\s+`` finds them, which are those ``str.split`` splits at)."""
+    return " ".join(text.split("[", 1)[0].split()).lower()
 
 
 LENGTH = ("ft", "m")

@@ -44,7 +44,9 @@ from __future__ import annotations
 import datetime as dt
 import io
 import re
+import struct
 import zipfile
+import zlib
 from dataclasses import dataclass
 from pathlib import Path
 from xml.parsers import expat
@@ -313,6 +315,68 @@ def _children(data: bytes) -> tuple[dict[str, str], list[tuple[str, dict[str, st
 # --- the package -----------------------------------------------------------------------------
 
 
+class _Members:
+    """The members of an open package, read as ``ZipFile.read`` reads them, from the bytes of
+    the file read once: a member stored or deflated in the usual way is taken from them and
+    checked as ``zipfile`` checks it (its local header and name, its length, its CRC-32);
+    any other member, or one failing a check, is read by ``ZipFile.read`` itself (which reads
+    it or raises as before)."""
+
+    def __init__(self, z: zipfile.ZipFile) -> None:
+        self.z = z
+        self.data = b""
+        if isinstance(z.filename, str) and z.fp is not None:
+            with open(z.filename, "rb") as f:
+                self.data = f.read()
+
+    def read(self, name: str) -> bytes:
+        got = self.direct(self.z.getinfo(name))
+        return self.z.read(name) if got is None else got
+
+    def direct(self, info: zipfile.ZipInfo) -> bytes | None:
+        """The member ``info`` from the file's bytes; None unless it is plain and sound."""
+        if (info.flag_bits & 0x61  # encrypted, patched, strong encryption
+                or info.compress_type not in (zipfile.ZIP_STORED, zipfile.ZIP_DEFLATED)):
+            return None
+        data, at = self.data, info.header_offset
+        header = data[at:at + _LOCAL_HEADER.size]
+        if len(header) != _LOCAL_HEADER.size:
+            return None
+        magic, flags, name_length, extra_length = _LOCAL_HEADER.unpack(header)
+        if magic != b"PK\x03\x04":
+            return None
+        at += _LOCAL_HEADER.size
+        try:
+            name = data[at:at + name_length].decode(
+                "utf-8" if flags & 0x800 else self.z.metadata_encoding or "cp437")
+        except UnicodeDecodeError:
+            return None
+        if name != info.orig_filename:
+            return None
+        at += name_length + extra_length
+        raw = data[at:at + info.compress_size]
+        if len(raw) != info.compress_size:
+            return None
+        if info.compress_type == zipfile.ZIP_DEFLATED:
+            inflate = zlib.decompressobj(-15)
+            try:
+                out = inflate.decompress(raw)
+            except zlib.error:
+                return None
+            if not inflate.eof:
+                return None
+        else:
+            out = raw
+        if len(out) != info.file_size or zlib.crc32(out) != info.CRC:
+            return None
+        return out
+
+
+# signature, flags, name length, extra field length of a local file header (zipfile's
+# structFileHeader, the fields between them skipped)
+_LOCAL_HEADER = struct.Struct("<4s2xH18xHH")
+
+
 def read_package(z: zipfile.ZipFile, path: Path) -> Package:
     """Read from the open package ``z`` of ``path`` the parts the reader needs.
 
@@ -322,19 +386,20 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
     if path.suffix.lower() not in SUPPORTED_SUFFIXES:
         raise Unsupported("a file name openpyxl does not open")
     names = set(z.namelist())
-    overrides = _content_types(z.read(ARC_CONTENT_TYPES))
-    strings = _shared_strings(z, overrides)
+    members = _Members(z)
+    overrides = _content_types(members.read(ARC_CONTENT_TYPES))
+    strings = _shared_strings(members, overrides)
     wb_part = _workbook_part(overrides)
-    workbook = WorkbookPackage.from_tree(fromstring(z.read(wb_part)))
+    workbook = WorkbookPackage.from_tree(fromstring(members.read(wb_part)))
     if workbook.externalReferences:
         raise Unsupported("links to other workbooks")
     if ARC_CORE in names:
-        DocumentProperties.from_tree(fromstring(z.read(ARC_CORE)))
+        DocumentProperties.from_tree(fromstring(members.read(ARC_CORE)))
     if ARC_CUSTOM in names:
-        CustomPropertyList.from_tree(fromstring(z.read(ARC_CUSTOM)))
+        CustomPropertyList.from_tree(fromstring(members.read(ARC_CUSTOM)))
     if ARC_THEME in names:
-        z.read(ARC_THEME)  # openpyxl reads it: a damaged theme part is noticed here too
-    dates, durations = _date_styles(z.read(ARC_STYLE)) if ARC_STYLE in names else ((), ())
+        members.read(ARC_THEME)  # openpyxl reads it: a damaged theme part is noticed here too
+    dates, durations = _date_styles(members.read(ARC_STYLE)) if ARC_STYLE in names else ((), ())
     sheet_names: list[str] = []
     worksheets: list[_Plain] = []
     rels = None
@@ -350,8 +415,8 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
             raise Unsupported("a chart sheet")
         rels_path = get_rels_path(rel.target)
         if rels_path in names:
-            _check_relationships(z.read(rels_path))
-        part = _plain(z.read(rel.target), "worksheet", "sheetData")
+            _check_relationships(members.read(rels_path))
+        part = _plain(members.read(rel.target), "worksheet", "sheetData")
         _check_dimension(part)
         sheet_names.append(sheet.name)
         worksheets.append(part)
@@ -465,12 +530,12 @@ def _check_relationships(data: bytes) -> None:
             raise Unsupported("an unusual relationship")
 
 
-def _shared_strings(z: zipfile.ZipFile, overrides: list[tuple[str, str]]) -> tuple[str, ...]:
+def _shared_strings(members: _Members, overrides: list[tuple[str, str]]) -> tuple[str, ...]:
     """The shared strings, as openpyxl reads them (by its own reader unless plain)."""
     part = _find(overrides, SHARED_STRINGS)
     if part is None:
         return ()
-    data = z.read(part[1:])
+    data = members.read(part[1:])
     try:
         return _plain_strings(data)
     except Unsupported:

@@ -480,6 +480,54 @@ def test_bad_zip_checksum_is_left_to_the_reference(tmp_path: Path, part: str) ->
     assert compare(path, {"Data": 4}, ROWS) is False
 
 
+def _read_both_ways(path: Path) -> list[tuple[str, object, object]]:
+    """Every member of ``path`` read by the fast reader and by ``ZipFile.read`` (the bytes,
+    or the type of the error), and whether the fast reader took it from the file itself."""
+    def outcome(read, name: str) -> object:
+        try:
+            return read(name)
+        except Exception as exc:  # noqa: BLE001 - the error is the outcome compared
+            return type(exc).__name__
+    out = []
+    with zipfile.ZipFile(path) as z:
+        members = xlsx._Members(z)
+        for info in z.infolist():
+            direct = members.direct(info) is not None
+            out.append((info.filename, (outcome(members.read, info.filename), direct),
+                        outcome(z.read, info.filename)))
+    return out
+
+
+@pytest.mark.parametrize("path", SAMPLES, ids=[p.name for p in SAMPLES])
+def test_members_read_as_zipfile_reads_them(path: Path) -> None:
+    for name, (got, direct), expected in _read_both_ways(path):
+        assert got == expected, name
+        assert direct, name  # taken from the file's bytes, not left to zipfile
+
+
+@pytest.mark.parametrize("stored", [False, True])
+def test_damaged_member_is_read_by_zipfile_itself(tmp_path: Path, stored: bool) -> None:
+    data = package(BASE_PARTS)
+    if stored:
+        data = _bad_checksum(data, "xl/worksheets/sheet2.xml")
+    else:  # a deflated member cut short, and one whose stored name differs
+        raw = bytearray(data)
+        with zipfile.ZipFile(_write(tmp_path, data, "ok.xlsx")) as z:
+            sheet, styles = z.getinfo("xl/worksheets/sheet2.xml"), z.getinfo("xl/styles.xml")
+        raw[sheet.header_offset + 30 + len(sheet.filename) + 2] ^= 0xFF
+        raw[styles.header_offset + 30] ^= 0x01
+        data = bytes(raw)
+    outcomes = {name: (got, direct, expected)
+                for name, (got, direct), expected in _read_both_ways(_write(tmp_path, data))}
+    for got, _direct, expected in outcomes.values():
+        assert got == expected
+    got, direct, _ = outcomes["xl/worksheets/sheet2.xml"]
+    assert not direct and isinstance(got, str)  # zipfile's own error
+    assert outcomes["[Content_Types].xml"][1]
+    if not stored:
+        assert not outcomes["xl/styles.xml"][1]
+
+
 def test_file_names_openpyxl_does_not_open(tmp_path: Path) -> None:
     path = _write(tmp_path, package(BASE_PARTS), "w.zip")
     assert compare(path, {"Data": 4}, ROWS) is False
