@@ -10,6 +10,7 @@ from __future__ import annotations
 import dataclasses
 import datetime as dt
 import re
+from collections import Counter
 from collections.abc import Iterable, Mapping
 from pathlib import Path
 
@@ -1063,9 +1064,10 @@ class _Reading:
                     log.error(r.ref("joint"), f"members {_listing(absent)} meet at {joint} but "
                               "have no plate in its packing; every bar on the pin is needed to "
                               "check it")
+                plates = Counter(it.member for _, it, _ in items)
                 for m_label in sorted(on_pin - {None, FLOORBEAM}):
                     d = by_member.get(str(m_label))
-                    n_plates = sum(1 for _, it, _ in items if it.member == m_label)
+                    n_plates = plates[m_label]
                     if d is not None and isinstance(d.section, EyebarSet) and (
                             n_plates != d.section.count):
                         log.warning(r.ref("joint"), f"member {m_label} has {d.section.count} "

@@ -295,6 +295,7 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
     keys = {c.key for c, _ in key_cols}
     places = {c.key: f"{grid.name}!{get_column_letter(i)}" for c, i in cols}
     columns = [(c, c.key, i - 1, places[c.key], c.required, c.key in keys) for c, i in cols]
+    places_read = [i - 1 for _, i in cols]
     template = spec.context
     names = frozenset(_context_names(template))
     uncached = grid.uncached_formulas
@@ -307,9 +308,13 @@ def _read_rows(grid: SheetGrid, spec: TableSheet, hdr: int, cols: list[tuple[Col
         mark = line[mark_col - 1] if mark_col is not None else None
         if isinstance(mark, str) and mark.strip().lower() == EXAMPLE_MARK:
             continue
-        if all(is_blank(line[k]) for _, _, k, _, _, _ in columns) and (
-                not uncached or all((r, k + 1) not in uncached for _, _, k, _, _, _ in columns)):
-            continue
+        for k in places_read:  # a row with nothing in the columns read is passed over
+            v = line[k]
+            if v is not None and not (isinstance(v, str) and not v.strip()):
+                break
+        else:
+            if not uncached or all((r, k + 1) not in uncached for k in places_read):
+                continue
         if mark_col is not None and not is_blank(mark):
             log.warning(ref(grid.name, r, mark_col),
                         f"column '{MARK_HEADER}' holds {describe(mark)}; "

@@ -14,7 +14,8 @@ reader. What keeps the two equal: whatever this module does not fully understand
   workbook, relationships, properties, theme, styles, every worksheet and its relationships)
   is read and checked here too, so a damaged part (bad zip checksum, XML that is not
   well-formed, a missing part) sends the workbook to the reference reader, which refuses it or
-  reports the sheet exactly as before.
+  reports the sheet exactly as before. (Of a sheet it does not read, openpyxl parses only
+  what comes before the end of its dimension: see :meth:`Package.check_unread`.)
 - From the stylesheet, only what decides a cell's value is read: which cell styles show a
   date, a time or a duration, derived as openpyxl derives them.
 - Worksheets and the shared strings are read only in the plain form spreadsheet programs
@@ -124,6 +125,7 @@ class Package:
     date_styles: frozenset[int]
     duration_styles: frozenset[int]
     epoch: dt.datetime
+    dimensioned: tuple[bool, ...]  # per sheet: a dimension before the rows
 
     def cells(self, name: str, ncols: int, max_rows: int) -> SheetCells:
         """The cells of sheet ``name``, ``ncols`` columns wide (see :class:`SheetCells`);
@@ -133,9 +135,16 @@ class Package:
 
     def check_unread(self, read: set[str]) -> None:
         """Check every sheet not read through :meth:`cells` (``read`` names those that were)
-        as openpyxl checks it on opening: well-formed (the whole part, to be sure)."""
+        as openpyxl checks it on opening, where it parses the part up to the end of its
+        dimension (or, with none, of its rows) and no further.
+
+        A sheet with a dimension before its rows needs nothing more: everything up to the
+        dimension is well-formed (the part outside the rows was parsed whole and has no
+        document type declaration), and openpyxl reports what its parser finds further on
+        only after the dimension, when it has stopped. Any other sheet is parsed whole (a
+        stricter check than openpyxl's, to be sure)."""
         for k, (name, part) in enumerate(zip(self.sheet_names, self.worksheets, strict=True)):
-            if name not in read or self.sheet_names.index(name) != k:
+            if (name not in read or self.sheet_names.index(name) != k) and not self.dimensioned[k]:
                 _parser().Parse(part.data, True)
 
 
@@ -402,6 +411,7 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
     dates, durations = _date_styles(members.read(ARC_STYLE)) if ARC_STYLE in names else ((), ())
     sheet_names: list[str] = []
     worksheets: list[_Plain] = []
+    dimensioned: list[bool] = []
     rels = None
     for sheet in workbook.sheets:
         if not sheet.id:
@@ -417,14 +427,14 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         if rels_path in names:
             _check_relationships(members.read(rels_path))
         part = _plain(members.read(rel.target), "worksheet", "sheetData")
-        _check_dimension(part)
+        dimensioned.append(_check_dimension(part))
         sheet_names.append(sheet.name)
         worksheets.append(part)
     if workbook.definedNames:
         _bind_sheet_names(workbook.definedNames, len(sheet_names))
     epoch = MAC_EPOCH if workbook.properties.date1904 else WINDOWS_EPOCH
     return Package(tuple(sheet_names), tuple(worksheets), strings, frozenset(dates),
-                   frozenset(durations), epoch)
+                   frozenset(durations), epoch, tuple(dimensioned))
 
 
 def _bind_sheet_names(names: DefinedNameList, sheets: int) -> None:
@@ -575,9 +585,10 @@ _MERGE = re.compile(rf"<mergeCell({_ATTRS}){_S}*/?>")
 _MERGES = re.compile(rf"<mergeCells({_ATTRS}){_S}*/?>")
 
 
-def _check_dimension(part: _Plain) -> None:
+def _check_dimension(part: _Plain) -> bool:
     """The sheet's dimension, which openpyxl reads on opening (a bad one fails there); no
-    rows, cells, merges or dimensions in another namespace or outside the rows."""
+    rows, cells, merges or dimensions in another namespace or outside the rows. True when
+    the sheet has a dimension (before its rows)."""
     head, rest = part.text[:part.start], part.text[part.tail:]
     if _OUTSIDE.search(head) or _OUTSIDE.search(rest):
         raise Unsupported("rows or cells outside sheetData, or in another namespace")
@@ -589,6 +600,7 @@ def _check_dimension(part: _Plain) -> None:
         if set(attrs) != {"ref"}:
             raise Unsupported("an unusual dimension")
         range_boundaries(attrs["ref"])
+    return bool(dims)
 
 
 def col_number(letters: str) -> int:

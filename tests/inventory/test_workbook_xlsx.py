@@ -473,6 +473,20 @@ def test_damaged_parts_read_as_before(tmp_path: Path, part: str, change, fast: b
     assert compare(path, {"Data": 4, "Notes": 2}, ROWS) is fast
 
 
+@pytest.mark.parametrize("dimension", [True, False])
+@pytest.mark.parametrize("damage", ["</rowx>", "</row><!DOCTYPE x>", "</row>&nbsp;",
+                                    "</row><x:y/>"])
+def test_sheet_not_read_is_checked_as_openpyxl_checks_it(tmp_path: Path, dimension: bool,
+                                                         damage: str) -> None:
+    """openpyxl parses a sheet it does not read up to the end of its dimension only: rows
+    that are not well-formed after it read the same both ways, by the fast reader too."""
+    head = '<dimension ref="A1:C3"/>' if dimension else ""
+    notes = sheet_xml(('<row r="1"><c r="A1" t="str"><v>notes</v></c></row>' * 400).replace(
+        "</row>", damage, 1), head=head)
+    path = _write(tmp_path, package([("Notes", notes), BASE_PARTS[1]]))
+    assert compare(path, {"Data": 4}, ROWS) is dimension
+
+
 @pytest.mark.parametrize("part", ["xl/worksheets/sheet1.xml", "xl/worksheets/sheet2.xml",
                                   "xl/styles.xml"])
 def test_bad_zip_checksum_is_left_to_the_reference(tmp_path: Path, part: str) -> None:
