@@ -73,8 +73,11 @@ class Book:
         return None
 
 
+_KEY_GAPS = re.compile(r"[\s_\-]+")
+
+
 def _sheet_key(name: str) -> str:
-    return re.sub(r"[\s_\-]+", "", name).lower()
+    return _KEY_GAPS.sub("", name).lower()
 
 
 def _check_container(path: Path) -> None:
@@ -216,10 +219,12 @@ def open_book_fast(z: zipfile.ZipFile, path: Path, wanted: dict[str, int],
     raises (:class:`rating.inventory.xlsx.Unsupported` or the error of a damaged part) when
     the reference reader must decide."""
     package = xlsx.read_package(z, path)
-    book = Book(path, package.sheet_names, {})
+    by_key: dict[str, str] = {}  # as Book.find finds a sheet (the first of a key)
+    for sheet in package.sheet_names:
+        by_key.setdefault(_sheet_key(sheet), sheet)
     grids: dict[str, SheetGrid] = {}
     for wanted_name, ncols in wanted.items():
-        name = book.find(wanted_name)
+        name = by_key.get(_sheet_key(wanted_name))
         if name is not None:
             cells = package.cells(name, ncols, max_rows)
             grids[wanted_name] = _grid(name, ncols, max_rows, cells.rows, cells.uncached,

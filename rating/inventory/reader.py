@@ -795,13 +795,17 @@ class _Reading:
         if g is None or log.has_errors:
             return tuple(designs), g
         by_label = {d.member: d for d in designs}
+        areas: dict[int, float] = {}  # by section (members share them), while designs hold them
         new_members = []
         for m in g.members:
             r = rows[m.label]
             t_only = _b(r, "tension_only")
+            section = by_label[m.label].section
+            area = areas.get(id(section))
+            if area is None:
+                area = areas[id(section)] = gross_area_as_built_in2(section)
             new_members.append(dataclasses.replace(
-                m, area_in2=gross_area_as_built_in2(by_label[m.label].section),
-                tension_only=m.tension_only if t_only is None else t_only))
+                m, area_in2=area, tension_only=m.tension_only if t_only is None else t_only))
         try:
             g2 = TrussGeometry(g.joints, tuple(new_members), g.supports, g.deck_joints,
                                form=g.form, deck_position=g.deck_position)

@@ -531,8 +531,36 @@ def _date_styles(data: bytes) -> tuple[set[int], set[int]]:
     return dates, durations
 
 
+# A worksheet's relationships in the plain form programs write (attribute values without
+# references or characters XML does not allow): well-formed by their form alone.
+_REL_VALUE = '"[^"<&\x00-\x08\x0b\x0c\x0e-\x1f\ufffe\uffff]*+"'
+_PLAIN_RELS = re.compile(
+    rf'(?:<\?xml version="1\.0"(?: encoding="[Uu][Tt][Ff]-8")?(?: standalone="(?:yes|no)")?'
+    rf'\?>)?{_S}*+<Relationships xmlns="http://schemas\.openxmlformats\.org/package/2006/'
+    rf'relationships">((?:{_S}*+<Relationship(?:{_S}++(?:Id|Type|TargetMode|Target)='
+    rf'{_REL_VALUE})++{_S}*+/>)*+){_S}*+</Relationships>{_S}*+')
+_REL_ATTR = re.compile(rf"{_S}++(Id|Type|TargetMode|Target)={_REL_VALUE}|(/>)")
+
+
 def _check_relationships(data: bytes) -> None:
     """A worksheet's relationships as openpyxl reads them: every one has a target."""
+    try:
+        plain = _PLAIN_RELS.fullmatch(data.decode("utf-8"))
+    except UnicodeDecodeError:
+        plain = None
+    if plain is not None:  # each attribute once, a target in each
+        names: set[str] = set()
+        for name, close in _REL_ATTR.findall(plain.group(1)):
+            if close:
+                if "Target" not in names:
+                    break
+                names = set()
+            elif name in names:
+                break
+            else:
+                names.add(name)
+        else:
+            return
     _root, children = _children(data)
     for tag, attrs in children:
         if tag == "Relationship" and (not set(attrs) <= {"Id", "Type", "Target", "TargetMode"}
