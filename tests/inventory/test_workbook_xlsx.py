@@ -24,6 +24,7 @@ from xlsx_parts import (
     DURATION_STYLE,
     EXCEL_ROOT,
     MAIN,
+    PKG_REL,
     compare,
     package,
     sheet_xml,
@@ -485,6 +486,45 @@ def test_sheet_not_read_is_checked_as_openpyxl_checks_it(tmp_path: Path, dimensi
         "</row>", damage, 1), head=head)
     path = _write(tmp_path, package([("Notes", notes), BASE_PARTS[1]]))
     assert compare(path, {"Data": 4}, ROWS) is dimension
+
+
+_RELS_ROOT = f'<Relationships xmlns="{PKG_REL}">'
+
+
+@pytest.mark.parametrize("rels", [
+    SHEET_RELS,
+    f'<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n{_RELS_ROOT}'
+    '<Relationship Id="a" Target="t" TargetMode="External"/>\n'
+    '<Relationship Target="u" Id="b" /></Relationships>',
+    f'{_RELS_ROOT}</Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a" Type="t"/></Relationships>',  # no target
+    f'{_RELS_ROOT}<Relationship Id="a" Id="b" Target="t"/></Relationships>',  # not XML
+    f'{_RELS_ROOT}<Relationship Id="a" Target="t" Other="x"/></Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a" Target="t"/><Other/></Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a&amp;" Target="t"/></Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a" Target="t"/><!-- x --></Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a" Target="t\x01"/></Relationships>',
+    f'{_RELS_ROOT}<Relationship Id="a" Target="t"></Relationships>',
+])
+def test_sheet_relationships_checked_as_when_parsed(rels: str) -> None:
+    """The plain form of a sheet's relationships is checked by its form, with the outcome
+    of parsing them (accepted, or refused)."""
+    def outcome(check) -> str:
+        try:
+            check()
+        except Exception as exc:  # noqa: BLE001 - the refusal is the outcome compared
+            return type(exc).__name__
+        return "accepted"
+
+    def parsed() -> None:
+        _root, children = xlsx._children(rels.encode())
+        for tag, attrs in children:
+            if tag == "Relationship" and (
+                    not set(attrs) <= {"Id", "Type", "Target", "TargetMode"}
+                    or "Target" not in attrs):
+                raise xlsx.Unsupported("an unusual relationship")
+
+    assert outcome(lambda: xlsx._check_relationships(rels.encode())) == outcome(parsed)
 
 
 @pytest.mark.parametrize("part", ["xl/worksheets/sheet1.xml", "xl/worksheets/sheet2.xml",
