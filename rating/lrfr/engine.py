@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import itertools
 import math
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
 
 import numpy as np
@@ -402,6 +402,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     distinct_rows = {m.label: envs.distinct([m.label], configs if m.label in dependent
                                             else configs[:1]) for m in g.members}
     plans_of: dict[str, dict[str, list[_SensePlan]]] = {}
+    resist = {lab: _resistances(cap) for lab, cap in capacities.items()}
     for case in cases:
         im = case.im.value
         member_envs: dict[str, list[MemberEnvelope]] = {}
@@ -424,7 +425,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                     capacities[lab].phi_s, None)
                 continue
             member_envs[lab] = [e for e, _ in mine]
-        plans = {lab: _sense_plans(g.member(lab), capacities[lab], case, DC[lab], DW[lab],
+        plans = {lab: _sense_plans(g.member(lab), resist[lab], case, DC[lab], DW[lab],
                                    dead_f, df, envs_here, lab in dependent)
                  for lab, envs_here in member_envs.items()}
         plans_of[case.id] = plans
@@ -497,11 +498,13 @@ class _SensePlan:
     gamma_dw: float
 
 
-def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
-                 dead_f, df: float, envs, dependent: bool) -> list[_SensePlan]:
+def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: RatingCase,
+                 DC: float, DW: float, dead_f, df: float, envs, dependent: bool
+                 ) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
-    extremes over the active sets and its factored resistance; dead-load factors by the sign
-    of the dead load in that sense (AASHTO LRFD Table 3.4.1-2 [V])."""
+    extremes over the active sets and its factored resistance and governing check
+    (``resist`` by sense name, :func:`_resistances`); dead-load factors by the sign of the
+    dead load in that sense (AASHTO LRFD Table 3.4.1-2 [V])."""
     im = case.im.value
     plans = []
     for sense, name in SENSES:
@@ -513,9 +516,14 @@ def _sense_plans(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
             continue  # a tension-only member goes slack instead; not rated in compression
         g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
         g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
-        plans.append(_SensePlan(sense, name, extremes, ll, cap.factored_resistance(name),
-                                cap.governing(name), g_dc, g_dw))
+        plans.append(_SensePlan(sense, name, extremes, ll, *resist[name], g_dc, g_dw))
     return plans
+
+
+def _resistances(cap: MemberCapacity) -> dict[str, tuple[float, object]]:
+    """The member's factored resistance and governing check in each sense (the same for
+    every rating case)."""
+    return {name: (cap.factored_resistance(name), cap.governing(name)) for _, name in SENSES}
 
 
 @dataclass(frozen=True, eq=False)
