@@ -675,22 +675,21 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
         rows = intervals[sel[owner[at]]]
         if rows.size:
             pin_of = which[rows[:, 0]]
-            cols, new_which, new_group = [], [], []
-            for i in np.unique(pin_of).tolist():
+            found = np.unique(pin_of).tolist()
+            cols = []
+            for i in found:  # (each pin's points between positions made distinct on their own)
                 m = pin_of == i
-                p_i, extra[i], eg = batch.between(src[rows[m]], ts[m])
+                p_i, extra[i], extra_group[i] = batch.between(src[rows[m]], ts[m])
                 cols.append(p_i)
-                new_which.append(np.full(eg.size, i))
-                new_group.append(eg)
-                extra_group[i] = eg
             p_new = np.concatenate(cols, axis=1)
-            w_new = np.concatenate(new_which)
+            w_new = np.concatenate([np.full(extra_group[i].size, i) for i in found])
             s_new = np.arange(w_new.size)
             pc_new = store.more(p_new)
             lam_new, N_new, _, _ = _pin_crossings(
-                jn, pc_new, s_new, w_new, w_new * n_loads + np.concatenate(new_group),
+                jn, pc_new, s_new, w_new,
+                w_new * n_loads + np.concatenate([extra_group[i] for i in found]),
                 floor=_gauge_floor(gauges, pc_new, p_new, s_new, w_new, linear))
-            for i in np.unique(pin_of).tolist():
+            for i in found:
                 extra_lam[i], extra_N[i] = lam_new[w_new == i], N_new[w_new == i]
     return [_Found(lam[i * X:(i + 1) * X], N_at[i * X:(i + 1) * X, :len(h.idx)],
                    extra_lam[i], extra_N[i][:, :len(h.idx)], extra[i], extra_group[i])
