@@ -103,6 +103,10 @@ class LiveEffect:
 
 @dataclass(frozen=True)
 class MemberCaseRating:
+    """One member's rating factor for one rating case (AASHTO MBE Eq. 6A.4.2.1-1): the
+    governing sense and check, how it was found (linear or on the load path), the factors
+    used and the vehicle position of the governing live-load effect."""
+
     member: str
     case: str
     rf: float
@@ -122,6 +126,9 @@ class MemberCaseRating:
 
 @dataclass(frozen=True)
 class CasePosting:
+    """The controlling member or pin of one rating case, its RF and the posting
+    recommendation that follows from it (rating.lrfr.posting)."""
+
     case: str
     rf: float
     controlling: str  # member id or "pin at J"
@@ -133,6 +140,9 @@ class CasePosting:
 
 @dataclass(frozen=True, eq=False)
 class BridgeRating:
+    """Everything the rating of one bridge found: the model and analysis it used, every
+    member's and pin's rating per case, the postings, warnings and assumptions."""
+
     bridge: Bridge
     geometry: TrussGeometry
     capacities: dict[str, MemberCapacity]

@@ -46,6 +46,9 @@ the same ratings (tests/lrfr/test_pin_window.py)."""
 
 @dataclass(frozen=True)
 class PinCaseRating:
+    """One pin's rating factor for one rating case, the check that governs it (flexure and
+    shear, or bearing) and the vehicle position where the pin reaches its limit."""
+
     case: str
     rf: float
     check: str
@@ -56,6 +59,9 @@ class PinCaseRating:
 
 @dataclass(frozen=True)
 class PinRating:
+    """One pin's ratings for every case, its check under factored dead load alone, and the
+    warnings and assumptions of its checks."""
+
     joint: str
     pin: Pin
     ratings: Mapping[str, PinCaseRating]
