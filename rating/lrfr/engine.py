@@ -341,6 +341,15 @@ def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset
     return frozenset(dep)
 
 
+LANE_RUN_REACH_PANELS = 2.0
+"""For a load with a lane part or a variable axle spacing (HL-93), the members rated on the
+load path search each vehicle (model, spacing, lane segments) that gives one of them its
+least multiplier among the envelope positions over this many of the longest panels each side
+of where it stands there, not over the whole deck: a window of judgement, not a proven bound
+(common practice for a screen). On the bundled samples the whole deck gives the same ratings
+(tests/lrfr/test_lane_run_reach.py)."""
+
+
 # --------------------------------------------------------------------------- the rating
 
 
@@ -576,8 +585,8 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
 
     For a load with a lane part or a variable spacing (HL-93) the runs are those of the
     vehicle (model, spacing, lane segments) at which each member rated on the path has its
-    least multiplier among the envelope positions, both ways, over two panels each side of
-    where it stands there."""
+    least multiplier among the envelope positions, both ways, over
+    :data:`LANE_RUN_REACH_PANELS` panels each side of where it stands there."""
     im = case.im.value
     loose: dict[tuple, Extreme] = {}
     for m in g.members:
@@ -598,7 +607,7 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
                   for fs, (P, state) in dead_states.items()], axis=0)
     chosen = [ps.extreme(first_of_least(lam[:, r])) for r in range(member.size)
               if np.isfinite(lam[:, r]).any()]
-    reach = 2.0 * float(np.diff(g.deck_stations_ft).max())
+    reach = LANE_RUN_REACH_PANELS * float(np.diff(g.deck_stations_ft).max())
     return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
                        runs_of(case.load, chosen, reach), loose_loads=ps.p)
 
