@@ -72,7 +72,7 @@ def single(runs: int, work: Path) -> None:
         status = "rated" if codes == {0} else f"NOT RATED (exit {sorted(codes)})"
         print(f"{book.name:<32} median {statistics.median(times):6.2f} s  "
               f"min {min(times):6.2f} s  {status}")
-    stages(books[0])
+    stages(books[0], work=work)
 
 
 def _best(fn, runs: int = 5) -> float:
@@ -85,22 +85,55 @@ def _best(fn, runs: int = 5) -> float:
     return min(times)
 
 
-def stages(book: Path, runs: int = 5) -> None:
-    """The chain of one workbook timed stage by stage in this process (after imports); the
-    stages after the rating (results, report, JSON) as the best of ``runs``, after one call
-    that compiles the templates."""
-    t0 = time.perf_counter()
+_IMPORT_PROBE = """
+import time
+t0 = time.perf_counter()
+import numpy
+t1 = time.perf_counter()
+import openpyxl
+t2 = time.perf_counter()
+import jinja2
+t3 = time.perf_counter()
+import rating.pipeline, rating.inventory.reader, rating.lrfr.engine, rating.report.html
+import rating.results, rating.results_build
+t4 = time.perf_counter()
+print(t1 - t0, t2 - t1, t3 - t2, t4 - t3)
+"""
+
+
+def import_times(work: Path, runs: int = 3) -> list[float]:
+    """Import time of numpy, openpyxl, jinja2 and the package's modules of a run, in a fresh
+    interpreter with the bytecode cache as installed (median of ``runs``, after one run that
+    fills the cache)."""
+    env = installed_env(work)
+    rows = []
+    for _ in range(runs + 1):
+        proc = subprocess.run([sys.executable, "-c", _IMPORT_PROBE], capture_output=True,
+                              text=True, cwd=REPO, env=env, check=True)
+        rows.append([float(x) for x in proc.stdout.split()])
+    return [statistics.median(col) for col in zip(*rows[1:], strict=True)]
+
+
+def stages(book: Path, runs: int = 5, *, work: Path, imports: bool = True) -> None:
+    """The chain of one workbook timed stage by stage: the imports in a fresh interpreter
+    (:func:`import_times`), then, in this process, reading and rating, and the stages after
+    the rating (results, report, JSON) as the best of ``runs``, after one call that compiles
+    the templates."""
     from rating.inventory.reader import read_workbook
     from rating.lrfr.engine import rate_bridge
     from rating.report.html import render_report
     from rating.results import results_json
     from rating.results_build import build_results
 
-    t_import = time.perf_counter() - t0
+    if imports:
+        t_np, t_xl, t_j2, t_own = import_times(work)
+        print(f"imports in a fresh interpreter: numpy {t_np:.2f} s, openpyxl {t_xl:.2f} s, "
+              f"jinja2 {t_j2:.2f} s, pintruss's own modules {t_own:.2f} s, together "
+              f"{t_np + t_xl + t_j2 + t_own:.2f} s")
     t = time.perf_counter()
     reading = read_workbook(book)
     t_read = time.perf_counter() - t
-    print(f"stages for {book.name}: imports {t_import:.2f} s, read {t_read:.2f} s", end="")
+    print(f"stages for {book.name}: read {t_read:.2f} s", end="")
     if reading.bridge is None or reading.errors:
         print(" (workbook has errors: not rated)")
         return
@@ -203,8 +236,8 @@ def main() -> None:
         if a.only in (None, "single"):
             single(a.runs, work)
         if a.only == "stages":
-            for book in sample_workbooks():
-                stages(book, a.runs)
+            for i, book in enumerate(sample_workbooks()):
+                stages(book, a.runs, work=work, imports=i == 0)
         if a.only in (None, "stand-in"):
             stand_in(a.count, a.workers, work)
         if a.only in (None, "batch"):
