@@ -207,6 +207,10 @@ class PinCheck:
 
 @dataclass(frozen=True)
 class _Layout:
+    """Where the loads act on one pin and how they are shared: load points z and their
+    thicknesses (in), each member's and the external load's share at each point, the pin length
+    between the outer faces of the packing (in) and F_y for bearing (ksi)."""
+
     z: np.ndarray  # load points, in (plates in order, then the mid-length point if used)
     t: np.ndarray  # thickness of each load point (0 for the mid-length point)
     share: np.ndarray  # (n_points, n_members): fraction of each member's force at each point
@@ -640,8 +644,20 @@ def _crossing(u, lo: float, hi: float) -> float:
 def vector_lengths(G: np.ndarray) -> np.ndarray:
     """Length of each 2-vector of G (..., 2) (moments and forces of a few hundred kip-in: no
     overflow to guard against, so no hypot, several times slower)."""
-    x, y = G[..., 0], G[..., 1]
-    return np.sqrt(x * x + y * y)
+    sq = np.square(G)  # (one pass over G, then the halves: 1.2-3x faster than x*x + y*y)
+    out = np.add(sq[..., 0], sq[..., 1])
+    return np.sqrt(out, out=out)
+
+
+def _largest_shears(g: np.ndarray, n: int, nv: int) -> np.ndarray:
+    """The largest of the ``nv`` shears at each of the ``n`` sections, (..., n), from the
+    lengths g (..., K) of the checked vectors (the shears from the n-th to the (2 + nv)-th
+    block of n); element by element over the blocks (faster than a reduction over a short
+    middle axis; the same numbers)."""
+    out = g[..., 2 * n:3 * n].copy()
+    for b in range(3, 2 + nv):
+        np.maximum(out, g[..., b * n:(b + 1) * n], out=out)
+    return out
 
 
 def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
@@ -657,7 +673,7 @@ def _projected_parts(G: np.ndarray, n: int, D, F_y, phi_f, phi_v, limit,
     None)."""
     g = vector_lengths(G)
     M = np.maximum(g[..., :n], g[..., n:2 * n])
-    V = g[..., 2 * n:(2 + nv) * n].reshape(g.shape[:-1] + (nv, n)).max(axis=-2)
+    V = _largest_shears(g, n, nv)
     D_, Fy_ = np.asarray(D)[..., None], np.asarray(F_y)[..., None]
     fs = lrfd_flexure_shear(M, V, D_, Fy_, np.asarray(phi_f)[..., None],
                             np.asarray(phi_v)[..., None])
@@ -689,8 +705,7 @@ def _projected_bounds(G0: np.ndarray, G1: np.ndarray, n: int, D, F_y, phi_f, phi
     m_lim, v_lim = lim * c1 / 6.0, lim ** (1.0 / 3.0) * c2 / 2.2
     mA, mB = np.maximum(a[:, :n], a[:, n:2 * n]), np.maximum(b[:, :n], b[:, n:2 * n])
     e = (2 + nv) * n  # the end of the shears, the start of the plates
-    vA = a[:, 2 * n:e].reshape(-1, nv, n).max(axis=1)
-    vB = b[:, 2 * n:e].reshape(-1, nv, n).max(axis=1)
+    vA, vB = _largest_shears(a, n, nv), _largest_shears(b, n, nv)
 
     # 6 M / c1 + (2.2 V / c2)^3 - limit with M = mA + lam mB, V = vA + lam vB
     m0, m1 = mA * (6.0 / c1), mB * (6.0 / c1)

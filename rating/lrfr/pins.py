@@ -137,6 +137,11 @@ class _Joints:
         out = np.empty((N.shape[0], self.T.shape[2]))
         if self.T.shape[0] == 1:
             out[:] = N @ self.T[0]
+        elif which.size and (which[1:] >= which[:-1]).all():
+            # states in order of pin (as the searches mostly make them): one slice per pin
+            cut = (np.flatnonzero(which[1:] != which[:-1]) + 1).tolist()
+            for s_, e_ in zip([0, *cut], [*cut, which.size], strict=True):
+                np.matmul(N[s_:e_], self.T[which[s_]], out=out[s_:e_])
         else:
             for i in np.unique(which).tolist():
                 m = which == i
