@@ -651,9 +651,9 @@ def vector_lengths(G: np.ndarray) -> np.ndarray:
 
 def _largest_shears(g: np.ndarray, n: int, nv: int) -> np.ndarray:
     """The largest of the ``nv`` shears at each of the ``n`` sections, (..., n), from the
-    lengths g (..., K) of the checked vectors (the shears from the n-th to the (2 + nv)-th
-    block of n); element by element over the blocks (faster than a reduction over a short
-    middle axis; the same numbers)."""
+    lengths g (..., K) of the checked vectors (:class:`PinModel`: two blocks of n moments,
+    then ``nv`` blocks of n shears); element by element over the blocks (faster than a
+    reduction over a short middle axis; the same numbers)."""
     out = g[..., 2 * n:3 * n].copy()
     for b in range(3, 2 + nv):
         np.maximum(out, g[..., b * n:(b + 1) * n], out=out)
