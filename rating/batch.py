@@ -76,6 +76,9 @@ class BridgeRow:
 
 @dataclass(frozen=True)
 class BatchSummary:
+    """The outcome of a batch: input and output folders, one row per workbook in name order, the
+    paths of the summary CSV and HTML index, the batch's time (s) and the number of processes."""
+
     folder: Path
     out_dir: Path
     rows: tuple[BridgeRow, ...]
@@ -95,6 +98,9 @@ class BatchSummary:
 
 @dataclass(frozen=True)
 class _Task:
+    """One workbook to rate: its path, the output folder and file stem, the vehicles asked for
+    (None: all), and stand-ins for the pipeline's rate and write (tests)."""
+
     workbook: Path
     out_dir: Path
     stem: str
@@ -394,6 +400,9 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
 
 @dataclass(frozen=True)
 class _IndexCell:
+    """One vehicle's cell of the batch index: the RF text, its band key for shading and the
+    controlling member or pin."""
+
     text: str
     band: str
     member: str
@@ -401,6 +410,9 @@ class _IndexCell:
 
 @dataclass(frozen=True)
 class _IndexRow:
+    """One workbook's row of the batch index: its summary row, its RF cells by vehicle, the
+    errors shown and how many more were left out."""
+
     row: BridgeRow
     cells: tuple[_IndexCell, ...]
     errors_shown: tuple[str, ...]
@@ -409,6 +421,8 @@ class _IndexRow:
 
 @dataclass(frozen=True)
 class _IndexView:
+    """Everything the batch index template shows."""
+
     title: str
     folder: str
     vehicles: tuple[tuple[str, str], ...]

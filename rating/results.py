@@ -84,6 +84,10 @@ class SectionSummary:
 
 @dataclass(frozen=True)
 class CheckSummary:
+    """One resistance check of a member at its governing location: phi, the nominal resistance
+    R_n and the factored resistance phi_c phi_s phi R_n (kip), with the provision, the location
+    and the finding there."""
+
     name: str
     sense: str  # "tension" | "compression"
     phi: float
@@ -105,6 +109,10 @@ class Resistance:
 
 @dataclass(frozen=True)
 class Factors:
+    """The factors used in one member rating: gamma_DC, gamma_DW, gamma_LL, the dynamic load
+    allowance IM, the resistance factor phi, the condition factor phi_c and the system factor
+    phi_s."""
+
     gamma_dc: float
     gamma_dw: float
     gamma_ll: float
@@ -129,6 +137,10 @@ class Rating:
 
 @dataclass(frozen=True)
 class MemberResult:
+    """The results of one truss member: role, end joints, dead-load force in one truss (DC, DW;
+    kip), live-load effects, governing section, resistances, warnings, and the controlling
+    rating of each vehicle (rating case)."""
+
     id: str
     role: str
     joints: tuple[str, str]
@@ -143,6 +155,9 @@ class MemberResult:
 
 @dataclass(frozen=True)
 class PackingRow:
+    """One plate on a pin, in order along the pin: the member it belongs to (None: a filler or
+    spacer), its thickness and the clear gap before it (in)."""
+
     member: str | None
     thickness: float = q("plate thickness", "dimension")
     gap_before: float = q("gap before", "dimension")
@@ -150,6 +165,9 @@ class PackingRow:
 
 @dataclass(frozen=True)
 class PinResult:
+    """The results of one pin: diameter (in), packing, the governing section (in words and as z,
+    M, V in the governing case) and the rating of each vehicle."""
+
     joint: str
     diameter: float = q("pin diameter", "dimension")
     packing: tuple[PackingRow, ...] = ()
@@ -165,6 +183,9 @@ class PinResult:
 
 @dataclass(frozen=True)
 class JointResult:
+    """One joint (panel point) of the truss: coordinates x, y (ft), whether a floorbeam loads it
+    (``deck``) and its support ("pin", "roller" or None)."""
+
     id: str
     x: float = q("x", "length")
     y: float = q("y", "length")
@@ -174,6 +195,10 @@ class JointResult:
 
 @dataclass(frozen=True)
 class VehicleResult:
+    """One rating case (a vehicle at a rating level): gross weight (tons), axle loads (kip),
+    axle spacings (min, max; ft), lane load (klf), its source and tag, and the gamma_LL and IM
+    used."""
+
     id: str
     name: str
     category: str
@@ -190,6 +215,9 @@ class VehicleResult:
 
 @dataclass(frozen=True)
 class PostingResultEntry:
+    """The posting outcome of one vehicle: the controlling RF and member (or pin), the rating
+    RT = RF x W and the safe posting load (tons; None unless posted), the action and a note."""
+
     rf: float = q("controlling rating factor")
     rating_tons: float = q("rating in tons RT = RF x W", "weight")
     posting_tons: float | None = q("safe posting load", "weight",
@@ -203,6 +231,10 @@ class PostingResultEntry:
 
 @dataclass(frozen=True)
 class FindingEcho:
+    """An inspection finding used by the rating, echoed as recorded: station along the member
+    (ft), remaining thickness (in), percent loss, bar state, condition rating, photo, note and
+    workbook place."""
+
     member: str
     component: str
     region: str
@@ -218,6 +250,9 @@ class FindingEcho:
 
 @dataclass(frozen=True)
 class InfluenceLineData:
+    """The influence line of a controlling member, for the drawings: its axial force (tension
+    positive) for a unit load at each deck panel point (stations, ft)."""
+
     member: str
     stations: tuple[float, ...] = q("stations", "length")
     ordinates: tuple[float, ...] = q("force per unit load")
@@ -225,6 +260,9 @@ class InfluenceLineData:
 
 @dataclass(frozen=True)
 class BridgeSummary:
+    """The bridge as the results name it: identification and inspection, truss form and deck
+    position, span, panel count, truss spacing and roadway width (ft), and the workbook read."""
+
     id: str
     name: str
     span: float = q("span", "length")
@@ -243,6 +281,9 @@ class BridgeSummary:
 
 @dataclass(frozen=True)
 class RatingResults:
+    """Everything one rating of one bridge produced, in core units (see the module docstring):
+    the one object that the JSON file and the report are views of."""
+
     schema_version: str
     bridge: BridgeSummary
     units: Mapping[str, str]

@@ -117,6 +117,9 @@ class Extreme:
 
 @dataclass(frozen=True)
 class MemberEnvelope:
+    """The live-load extremes of one member under one rating load: ``max`` the largest and
+    ``min`` the smallest axial force (kip, tension positive), before distribution and IM."""
+
     member: str
     max: Extreme
     min: Extreme

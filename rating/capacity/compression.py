@@ -112,6 +112,10 @@ def width_thickness_limit(stiffened: bool, element: str, F_y: float, E: float) -
 
 @dataclass(frozen=True)
 class CompressionResult:
+    """The compression check of one member (flexural buckling at the governing location, or zero
+    resistance) with its warnings and assumptions, K, the governing KL/r (inf: none) and the
+    factor Q for slender unstiffened elements."""
+
     checks: tuple[Check, ...]
     warnings: tuple[str, ...]
     assumptions: tuple[str, ...]

@@ -15,6 +15,9 @@ from rating.model import Material, MaterialKind
 
 @dataclass(frozen=True)
 class MaterialDefault:
+    """A material assumed when there are no tests or mill records, with the assumption text the
+    report must list."""
+
     material: Material
     assumption: str
 

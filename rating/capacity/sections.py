@@ -565,6 +565,10 @@ def _err(member: str, f: Finding, text: str) -> InputError:
 
 @dataclass(frozen=True)
 class _Loss:
+    """One section-loss finding as applied to a member: the components it names, its normalised
+    region, its station (ft; None: the whole region) and the fraction of reference thickness
+    left (for ordering)."""
+
     finding: Finding
     components: tuple[str, ...]  # resolved component keys
     region: FindingRegion  # normalised region

@@ -72,6 +72,9 @@ def pin_plate_shear_nominal(t, a_in, d_hole_in, F_u):
 
 @dataclass(frozen=True)
 class TensionResult:
+    """The tension checks of one member, each at its governing location (nominal resistance in
+    kip), with the warnings and assumptions they raised."""
+
     checks: tuple[Check, ...]
     warnings: tuple[str, ...]
     assumptions: tuple[str, ...]

@@ -58,6 +58,9 @@ class SheetGrid:
 
 @dataclass(frozen=True)
 class Book:
+    """A workbook opened read-only: its path, the names of all its sheets and the grids of
+    cached values of the sheets read (keyed by the name asked for)."""
+
     path: Path
     sheet_names: tuple[str, ...]
     grids: dict[str, SheetGrid]
@@ -111,6 +114,9 @@ def _open_container(path: Path) -> zipfile.ZipFile:
 
 @dataclass(frozen=True)
 class _Extras:
+    """What a scan of one sheet's XML found: its merged ranges, the formula cells with no saved
+    result and the cells whose number cannot be read, by (row, column)."""
+
     merges: tuple[str, ...]
     uncached: dict[tuple[int, int], str]
     bad_numbers: dict[tuple[int, int], str]

@@ -86,6 +86,9 @@ class CellRefs(Mapping[str, str]):
 
 @dataclass(frozen=True)
 class TableData:
+    """One table sheet as read: its spec, the sheet's own name, whether it is in the workbook,
+    its data rows and the ``Sheet!Cell`` of each column header found (by key)."""
+
     spec: TableSheet
     sheet: str
     present: bool

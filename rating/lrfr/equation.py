@@ -25,6 +25,9 @@ class SenseLoads:
 
 @dataclass(frozen=True)
 class RatingFactorResult:
+    """The rating factor from the LRFR equation with the terms used: the dead-load factors
+    chosen, gamma_LL, the capacity C and the factored dead load (kip)."""
+
     rf: float
     gamma_dc: float
     gamma_dw: float

@@ -26,6 +26,9 @@ class RatingLevel(StrEnum):
 
 @dataclass(frozen=True)
 class Factor:
+    """A load factor or dynamic load allowance: its symbol and value, the source it comes from
+    and how sure we are of it (tag), so the results and the report can list it."""
+
     symbol: str
     value: float
     source: str

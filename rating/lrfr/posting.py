@@ -17,6 +17,9 @@ class PostingAction(StrEnum):
 
 @dataclass(frozen=True)
 class PostingResult:
+    """The posting outcome for one legal load (MBE 6A.8.3): RF, rating RT = RF x W and safe
+    posting load (None unless posted), in the unit of W given; the action and its source."""
+
     rf: float
     rating_tons: float  # RT = RF x W
     posting_tons: float | None  # safe posting load, whole tons (or tonnes) rounded down

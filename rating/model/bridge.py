@@ -31,6 +31,9 @@ class UnitSystem(StrEnum):
 
 @dataclass(frozen=True)
 class BridgeInfo:
+    """Identification of the bridge and its inspection as recorded in the workbook: structure
+    id, name, location, owner, year built, inspection date and inspector."""
+
     structure_id: str
     name: str
     location: str = ""
@@ -95,6 +98,10 @@ class RatingSettings:
 
 @dataclass(frozen=True)
 class Bridge:
+    """The whole bridge as the rating sees it: identification, truss geometry, roadway
+    cross-section, member sections and materials, findings, pins, dead loads, owner vehicles,
+    rating settings and the source workbook."""
+
     info: BridgeInfo
     geometry: TrussGeometry
     cross_section: CrossSection

@@ -54,6 +54,9 @@ class Joint:
 
 @dataclass(frozen=True)
 class Support:
+    """The bearing at a support joint: a pin (restrains both directions) or a roller (expansion
+    bearing, vertical only)."""
+
     joint: str
     kind: SupportKind
 

@@ -32,6 +32,10 @@ class DeadLoadBasis(StrEnum):
 
 @dataclass(frozen=True)
 class DeadLoadItem:
+    """One dead load other than the trusses' own weight (deck, wearing surface, stringers,
+    railing...): DC or DW, with its intensity in the unit of its basis (psf, plf or kip per
+    floorbeam), its lever-rule offset (ft) and its workbook place."""
+
     description: str
     kind: DeadLoadKind
     basis: DeadLoadBasis

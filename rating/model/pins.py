@@ -23,6 +23,9 @@ class PackingItem:
 
 @dataclass(frozen=True)
 class Pin:
+    """The pin at a joint: its diameter (in), the plates on it in order (packing), its material
+    (None: not recorded, a default is assumed and listed) and its workbook place."""
+
     joint: str
     diameter_in: float
     packing: tuple[PackingItem, ...]

@@ -9,6 +9,9 @@ from dataclasses import dataclass
 
 @dataclass(frozen=True)
 class Band:
+    """One shading band of the RF legend: its key (the CSS class of shaded cells), its label,
+    its colour, and the line width and dash pattern of the members drawn in it."""
+
     key: str
     label: str
     colour: str

@@ -62,6 +62,9 @@ class Control:
 
 @dataclass(frozen=True)
 class SummaryRow:
+    """One vehicle's row of the report's summary table, formatted: the controlling member or
+    pin, its check and RF, the rating RT, the action and the safe posting load."""
+
     vehicle: str
     vehicle_id: str
     level: str
@@ -79,6 +82,10 @@ class SummaryRow:
 
 @dataclass(frozen=True)
 class MemberRow:
+    """One member's row of the report's member table, formatted: length, DC and DW forces,
+    factored tension and compression resistances, and its lowest RF with the vehicle, check,
+    method and finding behind it."""
+
     id: str
     role: str
     tension_only: bool
@@ -106,6 +113,9 @@ class LiveRow:
 
 @dataclass(frozen=True)
 class LiveTable:
+    """One live-load table of the report: a few vehicles (its columns) and one row per member
+    with LL+IM max and min and the RF of each vehicle."""
+
     vehicles: tuple[VehicleResult, ...]
     rows: tuple[LiveRow, ...]
 
@@ -147,12 +157,17 @@ class PinRow:
 
 @dataclass(frozen=True)
 class PinTable:
+    """One table of pin rating factors: a few vehicles (its columns) and one row per pin."""
+
     vehicles: tuple[VehicleResult, ...]
     rows: tuple[PinRow, ...]
 
 
 @dataclass(frozen=True)
 class InfluenceView:
+    """The influence-line figure of one controlling member: the critical vehicle, the vehicles
+    it controls, RF, check, critical position, lane load, drawing and a note."""
+
     member: str
     role: str
     vehicle: str
@@ -167,6 +182,9 @@ class InfluenceView:
 
 @dataclass(frozen=True)
 class PinControlNote:
+    """A pin that controls one or more vehicles, noted in place of an influence-line figure: its
+    joint, the vehicles and its RF."""
+
     pin: str
     controls: str
     rf: Cell
@@ -174,6 +192,9 @@ class PinControlNote:
 
 @dataclass(frozen=True)
 class FindingRow:
+    """One inspection finding in the report's findings table, formatted in the report's units,
+    with its workbook place."""
+
     member: str
     component: str
     region: str
@@ -189,6 +210,9 @@ class FindingRow:
 
 @dataclass(frozen=True)
 class VehicleRow:
+    """One rating case in the report's vehicle table, formatted: category, level, weight, axle
+    loads and spacings, lane load, gamma_LL, IM, source and tag."""
+
     id: str
     name: str
     category: str
@@ -223,18 +247,25 @@ class CheckRow:
 
 @dataclass(frozen=True)
 class Assumption:
+    """One assumption listed in the report; ``from_memory`` marks a value from memory, to be
+    confirmed against the owner's edition."""
+
     text: str
     from_memory: bool
 
 
 @dataclass(frozen=True)
 class Fact:
+    """A labelled value shown in the report (bridge and method facts, lateral distribution)."""
+
     label: str
     value: str
 
 
 @dataclass(frozen=True)
 class Units:
+    """The unit names of the report's numbers by dimension (kip or kN, ft or m, in or mm, ...)."""
+
     force: str
     length: str
     dimension: str
@@ -246,6 +277,9 @@ class Units:
 
 @dataclass(frozen=True)
 class ReportView:
+    """Everything the report template shows, formatted for display; built by :func:`build_view`
+    from the results."""
+
     title: str
     bridge_facts: tuple[Fact, ...]
     method_facts: tuple[Fact, ...]
