@@ -222,7 +222,14 @@ def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
         lo, flo = np.where(same, x, lo), np.where(same, fx, flo)
         hi = np.where(same, hi, x)
         side = np.where(same, 1, -1)
-        done = (hi - lo <= 1e-8) | (fx == 0.0)
+        # Both ends of every bracket have 0 < lam (the check is finite only there), so the
+        # line has no pole within it and lam is monotone across it: a bracket whose ends both
+        # have lam beyond ``below`` (and round-off) holds no wanted point; it is dropped
+        rl = r[live]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            past = np.minimum(-Cc[rl] / (A[rl] + B[rl] * lo), -Cc[rl] / (A[rl] + B[rl] * hi)
+                              ) >= below[rl] * (1.0 + 1e-9)
+        done = (hi - lo <= 1e-8) | (fx == 0.0) | past
         out[live[done]] = np.where(fx[done] == 0.0, x[done], 0.5 * (lo[done] + hi[done]))
         if done.all():
             break
@@ -233,7 +240,7 @@ def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
         out[live] = 0.5 * (lo + hi)
     with np.errstate(divide="ignore", invalid="ignore"):
         lam = -Cc[r] / (A[r] + B[r] * out)
-    keep = (lam > 0) & (lam < below[r])
+    keep = (lam > 0) & (lam < below[r])  # (a dropped bracket's middle is not)
     return r[keep], out[keep]
 
 
