@@ -92,17 +92,22 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     b0 = sense[r] * pc.L[k, xa[i], member[r]]
     b1 = sense[r] * pc.L[k, xb[i], member[r]] - b0
     K = Kc[k, r]
-    A = pc.A[k]  # (n, C)
-    Ba, Bb = pc.B[k, xa[i]], pc.B[k, xb[i]]
     # every condition of the set along lam = K / (b0 + t b1), times that positive
-    # denominator, and the denominator itself, are linear in t
-    h0 = np.concatenate([A * b0[:, None] + K[:, None] * Ba, b0[:, None]], axis=1)
-    h1 = np.concatenate([A * b1[:, None] + K[:, None] * (Bb - Ba), b1[:, None]], axis=1)
+    # denominator, and the denominator itself, are linear in t: h0 + t h1, (C + 1, n) (the
+    # extremes over the conditions then go element by element across the rows)
+    C = pc.A.shape[1]
+    At = pc.A.T[:, k]  # (C, n)
+    Bt = pc.B.transpose(0, 2, 1)  # (K, C, X): the order the conditions are made in
+    Ba, Bb = Bt[k, :, xa[i]].T, Bt[k, :, xb[i]].T
+    h0, h1 = np.empty((C + 1, k.size)), np.empty((C + 1, k.size))
+    np.add(At * b0, K * Ba, out=h0[:C])
+    np.add(At * b1, K * (Bb - Ba), out=h1[:C])
+    h0[C], h1[C] = b0, b1
     with np.errstate(divide="ignore", invalid="ignore"):
         root = -h0 / h1
-    t1 = np.maximum(np.where(h1 > 0, root, -np.inf).max(axis=1), 0.0)
-    t2 = np.minimum(np.where(h1 < 0, root, np.inf).min(axis=1), 1.0)
-    never = ((h1 == 0) & (h0 < 0)).any(axis=1)
+    t1 = np.maximum(np.where(h1 > 0, root, -np.inf).max(axis=0), 0.0)
+    t2 = np.minimum(np.where(h1 < 0, root, np.inf).min(axis=0), 1.0)
+    never = ((h1 == 0) & (h0 < 0)).any(axis=0)
     feasible = ~never & (t1 <= t2)
     out_i, out_t = [], []
     for t in (t1, t2):
