@@ -45,8 +45,9 @@ def css_string(text: str) -> Markup:
 class TemplateCodeCache(jinja2.FileSystemBytecodeCache):
     """The compiled templates kept between runs, as Python keeps its bytecode: jinja2's own
     cache (keyed by the template's name and checked against a checksum of its source), in
-    jinja2's private folder for this user under the system's temporary folder. Compiling the
-    two templates costs about 0.1 s of a one-workbook run. A cache that cannot be read or
+    jinja2's private folder for this user under the system's temporary folder (jinja2 makes
+    it readable and writable by its owner alone, and checks so before using it). Compiling
+    the two templates costs about 0.1 s of a one-workbook run. A cache that cannot be read or
     written is simply not used."""
 
     def load_bytecode(self, bucket: jinja2.bccache.Bucket) -> None:
