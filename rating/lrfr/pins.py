@@ -146,7 +146,7 @@ class _Joints:
             for i in np.unique(which).tolist():
                 m = which == i
                 out[m] = N[m] @ self.T[i]
-        return out.reshape(N.shape[0], -1, 2)
+        return out.reshape(N.shape[0], self.T.shape[2] // 2, 2)
 
 
 def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,

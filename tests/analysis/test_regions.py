@@ -112,3 +112,35 @@ def test_the_family_is_taught_the_sets_a_walk_meets():
     assert len(table.slack) >= len(configs)
     assert pc.walked.sum() < 10  # a few walks teach the table what the others need
     _assert_same_paths(table, pc, fam, P_d, dead, p, 1e3)
+
+
+@settings(max_examples=60, deadline=None)
+@given(seed=st.integers(0, 2**32 - 1), K=st.integers(1, 4), X=st.integers(1, 6),
+       C=st.integers(1, 5), zeros=st.floats(0.0, 0.5))
+def test_intervals_of_the_sets_are_those_of_each_condition_in_turn(seed, K, X, C, zeros):
+    """_intervals (extremes over the conditions taken across the loadings) against the
+    closed form, one set, loading and condition at a time: a + lam b >= 0 holds for
+    lam >= -a/b where b > 0, for lam <= -a/b where b < 0, everywhere or nowhere where b = 0."""
+    from rating.analysis.regions import _intervals
+
+    rng = np.random.default_rng(seed)
+    A = rng.normal(size=(K, C))
+    B = rng.normal(size=(K, C, X))
+    B[rng.random(B.shape) < zeros] = 0.0
+    lam_max = 50.0
+    lo, hi = _intervals(A, B.transpose(0, 2, 1), lam_max)  # B as RegionTable makes it
+    for k in range(K):
+        for x in range(X):
+            low, high, never = 0.0, lam_max, False
+            for c in range(C):
+                a, b = A[k, c], B[k, c, x]
+                if b > 0:
+                    low = max(low, -a / b)
+                elif b < 0:
+                    high = min(high, -a / b)
+                elif a < 0:
+                    never = True
+            if never:
+                assert lo[k, x] == np.inf and hi[k, x] == -np.inf
+            else:
+                assert lo[k, x] == low and hi[k, x] == high
