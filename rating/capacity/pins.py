@@ -513,12 +513,14 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
                         "vertical); moments are taken from both ends and the larger used "
                         "(conservative)")
 
-    sections = tuple(PinSection(float(lay.z[k]), float(M_L[k, 0]), float(M_L[k, 1]),
-                                float(M[k]), float(V_Lp[k, 0]), float(V_Lp[k, 1]), float(V[k]),
-                                float(lrfd[k]), float(en[k]))
-                     for k in np.argsort(lay.z, kind="stable"))
-    plates = tuple(PlateLoad(i + 1, lay.items[i], float(lay.t[i]), float(lay.z[i]),
-                             float(F[i, 0]), float(F[i, 1]), float(cap[i]), float(bear[i]))
+    # (Python floats of whole arrays at once: the same values as float() of each element)
+    z_, ML_, M_, VL_, V_, lrfd_, en_ = (a.tolist() for a in (lay.z, M_L, M, V_Lp, V, lrfd, en))
+    sections = tuple(PinSection(z_[k], ML_[k][0], ML_[k][1], M_[k], VL_[k][0], VL_[k][1],
+                                V_[k], lrfd_[k], en_[k])
+                     for k in np.argsort(lay.z, kind="stable").tolist())
+    t_, F_, cap_, bear_ = (a.tolist() for a in (lay.t, F, cap, bear))
+    plates = tuple(PlateLoad(i + 1, lay.items[i], t_[i], z_[i], F_[i][0], F_[i][1], cap_[i],
+                             bear_[i])
                    for i in range(npl))
     # of sections tied within round-off (a plate between equal loads), the first along z,
     # so the governing section does not hang on the last digit of the forces
