@@ -757,10 +757,12 @@ def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
     worst: tuple[float, str, np.ndarray] | None = None
     picks: list[tuple[object, float, int]] = []
     for gi, group in enumerate(loads.cases):
-        rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
+        here = batch.rows(gi)
+        rows = np.concatenate([np.arange(here.start, here.stop),
                                batch.size + np.flatnonzero(fd.extra_group == gi)])
+        lam_g = lam[rows]
         for case in group:
-            lam_c = lam[rows] / case.gamma_ll.value
+            lam_c = lam_g / case.gamma_ll.value
             k = first_of_least(lam_c) if lam_c.size else -1
             if k < 0 or not math.isfinite(lam_c[k]):
                 ratings[case.id] = PinCaseRating(case.id, math.inf,
