@@ -369,9 +369,7 @@ def _section_forces(z: np.ndarray, F: np.ndarray) -> tuple[np.ndarray, ...]:
     total = F.sum(axis=0)
     V_Rp = total[None, :] - V_Lp  # load beyond the point
     V_Rm = total[None, :] - V_Lm
-    # (the lengths of the 2-vectors, as np.linalg.norm(..., axis=1) gives them, in one pass)
-    lens = np.sqrt(np.add.reduce(np.square(np.stack([M_L, M_R, V_Lm, V_Lp, V_Rp, V_Rm])),
-                                 axis=2))
+    lens = vector_lengths(np.stack([M_L, M_R, V_Lm, V_Lp, V_Rp, V_Rm]))  # in one pass
     M = np.maximum(lens[0], lens[1])
     V = lens[2:].max(axis=0)
     return M_L, V_Lp, M, V
@@ -492,7 +490,7 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
     M_Rd = en_moment_resistance(D, Fy, gamma_M0)
     Fv_Rd = en_shear_resistance(D, Fu, gamma_M2)
     en = en_interaction(M, V, M_Rd, Fv_Rd)
-    Fmag = np.sqrt(np.add.reduce(np.square(F), axis=1))
+    Fmag = vector_lengths(F)
     npl = lay.n_plates
     cap = phi_b * lrfd_bearing_nominal(lay.t[:npl], D, lay.Fy_bearing[:npl])
     bear = Fmag[:npl] / cap
