@@ -21,6 +21,7 @@ import numpy as np
 
 from rating.analysis.moving import Extreme
 from rating.analysis.regions import LAM_MAX, PathStore, Pieces
+from rating.arrays import distinct_sorted
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
@@ -143,7 +144,7 @@ class _Joints:
             for s_, e_ in zip([0, *cut], [*cut, which.size], strict=True):
                 np.matmul(N[s_:e_], self.T[which[s_]], out=out[s_:e_])
         else:
-            for i in np.unique(which).tolist():
+            for i in distinct_sorted(which).tolist():
                 m = which == i
                 out[m] = N[m] @ self.T[i]
         return out.reshape(N.shape[0], self.T.shape[2] // 2, 2)
@@ -449,11 +450,11 @@ def _gauge_floor(gauges: _Gauges, pc: Pieces, p: np.ndarray, src: np.ndarray,
     piece's set and not before the piece starts: the least over the pieces that can hold it
     bounds its lam (the set of its first piece alone for a joint whose bars do not depend on
     the active set)."""
-    used = np.unique(pc.k[pc.k >= 0]) if not linear else np.unique(pc.k[:, 0][pc.k[:, 0] >= 0])
+    used = distinct_sorted(pc.k[pc.k >= 0] if not linear else pc.k[:, 0][pc.k[:, 0] >= 0])
     g = gauges.of(used)
     kk = pc.k[src, :1] if linear else pc.k[src]
     vals = np.zeros(kk.shape)
-    for i in np.unique(which).tolist():
+    for i in distinct_sorted(which).tolist():
         rows = np.flatnonzero(which == i)
         with np.errstate(invalid="ignore"):  # (inf x 0: a set the dead load alone breaks)
             Gam = np.nan_to_num(g[i] @ p[:, src[rows]], nan=np.inf)  # (K, rows)
@@ -693,7 +694,7 @@ def _search(here: list[_PinAtJoint], loads: LoadPaths, linear: bool) -> list[_Fo
         rows = intervals[sel[owner[at]]]
         if rows.size:
             pin_of = which[rows[:, 0]]
-            found = np.unique(pin_of).tolist()
+            found = distinct_sorted(pin_of).tolist()
             cols = []
             for i in found:  # (each pin's points between positions made distinct on their own)
                 m = pin_of == i

@@ -27,6 +27,7 @@ from rating.analysis.moving import (
     panel_point_fronts,
 )
 from rating.analysis.regions import PathStore
+from rating.arrays import distinct_sorted
 from rating.vehicles.library import RatingLoad
 
 
@@ -257,7 +258,7 @@ class PositionBatch:
         positions' panel-point loads (n_stations, n), extremes and loads (n,)."""
         cols, exts, groups = [], [], []
         grp = self.group[pairs[:, 0]] if pairs.size else np.zeros(0, dtype=int)
-        for g in np.unique(grp).tolist():
+        for g in distinct_sorted(grp).tolist():
             sel = grp == g
             p, e = self.sets[g].between(pairs[sel] - self.offsets[g], t[sel])
             cols.append(p)

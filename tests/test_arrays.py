@@ -1,0 +1,38 @@
+"""rating.arrays against numpy's own functions (numpy is the reference here)."""
+
+from __future__ import annotations
+
+import subprocess
+import sys
+from pathlib import Path
+
+import numpy as np
+from hypothesis import given
+from hypothesis import strategies as st
+from hypothesis.extra.numpy import arrays
+
+from rating.arrays import distinct_sorted
+
+
+@given(arrays(np.int64, st.tuples(st.integers(0, 6), st.integers(1, 5)),
+              elements=st.integers(-4, 40)))
+def test_distinct_sorted_is_numpys_unique(values: np.ndarray) -> None:
+    got = distinct_sorted(values)
+    want = np.unique(values)
+    assert got.dtype == want.dtype
+    np.testing.assert_array_equal(got, want)
+
+
+def test_a_rating_does_not_import_numpy_ma() -> None:
+    # np.unique and np.setdiff1d import numpy.ma on their first call (about 25 ms of a
+    # one-workbook run): the rating chain avoids them
+    code = ("import sys\n"
+            "from pathlib import Path\n"
+            "from rating.inventory.reader import read_workbook\n"
+            "from rating.lrfr.engine import rate_bridge\n"
+            "book = sorted(Path('sample_inventory').glob('*pony*.xlsx'))[0]\n"
+            "rate_bridge(read_workbook(book).bridge)\n"
+            "print('numpy.ma' in sys.modules)\n")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True, cwd=Path(__file__).resolve().parents[1])
+    assert out.stdout.strip() == "False"
