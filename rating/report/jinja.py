@@ -15,6 +15,7 @@ import jinja2
 from markupsafe import Markup
 
 from rating.errors import PintrussError
+from rating.report.text import breakable
 
 
 def template_dir() -> Path:
@@ -91,4 +92,5 @@ def build_environment(code_cache: jinja2.BytecodeCache | None) -> jinja2.Environ
         auto_reload=False,  # the templates are package data: never changed while running
     )
     env.filters["css_string"] = css_string
+    env.filters["breakable"] = breakable
     return env

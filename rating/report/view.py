@@ -18,6 +18,7 @@ from markupsafe import Markup
 from rating.report import svg
 from rating.report.display import DASH, NEG_INF, Display
 from rating.report.svg import esc
+from rating.report.text import breakable
 from rating.results import (
     MemberResult,
     PinResult,
@@ -659,7 +660,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}</td><td>{esc(c.sense)}</td>'
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
-        f"<td>{esc(c.location)}</td><td>{esc(c.finding)}</td>"))
+        f"<td>{breakable(c.location)}</td><td>{breakable(c.finding)}</td>"))
         for m in results.members if m.resistance for c in m.resistance.checks)
 
     p = paper_for(d.system, paper)

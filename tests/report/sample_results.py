@@ -353,6 +353,8 @@ def sample_results(system: str = "US", hostile: bool = False) -> RatingResults:
 
 SCRIPT = "<script>alert('x')</script>"
 IMG = '<img src="http://example.invalid/x.png" onerror="alert(1)">'
+# a long entry without a space, as a photo path pasted into the workbook can be
+LONG_PATH = "\\\\county-files\\bridges\\CR-114\\2024-09-03\\IMG_2027_lower_eye_of_L1U1_pitting.jpg"
 
 
 def _make_hostile(r: RatingResults) -> RatingResults:
@@ -368,8 +370,8 @@ def _make_hostile(r: RatingResults) -> RatingResults:
     bridge = replace(r.bridge, name="Mill Creek " + SCRIPT, location="Road " + IMG,
                      owner='Owner "&" <b>bold</b>', inspector="</td></tr></table>" + SCRIPT,
                      id="CR<114>", source_file="x" + SCRIPT + ".xlsx")
-    findings = tuple(replace(f, note=f.note + " " + SCRIPT, photo=IMG, component="bar <2>")
-                     for f in r.findings)
+    findings = tuple(replace(f, note=f.note + " " + SCRIPT + " see " + LONG_PATH, photo=IMG,
+                             component="bar <2>") for f in r.findings)
     members = tuple(replace(m, warnings=(*m.warnings, "note " + SCRIPT)) for m in r.members)
     warnings = (*r.warnings, "workbook note: " + IMG)
     assumptions = (*r.assumptions, "owner note: </style>" + SCRIPT)

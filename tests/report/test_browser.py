@@ -45,6 +45,33 @@ SIZES = """(() => {
   return out;
 })()"""
 
+# Every word of a table cell that the layout split over two lines (a break at a hyphen, an en
+# dash or a slash is a normal one and is not counted): the words of the report's own
+# vocabulary ("bottom chord", "compression", "(inventory)") must stay whole; only a long
+# unbroken entry from the workbook (the pieces of a run given <wbr> breaks,
+# rating.report.text.breakable) may be broken to keep the table on the page.
+SPLIT_WORDS = r"""(() => {
+  const out = [];
+  const wbr = n => n !== null && n.nodeName === 'WBR';
+  for (const cell of document.querySelectorAll('td, th')) {
+    const walker = document.createTreeWalker(cell, NodeFilter.SHOW_TEXT);
+    for (let n = walker.nextNode(); n; n = walker.nextNode()) {
+      for (const m of n.data.matchAll(/[^\s\-\u2013\/]+/g)) {
+        if ((m.index === 0 && wbr(n.previousSibling))
+            || (m.index + m[0].length === n.data.length && wbr(n.nextSibling))) continue;
+        const r = document.createRange();
+        r.setStart(n, m.index);
+        r.setEnd(n, m.index + m[0].length);
+        const tops = new Set([...r.getClientRects()].filter(q => q.width > 0)
+                             .map(q => Math.round(q.top)));
+        if (tops.size > 1) out.push(m[0]);
+      }
+    }
+  }
+  return out;
+})()"""
+LONGEST_WHOLE_WORD = 14  # characters: "(Findings!B10)", "(single-unit", "Specialized"
+
 
 @pytest.fixture(scope="module")
 def browser() -> Iterator[Browser]:
@@ -73,6 +100,8 @@ def _check_page(browser: Browser, path: Path, content_px: int, paper_pt: tuple[f
         assert all(w > 300 and h > 50 for w, h in sizes["packing"])
         assert sizes["overflow"] == [], f"wider than the printed page: {sizes['overflow']}"
         assert sizes["scroll"][0] <= sizes["scroll"][1]
+        split = [w for w in page.evaluate(SPLIT_WORDS) if len(w) <= LONGEST_WHOLE_WORD]
+        assert split == [], f"words broken over two lines: {split}"
         pdf = page.pdf()
         if shot is not None:
             shot.write_bytes(page.screenshot())
@@ -120,6 +149,17 @@ def test_sample_report_in_browser(browser: Browser, tmp_path: Path, which: str,
         _check_page(browser, path, A4_CONTENT_PX, A4_PT)
     else:
         _check_page(browser, path, LETTER_CONTENT_PX, LETTER_PT)
+    # on screen: a desktop window keeps every word whole; a narrower one (700 px, a tablet
+    # held upright) still fits the tables
+    for width, whole in ((1000, True), (700, False)):
+        page = browser.open(path, width=width)
+        try:
+            sizes = page.evaluate(SIZES)
+            assert sizes["overflow"] == [], f"wider than a {width} px window: {sizes['overflow']}"
+            split = [w for w in page.evaluate(SPLIT_WORDS) if len(w) <= LONGEST_WHOLE_WORD]
+            assert split == [] or not whole, f"words broken over two lines: {split}"
+        finally:
+            page.close()
     if which == "hostile":  # the script in the workbook text did not run
         page = browser.open(path)
         try:
@@ -128,6 +168,20 @@ def test_sample_report_in_browser(browser: Browser, tmp_path: Path, which: str,
             assert "<script>" in page.evaluate("document.body.innerText")
         finally:
             page.close()
+
+
+def test_detector_catches_split_words(browser: Browser, tmp_path: Path) -> None:
+    """Positive control: a narrow column that may break anywhere splits its words."""
+    bad = tmp_path / "narrow.html"
+    bad.write_text('<!DOCTYPE html><html><body><table style="width:60px"><tr>'
+                   '<td style="overflow-wrap:anywhere">bottom chord</td><td>compression</td>'
+                   '</tr></table></body></html>')
+    page = browser.open(bad, width=200)
+    try:
+        split = page.evaluate(SPLIT_WORDS)
+    finally:
+        page.close()
+    assert "bottom" in split or "chord" in split
 
 
 def test_letter_report_also_fits_a4_width(browser: Browser, tmp_path: Path,
