@@ -466,7 +466,7 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
         footer=f"batch summary of {summary.folder.name} \u2014 recommendations for the "
         "licensed engineer in responsible charge",
         seconds=f"{summary.seconds:.1f}", workers=summary.workers)
-    return environment().get_template("index.html.j2").render(v=view, page_size="auto")
+    return environment().get_template("index.html.j2").render(v=view, page_size="landscape")
 
 
 def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:

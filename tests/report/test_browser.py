@@ -15,6 +15,9 @@ from pathlib import Path
 import pytest
 from cdp import Browser, find_chromium
 
+from rating.batch import rate_folder
+from rating.inventory.problems import Problem
+from rating.pipeline import RateOutcome
 from rating.report import render_report
 from rating.results import RatingResults
 
@@ -201,3 +204,50 @@ def test_workbook_reports_in_browser(browser: Browser,
         si = system == "SI"
         _check_page(browser, path, A4_CONTENT_PX if si else LETTER_CONTENT_PX,
                     A4_PT if si else LETTER_PT)
+
+
+def test_batch_index_in_browser(browser: Browser, tmp_path: Path,
+                                sample_outcomes: list[RateOutcome]) -> None:
+    """The batch index of the sample workbooks and a broken one: a column for every vehicle
+    of every bridge, on landscape Letter and A4 pages, words whole; on screen the table scrolls
+    in a narrow window, the page does not."""
+    rated = {o.workbook.name: o for o in sample_outcomes if o.results is not None}
+    if not rated:
+        pytest.skip("no sample workbook could be rated (sample_inventory/ not ready)")
+    folder = tmp_path / "inspections"
+    folder.mkdir()
+    for name in [*rated, "broken.xlsx"]:
+        (folder / name).write_bytes(b"stand-in: the ratings come from the samples")
+
+    def rate(path: Path, vehicle_ids: list[str] | None = None) -> RateOutcome:
+        if path.name in rated:
+            return rated[path.name]
+        return RateOutcome(path, None, (Problem("error", "Members!C7", "no section"),))
+
+    summary = rate_folder(folder, tmp_path / "out", workers=1, rate=rate)
+    index = summary.index_path
+    # the printable widths of landscape Letter (11 in) and A4 (297 mm), 13 mm margins
+    for content_px in (round((11 * 25.4 - 26) / 25.4 * 96), round((297 - 26) / 25.4 * 96)):
+        page = browser.open(index, width=content_px, height=800, print_media=True)
+        try:
+            sizes = page.evaluate(SIZES)
+            assert sizes["overflow"] == [], f"wider than the page: {sizes['overflow']}"
+            split = [w for w in page.evaluate(SPLIT_WORDS) if len(w) <= LONGEST_WHOLE_WORD]
+            assert split == [], f"words broken over two lines: {split}"
+            w, h = _media_box(page.pdf())
+            assert w > h  # landscape (the paper is the printer's; the CSS asks for none)
+            rep = page.report()
+            assert rep.console_errors == [] and rep.exceptions == []
+            assert rep.requests == [index.resolve().as_uri()]
+        finally:
+            page.close()
+    for width in (1400, 1000):
+        page = browser.open(index, width=width)
+        try:
+            sizes = page.evaluate(SIZES)
+            assert sizes["scroll"][0] <= sizes["scroll"][1]  # the page does not scroll sideways
+            if width == 1400:
+                assert sizes["overflow"] == []
+            assert "broken.xlsx" in page.evaluate("document.body.innerText")
+        finally:
+            page.close()
