@@ -22,6 +22,7 @@ import argparse
 import functools
 import os
 import platform
+import resource
 import shutil
 import statistics
 import subprocess
@@ -60,19 +61,29 @@ def single(runs: int, work: Path) -> None:
                     str(work / "single-warm")], capture_output=True, text=True, cwd=REPO,
                    env=env)
     for book in books:
-        times, codes = [], set()
+        times, cpu, codes = [], [], set()
         for k in range(runs):
             out = work / f"single-{book.stem}-{k}"
+            c0 = _children_cpu()
             t0 = time.perf_counter()
             proc = subprocess.run([sys.executable, "-m", "rating.cli", "rate", str(book),
                                    "--out", str(out)], capture_output=True, text=True,
                                   cwd=REPO, env=env)
             times.append(time.perf_counter() - t0)
+            cpu.append(_children_cpu() - c0)
             codes.add(proc.returncode)
         status = "rated" if codes == {0} else f"NOT RATED (exit {sorted(codes)})"
         print(f"{book.name:<32} median {statistics.median(times):6.2f} s  "
-              f"min {min(times):6.2f} s  {status}")
+              f"min {min(times):6.2f} s  (CPU median {statistics.median(cpu):5.2f} s)  {status}")
     stages(books[0], work=work)
+
+
+def _children_cpu() -> float:
+    """CPU time (user + system, s) of this process's finished children: on a shared machine
+    it moves less than the wall time with load from elsewhere, so it tells a slower machine
+    from a slower program."""
+    ru = resource.getrusage(resource.RUSAGE_CHILDREN)
+    return ru.ru_utime + ru.ru_stime
 
 
 def _best(fn, runs: int = 5) -> float:

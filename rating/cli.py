@@ -6,9 +6,12 @@ Exit codes: 0 success; 1 input problems (listed with Sheet!Cell); 2 usage errors
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from collections.abc import Sequence
 from pathlib import Path
+
+from rating.batch import THREAD_ENV
 
 EXIT_OK = 0
 EXIT_INPUT = 1
@@ -71,6 +74,15 @@ def _parser() -> argparse.ArgumentParser:
     return p
 
 
+def one_numeric_thread() -> None:
+    """One thread for numpy's linear algebra unless the user's environment says otherwise
+    (before numpy is imported: it reads these once). The rating's matrices are small: on the
+    bundled samples a second thread made a run about 0.1 s slower and used a third more CPU
+    (bench/README.md); the batch has its own processes for the cores."""
+    for name in THREAD_ENV:
+        os.environ.setdefault(name, "1")
+
+
 def main(argv: Sequence[str] | None = None) -> int:
     parser = _parser()
     try:
@@ -80,6 +92,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     if args.command is None:
         parser.print_help()
         return EXIT_USAGE
+    one_numeric_thread()
     from rating import commands
 
     handler = getattr(commands, f"run_{args.command}")
