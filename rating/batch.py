@@ -32,6 +32,7 @@ from rating.errors import InputError
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
 THREAD_ENV = ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS")
+GC_THRESHOLDS = (100_000, 50, 100)  # the cyclic collector's, for a rating process
 
 
 # ------------------------------------------------------------------ what one workbook gave
@@ -146,7 +147,7 @@ def _worker_setup() -> None:
     (about 5 % of a workbook's time); cycles are still collected."""
     for name in THREAD_ENV:
         os.environ.setdefault(name, "1")
-    gc.set_threshold(100_000, 50, 100)
+    gc.set_threshold(*GC_THRESHOLDS)
 
 
 def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,

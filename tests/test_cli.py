@@ -1,15 +1,26 @@
-"""The command line's own job: one numeric thread by default, set before numpy loads."""
+"""The command line's own job: one numeric thread by default, set before numpy loads; the
+cyclic garbage collector run less often."""
 
 from __future__ import annotations
 
+import gc
 import os
 import subprocess
 import sys
+from collections.abc import Iterator
 
 import pytest
 
-from rating.batch import THREAD_ENV
+from rating.batch import GC_THRESHOLDS, THREAD_ENV
 from rating.cli import main
+
+
+@pytest.fixture(autouse=True)
+def _collector_restored() -> Iterator[None]:
+    """main() sets this process's collector thresholds: the test process gets its own back."""
+    before = gc.get_threshold()
+    yield
+    gc.set_threshold(*before)
 
 
 def test_the_command_line_module_does_not_load_numpy() -> None:
@@ -30,3 +41,10 @@ def test_one_numeric_thread_unless_the_user_said_otherwise(
     capsys.readouterr()
     assert os.environ["OPENBLAS_NUM_THREADS"] == "3"
     assert all(os.environ[name] == "1" for name in THREAD_ENV if name != "OPENBLAS_NUM_THREADS")
+
+
+def test_the_collector_runs_less_often_during_a_run(
+        capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["vehicles"]) == 0
+    capsys.readouterr()
+    assert gc.get_threshold() == GC_THRESHOLDS
