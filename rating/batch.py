@@ -28,11 +28,10 @@ from pathlib import Path
 from typing import Any, TextIO
 
 from rating.errors import InputError
+from rating.process import GC_THRESHOLDS, settle_process
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
-THREAD_ENV = ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS")
-GC_THRESHOLDS = (100_000, 50, 100)  # the cyclic collector's, for a rating process
 
 
 # ------------------------------------------------------------------ what one workbook gave
@@ -141,13 +140,10 @@ def output_stems(workbooks: Sequence[Path]) -> tuple[str, ...]:
 # ------------------------------------------------------------------ one workbook (worker)
 
 def _worker_setup() -> None:
-    """Pool initializer: one numeric thread per process (the pool is the parallelism), and
-    the cyclic garbage collector run less often: a rating makes many short-lived objects
-    that form no cycles, and the default threshold (700) has it scan them all the time
-    (about 5 % of a workbook's time); cycles are still collected."""
-    for name in THREAD_ENV:
-        os.environ.setdefault(name, "1")
-    gc.set_threshold(*GC_THRESHOLDS)
+    """Pool initializer: the settings of a rating process (rating.process.settle_process:
+    one numeric thread per process, the pool being the parallelism; the collector run less
+    often)."""
+    settle_process()
 
 
 def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
@@ -303,7 +299,7 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
     rows: dict[str, BridgeRow] = {}
     if n == 1:
         before = gc.get_threshold()
-        gc.set_threshold(100_000, 50, 100)  # as in a worker (_worker_setup), for this run
+        gc.set_threshold(*GC_THRESHOLDS)  # as in a worker (_worker_setup), for this run
         try:
             for t in tasks:
                 row = rate_one(t)

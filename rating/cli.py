@@ -6,13 +6,11 @@ Exit codes: 0 success; 1 input problems (listed with Sheet!Cell); 2 usage errors
 from __future__ import annotations
 
 import argparse
-import gc
-import os
 import sys
 from collections.abc import Sequence
 from pathlib import Path
 
-from rating.batch import GC_THRESHOLDS, THREAD_ENV
+from rating.process import settle_process
 
 EXIT_OK = 0
 EXIT_INPUT = 1
@@ -73,20 +71,6 @@ def _parser() -> argparse.ArgumentParser:
                    help="comma-separated vehicle ids to rate on every bridge (default: each "
                    "workbook's choice, else the whole library)")
     return p
-
-
-def settle_process() -> None:
-    """Settings of this process for a run, made before the heavy modules load.
-
-    One thread for numpy's linear algebra unless the user's environment says otherwise
-    (numpy reads these once, when imported). The rating's matrices are small: on the bundled
-    samples a second thread made a run about 0.1 s slower and used a third more CPU
-    (bench/README.md); the batch has its own processes for the cores. And the cyclic garbage
-    collector run less often, as in the batch's processes (rating.batch._worker_setup): a
-    run makes many short-lived objects that form no cycles; cycles are still collected."""
-    for name in THREAD_ENV:
-        os.environ.setdefault(name, "1")
-    gc.set_threshold(*GC_THRESHOLDS)
 
 
 def main(argv: Sequence[str] | None = None) -> int:
