@@ -57,6 +57,23 @@ def _same_file(a, b) -> bool:
         return False
 
 
+def _not_writable(path, option: str, folder: bool = False) -> str | None:
+    """Why ``path`` (given with ``option``) cannot take an output file, or be the folder of
+    outputs when ``folder``, found before any rating is done; None where nothing is wrong."""
+    from pathlib import Path
+
+    path = Path(path)
+    if path.exists():
+        if folder and not path.is_dir():
+            return f"{option} {path} is a file, not a folder"
+        if not folder and path.is_dir():
+            return f"{option} {path} is a folder, not a file name"
+    for parent in path.parents:  # the nearest folder that exists must be one
+        if parent.exists():
+            return None if parent.is_dir() else f"{option} {path}: {parent} is a file, not a folder"
+    return None
+
+
 def run_rate(args: argparse.Namespace) -> int:
     from rating.pipeline import output_paths, rate_workbook, write_atomic, write_outputs
     from rating.results import results_json
@@ -72,13 +89,19 @@ def run_rate(args: argparse.Namespace) -> int:
             print("pintruss: --vehicles names no vehicle", file=sys.stderr)
             return EXIT_USAGE
     html_path, json_path = output_paths(workbook, args.out)
-    targets = [json_path] + ([] if args.no_report else [html_path])
+    targets = [(json_path, "results file")] + ([] if args.no_report else [(html_path, "report")])
     if args.json_path is not None:
-        targets.append(args.json_path)
-    for t in targets:
+        targets.append((args.json_path, "--json"))
+    for t, _ in targets:
         if _same_file(t, workbook):
             print(f"pintruss: refusing to write {t}: it is the input workbook", file=sys.stderr)
             return EXIT_USAGE
+    problems = [_not_writable(args.out, "--out", folder=True)] if args.out is not None else []
+    problems += [_not_writable(t, what) for t, what in targets]
+    problem = next((p for p in problems if p is not None), None)
+    if problem is not None:
+        print(f"pintruss: {problem}; nothing was rated or written", file=sys.stderr)
+        return EXIT_USAGE
     outcome = rate_workbook(workbook, vehicle_ids)
     for problem in outcome.problems:
         print(problem.format(), file=sys.stderr)
@@ -87,11 +110,17 @@ def run_rate(args: argparse.Namespace) -> int:
               file=sys.stderr)
         return EXIT_INPUT
     res = outcome.results
-    html, js = write_outputs(res, html_path.parent, workbook.stem, report=not args.no_report,
-                             paper=args.paper)
-    if args.json_path is not None:
-        write_atomic(args.json_path, results_json(res))
-        js = args.json_path
+    try:
+        html, js = write_outputs(res, html_path.parent, workbook.stem,
+                                 report=not args.no_report, paper=args.paper)
+        if args.json_path is not None:
+            write_atomic(args.json_path, results_json(res))
+            js = args.json_path
+    except OSError as exc:  # a full disk, a folder we may not write to: each file is whole
+        # or absent (written through a temporary file and a rename)
+        print(f"pintruss: {workbook} was rated, but the outputs could not be written: "
+              f"{exc}", file=sys.stderr)
+        return EXIT_INPUT
     print(f"{res.bridge.id} {res.bridge.name}")
     import math
 

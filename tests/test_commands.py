@@ -1,0 +1,87 @@
+"""The rate command with output places it cannot write: a clear message naming the option
+and the path, exit 2 before any rating, nothing written; a failure while writing: exit 1, a
+message, no traceback."""
+
+from __future__ import annotations
+
+import errno
+import sys
+from pathlib import Path
+
+import pytest
+
+sys.path.insert(0, str(Path(__file__).resolve().parent / "report"))
+
+from sample_results import sample_results  # noqa: E402
+
+import rating.pipeline  # noqa: E402
+from rating.cli import main  # noqa: E402
+from rating.pipeline import RateOutcome  # noqa: E402
+
+SAMPLE = sorted((Path(__file__).resolve().parents[1] / "sample_inventory").glob("*pony*.xlsx"))
+
+
+@pytest.fixture
+def workbook(tmp_path: Path) -> Path:
+    """A workbook to rate (its rating replaced by the hand-built sample results: these tests
+    are about where the outputs go)."""
+    if not SAMPLE:
+        pytest.skip("sample_inventory/ has no pony sample")
+    book = tmp_path / "in" / "bridge.xlsx"
+    book.parent.mkdir()
+    book.write_bytes(SAMPLE[0].read_bytes())
+    return book
+
+
+@pytest.fixture
+def rated(monkeypatch: pytest.MonkeyPatch) -> list[Path]:
+    calls: list[Path] = []
+
+    def rate(path: Path, vehicle_ids: list[str] | None = None) -> RateOutcome:
+        calls.append(Path(path))
+        return RateOutcome(Path(path), sample_results(), ())
+
+    monkeypatch.setattr(rating.pipeline, "rate_workbook", rate)
+    return calls
+
+
+def _files(folder: Path) -> set[str]:
+    return {str(p.relative_to(folder)) for p in folder.rglob("*")}
+
+
+@pytest.mark.parametrize(("args", "said"), [
+    (["--out", "{tmp}/afile"], "--out {tmp}/afile is a file, not a folder"),
+    (["--out", "{tmp}/afile/sub"], "--out {tmp}/afile/sub: {tmp}/afile is a file"),
+    (["--out", "{tmp}/o", "--json", "{tmp}/afile/r.json"],
+     "--json {tmp}/afile/r.json: {tmp}/afile is a file"),
+    (["--out", "{tmp}/o", "--json", "{tmp}/o"], "--json {tmp}/o is a folder, not a file name"),
+    (["--out", "{tmp}/taken"], "results file {tmp}/taken/bridge.rating.json is a folder"),
+])
+def test_an_output_place_that_cannot_be_written_is_refused_before_rating(
+        tmp_path: Path, workbook: Path, rated: list[Path], capsys: pytest.CaptureFixture[str],
+        args: list[str], said: str) -> None:
+    (tmp_path / "afile").write_text("a file the user keeps")
+    (tmp_path / "o").mkdir()
+    (tmp_path / "taken" / "bridge.rating.json").mkdir(parents=True)
+    before = _files(tmp_path)
+    code = main(["rate", str(workbook), *[a.format(tmp=tmp_path) for a in args]])
+    err = capsys.readouterr().err
+    assert code == 2
+    assert said.format(tmp=tmp_path) in err and "Traceback" not in err
+    assert rated == []  # refused before the rating
+    assert _files(tmp_path) == before  # nothing written
+    assert (tmp_path / "afile").read_text() == "a file the user keeps"
+
+
+def test_a_failure_while_writing_is_a_message_not_a_traceback(
+        tmp_path: Path, workbook: Path, rated: list[Path], monkeypatch: pytest.MonkeyPatch,
+        capsys: pytest.CaptureFixture[str]) -> None:
+    def full_disk(*args: object, **kwargs: object) -> None:
+        raise OSError(errno.ENOSPC, "No space left on device")
+
+    monkeypatch.setattr(rating.pipeline, "write_outputs", full_disk)
+    code = main(["rate", str(workbook), "--out", str(tmp_path / "out")])
+    err = capsys.readouterr().err
+    assert code == 1
+    assert "could not be written" in err and "No space left on device" in err
+    assert "Traceback" not in err and rated == [workbook]
