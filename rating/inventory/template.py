@@ -295,7 +295,11 @@ def _save_new(wb: Workbook, path: Path, force: bool) -> None:
     folder = path.parent if str(path.parent) else Path(".")
     if not folder.is_dir():
         raise InputError(f"the folder {folder} does not exist", where=str(path))
-    fd, tmp = tempfile.mkstemp(suffix=".xlsx", prefix=".pintruss-", dir=folder)
+    try:
+        fd, tmp = tempfile.mkstemp(suffix=".xlsx", prefix=".pintruss-", dir=folder)
+    except OSError as exc:  # a folder we may not write to
+        raise InputError(f"the workbook cannot be written in {folder}: "
+                         f"{exc.strerror or exc}", where=str(path)) from exc
     os.close(fd)
     try:
         wb.save(tmp)
@@ -315,8 +319,8 @@ def _save_new(wb: Workbook, path: Path, force: bool) -> None:
                     raise InputError("the file already exists and is not overwritten",
                                      where=str(path)) from None
                 os.replace(tmp, path)
-    except PermissionError as exc:
-        raise InputError(f"the workbook cannot be written: {exc.strerror}",
+    except OSError as exc:  # no permission, a full disk: the temporary file is removed
+        raise InputError(f"the workbook cannot be written: {exc.strerror or exc}",
                          where=str(path)) from exc
     finally:
         if os.path.exists(tmp):

@@ -126,6 +126,33 @@ def test_refuses_bad_names(tmp_path: Path) -> None:
         write_template(tmp_path / "no" / "such" / "t.xlsx")
 
 
+def test_a_folder_it_may_not_write_to_is_a_message(tmp_path: Path,
+                                                  monkeypatch: pytest.MonkeyPatch) -> None:
+    # (the tests may run as root, which every folder lets write: the refusal is simulated)
+    import tempfile
+
+    def refused(*args: object, **kwargs: object) -> tuple[int, str]:
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr(tempfile, "mkstemp", refused)
+    with pytest.raises(InputError, match="cannot be written in .*Permission denied") as exc:
+        write_template(tmp_path / "t.xlsx")
+    assert exc.value.where == str(tmp_path / "t.xlsx")
+
+
+def test_a_full_disk_is_a_message_and_leaves_nothing(tmp_path: Path,
+                                                     monkeypatch: pytest.MonkeyPatch) -> None:
+    def full(self: openpyxl.Workbook, filename: str) -> None:
+        Path(filename).write_bytes(b"PK half")
+        raise OSError(28, "No space left on device")
+
+    monkeypatch.setattr(openpyxl.Workbook, "save", full)
+    path = tmp_path / "t.xlsx"
+    with pytest.raises(InputError, match="cannot be written: No space left on device"):
+        write_template(path)
+    assert list(tmp_path.iterdir()) == []  # neither the workbook nor the temporary file
+
+
 def test_cli_template_and_force(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
     path = tmp_path / "new.xlsx"
     assert main(["template", str(path)]) == 0
