@@ -11,7 +11,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 from hypothesis.extra.numpy import arrays
 
-from rating.arrays import distinct_sorted
+from rating.arrays import distinct_sorted, first_of_distinct_rows
 
 
 @given(arrays(np.int64, st.tuples(st.integers(0, 6), st.integers(1, 5)),
@@ -20,6 +20,15 @@ def test_distinct_sorted_is_numpys_unique(values: np.ndarray) -> None:
     got = distinct_sorted(values)
     want = np.unique(values)
     assert got.dtype == want.dtype
+    np.testing.assert_array_equal(got, want)
+
+
+@given(arrays(np.float64, st.tuples(st.integers(0, 12), st.integers(1, 3)),
+              elements=st.sampled_from([-1.5, -0.0, 0.0, 0.25, 2.0, 7.0])))
+def test_first_of_distinct_rows_is_numpys_unique_over_rows(keys: np.ndarray) -> None:
+    got = first_of_distinct_rows(keys)
+    want = (np.sort(np.unique(keys, axis=0, return_index=True)[1]) if keys.shape[0]
+            else np.zeros(0, dtype=int))
     np.testing.assert_array_equal(got, want)
 
 

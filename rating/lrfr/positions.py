@@ -27,7 +27,7 @@ from rating.analysis.moving import (
     panel_point_fronts,
 )
 from rating.analysis.regions import PathStore
-from rating.arrays import distinct_sorted
+from rating.arrays import distinct_sorted, first_of_distinct_rows
 from rating.vehicles.library import RatingLoad
 
 
@@ -213,8 +213,7 @@ class PositionSet:
         xa, xb = self.front_ft[pairs[:, 0]], self.front_ft[pairs[:, 1]]
         x = np.round(xa + t * (xb - xa), 9)
         key = np.stack([self.run[pairs[:, 0]].astype(float), x], axis=1)
-        _, first = np.unique(key, axis=0, return_index=True)
-        first = np.sort(first)
+        first = first_of_distinct_rows(key)
         pa, pb, x = pairs[first, 0], pairs[first, 1], x[first]
         # between the two the loads are linear in the station (every axle stays within its
         # stringer span), so they follow from the ends exactly
