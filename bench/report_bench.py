@@ -130,6 +130,9 @@ def stages(book: Path, runs: int = 5, *, work: Path, imports: bool = True) -> No
     (:func:`import_times`), then, in this process, reading and rating, and the stages after
     the rating (results, report, JSON) as the best of ``runs``, after one call that compiles
     the templates."""
+    from rating.process import settle_process
+
+    settle_process()  # as the command line does before numpy loads (one BLAS thread)
     from rating.inventory.reader import read_workbook
     from rating.lrfr.engine import rate_bridge
     from rating.report.html import render_report
