@@ -7,6 +7,7 @@ a traceback: they are the project's own exceptions, printed as messages.
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 
 from rating.errors import PintrussError
@@ -57,7 +58,8 @@ def _same_file(a, b) -> bool:
         return False
 
 
-def _not_writable(path, option: str, folder: bool = False) -> str | None:
+def _not_writable(path: os.PathLike[str] | str, option: str, folder: bool = False
+                  ) -> str | None:
     """Why ``path`` (given with ``option``) cannot take an output file, or be the folder of
     outputs when ``folder``, found before any rating is done; None where nothing is wrong."""
     from pathlib import Path
