@@ -82,7 +82,8 @@ def run_rate(args: argparse.Namespace) -> int:
 
     workbook = args.workbook
     if not workbook.is_file():
-        print(f"pintruss: no workbook at {workbook}", file=sys.stderr)
+        what = "is a folder, not a workbook file" if workbook.is_dir() else "does not exist"
+        print(f"pintruss: no workbook at {workbook}: it {what}", file=sys.stderr)
         return EXIT_INPUT
     vehicle_ids = None
     if args.vehicles:

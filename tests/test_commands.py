@@ -85,3 +85,12 @@ def test_a_failure_while_writing_is_a_message_not_a_traceback(
     assert code == 1
     assert "could not be written" in err and "No space left on device" in err
     assert "Traceback" not in err and rated == [workbook]
+
+
+def test_a_workbook_that_is_missing_or_a_folder_is_named(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["rate", str(tmp_path / "gone.xlsx")]) == 1
+    assert f"{tmp_path / 'gone.xlsx'}: it does not exist" in capsys.readouterr().err
+    (tmp_path / "folder.xlsx").mkdir()
+    assert main(["rate", str(tmp_path / "folder.xlsx")]) == 1
+    assert "it is a folder, not a workbook file" in capsys.readouterr().err
