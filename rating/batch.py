@@ -28,6 +28,7 @@ from pathlib import Path
 from typing import Any, TextIO
 
 from rating.errors import InputError
+from rating.lrfr.reported import reported_rf
 from rating.process import GC_THRESHOLDS, settle_process
 
 SUMMARY_CSV = "summary.csv"
@@ -351,7 +352,7 @@ def _rf_text(rf: float | None) -> str:
         return ""
     if rf == -math.inf:
         return "-inf"
-    return f"{math.floor(rf * 100.0 + 1e-7) / 100.0:.2f}"
+    return f"{reported_rf(rf):.2f}"
 
 
 def _cell(text: str) -> str:

@@ -216,7 +216,8 @@ class VehicleResult:
 @dataclass(frozen=True)
 class PostingResultEntry:
     """The posting outcome of one vehicle: the controlling RF and member (or pin), the rating
-    RT = RF x W and the safe posting load (tons; None unless posted), the action and a note."""
+    RT = RF x W and the safe posting load (tons; None unless posted), both worked from the RF
+    as printed (rating.lrfr.reported.reported_rf), the action and a note."""
 
     rf: float = q("controlling rating factor")
     rating_tons: float = q("rating in tons RT = RF x W", "weight")

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from itertools import accumulate
 
 from rating import __version__
@@ -10,6 +11,8 @@ from rating.analysis.moving import Direction, Extreme
 from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction
+from rating.lrfr.posting import posting as legal_load_posting
+from rating.lrfr.reported import reported_rf
 from rating.model import Finding, UnitSystem, VehicleCategory
 from rating.results import (
     SCHEMA_VERSION,
@@ -218,31 +221,51 @@ def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
             f"M = {M:.1f} {units[1]}, V = {V:.1f} {units[2]} ({case_id})")
 
 
-def _posting_entry(cp: CasePosting, system: UnitSystem, W_tons: float) -> PostingResultEntry:
+def _report_posting(cp: CasePosting, system: UnitSystem, W_tons: float
+                    ) -> tuple[PostingAction, float | None, str]:
+    """The action, the safe posting load in whole units of the report's weight unit and the
+    note of one case. An SI bridge is posted in whole tonnes by the same rule
+    (rating.lrfr.posting.posting, MBE 6A.8.3) applied to W in tonnes: rounded down once, not
+    tons converted and rounded again, and a load under one tonne is a closure too."""
     res = cp.result
-    posting_tons = res.posting_tons
-    if system is UnitSystem.SI and res.action is PostingAction.POST:
-        # round down to the whole tonne, held in tons so the SI view shows whole tonnes
-        tonnes = math.floor(W_tons / TON_PER_TONNE / 0.7 * (cp.rf - 0.3) + 1e-9)
-        posting_tons = tonnes * TON_PER_TONNE
-    return PostingResultEntry(rf=cp.rf, rating_tons=res.rating_tons, posting_tons=posting_tons,
-                              member=cp.controlling, action=res.action.value, note=cp.note,
+    if system is not UnitSystem.SI or res.action is PostingAction.NONE:
+        return res.action, res.posting_tons, cp.note
+    si = legal_load_posting(cp.rf, W_tons / TON_PER_TONNE, "tonne")
+    return si.action, si.posting_tons, si.reason or cp.note
+
+
+def _posting_entry(cp: CasePosting, report: tuple[PostingAction, float | None, str],
+                   system: UnitSystem) -> PostingResultEntry:
+    action, load, note = report
+    if system is UnitSystem.SI and load is not None:
+        load *= TON_PER_TONNE  # whole tonnes held in tons: the SI view shows whole tonnes
+    return PostingResultEntry(rf=cp.rf, rating_tons=cp.result.rating_tons, posting_tons=load,
+                              member=cp.controlling, action=action.value, note=note,
                               alike=cp.alike)
 
 
-def recommendation(rating: BridgeRating, unit: str) -> str:
-    """The bridge-level recommendation, always worded for the engineer's decision."""
+def recommendation(rating: BridgeRating, unit: str,
+                   report: Mapping[str, tuple[PostingAction, float | None, str]]) -> str:
+    """The bridge-level recommendation, always worded for the engineer's decision;
+    ``report``: each case's action and posting load in the report's unit
+    (:func:`_report_posting`)."""
     legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
              and not rating.postings[c.id].screened_out]
-    closing = [c for c in legal if rating.postings[c.id].result.action is PostingAction.CLOSE]
-    posted = [c for c in legal if rating.postings[c.id].result.action is PostingAction.POST]
+    closing = [c for c in legal if report[c.id][0] is PostingAction.CLOSE]
+    posted = [c for c in legal if report[c.id][0] is PostingAction.POST]
     tail = (" This is a recommendation for the decision of the licensed engineer in responsible "
             "charge; the owner's manual, policy and local codes govern.")
     if closing:
-        names = ", ".join(f"{c.load.name} (RF {rating.postings[c.id].rf:.2f}, "
-                          f"{rating.postings[c.id].controlling})" for c in closing)
-        return ("Consider closing the bridge: the rating factor is below 0.3 for " + names
-                + "." + tail)
+        low_rf = [c for c in closing if reported_rf(rating.postings[c.id].rf) < 0.3]
+        zero = [c for c in closing if c not in low_rf]
+
+        def names(cs: list[RatingCase]) -> str:
+            return ", ".join(f"{c.load.name} (RF {reported_rf(rating.postings[c.id].rf):.2f}, "
+                             f"{rating.postings[c.id].controlling})" for c in cs)
+
+        reasons = ([f"the rating factor is below 0.3 for {names(low_rf)}"] if low_rf else []) + (
+            [f"the safe posting load rounds down to zero for {names(zero)}"] if zero else [])
+        return "Consider closing the bridge: " + "; ".join(reasons) + "." + tail
     if not posted:
         if not legal:
             return "No legal loads were rated, so no posting is indicated by this run." + tail
@@ -250,11 +273,9 @@ def recommendation(rating: BridgeRating, unit: str) -> str:
                 "of at least 1.0." + tail)
 
     def amount(c: RatingCase) -> float:
-        e = rating.postings[c.id].result.posting_tons
-        if unit == "tonne":
-            rf = rating.postings[c.id].rf
-            return math.floor(c.load.gross_weight_tons / TON_PER_TONNE / 0.7 * (rf - 0.3) + 1e-9)
-        return e
+        load = report[c.id][1]
+        assert load is not None  # posted
+        return load
 
     groups = []
     for title, ids in (("single-unit trucks", SINGLE_UNIT), ("combination trucks", COMBINATION)):
@@ -389,8 +410,10 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             governing_V=gov_chk.V_u_kip if gov_chk else None, governing_case=gov_case,
             ratings=pr, warnings=tuple(map(text, p.warnings))))
     unit = "tonne" if system is UnitSystem.SI else "ton"
-    posting = {cid: _posting_entry(cp, system, next(c for c in rating.cases
-                                                    if c.id == cid).load.gross_weight_tons)
+    weight_tons = {c.id: c.load.gross_weight_tons for c in rating.cases}
+    report = {cid: _report_posting(cp, system, weight_tons[cid])
+              for cid, cp in rating.postings.items()}
+    posting = {cid: _posting_entry(cp, report[cid], system)
                for cid, cp in rating.postings.items()}
     # influence lines of the controlling members, for the drawings
     # (drawn with the active set in which the controlling extreme was found)
@@ -439,7 +462,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         method=METHOD,
         provision_set=b.settings.provision_set,
         joints=joints, vehicles=tuple(vehicles), members=tuple(members), pins=tuple(pins),
-        posting=posting, recommendation=recommendation(rating, unit),
+        posting=posting, recommendation=recommendation(rating, unit, report),
         warnings=group_member_notes([text(w) for w in list(rating.warnings)
                                      + list(extra_warnings)]),
         assumptions=group_member_notes(assumptions),

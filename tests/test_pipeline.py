@@ -64,6 +64,25 @@ def test_si_sample_reports_in_si_with_whole_tonnes(outcomes):
     assert posted and all(float(p["posting_tons"]).is_integer() for p in posted)
 
 
+@pytest.mark.parametrize("name", [p.name for p in SAMPLES])
+def test_rt_and_posting_follow_from_the_printed_rf_and_w(outcomes, name):
+    """A reviewer checks each posted vehicle by hand from the printed RF (two decimals,
+    rounded down) and W: RT = RF x W and (W / 0.7)(RF - 0.3) rounded down (MBE 6A.8.3,
+    equation as in Khan 2010 p. 187), in the report's weight unit."""
+    doc = json.loads(results_json(outcomes[name].results))
+    weight = {v["id"]: v["gross_weight"] for v in doc["vehicles"]}
+    posted = 0
+    for vid, p in doc["posting"].items():
+        if not math.isfinite(p["rf"]):
+            continue
+        printed = math.floor(p["rf"] * 100.0 + 1e-7) / 100.0
+        assert p["rating_tons"] == pytest.approx(printed * weight[vid], rel=1e-5), vid
+        if p["action"] == "post":
+            posted += 1
+            assert p["posting_tons"] == math.floor(weight[vid] / 0.7 * (printed - 0.3) + 1e-6), vid
+    assert posted
+
+
 def test_same_input_gives_byte_identical_json():
     pony = next(p for p in SAMPLES if "pony" in p.name)
     a = results_json(rate_workbook(pony).results)

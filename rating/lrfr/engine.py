@@ -781,7 +781,7 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                 f"design-load rating at the {case.level.value} level; posting is decided from "
                 "the legal loads"), alike=alike)
             continue
-        out[case.id] = CasePosting(case.id, rf, who, result, alike=alike)
+        out[case.id] = CasePosting(case.id, rf, who, result, note=result.reason, alike=alike)
         if case.load.id == "NRL":
             nrl_ok = rf >= 1.0
             if not nrl_ok:  # a screening load: the SHVs themselves are rated and posted

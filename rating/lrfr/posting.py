@@ -7,6 +7,7 @@ from dataclasses import dataclass
 from enum import StrEnum
 
 from rating.lrfr.factors import provisions
+from rating.lrfr.reported import reported_rf
 
 
 class PostingAction(StrEnum):
@@ -21,10 +22,11 @@ class PostingResult:
     posting load (None unless posted), in the unit of W given; the action and its source."""
 
     rf: float
-    rating_tons: float  # RT = RF x W
+    rating_tons: float  # RT = RF x W, RF as reported (two decimals, rounded down)
     posting_tons: float | None  # safe posting load, whole tons (or tonnes) rounded down
     action: PostingAction
     source: str
+    reason: str = ""  # why, where the action is not read off the RF alone
 
 
 def safe_posting_load(rf: float, gross_weight: float, lower_rf: float = 0.3) -> float:
@@ -35,19 +37,34 @@ def safe_posting_load(rf: float, gross_weight: float, lower_rf: float = 0.3) -> 
     return gross_weight / 0.7 * (rf - lower_rf)
 
 
-def posting(rf: float, gross_weight: float) -> PostingResult:
-    """Action for one legal vehicle; ``gross_weight`` in the report's weight unit.
+def posting_load(rf: float, gross_weight: float) -> float:
+    """The safe posting load in whole units of ``gross_weight``, rounded down, worked from the
+    RF as reported (:func:`reported_rf`). MBE 6A.8.3, Eq. 6A.8.3-1 [value from memory;
+    equation read in Khan 2010, p. 187]."""
+    low = provisions()["posting"]["lower_rf"]
+    return float(math.floor(safe_posting_load(reported_rf(rf), gross_weight, low) + 1e-9))
+
+
+def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
+    """Action for one legal vehicle; ``gross_weight`` in the weight unit named by ``unit``.
 
     RF >= 1: no restriction; 0.3 <= RF < 1: post at the safe posting load rounded down to a
-    whole unit; RF < 0.3: consider closing (owner's policy governs). MBE 6A.8.3 [value from
-    memory; equation read in Khan 2010, p. 187].
+    whole unit, or consider closing where that rounds down to zero; RF < 0.3: consider
+    closing (owner's policy governs). MBE 6A.8.3 [value from
+    memory; equation read in Khan 2010, p. 187]. The thresholds, RT and the posting load
+    take the RF as reported (:func:`reported_rf`); ``rf`` is kept as computed.
     """
     p = provisions()["posting"]
-    low = p["lower_rf"]
-    rt = rf * gross_weight if math.isfinite(rf) else math.inf
-    if rf >= 1.0:
+    shown = reported_rf(rf)
+    rt = shown * gross_weight if math.isfinite(rf) else math.inf
+    if shown >= 1.0:
         return PostingResult(rf, rt, None, PostingAction.NONE, p["source"])
-    if rf >= low:
-        load = math.floor(safe_posting_load(rf, gross_weight, low) + 1e-9)
-        return PostingResult(rf, rt, float(load), PostingAction.POST, p["source"])
+    if shown >= p["lower_rf"]:
+        load = posting_load(rf, gross_weight)
+        if load >= 1.0:
+            return PostingResult(rf, rt, load, PostingAction.POST, p["source"])
+        # a posting of zero lets no vehicle cross: that is a closure, not a posting
+        return PostingResult(rf, rt, None, PostingAction.CLOSE, p["zero_source"], (
+            f"the safe posting load (W / 0.7)(RF \u2212 0.3) is less than one {unit}: no "
+            "vehicle could cross"))
     return PostingResult(rf, rt, None, PostingAction.CLOSE, p["close_source"])

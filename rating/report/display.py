@@ -12,6 +12,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
+from rating.lrfr.reported import reported_rf
 from rating.results import DISPLAY_UNITS, RatingResults, dimensions
 from rating.units import from_core
 
@@ -165,13 +166,13 @@ class Display:
         if type(value) is float and -999.0 < value < 999.0:
             # the usual case, as below: rounded down to a multiple of 0.01 that is not -0.0,
             # so the text is the plain format with the minus sign of the report
-            x = math.floor(value * 100.0 + 1e-7) / 100.0
+            x = reported_rf(value)
             return format(x, ".2f") if x >= 0.0 else MINUS + format(-x, ".2f")
         if value is None or not _is_number(value) or math.isnan(value):
             return DASH
         if math.isinf(value):
             return DASH if value > 0 else NEG_INF
-        return _fixed(math.floor(float(value) * 100.0 + 1e-7) / 100.0, 2)
+        return _fixed(reported_rf(float(value)), 2)
 
     def posting(self, value: float | None) -> str:
         """A safe posting load in whole display units, rounded down (never up)."""

@@ -15,6 +15,7 @@ from typing import Any
 
 from markupsafe import Markup
 
+from rating.lrfr.reported import reported_rf
 from rating.report import svg
 from rating.report.display import DASH, NEG_INF, Display
 from rating.report.svg import esc
@@ -489,7 +490,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         entry = c.entry
         rf = c.rf
         rt = entry.rating_tons if entry is not None else (
-            rf * v.gross_weight if rf is not None and math.isfinite(rf) else None)
+            reported_rf(rf) * v.gross_weight if rf is not None and math.isfinite(rf) else None)
         action_key = entry.action if entry is not None else ""
         action = ACTION_TEXT.get(action_key, action_key) if entry is not None else DASH
         posting = DASH

@@ -10,6 +10,8 @@ from __future__ import annotations
 import math
 
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from rating.errors import InputError
 from rating.lrfr.equation import SenseLoads, factored_capacity, rating_factor
@@ -21,6 +23,7 @@ from rating.lrfr.factors import (
     live_load_factor,
 )
 from rating.lrfr.posting import PostingAction, posting, safe_posting_load
+from rating.lrfr.reported import reported_rf
 from rating.model import RidingSurface, VehicleCategory
 
 DEAD = dead_load_factors()
@@ -61,7 +64,43 @@ def test_posting_equation_khan_p187():
     assert p.rating_tons == pytest.approx(24.8)
     assert posting(1.0, 40.0).action is PostingAction.NONE
     assert posting(0.29, 40.0).action is PostingAction.CLOSE
-    assert posting(0.30, 40.0).posting_tons == 0.0
+    # RF 0.30 gives (W / 0.7)(0) = 0: a posting of zero is a closure (common practice)
+    assert posting(0.30, 40.0).posting_tons is None
+    assert posting(0.30, 40.0).action is PostingAction.CLOSE
+
+
+def test_posting_is_worked_from_the_rf_as_printed():
+    # RF 0.4187 prints as 0.41 (rounded down); with W = 43 t the reviewer works
+    # (43 / 0.7)(0.41 - 0.3) = 6.76 -> 6 t and RT = 0.41 x 43 = 17.63 t from the printed
+    # numbers (Khan 2010 p. 187 for the equation); the unrounded RF would give 7 t and 18.0 t
+    assert reported_rf(0.4187) == 0.41
+    p = posting(0.4187, 43.0)
+    assert p.rf == 0.4187  # kept as computed
+    assert p.posting_tons == 6.0
+    assert p.rating_tons == pytest.approx(0.41 * 43.0)
+    assert reported_rf(0.996) == 0.99 and reported_rf(1.0) == 1.0
+    assert posting(0.9999, 40.0).action is PostingAction.POST  # prints 0.99: posted
+    # prints 0.30; (40 / 0.7)(0.30 - 0.3) = 0 (from 0.3049: 0.28 -> 0): consider closing
+    zero = posting(0.3049, 40.0)
+    assert zero.action is PostingAction.CLOSE and zero.posting_tons is None
+    assert "less than one ton" in zero.reason
+    assert "less than one tonne" in posting(0.32, 30.0, "tonne").reason  # 0.86 t
+    assert posting(0.32, 40.0).posting_tons == 1.0  # (40 / 0.7)(0.02) = 1.14 -> 1
+    assert reported_rf(math.inf) == math.inf and reported_rf(-math.inf) == -math.inf
+
+
+@given(rf=st.floats(0.3, 0.9999), weight=st.floats(5.0, 60.0))
+def test_posting_never_above_the_unrounded_rf_and_agrees_with_the_printed_rf(rf, weight):
+    p = posting(rf, weight)
+    printed = math.floor(rf * 100.0 + 1e-7) / 100.0  # as the report prints it
+    whole = math.floor(weight / 0.7 * (printed - 0.3) + 1e-9)
+    assert p.rating_tons == pytest.approx(printed * weight)
+    if whole < 1:
+        assert p.action is PostingAction.CLOSE and p.posting_tons is None
+        return
+    assert p.action is PostingAction.POST
+    assert p.posting_tons == whole
+    assert p.posting_tons <= math.floor(weight / 0.7 * (rf - 0.3) + 1e-6)
 
 
 def test_legal_factors_by_adtt_interpolated():
