@@ -33,13 +33,16 @@ def template_dir() -> Path:
 
 def css_string(text: str) -> Markup:
     """A CSS string literal with every character outside [A-Za-z0-9 ,.] escaped (safe inside
-    a <style> element whatever the text holds)."""
+    a <style> element whatever the text holds). Each escape is six hex digits and a space:
+    CSS reads one whitespace after a hex escape as its end (CSS Syntax Module Level 3,
+    "consume an escaped code point", 4.3.7: section number from memory), so a
+    space of the text right after an escaped character is kept only because of it."""
     out = []
     for ch in str(text):
         if ch.isascii() and (ch.isalnum() or ch in " ,."):
             out.append(ch)
         else:
-            out.append(f"\\{ord(ch):06X}")
+            out.append(f"\\{ord(ch):06X} ")
     return Markup('"' + "".join(out) + '"')
 
 

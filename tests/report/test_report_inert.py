@@ -6,7 +6,10 @@ from __future__ import annotations
 import re
 from pathlib import Path
 
+import pytest
 from htmlcheck import read
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from sample_results import IMG, SCRIPT
 
 from rating.report import render_report
@@ -38,7 +41,20 @@ def test_css_footer_cannot_close_the_style(results_hostile: RatingResults) -> No
     assert style is not None
     assert "<" not in style.group(1)
     assert html.count("</style>") == 1
-    assert css_string('a"</style>\\') == '"a\\000022\\00003C\\00002Fstyle\\00003E\\00005C"'
+    assert css_string('a"</style>\\') == '"a\\000022 \\00003C \\00002F style\\00003E \\00005C "'
+
+
+@settings(max_examples=300, deadline=None)
+@given(text=st.text(st.characters(blacklist_characters="\x00", blacklist_categories=("Cs",)),
+                    max_size=40))
+def test_css_string_reads_back_as_the_text(text: str) -> None:
+    """The footer string as a CSS tokenizer reads it (tinycss2, an independent implementation
+    of CSS Syntax Level 3): the very text, spaces after escaped characters included ("River
+    \u2014 load" once printed as "River \u2014load")."""
+    tinycss2 = pytest.importorskip("tinycss2")
+    tokens = tinycss2.parse_component_value_list(str(css_string(text)))
+    assert [t.type for t in tokens] == ["string"]
+    assert tokens[0].value == text
 
 
 def test_markup_typed_into_a_real_workbook_stays_text(tmp_path: Path) -> None:
