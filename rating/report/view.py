@@ -425,6 +425,26 @@ def _dedupe(items: Sequence[str]) -> tuple[str, ...]:
     return tuple(seen)
 
 
+def _named_parts(line: str) -> list[tuple[str, str]]:
+    """("X", text) for each member named by a "member X: text" or "members X, Y: text"
+    line; an empty list for other lines."""
+    head, sep, rest = line.partition(": ")
+    for word in ("member ", "members "):
+        if sep and head.startswith(word):
+            return [(name, rest) for name in head[len(word):].split(", ")]
+    return []
+
+
+def _with_own_warnings(general: Sequence[str], own: Sequence[str]) -> tuple[str, ...]:
+    """The results' warnings, then each member's or pin's own warning that they do not
+    already say (a warning shared by several members is there once as "members X, Y:
+    text"), each line once."""
+    said = {part for line in general for part in _named_parts(line)}
+    extra = [w for w in own
+             if not (parts := _named_parts(w)) or not all(pt in said for pt in parts)]
+    return _dedupe([*general, *extra])
+
+
 PAPERS = {"letter": ("letter", "Letter (8.5 \u00d7 11 in)"), "a4": ("A4", "A4 (210 \u00d7 297 mm)")}
 
 
@@ -645,9 +665,9 @@ def build_view(results: RatingResults, *, paper: str | None = None,
                 f"Vehicle {v.name or v.id}: axle loads and spacings ({v.source or 'no source'}"
                 "), value from memory.", True))
 
-    warnings = _dedupe([*results.warnings,
-                        *(w for m in results.members for w in m.warnings),
-                        *(w for p in results.pins for w in p.warnings)])
+    warnings = _with_own_warnings(results.warnings, [
+        *(w for m in results.members for w in m.warnings),
+        *(w for p in results.pins for w in p.warnings)])
 
     # the appendix's tables, the longest of the report, as HTML cells (a cell at a time in
     # the template cost as much as the rest of the report's text)

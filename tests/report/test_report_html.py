@@ -191,3 +191,33 @@ def test_mirror_members_rated_alike_are_named_beside_the_controlling_one() -> No
     # its Type 3S2 rating is a load reversal of an eyebar diagonal without a counter: said so
     assert r.posting["TYPE-3S2"].member == "U1L2"
     assert "reverses this tension-only member" in html
+
+
+def test_each_warning_once_for_each_member(sample_outcomes) -> None:
+    """A warning several members share is listed once as "members X, Y: text"; a member's
+    own copy of it is not listed again as "member X: text" (the Parker sample's report
+    used to list its eyebar, rod and slender-plate warnings twice)."""
+    seen = 0
+    for o in sample_outcomes:
+        if o.results is None:
+            continue
+        said: set[tuple[str, str]] = set()
+        for line in build_view(o.results).warnings:
+            head, sep, rest = line.partition(": ")
+            if not sep or not head.startswith("member"):
+                continue
+            for name in head.split(" ", 1)[1].split(", "):
+                assert (name, rest) not in said, line
+                said.add((name, rest))
+                seen += 1
+    assert seen  # the samples have member warnings
+
+
+def test_a_members_own_warning_not_in_the_general_list_is_kept(results_us) -> None:
+    from dataclasses import replace
+
+    m = results_us.members[0]
+    extra = f"member {m.id}: a warning only this member carries"
+    r = replace(results_us, members=(replace(m, warnings=(*m.warnings, extra)),
+                                     *results_us.members[1:]))
+    assert build_view(r).warnings.count(extra) == 1
