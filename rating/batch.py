@@ -28,8 +28,8 @@ from pathlib import Path
 from typing import Any, TextIO
 
 from rating.errors import InputError
-from rating.lrfr.reported import reported_rf
 from rating.process import GC_THRESHOLDS, settle_process
+from rating.results import reported_rf
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"

@@ -17,6 +17,9 @@ from dataclasses import dataclass, field
 from types import MappingProxyType
 from typing import Any
 
+# the RF as printed (two decimals, rounded down), with RT and the posting load worked from
+# it: part of the results' contract; the report and the batch summary take it from here
+from rating.lrfr.reported import reported_rf as reported_rf
 from rating.units import from_core
 
 SCHEMA_VERSION = "1.0"

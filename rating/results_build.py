@@ -37,8 +37,8 @@ from rating.results import (
 )
 from rating.units import TON_PER_TONNE, from_core, si_text
 
-METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C - gDC DC - gDW DW) / (gLL (LL + IM)), "
-          "C = phi_c phi_s phi R_n")
+METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C \u2212 \u03b3DC DC \u2212 \u03b3DW DW) / "
+          "(\u03b3LL (LL + IM)), C = \u03c6c \u03c6s \u03c6 Rn")
 
 SINGLE_UNIT = {"TYPE-3", "SU4", "SU5", "SU6", "SU7"}
 COMBINATION = {"TYPE-3S2", "TYPE-3-3", "LEGAL-LANE"}

@@ -12,8 +12,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
-from rating.lrfr.reported import reported_rf
-from rating.results import DISPLAY_UNITS, RatingResults, dimensions
+from rating.results import DISPLAY_UNITS, RatingResults, dimensions, reported_rf
 from rating.units import from_core
 
 DASH = "\u2014"  # shown where there is no number (no live load of that sense, not rated)

@@ -15,7 +15,6 @@ from typing import Any
 
 from markupsafe import Markup
 
-from rating.lrfr.reported import reported_rf
 from rating.report import svg
 from rating.report.display import DASH, NEG_INF, Display
 from rating.report.svg import esc
@@ -28,6 +27,7 @@ from rating.results import (
     Rating,
     RatingResults,
     VehicleResult,
+    reported_rf,
 )
 
 TAG_TEXT = {"V": "read in the source", "M": "value from memory", "CP": "common practice"}
