@@ -77,7 +77,13 @@ def _not_writable(path: os.PathLike[str] | str, option: str, folder: bool = Fals
 
 
 def run_rate(args: argparse.Namespace) -> int:
-    from rating.pipeline import output_paths, rate_workbook, write_atomic, write_outputs
+    from rating.pipeline import (
+        VEHICLES_OPTION,
+        output_paths,
+        rate_workbook,
+        write_atomic,
+        write_outputs,
+    )
     from rating.results import results_json
 
     workbook = args.workbook
@@ -111,7 +117,9 @@ def run_rate(args: argparse.Namespace) -> int:
     if outcome.results is None:
         print(f"pintruss: {workbook} was not rated: {len(outcome.errors)} error(s) listed above",
               file=sys.stderr)
-        return EXIT_INPUT
+        # an id on the command line that names no vehicle is a usage error, not the workbook's
+        return EXIT_USAGE if any(p.where == VEHICLES_OPTION for p in outcome.errors) \
+            else EXIT_INPUT
     res = outcome.results
     try:
         html, js = write_outputs(res, html_path.parent, workbook.stem,
@@ -127,10 +135,12 @@ def run_rate(args: argparse.Namespace) -> int:
     print(f"{res.bridge.id} {res.bridge.name}")
     import math
 
+    from rating.results import reported_rf
+
     for vid, p in res.posting.items():
         # rounded down, as in the report: 0.996 is never shown as 1.00
         rf = ("no live load" if p.rf == math.inf else "-inf" if p.rf == -math.inf
-              else f"{math.floor(p.rf * 100.0 + 1e-7) / 100.0:.2f}")
+              else f"{reported_rf(p.rf):.2f}")
         print(f"  {vid:<12} RF {rf:>6}  controlled by {p.member or '-':<10} {p.action}")
     print(f"recommendation: {res.recommendation}")
     if html is not None:

@@ -49,6 +49,10 @@ def rate_workbook(path: Path, vehicle_ids: Sequence[str] | None = None) -> RateO
     problems = tuple(reading.problems)
     if reading.bridge is None or reading.errors:
         return RateOutcome(path, None, problems)
+    unknown = _unknown_vehicles(vehicle_ids or (), reading.bridge.owner_vehicles)
+    if unknown:
+        return RateOutcome(path, None, problems + tuple(
+            Problem("error", VEHICLES_OPTION, message) for message in unknown))
     try:
         rating = rate_bridge(reading.bridge, vehicle_ids)
     except (InputError, ConvergenceError) as exc:
@@ -58,6 +62,25 @@ def rate_workbook(path: Path, vehicle_ids: Sequence[str] | None = None) -> RateO
     results = build_results(rating, extra_warnings=warnings,
                             extra_assumptions=tuple(reading.assumptions))
     return RateOutcome(path, results, problems)
+
+
+VEHICLES_OPTION = "--vehicles"
+"""Where a problem with the vehicles asked for on the command line is reported: the ids are
+the user's words, not the workbook's, so the problem names the option, not a cell."""
+
+
+def _unknown_vehicles(vehicle_ids: Sequence[str], owner_vehicles: Sequence) -> list[str]:
+    """A message for each id that is neither a shipped rating load or vehicle nor one of the
+    workbook's own vehicles."""
+    from rating.vehicles.library import rating_load
+
+    out = []
+    for vid in vehicle_ids:
+        try:
+            rating_load(vid, owner_vehicles)
+        except InputError as exc:
+            out.append(_message(exc))
+    return out
 
 
 def _where(exc: PintrussError, path: Path) -> str:

@@ -116,6 +116,22 @@ def test_exit_codes(tmp_path, capsys):
     assert "HL-93" in capsys.readouterr().out
 
 
+def test_a_vehicle_id_that_names_nothing_is_a_usage_error(tmp_path, capsys):
+    """--vehicles with an id that is neither shipped nor the workbook's own: exit 2, the
+    message names the option and the id (not a workbook cell), nothing rated or written; a
+    workbook's own vehicle (the pony sample's TWP-HAY, any case) is accepted."""
+    pony = next(p for p in SAMPLES if "pony" in p.name)
+    out = tmp_path / "out"
+    assert main(["rate", str(pony), "--vehicles", "SU4,XYZ", "--out", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert "--vehicles: no rating load or vehicle with id 'XYZ'" in err
+    assert "TWP-HAY" in err  # the known ids include the workbook's own
+    assert not out.exists() or not any(out.iterdir())
+    outcome = rate_workbook(pony, ["su4", "twp-hay"])
+    assert outcome.results is not None
+    assert set(outcome.results.posting) == {"SU4", "TWP-HAY"}
+
+
 def _through_json_module(res) -> str:
     """The results file as the plain view (``to_plain``) written by the json module: what
     ``results_json`` writes in one pass."""
