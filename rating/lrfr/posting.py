@@ -56,7 +56,7 @@ def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
     """
     p = provisions()["posting"]
     shown = reported_rf(rf)
-    rt = shown * gross_weight if math.isfinite(rf) else math.inf
+    rt = shown * gross_weight  # infinite with the RF (no live load: +inf; no rating: -inf)
     if shown >= 1.0:
         return PostingResult(rf, rt, None, PostingAction.NONE, p["source"])
     if shown >= p["lower_rf"]:

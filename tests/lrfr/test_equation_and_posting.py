@@ -87,6 +87,10 @@ def test_posting_is_worked_from_the_rf_as_printed():
     assert "less than one tonne" in posting(0.32, 30.0, "tonne").reason  # 0.86 t
     assert posting(0.32, 40.0).posting_tons == 1.0  # (40 / 0.7)(0.02) = 1.14 -> 1
     assert reported_rf(math.inf) == math.inf and reported_rf(-math.inf) == -math.inf
+    # a member that cannot carry its dead load (RF -inf): no rating, not an infinite one
+    assert posting(-math.inf, 40.0).rating_tons == -math.inf
+    assert posting(-math.inf, 40.0).action is PostingAction.CLOSE
+    assert posting(math.inf, 40.0).action is PostingAction.NONE
 
 
 @given(rf=st.floats(0.3, 0.9999), weight=st.floats(5.0, 60.0))
