@@ -41,8 +41,13 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
 
     r = sub.add_parser("rate", help="rate a bridge from its inspection workbook",
-                       description="Rate every member for every chosen vehicle and write the "
-                       "rating report (HTML) and the results file (JSON).")
+                       description="Rate every truss member and pin for every chosen vehicle, "
+                       "recommend posting or closing for the engineer's decision, and write "
+                       "the rating report (HTML) and the results file (JSON).",
+                       epilog="Exit status: 0 rated; 1 the workbook has problems (each listed "
+                       "with its Sheet!Cell) or the outputs could not be written; 2 the "
+                       "command was misused (an unknown option or vehicle id, an output place "
+                       "that cannot be written).")
     r.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
     r.add_argument("--out", type=Path, default=None,
                    help="folder for the report and results (default: beside the workbook)")
