@@ -132,6 +132,38 @@ def test_a_vehicle_id_that_names_nothing_is_a_usage_error(tmp_path, capsys):
     assert set(outcome.results.posting) == {"SU4", "TWP-HAY"}
 
 
+def test_heavy_loss_on_the_controlling_rod_leads_to_closing(tmp_path):
+    """End to end through a real workbook: the pony sample with an added finding of 55 %
+    diameter loss on its controlling rod U2L3 (invented, as all sample data): every legal
+    load rates below 0.3, each is a closure (MBE 6A.8.3), the recommendation says to
+    consider closing and names the loads, the report's recommendation box is the closing
+    one, and it stays a recommendation for the engineer."""
+    import openpyxl
+
+    from rating.report import render_report
+
+    pony = next(p for p in SAMPLES if "pony" in p.name)
+    wb = openpyxl.load_workbook(pony)
+    ws = wb["Findings"]
+    row = ws.max_row + 1
+    for col, value in zip("BCDEGJL", ["U2L3", "all", "body", 2.0, 55, 3, "heavy loss"],
+                          strict=True):
+        ws[f"{col}{row}"] = value
+    book = tmp_path / "pony_heavy_loss.xlsx"
+    wb.save(book)
+    res = rate_workbook(book).results
+    assert res is not None
+    legal = {vid: p for vid, p in res.posting.items()
+             if vid not in ("HL-93-INV", "HL-93-OPR", "NRL")}
+    assert legal and all(p.action == "close" and p.rf < 0.3 for p in legal.values())
+    assert all(p.member == "U2L3" for p in legal.values())
+    assert res.recommendation.startswith("Consider closing the bridge: the rating factor is "
+                                         "below 0.3 for AASHTO legal load Type 3 (RF ")
+    assert "licensed engineer in responsible charge" in res.recommendation
+    html = render_report(res)
+    assert 'class="recommendation close"' in html
+
+
 def _through_json_module(res) -> str:
     """The results file as the plain view (``to_plain``) written by the json module: what
     ``results_json`` writes in one pass."""
