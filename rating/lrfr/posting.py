@@ -49,10 +49,10 @@ def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
     """Action for one legal vehicle; ``gross_weight`` in the weight unit named by ``unit``.
 
     RF >= 1: no restriction; 0.3 <= RF < 1: post at the safe posting load rounded down to a
-    whole unit, or consider closing where that rounds down to zero; RF < 0.3: consider
-    closing (owner's policy governs). MBE 6A.8.3 [value from
-    memory; equation read in Khan 2010, p. 187]. The thresholds, RT and the posting load
-    take the RF as reported (:func:`reported_rf`); ``rf`` is kept as computed.
+    whole unit, or consider closing where that rounds down to zero (common practice);
+    RF < 0.3: consider closing (owner's policy governs). MBE 6A.8.3 [value from memory;
+    equation read in Khan 2010, p. 187]. The thresholds, RT and the posting load take the RF
+    as reported (:func:`reported_rf`); ``rf`` is kept as computed.
     """
     p = provisions()["posting"]
     shown = reported_rf(rf)
