@@ -727,9 +727,13 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
     names = [r.member or "filler" for r in rows]
     thick = [d.field(r, "thickness") for r in rows]
     gaps = [d.field(r, "gap_before") for r in rows]
-    chunks = tuple(PackingChunk(*(Markup(_num_cells(texts[k:k + 12]))
-                                  for texts in (orders, names, thick, gaps)))
-                   for k in range(0, len(rows), 12))
+    # a last, shorter row of plates is padded to the width of the others (one table: the
+    # columns line up)
+    width = 12 if len(rows) > 12 else len(rows)
+    chunks = tuple(PackingChunk(*(Markup(_num_cells(
+        [*texts[k:k + 12], *[""] * (width - len(texts[k:k + 12]))]))
+        for texts in (orders, names, thick, gaps)))
+        for k in range(0, len(rows), 12))
     return PinView(p.joint, d.field(p, "diameter"), p.governing_section,
                    rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
                    lowest_vehicle=_vehicle_label(vmap.get(low[0]), low[0]) if low else "",
