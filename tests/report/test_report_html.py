@@ -221,3 +221,22 @@ def test_a_members_own_warning_not_in_the_general_list_is_kept(results_us) -> No
     r = replace(results_us, members=(replace(m, warnings=(*m.warnings, extra)),
                                      *results_us.members[1:]))
     assert build_view(r).warnings.count(extra) == 1
+
+
+def test_a_long_packing_is_one_table_whose_rows_line_up(results_us) -> None:
+    """A pin of 15 plates: its packing in rows of 12 plates in one table (so the columns line
+    up), the last row padded with empty cells to 12."""
+    from dataclasses import replace
+
+    from rating.results import PackingRow
+
+    pin = results_us.pins[0]
+    plates = tuple(PackingRow(f"M{k}", 1.0, 0.0625) for k in range(15))
+    r = replace(results_us, pins=(replace(pin, packing=plates), *results_us.pins[1:]))
+    view = build_view(r)
+    chunks = view.pins[0].packing_chunks
+    assert [str(c.order).count("<td") for c in chunks] == [12, 12]
+    assert ">15<" in str(chunks[1].order)
+    html = render_report(r)
+    block = html.split(f"Pin {pin.joint} ")[1].split("</table>")[0]
+    assert block.count('<table class="compact packing">') == 1 and block.count("<tbody>") == 2
