@@ -26,6 +26,14 @@ def test_a_long_run_gets_a_break_every_piece() -> None:
     assert all(len(p) <= RUN_PIECE for p in pieces)
 
 
+def test_a_long_hyphenated_word_breaks_after_its_hyphens() -> None:
+    # "emergency-vehicle" (17 characters) once printed as "emergency-ve / hicle"
+    assert str(breakable("86,000 lb emergency-vehicle limit")) == (
+        "86,000 lb emergency-<wbr>vehicle limit")
+    out = str(breakable("x-" + "y" * 30))
+    assert out.startswith("x-<wbr>") and out.count("<wbr>") == 3  # then 12 + 12 + 6
+
+
 def test_words_up_to_the_limit_are_left_whole() -> None:
     word = "x" * LONG_RUN
     assert "<wbr>" not in str(breakable(f"{word} {word}"))
