@@ -719,14 +719,24 @@ def _from_memory(text: str) -> bool:
     return "from memory" in t or "[m]" in t or "(m)" in t
 
 
+def _packing_text(d: Display, value: float) -> str:
+    """A plate's thickness or gap: inches to three places, or four where the fourth is not
+    zero (plates and gaps are sixteenths: 0.0625 and 0.6875 are echoed as recorded, not as
+    0.062 and 0.688); millimetres to one place."""
+    if d.system != "US":
+        return d.number(value, "dimension")
+    text = d.number(value, "dimension", 4)
+    return text[:-1] if text[-1:] == "0" and text[-5:-4] == "." else text
+
+
 def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, VehicleResult],
               rf_cell: Any) -> PinView:
     low = svg.lowest_rating(p.ratings.items())
     rows = p.packing
     orders = [str(k + 1) for k in range(len(rows))]
     names = [r.member or "filler" for r in rows]
-    thick = [d.field(r, "thickness") for r in rows]
-    gaps = [d.field(r, "gap_before") for r in rows]
+    thick = [_packing_text(d, r.thickness) for r in rows]
+    gaps = [_packing_text(d, r.gap_before) for r in rows]
     # a last, shorter row of plates is padded to the width of the others (one table: the
     # columns line up)
     width = 12 if len(rows) > 12 else len(rows)

@@ -237,6 +237,8 @@ def test_a_long_packing_is_one_table_whose_rows_line_up(results_us) -> None:
     chunks = view.pins[0].packing_chunks
     assert [str(c.order).count("<td") for c in chunks] == [12, 12]
     assert ">15<" in str(chunks[1].order)
+    # sixteenths of an inch echoed as recorded (not 0.062), whole inches to three places
+    assert ">0.0625<" in str(chunks[0].gap) and ">1.000<" in str(chunks[0].thickness)
     html = render_report(r)
     block = html.split(f"Pin {pin.joint} ")[1].split("</table>")[0]
     assert block.count('<table class="compact packing">') == 1 and block.count("<tbody>") == 2
