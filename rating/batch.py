@@ -29,7 +29,7 @@ from typing import Any, TextIO
 
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
-from rating.results import reported_rf
+from rating.results import DECISION_NOTE, reported_rf
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
@@ -415,6 +415,7 @@ class _IndexRow:
     cells: tuple[_IndexCell, ...]
     errors_shown: tuple[str, ...]
     more_errors: int
+    advice: str  # the recommendation without the closing sentence the index says once
 
 
 @dataclass(frozen=True)
@@ -452,7 +453,8 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
                 cells.append(_IndexCell(text, bands.band(v.rf).key if v.rf is not None
                                         else "nr", v.member))
         item = _IndexRow(r, tuple(cells), r.errors[:max_problems],
-                         max(0, len(r.errors) - max_problems))
+                         max(0, len(r.errors) - max_problems),
+                         r.recommendation.removesuffix(DECISION_NOTE))
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
               "post": sum(1 for r in summary.rows if r.action == "post"),

@@ -24,6 +24,12 @@ from rating.units import from_core
 
 SCHEMA_VERSION = "1.0"
 
+DECISION_NOTE = (" This is a recommendation for the decision of the licensed engineer in "
+                 "responsible charge; the owner's manual, policy and local codes govern.")
+"""The sentence every bridge recommendation ends with (rating.results_build); the batch index,
+whose caution heads the table and whose every page's footer says the same, leaves it out of
+its narrow column."""
+
 # dimension -> (US unit, SI unit)
 DISPLAY_UNITS: dict[str, tuple[str, str]] = {
     "force": ("kip", "kN"),

@@ -15,6 +15,7 @@ from rating.lrfr.posting import posting as legal_load_posting
 from rating.lrfr.reported import reported_rf
 from rating.model import Finding, UnitSystem, VehicleCategory
 from rating.results import (
+    DECISION_NOTE,
     SCHEMA_VERSION,
     BridgeSummary,
     CheckSummary,
@@ -253,8 +254,7 @@ def recommendation(rating: BridgeRating, unit: str,
              and not rating.postings[c.id].screened_out]
     closing = [c for c in legal if report[c.id][0] is PostingAction.CLOSE]
     posted = [c for c in legal if report[c.id][0] is PostingAction.POST]
-    tail = (" This is a recommendation for the decision of the licensed engineer in responsible "
-            "charge; the owner's manual, policy and local codes govern.")
+    tail = DECISION_NOTE
     if closing:
         low_rf = [c for c in closing if reported_rf(rating.postings[c.id].rf) < 0.3]
         zero = [c for c in closing if c not in low_rf]

@@ -229,3 +229,29 @@ def test_pool_starts_with_the_largest_workbooks(tmp_path: Path) -> None:
                                                                   "c.xlsx", "d.xlsx", "e.xlsx")]
     assert [t.workbook.name for t in _largest_first(tasks)] == \
         ["b.xlsx", "d.xlsx", "a.xlsx", "c.xlsx", "e.xlsx"]
+
+
+def _rate_with_decision_note(path: Path, vehicle_ids: list[str] | None = None) -> RateOutcome:
+    from dataclasses import replace
+
+    from rating.results import DECISION_NOTE
+
+    res = sample_results()
+    return RateOutcome(Path(path), replace(res, recommendation="Post the bridge: 26 tons."
+                                           + DECISION_NOTE), ())
+
+
+def test_index_says_the_decision_note_once_the_csv_in_every_row(tmp_path: Path) -> None:
+    """The sentence every recommendation ends with (the engineer decides; the owner's manual
+    governs) is in the index's caution, once, not in each row's narrow column; the CSV, a
+    row per bridge that may be read alone, keeps it in every row."""
+    from rating.results import DECISION_NOTE
+
+    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": GOOD})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=_rate_with_decision_note)
+    text = " ".join(read((out / INDEX_HTML).read_text(encoding="utf-8")).text)
+    assert text.count("Post the bridge: 26 tons.") == 2
+    assert text.count("for the decision of the licensed engineer in responsible charge") == 1
+    rows = _csv_rows(out / SUMMARY_CSV)
+    assert all(r["recommendation"].endswith(DECISION_NOTE.strip()) for r in rows)
