@@ -242,3 +242,13 @@ def test_a_long_packing_is_one_table_whose_rows_line_up(results_us) -> None:
     html = render_report(r)
     block = html.split(f"Pin {pin.joint} ")[1].split("</table>")[0]
     assert block.count('<table class="compact packing">') == 1 and block.count("<tbody>") == 2
+
+
+def test_a_screening_load_below_one_is_not_shown_as_no_restriction(sample_outcomes) -> None:
+    """The Parker sample's NRL rates 0.48: the SHVs are rated and posted one by one (FHWA SHV
+    Q&A, March 2014), the NRL itself is not posted, and the summary must not read "no
+    restriction" beside an RF under 1.0."""
+    parker = next(o for o in sample_outcomes if "parker" in o.workbook.name)
+    row = next(r for r in build_view(parker.results).summary if r.vehicle_id == "NRL")
+    assert float(row.rf.text) < 1.0
+    assert row.action == "not posted" and "screening load" in row.note
