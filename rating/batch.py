@@ -46,7 +46,7 @@ class VehicleLine:
     level: str
     rf: float | None
     member: str
-    action: str
+    action: str  # "none", "post", "close", or "not posted" (a screening load below 1.0)
     posting: float | None  # safe posting load, display weight unit, whole units
 
 
@@ -161,9 +161,13 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         posting = None
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
             posting = float(math.floor(d.convert(entry.posting_tons, "weight") + 1e-6))
+        action = entry.action if entry is not None else ""
+        if action == "none" and v.rating_level == "legal" and rf is not None \
+                and reported_rf(rf) < 1.0:
+            action = "not posted"  # a screening load below 1.0 (the NRL), as in the report
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
-                                    entry.member if entry is not None else "",
-                                    entry.action if entry is not None else "", posting))
+                                    entry.member if entry is not None else "", action,
+                                    posting))
     legal = [v.action for v in vehicles if v.level == "legal"]
     action = "close" if "close" in legal else ("post" if "post" in legal else "none")
     b = results.bridge

@@ -255,3 +255,26 @@ def test_index_says_the_decision_note_once_the_csv_in_every_row(tmp_path: Path) 
     assert text.count("for the decision of the licensed engineer in responsible charge") == 1
     rows = _csv_rows(out / SUMMARY_CSV)
     assert all(r["recommendation"].endswith(DECISION_NOTE.strip()) for r in rows)
+
+
+def test_csv_says_not_posted_for_a_screening_load_below_one(tmp_path: Path) -> None:
+    """A legal-level load rated below 1.0 whose posting is none (the NRL as a screen, FHWA SHV
+    Q&A, March 2014) is "not posted" in the CSV, as in the report, never "none"."""
+    from dataclasses import replace
+
+    from rating.batch import _row_from_results
+
+    res = sample_results()
+    vid = next(v.id for v in res.vehicles if v.rating_level == "legal")
+    entry = replace(res.posting[vid], rf=0.48, action="none", posting_tons=None,
+                    note="screening load")
+    res = replace(res, posting={**res.posting, vid: entry})
+    row = _row_from_results(tmp_path / "a.xlsx", res, None, tmp_path / "a.json", (), 0.0)
+    line = next(v for v in row.vehicles if v.vehicle == vid)
+    assert line.action == "not posted"
+    csv_row = _csv_rows_text(summary_csv([row]))[0]
+    assert csv_row[f"{vid} action"] == "not posted"
+
+
+def _csv_rows_text(text: str) -> list[dict[str, str]]:
+    return list(csv.DictReader(io.StringIO(text.lstrip("\ufeff"))))
