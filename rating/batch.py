@@ -162,9 +162,8 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
             posting = float(math.floor(d.convert(entry.posting_tons, "weight") + 1e-6))
         action = entry.action if entry is not None else ""
-        if action == "none" and v.rating_level == "legal" and rf is not None \
-                and reported_rf(rf) < 1.0:
-            action = "not posted"  # a screening load below 1.0 (the NRL), as in the report
+        if entry is not None and entry.not_posted_below_one(v.rating_level):
+            action = "not posted"  # as in the report
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
                                     entry.member if entry is not None else "", action,
                                     posting))

@@ -238,6 +238,13 @@ class PostingResultEntry:
     alike: tuple[str, ...] = q("members and pins rated the same within round-off",
                                default=())
 
+    def not_posted_below_one(self, rating_level: str) -> bool:
+        """A legal-level load rated below 1.0 (as printed) whose posting is none: a screening
+        load (the NRL: FHWA SHV Q&A, March 2014) whose note says why. It reads "not posted",
+        never "no restriction"."""
+        return (self.action == "none" and rating_level == "legal" and math.isfinite(self.rf)
+                and reported_rf(self.rf) < 1.0)
+
 
 @dataclass(frozen=True)
 class FindingEcho:

@@ -522,8 +522,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         if v.rating_level in ("inventory", "operating") and action_key == "none":
             action = "design-load rating"
             note = "" if "design" in note.lower() else note
-        elif action_key == "none" and rf is not None and reported_rf(rf) < 1.0:
-            # a screening load below 1.0 (the NRL): not "no restriction"; its note says why
+        elif entry is not None and entry.not_posted_below_one(v.rating_level):
             action = "not posted"
         summary.append(SummaryRow(
             vehicle=_vehicle_label(v, v.id), vehicle_id=v.id,
