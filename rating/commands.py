@@ -84,7 +84,7 @@ def run_rate(args: argparse.Namespace) -> int:
         write_atomic,
         write_outputs,
     )
-    from rating.results import results_json
+    from rating.results import reported_rf, results_json
 
     workbook = args.workbook
     if not workbook.is_file():
@@ -134,8 +134,6 @@ def run_rate(args: argparse.Namespace) -> int:
         return EXIT_INPUT
     print(f"{res.bridge.id} {res.bridge.name}")
     import math
-
-    from rating.results import reported_rf
 
     for vid, p in res.posting.items():
         # rounded down, as in the report: 0.996 is never shown as 1.00

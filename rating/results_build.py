@@ -5,6 +5,7 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping
 from itertools import accumulate
+from typing import NamedTuple
 
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
@@ -222,20 +223,28 @@ def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
             f"M = {M:.1f} {units[1]}, V = {V:.1f} {units[2]} ({case_id})")
 
 
-def _report_posting(cp: CasePosting, system: UnitSystem, W_tons: float
-                    ) -> tuple[PostingAction, float | None, str]:
+class _ReportPosting(NamedTuple):
+    """One case's posting as the report states it: the action, the safe posting load in
+    whole units of the report's weight unit (None unless posted) and the note."""
+
+    action: PostingAction
+    load: float | None
+    note: str
+
+
+def _report_posting(cp: CasePosting, system: UnitSystem, W_tons: float) -> _ReportPosting:
     """The action, the safe posting load in whole units of the report's weight unit and the
     note of one case. An SI bridge is posted in whole tonnes by the same rule
     (rating.lrfr.posting.posting, MBE 6A.8.3) applied to W in tonnes: rounded down once, not
     tons converted and rounded again, and a load under one tonne is a closure too."""
     res = cp.result
     if system is not UnitSystem.SI or res.action is PostingAction.NONE:
-        return res.action, res.posting_tons, cp.note
+        return _ReportPosting(res.action, res.posting_tons, cp.note)
     si = legal_load_posting(cp.rf, W_tons / TON_PER_TONNE, "tonne")
-    return si.action, si.posting_tons, si.reason or cp.note
+    return _ReportPosting(si.action, si.posting_tons, si.reason or cp.note)
 
 
-def _posting_entry(cp: CasePosting, report: tuple[PostingAction, float | None, str],
+def _posting_entry(cp: CasePosting, report: _ReportPosting,
                    system: UnitSystem) -> PostingResultEntry:
     action, load, note = report
     if system is UnitSystem.SI and load is not None:
@@ -246,14 +255,14 @@ def _posting_entry(cp: CasePosting, report: tuple[PostingAction, float | None, s
 
 
 def recommendation(rating: BridgeRating, unit: str,
-                   report: Mapping[str, tuple[PostingAction, float | None, str]]) -> str:
+                   report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation, always worded for the engineer's decision;
     ``report``: each case's action and posting load in the report's unit
     (:func:`_report_posting`)."""
     legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
              and not rating.postings[c.id].screened_out]
-    closing = [c for c in legal if report[c.id][0] is PostingAction.CLOSE]
-    posted = [c for c in legal if report[c.id][0] is PostingAction.POST]
+    closing = [c for c in legal if report[c.id].action is PostingAction.CLOSE]
+    posted = [c for c in legal if report[c.id].action is PostingAction.POST]
     tail = DECISION_NOTE
     if closing:
         low_rf = [c for c in closing if reported_rf(rating.postings[c.id].rf) < 0.3]
@@ -273,7 +282,7 @@ def recommendation(rating: BridgeRating, unit: str,
                 "of at least 1.0." + tail)
 
     def amount(c: RatingCase) -> float:
-        load = report[c.id][1]
+        load = report[c.id].load
         assert load is not None  # posted
         return load
 
