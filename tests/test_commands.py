@@ -94,3 +94,22 @@ def test_a_workbook_that_is_missing_or_a_folder_is_named(
     (tmp_path / "folder.xlsx").mkdir()
     assert main(["rate", str(tmp_path / "folder.xlsx")]) == 1
     assert "it is a folder, not a workbook file" in capsys.readouterr().err
+
+
+def test_the_printout_states_each_action_in_the_report_words(
+        workbook: Path, rated: list[Path], tmp_path: Path,
+        capsys: pytest.CaptureFixture[str]) -> None:
+    """The command's line for each vehicle ends with the action of the report's summary
+    table (the printout said "none" beside HL-93 and beside a screening load rated below 1.0,
+    where the report says "design-load rating" and "not posted")."""
+    from rating.report.view import build_view
+
+    assert main(["rate", str(workbook), "--out", str(tmp_path / "o")]) == 0
+    lines = {ln.split()[0]: ln for ln in capsys.readouterr().out.splitlines()
+             if ln.startswith("  ")}
+    summary = build_view(sample_results()).summary
+    assert {s.vehicle_id for s in summary} == set(lines)
+    for s in summary:
+        assert lines[s.vehicle_id].endswith(f" {s.action}"), (lines[s.vehicle_id], s.action)
+    words = {s.action.split(" for ")[0] for s in summary}
+    assert {"design-load rating", "post"} <= words and "none" not in words

@@ -35,6 +35,24 @@ LEVEL_TEXT = {"inventory": "inventory", "operating": "operating", "legal": "lega
 ACTION_TEXT = {"none": "no restriction", "post": "post", "close": "consider closing"}
 
 
+def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display) -> str:
+    """What a rating case's posting outcome says, in the words of the report's summary (and
+    of the command's printout, so the two never differ): the safe posting load in whole
+    display units, "design-load rating" for HL-93, "not posted" for a screening load rated
+    below 1.0 (PostingResultEntry.not_posted_below_one)."""
+    if entry is None:
+        return DASH
+    if entry.action == "post" and entry.posting_tons is not None:
+        amount = d.posting(entry.posting_tons)
+        unit = d.unit("weight")
+        return f"post for {amount} {unit}{'' if amount == '1' else 's'}"
+    if rating_level in ("inventory", "operating") and entry.action == "none":
+        return "design-load rating"
+    if entry.not_posted_below_one(rating_level):
+        return "not posted"
+    return ACTION_TEXT.get(entry.action, entry.action)
+
+
 # ------------------------------------------------------------------ rows
 
 @dataclass(frozen=True)
@@ -512,18 +530,13 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         rt = entry.rating_tons if entry is not None else (
             reported_rf(rf) * v.gross_weight if rf is not None and math.isfinite(rf) else None)
         action_key = entry.action if entry is not None else ""
-        action = ACTION_TEXT.get(action_key, action_key) if entry is not None else DASH
+        action = action_text(entry, v.rating_level, d)
         posting = DASH
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
-            amount = d.posting(entry.posting_tons)
-            posting = f"{amount} {units.weight}"
-            action = f"post for {amount} {units.weight}{'' if amount == '1' else 's'}"
+            posting = f"{d.posting(entry.posting_tons)} {units.weight}"
         note = entry.note if entry is not None else ""
         if v.rating_level in ("inventory", "operating") and action_key == "none":
-            action = "design-load rating"
             note = "" if "design" in note.lower() else note
-        elif entry is not None and entry.not_posted_below_one(v.rating_level):
-            action = "not posted"
         summary.append(SummaryRow(
             vehicle=_vehicle_label(v, v.id), vehicle_id=v.id,
             level=LEVEL_TEXT.get(v.rating_level, v.rating_level),
