@@ -20,6 +20,7 @@ from rating.report.display import DASH, NEG_INF, Display
 from rating.report.svg import esc
 from rating.report.text import breakable
 from rating.results import (
+    DECISION_NOTE,
     MemberResult,
     PinResult,
     Position,
@@ -717,7 +718,10 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     return ReportView(
         title=f"Load rating report \u2014 {b.name or b.id}",
         bridge_facts=bridge_facts, method_facts=method_facts, units=units, system=d.system,
-        summary=tuple(summary), recommendation=results.recommendation, worst_action=worst,
+        summary=tuple(summary),
+        # the box's own paragraph says the decision is the engineer's, in more words
+        recommendation=results.recommendation.removesuffix(DECISION_NOTE),
+        worst_action=worst,
         elevation=svg.elevation_svg(results, d, bands), legend=svg.legend_svg(bands),
         influence=tuple(influence), pin_controls=tuple(pin_notes), members=tuple(rows),
         live_tables=tuple(live_tables), pins=pins, findings=findings, vehicles=vehicles,

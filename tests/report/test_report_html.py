@@ -26,6 +26,21 @@ def html_si(results_si: RatingResults) -> str:
     return render_report(results_si)
 
 
+def test_the_recommendation_box_says_whose_decision_it_is_once(
+        results_us: RatingResults) -> None:
+    """The recommendation of the results ends with the sentence that the decision is the
+    licensed engineer's; the box says so in its own, fuller paragraph, so the sentence is not
+    repeated in the verdict above it."""
+    from dataclasses import replace
+
+    from rating.results import DECISION_NOTE
+
+    said = replace(results_us, recommendation=results_us.recommendation + DECISION_NOTE)
+    text = re.sub(r"\s+", " ", " ".join(read(render_report(said)).text))
+    assert text.count("recommendation for the decision of the licensed engineer") == 1
+    assert results_us.recommendation in text
+
+
 def test_well_formed_and_deterministic(html_us: str, results_us: RatingResults) -> None:
     doc = read(html_us)
     assert doc.errors == []
