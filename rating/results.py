@@ -175,7 +175,8 @@ class PackingRow:
 @dataclass(frozen=True)
 class PinResult:
     """The results of one pin: diameter (in), packing, the governing section (in words and as z,
-    M, V in the governing case) and the rating of each vehicle."""
+    M, V in the governing case; the plate whose bearing governs, where it does) and the rating
+    of each vehicle."""
 
     joint: str
     diameter: float = q("pin diameter", "dimension")
@@ -188,6 +189,9 @@ class PinResult:
     governing_M: float | None = q("moment at the governing section", "moment", default=None)
     governing_V: float | None = q("shear at the governing section", "force", default=None)
     governing_case: str = ""
+    governing_item: int | None = None  # the packing item (numbered from 1, as in the
+    # packing table) whose bearing governs in the governing case; None where flexure and
+    # shear govern
 
 
 @dataclass(frozen=True)

@@ -9,6 +9,7 @@ from typing import NamedTuple
 
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
+from rating.capacity.pins import PinCheck, PlateLoad
 from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction
@@ -206,9 +207,12 @@ def _factors(r: MemberCaseRating, memo: dict | None) -> Factors:
     return hit
 
 
-def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
-    """The governing pin section in words, in the bridge's units."""
-    if system is UnitSystem.SI:
+def _pin_section_text(chk: PinCheck, case_id: str, system: UnitSystem) -> str:
+    """The governing pin section in words, in the bridge's units; where bearing governs, the
+    plate that bears hardest first, with its force against its factored bearing resistance
+    (AASHTO LRFD 6.7.6.2.2 [value from memory], rating.capacity.pins)."""
+    si = system is UnitSystem.SI
+    if si:
         z, M, V = (from_core(chk.governing.z_in, "mm"), from_core(chk.M_u_kip_in, "kN-m"),
                    from_core(chk.V_u_kip, "kN"))
         units = ("mm", "kN-m", "kN")
@@ -217,10 +221,26 @@ def _pin_section_text(chk, case_id: str, system: UnitSystem) -> str:
         z, M, V = chk.governing.z_in, chk.M_u_kip_in, chk.V_u_kip
         units = ("in", "kip-in", "kip")
         z_text = f"{z:.2f}"
-    what = ("bearing governs" if chk.utilization_bearing >= chk.utilization_flexure_shear
-            else "flexure and shear govern")
-    return (f"z = {z_text} {units[0]} from the first plate's outer face ({what}): "
-            f"M = {M:.1f} {units[1]}, V = {V:.1f} {units[2]} ({case_id})")
+    section = f"z = {z_text} {units[0]} from the first plate's outer face"
+    forces = f"M = {M:.1f} {units[1]}, V = {V:.1f} {units[2]} ({case_id})"
+    plate = _bearing_plate(chk)
+    if plate is None:
+        return f"flexure and shear govern at {section}: {forces}"
+    t_text = (f"{from_core(plate.thickness_in, 'mm'):.1f} mm" if si
+              else f"{plate.thickness_in:.3f} in")
+    F, R = ((from_core(plate.F_kip, "kN"), from_core(plate.bearing_resistance_kip, "kN"))
+            if si else (plate.F_kip, plate.bearing_resistance_kip))
+    return (f"bearing of item {plate.position} ({plate.member or 'filler'}, t = {t_text}) "
+            f"governs: {F:.1f} {units[2]} against a factored bearing resistance of "
+            f"{R:.1f} {units[2]}; flexure and shear at {section}: {forces}")
+
+
+def _bearing_plate(chk: PinCheck) -> PlateLoad | None:
+    """The packing item whose bearing governs the pin check, or None where flexure and shear
+    govern (the check's own comparison of the two utilizations)."""
+    if chk.governing_plate is None or chk.utilization_bearing < chk.utilization_flexure_shear:
+        return None
+    return chk.governing_plate
 
 
 class _ReportPosting(NamedTuple):
@@ -417,6 +437,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             governing_z=gov_chk.governing.z_in if gov_chk else None,
             governing_M=gov_chk.M_u_kip_in if gov_chk else None,
             governing_V=gov_chk.V_u_kip if gov_chk else None, governing_case=gov_case,
+            governing_item=(plate.position if gov_chk is not None
+                            and (plate := _bearing_plate(gov_chk)) is not None else None),
             ratings=pr, warnings=tuple(map(text, p.warnings))))
     unit = "tonne" if system is UnitSystem.SI else "ton"
     weight_tons = {c.id: c.load.gross_weight_tons for c in rating.cases}

@@ -239,3 +239,35 @@ def test_results_file_numbers_as_the_json_module_writes_them(values, system):
     res = replace(res, members=(replace(m, dead_load=loads), *res.members[1:]),
                   distribution={"values": values})
     assert results_json(res) == _through_json_module(res)
+
+
+def test_a_pin_where_bearing_governs_names_the_plate_at_its_limit(outcomes):
+    """Where bearing governs a pin, the results name the plate (numbered as in the packing)
+    with its force and its factored bearing resistance; at the rating load of the governing
+    case the pin is at its limit, so the two are equal to the printed precision (the RF is
+    the load level that brings the governing check to 1.0, MBE 6A.4.2.1). The resistance is
+    phi_b 1.5 t D F_y (AASHTO LRFD 6.7.6.2.2, phi_b = 1.0 [value from memory]) for the
+    plate's thickness and the pin's diameter, so it is proportional to the thickness."""
+    import re
+
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    said = re.compile(r"^bearing of item (\d+) \((\S+), t = ([0-9.]+) in\) governs: "
+                      r"([0-9.]+) kip against a factored bearing resistance of ([0-9.]+) kip; "
+                      r"flexure and shear at z = ")
+    per_inch: dict[str, float] = {}
+    bearing = 0
+    for p in res.pins:
+        m = said.match(p.governing_section)
+        if p.governing_item is None:
+            assert m is None and p.governing_section.startswith("flexure and shear govern at z = ")
+            continue
+        bearing += 1
+        assert m is not None, p.governing_section
+        item, member, t, F, R = m.groups()
+        row = p.packing[p.governing_item - 1]
+        assert int(item) == p.governing_item and member == row.member
+        assert float(t) == pytest.approx(row.thickness, abs=5e-4)
+        assert float(F) == pytest.approx(float(R), abs=0.15)
+        per_inch.setdefault(member, float(R) / (float(t) * p.diameter))
+        assert float(R) / (float(t) * p.diameter) == pytest.approx(per_inch[member], rel=2e-3)
+    assert bearing >= 2 and bearing < len(res.pins)

@@ -464,7 +464,8 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
 
 def packing_svg(pin: PinResult, display: Display) -> Markup:
     """The packing of one pin drawn to scale along the pin: plates in order with their
-    thickness and the gaps between them, fillers hatched."""
+    thickness and the gaps between them, fillers hatched; what governs the pin marked (the
+    plate whose bearing governs, else the section where flexure and shear do)."""
     rows = pin.packing
     if not rows:
         return _svg(WIDTH, 30, f"pin {pin.joint}: packing not given",
@@ -496,10 +497,16 @@ def packing_svg(pin: PinResult, display: Display) -> Markup:
         mid = _f(x + w / 2)
         body.append(_text_at(mid, name_y, name, 8, "start", rotate=-60))
         body.append(_text_at(mid, order_y, str(k + 1), 8, fill="#555"))
+        if pin.governing_item == k + 1:  # bearing of this plate governs
+            body.append(f'<rect class="governing" x="{_f(x - 2)}" y="{_f(pin_y - 36)}" '
+                        f'width="{_f(w + 4)}" height="72" fill="none" stroke="#8e1b1b" '
+                        f'stroke-width="2"><title>bearing governs</title></rect>')
+            body.append(_text(x + w / 2, pin_y + 60, "bearing governs", size=8,
+                              fill="#8e1b1b"))
         x += r.thickness * s
     z = pin.governing_z if pin.governing_z is not None else governing_z_in(
         pin.governing_section)
-    if z is not None and 0.0 <= z <= total + 1e-9:
+    if pin.governing_item is None and z is not None and 0.0 <= z <= total + 1e-9:
         gx = first_face + z * s
         body.append(f'<line class="governing" x1="{_f(gx)}" y1="{_f(pin_y - 44)}" '
                     f'x2="{_f(gx)}" y2="{_f(pin_y + 38)}" stroke="#8e1b1b" stroke-width="1.6" '

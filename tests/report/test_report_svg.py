@@ -159,6 +159,15 @@ def test_packing_drawn_to_scale(results_us: RatingResults) -> None:
     assert float(gov.get("x1")) == pytest.approx(float(rects[0].get("x")) + 2.0625 * s,
                                                  abs=0.3)
     assert governing_z_in("section 3, between U1L2 and L1L2") is None
+    # where bearing governs, its plate is marked (outlined, to the same scale), not a section
+    b_pin = replace(z_pin, governing_item=2)
+    b_root = _parse(packing_svg(b_pin, US))
+    marks = [el for el in b_root.iter() if el.get("class") == "governing"]
+    assert [el.tag.rsplit("}", 1)[-1] for el in marks] == ["rect"]
+    assert float(marks[0].get("x")) == pytest.approx(float(rects[1].get("x")) - 2, abs=0.3)
+    assert float(marks[0].get("width")) == pytest.approx(float(rects[1].get("width")) + 4,
+                                                         abs=0.3)
+    assert "bearing governs" in str(packing_svg(b_pin, US))
     empty = packing_svg(replace(pin, packing=()), US)
     assert "packing not given" in str(empty)
 
