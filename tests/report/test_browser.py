@@ -53,6 +53,14 @@ SIZES = """(() => {
 # vocabulary ("bottom chord", "compression", "(inventory)") must stay whole; only a long
 # unbroken entry from the workbook (the pieces of a run given <wbr> breaks,
 # rating.report.text.breakable) may be broken to keep the table on the page.
+ROW_HEIGHTS = """[...document.querySelectorAll('table.index tr')].filter(
+    tr => tr.querySelector('td.rf')).map(tr => {
+  const cell = tr.querySelector('td.rf');
+  return [cell.getBoundingClientRect().height,
+          parseFloat(getComputedStyle(cell).lineHeight)
+          || 1.2 * parseFloat(getComputedStyle(cell).fontSize)];
+})"""
+
 SPLIT_WORDS = r"""(() => {
   const out = [];
   const wbr = n => n !== null && n.nodeName === 'WBR';
@@ -234,6 +242,13 @@ def test_batch_index_in_browser(browser: Browser, tmp_path: Path,
             assert sizes["overflow"] == [], f"wider than the page: {sizes['overflow']}"
             split = [w for w in page.evaluate(SPLIT_WORDS) if len(w) <= LONGEST_WHOLE_WORD]
             assert split == [], f"words broken over two lines: {split}"
+            # each bridge's ratings stay one short row (the RF and its member), its
+            # recommendation across the table beneath them; a narrow column beside the
+            # vehicles made each row many lines tall (one bridge per printed page)
+            rows = page.evaluate(ROW_HEIGHTS)
+            assert len(rows) == len(rated), rows
+            for ratings_px, line_px in rows:
+                assert ratings_px < 3.5 * line_px, rows
             w, h = _media_box(page.pdf())
             assert w > h  # landscape (the paper is the printer's; the CSS asks for none)
             rep = page.report()
