@@ -27,7 +27,8 @@ DEFAULT_MULTIPLE_PRESENCE: tuple[float, ...] = (1.20, 1.00, 0.85, 0.65)
 """Multiple presence factors for 1, 2, 3 and more loaded lanes, LRFD Table 3.6.1.1.2-1
 [value from memory]."""
 
-SOURCE_LANES = "AASHTO LRFD 3.6.1.1.1 (design lanes) [value from memory]"
+SOURCE_LANES = ("AASHTO LRFD 3.6.1.1.1 and MBE 6A.2.3.2 (design lanes; two on a roadway of 18 "
+                "to 24 ft, each half its width) [value from memory]")
 SOURCE_MPF = "AASHTO LRFD Table 3.6.1.1.2-1 (multiple presence) [value from memory]"
 SOURCE_WHEELS = ("AASHTO LRFD 3.6.1.2.1 / 3.6.1.3.1 (6 ft wheel gauge; wheel not closer than "
                  "2 ft to the curb or lane edge) [value from memory]")
@@ -80,6 +81,10 @@ class DistributionResult:
                 f"{'s' if self.design_lanes != 1 else ''} of {self.lane_width_ft:g} ft: "
                 f"{lanes} loaded toward the {g.truss} truss governs, share {g.share:.3f} x "
                 f"multiple presence {g.multiple_presence:g} = {g.factor:.3f}")
+        if self.design_lanes == 2 and 18.0 <= self.roadway_width_ft < 20.0:
+            text += (" (two lanes on a roadway of 18 to 20 ft, each half its width: MBE "
+                     "6A.2.3.2 [value from memory]; an owner who rates such a bridge as one "
+                     "lane gives the lane count in the workbook)")
         if self.basis == "owner override":
             text = (f"owner's distribution factor {self.factor:.3f} used "
                     f"(lever rule would give {self.lever_rule_factor:.3f}; {text})")
@@ -87,13 +92,16 @@ class DistributionResult:
 
 
 def design_lane_count(roadway_width_ft: float, *, lane_width_ft: float = 12.0,
-                      two_lanes_20_to_24_ft: bool = True) -> int:
-    """Number of design lanes: INT(roadway / 12 ft), at least one; 20 to 24 ft gives two.
-
-    AASHTO LRFD 3.6.1.1.1, design lanes INT(w/12); two lanes for 20-24 ft. [value from memory]
+                      two_lanes_20_to_24_ft: bool = True,
+                      two_lanes_18_to_20_ft: bool = True) -> int:
+    """Number of design lanes: INT(roadway / 12 ft), at least one; 20 to 24 ft gives two
+    (AASHTO LRFD 3.6.1.1.1), and for a rating 18 to 20 ft gives two as well, each half the
+    roadway (MBE 6A.2.3.2; under 18 ft one lane). [value from memory]
     """
     w = float(roadway_width_ft)
     if two_lanes_20_to_24_ft and 20.0 <= w <= 24.0:
+        return 2
+    if two_lanes_18_to_20_ft and 18.0 <= w < 20.0:
         return 2
     return max(1, int(math.floor(w / lane_width_ft + 1e-9)))
 
@@ -140,12 +148,14 @@ def lateral_distribution(
     wheel_to_edge_ft: float = 2.0,
     multiple_presence: Sequence[float] = DEFAULT_MULTIPLE_PRESENCE,
     two_lanes_20_to_24_ft: bool = True,
+    two_lanes_18_to_20_ft: bool = True,
     where: str = "",
 ) -> DistributionResult:
     """Governing lever-rule fraction of one vehicle's axle loads to one truss, one-lane and
     multi-lane cases with multiple presence, or the owner's override.
 
-    Lever rule; LRFD 3.6.1.1.1 lanes, Table 3.6.1.1.2-1 multiple presence. [value from memory]
+    Lever rule; LRFD 3.6.1.1.1 and MBE 6A.2.3.2 lanes, LRFD Table 3.6.1.1.2-1 multiple
+    presence. [value from memory]
     """
     S = float(cross_section.truss_spacing_ft)
     w = float(cross_section.roadway_width_ft)
@@ -181,9 +191,13 @@ def lateral_distribution(
                             "vehicles are centred in their lanes")
     else:
         n = design_lane_count(w, lane_width_ft=lane_width_ft,
-                              two_lanes_20_to_24_ft=two_lanes_20_to_24_ft)
-        lane_w = w / 2.0 if (two_lanes_20_to_24_ft and n == 2 and w <= 24.0) else lane_width_ft
+                              two_lanes_20_to_24_ft=two_lanes_20_to_24_ft,
+                              two_lanes_18_to_20_ft=two_lanes_18_to_20_ft)
+        # two lanes on a roadway of 18 to 24 ft are each half of it (LRFD 3.6.1.1.1, MBE
+        # 6A.2.3.2)
+        lane_w = w / 2.0 if (n == 2 and w <= 24.0) else lane_width_ft
         lane_w = min(lane_w, w)
+
     cases = []
     for truss, toward_left in (("left", True), ("right", False)):
         centres = _vehicle_centres(lane_w, n, wheel_to_edge_ft, wheel_gauge_ft, toward_left,

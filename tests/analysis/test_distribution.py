@@ -21,7 +21,10 @@ def test_design_lanes_and_multiple_presence():
     # 3.6.1.1.1]; multiple presence 1.20 / 1.00 / 0.85 / 0.65 [value from memory, AASHTO LRFD
     # Table 3.6.1.1.2-1].
     assert design_lane_count(9.0) == 1
-    assert design_lane_count(18.0) == 1
+    assert design_lane_count(17.9) == 1
+    # for a rating, 18 to 20 ft carries two lanes as well [value from memory, MBE 6A.2.3.2]
+    assert design_lane_count(18.0) == 2 and design_lane_count(19.5) == 2
+    assert design_lane_count(18.0, two_lanes_18_to_20_ft=False) == 1
     assert design_lane_count(22.0) == 2
     assert design_lane_count(22.0, two_lanes_20_to_24_ft=False) == 1
     assert design_lane_count(36.0) == 3
@@ -118,3 +121,23 @@ def test_shares_to_both_trusses_sum_to_vehicles(S, frac):
         other = sum(lever_rule_fraction(x, S)[1 if c.truss == "left" else 0]
                     for x in c.wheel_offsets_ft) / 2.0
         assert c.share + other == pytest.approx(c.loaded_lanes)
+
+
+def test_eighteen_to_twenty_ft_roadway_two_half_width_lanes():
+    # 18 ft roadway: two lanes of 9 ft for a rating [value from memory, MBE 6A.2.3.2]. Trusses
+    # 20 ft apart, curbs at 1 and 19 ft. A 9 ft lane cannot keep a 6 ft gauge 2 ft from both
+    # its edges, so each vehicle is centred in its lane: wheels at 2.5, 8.5 and 11.5, 17.5 ft.
+    # Two lanes: (17.5 + 11.5 + 8.5 + 2.5) / 20 / 2 = 1.000 x m 1.00 (hand statics; the two
+    # vehicles together are symmetric about the centre line: one vehicle to each truss);
+    # one lane, wheels 2 ft from the curb at 3 and 9 ft: (17 + 11) / 40 x 1.2 = 0.840. Two
+    # lanes govern.
+    r = lateral_distribution(CrossSection(20.0, 18.0))
+    assert r.design_lanes == 2 and r.lane_width_ft == pytest.approx(9.0)
+    two = [c for c in r.cases if c.truss == "left" and c.loaded_lanes == 2][0]
+    assert two.wheel_offsets_ft == pytest.approx((2.5, 8.5, 11.5, 17.5))
+    assert r.factor == pytest.approx(1.0)
+    assert "MBE 6A.2.3.2" in r.description
+    # the owner's lane count still governs (a bridge signed and rated as one lane)
+    one = lateral_distribution(CrossSection(20.0, 18.0, lane_count_override=1))
+    assert one.design_lanes == 1 and one.factor == pytest.approx(0.84)
+    assert "MBE 6A.2.3.2" not in one.description
