@@ -12,6 +12,7 @@ import dataclasses
 import functools
 import json
 import math
+import re
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
 from types import MappingProxyType
@@ -29,6 +30,20 @@ DECISION_NOTE = (" This is a recommendation for the decision of the licensed eng
 """The sentence every bridge recommendation ends with (rating.results_build); the batch index,
 whose caution heads the table and whose every page's footer says the same, leaves it out of
 its narrow column."""
+
+
+
+def bears_on_the_decision(warning: str) -> bool:
+    """A warning that bears on the posting decision itself (a member left out of service, a
+    bent counter the ratings rest on): the rating engine heads it with words in capitals
+    ("OUT OF SERVICE: ..."); the report repeats it in the recommendation box."""
+    head, sep, _ = warning.partition(":")
+    return bool(sep) and _DECISION_HEAD.fullmatch(head) is not None
+
+
+_DECISION_HEAD = re.compile(r"[A-Z][A-Z-]*(?: [A-Z][A-Z-]*)+")
+"""Two or more words in capitals (a member label such as "L3U4" is one word)."""
+
 
 # dimension -> (US unit, SI unit)
 DISPLAY_UNITS: dict[str, tuple[str, str]] = {

@@ -271,3 +271,42 @@ def test_a_pin_where_bearing_governs_names_the_plate_at_its_limit(outcomes):
         per_inch.setdefault(member, float(R) / (float(t) * p.diameter))
         assert float(R) / (float(t) * p.diameter) == pytest.approx(per_inch[member], rel=2e-3)
     assert bearing >= 2 and bearing < len(res.pins)
+
+
+def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes, tmp_path):
+    """The Pratt sample's counter L3U4 is recorded bent (bowed, turnbuckle seized) and counted
+    in tension: the results say, first among the warnings and again in the report's
+    recommendation box, that the panel's load path rests on it and how to rate without it
+    (common practice: a bowed rod takes load only once straightened). Rated without it (its
+    bar recorded loose, as the warning says), the main of that panel goes slack under a much
+    smaller live load and the legal loads rate below 0.3 (the sensitivity the warning is
+    about; invented sample data)."""
+    import openpyxl
+
+    from rating.report import render_report
+    from rating.results import bears_on_the_decision
+
+    res = outcomes["tc0417_pratt_1898.xlsx"].results
+    first = res.warnings[0]
+    assert first.startswith("BENT COUNTER RELIED ON: member L3U4 is recorded bent "
+                            "(Findings!B10)") and bears_on_the_decision(first)
+    assert "recording its bars as loose" in first
+    box = render_report(res).split('<div class="recommendation', 1)[1].split("</div>", 3)
+    assert "BENT COUNTER RELIED ON" in "".join(box[:3])
+    parker = outcomes["tc0622_parker_1907.xlsx"].results
+    assert not any("RELIED ON" in w for w in parker.warnings)
+
+    pratt = next(p for p in SAMPLES if "pratt" in p.name)
+    wb = openpyxl.load_workbook(pratt)
+    ws = wb["Findings"]
+    assert (ws["B10"].value, ws["H10"].value) == ("L3U4", "bent")
+    ws["H10"] = "loose"
+    book = tmp_path / "pratt_without_l3u4.xlsx"
+    wb.save(book)
+    without = rate_workbook(book).results
+    assert without is not None
+    assert without.warnings[0].startswith("OUT OF SERVICE: member(s) L3U4")
+    assert not any("RELIED ON" in w for w in without.warnings)
+    legal = [p for vid, p in without.posting.items()
+             if vid not in ("HL-93-INV", "HL-93-OPR", "NRL")]
+    assert legal and all(p.rf < 0.3 and p.action == "close" for p in legal)

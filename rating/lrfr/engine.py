@@ -54,6 +54,7 @@ from rating.lrfr.positions import (
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
+    BarState,
     Bridge,
     EyebarSet,
     Finding,
@@ -328,6 +329,30 @@ class EnvelopeSet:
         return out
 
 
+def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
+                                 dependent: frozenset[str]) -> list[str]:
+    """A warning for each bent tension-only member (a counter, a slack-prone main) whose panel
+    changes its load path with the live load: the rating counts it as fully effective in
+    tension, and the ratings of the panel rest on it (common practice: a bowed rod takes load
+    only once straightened; a seized turnbuckle cannot be adjusted)."""
+    out = []
+    for m in g.members:
+        if not (m.tension_only and m.label in dependent):
+            continue
+        bent = [f for f in bridge.findings_for(m.label) if f.bar_state is BarState.BENT]
+        if not bent:
+            continue
+        where = ", ".join(dict.fromkeys(f.where for f in bent if f.where))
+        out.append(
+            f"BENT {m.role.value.upper()} RELIED ON: member {m.label} is recorded bent"
+            f"{f' ({where})' if where else ''} and is counted as fully effective in tension; "
+            "the load path of its panel rests on it when the live load reverses the panel's "
+            "shear. If it does not take load (a bowed rod that does not straighten, a seized "
+            "turnbuckle), the ratings of that panel may fall sharply. The engineer should "
+            "confirm that it acts, or rate without it by recording its bars as loose.")
+    return out
+
+
 def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset[str]:
     """Members whose influence line changes with the active set of the counter panels."""
     rows = [il.ordinates for il in lines.values()]
@@ -402,6 +427,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     configs = active_set_configurations(family, dead.slack_members)
     lines = {c: family.solver(c).influence_lines for c in configs}
     dependent = _dependent_members(lines)
+    # (after any OUT OF SERVICE notice: a reviewer reads these first)
+    at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
+    warnings[at:at] = _bent_tension_only_relied_on(g, bridge, dependent)
 
     dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override)
     df = dist.factor

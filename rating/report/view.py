@@ -28,6 +28,7 @@ from rating.results import (
     Rating,
     RatingResults,
     VehicleResult,
+    bears_on_the_decision,
     reported_rf,
 )
 
@@ -333,6 +334,7 @@ class ReportView:
     band_labels: tuple[svg.Band, ...] = field(default=())
     has_neg_inf: bool = False
     pin_tables: tuple[PinTable, ...] = ()
+    decision_warnings: tuple[str, ...] = ()  # repeated in the recommendation box
 
 
 # ------------------------------------------------------------------ helpers
@@ -730,7 +732,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         warnings=warnings, sections=sections, checks=checks, has_dash=has_dash, paper=p,
         paper_note=paper_note, generator=results.generator,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
-        band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables))
+        band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
+        decision_warnings=tuple(w for w in results.warnings if bears_on_the_decision(w)))
 
 
 def _from_memory(text: str) -> bool:
