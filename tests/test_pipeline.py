@@ -310,3 +310,13 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
     legal = [p for vid, p in without.posting.items()
              if vid not in ("HL-93-INV", "HL-93-OPR", "NRL")]
     assert legal and all(p.rf < 0.3 and p.action == "close" for p in legal)
+
+
+def test_the_pony_sample_says_its_top_chord_rests_on_unchecked_u_frames(outcomes):
+    """The pony sample's top chord does not control (the rods do): the U-frame warning is an
+    ordinary one (AASHTO LRFD 6.14.2.9 [value from memory]); the through trusses have none."""
+    pony = outcomes["tc0903_pony_1903_si.xlsx"].results
+    said = [w for w in pony.warnings if "U-frames" in w]
+    assert len(said) == 1 and said[0].startswith("pony truss: the top chord and end posts")
+    for name in ("tc0417_pratt_1898.xlsx", "tc0622_parker_1907.xlsx"):
+        assert not any("U-frames" in w for w in outcomes[name].results.warnings)

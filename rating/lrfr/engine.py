@@ -56,9 +56,11 @@ from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.model import (
     BarState,
     Bridge,
+    DeckPosition,
     EyebarSet,
     Finding,
     Member,
+    MemberRole,
     RodSet,
     TrussGeometry,
     VehicleCategory,
@@ -329,6 +331,33 @@ class EnvelopeSet:
         return out
 
 
+def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting]) -> list[str]:
+    """A pony truss's top chord and end posts are rated as braced out of the truss plane at
+    every panel point; a pony truss has no top lateral bracing and holds its chord only by
+    the U-frames of verticals and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]),
+    which are not checked here. Said for every pony truss; headed in capitals where such a
+    member controls a rating case."""
+    if g.deck_position is not DeckPosition.PONY:
+        return []
+    chord = [m.label for m in g.members
+             if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST)]
+    if not chord:
+        return []
+    text = (f"the top chord and end posts ({', '.join(chord)}) are rated with an effective "
+            "length of K times their length between panel points (K as given in the "
+            "workbook, else the default), out of the truss plane as well. A pony truss has "
+            "no top lateral bracing: its chord is held only by the U-frames of the verticals "
+            "and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]), whose stiffness is not "
+            "checked here. The engineer should check the chord's lateral stability (a column "
+            "on elastic supports) and give the members' effective length factor in the "
+            "workbook where that check makes it longer.")
+    controls = sorted({p.controlling for p in postings.values()} & set(chord))
+    if controls:
+        return [f"PONY TRUSS TOP CHORD CONTROLS: {', '.join(controls)} control"
+                f"{'s' if len(controls) == 1 else ''} a rating, and {text}"]
+    return [f"pony truss: {text}"]
+
+
 def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
                                  dependent: frozenset[str]) -> list[str]:
     """A warning for each bent tension-only member (a counter, a slack-prone main) whose panel
@@ -505,6 +534,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
     pins = rate_pins(bridge.pins, g, bridge, dead, dead_f, load_paths, dependent)
     postings = _postings(cases, ratings, pins, g)
+    warnings.extend(_pony_top_chord(g, postings))
     for p in pins:
         warnings.extend(p.warnings)
     return BridgeRating(

@@ -271,3 +271,28 @@ def test_envelope_set_gives_every_active_set_its_own_extremes(rated):
                                                           rel=1e-9, abs=1e-9)
             assert got.min.total_kip(im) == pytest.approx(alone[lab].min.total_kip(im),
                                                           rel=1e-9, abs=1e-9)
+
+
+def test_a_pony_truss_top_chord_is_said_to_rest_on_an_unchecked_u_frame() -> None:
+    """A pony truss has no top lateral bracing; its chord is held by U-frames (AASHTO LRFD
+    6.14.2.9 [value from memory]) that are not checked: every pony truss gets the warning,
+    headed in capitals (repeated beside the recommendation) when a top chord or end post
+    controls a rating case; a through truss gets none."""
+    from types import SimpleNamespace
+
+    from rating.lrfr.engine import _pony_top_chord
+    from rating.model.builders import build_truss
+    from rating.results import bears_on_the_decision
+
+    pony = build_truss("pratt", 6, 10.5, 7.0, deck_position="pony")
+    hangers = {"TYPE-3": SimpleNamespace(controlling="U2L3")}
+    said = _pony_top_chord(pony, hangers)
+    assert len(said) == 1 and said[0].startswith("pony truss: the top chord and end posts (")
+    assert "6.14.2.9" in said[0] and not bears_on_the_decision(said[0])
+    chord = {"TYPE-3": SimpleNamespace(controlling="U2L3"),
+             "SU4": SimpleNamespace(controlling="U2U3")}
+    said = _pony_top_chord(pony, chord)
+    assert said[0].startswith("PONY TRUSS TOP CHORD CONTROLS: U2U3 controls a rating")
+    assert bears_on_the_decision(said[0])
+    through = build_truss("pratt", 6, 10.5, 7.0, deck_position="through")
+    assert _pony_top_chord(through, chord) == []

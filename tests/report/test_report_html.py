@@ -83,6 +83,9 @@ def test_summary_parts(html_us: str, results_us: RatingResults) -> None:
     for part in ("Seal", "Signature", "Date of review", "Reviewed by"):
         assert part in text
     assert results_us.recommendation in text
+    # the RF is worked from unrounded forces: a hand check from the printed ones may be 0.01 off
+    assert "so one worked by hand from the forces printed to 0.1 can differ from it by 0.01" \
+        in text
     # the cautions
     assert "an aid to, not a substitute for, the judgement of the licensed engineer" in text
     assert "owner\u2019s bridge manual and local codes govern" in text
