@@ -320,3 +320,28 @@ def test_the_pony_sample_says_its_top_chord_rests_on_unchecked_u_frames(outcomes
     assert len(said) == 1 and said[0].startswith("pony truss: the top chord and end posts")
     for name in ("tc0417_pratt_1898.xlsx", "tc0622_parker_1907.xlsx"):
         assert not any("U-frames" in w for w in outcomes[name].results.warnings)
+
+
+def test_parker_measured_wearing_surface_and_water_line_take_their_own_factors(outcomes):
+    """The Parker sample's wearing surface was measured (gamma_DW 1.25, MBE 6A.4.2.2 [value
+    from memory]); its water line is DW too and keeps 1.50 (AASHTO LRFD Table 3.4.1-2 [V]).
+    Each linear rating shows the weighted gamma_DW, between the two, and the LRFR equation
+    (MBE 6A.4.2.1) worked from the results' own numbers gives its RF."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    checked = 0
+    for m in res.members:
+        DC, DW = m.dead_load["DC"], m.dead_load["DW"]
+        for vid, r in m.ratings.items():
+            if r.method != "linear" or not math.isfinite(r.rf) or r.sense != "tension":
+                continue
+            if DW <= 1e-6:
+                continue
+            f = r.factors
+            assert 1.25 < f.gamma_dw < 1.50, (m.id, vid, f.gamma_dw)
+            C = m.resistance.tension
+            ll = m.live_load[vid].max_with_im
+            assert r.rf == pytest.approx((C - f.gamma_dc * DC - f.gamma_dw * DW)
+                                         / (f.gamma_ll * ll), rel=1e-9)
+            checked += 1
+    assert checked > 20
+    assert any("the rest of DW (utilities) keeps 1.50" in a for a in res.assumptions)

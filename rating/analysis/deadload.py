@@ -53,6 +53,10 @@ class DeadLoadResult:
     share_by_item: tuple[tuple[str, float], ...]  # (description, share to the rated truss)
     self_weight_kip: float  # one truss, details included
     assumptions: tuple[str, ...]
+    # the part of DW that is the wearing surface (DW given in psf of deck), within the totals
+    # above: its load factor may differ from the rest of DW (utilities), MBE 6A.4.2.2
+    joint_loads_dw_surface_kip: np.ndarray | None = None
+    member_forces_dw_surface_kip: np.ndarray | None = None
 
     @property
     def slack_members(self) -> frozenset[str]:
@@ -114,6 +118,7 @@ def dead_load(
 
     # per truss side: [left, right] joint loads by kind
     loads = {k: np.zeros((2, nj, 2)) for k in DeadLoadKind}
+    surface = np.zeros((2, nj, 2))  # the wearing surface: DW in psf of deck
     shares: list[tuple[str, float, float]] = []
     for item in items:
         if item.basis is DeadLoadBasis.PLF_TRUSS:
@@ -125,6 +130,8 @@ def dead_load(
         per_point = w * trib if w is not None else np.full(trib.shape, item.intensity)
         for side, share in ((0, left), (1, right)):
             loads[item.kind][side, deck_idx, 1] -= share * per_point
+            if is_wearing_surface(item):
+                surface[side, deck_idx, 1] -= share * per_point
 
     self_weight = np.zeros((nj, 2))
     total_self = 0.0
@@ -158,4 +165,12 @@ def dead_load(
         member_forces_dw_kip=lt.solve(P_dw).member_forces_kip, rated_truss=rated,
         share_by_item=tuple((d, (lft, rgt)[side]) for d, lft, rgt in shares),
         self_weight_kip=total_self, assumptions=tuple(assumptions),
+        joint_loads_dw_surface_kip=surface[side],
+        member_forces_dw_surface_kip=lt.solve(surface[side]).member_forces_kip,
     )
+
+
+def is_wearing_surface(item: DeadLoadItem) -> bool:
+    """A DW item spread over the deck in psf is the wearing surface (LRFD 3.3.2: DW is the
+    wearing surface and utilities; utilities are given per foot of bridge or truss)."""
+    return item.kind is DeadLoadKind.DW and item.basis is DeadLoadBasis.PSF_DECK

@@ -40,6 +40,7 @@ from rating.lrfr.factors import (
     RatingLevel,
     dead_load_factors,
     dynamic_load_allowance,
+    factored_dw,
     live_load_factor,
 )
 from rating.lrfr.liveload import position_key
@@ -467,8 +468,21 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
     dead_f = dead_load_factors(st.wearing_surface_measured)
+    if st.wearing_surface_measured:
+        if dead.joint_loads_dw_surface_kip is not None \
+                and np.any(dead.joint_loads_dw_surface_kip):
+            assumptions.append(
+                "gamma_DW = 1.25 for the wearing surface (the DW given in psf of deck), whose "
+                "thickness was field measured (MBE 6A.4.2.2 [value from memory]); the rest of "
+                "DW (utilities) keeps 1.50. A member's gamma_DW shown with its rating is the "
+                "weighted value of the two, so gamma_DW x DW is the factored DW.")
+        else:
+            warnings.append(
+                "the wearing surface's thickness is recorded as field measured, but no DW is "
+                "given in psf of deck (the wearing surface): gamma_DW = 1.50 is used for all DW")
     DC = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dc_kip, strict=True)}
     DW = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_kip, strict=True)}
+    DWs = {m.label: float(f) for m, f in zip(g.members, _dw_surface(dead), strict=True)}
 
     dead_states = factored_dead_states(family, dead, dead_f)
     table = RegionTable(family, configs)
@@ -502,13 +516,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 continue
             member_envs[lab] = [e for e, _ in mine]
         plans = {lab: _sense_plans(g.member(lab), resist[lab], case, DC[lab], DW[lab],
-                                   dead_f, df, envs_here, lab in dependent)
+                                   DWs[lab], dead_f, df, envs_here, lab in dependent)
                  for lab, envs_here in member_envs.items()}
         plans_of[case.id] = plans
         for lab, pl in plans.items():
             if lab not in dependent:
                 ratings[(lab, case.id)] = _rate_linear(g.member(lab), capacities[lab], case,
-                                                       DC[lab], DW[lab], pl, dead_f)
+                                                       DC[lab], DW[lab], DWs[lab], pl, dead_f)
     # The members whose force depends on the counters' active set, and the pins: every
     # position of every rating load on its exact load path, all at once (one load at one IM
     # serves all its rating levels: lam is found with gamma_LL = 1)
@@ -554,11 +568,21 @@ def factored_dead_states(family: TrussFamily, dead: DeadLoadResult, dead_f
     """Factored dead-load joint loads and their tension-only states, maximum and minimum
     factor sets (AASHTO LRFD Table 3.4.1-2 [V]); the same for every vehicle position."""
     out = {}
-    for gd, gw in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value),
-                   (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value)):
-        P = gd * dead.joint_loads_dc_kip + gw * dead.joint_loads_dw_kip
+    surface = (dead.joint_loads_dw_surface_kip if dead.joint_loads_dw_surface_kip is not None
+               else np.zeros_like(dead.joint_loads_dw_kip))
+    for gd, gw, bound in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value, "max"),
+                          (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value, "min")):
+        # (keyed by the nominal factors; a measured wearing surface takes its own within DW)
+        P = gd * dead.joint_loads_dc_kip + factored_dw(dead.joint_loads_dw_kip, surface,
+                                                       dead_f, bound)
         out[(gd, gw)] = (P, solve_tension_only(family.geometry, P, family=family))
     return out
+
+
+def _dw_surface(dead: DeadLoadResult) -> np.ndarray:
+    """The member forces of the wearing surface within DW (zeros where none is known)."""
+    f = dead.member_forces_dw_surface_kip
+    return f if f is not None else np.zeros_like(dead.member_forces_dw_kip)
 
 
 @dataclass(frozen=True)
@@ -576,7 +600,7 @@ class _SensePlan:
 
 
 def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: RatingCase,
-                 DC: float, DW: float, dead_f, df: float, envs, dependent: bool
+                 DC: float, DW: float, DWs: float, dead_f, df: float, envs, dependent: bool
                  ) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
     extremes over the active sets and its factored resistance and governing check
@@ -593,6 +617,8 @@ def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: Ra
             continue  # a tension-only member goes slack instead; not rated in compression
         g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
         g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
+        if DWs and DW:  # a measured wearing surface within DW: the weighted factor
+            g_dw = factored_dw(sense * DW, sense * DWs, dead_f) / (sense * DW)
         plans.append(_SensePlan(sense, name, extremes, ll, *resist[name], g_dc, g_dw))
     return plans
 
@@ -751,13 +777,14 @@ def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], Path
 
 
 def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
-                 plans: list[_SensePlan], dead_f) -> MemberCaseRating:
+                 DWs: float, plans: list[_SensePlan], dead_f) -> MemberCaseRating:
     """The member's rating for one case by the linear equation on its envelope, where its line
     does not depend on the counters' active set (MBE 6A.4.2.1 [value from memory])."""
     best: MemberCaseRating | None = None
     for pl in plans:
         k = int(np.argmax(pl.ll))
-        r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k]),
+        r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k],
+                                                  DW_surface=pl.sense * DWs),
                           case.gamma_ll.value, dead_f)
         cand = _record(m, cap, case, pl, r.rf, "linear", pl.gamma_dc, pl.gamma_dw,
                        pl.extremes[k])

@@ -6,7 +6,7 @@ import math
 from dataclasses import dataclass
 
 from rating.capacity.factors import combined_factor
-from rating.lrfr.factors import Factor
+from rating.lrfr.factors import Factor, factored_dw
 
 
 @dataclass(frozen=True)
@@ -21,6 +21,7 @@ class SenseLoads:
     DW: float
     LL_IM: float  # factored later by gamma_LL; includes IM on axles, lane without IM
     P: float = 0.0
+    DW_surface: float = 0.0  # the part of DW that is the wearing surface (its own factor)
 
 
 @dataclass(frozen=True)
@@ -38,7 +39,8 @@ class RatingFactorResult:
 
 def rating_factor(C: float, loads: SenseLoads, gamma_ll: float,
                   dead: dict[str, Factor], gamma_p: float = 0.0) -> RatingFactorResult:
-    """RF = (C - gDC*DC - gDW*DW +/- gP*P) / (gLL*(LL + IM)).
+    """RF = (C - gDC*DC - gDW*DW +/- gP*P) / (gLL*(LL + IM)); a wearing surface of measured
+    thickness within DW takes its own factor (rating.lrfr.factors.factored_dw).
 
     MBE 6A.4.2.1, Eq. 6A.4.2.1-1 [value from memory; terms as Khan 2010, p. 187, read].
     A dead load that adds to the effect takes the maximum factor; one that relieves it the
@@ -47,7 +49,13 @@ def rating_factor(C: float, loads: SenseLoads, gamma_ll: float,
     """
     g_dc = dead["gamma_dc_max"].value if loads.DC > 0 else dead["gamma_dc_min"].value
     g_dw = dead["gamma_dw_max"].value if loads.DW > 0 else dead["gamma_dw_min"].value
-    factored_dead = g_dc * loads.DC + g_dw * loads.DW - gamma_p * loads.P
+    dw = g_dw * loads.DW
+    if loads.DW_surface:
+        # the wearing surface and the utilities factored apart: gamma_DW is their weighted
+        # value, so that gamma_DW x DW is what was taken off
+        dw = factored_dw(loads.DW, loads.DW_surface, dead)
+        g_dw = dw / loads.DW if loads.DW else g_dw
+    factored_dead = g_dc * loads.DC + dw - gamma_p * loads.P
     if loads.LL_IM <= 0.0:
         rf = math.inf
     else:

@@ -7,12 +7,14 @@ it, so the results and the report can list it.
 from __future__ import annotations
 
 import json
+from collections.abc import Mapping
 from dataclasses import dataclass
 from enum import StrEnum
 from functools import lru_cache
 from importlib import resources
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 from rating.errors import InputError
 from rating.model import RidingSurface, VehicleCategory
@@ -48,9 +50,12 @@ def provision_set_names() -> tuple[str, ...]:
 
 
 def dead_load_factors(wearing_surface_measured: bool = False) -> dict[str, Factor]:
-    """Maximum and minimum dead-load factors.
+    """Maximum and minimum dead-load factors; with the wearing surface's thickness field
+    measured, also the maximum factor of the wearing surface (``gamma_dw_surface_max``; the
+    rest of DW, the utilities, keeps ``gamma_dw_max``: see :func:`factored_dw`).
 
-    AASHTO LRFD Table 3.4.1-2 [V]; gamma_DW = 1.25 when measured, MBE 6A.4.2.2 [value from memory].
+    AASHTO LRFD Table 3.4.1-2 [V]; gamma_DW = 1.25 for a measured wearing surface, MBE
+    6A.4.2.2 [value from memory].
     """
     d = provisions()["dead_load"]
     src, tag = d["source"], d["tag"]
@@ -61,10 +66,34 @@ def dead_load_factors(wearing_surface_measured: bool = False) -> dict[str, Facto
         "gamma_dw_min": Factor("gamma_DW (min)", d["gamma_DW_min"], src, tag),
     }
     if wearing_surface_measured:
-        out["gamma_dw_max"] = Factor("gamma_DW (max, thickness measured)",
-                                     d["gamma_DW_measured"], d["measured_source"],
-                                     d["measured_tag"])
+        out["gamma_dw_surface_max"] = Factor(
+            "gamma_DW (max, wearing surface of measured thickness)", d["gamma_DW_measured"],
+            d["measured_source"], d["measured_tag"])
     return out
+
+
+def factored_dw(dw: ArrayLike, dw_surface: ArrayLike, dead: Mapping[str, Factor],
+                bound: str | None = None) -> np.ndarray | float:
+    """gamma_DW x DW with the wearing surface and the rest of DW (utilities) factored apart:
+    the surface by ``gamma_dw_surface_max`` where its thickness was measured (MBE 6A.4.2.2
+    [value from memory]), the rest by ``gamma_dw_max``; each part takes its maximum factor
+    where it adds to the effect (is positive) and the minimum where it relieves it
+    (AASHTO LRFD 3.4.1, Table 3.4.1-2 [V]), or the ``bound`` ("max" or "min") given.
+    ``dw`` is the whole DW, ``dw_surface`` the part of it that is the wearing surface."""
+    dw = np.asarray(dw, dtype=float)
+    surf = np.asarray(dw_surface, dtype=float)
+    rest = dw - surf
+    g_max = dead["gamma_dw_max"].value
+    g_surf = dead.get("gamma_dw_surface_max", dead["gamma_dw_max"]).value
+    g_min = dead["gamma_dw_min"].value
+    if bound == "max":
+        out = g_max * rest + g_surf * surf
+    elif bound == "min":
+        out = g_min * dw
+    else:
+        out = (np.where(rest > 0, g_max, g_min) * rest
+               + np.where(surf > 0, g_surf, g_min) * surf)
+    return out if out.ndim else float(out)
 
 
 def legal_live_load_factor(adtt_one_direction: float | None,

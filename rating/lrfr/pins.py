@@ -33,6 +33,7 @@ from rating.capacity.pins import (
     vector_lengths,
 )
 from rating.lrfr.equation import lower_beyond_round_off
+from rating.lrfr.factors import factored_dw
 from rating.lrfr.multiplier import first_of_least
 from rating.lrfr.positions import LoadPaths
 from rating.model import Pin, TrussGeometry
@@ -736,8 +737,11 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
     together. ``loads``: the positions of the rating loads with their paths under the
     maximum dead-load factors."""
     designs = {d.member: d for d in bridge.member_designs}
-    g_dc, g_dw = dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value
-    N_dead = g_dc * dead.member_forces_dc_kip + g_dw * dead.member_forces_dw_kip
+    # (a measured wearing surface within DW takes its own factor)
+    surface = (dead.member_forces_dw_surface_kip if dead.member_forces_dw_surface_kip is not None
+               else np.zeros_like(dead.member_forces_dw_kip))
+    N_dead = (dead_f["gamma_dc_max"].value * dead.member_forces_dc_kip
+              + factored_dw(dead.member_forces_dw_kip, surface, dead_f, "max"))
     here = [_pin_at_joint(pin, g, designs, N_dead, dependent) for pin in pins]
     found: dict[int, _Found] = {}
     for linear in (True, False):

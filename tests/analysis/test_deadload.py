@@ -72,6 +72,29 @@ def test_lever_rule_and_heavier_truss_is_rated(g):
     assert dc_total == pytest.approx(1.2 * 0.5 * len(g.deck_joints))
 
 
+def test_the_wearing_surface_is_kept_apart_within_dw(g):
+    """DW is the wearing surface and the utilities (AASHTO LRFD 3.3.2 [value from memory]);
+    the wearing surface (DW in psf of deck) is kept apart within it because a measured one
+    takes its own load factor (MBE 6A.4.2.2 [value from memory]). Closed form: its chord
+    forces are the beam moment of its own line load over the depth; DW is the sum."""
+    cs = CrossSection(truss_spacing_ft=18.0, roadway_width_ft=16.0)
+    items = (DeadLoadItem("asphalt 2 in", DeadLoadKind.DW, DeadLoadBasis.PSF_DECK, 25.0),
+             DeadLoadItem("water main", DeadLoadKind.DW, DeadLoadBasis.PLF_BRIDGE, 60.0),
+             DeadLoadItem("deck", DeadLoadKind.DC, DeadLoadBasis.PSF_DECK, 50.0))
+    r = dead_load(g, cs, items, weights(g))
+    f = dict(zip([m.label for m in g.members], r.member_forces_dw_surface_kip, strict=True))
+    w = 25.0 * 16.0 / 1000.0 / 2.0  # klf per truss, the asphalt alone
+    for i in range(2, N // 2 + 1):
+        x = (i - 1) * P
+        assert f[f"L{i - 1}L{i}"] == pytest.approx(w * x * (L - x) / 2.0 / H, rel=1e-9)
+    alone = dead_load(g, cs, items[1:2], weights(g))
+    assert np.allclose(r.member_forces_dw_kip - r.member_forces_dw_surface_kip,
+                       alone.member_forces_dw_kip, rtol=1e-12, atol=1e-12)
+    assert np.allclose(r.joint_loads_dw_kip - r.joint_loads_dw_surface_kip,
+                       alone.joint_loads_dw_kip, rtol=1e-12, atol=1e-12)
+    assert not np.any(alone.member_forces_dw_surface_kip)
+
+
 def test_missing_section_is_named(g):
     w = weights(g)
     del w["U2U3"]

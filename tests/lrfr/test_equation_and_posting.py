@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pytest
 from hypothesis import given
 from hypothesis import strategies as st
@@ -19,6 +20,7 @@ from rating.lrfr.factors import (
     RatingLevel,
     dead_load_factors,
     dynamic_load_allowance,
+    factored_dw,
     legal_live_load_factor,
     live_load_factor,
 )
@@ -43,6 +45,30 @@ def test_equation_dead_load_relieving_takes_minimum_factor():
     r = rating_factor(100.0, SenseLoads(-50.0, -10.0, 60.0), 1.30, DEAD)
     assert r.rf == pytest.approx(151.5 / 78.0)
     assert (r.gamma_dc, r.gamma_dw) == (0.90, 0.65)
+
+
+def test_measured_wearing_surface_and_utilities_are_factored_apart():
+    # MBE 6A.4.2.2 [value from memory]: gamma_DW = 1.25 for a wearing surface of measured
+    # thickness; the utilities in DW keep 1.50 (AASHTO LRFD Table 3.4.1-2 [V]). Hand case:
+    # C = 400, DC = 100, DW = 20 of which 15 is the wearing surface, LL+IM = 80, gamma_LL 1.75:
+    # factored DW = 1.25*15 + 1.50*5 = 26.25; RF = (400 - 125 - 26.25) / 140 = 1.776786;
+    # gamma_DW shown = 26.25 / 20 = 1.3125, so (400 - 1.25*100 - 1.3125*20) / 140 is the same.
+    measured = dead_load_factors(wearing_surface_measured=True)
+    r = rating_factor(400.0, SenseLoads(100.0, 20.0, 80.0, DW_surface=15.0), 1.75, measured)
+    assert r.rf == pytest.approx(248.75 / 140.0)
+    assert r.gamma_dw == pytest.approx(1.3125)
+    # not measured: the whole DW at 1.50, as before
+    assert rating_factor(400.0, SenseLoads(100.0, 20.0, 80.0, DW_surface=15.0), 1.75,
+                         DEAD).rf == pytest.approx(1.75)
+    # relieving: each part takes the minimum 0.65, whatever was measured
+    r = rating_factor(100.0, SenseLoads(-50.0, -10.0, 60.0, DW_surface=-8.0), 1.30, measured)
+    assert r.rf == pytest.approx(151.5 / 78.0) and r.gamma_dw == pytest.approx(0.65)
+    # joint loads: bound "max" and "min" (every part of a downward load adds or relieves)
+    assert factored_dw(np.array([-20.0]), np.array([-15.0]), measured, "max")[0] == \
+        pytest.approx(-26.25)
+    assert factored_dw(-20.0, -15.0, measured, "min") == pytest.approx(-13.0)
+    # no wearing surface within DW: exactly the single-factor product
+    assert factored_dw(20.0, 0.0, measured) == 1.5 * 20.0
 
 
 def test_no_live_load_in_this_sense():
@@ -133,4 +159,8 @@ def test_design_emergency_and_im():
     assert dynamic_load_allowance(d, RidingSurface.SMOOTH).value == 0.33
     assert dynamic_load_allowance(VehicleCategory.LEGAL, RidingSurface.SMOOTH).value == 0.10
     assert dynamic_load_allowance(VehicleCategory.LEGAL, RidingSurface.MINOR).value == 0.20
-    assert dead_load_factors(wearing_surface_measured=True)["gamma_dw_max"].value == 1.25
+    # a measured wearing surface has its own maximum factor; the rest of DW keeps 1.50
+    measured = dead_load_factors(wearing_surface_measured=True)
+    assert measured["gamma_dw_surface_max"].value == 1.25
+    assert measured["gamma_dw_max"].value == 1.50
+    assert "gamma_dw_surface_max" not in dead_load_factors()
