@@ -345,3 +345,32 @@ def test_parker_measured_wearing_surface_and_water_line_take_their_own_factors(o
             checked += 1
     assert checked > 20
     assert any("the rest of DW (utilities) keeps 1.50" in a for a in res.assumptions)
+
+
+def test_parker_names_the_rated_truss_for_dead_and_live_load(outcomes):
+    """The Parker sample's water line hangs toward the right truss, which is rated; its
+    roadway is centred, so the live load is described for the same truss."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    assert any(a.startswith("The right truss is rated") for a in res.assumptions)
+    assert "toward the right truss" in res.distribution["description"]
+    assert not any("combined, conservative" in a for a in res.assumptions)
+
+
+def test_an_off_centre_roadway_combines_the_two_trusses_worst_loads_and_says_so(tmp_path):
+    """The pony sample with its roadway moved toward the right truss (left curb 0.6 m from
+    the left truss instead of 0.3 m; invented): the deck's dead load stays centred, so the
+    trusses tie for dead load and the left one is rated, while the live load's larger share
+    is the right truss's. The two are combined (conservative) and the results say so."""
+    import openpyxl
+
+    pony = next(p for p in SAMPLES if "pony" in p.name)
+    wb = openpyxl.load_workbook(pony)
+    assert wb["Bridge"]["A20"].value.startswith("Left curb from left truss")
+    wb["Bridge"]["B20"] = 0.6
+    book = tmp_path / "pony_off_centre.xlsx"
+    wb.save(book)
+    res = rate_workbook(book).results
+    assert res is not None
+    assert "toward the right truss" in res.distribution["description"]
+    said = [a for a in res.assumptions if "combined, conservative" in a]
+    assert len(said) == 1 and said[0].startswith("The dead load is that of the left truss")

@@ -159,6 +159,15 @@ def dead_load(
     assumptions.append(
         "Dead load reaches the truss at the deck panel points through simple-span stringers; "
         "member self-weight is lumped half to each end joint (common practice).")
+    heavier, lighter = -totals[side], -totals[1 - side]
+    if heavier > lighter * (1.0 + 1e-9):
+        assumptions.append(
+            f"The {rated} truss is rated: it takes the larger share of the deck's dead load "
+            f"({heavier:.1f} kip against {lighter:.1f} kip, the trusses' own weight apart).")
+    else:
+        assumptions.append(
+            "The two trusses take the same share of the deck's dead load; the left one is "
+            "rated (they are alike).")
     return DeadLoadResult(
         joint_loads_dc_kip=P_dc, joint_loads_dw_kip=P_dw, total=total,
         member_forces_dc_kip=lt.solve(P_dc).member_forces_kip,

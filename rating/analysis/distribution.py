@@ -149,6 +149,7 @@ def lateral_distribution(
     multiple_presence: Sequence[float] = DEFAULT_MULTIPLE_PRESENCE,
     two_lanes_20_to_24_ft: bool = True,
     two_lanes_18_to_20_ft: bool = True,
+    prefer: str | None = None,
     where: str = "",
 ) -> DistributionResult:
     """Governing lever-rule fraction of one vehicle's axle loads to one truss, one-lane and
@@ -156,6 +157,9 @@ def lateral_distribution(
 
     Lever rule; LRFD 3.6.1.1.1 and MBE 6A.2.3.2 lanes, LRFD Table 3.6.1.1.2-1 multiple
     presence. [value from memory]
+
+    ``prefer`` ("left" or "right"): the truss named where both get the same share (a
+    symmetric roadway), so that the live load is described for the truss rated for dead load.
     """
     S = float(cross_section.truss_spacing_ft)
     w = float(cross_section.roadway_width_ft)
@@ -208,7 +212,9 @@ def lateral_distribution(
             share = sum(fr) / 2.0  # each wheel line carries half of an axle
             mpf = multiple_presence_factor(k, multiple_presence)
             cases.append(LaneCase(truss, k, mpf, tuple(wheels), share, share * mpf))
-    governing = max(cases, key=lambda c: round(c.factor, 12))  # left truss first on a tie
+    # the left truss first on a tie, or the one preferred
+    order = sorted(cases, key=lambda c: c.truss != prefer) if prefer else cases
+    governing = max(order, key=lambda c: round(c.factor, 12))
     lever = governing.factor
     basis = "lever rule"
     factor = lever

@@ -461,7 +461,14 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _bent_tension_only_relied_on(g, bridge, dependent)
 
-    dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override)
+    dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override,
+                                prefer=dead.rated_truss)
+    if dist.governing.truss != dead.rated_truss:
+        assumptions.append(
+            f"The dead load is that of the {dead.rated_truss} truss (the heavier) and the live "
+            f"load that of the {dist.governing.truss} truss (the larger share): the two are "
+            "combined, conservative where they differ (common practice); rating each truss on "
+            "its own would give a closer result.")
     df = dist.factor
     warnings.extend(dist.warnings)
     span = g.span_ft

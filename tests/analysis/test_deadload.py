@@ -110,3 +110,16 @@ def test_deck_truss_loads_the_upper_chord():
                   weights(g))
     loaded = {g.joints[i].label for i in np.nonzero(r.joint_loads_dc_kip[:, 1])[0]}
     assert loaded == set(g.deck_joints)
+
+
+def test_the_rated_truss_is_named(g):
+    """The heavier truss is rated, and the results say which (the lever rule puts a pipe
+    6 ft right of the centre line mostly on the right truss: 0.5 + 6/18 of it)."""
+    cs = CrossSection(18.0, 16.0)
+    pipe = DeadLoadItem("pipe", DeadLoadKind.DW, DeadLoadBasis.PLF_BRIDGE, 60.0, offset_ft=6.0)
+    r = dead_load(g, cs, (pipe,), weights(g))
+    right = 60.0 / 1000.0 * L * (0.5 + 6 / 18)
+    said = [a for a in r.assumptions if a.startswith("The right truss is rated")]
+    assert said and f"{right:.1f} kip against {60.0 / 1000.0 * L - right:.1f} kip" in said[0]
+    even = dead_load(g, cs, (), weights(g))
+    assert any(a.startswith("The two trusses take the same share") for a in even.assumptions)

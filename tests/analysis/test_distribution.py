@@ -141,3 +141,14 @@ def test_eighteen_to_twenty_ft_roadway_two_half_width_lanes():
     one = lateral_distribution(CrossSection(20.0, 18.0, lane_count_override=1))
     assert one.design_lanes == 1 and one.factor == pytest.approx(0.84)
     assert "MBE 6A.2.3.2" not in one.description
+
+
+def test_a_tie_names_the_truss_rated_for_dead_load():
+    # a centred roadway gives both trusses the same share (hand statics above): the live load
+    # is described for the truss the dead load rates; an off-centre one keeps its own truss
+    left = lateral_distribution(CrossSection(16.0, 14.0))
+    right = lateral_distribution(CrossSection(16.0, 14.0), prefer="right")
+    assert left.governing.truss == "left" and right.governing.truss == "right"
+    assert right.factor == left.factor and "toward the right truss" in right.description
+    off = lateral_distribution(CrossSection(20.0, 12.0, left_curb_ft=6.0), prefer="left")
+    assert off.governing.truss == "right"
