@@ -2,9 +2,11 @@
 
 Pure provision functions first (vectorised over numpy arrays; kip, in^2, ksi), then
 ``compression_checks`` which evaluates them at every location of a ``SectionReport``.
-Effect of the width-thickness check: slender UNSTIFFENED elements (channel flanges, angle
-legs) reduce the resistance through a factor Q = Q_s on the squash load; slender STIFFENED
-elements (webs, plates) only raise a warning, their effective-width factor Q_a is not computed.
+Effect of the width-thickness check (AASHTO LRFD Table 6.9.4.2-1 limits): the squash load is
+P_o = Q F_y A_g with Q = Q_s Q_a. Slender UNSTIFFENED elements (channel flanges, angle legs) give
+Q_s, the least over the elements. Slender STIFFENED elements (webs, cover plates) count with
+their effective width b_e (AISC 360-10 E7.2, Eq. E7-18, f = F_cr of the member with Q = 1.0):
+Q_a = A_eff / A_g with A_eff = A_g - sum (b - b_e) t; a warning states b_e and Q_a.
 """
 
 from __future__ import annotations
@@ -15,7 +17,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from rating.capacity.checks import Check, Sense
-from rating.capacity.sections import SectionAtLocation, SectionReport
+from rating.capacity.sections import ElementAtLocation, SectionAtLocation, SectionReport
 from rating.capacity.tension import SECONDARY_ROLES
 from rating.model import ConnectorKind, Connectors, Material, MemberRole
 
@@ -36,6 +38,12 @@ K_PLATE = 1.40
 [value from memory]"""
 K_WEB = 1.49
 """b/t limit coefficient, webs supported on two edges, LRFD Table 6.9.4.2-1. [value from memory]"""
+K_EFFECTIVE_WIDTH = 1.92
+"""Leading coefficient of b_e, stiffened elements, AISC 360-10 Eq. E7-18. [value from memory]"""
+K_EFFECTIVE_WIDTH_REDUCTION = 0.34
+"""Coefficient of the reduction term of b_e, AISC 360-10 Eq. E7-18. [value from memory]"""
+K_EFFECTIVE_WIDTH_ONSET = 1.49
+"""Eq. E7-18 applies where b/t >= 1.49 sqrt(E/f), AISC 360-10 E7.2(b). [value from memory]"""
 
 
 def nominal_compressive_resistance(A_g, F_y, E, KL_r, Q=1.0):
@@ -110,11 +118,50 @@ def width_thickness_limit(stiffened: bool, element: str, F_y: float, E: float) -
     return k * math.sqrt(E / F_y)
 
 
+def stiffened_effective_width(b_in, t_in, f, E):
+    """Effective width b_e of a uniformly compressed stiffened element, in (vectorised).
+
+    AISC 360-10 E7.2(b), Eq. E7-18 (stiffened elements other than flanges of square and
+    rectangular sections of uniform thickness): where b/t >= 1.49 sqrt(E/f),
+    b_e = 1.92 t sqrt(E/f) [1 - 0.34 / (b/t) sqrt(E/f)] <= b, else b_e = b. The same form is
+    AASHTO LRFD 6.9.4.2.2 in the editions that use Q. [value from memory]
+
+    Args:
+        b_in, t_in: width and thickness of the element, in (t > 0).
+        f: stress on the element, ksi (AISC 360-10 E7.2: F_cr of the member with Q = 1.0).
+        E: ksi.
+    """
+    b = np.asarray(b_in, dtype=float)
+    t = np.asarray(t_in, dtype=float)
+    s = np.sqrt(E / np.asarray(f, dtype=float))
+    lam = b / t
+    b_e = K_EFFECTIVE_WIDTH * t * s * (1.0 - K_EFFECTIVE_WIDTH_REDUCTION / lam * s)
+    # below the onset Eq. E7-18 is outside its range (it would fall again, even below zero)
+    out = np.where(lam >= K_EFFECTIVE_WIDTH_ONSET * s, np.minimum(b_e, b), b)
+    return out if out.ndim else float(out)
+
+
+def stiffened_Q_a(A_g: float, b_in, t_in, f: float, E: float) -> float:
+    """Q_a = A_eff / A_g, A_eff = A_g - sum (b - b_e) t over the slender stiffened elements.
+
+    AISC 360-10 E7.2, Eq. E7-16, with b_e of Eq. E7-18 (``stiffened_effective_width``).
+    [value from memory]
+
+    Args:
+        A_g: gross area, in^2 (> 0). b_in, t_in: widths and thicknesses of the slender
+            stiffened elements, in. f: F_cr of the member with Q = 1.0, ksi. E: ksi.
+    """
+    b = np.asarray(b_in, dtype=float)
+    t = np.asarray(t_in, dtype=float)
+    lost = float(np.sum((b - stiffened_effective_width(b, t, f, E)) * t))
+    return (A_g - lost) / A_g
+
+
 @dataclass(frozen=True)
 class CompressionResult:
     """The compression check of one member (flexural buckling at the governing location, or zero
     resistance) with its warnings and assumptions, K, the governing KL/r (inf: none) and the
-    factor Q for slender unstiffened elements."""
+    slender-element factor Q = Q_s Q_a at the governing location."""
 
     checks: tuple[Check, ...]
     warnings: tuple[str, ...]
@@ -124,16 +171,40 @@ class CompressionResult:
     Q: float
 
 
-def _Q_at(s: SectionAtLocation, F_y: float, E: float) -> tuple[float, list[str]]:
-    """Q (unstiffened elements) and slender stiffened elements at a location."""
+def _Q_at(s: SectionAtLocation, F_y: float,
+          E: float) -> tuple[float, list[ElementAtLocation]]:
+    """Q_s (unstiffened elements) and the slender stiffened elements at a location.
+
+    AASHTO LRFD 6.9.4.2, Table 6.9.4.2-1, and 6.9.4.2.2. [value from memory]
+    """
     un = [e for e in s.elements if not e.stiffened and e.t_in > 0]
     Q = float(np.min(unstiffened_Q(np.array([e.b_in / e.t_in for e in un]), F_y, E))) \
         if un else 1.0
     slender = [e for e in s.elements if e.stiffened and e.t_in > 0
                and e.b_in / e.t_in > width_thickness_limit(True, e.element, F_y, E)]
+    return Q, slender
+
+
+def _Q_a_at(s: SectionAtLocation, slender: list[ElementAtLocation], f: float, F_y: float,
+            E: float) -> tuple[float, str]:
+    """Q_a at a location and the statement of its slender stiffened elements.
+
+    AISC 360-10 E7.2, Eqs. E7-16 and E7-18 (f = F_cr with Q = 1.0). [value from memory]
+    """
+    b = np.array([e.b_in for e in slender])
+    t = np.array([e.t_in for e in slender])
+    b_e = np.atleast_1d(stiffened_effective_width(b, t, f, E))
     notes = [f"{e.part} {e.element} b/t = {e.b_in / e.t_in:.1f} > "
-             f"{width_thickness_limit(True, e.element, F_y, E):.1f}" for e in slender]
-    return Q, notes
+             f"{width_thickness_limit(True, e.element, F_y, E):.1f}, b_e = {be:.2f} of "
+             f"{e.b_in:g} in" for e, be in zip(slender, b_e, strict=True)]
+    return stiffened_Q_a(s.A_g_in2, b, t, f, E), "; ".join(notes)
+
+
+def _Q_text(Q_s: float, Q_a: float) -> str:
+    """Q for the check's detail: Q_s Q_a written out where Q_a reduces."""
+    if Q_a == 1.0:
+        return f"Q = {Q_s:.3f}"
+    return f"Q = Q_s Q_a = {Q_s:.3f} x {Q_a:.3f} = {Q_s * Q_a:.3f}"
 
 
 def compression_checks(report: SectionReport, material: Material, *, K: float,
@@ -212,20 +283,30 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                                 "from memory); the components may buckle between connectors")
     # np.maximum's rule: the first on a tie, NaN if either is NaN
     klr = [x if x >= y or x != x else y for x, y in zip(klr_x, klr_y, strict=True)]
-    Qs = []
-    for s in C:
-        q, notes = _Q_at(s, Fy, E)
-        Qs.append(q)
-        if notes:
+    klr_n = [v if math.isfinite(v) else 1e9 for v in klr]
+    Q_s, slender = zip(*(_Q_at(s, Fy, E) for s in C), strict=True)
+    Q_a = [1.0] * len(C)
+    if any(slender):
+        # AISC 360-10 E7.2: f = F_cr of the member with Q = 1.0 at the same location and
+        # slenderness (no iteration on Q) [value from memory]
+        F_cr1 = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, klr_n)) \
+            / np.where(np.asarray(A) > 0, A, 1.0)
+        for i, s in enumerate(C):
+            if not slender[i] or A[i] <= 0:
+                continue
+            f = float(F_cr1[i])
+            Q_a[i], notes = _Q_a_at(s, slender[i], f, Fy, E)
             warnings.append(f"member {m}: slender stiffened element(s) at {s.location.describe()}"
-                            f" ({'; '.join(notes)}); LRFD 6.9.4.2 limit exceeded, effective-"
-                            "width factor Q_a not computed (unconservative)")
-    Q = Qs
-    Pn = np.atleast_1d(nominal_compressive_resistance(
-        A, Fy, E, [v if math.isfinite(v) else 1e9 for v in klr], Q))
+                            f" ({notes}); LRFD 6.9.4.2 limit exceeded: effective width b_e by "
+                            f"AISC 360-10 E7.2, Eq. E7-18 with f = F_cr(Q = 1) = {f:.2f} ksi "
+                            f"[value from memory], Q_a = A_eff/A_g = {Q_a[i]:.3f} (Eq. E7-16)")
+    # Q_a 1.0 leaves Q_s as it is, to the bit
+    Q = [qs * qa for qs, qa in zip(Q_s, Q_a, strict=True)]
+    Pn = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, klr_n, Q))
     k = int(np.argmin(Pn))
-    if Q[k] < 1.0:
-        warnings.append(f"member {m}: slender unstiffened element(s); Q = {Q[k]:.3f} reduces the "
+    if Q_s[k] < 1.0:
+        q_txt = f"Q = {Q[k]:.3f}" if Q_a[k] == 1.0 else f"Q_s = {Q_s[k]:.3f}"
+        warnings.append(f"member {m}: slender unstiffened element(s); {q_txt} reduces the "
                         "squash load (LRFD 6.9.4.2.2)")
     if report.kind == "rolled shape":
         assumptions.append(f"member {m}: rolled shape taken as nonslender (no element "
@@ -238,7 +319,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     s = C[k]
     axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"
     detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft, KL/r = {klr[k]:.1f} "
-              f"({axis}), Q = {Q[k]:.3f}, F_y = {Fy:g} ksi, E = {E:g} ksi")
+              f"({axis}), {_Q_text(Q_s[k], Q_a[k])}, F_y = {Fy:g} ksi, E = {E:g} ksi")
     chk = Check("compression: flexural buckling", Sense.COMPRESSION, phi_c, float(Pn[k]),
                 "AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
                 s.location, detail)

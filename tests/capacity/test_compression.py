@@ -159,7 +159,7 @@ def test_slenderness_limits_are_warnings():
     assert not any("exceeds" in w for w in run(POST, L=24.0).warnings)
 
 
-def test_slender_flange_reduces_Q_and_slender_plate_warns():
+def test_slender_flange_and_slender_plate_reduce_Q():
     thin = BuiltUpSection(parts=(
         ChannelPart("C1", 10.0, 4.0, 0.3, 0.12, x_in=-4.0, toes=ChannelToes.LEFT),
         ChannelPart("C2", 10.0, 4.0, 0.3, 0.12, x_in=4.0, toes=ChannelToes.RIGHT),
@@ -168,8 +168,17 @@ def test_slender_flange_reduces_Q_and_slender_plate_warns():
     # flange b/t = 4/0.12 = 33.3, between 0.56 sqrt(E/F_y) = 18.7 and 1.03 sqrt(E/F_y) = 34.4
     # (F_y 26): Q_s = 1.415 - 0.74 (b/t) sqrt(F_y/E) (AISC 360-10 E7-5) [value from memory]
     q = 1.415 - 0.74 * (4.0 / 0.12) * math.sqrt(26.0 / 29000.0)
-    assert c.Q == pytest.approx(q)
-    assert any("Q_a not computed" in w for w in c.warnings)  # cover b/t 80 > 1.40 sqrt(E/F_y)
+    # cover b/t = 80 > 1.40 sqrt(E/F_y) = 46.8: b_e by AISC 360-10 Eq. E7-18 with f = F_cr at
+    # Q = 1 (AISC 360-16 E3 written out above), Q_a = A_eff/A_g (Eq. E7-16) [value from memory]
+    f = aisc_360_16_e3_Fcr(c.KL_r, 26.0, 29000.0)
+    s = math.sqrt(29000.0 / f)
+    b_e = 1.92 * 0.25 * s * (1 - 0.34 / 80.0 * s)
+    A_g = section_properties(thin, member="M").compression[0].A_g_in2
+    q_a = 1 - (20.0 - b_e) * 0.25 / A_g
+    assert c.Q == pytest.approx(q * q_a)
+    assert any("Q_a = A_eff/A_g" in w and "cover plate b/t = 80.0 > 46.8" in w
+               for w in c.warnings)
+    assert f"Q = Q_s Q_a = {q:.3f} x {q_a:.3f}" in c.checks[0].detail
 
 
 def test_rolled_shape_compression():
