@@ -81,6 +81,16 @@ def system_factor_row(section: Section, carrying_count: int) -> str:
     return t[kind]
 
 
+def _system_factor_reason(section: Section, carrying_count: int) -> str:
+    """Why a bar or rod section takes the row it does (our mapping, common practice)."""
+    if not isinstance(section, EyebarSet | RodSet):
+        return ""
+    kind = section_kind(section)
+    n = ("two or more bars" if isinstance(section, EyebarSet) else "two or more rods") \
+        if carrying_count >= 2 else ("one bar" if isinstance(section, EyebarSet) else "one rod")
+    return factor_tables()["system_factor_by_section"]["why"].get(f"{kind}, {n}", "")
+
+
 def combined_factor(phi_c: float, phi_s: float, floor: float | None = None) -> float:
     """phi_c x phi_s, not less than 0.85.
 
@@ -174,7 +184,9 @@ def member_factors(design: MemberDesign, findings: Sequence[Finding], carrying_c
     else:
         row = system_factor_row(design.section, carrying_count)
         phi_s = system_factor(row)
-        assumptions.append(f"member {m}: system factor phi_s = {phi_s:g} ({row}; "
+        why = _system_factor_reason(design.section, carrying_count)
+        assumptions.append(f"member {m}: system factor phi_s = {phi_s:g} ({row}"
+                           f"{f': {why}' if why else ''}; "
                            f"{tabs['system_factor']['source']}, {tabs['system_factor']['tag']};"
                            " section mapping common practice)")
     if phi_c * phi_s < lo:

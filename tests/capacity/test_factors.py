@@ -94,3 +94,19 @@ def test_bad_owner_factor():
         member_factors(MemberDesign("M", BARS, STEEL, system_factor=1.3, where="Members!K4"),
                        (), 2)
     assert ei.value.where == "Members!K4" and "member M" in str(ei.value)
+
+
+def test_a_bar_or_rod_says_why_it_takes_its_system_factor_row():
+    """A single rod or bar takes the table's least factor (its row is the welded members'),
+    two or more rods the multiple-eyebar row (our mapping, common practice): the assumption
+    says why, so a reviewer does not read "welded member" as a mistake."""
+    one = member_factors(MemberDesign("C", RodSet(1, 1.25), STEEL), (), 1)
+    said = next(a for a in one.assumptions if "system factor" in a)
+    assert "phi_s = 0.85 (welded member" in said and "a single rod" in said
+    two = member_factors(MemberDesign("H", RodSet(2, 1.25), STEEL), (), 2)
+    said = next(a for a in two.assumptions if "system factor" in a)
+    assert "multiple eyebar member in truss bridge: two or more rods share" in said
+    built = member_factors(MemberDesign("P", BuiltUpSection((PlatePart("p", 1, 1),)), STEEL),
+                           (), 1)
+    said = next(a for a in built.assumptions if "system factor" in a)
+    assert "(riveted member in two-girder, truss or arch bridge; MBE" in said
