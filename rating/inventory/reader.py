@@ -880,6 +880,13 @@ class _Reading:
                 log.error(r.ref("remaining"), f"no metal left on member {member}: record Bar "
                           "state as missing or broken instead of a remaining thickness of 0")
             state = BarState(_s(r, "bar_state") or "sound")
+            note = _s(r, "note") or ""
+            said = damage_in_note(note) if state in (BarState.SOUND, BarState.BENT) else None
+            if said is not None:
+                log.warning(r.ref("bar_state"), f"the note on member {member} speaks of "
+                            f"{said!r} but the bar state is {state.value}: the rating counts "
+                            "the bar or part as carrying its load; if it is cracked or broken, "
+                            "record that bar state (it is then taken as carrying none)")
             pack = bool(_b(r, "pack_rust"))
             cond = _i(r, "condition")
             if (remaining is None and loss is None and state is BarState.SOUND and not pack
@@ -907,7 +914,7 @@ class _Reading:
                                station_ft=station, remaining_thickness_in=remaining,
                                percent_loss=loss, bar_state=state, pack_rust=pack,
                                condition_rating=cond, photo=_s(r, "photo") or "",
-                               note=_s(r, "note") or "", where=r.ref("member")))
+                               note=note, where=r.ref("member")))
         return tuple(out)
 
     def _check_region(self, r: Row, member: str, section: Section,
@@ -1261,3 +1268,20 @@ def _library_ids() -> frozenset[str]:
     """Ids of the library's rating loads and vehicles, case-folded."""
     return frozenset([r.id.casefold() for r in rating_loads()]
                      + [v.id.casefold() for v in library()])
+
+
+_DAMAGE_WORDS = re.compile(
+    r"\b(crack\w*|fractur\w*|broken|break\w*|split\w*|sever\w*|opened|"
+    r"separat\w*|parted)\b", re.IGNORECASE)
+_DENIED = re.compile(r"\b(no|not|nor|without|free of|never)\b[\w\s-]{0,20}$", re.IGNORECASE)
+
+
+def damage_in_note(note: str) -> str | None:
+    """The first word of an inspector's note that speaks of a crack, a fracture or an opened
+    weld (common practice: such a bar is not counted), unless the words just before it deny
+    it ("no crack found"); None where there is none. A screen of the words, not a reading of
+    the note: it only prompts a warning."""
+    for m in _DAMAGE_WORDS.finditer(note):
+        if _DENIED.search(note[max(0, m.start() - 24):m.start()]) is None:
+            return m.group(0)
+    return None

@@ -135,3 +135,33 @@ def test_explicit_geometry(tmp_path) -> None:
     assert {(s.joint, s.kind) for s in g.supports} == {("L0", SupportKind.PIN),
                                                        ("L2", SupportKind.ROLLER)}
     assert g.member("L1U1").tension_only and not g.member("L0L1").tension_only
+
+
+@pytest.mark.parametrize(("note", "state", "word"), [
+    ("forge line of the lower loop opened slightly", None, "opened"),
+    ("hairline crack at the loop weld", "bent", "crack"),
+    ("corrosion at the forge weld; no crack found with dye penetrant", None, None),
+    ("not cracked, light rust", None, None),
+    ("crack through the loop weld", "cracked", None),
+    ("pitting at the thread", None, None),
+])
+def test_a_note_that_speaks_of_a_crack_beside_a_sound_bar_is_a_warning(
+        tmp_path, note: str, state: str | None, word: str | None) -> None:
+    """An inspector's note that speaks of a crack or an opened weld beside a bar recorded
+    sound (or bent) is counted as carrying its load: the reading warns at the bar state, so
+    the engineer records the state that takes it out (common practice: a cracked bar or
+    forge weld is not counted). Words just before that deny it ("no crack found") do not."""
+    from inventory_helpers import cell, find
+
+    d = fresh()
+    d["tables"]["Findings"][2]["note"] = note
+    if state is not None:
+        d["tables"]["Findings"][2]["bar_state"] = state
+    reading = check(tmp_path, d)
+    where = cell("Findings", 2, "bar_state")
+    said = [p for p in reading.problems if "speaks of" in p.message]
+    if word is None:
+        assert said == []
+    else:
+        p = find(reading, where, f"speaks of {word!r}", "warning")
+        assert "member L1U1" in p.message and "record that bar state" in p.message
