@@ -374,3 +374,18 @@ def test_an_off_centre_roadway_combines_the_two_trusses_worst_loads_and_says_so(
     assert "toward the right truss" in res.distribution["description"]
     said = [a for a in res.assumptions if "combined, conservative" in a]
     assert len(said) == 1 and said[0].startswith("The dead load is that of the left truss")
+
+
+def test_the_member_table_explains_a_tension_only_member_the_vehicle_reverses(outcomes):
+    """Where a member's governing check is "compression: tension-only member" (Parker's
+    mains U2L3 and L7U8 go slack under the vehicle), the member table's note says what its RF
+    is; a report with no such row does not carry the sentence."""
+    from rating.report import render_report
+
+    said = "the vehicle reverses the member, and its RF is the live-load level"
+    parker = outcomes["tc0622_parker_1907.xlsx"].results
+    assert any(m.ratings[min(m.ratings, key=lambda k: m.ratings[k].rf)].check
+               == "compression: tension-only member" for m in parker.members if m.ratings)
+    assert said in render_report(parker)
+    pratt = outcomes["tc0417_pratt_1898.xlsx"].results
+    assert said not in render_report(pratt)
