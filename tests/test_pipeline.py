@@ -389,3 +389,14 @@ def test_the_member_table_explains_a_tension_only_member_the_vehicle_reverses(ou
     assert said in render_report(parker)
     pratt = outcomes["tc0417_pratt_1898.xlsx"].results
     assert said not in render_report(pratt)
+
+
+def test_a_rod_is_called_a_rod(outcomes):
+    """The Pratt sample's findings name "rod 1" of hanger L1U1 and counter L3U4: the echo of
+    the findings, the governing finding and the warnings call it so (it read "bar 1")."""
+    res = outcomes["tc0417_pratt_1898.xlsx"].results
+    assert {f.component for f in res.findings if f.member in ("L1U1", "L3U4")} == {"rod 1"}
+    hanger = next(m for m in res.members if m.id == "L1U1")
+    assert any(c.finding.startswith("L1U1 rod 1, thread") for c in hanger.resistance.checks)
+    assert any(w.startswith("member L3U4: rod 1 is bent") for w in res.warnings)
+    assert not any("bar 1" in w for w in res.warnings if "L3U4" in w)

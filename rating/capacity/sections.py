@@ -66,7 +66,7 @@ AISC 360-10 Table J3.2, threaded parts: nominal tensile stress 0.75 F_u on the b
 [value from memory]
 """
 
-_BAR_RE = re.compile(r"^\s*bar\s*#?\s*(\d+)\s*$", re.IGNORECASE)
+_BAR_RE = re.compile(r"^\s*(?:bar|eyebar|rod)\s*#?\s*(\d+)\s*$", re.IGNORECASE)
 _STATION_TOL_FT = 1e-6
 
 
@@ -579,7 +579,8 @@ class _Loss:
 def _components(section: Section, member: str) -> dict[str, str]:
     """Lower-case key -> display name of every component a finding may name."""
     if isinstance(section, EyebarSet | RodSet):
-        return {f"bar {i}": f"bar {i}" for i in range(1, section.count + 1)}
+        word = "bar" if isinstance(section, EyebarSet) else "rod"
+        return {f"bar {i}": f"{word} {i}" for i in range(1, section.count + 1)}
     if isinstance(section, BuiltUpSection):
         return {p.label.strip().lower(): p.label for p in section.parts}
     return {section.designation.strip().lower() or "shape": section.designation or "shape"}
@@ -594,8 +595,9 @@ def _resolve(section: Section, member: str, f: Finding) -> tuple[str, ...]:
         m = _BAR_RE.match(name)
         if m and f"bar {int(m.group(1))}" in comps:
             return (f"bar {int(m.group(1))}",)
-        raise _err(member, f, f"there is no component {name!r}; this member has bars 1 to "
-                              f"{len(comps)} (name one as 'bar 2', or 'all')")
+        word = "bars" if isinstance(section, EyebarSet) else "rods"
+        raise _err(member, f, f"there is no component {name!r}; this member has {word} 1 to "
+                              f"{len(comps)} (name one as '{word[:-1]} 2', or 'all')")
     key = name.lower()
     if key in comps:
         return (key,)

@@ -835,7 +835,7 @@ class _Reading:
                 self.log.error(where, f"member {member} has {section.count} "
                                f"{word}{'s' if section.count > 1 else ''}; there is no {word} {k}")
                 return None
-            return f"bar {k}"
+            return f"{word} {k}"  # as a reviewer calls it (the rating matches either)
         if isinstance(section, BuiltUpSection):
             names = [p.label for p in section.parts]
             for n in names:

@@ -67,7 +67,8 @@ def test_findings_carried_faithfully(base) -> None:
         "bar 2", FindingRegion.BODY, 8.0, 15.0, 5)
     assert f.where == "Findings!B5"
     rod = base.findings_for("L1U1")[0]
-    assert rod.component == "bar 1" and rod.region is FindingRegion.THREAD  # "rod 1" named
+    # a rod is named as a reviewer calls it ("rod 1"), as the workbook names it
+    assert rod.component == "rod 1" and rod.region is FindingRegion.THREAD
 
 
 def test_pins_loads_vehicles_settings(base) -> None:
