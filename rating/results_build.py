@@ -15,7 +15,7 @@ from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction
 from rating.lrfr.posting import posting as legal_load_posting
 from rating.lrfr.reported import reported_rf
-from rating.model import Finding, UnitSystem, VehicleCategory
+from rating.model import Finding, RodSet, UnitSystem, VehicleCategory
 from rating.results import (
     DECISION_NOTE,
     SCHEMA_VERSION,
@@ -48,8 +48,9 @@ COMBINATION = {"TYPE-3S2", "TYPE-3-3", "LEGAL-LANE"}
 SCREENING = {"NRL"}
 
 
-def finding_text(f: Finding | None) -> str:
-    """A finding in a few words for tables: component, where, what is left, the cell."""
+def finding_text(f: Finding | None, rod: bool = False) -> str:
+    """A finding in a few words for tables: component, where, what is left, the cell. On a
+    rod (``rod``) a percent loss is of the diameter: the loss of area it means is given too."""
     if f is None:
         return ""
     parts = [f"{f.member} {f.component}", f.region.value]
@@ -57,7 +58,10 @@ def finding_text(f: Finding | None) -> str:
         parts.append(f"at {f.station_ft:g} ft")
     if f.remaining_thickness_in is not None:
         parts.append(f"{f.remaining_thickness_in:g} in remaining")
-    if f.percent_loss is not None:
+    if f.percent_loss is not None and rod:
+        area = 100.0 * (1.0 - (1.0 - f.percent_loss / 100.0) ** 2)
+        parts.append(f"{f.percent_loss:g}% loss of diameter ({area:.0f}% of area)")
+    elif f.percent_loss is not None:
         parts.append(f"{f.percent_loss:g}% loss")
     if f.bar_state.value != "sound":
         parts.append(f.bar_state.value)
@@ -178,17 +182,17 @@ def _offsets(spacings_ft: tuple[float, ...], memo: dict | None
     return hit
 
 
-def _finding(f: Finding | None, text, memo: dict | None) -> str:
+def _finding(f: Finding | None, text, memo: dict | None, rod: bool = False) -> str:
     """A finding's words (in the bridge's units); written once per finding with ``memo`` (a
     member's governing finding recurs in every case)."""
     if f is None:
         return ""
     if memo is None:
-        return text(finding_text(f))
+        return text(finding_text(f, rod))
     key = ("finding", id(f))
     hit = memo.get(key)
     if hit is None:
-        hit = memo[key] = (text(finding_text(f)), f)  # f kept alive with its id
+        hit = memo[key] = (text(finding_text(f, rod)), f)  # f kept alive with its id
     return hit[0]
 
 
@@ -381,6 +385,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     live_of, rating_of = rating.live, rating.ratings
     for m in g.members:
         cap = rating.capacities[m.label]
+        rod = isinstance(rating.bridge.design_of(m.label).section, RodSet)
         i = idx[m.label]
         live = {}
         ratings = {}
@@ -394,13 +399,13 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             ext = r.extreme  # most often one of the two extremes, placed just above
             at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
             ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
-                                  _finding(r.finding, text, positions))
+                                  _finding(r.finding, text, positions, rod))
         s = cap.summary
         phi_cs = cap.phi_cs
         checks = tuple(
             CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, phi_cs * c.phi_R_n_kip,
                          c.provision, text(c.location.describe()),
-                         text(finding_text(c.finding)))
+                         text(finding_text(c.finding, rod)))
             for c in cap.checks)
         t = cap.governing("tension")
         c_ = cap.governing("compression")

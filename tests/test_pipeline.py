@@ -400,3 +400,16 @@ def test_a_rod_is_called_a_rod(outcomes):
     assert any(c.finding.startswith("L1U1 rod 1, thread") for c in hanger.resistance.checks)
     assert any(w.startswith("member L3U4: rod 1 is bent") for w in res.warnings)
     assert not any("bar 1" in w for w in res.warnings if "L3U4" in w)
+
+
+def test_a_rod_loss_of_diameter_says_the_loss_of_area(outcomes):
+    """On a rod the recorded percent loss is of the diameter; the governing finding says the
+    loss of area it means, 1 - (1 - 0.45)^2 = 69.75 % for the Parker hanger's 45 % (closed
+    form), so a reviewer does not read 45 % as the loss of section."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    hanger = next(m for m in res.members if m.id == "L1U1")
+    said = {c.finding for c in hanger.resistance.checks if c.finding}
+    assert said == {"L1U1 rod 1, thread, at 0.5 ft, 45% loss of diameter (70% of area) "
+                    "(Findings!B5)"}
+    bars = next(m for m in res.members if m.id == "L2L3")
+    assert all("of diameter" not in c.finding for c in bars.resistance.checks)
