@@ -29,7 +29,7 @@ from typing import Any, TextIO
 
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
-from rating.results import DECISION_NOTE, reported_rf
+from rating.results import DECISION_NOTE, bears_on_the_decision, reported_rf
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
@@ -69,6 +69,8 @@ class BridgeRow:
     errors: tuple[str, ...] = ()
     warnings: tuple[str, ...] = ()
     seconds: float = 0.0
+    decision_warnings: tuple[str, ...] = ()  # the rating's warnings that bear on the posting
+    # decision (rating.results.bears_on_the_decision), repeated beside the recommendation
 
     def lowest_legal(self) -> VehicleLine | None:
         legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None]
@@ -176,7 +178,8 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         vehicles=tuple(vehicles), recommendation=results.recommendation, action=action,
         report=html.name if html is not None else "", results_file=js.name,
         errors=(), warnings=tuple(p.format() for p in problems if p.severity != "error"),
-        seconds=seconds)
+        seconds=seconds,
+        decision_warnings=tuple(w for w in results.warnings if bears_on_the_decision(w)))
 
 
 def rate_one(task: _Task) -> BridgeRow:
@@ -370,7 +373,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
             "weight unit", "lowest legal-load RF", "controlling legal load", "action",
-            "recommendation", "errors", "warnings", "problems", "report", "results"]
+            "recommendation", "read before deciding", "errors", "warnings", "problems",
+            "report", "results"]
     for vid, _ in vehicles:
         head += [f"{vid} RF", f"{vid} controlling member", f"{vid} action",
                  f"{vid} safe posting load"]
@@ -383,7 +387,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
                 _cell(r.name), _cell(r.location), r.inspection_date,
                 r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
                 _cell(low.vehicle) if low else "", r.action, _cell(r.recommendation),
-                str(len(r.errors)), str(len(r.warnings)),
+                _cell(" | ".join(r.decision_warnings)), str(len(r.errors)), str(len(r.warnings)),
                 _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
                                                    if len(r.errors) > 20 else "")),
                 r.report, r.results_file]
@@ -419,6 +423,7 @@ class _IndexRow:
     errors_shown: tuple[str, ...]
     more_errors: int
     advice: str  # the recommendation without the closing sentence the index says once
+    decision: tuple[str, ...] = ()  # the decision-bearing warnings, each to its first clause
 
 
 @dataclass(frozen=True)
@@ -434,6 +439,12 @@ class _IndexView:
     footer: str
     seconds: str
     workers: int
+
+
+def _first_clause(text: str) -> str:
+    """A warning to its first clause (up to the first "; " or ". "), for the index's row."""
+    cut = [i for i in (text.find("; "), text.find(". ")) if i > 0]
+    return text[:min(cut)] if cut else text
 
 
 def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
@@ -457,7 +468,8 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
                                         else "nr", v.member))
         item = _IndexRow(r, tuple(cells), r.errors[:max_problems],
                          max(0, len(r.errors) - max_problems),
-                         r.recommendation.removesuffix(DECISION_NOTE))
+                         r.recommendation.removesuffix(DECISION_NOTE),
+                         tuple(_first_clause(w) for w in r.decision_warnings))
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
               "post": sum(1 for r in summary.rows if r.action == "post"),

@@ -278,3 +278,36 @@ def test_csv_says_not_posted_for_a_screening_load_below_one(tmp_path: Path) -> N
 
 def _csv_rows_text(text: str) -> list[dict[str, str]]:
     return list(csv.DictReader(io.StringIO(text.lstrip("\ufeff"))))
+
+
+BENT = ("BENT COUNTER RELIED ON: member L3U4 is recorded bent (Findings!B10) and is counted "
+        "as fully effective in tension; the load path of its panel rests on it.")
+
+
+def _rate_with_a_decision_warning(path: Path, vehicle_ids: list[str] | None = None
+                                  ) -> RateOutcome:
+    from dataclasses import replace
+
+    res = sample_results()
+    if Path(path).name == "a.xlsx":
+        res = replace(res, warnings=(BENT, "member L0L1: pack rust recorded", *res.warnings))
+    return RateOutcome(Path(path), res, ())
+
+
+def test_a_warning_that_bears_on_the_decision_is_beside_the_recommendation(
+        tmp_path: Path) -> None:
+    """A consultant scanning a county's summary sees which bridges carry a warning that bears
+    on the posting decision (rating.results.bears_on_the_decision): the CSV gives it in full in
+    its own column, the index its first clause beside the recommendation; a bridge without
+    one has none, and ordinary warnings stay in the reports."""
+    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": GOOD})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=_rate_with_a_decision_warning)
+    rows = {r["workbook"]: r for r in _csv_rows(out / SUMMARY_CSV)}
+    assert rows["a.xlsx"]["read before deciding"] == BENT
+    assert rows["b.xlsx"]["read before deciding"] == ""
+    text = " ".join(read((out / INDEX_HTML).read_text(encoding="utf-8")).text)
+    assert text.count("Read before deciding:") == 1
+    assert ("BENT COUNTER RELIED ON: member L3U4 is recorded bent (Findings!B10) and is "
+            "counted as fully effective in tension (see the report)") in " ".join(text.split())
+    assert "pack rust" not in text
