@@ -9,7 +9,7 @@ from typing import NamedTuple
 
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
-from rating.capacity.pins import PinCheck, PlateLoad
+from rating.capacity.pins import PHI_B, PinCheck, PlateLoad
 from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction
@@ -234,9 +234,13 @@ def _pin_section_text(chk: PinCheck, case_id: str, system: UnitSystem) -> str:
               else f"{plate.thickness_in:.3f} in")
     F, R = ((from_core(plate.F_kip, "kN"), from_core(plate.bearing_resistance_kip, "kN"))
             if si else (plate.F_kip, plate.bearing_resistance_kip))
+    # the F_y the resistance was worked with (the lower of pin and plate): phi_b 1.5 t D F_y
+    F_y = plate.bearing_resistance_kip / (PHI_B * 1.5 * plate.thickness_in * chk.diameter_in)
+    fy_text = f"{from_core(F_y, 'MPa'):.0f} MPa" if si else f"{F_y:.1f} ksi"
     return (f"bearing of item {plate.position} ({plate.member or 'filler'}, t = {t_text}) "
             f"governs: {F:.1f} {units[2]} against a factored bearing resistance of "
-            f"{R:.1f} {units[2]}; flexure and shear at {section}: {forces}")
+            f"{R:.1f} {units[2]} (phi_b 1.5 t D F_y, F_y = {fy_text}); flexure and shear at "
+            f"{section}: {forces}")
 
 
 def _bearing_plate(chk: PinCheck) -> PlateLoad | None:

@@ -252,8 +252,8 @@ def test_a_pin_where_bearing_governs_names_the_plate_at_its_limit(outcomes):
 
     res = outcomes["tc0622_parker_1907.xlsx"].results
     said = re.compile(r"^bearing of item (\d+) \((\S+), t = ([0-9.]+) in\) governs: "
-                      r"([0-9.]+) kip against a factored bearing resistance of ([0-9.]+) kip; "
-                      r"flexure and shear at z = ")
+                      r"([0-9.]+) kip against a factored bearing resistance of ([0-9.]+) kip "
+                      r"\(phi_b 1\.5 t D F_y, F_y = ([0-9.]+) ksi\); flexure and shear at z = ")
     per_inch: dict[str, float] = {}
     bearing = 0
     for p in res.pins:
@@ -263,13 +263,16 @@ def test_a_pin_where_bearing_governs_names_the_plate_at_its_limit(outcomes):
             continue
         bearing += 1
         assert m is not None, p.governing_section
-        item, member, t, F, R = m.groups()
+        item, member, t, F, R, F_y = m.groups()
         row = p.packing[p.governing_item - 1]
         assert int(item) == p.governing_item and member == row.member
         assert float(t) == pytest.approx(row.thickness, abs=5e-4)
         assert float(F) == pytest.approx(float(R), abs=0.15)
         per_inch.setdefault(member, float(R) / (float(t) * p.diameter))
         assert float(R) / (float(t) * p.diameter) == pytest.approx(per_inch[member], rel=2e-3)
+        # the F_y printed gives the printed resistance: 1.0 x 1.5 t D F_y
+        assert 1.5 * row.thickness * p.diameter * float(F_y) == pytest.approx(float(R),
+                                                                              abs=0.15)
     assert bearing >= 2 and bearing < len(res.pins)
 
 
