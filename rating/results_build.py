@@ -70,29 +70,30 @@ def finding_text(f: Finding | None, rod: bool = False) -> str:
 
 
 def group_member_notes(lines: list[str] | tuple[str, ...]) -> tuple[str, ...]:
-    """Fold "member X: text" lines with the same text into one "members X, Y: text" line."""
-    order: list[str] = []
-    who: dict[str, list[str]] = {}
+    """Fold "member X: text" lines with the same text into one "members X, Y: text" line, and
+    "pin at joint X: text" lines into "pins at joints X, Y: text"."""
+    kinds = (("member ", "member ", "members "),
+             ("pin at joint ", "pin at joint ", "pins at joints "))
+    order: list[tuple[int, str]] = []
+    who: dict[tuple[int, str], list[str]] = {}
     for line in lines:
         head, sep, rest = line.partition(": ")
-        if sep and head.startswith("member ") and " " not in head[7:]:
-            key = rest
-            if key not in who:
-                who[key] = []
-                order.append(key)
-            if head[7:] not in who[key]:
-                who[key].append(head[7:])
-        elif line not in who:
-            who[line] = []
-            order.append(line)
+        kind = next((k for k, (p, _, _) in enumerate(kinds)
+                     if sep and head.startswith(p) and " " not in head[len(p):]), -1)
+        key = (kind, rest if kind >= 0 else line)
+        if key not in who:
+            who[key] = []
+            order.append(key)
+        if kind >= 0 and head[len(kinds[kind][0]):] not in who[key]:
+            who[key].append(head[len(kinds[kind][0]):])
     out = []
-    for key in order:
-        names = who[key]
-        if not names:
-            out.append(key)
+    for kind, text in order:
+        names = who[(kind, text)]
+        if kind < 0:
+            out.append(text)
         else:
-            label = "member " if len(names) == 1 else "members "
-            out.append(f"{label}{', '.join(names)}: {key}")
+            _, one, many = kinds[kind]
+            out.append(f"{one if len(names) == 1 else many}{', '.join(names)}: {text}")
     return tuple(out)
 
 

@@ -416,3 +416,22 @@ def test_a_rod_loss_of_diameter_says_the_loss_of_area(outcomes):
                     "(Findings!B5)"}
     bars = next(m for m in res.members if m.id == "L2L3")
     assert all("of diameter" not in c.finding for c in bars.resistance.checks)
+
+
+def test_parker_pins_say_what_their_check_assumes(outcomes):
+    """The pins' own assumptions reach the results (grouped by text): the bearings' pins take
+    the shoe's reaction where the floorbeam's load acts (the workbook has no place for the
+    shoe), and a member's loss recorded at its head or connection at a pin (L0U1 at L0, U2L3
+    at L3) is said not to reach the packing thicknesses the bearing uses; a loss at the far
+    end of a member is not said at this pin."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    shoe = [a for a in res.assumptions if "the shoe's reaction" in a]
+    assert len(shoe) == 1 and shoe[0].startswith("pins at joints L0, L10: at this bearing")
+    assert any(a.startswith("pins at joints L0, L1, L2") and "floorbeam load is shared" in a
+               for a in res.assumptions)
+    ends = [w for w in res.warnings if "use the plate thicknesses of the Packing sheet" in w]
+    assert any(w.startswith("pin at joint L0: member L0U1 has section loss recorded at its "
+                            "connection (Findings!B11)") for w in ends)
+    assert any(w.startswith("pin at joint L3: member U2L3 has section loss recorded at its "
+                            "head (Findings!B9)") for w in ends)
+    assert not any(w.startswith("pin at joint U2: member U2L3") for w in ends)

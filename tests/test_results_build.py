@@ -74,3 +74,14 @@ def test_si_posting_in_whole_tonnes_rounded_once(pony_rating):
         assert entry.posting_tons / TON_PER_TONNE == pytest.approx(
             math.floor(tonnes / 0.7 * (printed - 0.3) + 1e-6)), case.id
     assert posted
+
+
+def test_notes_of_members_and_of_pins_fold_by_their_text() -> None:
+    from rating.results_build import group_member_notes
+
+    lines = ["member A: rusty", "pin at joint L1: shared", "member B: rusty",
+             "pin at joint L2: shared", "pin at joint L3: other", "plain note",
+             "members C, D: already grouped"]
+    assert group_member_notes(lines) == (
+        "members A, B: rusty", "pins at joints L1, L2: shared", "pin at joint L3: other",
+        "plain note", "members C, D: already grouped")

@@ -298,8 +298,10 @@ def _layout(pin: Pin, actions: Sequence[MemberAction], has_external: bool, Fy_pi
                            "packing item(s) in proportion to thickness")
     elif has_external:
         ext[-1] = 1.0
-        assumptions.append(f"pin at joint {j}: no floorbeam item in the packing; the floorbeam "
-                           f"load is applied at the pin's mid-length (z = {length / 2:g} in)")
+        assumptions.append(f"pin at joint {j}: no floorbeam item in the packing; the force "
+                           "from outside the bars (a floorbeam's load, or at a joint without "
+                           "one the members' self-weight lumped there) is applied at the pin's "
+                           f"mid-length (z = {length / 2:.2f} in)")
     Fy_b = np.full(len(z), Fy_pin)
     if designs:
         for i, n in enumerate(items):

@@ -558,6 +558,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     warnings.extend(_pony_top_chord(g, postings))
     for p in pins:
         warnings.extend(p.warnings)
+        assumptions.extend(p.assumptions)
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
         configs=configs, lines_by_config=lines, cases=cases, live=live, ratings=ratings, pins=pins,

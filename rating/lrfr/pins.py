@@ -36,7 +36,7 @@ from rating.lrfr.equation import lower_beyond_round_off
 from rating.lrfr.factors import factored_dw
 from rating.lrfr.multiplier import first_of_least
 from rating.lrfr.positions import LoadPaths
-from rating.model import Pin, TrussGeometry
+from rating.model import FindingRegion, Pin, TrussGeometry
 
 CHANGE_POINT_WINDOW = 1.1
 """Between two neighbouring positions the search for change points (where the pin reaches
@@ -748,7 +748,51 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
         for mine in _stacks([i for i, h in enumerate(here) if h.linear == linear], here):
             found.update(zip(mine, _search([here[i] for i in mine], loads, linear),
                              strict=True))
-    return tuple(_rate_one(here[i], found[i], g, designs, loads) for i in range(len(here)))
+    rated = (_rate_one(here[i], found[i], g, designs, loads) for i in range(len(here)))
+    return tuple(replace(r, warnings=r.warnings + _end_loss_notes(r.joint, g, bridge),
+                         assumptions=r.assumptions + _support_notes(r.joint, g))
+                 for r in rated)
+
+
+END_REACH = 0.2
+"""A finding at a member's head or connection within this fraction of its length from a
+joint is taken to be at that joint's pin (a finding with no station, at both ends)."""
+
+
+def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
+    """The pin's bearing and packing use the thicknesses of the Packing sheet; section loss
+    recorded at a member's head or connection at this joint does not reach them (common
+    practice: the bar's bearing face at the pin is what carries its force into the pin)."""
+    out = []
+    for m in g.members_at(joint):
+        length = g.member_length_ft(m.label)
+        near_start = m.start == joint
+        for f in bridge.findings_for(m.label):
+            if f.region not in (FindingRegion.HEAD, FindingRegion.CONNECTION):
+                continue
+            if f.remaining_thickness_in is None and f.percent_loss is None:
+                continue
+            if f.station_ft is not None:
+                from_here = f.station_ft if near_start else length - f.station_ft
+                if from_here > END_REACH * length:
+                    continue
+            out.append(f"pin at joint {joint}: member {m.label} has section loss recorded at "
+                       f"its {f.region.value} ({f.where or m.label}); the pin's bearing and "
+                       "packing use the plate thicknesses of the Packing sheet, so record the "
+                       "remaining thickness there where the loss is at this pin's bearing")
+    return tuple(dict.fromkeys(out))
+
+
+def _support_notes(joint: str, g: TrussGeometry) -> tuple[str, ...]:
+    """At a bearing the force from outside the bars is the shoe's reaction together with the
+    floorbeam's load; the pin check takes it where it takes the floorbeam's (the workbook has
+    no place for the shoe's position along the pin)."""
+    if not any(s.joint == joint for s in g.supports):
+        return ()
+    return (f"pin at joint {joint}: at this bearing the force from outside the bars (the "
+            "shoe's reaction with the floorbeam's load) is taken at the floorbeam plates, or "
+            "at mid-pin where there are none; where the shoe bears elsewhere along the pin its "
+            "moments differ (the bearing check of the bars does not depend on it)",)
 
 
 def _rate_one(h: _PinAtJoint, fd: _Found, g: TrussGeometry, designs: Mapping,
