@@ -267,7 +267,7 @@ def test_a_pin_where_bearing_governs_names_the_plate_at_its_limit(outcomes):
         row = p.packing[p.governing_item - 1]
         assert int(item) == p.governing_item and member == row.member
         assert float(t) == pytest.approx(row.thickness, abs=5e-4)
-        assert float(F) == pytest.approx(float(R), abs=0.15)
+        assert F == R  # at the limit: printed alike (236.3 against 236.2 read as over)
         per_inch.setdefault(member, float(R) / (float(t) * p.diameter))
         assert float(R) / (float(t) * p.diameter) == pytest.approx(per_inch[member], rel=2e-3)
         # the F_y printed gives the printed resistance: 1.0 x 1.5 t D F_y
