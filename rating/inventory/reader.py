@@ -972,6 +972,13 @@ class _Reading:
             log.error(r.ref("loss"), f"the remaining thickness {_g(remaining)} in and the loss "
                       f"{_g(loss)} % on member {member} disagree for the {_g(original)} in "
                       f"{what} as built; give one of them")
+        elif remaining < 0.25 * original:
+            # (a value typed in inches in an SI workbook reads as millimetres: 97 % loss)
+            unit = "mm" if self.si else "inches"
+            log.warning(where, f"remaining thickness {_g(remaining)} in on member {member} is "
+                        f"less than a quarter of the {_g(original)} in {what} as built "
+                        f"({100.0 * (1.0 - remaining / original):.0f} % loss); please confirm "
+                        f"it, and that it is in {unit} as this workbook's units say")
 
     # -- pins -----------------------------------------------------------------------------
 

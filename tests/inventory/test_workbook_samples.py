@@ -183,3 +183,25 @@ def test_si_workbook_messages_read_in_si() -> None:
     us = re.compile(r"(?<![\w./^-])\d+(?:\.\d+)? ?(in|ft|ksi|kip|klf|pcf|psf)(?![\w-])")
     assert not [t for t in texts if us.search(t)]
     assert any("MPa" in t for t in texts)
+
+
+def test_inches_typed_in_an_si_workbook_are_questioned(tmp_path: Path) -> None:
+    """In the SI sample a remaining thickness typed in inches (0.61 for 15.5 mm) reads as
+    0.61 mm, 96 % loss, and a packing plate typed in inches (0.52 for 13.3 mm) as a 0.52 mm
+    plate: both are warnings at their cells asking to confirm the value and its unit (the
+    rating would otherwise close the bridge on a slip of units)."""
+    from openpyxl import load_workbook
+
+    wb = load_workbook(SAMPLES_DIR / "tc0903_pony_1903_si.xlsx")
+    assert (wb["Findings"]["B5"].value, wb["Findings"]["F5"].value) == ("L0L1", 15.5)
+    assert (wb["Packing"]["B6"].value, wb["Packing"]["E6"].value) == ("L0", 13.3)
+    wb["Findings"]["F5"] = 0.61
+    wb["Packing"]["E6"] = 0.52
+    book = tmp_path / "inches.xlsx"
+    wb.save(book)
+    r = read_workbook(book)
+    said = {p.where: p.message for p in r.warnings}
+    assert "less than a quarter" in said["Findings!F5"] and "in mm as" in said["Findings!F5"]
+    assert "unusually small" in said["Packing!E6"]
+    clean = read_workbook(SAMPLES_DIR / "tc0903_pony_1903_si.xlsx")
+    assert not any(p.where in ("Findings!F5", "Packing!E6") for p in clean.warnings)
