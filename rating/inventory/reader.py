@@ -894,7 +894,9 @@ class _Reading:
                 log.warning(r.ref("member"), f"the finding on member {member} records no loss, "
                             "bar state, pack rust or condition rating; it does not change the "
                             "rating")
-            component = "all"
+            # (without the member's section the component stays as written, so two bars of
+            # it are not taken for the same one)
+            component = (_s(r, "component") or "all") if design is None else "all"
             if design is not None:
                 comp = self._component(r, member, design.section)
                 if comp is None:

@@ -166,3 +166,20 @@ def test_a_note_that_speaks_of_a_crack_beside_a_sound_bar_is_a_warning(
     else:
         p = find(reading, where, f"speaks of {word!r}", "warning")
         assert "member L1U1" in p.message and "record that bar state" in p.message
+
+
+def test_two_bars_of_a_member_without_a_section_are_not_taken_for_one(tmp_path) -> None:
+    """Where a member's section cannot be read, findings on its rod 1 and rod 2 at the same
+    place are not reported as the same finding recorded twice (the component stays as
+    written)."""
+    d = fresh()
+    d["tables"]["Findings"].append({"member": "L1U1", "component": "rod 2",
+                                    "region": "thread", "station": 0.3, "remaining": 1.0})
+    d["tables"]["Members"] = [m for m in d["tables"]["Members"] if m["member"] != "L1U1"]
+    reading = check(tmp_path, d)
+    assert not any("already recorded" in p.message for p in reading.problems), \
+        [p.format() for p in reading.problems]
+    d2 = fresh()
+    d2["tables"]["Findings"].append(dict(d2["tables"]["Findings"][2]))
+    again = check(tmp_path, d2, name="again.xlsx")
+    assert any("already recorded" in p.message for p in again.problems)
