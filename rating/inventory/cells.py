@@ -108,9 +108,21 @@ def _fmt(v: float) -> str:
     return f"{v:.6g}"
 
 
+_UNIT_NAMES = {"in": "inches", "ft": "feet"}
+"""Units whose symbol reads as a word in a sentence ("a number in in")."""
+
+
 def _unit_words(col: Column, si: bool) -> str:
     unit = col.unit_for(si)
-    return f" in {unit}" if unit and unit != "%" else ""
+    if not unit or unit == "%" or not unit[:1].isalpha():
+        return ""  # (a percent, or a scale such as 0-9, is not a unit to give a number in)
+    return f" in {_UNIT_NAMES.get(unit, unit)}"
+
+
+def _unit_suffix(col: Column, si: bool) -> str:
+    """The unit after a number (" in", " ksi"); none for a scale such as 0-9."""
+    unit = col.unit_for(si)
+    return f" {unit}" if unit and (unit[:1].isalpha() or unit == "%") else ""
 
 
 def _not_a_number(raw: object, col: Column, si: bool) -> Invalid:
@@ -130,8 +142,7 @@ def _out_of_range(v: float, core: float, col: Column, si: bool) -> Invalid | Non
         bound, limit = "at most", col.le
     else:
         return None
-    unit = col.unit_for(si)
-    u = f" {unit}" if unit else ""
+    u = _unit_suffix(col, si)
     hint = ""
     if bound == "at most" and col.unit == "ksi" and not si:
         hint = " (is it in MPa? then set 'Units of this workbook' to SI on the Bridge sheet)"
@@ -141,8 +152,7 @@ def _out_of_range(v: float, core: float, col: Column, si: bool) -> Invalid | Non
 
 def _unusual(v: float, col: Column, si: bool, words: str, limit: float) -> str:
     """The warning for ``v`` beyond a soft limit; ``words`` e.g. "small (below"."""
-    unit = col.unit_for(si)
-    u = f" {unit}" if unit else ""
+    u = _unit_suffix(col, si)
     return (f"{_fmt(v)}{u} is unusually {words} {_fmt(from_column_unit(limit, col, si))}{u}); "
             "please confirm")
 

@@ -1081,9 +1081,11 @@ class _Reading:
                 on_pin = {it.member for _, it, _ in items}
                 absent = [m for m in at_joint.get(joint, []) if m not in on_pin]
                 if absent:
-                    log.error(r.ref("joint"), f"members {_listing(absent)} meet at {joint} but "
-                              "have no plate in its packing; every bar on the pin is needed to "
-                              "check it")
+                    one = len(absent) == 1
+                    log.error(r.ref("joint"), f"member{'' if one else 's'} {_listing(absent)} "
+                              f"meet{'s' if one else ''} at {joint} but "
+                              f"{'has' if one else 'have'} no plate in its packing; every bar "
+                              "on the pin is needed to check it")
                 plates = Counter(it.member for _, it, _ in items)
                 for m_label in sorted(on_pin - {None, FLOORBEAM}):
                     d = by_member.get(str(m_label))

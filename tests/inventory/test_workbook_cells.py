@@ -45,7 +45,7 @@ def test_numbers_and_fractions(raw: object, value: float | None) -> None:
 
 
 @pytest.mark.parametrize("raw, needle", [
-    ("one inch", "must be a number in in; found the text 'one inch'"),
+    ("one inch", "must be a number in inches; found the text 'one inch'"),
     ("1,25", "must be a number"), ("3/0", "must be a number"), (True, "logical value TRUE"),
     (dt.datetime(2024, 1, 2), "is the cell formatted as a date?"),
     (math.inf, "must be a finite number"), (math.nan, "must be a finite number"),
@@ -137,7 +137,23 @@ def test_text_and_labels() -> None:
 
 def test_integer_beyond_the_range_of_a_float_is_refused_not_a_crash() -> None:
     huge = 10**400  # what a number cell of 401 digits reads as
-    assert "must be a finite number in in; found a number too large to read" in bad(huge, DIM)
+    assert "must be a finite number in inches; found a number too large to read" in bad(huge, DIM)
     assert "must be a date" in bad(huge, WHEN)
     assert "at most 10 are read" in bad(huge, LABEL)
     assert ok(12, LABEL) == "12"
+
+
+def test_a_scale_is_not_written_as_a_unit() -> None:
+    """A condition rating (0 to 9) out of range reads "must be at most 9; found 12", not
+    "at most 9 0-9; found 12 0-9"; a length reads "in inches", not "in in"."""
+    from rating.inventory import schema as sc
+    from rating.inventory.cells import parse_number
+
+    cond = next(c for c in sc.FINDINGS.columns if c.key == "condition")
+    got = parse_number(12, cond, False)
+    assert got.message == "must be at most 9; found 12"
+    remaining = next(c for c in sc.FINDINGS.columns if c.key == "remaining")
+    assert parse_number("thin", remaining, False).message == \
+        "must be a number in inches; found the text 'thin'"
+    assert parse_number("thin", remaining, True).message == \
+        "must be a number in mm; found the text 'thin'"

@@ -183,3 +183,14 @@ def test_two_bars_of_a_member_without_a_section_are_not_taken_for_one(tmp_path) 
     d2["tables"]["Findings"].append(dict(d2["tables"]["Findings"][2]))
     again = check(tmp_path, d2, name="again.xlsx")
     assert any("already recorded" in p.message for p in again.problems)
+
+
+def test_one_member_left_out_of_a_packing_is_named_in_the_singular(tmp_path) -> None:
+    d = fresh()
+    kept = [p for p in d["tables"]["Packing"] if p["member"] != "L2U3"]
+    for k, p in enumerate(kept, start=1):
+        p["position"] = k
+    d["tables"]["Packing"] = kept
+    said = [p.message for p in check(tmp_path, d).errors if "no plate" in p.message]
+    assert said == ["member L2U3 meets at L2 but has no plate in its packing; every bar on "
+                    "the pin is needed to check it"]

@@ -93,7 +93,7 @@ CASES = [
     Case("integer list", "cells", form_cell("Bridge", "counter_panels"),
          "must list whole numbers separated by commas"),
     Case("text in number", "cells", cell("Eyebars", 0, "width"),
-         "Bar width of section BC must be a number in in; found the text 'wide'"),
+         "Bar width of section BC must be a number in inches; found the text 'wide'"),
     Case("zero", "cells", cell("Eyebars", 1, "thickness"),
          "Bar thickness of section DG must be greater than 0 in; found 0 in"),
     Case("whole number", "cells", cell("Rods", 0, "count"), "must be a whole number; found 1.5"),
