@@ -117,6 +117,11 @@ def run_rate(args: argparse.Namespace) -> int:
     if outcome.results is None:
         print(f"pintruss: {workbook} was not rated: {len(outcome.errors)} error(s) listed above",
               file=sys.stderr)
+        earlier = [p for p in (html_path, json_path) if p.exists()]
+        if earlier:  # never removed (nothing the user has is lost), but never mistaken
+            print("pintruss: " + " and ".join(str(p) for p in earlier)
+                  + f" {'is' if len(earlier) == 1 else 'are'} from an earlier run and "
+                  "do not reflect this workbook as it is now", file=sys.stderr)
         # an id on the command line that names no vehicle is a usage error, not the workbook's
         return EXIT_USAGE if any(p.where == VEHICLES_OPTION for p in outcome.errors) \
             else EXIT_INPUT

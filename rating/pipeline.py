@@ -121,11 +121,16 @@ def write_outputs(results: RatingResults, out_dir: Path, stem: str,
     """Write the report (HTML) and the results (JSON) atomically; returns their paths."""
     out_dir = Path(out_dir)
     json_path = out_dir / f"{stem}.rating.json"
-    write_atomic(json_path, results_json(results))
-    html_path = None
+    html_path = html = None
+    # both made before either is written: a failure in making the report leaves no new
+    # results file beside an earlier report
+    text = results_json(results)
     if report:
         from rating.report.html import render_report
 
         html_path = out_dir / f"{stem}.rating.html"
-        write_atomic(html_path, render_report(results, paper=paper))
+        html = render_report(results, paper=paper)
+    write_atomic(json_path, text)
+    if html_path is not None and html is not None:
+        write_atomic(html_path, html)
     return html_path, json_path

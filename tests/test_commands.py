@@ -113,3 +113,42 @@ def test_the_printout_states_each_action_in_the_report_words(
         assert lines[s.vehicle_id].endswith(f" {s.action}"), (lines[s.vehicle_id], s.action)
     words = {s.action.split(" for ")[0] for s in summary}
     assert {"design-load rating", "post"} <= words and "none" not in words
+
+
+def test_a_failed_rerun_says_the_outputs_left_in_place_are_from_an_earlier_run(
+        workbook: Path, tmp_path: Path, capsys: pytest.CaptureFixture[str],
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """The report and results of an earlier run stay (nothing the user has is removed), but
+    a run that cannot rate the workbook says they do not reflect it as it is now."""
+    from rating.inventory.problems import Problem
+
+    out = tmp_path / "o"
+    out.mkdir()
+    (out / "bridge.rating.html").write_text("earlier report")
+    (out / "bridge.rating.json").write_text("{}")
+    monkeypatch.setattr(rating.pipeline, "rate_workbook", lambda path, ids=None: RateOutcome(
+        Path(path), None, (Problem("error", "Members!C7", "no section"),)))
+    assert main(["rate", str(workbook), "--out", str(out)]) == 1
+    err = capsys.readouterr().err
+    assert f"{out / 'bridge.rating.html'} and {out / 'bridge.rating.json'} are from an " \
+        "earlier run and do not reflect this workbook as it is now" in err
+    assert (out / "bridge.rating.html").read_text() == "earlier report"
+
+
+def test_a_report_that_cannot_be_made_leaves_no_new_results_beside_an_old_report(
+        workbook: Path, rated: list[Path], tmp_path: Path,
+        monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
+    """Both outputs are made before either is written."""
+    import rating.report.html
+
+    out = tmp_path / "o"
+    out.mkdir()
+    (out / "bridge.rating.html").write_text("earlier report")
+
+    def broken(*args: object, **kwargs: object) -> str:
+        raise OSError("template folder unreadable")
+
+    monkeypatch.setattr(rating.report.html, "render_report", broken)
+    assert main(["rate", str(workbook), "--out", str(out)]) == 1
+    assert not (out / "bridge.rating.json").exists()
+    assert (out / "bridge.rating.html").read_text() == "earlier report"
