@@ -92,12 +92,29 @@ def read_workbook(path: Path) -> WorkbookReading:
     log = ProblemLog()
     reading = _Reading(book, log)
     bridge = reading.bridge()
+    lock = open_elsewhere(path)
+    if lock is not None:
+        log.warning(path.name, f"the workbook seems to be open in a spreadsheet program (its "
+                    f"lock file {lock.name} is beside it): what is read is the file as last "
+                    "saved; edits not yet saved are not in this rating")
     problems, assumptions = tuple(log.problems), tuple(log.assumptions)
     if getattr(reading, "si", False):
         # the messages quote core units; an SI workbook reads them in SI
         problems = tuple(dataclasses.replace(p, message=si_text(p.message)) for p in problems)
         assumptions = tuple(si_text(a) for a in assumptions)
     return WorkbookReading(None if log.has_errors else bridge, problems, assumptions)
+
+
+def open_elsewhere(path: Path) -> Path | None:
+    """The lock file a spreadsheet program keeps beside a workbook it has open ("~$name",
+    "~$" in place of the name's first two letters, or ".~lock.name#"), if there is one."""
+    for name in (f"~${path.name}", f"~${path.name[2:]}", f".~lock.{path.name}#"):
+        try:
+            if path.with_name(name).is_file():
+                return path.with_name(name)
+        except OSError:  # (a folder we may not look into: no notice)
+            continue
+    return None
 
 
 def sheets_read() -> dict[str, int]:

@@ -161,3 +161,18 @@ def test_unreadable_number_is_listed_at_its_cell(tmp_path: Path) -> None:
     assert any(p.where == where and "holds 'inf', which is not a number" in p.message
                for p in r.errors)
     assert r.bridge is None
+
+
+@pytest.mark.parametrize("lock", ["~$w.xlsx", ".~lock.w.xlsx#"])
+def test_a_workbook_open_in_a_spreadsheet_program_is_noticed(tmp_path, lock: str) -> None:
+    """A lock file beside the workbook means it is open elsewhere: the rating reads the file
+    as last saved, and a warning says so (unsaved edits are not in it)."""
+    from inventory_helpers import fresh, write
+
+    from rating.inventory import read_workbook
+
+    book = write(tmp_path / "w.xlsx", fresh())
+    assert not any("lock file" in p.message for p in read_workbook(book).problems)
+    (tmp_path / lock).write_bytes(b"owner")
+    said = [p for p in read_workbook(book).warnings if "lock file" in p.message]
+    assert len(said) == 1 and said[0].where == "w.xlsx" and lock in said[0].message
