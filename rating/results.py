@@ -207,6 +207,12 @@ class PinResult:
     governing_item: int | None = None  # the packing item (numbered from 1, as in the
     # packing table) whose bearing governs in the governing case; None where flexure and
     # shear govern
+    plate_forces: tuple[tuple[float, float], ...] = q(
+        "force each packing item puts on the pin at the rating load of the governing case "
+        "(horizontal, vertical)", "force", default=())
+    mid_pin_force: tuple[float, float] = q(
+        "force from outside the bars at mid-pin, where no floorbeam plate takes it "
+        "(horizontal, vertical)", "force", default=(0.0, 0.0))
 
 
 @dataclass(frozen=True)

@@ -247,6 +247,17 @@ def _pin_section_text(chk: PinCheck, case_id: str, system: UnitSystem) -> str:
             f"{section}: {forces}")
 
 
+def _mid_pin_force(chk: PinCheck | None) -> tuple[float, float]:
+    """What balances the plates' forces where no floorbeam plate takes the force from outside
+    the bars: it acts at mid-pin (rating.capacity.pins)."""
+    if chk is None or not chk.plates:
+        return (0.0, 0.0)
+    h = -sum(pl.F_h_kip for pl in chk.plates)
+    v = -sum(pl.F_v_kip for pl in chk.plates)
+    scale = max(max(abs(pl.F_h_kip), abs(pl.F_v_kip)) for pl in chk.plates)
+    return (h, v) if max(abs(h), abs(v)) > 1e-9 * max(scale, 1.0) else (0.0, 0.0)
+
+
 def _bearing_plate(chk: PinCheck) -> PlateLoad | None:
     """The packing item whose bearing governs the pin check, or None where flexure and shear
     govern (the check's own comparison of the two utilizations)."""
@@ -452,6 +463,9 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             governing_V=gov_chk.V_u_kip if gov_chk else None, governing_case=gov_case,
             governing_item=(plate.position if gov_chk is not None
                             and (plate := _bearing_plate(gov_chk)) is not None else None),
+            plate_forces=(tuple((pl.F_h_kip, pl.F_v_kip) for pl in gov_chk.plates)
+                          if gov_chk is not None else ()),
+            mid_pin_force=_mid_pin_force(gov_chk),
             ratings=pr, warnings=tuple(map(text, p.warnings))))
     unit = "tonne" if system is UnitSystem.SI else "ton"
     weight_tons = {c.id: c.load.gross_weight_tons for c in rating.cases}

@@ -435,3 +435,47 @@ def test_parker_pins_say_what_their_check_assumes(outcomes):
     assert any(w.startswith("pin at joint L3: member U2L3 has section loss recorded at its "
                             "head (Findings!B9)") for w in ends)
     assert not any(w.startswith("pin at joint U2: member U2L3") for w in ends)
+
+
+@pytest.mark.parametrize("name", [p.name for p in SAMPLES])
+def test_pin_moments_follow_from_the_plate_forces_printed(outcomes, name):
+    """Each pin's plate forces at the rating load (printed in its packing table) are in
+    balance, and the moment printed at the governing section is their statics: M = the
+    vector sum over the plates on one side of sum F_i (z - z_i), horizontal and vertical
+    planes combined (closed form; each plate's force at its mid-thickness, and the force from
+    outside the bars at mid-pin where no floorbeam plate takes it, as the report says)."""
+    res = outcomes[name].results
+    checked = 0
+    for p in res.pins:
+        if p.governing_z is None or not p.plate_forces:
+            continue
+        z, zs = 0.0, []
+        for row in p.packing:
+            z += row.gap_before
+            zs.append(z + row.thickness / 2.0)
+            z += row.thickness
+        # with what acts at mid-pin where no floorbeam plate takes the outside force
+        F = np.array([*p.plate_forces, p.mid_pin_force])
+        zs.append(z / 2.0)
+        big = np.abs(F).max()
+        assert np.abs(F.sum(axis=0)).max() <= 1e-9 * big
+        left = np.array(zs) < p.governing_z - 1e-9
+        arm = p.governing_z - np.array(zs)[left]
+        M = math.hypot(*(F[left] * arm[:, None]).sum(axis=0))
+        assert M == pytest.approx(p.governing_M, rel=1e-9, abs=1e-9)
+        checked += 1
+    assert checked == len(res.pins)
+
+
+def test_the_pin_tables_print_the_plate_forces_at_the_rating_load(outcomes):
+    """A checking engineer gets the forces to work the pin's moments from (they were not
+    printed): two rows of each packing table, and what acts at mid-pin where no floorbeam
+    plate takes the outside force (the upper-chord pins of a through truss)."""
+    from rating.report import render_report
+
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    html = render_report(res)
+    rows = sum(-(-len(p.packing) // 12) for p in res.pins)  # a row of 12 plates at most
+    assert html.count("<th>F horizontal (kip)</th>") == rows
+    assert html.count("<th>F vertical (kip)</th>") == rows
+    assert "acts at mid-pin from outside the bars (no floorbeam plate takes it)" in html

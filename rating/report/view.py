@@ -150,6 +150,8 @@ class PackingChunk:
     member: Markup
     thickness: Markup
     gap: Markup
+    force_h: Markup = Markup("")  # the plates' forces on the pin at the rating load
+    force_v: Markup = Markup("")
 
 
 @dataclass(frozen=True)
@@ -166,6 +168,7 @@ class PinView:
     lowest_vehicle: str = ""
     lowest_check: str = ""
     packing_chunks: tuple[PackingChunk, ...] = ()
+    mid_pin: str = ""  # the force from outside the bars at mid-pin, in words ("" if none)
 
 
 @dataclass(frozen=True)
@@ -762,11 +765,26 @@ def _pin_view(p: PinResult, d: Display, bands: svg.RFBands, vmap: Mapping[str, V
     # a last, shorter row of plates is padded to the width of the others (one table: the
     # columns line up)
     width = 12 if len(rows) > 12 else len(rows)
+    lines = [orders, names, thick, gaps]
+    if len(p.plate_forces) == len(rows) and rows:
+        # (signed: a reviewer sums them to the moments and shears printed)
+        lines += [[d.number(fh + 0.0, "force", 1, signed=True) for fh, _ in p.plate_forces],
+                  [d.number(fv + 0.0, "force", 1, signed=True) for _, fv in p.plate_forces]]
     chunks = tuple(PackingChunk(*(Markup(_num_cells(
         [*texts[k:k + 12], *[""] * (width - len(texts[k:k + 12]))]))
-        for texts in (orders, names, thick, gaps)))
+        for texts in lines))
         for k in range(0, len(rows), 12))
     return PinView(p.joint, d.field(p, "diameter"), p.governing_section,
                    rf_cell(low[1].rf if low else None), svg.packing_svg(p, d), p.warnings,
                    lowest_vehicle=_vehicle_label(vmap.get(low[0]), low[0]) if low else "",
-                   lowest_check=low[1].check if low else "", packing_chunks=chunks)
+                   lowest_check=low[1].check if low else "", packing_chunks=chunks,
+                   mid_pin=_mid_pin_text(p, d))
+
+
+def _mid_pin_text(p: PinResult, d: Display) -> str:
+    h, v = p.mid_pin_force
+    if not (h or v) or not p.plate_forces:
+        return ""
+    unit = d.unit("force")
+    return (f"{d.number(h + 0.0, 'force', 1, signed=True)} {unit} horizontal and "
+            f"{d.number(v + 0.0, 'force', 1, signed=True)} {unit} vertical")
