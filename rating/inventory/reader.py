@@ -184,6 +184,26 @@ class _Reading:
 
     # -- top level ------------------------------------------------------------------------
 
+    UNITS_HINT_AFTER = 3
+    """Values past their upper limits in US customary units from which the workbook's values
+    are taken to be SI (metres, millimetres) with its units left at US."""
+
+    def _units_hint(self, where: str, si: bool) -> None:
+        """One error at the units cell where many values are too large for US customary
+        units: SI values in a workbook whose units say US (each value has its own error)."""
+        if si:
+            return
+        over = [p for p in self.log.problems
+                if p.severity == "error" and "must be at most" in p.message
+                and p.message.rstrip().endswith((" in", " ft"))]
+        if len(over) >= self.UNITS_HINT_AFTER:
+            self.log.error(where, f"{len(over)} lengths and thicknesses are beyond their limits "
+                           "in US customary units (for example at "
+                           f"{', '.join(p.where for p in over[:3])}); if the workbook's values "
+                           "are in metres and millimetres, set 'Units of this workbook' to SI")
+            # first in the list: it explains the errors after it
+            self.log.problems.insert(0, self.log.problems.pop())
+
     def bridge(self) -> Bridge | None:
         log = self.log
         for t in sc.TABLES:
@@ -197,6 +217,7 @@ class _Reading:
         t = {spec.name: read_table(self.book, spec, si, log, required=spec is sc.MEMBERS)
              for spec in sc.TABLES}
         self.t = t
+        self._units_hint(b.ref("units"), si)
         info = self._info()
         geometry, member_rows = self._geometry()
         sections = self._sections()

@@ -205,3 +205,24 @@ def test_inches_typed_in_an_si_workbook_are_questioned(tmp_path: Path) -> None:
     assert "unusually small" in said["Packing!E6"]
     clean = read_workbook(SAMPLES_DIR / "tc0903_pony_1903_si.xlsx")
     assert not any(p.where in ("Findings!F5", "Packing!E6") for p in clean.warnings)
+
+
+def test_si_values_with_the_units_left_at_us_are_explained_once_first(tmp_path: Path) -> None:
+    """The SI sample with its units cell blank (read as US customary): every millimetre value
+    is past its limit in inches, each with its own error; one error at the units cell, first
+    in the list, says what they have in common and what to set."""
+    from openpyxl import load_workbook
+
+    wb = load_workbook(SAMPLES_DIR / "tc0903_pony_1903_si.xlsx")
+    assert wb["Bridge"]["B4"].value == "SI"
+    wb["Bridge"]["B4"] = None
+    book = tmp_path / "units_blank.xlsx"
+    wb.save(book)
+    errors = read_workbook(book).errors
+    assert len(errors) > 100
+    first = errors[0]
+    assert first.where == "Bridge!B4"
+    assert "set 'Units of this workbook' to SI" in first.message
+    assert sum("Units of this workbook" in p.message for p in errors) == 1
+    assert not any(p.where == "Bridge!B4" for p in read_workbook(
+        SAMPLES_DIR / "tc0903_pony_1903_si.xlsx").problems)
