@@ -49,14 +49,14 @@ class DeadLoadResult:
     total: ActiveSetSolution  # DC + DW together: decides which tension-only members are slack
     member_forces_dc_kip: np.ndarray  # (n_members,) on the active set of the total
     member_forces_dw_kip: np.ndarray
+    # the part of DW that is the wearing surface (DW given in psf of deck), within the DW
+    # above: its load factor may differ from the rest of DW (utilities), MBE 6A.4.2.2
+    joint_loads_dw_surface_kip: np.ndarray
+    member_forces_dw_surface_kip: np.ndarray
     rated_truss: str  # "left" or "right": the one with the larger dead-load share
     share_by_item: tuple[tuple[str, float], ...]  # (description, share to the rated truss)
     self_weight_kip: float  # one truss, details included
     assumptions: tuple[str, ...]
-    # the part of DW that is the wearing surface (DW given in psf of deck), within the totals
-    # above: its load factor may differ from the rest of DW (utilities), MBE 6A.4.2.2
-    joint_loads_dw_surface_kip: np.ndarray | None = None
-    member_forces_dw_surface_kip: np.ndarray | None = None
 
     @property
     def slack_members(self) -> frozenset[str]:
@@ -171,11 +171,11 @@ def dead_load(
     return DeadLoadResult(
         joint_loads_dc_kip=P_dc, joint_loads_dw_kip=P_dw, total=total,
         member_forces_dc_kip=lt.solve(P_dc).member_forces_kip,
-        member_forces_dw_kip=lt.solve(P_dw).member_forces_kip, rated_truss=rated,
-        share_by_item=tuple((d, (lft, rgt)[side]) for d, lft, rgt in shares),
-        self_weight_kip=total_self, assumptions=tuple(assumptions),
+        member_forces_dw_kip=lt.solve(P_dw).member_forces_kip,
         joint_loads_dw_surface_kip=surface[side],
         member_forces_dw_surface_kip=lt.solve(surface[side]).member_forces_kip,
+        rated_truss=rated, share_by_item=tuple((d, (lft, rgt)[side]) for d, lft, rgt in shares),
+        self_weight_kip=total_self, assumptions=tuple(assumptions),
     )
 
 

@@ -476,8 +476,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     assumptions.extend(notes)
     dead_f = dead_load_factors(st.wearing_surface_measured)
     if st.wearing_surface_measured:
-        if dead.joint_loads_dw_surface_kip is not None \
-                and np.any(dead.joint_loads_dw_surface_kip):
+        if np.any(dead.joint_loads_dw_surface_kip):
             assumptions.append(
                 "gamma_DW = 1.25 for the wearing surface (the DW given in psf of deck), whose "
                 "thickness was field measured (MBE 6A.4.2.2 [value from memory]); the rest of "
@@ -489,7 +488,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 "given in psf of deck (the wearing surface): gamma_DW = 1.50 is used for all DW")
     DC = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dc_kip, strict=True)}
     DW = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_kip, strict=True)}
-    DWs = {m.label: float(f) for m, f in zip(g.members, _dw_surface(dead), strict=True)}
+    DWs = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_surface_kip,
+                                              strict=True)}
 
     dead_states = factored_dead_states(family, dead, dead_f)
     table = RegionTable(family, configs)
@@ -522,8 +522,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                     capacities[lab].phi_s, None)
                 continue
             member_envs[lab] = [e for e, _ in mine]
-        plans = {lab: _sense_plans(g.member(lab), resist[lab], case, DC[lab], DW[lab],
-                                   DWs[lab], dead_f, df, envs_here, lab in dependent)
+        plans = {lab: _sense_plans(g.member(lab), resist[lab], case, df, envs_here,
+                                   lab in dependent)
                  for lab, envs_here in member_envs.items()}
         plans_of[case.id] = plans
         for lab, pl in plans.items():
@@ -576,21 +576,13 @@ def factored_dead_states(family: TrussFamily, dead: DeadLoadResult, dead_f
     """Factored dead-load joint loads and their tension-only states, maximum and minimum
     factor sets (AASHTO LRFD Table 3.4.1-2 [V]); the same for every vehicle position."""
     out = {}
-    surface = (dead.joint_loads_dw_surface_kip if dead.joint_loads_dw_surface_kip is not None
-               else np.zeros_like(dead.joint_loads_dw_kip))
     for gd, gw, bound in ((dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value, "max"),
                           (dead_f["gamma_dc_min"].value, dead_f["gamma_dw_min"].value, "min")):
         # (keyed by the nominal factors; a measured wearing surface takes its own within DW)
-        P = gd * dead.joint_loads_dc_kip + factored_dw(dead.joint_loads_dw_kip, surface,
-                                                       dead_f, bound)
+        P = gd * dead.joint_loads_dc_kip + factored_dw(
+            dead.joint_loads_dw_kip, dead.joint_loads_dw_surface_kip, dead_f, bound)
         out[(gd, gw)] = (P, solve_tension_only(family.geometry, P, family=family))
     return out
-
-
-def _dw_surface(dead: DeadLoadResult) -> np.ndarray:
-    """The member forces of the wearing surface within DW (zeros where none is known)."""
-    f = dead.member_forces_dw_surface_kip
-    return f if f is not None else np.zeros_like(dead.member_forces_dw_kip)
 
 
 @dataclass(frozen=True)
@@ -603,17 +595,14 @@ class _SensePlan:
     ll: tuple[float, ...]
     capacity: float
     check: object
-    gamma_dc: float
-    gamma_dw: float
 
 
 def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: RatingCase,
-                 DC: float, DW: float, DWs: float, dead_f, df: float, envs, dependent: bool
-                 ) -> list[_SensePlan]:
+                 df: float, envs, dependent: bool) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
     extremes over the active sets and its factored resistance and governing check
-    (``resist`` by sense name, :func:`_resistances`); dead-load factors by the sign of the
-    dead load in that sense (AASHTO LRFD Table 3.4.1-2 [V])."""
+    (``resist`` by sense name, :func:`_resistances`). The dead-load factors follow from the
+    sign of the dead load in the sense rated (rating.lrfr.equation.rating_factor)."""
     im = case.im.value
     plans = []
     for sense, name in SENSES:
@@ -623,11 +612,7 @@ def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: Ra
             continue  # the vehicle does not load the member this way
         if sense < 0 and m.tension_only and dependent:
             continue  # a tension-only member goes slack instead; not rated in compression
-        g_dc = dead_f["gamma_dc_max"].value if sense * DC > 0 else dead_f["gamma_dc_min"].value
-        g_dw = dead_f["gamma_dw_max"].value if sense * DW > 0 else dead_f["gamma_dw_min"].value
-        if DWs and DW:  # a measured wearing surface within DW: the weighted factor
-            g_dw = factored_dw(sense * DW, sense * DWs, dead_f) / (sense * DW)
-        plans.append(_SensePlan(sense, name, extremes, ll, *resist[name], g_dc, g_dw))
+        plans.append(_SensePlan(sense, name, extremes, ll, *resist[name]))
     return plans
 
 
@@ -794,7 +779,7 @@ def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
         r = rating_factor(pl.capacity, SenseLoads(pl.sense * DC, pl.sense * DW, pl.ll[k],
                                                   DW_surface=pl.sense * DWs),
                           case.gamma_ll.value, dead_f)
-        cand = _record(m, cap, case, pl, r.rf, "linear", pl.gamma_dc, pl.gamma_dw,
+        cand = _record(m, cap, case, pl, r.rf, "linear", r.gamma_dc, r.gamma_dw,
                        pl.extremes[k])
         if best is None or cand.rf < best.rf:
             best = cand

@@ -738,10 +738,9 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
     maximum dead-load factors."""
     designs = {d.member: d for d in bridge.member_designs}
     # (a measured wearing surface within DW takes its own factor)
-    surface = (dead.member_forces_dw_surface_kip if dead.member_forces_dw_surface_kip is not None
-               else np.zeros_like(dead.member_forces_dw_kip))
     N_dead = (dead_f["gamma_dc_max"].value * dead.member_forces_dc_kip
-              + factored_dw(dead.member_forces_dw_kip, surface, dead_f, "max"))
+              + factored_dw(dead.member_forces_dw_kip, dead.member_forces_dw_surface_kip,
+                            dead_f, "max"))
     here = [_pin_at_joint(pin, g, designs, N_dead, dependent) for pin in pins]
     found: dict[int, _Found] = {}
     for linear in (True, False):
