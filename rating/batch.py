@@ -29,7 +29,7 @@ from typing import Any, TextIO
 
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
-from rating.results import DECISION_NOTE, bears_on_the_decision, reported_rf
+from rating.results import DECISION_NOTE, reported_rf
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
@@ -179,7 +179,7 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         report=html.name if html is not None else "", results_file=js.name,
         errors=(), warnings=tuple(p.format() for p in problems if p.severity != "error"),
         seconds=seconds,
-        decision_warnings=tuple(w for w in results.warnings if bears_on_the_decision(w)))
+        decision_warnings=results.decision_warnings)
 
 
 def rate_one(task: _Task) -> BridgeRow:

@@ -344,6 +344,11 @@ class RatingResults:
     distribution: Mapping[str, Any] = field(default_factory=dict)
     generator: str = ""
 
+    @property
+    def decision_warnings(self) -> tuple[str, ...]:
+        """The warnings that bear on the posting decision (:func:`bears_on_the_decision`)."""
+        return tuple(w for w in self.warnings if bears_on_the_decision(w))
+
     def member(self, member_id: str) -> MemberResult:
         for m in self.members:
             if m.id == member_id:

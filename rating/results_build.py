@@ -237,7 +237,6 @@ def _pin_section_text(chk: PinCheck, case_id: str, system: UnitSystem) -> str:
             if si else (plate.F_kip, plate.bearing_resistance_kip))
     if abs(F - R) <= 1e-6 * R:
         F = R  # at the limit, to the root search's round-off: not printed a tenth apart
-
     # the F_y the resistance was worked with (the lower of pin and plate): phi_b 1.5 t D F_y
     F_y = plate.bearing_resistance_kip / (PHI_B * 1.5 * plate.thickness_in * chk.diameter_in)
     fy_text = f"{from_core(F_y, 'MPa'):.0f} MPa" if si else f"{F_y:.1f} ksi"

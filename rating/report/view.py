@@ -28,7 +28,6 @@ from rating.results import (
     Rating,
     RatingResults,
     VehicleResult,
-    bears_on_the_decision,
     reported_rf,
 )
 
@@ -736,7 +735,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         paper_note=paper_note, generator=results.generator,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
         band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
-        decision_warnings=tuple(w for w in results.warnings if bears_on_the_decision(w)))
+        decision_warnings=results.decision_warnings)
 
 
 def _from_memory(text: str) -> bool:
