@@ -1111,6 +1111,15 @@ class _Reading:
             if joint not in pins:
                 continue
             items = sorted(packing.get(joint, []), key=lambda x: x[0])
+            missing = sorted(set(range(1, max((k for k, _, _ in items), default=0) + 1))
+                             - {k for k, _, _ in items})
+            if missing and items:
+                # (the plates are taken in the order of their positions: a gap may be a plate
+                # left out, which would move every plate after it along the pin)
+                log.warning(items[0][2].ref("position"), f"the packing of the pin at {joint} "
+                            f"has no position {_listing(str(k) for k in missing)}; its plates "
+                            "are taken in order of position with nothing between them; check "
+                            "that no plate was left out")
             if not items and not any(_s(p, "joint") == joint for p in self.t[sc.PACKING.name].rows):
                 log.error(r.ref("joint"), f"the pin at {joint} has no packing rows; list the bars "
                           "on it in order on the Packing sheet (the pin is checked from them), or "

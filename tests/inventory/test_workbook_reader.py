@@ -194,3 +194,18 @@ def test_one_member_left_out_of_a_packing_is_named_in_the_singular(tmp_path) -> 
     said = [p.message for p in check(tmp_path, d).errors if "no plate" in p.message]
     assert said == ["member L2U3 meets at L2 but has no plate in its packing; every bar on "
                     "the pin is needed to check it"]
+
+
+def test_a_gap_in_the_packing_positions_is_questioned(tmp_path) -> None:
+    """Positions 1, 2, 4 ...: a plate may have been left out (each plate's place along the
+    pin follows from those before it), so the reading warns and names the missing one."""
+    d = fresh()
+    for p in d["tables"]["Packing"]:
+        if p["position"] >= 3:
+            p["position"] += 1
+    said = [p.message for p in check(tmp_path, d).warnings if "has no position" in p.message]
+    assert said == ["the packing of the pin at L2 has no position 3; its plates are taken in "
+                    "order of position with nothing between them; check that no plate was "
+                    "left out"]
+    assert not any("has no position" in p.message for p in check(tmp_path, fresh(),
+                                                                 name="ok.xlsx").problems)
