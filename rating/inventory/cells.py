@@ -87,7 +87,10 @@ def from_column_unit(value: float, col: Column, si: bool) -> float:
 
 def _number_from_text(text: str, unit: str) -> float | None:
     s = text.strip().replace("\u2212", "-")
-    for suffix in (unit, '"', "''", "in.", "in"):
+    # the column's own unit, and the ways of writing inches where inches are asked for (an
+    # inch mark in a millimetre column is not a number in millimetres)
+    suffixes = (unit, '"', "''", "in.") if unit == "in" else (unit,)
+    for suffix in suffixes:
         if suffix and s.lower().endswith(suffix.lower()) and len(s) > len(suffix):
             s = s[: -len(suffix)].strip()
             break

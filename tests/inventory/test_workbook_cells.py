@@ -157,3 +157,13 @@ def test_a_scale_is_not_written_as_a_unit() -> None:
         "must be a number in inches; found the text 'thin'"
     assert parse_number("thin", remaining, True).message == \
         "must be a number in mm; found the text 'thin'"
+
+
+@pytest.mark.parametrize("raw", ['1"', "1 in", "1''", "1 in."])
+def test_an_inch_mark_in_a_millimetre_column_is_not_a_number_of_millimetres(raw: str) -> None:
+    """An SI workbook's thickness written with an inch mark is refused (it read as 1 mm);
+    the same text in a US workbook is one inch, and "38 mm" there is refused as before."""
+    assert f"must be a number in mm; found the text {raw!r}" in bad(raw, DIM, si=True)
+    assert ok(raw, DIM) == pytest.approx(1.0)
+    assert ok("25 mm", DIM, si=True) == pytest.approx(25.0 / 25.4)
+    assert "must be a number in inches" in bad("38 mm", DIM)
