@@ -1107,6 +1107,13 @@ class _Reading:
             packing.setdefault(joint, []).append(
                 (pos, PackingItem(member, t, _f(r, "gap") or 0.0), r))
         out: list[Pin] = []
+        no_sheet = self.book.find(sc.PACKING.name) is None
+        if no_sheet and pin_rows:
+            # one error for the missing sheet, not one for each pin
+            log.error(next(iter(pin_rows.values())).ref("joint"), f"the {sc.PACKING.name} "
+                      f"sheet is missing, so the {len(pin_rows)} pin(s) listed here cannot be "
+                      "checked: list the bars on each pin in order on that sheet, or delete "
+                      "the pin rows")
         for joint, r in pin_rows.items():
             if joint not in pins:
                 continue
@@ -1120,7 +1127,8 @@ class _Reading:
                             f"has no position {_listing(str(k) for k in missing)}; its plates "
                             "are taken in order of position with nothing between them; check "
                             "that no plate was left out")
-            if not items and not any(_s(p, "joint") == joint for p in self.t[sc.PACKING.name].rows):
+            if not items and not no_sheet and not any(
+                    _s(p, "joint") == joint for p in self.t[sc.PACKING.name].rows):
                 log.error(r.ref("joint"), f"the pin at {joint} has no packing rows; list the bars "
                           "on it in order on the Packing sheet (the pin is checked from them), or "
                           "delete the pin row")

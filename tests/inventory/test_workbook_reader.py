@@ -209,3 +209,20 @@ def test_a_gap_in_the_packing_positions_is_questioned(tmp_path) -> None:
                     "left out"]
     assert not any("has no position" in p.message for p in check(tmp_path, fresh(),
                                                                  name="ok.xlsx").problems)
+
+
+def test_a_missing_packing_sheet_is_one_error_not_one_per_pin(tmp_path) -> None:
+    from inventory_helpers import write
+
+    from rating.inventory import read_workbook
+
+    d = fresh()
+    d["tables"]["Pins"].append({"joint": "L1", "diameter": 3.5, "material": "M-1"})
+
+    def drop(wb) -> None:
+        del wb["Packing"]
+
+    errors = read_workbook(write(tmp_path / "w.xlsx", d, drop)).errors
+    assert [p.message for p in errors] == [
+        "the Packing sheet is missing, so the 2 pin(s) listed here cannot be checked: list "
+        "the bars on each pin in order on that sheet, or delete the pin rows"]
