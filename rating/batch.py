@@ -473,7 +473,8 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
               "post": sum(1 for r in summary.rows if r.action == "post"),
-              "close": sum(1 for r in summary.rows if r.action == "close")}
+              "close": sum(1 for r in summary.rows if r.action == "close"),
+              "read": sum(1 for r in summary.rows if r.decision_warnings)}
     view = _IndexView(
         title=f"Batch load rating \u2014 {summary.folder.name or summary.folder}",
         folder=str(summary.folder), vehicles=vehicles, rated=tuple(rated),

@@ -311,3 +311,4 @@ def test_a_warning_that_bears_on_the_decision_is_beside_the_recommendation(
     assert ("BENT COUNTER RELIED ON: member L3U4 is recorded bent (Findings!B10) and is "
             "counted as fully effective in tension (see the report)") in " ".join(text.split())
     assert "pack rust" not in text
+    assert "; 1 with a warning to read before deciding." in " ".join(text.split())
