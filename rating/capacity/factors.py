@@ -72,23 +72,23 @@ def system_factor_row(section: Section, carrying_count: int) -> str:
 
     Mapping of sections to MBE Table 6A.4.2.4-1 rows. [common practice]
     """
-    t = factor_tables()["system_factor_by_section"]
+    return factor_tables()["system_factor_by_section"][_section_key(section, carrying_count)]
+
+
+def _section_key(section: Section, carrying_count: int) -> str:
+    """The key of a section in the mapping to the system factor table ("eyebar set, one
+    bar", "built-up", ...)."""
     kind = section_kind(section)
-    if isinstance(section, EyebarSet | RodSet):
-        n = "two or more bars" if isinstance(section, EyebarSet) else "two or more rods"
-        one = "one bar" if isinstance(section, EyebarSet) else "one rod"
-        return t[f"{kind}, {n if carrying_count >= 2 else one}"]
-    return t[kind]
+    if not isinstance(section, EyebarSet | RodSet):
+        return kind
+    word = "bar" if isinstance(section, EyebarSet) else "rod"
+    return f"{kind}, {f'two or more {word}s' if carrying_count >= 2 else f'one {word}'}"
 
 
 def _system_factor_reason(section: Section, carrying_count: int) -> str:
     """Why a bar or rod section takes the row it does (our mapping, common practice)."""
-    if not isinstance(section, EyebarSet | RodSet):
-        return ""
-    kind = section_kind(section)
-    n = ("two or more bars" if isinstance(section, EyebarSet) else "two or more rods") \
-        if carrying_count >= 2 else ("one bar" if isinstance(section, EyebarSet) else "one rod")
-    return factor_tables()["system_factor_by_section"]["why"].get(f"{kind}, {n}", "")
+    why = factor_tables()["system_factor_by_section"]["why"]
+    return why.get(_section_key(section, carrying_count), "")
 
 
 def combined_factor(phi_c: float, phi_s: float, floor: float | None = None) -> float:
