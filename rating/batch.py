@@ -29,7 +29,7 @@ from typing import Any, TextIO
 
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
-from rating.results import DECISION_NOTE, reported_rf
+from rating.results import DECISION_NOTE, EMERGENCY, overall_action, reported_rf
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
@@ -46,7 +46,8 @@ class VehicleLine:
     level: str
     rf: float | None
     member: str
-    action: str  # "none", "post", "close", or "not posted" (a screening load below 1.0)
+    action: str  # "none", "post", "close", "bar" (an emergency vehicle that cannot be
+    # posted) or "not posted" (a screening load below 1.0)
     posting: float | None  # safe posting load, display weight unit, whole units
 
 
@@ -166,11 +167,14 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         action = entry.action if entry is not None else ""
         if entry is not None and entry.not_posted_below_one(v.rating_level):
             action = "not posted"  # as in the report
+        if action == "close" and v.category == EMERGENCY:
+            action = "bar"  # an emergency vehicle that cannot be posted: not a closure
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
                                     entry.member if entry is not None else "", action,
                                     posting))
-    legal = [v.action for v in vehicles if v.level == "legal"]
-    action = "close" if "close" in legal else ("post" if "post" in legal else "none")
+    action = overall_action((results.posting[v.id].action, v.category)
+                            for v in results.vehicles
+                            if v.rating_level == "legal" and v.id in results.posting)
     b = results.bridge
     return BridgeRow(
         workbook=workbook.name, rated=True, structure=b.id, name=b.name, location=b.location,

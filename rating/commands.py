@@ -145,13 +145,14 @@ def run_rate(args: argparse.Namespace) -> int:
 
     d = display_for(res)
     level = {v.id: v.rating_level for v in res.vehicles}
+    category = {v.id: v.category for v in res.vehicles}
     for vid, p in res.posting.items():
         # rounded down, as in the report: 0.996 is never shown as 1.00
         rf = ("no live load" if p.rf == math.inf else "-inf" if p.rf == -math.inf
               else f"{reported_rf(p.rf):.2f}")
         # the action in the report's words (never "none" beside an RF below 1.0)
         print(f"  {vid:<12} RF {rf:>6}  controlled by {p.member or '-':<10} "
-              f"{action_text(p, level.get(vid, ''), d)}")
+              f"{action_text(p, level.get(vid, ''), d, category.get(vid, ''))}")
     print(f"recommendation: {res.recommendation}")
     if html is not None:
         print(f"report:  {html}")

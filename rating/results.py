@@ -13,7 +13,7 @@ import functools
 import json
 import math
 import re
-from collections.abc import Callable, Mapping
+from collections.abc import Callable, Iterable, Mapping
 from dataclasses import dataclass, field
 from types import MappingProxyType
 from typing import Any
@@ -269,6 +269,21 @@ class PostingResultEntry:
         never "no restriction"."""
         return (self.action == "none" and rating_level == "legal" and math.isfinite(self.rf)
                 and reported_rf(self.rf) < 1.0)
+
+
+EMERGENCY = "emergency"
+"""The category of the emergency vehicles (rating.vehicles: VehicleCategory.EMERGENCY)."""
+
+
+def overall_action(actions: Iterable[tuple[str, str]]) -> str:
+    """The bridge's action from each rated vehicle's (action, category): "close" where a truck
+    calls for closing; "post" where one is posted, or where an emergency vehicle cannot be
+    posted (it is barred, not the bridge closed: rating.results_build.recommendation);
+    otherwise "none"."""
+    pairs = list(actions)
+    if any(a == "close" and c != EMERGENCY for a, c in pairs):
+        return "close"
+    return "post" if any(a in ("post", "close") for a, _ in pairs) else "none"
 
 
 @dataclass(frozen=True)

@@ -300,26 +300,48 @@ def recommendation(rating: BridgeRating, unit: str,
                    report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation, always worded for the engineer's decision;
     ``report``: each case's action and posting load in the report's unit
-    (:func:`_report_posting`)."""
+    (:func:`_report_posting`).
+
+    Closing is considered from the trucks (the legal loads, the SHVs and the owner's
+    vehicles): RF below 0.3, or a safe posting load under the 3 tons a bridge kept open must
+    carry (MBE 6A.8.3 and 6A.8.1 [value from memory]). An emergency vehicle that cannot be
+    posted does not close the bridge to all traffic: it is said apart, as a restriction of
+    emergency vehicles for the owner to arrange with the emergency services (common
+    practice; the owner's policy governs)."""
     legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
              and not rating.postings[c.id].screened_out]
-    closing = [c for c in legal if report[c.id].action is PostingAction.CLOSE]
+    ev_all = [c for c in legal if c.category is VehicleCategory.EMERGENCY]
+    trucks_all = [c for c in legal if c.category is not VehicleCategory.EMERGENCY]
+    closing = [c for c in trucks_all if report[c.id].action is PostingAction.CLOSE]
+    ev_barred = [c for c in ev_all if report[c.id].action is PostingAction.CLOSE]
     posted = [c for c in legal if report[c.id].action is PostingAction.POST]
     tail = DECISION_NOTE
+
+    def names(cs: list[RatingCase]) -> str:
+        return ", ".join(f"{c.load.name} (RF {reported_rf(rating.postings[c.id].rf):.2f}, "
+                         f"{rating.postings[c.id].controlling})" for c in cs)
+
+    def why(cs: list[RatingCase]) -> str:
+        low_rf = [c for c in cs if reported_rf(rating.postings[c.id].rf) < 0.3]
+        light = [c for c in cs if c not in low_rf]
+        return "; ".join(([f"the rating factor is below 0.3 for {names(low_rf)}"] if low_rf
+                          else []) + ([f"the safe posting load is less than 3 tons for "
+                                       f"{names(light)}"] if light else []))
+
+    ev_text = ""
+    if ev_barred:
+        ev_text = ((" Emergency vehicles that cannot be posted: " if len(ev_barred) > 1 else
+                    " An emergency vehicle cannot be posted: ") + why(ev_barred) + "; consider "
+                   "barring such vehicles from the bridge and telling the emergency services "
+                   "which route to take (common practice; the owner's policy governs).")
     if closing:
-        low_rf = [c for c in closing if reported_rf(rating.postings[c.id].rf) < 0.3]
-        zero = [c for c in closing if c not in low_rf]
-
-        def names(cs: list[RatingCase]) -> str:
-            return ", ".join(f"{c.load.name} (RF {reported_rf(rating.postings[c.id].rf):.2f}, "
-                             f"{rating.postings[c.id].controlling})" for c in cs)
-
-        reasons = ([f"the rating factor is below 0.3 for {names(low_rf)}"] if low_rf else []) + (
-            [f"the safe posting load rounds down to zero for {names(zero)}"] if zero else [])
-        return "Consider closing the bridge: " + "; ".join(reasons) + "." + tail
+        return "Consider closing the bridge: " + why(closing) + "." + ev_text + tail
     if not posted:
         if not legal:
             return "No legal loads were rated, so no posting is indicated by this run." + tail
+        if ev_barred:
+            return ("No load restriction is indicated for trucks: every truck rated has a "
+                    "rating factor of at least 1.0." + ev_text + tail)
         return ("No load restriction is indicated: every legal load rated has a rating factor "
                 "of at least 1.0." + tail)
 
@@ -343,15 +365,21 @@ def recommendation(rating: BridgeRating, unit: str,
     for c in other:
         groups.append(f"{c.load.name} {amount(c):g} {unit}s")
     trucks = [c for c in posted if c.category is not VehicleCategory.EMERGENCY]
-    text = "Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups) + "."
-    if trucks:
+    if not trucks:
+        text = ("No load restriction is indicated for trucks: every truck rated has a rating "
+                "factor of at least 1.0.")
+        if groups:
+            text += " Post for emergency vehicles: " + "; ".join(groups) + "."
+    else:
+        text = ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)
+                + ".")
         single = min(trucks, key=amount)
         text += (f" A single weight limit for trucks would be {amount(single):g} {unit}s (from "
                  f"{single.load.name}, controlled by {rating.postings[single.id].controlling}).")
     if ev:
         text += (" Emergency vehicles are posted separately from the truck limit (common "
                  "practice; the owner's policy governs).")
-    return text + tail
+    return text + ev_text + tail
 
 
 def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),

@@ -276,6 +276,31 @@ def test_csv_says_not_posted_for_a_screening_load_below_one(tmp_path: Path) -> N
     assert csv_row[f"{vid} action"] == "not posted"
 
 
+def test_an_emergency_vehicle_that_cannot_be_posted_is_barred_not_a_closure(
+        tmp_path: Path) -> None:
+    """An emergency vehicle whose action is "close" (RF below 0.3, or a posting under 3 tons)
+    reads "bar" in the CSV and leaves the bridge's action at "post" (rating.results.
+    overall_action); a truck's "close" makes it "close"."""
+    from dataclasses import replace
+
+    from rating.batch import _row_from_results
+
+    res = sample_results()
+    ev = next(v.id for v in res.vehicles if v.category == "emergency")
+    truck = next(v.id for v in res.vehicles
+                 if v.rating_level == "legal" and v.category != "emergency")
+    barred = replace(res, posting={**res.posting, ev: replace(
+        res.posting[ev], rf=0.25, action="close", posting_tons=None)})
+    row = _row_from_results(tmp_path / "a.xlsx", barred, None, tmp_path / "a.json", (), 0.0)
+    assert next(v for v in row.vehicles if v.vehicle == ev).action == "bar"
+    assert row.action == "post"
+    assert _csv_rows_text(summary_csv([row]))[0][f"{ev} action"] == "bar"
+    closed = replace(barred, posting={**barred.posting, truck: replace(
+        barred.posting[truck], rf=0.2, action="close", posting_tons=None)})
+    row = _row_from_results(tmp_path / "a.xlsx", closed, None, tmp_path / "a.json", (), 0.0)
+    assert row.action == "close"
+
+
 def _csv_rows_text(text: str) -> list[dict[str, str]]:
     return list(csv.DictReader(io.StringIO(text.lstrip("\ufeff"))))
 

@@ -42,21 +42,67 @@ def pony_rating():
     return rate_bridge(read_workbook(PONY_SI).bridge)
 
 
-def test_si_posting_under_one_tonne_is_a_closure(pony_rating):
-    """Type 3, W = 25 tons = 22.68 t, RF 0.33: (25 / 0.7)(0.03) = 1.07 -> 1 ton, but
-    (22.68 / 0.7)(0.03) = 0.97 -> 0 tonnes (MBE 6A.8.3, equation as in Khan 2010 p. 187).
-    An SI report rounds down once, in tonnes, and a posting of zero is a closure; the
-    bridge-level recommendation says so rather than "post for 0 tonnes"."""
+def test_si_posting_under_the_least_tonnes_is_a_closure(pony_rating):
+    """Type 3, W = 25 tons = 22.68 t, RF 0.39: (25 / 0.7)(0.09) = 3.21 -> 3 tons, a posting,
+    but (22.68 / 0.7)(0.09) = 2.92 -> 2 tonnes, under the 3 tons (2.72 t) a bridge kept open
+    must carry (MBE 6A.8.1 [value from memory]; equation MBE 6A.8.3 as in Khan 2010 p. 187).
+    An SI report rounds down once, in tonnes, and the bridge-level recommendation says
+    closing is to be considered rather than "post for 2 tonnes"."""
     cp = pony_rating.postings["TYPE-3"]
-    edge = replace(cp, rf=0.33, result=posting(0.33, 25.0))
-    assert edge.result.posting_tons == 1.0  # in tons
+    edge = replace(cp, rf=0.39, result=posting(0.39, 25.0))
+    assert edge.result.posting_tons == 3.0  # in tons
     rating = replace(pony_rating, postings={**pony_rating.postings, "TYPE-3": edge})
     res = build_results(rating)
     entry = res.posting["TYPE-3"]
     assert entry.action == "close" and entry.posting_tons is None
-    assert "less than one tonne" in entry.note
+    assert "is 2 tonnes, less than the 3 tons (2.7 tonnes)" in entry.note
     assert res.recommendation.startswith("Consider closing the bridge")
-    assert "rounds down to zero for AASHTO legal load Type 3 (RF 0.33" in res.recommendation
+    assert ("the safe posting load is less than 3 tons for AASHTO legal load Type 3 (RF 0.39"
+            in res.recommendation)
+
+
+def _with_case(rating, case_id: str, rf: float):
+    """``rating`` with one case's controlling RF replaced (its posting worked again)."""
+    cp = rating.postings[case_id]
+    W = next(c.load.gross_weight_tons for c in rating.cases if c.id == case_id)
+    return replace(rating, postings={**rating.postings,
+                                     case_id: replace(cp, rf=rf, result=posting(rf, W))})
+
+
+def test_an_emergency_vehicle_that_cannot_be_posted_does_not_close_the_bridge(pony_rating):
+    """An emergency vehicle with RF below 0.3, or a safe posting load under 3 tons, calls for
+    barring such vehicles (and telling the emergency services), not for closing the bridge to
+    all traffic (common practice; the owner's policy governs); a truck still closes it."""
+    from rating.results import overall_action
+
+    ev3 = next(c for c in pony_rating.cases if c.id == "EV3")
+    res = build_results(_with_case(pony_rating, "EV3", 0.25))
+    assert res.posting["EV3"].action == "close"  # the case's own outcome is kept
+    assert not res.recommendation.startswith("Consider closing")
+    assert "An emergency vehicle cannot be posted: the rating factor is below 0.3 for " \
+           f"{ev3.load.name} (RF 0.25" in res.recommendation
+    assert "consider barring such vehicles from the bridge" in res.recommendation
+    actions = [(res.posting[v.id].action, v.category) for v in res.vehicles
+               if v.rating_level == "legal"]
+    assert overall_action(actions) == "post"
+    # with a truck under 0.3 as well, the bridge is to be considered for closing, and the
+    # emergency vehicle is still named apart
+    both = build_results(_with_case(_with_case(pony_rating, "EV3", 0.25), "TYPE-3", 0.2))
+    assert both.recommendation.startswith("Consider closing the bridge: the rating factor is "
+                                          "below 0.3 for AASHTO legal load Type 3 (RF 0.20")
+    assert "An emergency vehicle cannot be posted" in both.recommendation
+    assert overall_action([(both.posting[v.id].action, v.category) for v in both.vehicles
+                           if v.rating_level == "legal"]) == "close"
+
+
+def test_overall_action_from_each_vehicle() -> None:
+    from rating.results import overall_action
+
+    assert overall_action([]) == "none"
+    assert overall_action([("none", "legal"), ("none", "emergency")]) == "none"
+    assert overall_action([("post", "legal"), ("none", "emergency")]) == "post"
+    assert overall_action([("none", "legal"), ("close", "emergency")]) == "post"
+    assert overall_action([("close", "owner"), ("post", "emergency")]) == "close"
 
 
 def test_si_posting_in_whole_tonnes_rounded_once(pony_rating):

@@ -8,6 +8,7 @@ from enum import StrEnum
 
 from rating.lrfr.factors import provisions
 from rating.lrfr.reported import reported_rf
+from rating.units import TON_PER_TONNE
 
 
 class PostingAction(StrEnum):
@@ -45,13 +46,21 @@ def posting_load(rf: float, gross_weight: float) -> float:
     return float(math.floor(safe_posting_load(reported_rf(rf), gross_weight, low) + 1e-9))
 
 
+def least_posting_load(unit: str = "ton") -> float:
+    """The least gross weight a bridge kept open must carry, in ``unit`` ("ton" or "tonne"):
+    3 tons (MBE 6A.8.1 [value from memory]); a safe posting load below it is a closure."""
+    tons = float(provisions()["posting"]["least_tons"])
+    return tons if unit == "ton" else tons / TON_PER_TONNE
+
+
 def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
     """Action for one legal vehicle; ``gross_weight`` in the weight unit named by ``unit``.
 
     RF >= 1: no restriction; 0.3 <= RF < 1: post at the safe posting load rounded down to a
-    whole unit, or consider closing where that rounds down to zero (common practice);
-    RF < 0.3: consider closing (owner's policy governs). MBE 6A.8.3 [value from memory;
-    equation read in Khan 2010, p. 187]. The thresholds, RT and the posting load take the RF
+    whole unit (MBE 6A.8.3, Eq. 6A.8.3-1 [value from memory; equation read in Khan 2010,
+    p. 187]), or consider closing where that is less than 3 tons, the least gross weight a
+    bridge kept open must carry (MBE 6A.8.1 [value from memory]); RF < 0.3: consider closing
+    (MBE 6A.8.3; owner's policy governs). The thresholds, RT and the posting load take the RF
     as reported (:func:`reported_rf`); ``rf`` is kept as computed.
     """
     p = provisions()["posting"]
@@ -61,10 +70,13 @@ def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
         return PostingResult(rf, rt, None, PostingAction.NONE, p["source"])
     if shown >= p["lower_rf"]:
         load = posting_load(rf, gross_weight)
-        if load >= 1.0:
+        least = least_posting_load(unit)
+        if load >= least - 1e-9:
             return PostingResult(rf, rt, load, PostingAction.POST, p["source"])
-        # a posting of zero lets no vehicle cross: that is a closure, not a posting
-        return PostingResult(rf, rt, None, PostingAction.CLOSE, p["zero_source"], (
-            f"the safe posting load (W / 0.7)(RF \u2212 0.3) is less than one {unit}: no "
-            "vehicle could cross"))
+        # a sign for less than the least weight is not a posting: that is a closure
+        in_unit = "" if unit == "ton" else f" ({least:.1f} {unit}s)"
+        return PostingResult(rf, rt, None, PostingAction.CLOSE, p["least_source"], (
+            f"the safe posting load (W / 0.7) \u00d7 (RF \u2212 0.3) is {load:g} {unit}"
+            f"{'' if load == 1 else 's'}, less than the {p['least_tons']:g} tons{in_unit} a "
+            "bridge kept open must carry (MBE 6A.8.1 [value from memory])"))
     return PostingResult(rf, rt, None, PostingAction.CLOSE, p["close_source"])

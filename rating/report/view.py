@@ -21,6 +21,7 @@ from rating.report.svg import esc
 from rating.report.text import breakable
 from rating.results import (
     DECISION_NOTE,
+    EMERGENCY,
     MemberResult,
     PinResult,
     Position,
@@ -28,6 +29,7 @@ from rating.results import (
     Rating,
     RatingResults,
     VehicleResult,
+    overall_action,
     reported_rf,
 )
 
@@ -36,13 +38,18 @@ LEVEL_TEXT = {"inventory": "inventory", "operating": "operating", "legal": "lega
 ACTION_TEXT = {"none": "no restriction", "post": "post", "close": "consider closing"}
 
 
-def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display) -> str:
+def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display,
+                category: str = "") -> str:
     """What a rating case's posting outcome says, in the words of the report's summary (and
     of the command's printout, so the two never differ): the safe posting load in whole
     display units, "design-load rating" for HL-93, "not posted" for a screening load rated
-    below 1.0 (PostingResultEntry.not_posted_below_one)."""
+    below 1.0 (PostingResultEntry.not_posted_below_one), "consider barring" for an emergency
+    vehicle that cannot be posted (the bridge is not closed for it:
+    rating.results_build.recommendation)."""
     if entry is None:
         return DASH
+    if entry.action == "close" and category == EMERGENCY:
+        return "consider barring"
     if entry.action == "post" and entry.posting_tons is not None:
         amount = d.posting(entry.posting_tons)
         unit = d.unit("weight")
@@ -535,7 +542,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         rt = entry.rating_tons if entry is not None else (
             reported_rf(rf) * v.gross_weight if rf is not None and math.isfinite(rf) else None)
         action_key = entry.action if entry is not None else ""
-        action = action_text(entry, v.rating_level, d)
+        action = action_text(entry, v.rating_level, d, v.category)
         posting = DASH
         if entry is not None and entry.action == "post" and entry.posting_tons is not None:
             posting = f"{d.posting(entry.posting_tons)} {units.weight}"
@@ -550,8 +557,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             rf=rf_cell(rf), rating_tons=d.weight(rt), action=action, action_key=action_key,
             posting=posting, note=note,
             alike=", ".join(entry.alike) if entry is not None else ""))
-    actions = {s.action_key for s in summary}
-    worst = "close" if "close" in actions else ("post" if "post" in actions else "none")
+    worst = overall_action((c.entry.action, c.vehicle.category) for c in ctl
+                           if c.entry is not None)
 
     # influence lines of the controlling members (one figure per member, critical vehicle)
     members = {m.id: m for m in results.members}

@@ -270,3 +270,27 @@ def test_a_screening_load_below_one_is_not_shown_as_no_restriction(sample_outcom
     row = next(r for r in build_view(parker.results).summary if r.vehicle_id == "NRL")
     assert float(row.rf.text) < 1.0
     assert row.action == "not posted" and "screening load" in row.note
+
+
+def test_an_emergency_vehicle_that_cannot_be_posted_reads_consider_barring(
+        results_us: RatingResults) -> None:
+    """An emergency vehicle with the action "close" is worded "consider barring" in the
+    summary and leaves the recommendation box at the posting colour (the bridge is not
+    closed for it: rating.results.overall_action); a truck with "close" still reads
+    "consider closing"."""
+    from dataclasses import replace
+
+    ev = next(v.id for v in results_us.vehicles if v.category == "emergency")
+    barred = replace(results_us, posting={**results_us.posting, ev: replace(
+        results_us.posting[ev], rf=0.25, action="close", posting_tons=None)})
+    view = build_view(barred)
+    row = next(s for s in view.summary if s.vehicle_id == ev)
+    assert row.action == "consider barring"
+    assert view.worst_action != "close"
+    truck = next(v.id for v in results_us.vehicles
+                 if v.rating_level == "legal" and v.category != "emergency")
+    closed = replace(barred, posting={**barred.posting, truck: replace(
+        barred.posting[truck], rf=0.2, action="close", posting_tons=None)})
+    view = build_view(closed)
+    assert next(s for s in view.summary if s.vehicle_id == truck).action == "consider closing"
+    assert view.worst_action == "close"
