@@ -1315,6 +1315,11 @@ class _Reading:
         im = _f(s, "im_override")
         da = _f(s, "detail_allowance")
         riding = _s(b, "riding_surface")
+        if _f(b, "adtt") is None and b.ref("adtt"):
+            self.log.warning(b.ref("adtt"), "the ADTT is not given: the legal loads take the "
+                             "live-load factor for an unknown ADTT, the highest of the provision "
+                             "set (MBE Table 6A.4.4.2.3a-1 [value from memory]); give the ADTT "
+                             "from the inventory record for a rating that may be less severe")
         return RatingSettings(
             vehicle_ids=vehicle_ids,
             provision_set=_s(s, "provision_set") or "MBE 2018",

@@ -262,15 +262,18 @@ SETTINGS = FormSheet(
         _c("provision_set", "Provision set", Kind.CHOICE, choices=PROVISION_SETS,
            blank_means="MBE 2018", help="Live-load factors for legal loads by ADTT."),
         _pct("im_override", "Dynamic load allowance override", ge=0, le=100, warn_above=50,
-             blank_means="by vehicle and riding surface"),
+             blank_means="by vehicle and riding surface",
+             help="For the legal loads, SHVs, emergency and owner vehicles; HL-93 keeps 33 %."),
         _c("gamma_ll_override", "Live-load factor override", Kind.NUMBER, gt=0, le=3,
-           warn_below=1.0, warn_above=2.0, blank_means="by vehicle, limit state and ADTT"),
+           warn_below=1.0, warn_above=2.0, blank_means="by vehicle, limit state and ADTT",
+           help="For the legal loads, SHVs, emergency and owner vehicles; HL-93 keeps its "
+                "inventory and operating factors."),
         _c("df_override", "Distribution factor override", Kind.NUMBER, unit="lanes per truss",
            gt=0, le=3, warn_above=1.5, blank_means="lever rule across the floorbeam"),
         _pct("detail_allowance", "Detail allowance on truss self-weight", ge=0, le=100,
              warn_above=40, blank_means="15 % (pins, lacing, rivets, plates)"),
     ),
-    examples={"vehicles": "e.g. HL93, TYPE3, OWN-1", "gamma_ll_override": "e.g. 1.45"},
+    examples={"vehicles": "e.g. HL-93, TYPE-3, OWN-1", "gamma_ll_override": "e.g. 1.45"},
 )
 
 # ---------------------------------------------------------------------------------------------

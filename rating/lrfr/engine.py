@@ -251,7 +251,11 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
             notes.append(f"{load.name} ({load.id}) is not rated: it applies only to spans over "
                          f"{load.min_span_ft:g} ft and this span is {span_ft:g} ft.")
             continue
-        im = dynamic_load_allowance(load.category, st.riding_surface, st.im_override)
+        # the owner's IM is for the loads rated at the legal level; the design-load rating
+        # keeps the IM of LRFD 3.6.2.1 (MBE C6A.4.4.3 [value from memory])
+        im = dynamic_load_allowance(load.category, st.riding_surface,
+                                    None if load.category is VehicleCategory.DESIGN
+                                    else st.im_override)
         if load.category is VehicleCategory.DESIGN:
             for level, suffix in ((RatingLevel.INVENTORY, "INV"), (RatingLevel.OPERATING, "OPR")):
                 g_ll = live_load_factor(load.category, level, st.adtt_one_direction,
@@ -261,6 +265,12 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
             g_ll = live_load_factor(load.category, RatingLevel.LEGAL, st.adtt_one_direction,
                                     st.provision_set, st.gamma_ll_override)
             cases.append(RatingCase(load.id, load, RatingLevel.LEGAL, g_ll, im))
+    if st.im_override is not None and any(
+            c.load.category is VehicleCategory.DESIGN for c in cases):
+        notes.append(f"The owner's dynamic load allowance ({st.im_override:.0%}) applies to the "
+                     "loads rated at the legal level; the design-load rating (HL-93) keeps "
+                     "IM = 33 % of AASHTO LRFD 3.6.2.1 (MBE C6A.4.4.3 reduces IM for legal "
+                     "loads only [value from memory]).")
     return tuple(cases), notes
 
 

@@ -103,6 +103,20 @@ def test_settings_percentages_become_fractions(tmp_path) -> None:
     assert ws[0].where.startswith("Bridge!B")
 
 
+def test_unknown_adtt_is_a_warning_at_its_cell(tmp_path) -> None:
+    """A blank ADTT is allowed (the provision set's unknown-ADTT factor, the highest: MBE
+    Table 6A.4.4.2.3a-1 [value from memory]) but said at its cell, since it can lower every
+    legal-load rating."""
+    d = fresh()
+    d["bridge"].update(adtt=None)
+    r = check(tmp_path, d)
+    assert r.bridge is not None and r.bridge.settings.adtt_one_direction is None
+    hits = [w for w in r.warnings if "the ADTT is not given" in w.message]
+    assert len(hits) == 1 and hits[0].where.startswith("Bridge!B")
+    d["bridge"].update(adtt=40)
+    assert not [w for w in check(tmp_path, d).warnings if "ADTT" in w.message]
+
+
 def test_fractions_tension_only_and_consistent_loss(tmp_path) -> None:
     d = fresh()
     d["tables"]["Eyebars"][0]["thickness"] = "7/8"

@@ -128,6 +128,22 @@ def test_nrl_screen():
     assert r2.postings["NRL"].rf >= 1.0 and r2.postings["SU7"].screened_out
 
 
+def test_owner_im_override_is_for_the_legal_level_only():
+    """The owner's dynamic load allowance replaces the IM of the loads rated at the legal
+    level (MBE C6A.4.4.3 reduces it for legal loads [value from memory]); the design-load
+    rating keeps IM = 33 % (AASHTO LRFD 3.6.2.1), and the assumptions say so."""
+    from rating.lrfr.engine import rating_cases
+
+    bridge = make_pratt_bridge(pins=False, im_override=0.10)
+    cases, notes = rating_cases(bridge, ["HL-93", "TYPE-3", "EV2"], 160.0)
+    im = {c.id: c.im.value for c in cases}
+    assert im == {"HL-93-INV": 0.33, "HL-93-OPR": 0.33, "TYPE-3": 0.10, "EV2": 0.10}
+    assert any("HL-93) keeps IM = 33 %" in n for n in notes)
+    plain, plain_notes = rating_cases(make_pratt_bridge(pins=False), ["HL-93"], 160.0)
+    assert {c.im.value for c in plain} == {0.33}
+    assert not any("keeps IM" in n for n in plain_notes)
+
+
 def test_design_load_is_not_posted(rated):
     assert rated.postings["HL-93-INV"].result.action.value == "none"
     assert "legal loads" in rated.postings["HL-93-INV"].note
