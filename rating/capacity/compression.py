@@ -195,8 +195,9 @@ def _Q_a_at(s: SectionAtLocation, slender: list[ElementAtLocation], f: float, F_
     t = np.array([e.t_in for e in slender])
     b_e = np.atleast_1d(stiffened_effective_width(b, t, f, E))
     notes = [f"{e.part} {e.element} b/t = {e.b_in / e.t_in:.1f} > "
-             f"{width_thickness_limit(True, e.element, F_y, E):.1f}, b_e = {be:.2f} of "
-             f"{e.b_in:g} in" for e, be in zip(slender, b_e, strict=True)]
+             f"{width_thickness_limit(True, e.element, F_y, E):.1f}, b_e = {be:.2f} in of "
+             f"{e.b_in:g} in" for e, be in zip(slender, b_e, strict=True)]  # (each length
+    # with its unit: an SI report converts each "<number> in")
     return stiffened_Q_a(s.A_g_in2, b, t, f, E), "; ".join(notes)
 
 

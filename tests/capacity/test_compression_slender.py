@@ -86,7 +86,7 @@ def test_slender_cover_plate_reduces_the_built_up_member():
     assert chk.R_n_kip < nominal_compressive_resistance(s.A_g_in2, FY, E, KL_r) * 0.99
     assert f"Q = Q_s Q_a = 1.000 x {Q:.3f} = {Q:.3f}" in chk.detail
     w = [w for w in c.warnings if "slender stiffened" in w]
-    assert len(w) == 1 and f"b_e = {b_e:.2f} of 20 in" in w[0] and f"Q_a = A_eff/A_g = {Q:.3f}" \
+    assert len(w) == 1 and f"b_e = {b_e:.2f} in of 20 in" in w[0] and f"Q_a = A_eff/A_g = {Q:.3f}" \
         in w[0] and "Eq. E7-18" in w[0] and "not computed" not in w[0]
 
 

@@ -294,3 +294,19 @@ def test_an_emergency_vehicle_that_cannot_be_posted_reads_consider_barring(
     view = build_view(closed)
     assert next(s for s in view.summary if s.vehicle_id == truck).action == "consider closing"
     assert view.worst_action == "close"
+
+
+def test_the_closing_footnote_states_the_rule_the_posting_applies(
+        html_us: str, html_si: str) -> None:
+    """The summary's footnote gives the least posting load the posting rule applies
+    (rating.lrfr.posting.least_posting_load, MBE 6A.8.1 [value from memory]): the two must
+    not drift apart."""
+    from rating.lrfr.factors import provisions
+    from rating.lrfr.posting import least_posting_load
+
+    tons = provisions()["posting"]["least_tons"]
+    us = re.sub(r"\s+", " ", " ".join(read(html_us).text))
+    si = re.sub(r"\s+", " ", " ".join(read(html_si).text))
+    assert f"a safe posting load under {tons:g} tons, the least a bridge kept open" in us
+    assert (f"a safe posting load under {tons:g} tons ({least_posting_load('tonne'):.1f} "
+            "tonnes), the least a bridge kept open") in si
