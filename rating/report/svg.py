@@ -414,9 +414,11 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     body.append(_text(6, deck_y - 40, f"axles ({display.unit('force')})", size=8,
                       anchor="start", fill="#555"))
     # the influence line
-    xs_line = [lo, stations[0], *stations, stations[-1], hi]
-    ys_line = [0.0, 0.0, *ordinates, 0.0, 0.0]
+    xs_line, ys_line = with_zero_crossings([lo, stations[0], *stations, stations[-1], hi],
+                                           [0.0, 0.0, *ordinates, 0.0, 0.0])
     pts = " ".join(f"{_f(X(a))},{_f(Y(b))}" for a, b in zip(xs_line, ys_line, strict=True))
+    # (with the zero crossings among the points, clipping each point to one sign shades
+    # exactly the stretch of that sign)
     pos_poly = " ".join(f"{_f(X(a))},{_f(Y(max(b, 0.0)))}" for a, b in
                         zip(xs_line, ys_line, strict=True))
     neg_poly = " ".join(f"{_f(X(a))},{_f(Y(min(b, 0.0)))}" for a, b in
@@ -443,8 +445,8 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     if amp_bottom > 8:
         body.append(_text(6, zero_y + amp_bottom / 2 + 3, "compression \u2212", size=8,
                           anchor="start", fill="#2a5a8a"))
-    # station ticks
-    ty = max(zero_y, top_y + room) + 16
+    # station ticks, below the label of the least ordinate where there is one
+    ty = max(zero_y, top_y + room) + 16 + (11 if ordinates[k_min] < -tiny else 0)
     tick_top, tick_bottom, tick_text = _f(zero_y - 3), _f(zero_y + 3), _f(ty)
     for s in stations:
         x = _f(X(s))
@@ -458,6 +460,20 @@ def influence_svg(line: InfluenceLineData, position: Position | None,
     who = vehicle.name if vehicle else "vehicle"
     return _svg(WIDTH, height, f"influence line of member {line.member} with {who}",
                 body, "influence")
+
+
+def with_zero_crossings(xs: list[float], ys: list[float]) -> tuple[list[float], list[float]]:
+    """The points of a piecewise-linear line with a point of ordinate 0 added wherever it
+    changes sign between two points (linear interpolation), so that a shape clipped to one
+    sign ends where the line crosses zero."""
+    out_x, out_y = [xs[0]], [ys[0]]
+    for x0, y0, x1, y1 in zip(xs, ys, xs[1:], ys[1:], strict=False):
+        if (y0 < 0.0 < y1) or (y1 < 0.0 < y0):
+            out_x.append(x0 + (x1 - x0) * y0 / (y0 - y1))
+            out_y.append(0.0)
+        out_x.append(x1)
+        out_y.append(y1)
+    return out_x, out_y
 
 
 # ------------------------------------------------------------------ pin packing

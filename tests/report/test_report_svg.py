@@ -8,6 +8,7 @@ import math
 import xml.etree.ElementTree as ET
 from dataclasses import replace
 
+import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
@@ -23,6 +24,7 @@ from rating.report.svg import (
     legend_svg,
     lowest_rating,
     packing_svg,
+    with_zero_crossings,
 )
 from rating.results import PinResult, Position, RatingResults
 
@@ -190,3 +192,46 @@ def test_coordinates_written_as_rounded_to_a_tenth(x: float) -> None:
     (6 significant digits, no trailing zeros, no negative zero)."""
     v = round(float(x), 1) + 0.0
     assert _f(x) == (f"{v:g}" if abs(v) < 1e6 else f"{v:.1f}")
+
+
+@settings(max_examples=200, deadline=None)
+@given(ys=st.lists(st.floats(-2.0, 2.0), min_size=2, max_size=12))
+def test_zero_crossings_added_where_the_line_changes_sign(ys: list[float]) -> None:
+    """Closed form: between two points of opposite sign a line crosses zero at
+    x0 + (x1 - x0) y0 / (y0 - y1); with those points added no two neighbours have opposite
+    signs, and the line through the new points is the same line (same ordinates at every
+    old point, in order)."""
+    xs = [float(i) for i in range(len(ys))]
+    nx, ny = with_zero_crossings(xs, ys)
+    assert all(not (a < 0.0 < b or b < 0.0 < a) for a, b in zip(ny, ny[1:], strict=False))
+    assert nx == sorted(nx) and len(nx) == len(ny)
+    given_points = list(zip(xs, ys, strict=True))
+    assert [p for p in zip(nx, ny, strict=True) if p in given_points] == given_points
+    for x, y in zip(nx, ny, strict=True):
+        assert y == pytest.approx(float(np.interp(x, xs, ys)), abs=1e-12)
+
+
+def test_influence_shading_ends_where_the_line_crosses_zero(results_us: RatingResults) -> None:
+    """A line that changes sign between panel points (a diagonal): the tension shading ends
+    at the zero crossing (closed form: 20 + 20 x 0.6 / 0.8 = 35 ft), not at the next panel
+    point (it ran a panel too far), and the compression shading starts there."""
+    line = replace(results_us.influence_lines[0], stations=(0.0, 20.0, 40.0, 60.0),
+                   ordinates=(0.0, 0.6, -0.2, 0.0))
+    root = _parse(influence_svg(line, None, None, US))
+    il = root.find(".//s:polyline[@class='il']", NS)
+    pts = [tuple(map(float, q.split(","))) for q in il.get("points").split()]
+    zero_y = pts[0][1]  # the line starts on the axis
+    x_at_0, x_at_60 = pts[1][0], pts[-2][0]  # stations 0 and 60: station -> x is linear
+
+    def x_of(station: float) -> float:
+        return x_at_0 + (x_at_60 - x_at_0) * station / 60.0
+
+    def points(fill: str) -> list[tuple[float, float]]:
+        poly = next(q for q in root.findall(".//s:polygon", NS) if q.get("fill") == fill)
+        return [tuple(map(float, q.split(","))) for q in poly.get("points").split()]
+
+    tension, compression = points("#f3c9b8"), points("#c3d6ea")
+    assert max(x for x, y in tension if y < zero_y - 1e-6) <= x_of(20.0) + 0.2
+    assert any(abs(x - x_of(35.0)) <= 0.2 and abs(y - zero_y) <= 0.1 for x, y in tension)
+    assert min(x for x, y in compression if y > zero_y + 1e-6) >= x_of(35.0) + 1.0
+    assert any(abs(x - x_of(35.0)) <= 0.2 for x, _ in compression)
