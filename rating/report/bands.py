@@ -24,8 +24,9 @@ class RFBands:
     """Shading of members by their lowest rating factor (our own legend).
 
     ``edges`` are the band limits; the bands are RF < e0, e0 <= RF < e1, e1 <= RF < e2,
-    RF >= e2, and "not rated". Lower bands are drawn heavier so that a black-and-white print
-    still tells them apart.
+    RF >= e2, and "not rated". Lower bands are drawn heavier and in darker colours (the
+    lightness falls band by band), so that a black-and-white print still tells them apart and
+    ranks them the same way: a pin's circle, whose size does not change, by its grey alone.
     """
 
     edges: tuple[float, float, float] = (0.3, 1.0, 1.2)
@@ -38,7 +39,7 @@ class RFBands:
             Band(k0, f"RF < {a}", "#8e1b1b", 6.0),
             Band(k1, f"{a} \u2264 RF < {b}", "#e0702a", 4.5),
             Band(k2, f"{b} \u2264 RF < {c}", "#d9b526", 3.2),
-            Band(k3, f"RF \u2265 {c}", "#2f6f9f", 2.2),
+            Band(k3, f"RF \u2265 {c}", "#9cc3e4", 2.2),
             Band(nr, "not rated", "#9a9a9a", 1.6, "5 3"),
         )
 

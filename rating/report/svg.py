@@ -114,24 +114,48 @@ def _arrow_marker(mid: str, colour: str) -> str:
 
 # ------------------------------------------------------------------ elevation
 
+def _cross(a: tuple[float, float], b: tuple[float, float], c: tuple[float, float],
+           d: tuple[float, float]) -> bool:
+    """Whether segments ab and cd cross at a point inside both (not at an end)."""
+    def side(p: tuple[float, float], q: tuple[float, float], r: tuple[float, float]) -> float:
+        return (q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0])
+
+    d1, d2 = side(c, d, a), side(c, d, b)
+    d3, d4 = side(a, b, c), side(a, b, d)
+    return d1 * d2 < 0.0 and d3 * d4 < 0.0
+
+
 def _label_fractions(members: Sequence[MemberResult], pos: dict[str, tuple[float, float]]
                      ) -> dict[str, float]:
-    """Where along each member its label sits: mid-length, moved apart where two members
-    cross at mid-length (counters and the main diagonal of their panel)."""
-    mids: dict[tuple[float, float], list[str]] = {}
+    """Where along each member its label sits: mid-length, moved apart where members cross
+    (counters and the main diagonal of their panel, whether they cross at mid-length as in a
+    parallel-chord panel or off it under a sloping chord)."""
+    ends = {m.id: (pos[m.joints[0]], pos[m.joints[1]]) for m in members}
+    group = {m.id: m.id for m in members}  # union-find over the crossing pairs
+
+    def root(i: str) -> str:
+        while group[i] != i:
+            group[i] = group[group[i]]
+            i = group[i]
+        return i
+
+    for k, m in enumerate(members):
+        for n in members[k + 1:]:
+            if set(m.joints) & set(n.joints):
+                continue
+            if _cross(*ends[m.id], *ends[n.id]):
+                group[root(m.id)] = root(n.id)
+    crossing: dict[str, list[str]] = {}
     for m in members:
-        a, b = pos[m.joints[0]], pos[m.joints[1]]
-        key = (round((a[0] + b[0]) / 2, 1), round((a[1] + b[1]) / 2, 1))
-        mids.setdefault(key, []).append(m.id)
+        crossing.setdefault(root(m.id), []).append(m.id)
     out: dict[str, float] = {}
-    for ids in mids.values():
+    for ids in crossing.values():
         if len(ids) == 1:
             out[ids[0]] = 0.5
             continue
         placed: list[tuple[float, float]] = []
         for mid in ids:  # greedy: each label as far as possible from those already placed
-            m = next(mm for mm in members if mm.id == mid)
-            a, b = pos[m.joints[0]], pos[m.joints[1]]
+            a, b = ends[mid]
 
             def spot(t: float, a: tuple[float, float] = a, b: tuple[float, float] = b
                      ) -> tuple[float, float]:
@@ -242,8 +266,10 @@ def elevation_svg(results: RatingResults, display: Display,
     body.extend(labels)
     for jid, (x, y) in pos.items():  # joint labels outside the truss
         below = y >= y_low - 1e-6 or joints[jid].support
-        jy = y + (28 if joints[jid].support else 22 if joints[jid].deck else 14) \
-            if below else y - 9
+        # (beneath a bearing's ground line: a roller's stands 6 px lower than a pin's)
+        support = joints[jid].support
+        jy = y + ((34 if support == "roller" else 28) if support else 22 if joints[jid].deck
+                  else 14) if below else y - 9
         body.append(_text(x, jy, jid, size=8, fill="#555", cls="jlabel"))
     # span dimension line
     deck = sorted((j for j in joints.values() if j.deck), key=lambda j: j.x)
@@ -292,7 +318,8 @@ def legend_svg(bands: RFBands | None = None) -> Markup:
         body.append(_text(x + 32, 14.5, b.label, size=9, anchor="start"))
         x += 36 + 6.2 * len(b.label) + 10
     y2 = 32.0
-    body.append('<circle cx="12" cy="30" r="5" fill="#2f6f9f" stroke="#111" stroke-width="1.2"/>')
+    body.append(f'<circle cx="12" cy="30" r="5" fill="{bands.bands[3].colour}" stroke="#111" '
+                'stroke-width="1.2"/>')
     body.append(_text(22, y2 + 1.5, "pin rated (shaded by its lowest RF)", size=9,
                       anchor="start"))
     body.append('<rect x="215" y="26" width="8" height="8" fill="#fff" stroke="#222" '

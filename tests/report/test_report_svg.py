@@ -235,3 +235,19 @@ def test_influence_shading_ends_where_the_line_crosses_zero(results_us: RatingRe
     assert any(abs(x - x_of(35.0)) <= 0.2 and abs(y - zero_y) <= 0.1 for x, y in tension)
     assert min(x for x, y in compression if y > zero_y + 1e-6) >= x_of(35.0) + 1.0
     assert any(abs(x - x_of(35.0)) <= 0.2 for x, _ in compression)
+
+
+def test_band_colours_darken_with_lower_rf() -> None:
+    """In a black-and-white print the bands keep their order: the luma of each colour
+    (ITU-R BT.601 weights 0.299, 0.587, 0.114) falls from the top band to the lowest, by a
+    margin a grey print shows (common practice for print legibility: about 10 of 255)."""
+    def luma(colour: str) -> float:
+        r, g, b = (int(colour[i:i + 2], 16) for i in (1, 3, 5))
+        return 0.299 * r + 0.587 * g + 0.114 * b
+
+    rated = RFBands().bands[:4]  # lowest band first
+    lumas = [luma(b.colour) for b in rated]
+    assert all(hi - lo >= 10.0 for lo, hi in zip(lumas, lumas[1:], strict=False)), lumas
+    # the pins' circles (fill only: same size in every band) use these colours
+    legend = str(legend_svg())
+    assert f'fill="{rated[3].colour}"' in legend
