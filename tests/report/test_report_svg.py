@@ -251,3 +251,26 @@ def test_band_colours_darken_with_lower_rf() -> None:
     # the pins' circles (fill only: same size in every band) use these colours
     legend = str(legend_svg())
     assert f'fill="{rated[3].colour}"' in legend
+
+
+def test_labels_of_crossing_members_move_apart_under_a_sloping_chord() -> None:
+    """A counter and the main diagonal of a panel under a sloping top chord cross off their
+    mid-lengths (their midpoints differ): their labels still move apart along each member;
+    members that meet only at a joint keep theirs at mid-length."""
+    from rating.report.svg import _label_fractions
+    from rating.results import MemberResult
+
+    pos = {"L3": (0.0, 100.0), "L4": (40.0, 100.0), "U3": (0.0, 40.0), "U4": (40.0, 20.0)}
+    members = [MemberResult("L3U4", "diagonal", ("L3", "U4"), False),
+               MemberResult("U3L4", "counter", ("U3", "L4"), True),
+               MemberResult("L3L4", "bottom chord", ("L3", "L4"), False),
+               MemberResult("U3U4", "top chord", ("U3", "U4"), False)]
+    t = _label_fractions(members, pos)
+    assert t["L3L4"] == t["U3U4"] == 0.5
+    assert t["L3U4"] != 0.5 and t["U3L4"] != 0.5
+
+    def spot(mid: str) -> tuple[float, float]:
+        a, b = (pos[j] for j in next(m.joints for m in members if m.id == mid))
+        return (a[0] + (b[0] - a[0]) * t[mid], a[1] + (b[1] - a[1]) * t[mid])
+
+    assert math.dist(spot("L3U4"), spot("U3L4")) > 20.0
