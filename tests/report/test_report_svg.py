@@ -261,10 +261,10 @@ def test_labels_of_crossing_members_move_apart_under_a_sloping_chord() -> None:
     from rating.results import MemberResult
 
     pos = {"L3": (0.0, 100.0), "L4": (40.0, 100.0), "U3": (0.0, 40.0), "U4": (40.0, 20.0)}
-    members = [MemberResult("L3U4", "diagonal", ("L3", "U4"), False),
-               MemberResult("U3L4", "counter", ("U3", "L4"), True),
-               MemberResult("L3L4", "bottom chord", ("L3", "L4"), False),
-               MemberResult("U3U4", "top chord", ("U3", "U4"), False)]
+    members = [MemberResult("L3U4", "diagonal", ("L3", "U4"), False, {}),
+               MemberResult("U3L4", "counter", ("U3", "L4"), True, {}),
+               MemberResult("L3L4", "bottom chord", ("L3", "L4"), False, {}),
+               MemberResult("U3U4", "top chord", ("U3", "U4"), False, {})]
     t = _label_fractions(members, pos)
     assert t["L3L4"] == t["U3U4"] == 0.5
     assert t["L3U4"] != 0.5 and t["U3L4"] != 0.5
