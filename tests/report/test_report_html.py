@@ -310,3 +310,15 @@ def test_the_closing_footnote_states_the_rule_the_posting_applies(
     assert f"a safe posting load under {tons:g} tons, the least a bridge kept open" in us
     assert (f"a safe posting load under {tons:g} tons ({least_posting_load('tonne'):.1f} "
             "tonnes), the least a bridge kept open") in si
+
+
+def test_the_recommendation_comes_before_the_vehicle_table(html_us: str) -> None:
+    """The first page gives the outcome: the recommendation box follows the bridge's facts and
+    comes before the table of every vehicle (which runs on to later pages); the review and
+    sign-off block follows the table, in a box of its own (a reviewer's finding: with the
+    sign-off inside it, the box did not fit beneath the facts and page 1 held no outcome)."""
+    rec = html_us.index('<h2>Posting recommendation</h2>')
+    table = html_us.index('<table class="summary">')
+    review = html_us.index('<h2>Review and decision</h2>')
+    assert html_us.index('<div class="facts">') < rec < table < review
+    assert html_us.count('class="signoff"') == 1 and html_us.index('class="signoff"') > review
