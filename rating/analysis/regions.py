@@ -361,8 +361,9 @@ def _intervals(A: np.ndarray, B: np.ndarray, lam_max: float) -> tuple[np.ndarray
     Bt, At = B.transpose(0, 2, 1), A[:, :, None]
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         r = -At / Bt  # (a tiny B overflows to inf, where the condition holds all along)
-    lower = np.where(Bt > 0, r, -np.inf).max(axis=1)
-    upper = np.where(Bt < 0, r, np.inf).min(axis=1)
+    # (no member with a condition, C = 0: every set holds all along)
+    lower = np.where(Bt > 0, r, -np.inf).max(axis=1, initial=-np.inf)
+    upper = np.where(Bt < 0, r, np.inf).min(axis=1, initial=np.inf)
     never = ((Bt == 0) & (At < 0)).any(axis=1)
     lo = np.maximum(lower, 0.0)
     hi = np.minimum(upper, lam_max)

@@ -68,8 +68,8 @@ def section_for(label: str, role: MemberRole):
     return eyebars(2, 4.0, 0.875, 4.5)
 
 
-def make_pratt_bridge(findings=(), pins=True, **settings) -> Bridge:
-    g = build_truss("pratt", 8, 20.0, 24.0, counter_panels=(4, 5))
+def make_pratt_bridge(findings=(), pins=True, counter_panels=(4, 5), **settings) -> Bridge:
+    g = build_truss("pratt", 8, 20.0, 24.0, counter_panels=counter_panels)
     designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
                     for m in g.members)
     pin_list = ()

@@ -144,6 +144,19 @@ def test_owner_im_override_is_for_the_legal_level_only():
     assert not any("keeps IM" in n for n in plain_notes)
 
 
+def test_a_truss_without_counters_is_rated():
+    """No member depends on an active set (no counters, no slack mains): the one set holds
+    all along every load path (there is no condition to take an extreme over: it raised a
+    numpy error, a traceback for any truss without counters), and every member and pin is
+    rated."""
+    bridge = make_pratt_bridge(counter_panels=())
+    r = rate_bridge(bridge, ["HL-93", "TYPE-3"])
+    assert not r.dependent_members
+    assert all(math.isfinite(v.rf) or v.rf == math.inf for v in r.ratings.values())
+    assert math.isfinite(r.postings["TYPE-3"].rf)
+    assert all(math.isfinite(p.ratings["TYPE-3"].rf) for p in r.pins)
+
+
 def test_design_load_is_not_posted(rated):
     assert rated.postings["HL-93-INV"].result.action.value == "none"
     assert "legal loads" in rated.postings["HL-93-INV"].note
