@@ -14,7 +14,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from rating.errors import ConvergenceError, InputError, PintrussError
-from rating.results import RatingResults, results_json
+from rating.results import RatingResults, bears_on_the_decision, results_json
 
 if TYPE_CHECKING:  # the reader's package is imported where a workbook is read, so that
     # writing files (the batch's summary, in the parent process) does not load it
@@ -58,10 +58,20 @@ def rate_workbook(path: Path, vehicle_ids: Sequence[str] | None = None) -> RateO
     except (InputError, ConvergenceError) as exc:
         return RateOutcome(path, None, problems + (Problem("error", _where(exc, path),
                                                            _message(exc)),))
-    warnings = tuple(f"{p.where}: {p.message}" for p in reading.warnings)
+    warnings = tuple(_located(p.where, p.message) for p in reading.warnings)
     results = build_results(rating, extra_warnings=warnings,
                             extra_assumptions=tuple(reading.assumptions))
     return RateOutcome(path, results, problems)
+
+
+def _located(where: str, message: str) -> str:
+    """A workbook warning for the results, with its place: after the head of a warning that
+    bears on the decision (``"NO DECK DEAD LOAD: DeadLoads!A4: ..."``), so that the results
+    still know it as one (rating.results.bears_on_the_decision), else before it."""
+    if bears_on_the_decision(message):
+        head, _, rest = message.partition(": ")
+        return f"{head}: {where}: {rest}"
+    return f"{where}: {message}"
 
 
 VEHICLES_OPTION = "--vehicles"

@@ -479,3 +479,23 @@ def test_the_pin_tables_print_the_plate_forces_at_the_rating_load(outcomes):
     assert html.count("<th>F horizontal (kip)</th>") == rows
     assert html.count("<th>F vertical (kip)</th>") == rows
     assert "acts at mid-pin from outside the bars (no floorbeam plate takes it)" in html
+
+
+def test_workbook_warnings_that_bear_on_the_decision_reach_the_recommendation(tmp_path):
+    """A workbook warning headed in capitals (no dead load listed, no pin listed, the workbook
+    open with edits perhaps unsaved) keeps its head first in the results, with its cell after
+    it, so the report's recommendation box and the batch's "read before deciding" show it."""
+    sys.path.insert(0, str(Path(__file__).resolve().parent / "inventory"))
+    from inventory_helpers import fresh, write
+
+    d = fresh()
+    d["tables"]["DeadLoads"] = []
+    d["bridge"].update(ws_thickness=None)
+    book = write(tmp_path / "bare.xlsx", d)
+    (tmp_path / ".~lock.bare.xlsx#").write_text("someone,host,2026-12-05")
+    outcome = rate_workbook(book)
+    assert outcome.results is not None
+    heads = [w.partition(":")[0] for w in outcome.results.decision_warnings]
+    assert "NO DECK DEAD LOAD" in heads and "UNSAVED EDITS POSSIBLE" in heads
+    dead = next(w for w in outcome.results.decision_warnings if w.startswith("NO DECK"))
+    assert dead.startswith("NO DECK DEAD LOAD: DeadLoads!A4: the DeadLoads sheet lists no")

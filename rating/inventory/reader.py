@@ -94,15 +94,23 @@ def read_workbook(path: Path) -> WorkbookReading:
     bridge = reading.bridge()
     lock = open_elsewhere(path)
     if lock is not None:
-        log.warning(path.name, f"the workbook seems to be open in a spreadsheet program (its "
-                    f"lock file {lock.name} is beside it): what is read is the file as last "
-                    "saved; edits not yet saved are not in this rating")
+        log.warning(path.name, f"{UNSAVED_EDITS}: the workbook seems to be open in a spreadsheet "
+                    f"program (its lock file {lock.name} is beside it): what is read is the "
+                    "file as last saved; edits not yet saved are not in this rating")
     problems, assumptions = tuple(log.problems), tuple(log.assumptions)
     if getattr(reading, "si", False):
         # the messages quote core units; an SI workbook reads them in SI
         problems = tuple(dataclasses.replace(p, message=si_text(p.message)) for p in problems)
         assumptions = tuple(si_text(a) for a in assumptions)
     return WorkbookReading(None if log.has_errors else bridge, problems, assumptions)
+
+
+UNSAVED_EDITS = "UNSAVED EDITS POSSIBLE"
+"""Head of the warning that the workbook is open elsewhere: it bears on the decision (the
+rating may not be of the workbook the engineer sees), so it is headed in capitals
+(rating.results.bears_on_the_decision)."""
+NO_DEAD_LOAD = "NO DECK DEAD LOAD"
+NO_PINS = "PINS NOT RATED"
 
 
 def open_elsewhere(path: Path) -> Path | None:
@@ -204,10 +212,22 @@ class _Reading:
             # first in the list: it explains the errors after it
             self.log.problems.insert(0, self.log.problems.pop())
 
+    REQUIRED_SHEETS = ("Findings", "Pins", "DeadLoads")
+    """Sheets a rating cannot do without even when they hold no rows: a workbook without one
+    is not a workbook of this program as made by ``pintruss template`` (its findings, pins or
+    dead loads would be left out of the rating without a word)."""
+
     def bridge(self) -> Bridge | None:
         log = self.log
         for t in sc.TABLES:
-            if self.book.find(t.name) is None and t is not sc.MEMBERS:
+            if self.book.find(t.name) is not None or t is sc.MEMBERS:
+                continue
+            if t.name in self.REQUIRED_SHEETS:
+                log.error(f"{t.name}!A1", f"the sheet '{t.name}' ({t.title.lower()}) is "
+                          "missing; copy it from a blank workbook made by 'pintruss template' "
+                          "and fill it in (leave it without rows where there is nothing to "
+                          "record)")
+            else:
                 log.warning(f"{t.name}!A1", f"the sheet '{t.name}' ({t.title.lower()}) is "
                             "missing; it is read as empty")
         b, si = read_form(self.book, sc.BRIDGE, None, log, units_key="units")
@@ -1069,8 +1089,9 @@ class _Reading:
                 continue
             positions[(joint, pos)] = r
             if joint not in pin_rows:
-                log.error(r.ref("joint"), f"there is no pin at joint {joint} on the Pins sheet "
-                          "for this packing")
+                if self.book.find(sc.PINS.name) is not None:  # (else one error for the sheet)
+                    log.error(r.ref("joint"), f"there is no pin at joint {joint} on the Pins "
+                              "sheet for this packing")
                 continue
             member = _s(r, "member")
             if member is not None and member.strip().lower() == FLOORBEAM:
@@ -1153,6 +1174,12 @@ class _Reading:
             diameter, mat = pins[joint]
             out.append(Pin(joint, diameter, tuple(it for _, it, _ in items), mat,
                            where=r.ref("joint")))
+        if not pin_rows and self.book.find(sc.PINS.name) is not None:
+            log.warning(f"{sc.PINS.name}!A{sc.HEADER_ROW + 1}", f"{NO_PINS}: the Pins sheet "
+                        "lists no pin, so no pin is rated; on a pin-connected truss the pins "
+                        "often govern, so list each pin with its packing before relying on a "
+                        "posting (where the joints are riveted, their gusset plates need a "
+                        "rating of their own)")
         return tuple(out)
 
     # -- loads ----------------------------------------------------------------------------
@@ -1197,6 +1224,15 @@ class _Reading:
         elif _b(b, "ws_measured"):
             log.warning(b.ref("ws_measured"), "the wearing surface is marked as measured but "
                         "no thickness is given")
+        if not out and self.book.find(sc.DEADLOADS.name) is not None \
+                and not self.t[sc.DEADLOADS.name].rows:
+            # a truss always carries a deck and a floor system: nothing here is a gap in the
+            # record, and it raises every rating (the dead load is the trusses' weight only)
+            log.warning(f"{sc.DEADLOADS.name}!A{sc.HEADER_ROW + 1}", f"{NO_DEAD_LOAD}: the "
+                        "DeadLoads sheet lists no dead load and no wearing surface is given, so "
+                        "the rating carries the trusses' own weight only, without the deck, "
+                        "stringers, floorbeams or railings; list them (psf of deck, plf or kip "
+                        "per floorbeam) before relying on any rating factor or posting")
         return tuple(out)
 
     def _vehicles(self) -> tuple[Vehicle, ...]:

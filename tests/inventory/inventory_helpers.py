@@ -131,7 +131,7 @@ def base_content() -> dict:
               "year_built": 1900, "material": "steel", "geometry": "generated",
               "truss_form": "pratt", "deck_position": "through", "panel_count": 4,
               "panel_length": 16.0, "height": 18.0, "truss_spacing": 16.0,
-              "roadway_width": 14.0, "inspection_date": "2024-06-01"}
+              "roadway_width": 14.0, "inspection_date": "2024-06-01", "adtt": 40}
     return {"bridge": bridge, "tables": tables,
             "settings": {"vehicles": "HL-93, OWN-1", "provision_set": "MBE 2018"}}
 
