@@ -325,3 +325,27 @@ def test_a_pony_truss_top_chord_is_said_to_rest_on_an_unchecked_u_frame() -> Non
     assert bears_on_the_decision(said[0])
     through = build_truss("pratt", 6, 10.5, 7.0, deck_position="through")
     assert _pony_top_chord(through, chord) == []
+
+
+@pytest.mark.parametrize("form,position", [
+    ("pratt", "through"), ("pratt", "deck"), ("parker", "through"), ("warren", "pony"),
+    ("warren with verticals", "deck"), ("baltimore", "through"),
+    ("pennsylvania", "through"), ("double intersection", "through")])
+def test_every_generated_form_is_rated(form: str, position: str) -> None:
+    """Each truss form the builders make (rating.model.builders), without counters, rates
+    end to end: every member and the controlling RF of the load are numbers (a smoke test:
+    a truss without counters once raised a numpy error)."""
+    from demo_bridge import STEEL, section_for
+
+    from rating.model import MemberDesign
+    from rating.model.builders import build_truss
+
+    heights = [16.0, 18.0, 20.0, 22.0, 20.0, 18.0, 16.0] if form in ("parker",) else 20.0
+    panels = 6
+    g = build_truss(form, panels, 18.0, heights, position)
+    designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    bridge = replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    r = rate_bridge(bridge, ["TYPE-3"])
+    assert all(not math.isnan(v.rf) for v in r.ratings.values())
+    assert math.isfinite(r.postings["TYPE-3"].rf)
