@@ -21,6 +21,7 @@ import multiprocessing
 import os
 import sys
 import time
+import urllib.parse
 from collections.abc import Callable, Sequence
 from concurrent.futures import ProcessPoolExecutor, as_completed
 from dataclasses import dataclass, field
@@ -111,31 +112,55 @@ class _Task:
     vehicle_ids: tuple[str, ...] | None
     rate: Callable[..., Any] | None = None
     write: Callable[..., Any] | None = None
+    label: str = ""  # the workbook's path within the folder rated ("north/a.xlsx")
+    root: Path | None = None  # the batch's output folder (``out_dir`` mirrors sub-folders)
+
+    @property
+    def name(self) -> str:
+        return self.label or self.workbook.name
 
 
 # ------------------------------------------------------------------ finding the workbooks
 
 def find_workbooks(folder: Path) -> tuple[Path, ...]:
-    """The inspection workbooks (*.xlsx) directly in ``folder``, sorted by name; Excel's
-    lock files (``~$name.xlsx``) and hidden files are skipped."""
+    """The inspection workbooks (*.xlsx) in ``folder`` and its sub-folders (a county may file
+    its bridges by township), sorted by their path within it; Excel's lock files (``~$name``)
+    and hidden files and folders are skipped."""
     folder = Path(folder)
     if not folder.is_dir():
         raise InputError(f"there is no folder {folder}", where=str(folder))
-    books = [p for p in folder.iterdir()
-             if p.suffix.lower() == ".xlsx" and p.is_file()
-             and not p.name.startswith(("~$", "."))]
-    return tuple(sorted(books, key=lambda p: (p.name.lower(), p.name)))
+    books = []
+    for dirpath, dirnames, filenames in os.walk(folder):
+        dirnames[:] = sorted(d for d in dirnames if not d.startswith("."))
+        books += [Path(dirpath) / f for f in filenames
+                  if f.lower().endswith(".xlsx") and not f.startswith(("~$", "."))
+                  and (Path(dirpath) / f).is_file()]
+    return tuple(sorted(books, key=lambda p: (workbook_label(p, folder).lower(),
+                                              workbook_label(p, folder))))
 
 
-def output_stems(workbooks: Sequence[Path]) -> tuple[str, ...]:
-    """One output stem per workbook, unique even where names differ only in case."""
+def workbook_label(book: Path, folder: Path) -> str:
+    """The workbook's path within the folder rated, as the summary names it ("north/a.xlsx";
+    the file name alone for one directly in the folder)."""
+    try:
+        return book.relative_to(folder).as_posix()
+    except ValueError:
+        return book.name
+
+
+def output_stems(workbooks: Sequence[Path], folder: Path | None = None) -> tuple[str, ...]:
+    """One output stem per workbook, unique even where names differ only in case: its path
+    within ``folder`` without the suffix ("north/a" for north/a.xlsx), so the outputs mirror
+    the sub-folders."""
     used: set[str] = set()
     out = []
     for wb in workbooks:
-        stem, n = wb.stem, 1
+        rel = wb.name if folder is None else workbook_label(wb, folder)
+        base = rel[: -len(wb.suffix)] if wb.suffix else rel
+        stem, n = base, 1
         while stem.lower() in used:
             n += 1
-            stem = f"{wb.stem}-{n}"
+            stem = f"{base}-{n}"
         used.add(stem.lower())
         out.append(stem)
     return tuple(out)
@@ -151,7 +176,8 @@ def _worker_setup() -> None:
 
 
 def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
-                      problems: Sequence[Any], seconds: float) -> BridgeRow:
+                      problems: Sequence[Any], seconds: float, name: str = "",
+                      root: Path | None = None) -> BridgeRow:
     from rating.report.display import display_for
 
     d = display_for(results)
@@ -177,19 +203,31 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
                             if v.rating_level == "legal" and v.id in results.posting)
     b = results.bridge
     return BridgeRow(
-        workbook=workbook.name, rated=True, structure=b.id, name=b.name, location=b.location,
+        workbook=name or workbook.name, rated=True, structure=b.id, name=b.name,
+        location=b.location,
         inspection_date=b.inspection_date or "", weight_unit=d.unit("weight"),
         vehicles=tuple(vehicles), recommendation=results.recommendation, action=action,
-        report=html.name if html is not None else "", results_file=js.name,
+        report=_relative(html, root) if html is not None else "",
+        results_file=_relative(js, root),
         errors=(), warnings=tuple(p.format() for p in problems if p.severity != "error"),
         seconds=seconds,
         decision_warnings=results.decision_warnings)
 
 
+def _relative(path: Path, root: Path | None) -> str:
+    """An output's path within the batch's output folder ("north/a.rating.html")."""
+    if root is not None:
+        try:
+            return path.relative_to(root).as_posix()
+        except ValueError:
+            pass
+    return path.name
+
+
 def rate_one(task: _Task) -> BridgeRow:
     """Rate one workbook and write its report and results; never raises for a bad workbook."""
     t0 = time.perf_counter()
-    wb = task.workbook
+    wb, name = task.workbook, task.name
     try:
         if task.rate is None or task.write is None:
             from rating.pipeline import rate_workbook, write_outputs
@@ -200,19 +238,25 @@ def rate_one(task: _Task) -> BridgeRow:
         if outcome.results is None:
             errors = tuple(p.format() for p in problems if p.severity == "error")
             return BridgeRow(
-                workbook=wb.name, rated=False, errors=errors or ("error   not rated",),
+                workbook=name, rated=False, errors=errors or ("error   not rated",),
                 warnings=tuple(p.format() for p in problems if p.severity != "error"),
                 seconds=time.perf_counter() - t0)
-        html, js = write(outcome.results, task.out_dir, task.stem)
+        out_dir = task.out_dir
+        stem = task.stem
+        if "/" in stem:  # a workbook in a sub-folder: its outputs in the same sub-folder
+            sub, _, stem = stem.rpartition("/")
+            out_dir = out_dir / sub
+            out_dir.mkdir(parents=True, exist_ok=True)
+        html, js = write(outcome.results, out_dir, stem)
         return _row_from_results(wb, outcome.results, html, js, problems,
-                                 time.perf_counter() - t0)
+                                 time.perf_counter() - t0, name=name, root=task.out_dir)
     except OSError as exc:  # unreadable workbook, full disk: recorded, the batch goes on
-        return BridgeRow(workbook=wb.name, rated=False,
-                         errors=(f"error   {wb.name}: could not be read or written: {exc}",),
+        return BridgeRow(workbook=name, rated=False,
+                         errors=(f"error   {name}: could not be read or written: {exc}",),
                          seconds=time.perf_counter() - t0)
     except Exception as exc:  # a fault of the program: recorded so the batch goes on
-        return BridgeRow(workbook=wb.name, rated=False,
-                         errors=(f"error   {wb.name}: internal error in pintruss "
+        return BridgeRow(workbook=name, rated=False,
+                         errors=(f"error   {name}: internal error in pintruss "
                                  f"({type(exc).__name__}: {exc}); please report it",),
                          seconds=time.perf_counter() - t0)
 
@@ -293,7 +337,7 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         raise InputError(f"no inspection workbooks (*.xlsx) in {folder}", where=str(folder))
     if out_dir.exists() and not out_dir.is_dir():
         raise InputError(f"the output folder {out_dir} is a file", where=str(out_dir))
-    stems = output_stems(books)
+    stems = output_stems(books, folder)
     inputs = {p.resolve() for p in books}
     planned = [out_dir / name for s in stems
                for name in (f"{s}.rating.html", f"{s}.rating.json")]
@@ -303,7 +347,8 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
             raise InputError(f"refusing to write {p}: it is an input workbook", where=str(p))
     out_dir.mkdir(parents=True, exist_ok=True)
     vids = tuple(vehicle_ids) if vehicle_ids else None
-    tasks = [_Task(b, out_dir, s, vids, rate, write) for b, s in zip(books, stems, strict=True)]
+    tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder))
+             for b, s in zip(books, stems, strict=True)]
     n = min(workers or default_workers(), len(tasks))
     n = max(n, 1)
     bar = Progress(len(tasks), progress)
@@ -314,7 +359,7 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         try:
             for t in tasks:
                 row = rate_one(t)
-                rows[t.workbook.name] = row
+                rows[t.name] = row
                 bar.update(row)
         finally:
             gc.set_threshold(*before)
@@ -328,12 +373,12 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
                 try:
                     row = fut.result()
                 except Exception as exc:  # a worker died (killed, out of memory)
-                    row = BridgeRow(workbook=t.workbook.name, rated=False, errors=(
-                        f"error   {t.workbook.name}: the rating process failed "
+                    row = BridgeRow(workbook=t.name, rated=False, errors=(
+                        f"error   {t.name}: the rating process failed "
                         f"({type(exc).__name__}: {exc})",))
-                rows[t.workbook.name] = row
+                rows[t.name] = row
                 bar.update(row)
-    ordered = tuple(rows[b.name] for b in books)
+    ordered = tuple(rows[t.name] for t in tasks)
     from rating.pipeline import write_atomic
 
     csv_path, index_path = out_dir / SUMMARY_CSV, out_dir / INDEX_HTML
@@ -428,6 +473,12 @@ class _IndexRow:
     more_errors: int
     advice: str  # the recommendation without the closing sentence the index says once
     decision: tuple[str, ...] = ()  # the decision-bearing warnings, each to its first clause
+
+    @property
+    def href(self) -> str:
+        """The link to the bridge's report, relative to the index: its path percent-encoded
+        ("#", "?", "%" and spaces in a file name are a file's, not a fragment or a query)."""
+        return urllib.parse.quote(self.row.report, safe="/")
 
 
 @dataclass(frozen=True)

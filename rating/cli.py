@@ -45,9 +45,10 @@ def _parser() -> argparse.ArgumentParser:
                        "recommend posting or closing for the engineer's decision, and write "
                        "the rating report (HTML) and the results file (JSON).",
                        epilog="Exit status: 0 rated; 1 the workbook has problems (each listed "
-                       "with its Sheet!Cell) or the outputs could not be written; 2 the "
-                       "command was misused (an unknown option or vehicle id, an output place "
-                       "that cannot be written).")
+                       "with its Sheet!Cell), or it was rated but writing the outputs failed "
+                       "(a full disk); 2 the command was misused, found before rating (an "
+                       "unknown option or vehicle id, an --out that is a file or a folder "
+                       "that cannot be written to).")
     r.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
     r.add_argument("--out", type=Path, default=None,
                    help="folder for the report and results (default: beside the workbook)")
@@ -67,9 +68,16 @@ def _parser() -> argparse.ArgumentParser:
     v.add_argument("--json", action="store_true", help="print as JSON")
 
     b = sub.add_parser("batch", help="rate every workbook in a folder",
-                       description="Rate every workbook in a folder, carrying on past bad ones, "
-                       "and write a summary table (CSV and HTML index).")
-    b.add_argument("folder", type=Path, help="folder holding the inspection workbooks")
+                       description="Rate every workbook in a folder and its sub-folders, "
+                       "carrying on past bad ones, and write each bridge's report and results "
+                       "(in the same sub-folders of --out) and a summary table (summary.csv "
+                       "and index.html in --out).",
+                       epilog="Exit status: 0 every workbook was rated; 1 a workbook was not "
+                       "rated (each is listed in the summary with its problems); 2 the "
+                       "command was misused (no such folder, an --out that is a file, "
+                       "--workers below 1).")
+    b.add_argument("folder", type=Path,
+                   help="folder holding the inspection workbooks (sub-folders included)")
     b.add_argument("--out", type=Path, required=True, help="folder for reports and the summary")
     b.add_argument("--workers", type=int, default=None, help="processes (default: cores)")
     b.add_argument("--vehicles", default=None,

@@ -204,9 +204,24 @@ def run_batch(args: argparse.Namespace) -> int:
     if args.workers is not None and args.workers < 1:
         print("pintruss: --workers must be 1 or more", file=sys.stderr)
         return EXIT_USAGE
+    if args.out.exists() and not args.out.is_dir():
+        print(f"pintruss: --out {args.out} is a file, not a folder; nothing was rated or "
+              "written", file=sys.stderr)
+        return EXIT_USAGE
     vehicle_ids = None
     if getattr(args, "vehicles", None):
         vehicle_ids = [v.strip() for v in args.vehicles.split(",") if v.strip()] or None
+        if vehicle_ids is None:
+            print("pintruss: --vehicles names no vehicle", file=sys.stderr)
+            return EXIT_USAGE
+        from rating.vehicles.library import library, rating_loads
+
+        known = {x.id.casefold() for x in (*rating_loads(), *library())}
+        for vid in vehicle_ids:
+            if vid.casefold() not in known:  # (it may be an owner's vehicle on the workbooks)
+                print(f"pintruss: note: {vid} is not in the vehicle library, so it must be an "
+                      "owner's vehicle on each workbook's Vehicles sheet; a workbook without "
+                      "it is not rated (see 'pintruss vehicles')", file=sys.stderr)
     try:
         summary = rate_folder(args.folder, args.out, workers=args.workers,
                               vehicle_ids=vehicle_ids, progress=sys.stderr)

@@ -196,6 +196,19 @@ def test_cli_batch_exit_codes(tmp_path: Path, capsys: pytest.CaptureFixture[str]
     assert "0 of 1 workbook(s) rated" in out.out and "not rated: broken.xlsx" in out.out
     assert (tmp_path / "o" / SUMMARY_CSV).is_file() and (tmp_path / "o" / INDEX_HTML).is_file()
     assert main(["batch", str(folder), "--out", str(tmp_path / "o"), "--workers", "0"]) == 2
+    # an --out that is a file is a misuse, as for 'rate' (it exited 1), and nothing is written
+    a_file = tmp_path / "a_file.txt"
+    a_file.write_text("mine")
+    capsys.readouterr()
+    assert main(["batch", str(folder), "--out", str(a_file), "--workers", "1"]) == 2
+    assert "is a file, not a folder" in capsys.readouterr().err
+    assert a_file.read_text() == "mine"
+    # an id outside the library may be an owner's vehicle: said once, before the workbooks
+    main(["batch", str(folder), "--out", str(tmp_path / "o"), "--workers", "1",
+          "--vehicles", "HL-93,TWP-9"])
+    err = capsys.readouterr().err
+    assert err.count("TWP-9 is not in the vehicle library") == 1
+    assert "HL-93 is not in" not in err
 
 
 def test_batch_end_to_end_on_a_sample_workbook(tmp_path: Path) -> None:
@@ -337,3 +350,41 @@ def test_a_warning_that_bears_on_the_decision_is_beside_the_recommendation(
             "counted as fully effective in tension (see the report)") in " ".join(text.split())
     assert "pack rust" not in text
     assert "; 1 with a warning to read before deciding." in " ".join(text.split())
+
+
+def test_sub_folders_are_rated_and_their_outputs_mirror_them(tmp_path: Path) -> None:
+    """A county filing its bridges by township: workbooks in sub-folders are found (hidden
+    folders and lock files are not), named by their path in the summary, and their outputs
+    go to the same sub-folders of --out, so two workbooks of one name in two townships keep
+    apart; the index links reach each report."""
+    folder = _folder(tmp_path, {"a.xlsx": GOOD})
+    (folder / "north" / "deep").mkdir(parents=True)
+    (folder / "north" / "a.xlsx").write_bytes(GOOD)
+    (folder / "north" / "deep" / "b.xlsx").write_bytes(b"broken")
+    (folder / ".hidden").mkdir()
+    (folder / ".hidden" / "c.xlsx").write_bytes(GOOD)
+    (folder / "north" / "~$a.xlsx").write_bytes(b"lock")
+    assert [p.relative_to(folder).as_posix() for p in find_workbooks(folder)] == [
+        "a.xlsx", "north/a.xlsx", "north/deep/b.xlsx"]
+    out = tmp_path / "out"
+    summary = rate_folder(folder, out, workers=1, rate=fake_rate)
+    assert [r.workbook for r in summary.rows] == ["a.xlsx", "north/a.xlsx", "north/deep/b.xlsx"]
+    assert (out / "a.rating.html").is_file() and (out / "north" / "a.rating.html").is_file()
+    assert [r.report for r in summary.rated] == ["a.rating.html", "north/a.rating.html"]
+    assert [r.workbook for r in summary.failed] == ["north/deep/b.xlsx"]
+    index = (out / INDEX_HTML).read_text(encoding="utf-8")
+    assert 'href="north/a.rating.html"' in index
+    rows = _csv_rows(out / SUMMARY_CSV)
+    assert [r["workbook"] for r in rows] == ["a.xlsx", "north/a.xlsx", "north/deep/b.xlsx"]
+
+
+def test_index_links_are_percent_encoded(tmp_path: Path) -> None:
+    """A "#" in a file name would make the rest of the link a fragment (the report did not
+    open); spaces, "%" and letters beyond ASCII are encoded too (RFC 3986)."""
+    folder = _folder(tmp_path, {"bridge #12 (old) 50%.xlsx": GOOD, "Brücke.xlsx": GOOD})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    index = (out / INDEX_HTML).read_text(encoding="utf-8")
+    assert 'href="bridge%20%2312%20%28old%29%2050%25.rating.html"' in index
+    assert 'href="Br%C3%BCcke.rating.html"' in index
+    assert (out / "bridge #12 (old) 50%.rating.html").is_file()
