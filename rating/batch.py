@@ -24,7 +24,7 @@ import time
 import urllib.parse
 from collections.abc import Callable, Sequence
 from concurrent.futures import ProcessPoolExecutor, as_completed
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any, TextIO
 
@@ -73,6 +73,8 @@ class BridgeRow:
     seconds: float = 0.0
     decision_warnings: tuple[str, ...] = ()  # the rating's warnings that bear on the posting
     # decision (rating.results.bears_on_the_decision), repeated beside the recommendation
+    stale: tuple[str, ...] = ()  # a workbook not rated this run: its outputs in the output
+    # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
     def lowest_legal(self) -> VehicleLine | None:
         legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None]
@@ -91,6 +93,8 @@ class BatchSummary:
     index_path: Path
     seconds: float
     workers: int
+    others: tuple[str, ...] = ()  # rating files in the output folder from no workbook of
+    # this run (an earlier run of another folder, a workbook since renamed)
 
     @property
     def rated(self) -> tuple[BridgeRow, ...]:
@@ -378,18 +382,39 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
                         f"({type(exc).__name__}: {exc})",))
                 rows[t.name] = row
                 bar.update(row)
-    ordered = tuple(rows[t.name] for t in tasks)
+    ordered, others = _earlier_outputs(tuple(rows[t.name] for t in tasks), tasks, out_dir)
     from rating.pipeline import write_atomic
 
     csv_path, index_path = out_dir / SUMMARY_CSV, out_dir / INDEX_HTML
     write_atomic(csv_path, summary_csv(ordered))
     summary = BatchSummary(folder, out_dir, ordered, csv_path, index_path,
-                           time.perf_counter() - t0, n)
+                           time.perf_counter() - t0, n, others)
     write_atomic(index_path, render_index(summary))
     return summary
 
 
 # ------------------------------------------------------------------ the summary views
+
+def _earlier_outputs(rows: tuple[BridgeRow, ...], tasks: Sequence[_Task], out_dir: Path
+                     ) -> tuple[tuple[BridgeRow, ...], tuple[str, ...]]:
+    """The rows with, for each workbook not rated this run, its outputs left in the output
+    folder by an earlier run; and the other rating files there that no workbook of this run
+    made. Nothing is removed (the folder is the user's); the summary says which is which."""
+    out, made = [], set()
+    for row, t in zip(rows, tasks, strict=True):
+        mine = [f"{t.stem}.rating.html", f"{t.stem}.rating.json"]
+        if row.rated:
+            made.update(x for x in (row.report, row.results_file) if x)
+            out.append(row)
+            continue
+        earlier = tuple(x for x in mine if (out_dir / x).is_file())
+        made.update(earlier)
+        out.append(replace(row, stale=earlier) if earlier else row)
+    found = sorted(p.relative_to(out_dir).as_posix() for pattern in ("*.rating.html",
+                                                                    "*.rating.json")
+                   for p in out_dir.rglob(pattern) if p.is_file())
+    return tuple(out), tuple(x for x in found if x not in made)
+
 
 def vehicle_order(rows: Sequence[BridgeRow]) -> tuple[tuple[str, str], ...]:
     """(id, name) of every vehicle rated in the batch, in order of first appearance."""
@@ -438,7 +463,9 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
                 _cell(low.vehicle) if low else "", r.action, _cell(r.recommendation),
                 _cell(" | ".join(r.decision_warnings)), str(len(r.errors)), str(len(r.warnings)),
                 _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
-                                                   if len(r.errors) > 20 else "")),
+                                                   if len(r.errors) > 20 else "")
+                      + (f" | from an earlier run, not this one: {', '.join(r.stale)}"
+                         if r.stale else "")),
                 r.report, r.results_file]
         by_id = {v.vehicle: v for v in r.vehicles}
         for vid, _ in vehicles:
@@ -494,6 +521,8 @@ class _IndexView:
     footer: str
     seconds: str
     workers: int
+    duplicates: tuple[tuple[str, tuple[str, ...]], ...] = ()  # structure id -> workbooks
+    others: tuple[str, ...] = ()
 
 
 def _first_clause(text: str) -> str:
@@ -536,8 +565,19 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
         failed=tuple(failed), counts=counts,
         footer=f"batch summary of {summary.folder.name} \u2014 recommendations for the "
         "licensed engineer in responsible charge",
-        seconds=f"{summary.seconds:.1f}", workers=summary.workers)
+        seconds=f"{summary.seconds:.1f}", workers=summary.workers,
+        duplicates=_same_structure(summary.rated), others=summary.others)
     return environment().get_template("index.html.j2").render(v=view, page_size="landscape")
+
+
+def _same_structure(rows: Sequence[BridgeRow]) -> tuple[tuple[str, tuple[str, ...]], ...]:
+    """Structure ids rated from more than one workbook, with those workbooks: a copy of a
+    workbook, or a bridge entered under another's id; either way the reviewer should know."""
+    by_id: dict[str, list[str]] = {}
+    for r in rows:
+        if r.structure:
+            by_id.setdefault(r.structure, []).append(r.workbook)
+    return tuple((sid, tuple(books)) for sid, books in by_id.items() if len(books) > 1)
 
 
 def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:

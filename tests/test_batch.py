@@ -388,3 +388,32 @@ def test_index_links_are_percent_encoded(tmp_path: Path) -> None:
     assert 'href="bridge%20%2312%20%28old%29%2050%25.rating.html"' in index
     assert 'href="Br%C3%BCcke.rating.html"' in index
     assert (out / "bridge #12 (old) 50%.rating.html").is_file()
+
+
+def test_earlier_outputs_and_copies_are_named_in_the_summary(tmp_path: Path) -> None:
+    """A workbook rated once and broken since: its report from the earlier run stays (the
+    output folder is the user's; nothing is removed) but the index and CSV say it is not from
+    this run. Rating files no workbook of this run made are counted; one structure rated
+    from two workbooks is pointed out."""
+    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": GOOD})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    (folder / "a.xlsx").write_bytes(b"broken since")
+    (out / "gone.rating.json").write_text("{}")
+    before = (out / "a.rating.html").read_bytes()
+    summary = rate_folder(folder, out, workers=1, rate=fake_rate)
+    row = next(r for r in summary.rows if r.workbook == "a.xlsx")
+    assert not row.rated and row.stale == ("a.rating.html", "a.rating.json")
+    assert (out / "a.rating.html").read_bytes() == before  # kept as it was
+    assert summary.others == ("gone.rating.json",)
+    index = (out / INDEX_HTML).read_text(encoding="utf-8")
+    assert "From an earlier run, not this one:" in index and "gone.rating.json" in index
+    csv_row = next(r for r in _csv_rows(out / SUMMARY_CSV) if r["workbook"] == "a.xlsx")
+    assert "from an earlier run, not this one: a.rating.html, a.rating.json" in csv_row["problems"]
+    # two workbooks of one structure (both stand-ins are the same sample bridge)
+    (folder / "a.xlsx").write_bytes(GOOD)
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    index = (out / INDEX_HTML).read_text(encoding="utf-8")
+    sid = sample_results().bridge.id
+    assert f"Structure {sid}</strong> is rated from 2 workbooks" in index
+    assert index.index('id="failed"') < index.index('id="rated"')  # what needs action first
