@@ -77,6 +77,8 @@ class BridgeRow:
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
     def lowest_legal(self) -> VehicleLine | None:
+        """The lowest RF among the vehicles rated at the legal level (legal loads, SHVs,
+        emergency and owner vehicles), with its vehicle."""
         legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None]
         return min(legal, key=lambda v: v.rf if v.rf is not None else math.inf, default=None)
 
@@ -446,7 +448,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     bridge's own weight unit, named in its row)."""
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
-            "weight unit", "lowest legal-load RF", "controlling legal load", "action",
+            "weight unit", "lowest legal-level RF", "its vehicle", "action",
             "recommendation", "read before deciding", "errors", "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:

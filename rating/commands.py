@@ -166,11 +166,15 @@ def run_vehicles(args: argparse.Namespace) -> int:
     from rating.vehicles.library import library, rating_loads
 
     if not args.json:
-        print("Rating loads (ids for 'pintruss rate --vehicles'):")
+        print("Rating loads (ids for --vehicles; the ids of the vehicles listed after them "
+              "are taken too, each rated on its own):")
         for load in rating_loads():
             models = "; ".join(m.name for m in load.models)
-            span = f", spans over {load.min_span_ft:g} ft only" if load.min_span_ft else ""
-            print(f"  {load.id:<12} {load.name} [{load.category.value}] = {models}"
+            # (the parts only where they say more than the name)
+            parts = f": {models}" if models != load.name else ""
+            span = (f", spans over {load.min_span_ft:g} ft only"
+                    if load.min_span_ft and "spans over" not in load.name else "")
+            print(f"  {load.id:<12} {load.name} [{load.category.value}]{parts}"
                   f"{span}; W = {load.gross_weight_tons:g} tons")
         print("\nVehicles in the library:")
     rows = []
