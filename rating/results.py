@@ -157,6 +157,15 @@ class Rating:
     method: str = "linear"  # "linear" | "load multiplier" (tension-only / pins)
     position: Position | None = None
     finding: str = ""
+    # a member rated on the load path: its factored dead-load force and its LL + IM (with the
+    # distribution factor, gamma_LL = 1) in the sense rated, with the tension-only members
+    # slack as they are at the rating level; RF = (C - D) / (gamma_LL L)
+    dead_at_rating: float | None = q("factored dead-load force at the rating level", "force",
+                                     default=None)
+    live_at_rating: float | None = q("LL + IM at the rating level (gamma_LL = 1)", "force",
+                                     default=None)
+    slack_at_rating: tuple[str, ...] = q("tension-only members slack at the rating level",
+                                         default=())
 
 
 @dataclass(frozen=True)

@@ -445,7 +445,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             ext = r.extreme  # most often one of the two extremes, placed just above
             at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
             ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
-                                  _finding(r.finding, text, positions, rod))
+                                  _finding(r.finding, text, positions, rod),
+                                  r.dead_at_rating, r.live_at_rating, r.slack_at_rating)
         s = cap.summary
         phi_cs = cap.phi_cs
         checks = tuple(

@@ -499,3 +499,27 @@ def test_workbook_warnings_that_bear_on_the_decision_reach_the_recommendation(tm
     assert "NO DECK DEAD LOAD" in heads and "UNSAVED EDITS POSSIBLE" in heads
     dead = next(w for w in outcome.results.decision_warnings if w.startswith("NO DECK"))
     assert dead.startswith("NO DECK DEAD LOAD: DeadLoads!A4: the DeadLoads sheet lists no")
+
+
+def test_path_table_checks_by_hand(outcomes):
+    """The report's table of ratings on the load path gives C, D, L and gamma_LL as printed:
+    (C - D) / (gamma_LL L) from those printed numbers (0.1 kip) is the printed RF, rounded
+    down, to within 0.01 (the note beneath the summary table says so)."""
+    import math as _m
+    import re
+
+    from rating.report.html import render_report
+
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    html = render_report(res)
+    body = html[html.index("Ratings on the load path: the forces"):]
+    body = body[:body.index("</table>")]
+    rows = re.findall(r'<tr>\s*<td class="id">(\w+)</td>.*?</tr>', body, re.S)
+    cells = [re.findall(r'<td class="num">([^<]*)</td>', r)
+             for r in re.findall(r'<tr>\s*<td class="id">.*?</tr>', body, re.S)]
+    rfs = re.findall(r'<td class="rf [^"]*">([^<]*)</td>', body)
+    assert rows and len(cells) == len(rows) == len(rfs)
+    for (c, d, ll, g), rf in zip(cells, rfs, strict=True):
+        num = [float(x.replace("\u2212", "-").replace("+", "")) for x in (c, d, ll, g)]
+        by_hand = (num[0] - num[1]) / (num[3] * num[2])
+        assert abs(_m.floor(by_hand * 100) / 100 - float(rf)) <= 0.011, (c, d, ll, g, rf)

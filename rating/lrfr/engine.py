@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import itertools
 import math
-from collections.abc import Mapping, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field, replace
 
 import numpy as np
@@ -44,7 +44,7 @@ from rating.lrfr.factors import (
     live_load_factor,
 )
 from rating.lrfr.liveload import position_key
-from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points
+from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points, state_at
 from rating.lrfr.pins import PinRating, rate_pins
 from rating.lrfr.positions import (
     LoadPaths,
@@ -126,6 +126,13 @@ class MemberCaseRating:
     phi_s: float
     extreme: Extreme | None
     finding: Finding | None = None
+    # on the load path (method "load multiplier"): the member's factored dead-load force and
+    # its live-load force with IM and distribution (gamma_LL = 1), in the sense rated, with
+    # the tension-only members slack as they are at the rating level: RF = (C - D) / (gamma_LL
+    # x L) exactly (rating.lrfr.multiplier.state_at); None for a linear rating
+    dead_at_rating: float | None = None
+    live_at_rating: float | None = None
+    slack_at_rating: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -560,7 +567,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
                 if lab in dependent:
                     ratings[(lab, case.id)] = _rate_on_path(
                         g.member(lab), capacities[lab], case, pls,
-                        [on_path[(gi, lab, pl.sense)] for pl in pls])
+                        [on_path[(gi, lab, pl.sense)] for pl in pls],
+                        lambda k: table.slack[k])
     fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
     load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
     pins = rate_pins(bridge.pins, g, bridge, dead, dead_f, load_paths, dependent)
@@ -642,6 +650,9 @@ class _OnPath:
     rows: np.ndarray
     factor_sets: tuple[tuple[float, float], ...]
     candidates: _Candidates
+    dead: np.ndarray  # the member's factored dead-load and live-load forces in the sense
+    live: np.ndarray  # rated at each candidate's crossing, and the active set there (index
+    sets: np.ndarray  # in the region table; -1 for none): rating.lrfr.multiplier.state_at
 
     def factors(self, k: int) -> tuple[float, float]:
         return self.factor_sets[k // self.rows.size]
@@ -741,7 +752,12 @@ def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], Path
                 best[gi] = np.where(used[gi], low, -np.inf)
         return best
 
-    lam = {fs: first_crossings(st.pieces, member, sense, cap)[0] for fs, st in stores.items()}
+    def crossings(pc) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+        lam_, slot = first_crossings(pc, member, sense, cap)
+        return (lam_, *state_at(pc, slot, member, sense))
+
+    found = {fs: crossings(st.pieces) for fs, st in stores.items()}
+    lam = {fs: f[0] for fs, f in found.items()}
     best = least()
     # a path the family covers only so far is walked on where the member's limit, not met
     # on the part known, could lie below the least found
@@ -751,7 +767,8 @@ def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], Path
         need = np.where(unknown, np.where(np.isfinite(at), at * (1.0 + 1e-6), LAM_MAX),
                         0.0).max(axis=1, initial=0.0)
         if st.complete(need):
-            lam[fs] = first_crossings(st.pieces, member, sense, cap)[0]
+            found[fs] = crossings(st.pieces)
+            lam[fs] = found[fs][0]
     best = least()
     pairs, ts = [], []
     per_interval = best[batch.group[batch.intervals[:, 0]]] if batch.intervals.size else best[:0]
@@ -764,18 +781,21 @@ def _member_multipliers(g: TrussGeometry, stores: dict[tuple[float, float], Path
     if any(t.size for t in ts):
         p_new, extra, extra_group = batch.between(np.concatenate(pairs), np.concatenate(ts))
         for fs, st in stores.items():
-            lam[fs] = np.concatenate([lam[fs], first_crossings(st.more(p_new), member, sense,
-                                                               cap)[0]])
+            more = crossings(st.more(p_new))
+            found[fs] = tuple(np.concatenate([a, b]) for a, b in  # type: ignore[assignment]
+                              zip(found[fs], more, strict=True))
     cands = _Candidates(batch, extra)
-    order = tuple(lam)
+    order = tuple(found)
     out: dict[tuple[int, str, int], _OnPath] = {}
     for gi in range(n_groups):
         rows = np.concatenate([np.arange(batch.size)[batch.rows(gi)],
                                batch.size + np.flatnonzero(extra_group == gi)])
-        stacked = np.concatenate([lam[fs][rows] for fs in order], axis=0)
+        lam_s, dead_s, live_s, set_s = (np.concatenate([found[fs][i][rows] for fs in order],
+                                                       axis=0) for i in range(4))
         for r, (lab, s_) in enumerate(keys):
             if used[gi, r]:
-                out[(gi, lab, s_)] = _OnPath(stacked[:, r], rows, order, cands)
+                out[(gi, lab, s_)] = _OnPath(lam_s[:, r], rows, order, cands, dead_s[:, r],
+                                             live_s[:, r], set_s[:, r])
     return out
 
 
@@ -797,7 +817,9 @@ def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
 
 
 def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[_SensePlan],
-                  found: list[_OnPath]) -> MemberCaseRating:
+                  found: list[_OnPath],
+                  slack_of: Callable[[int], frozenset[str]] = lambda k: frozenset()
+                  ) -> MemberCaseRating:
     """The member's rating for one case: the least live-load multiplier over its candidates
     (found with gamma_LL = 1). Where the factored dead load alone is past the resistance the
     multiplier is the (negative) extrapolation (C - dead) / live, and the rating is the one
@@ -817,8 +839,12 @@ def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[
             if not math.isfinite(lam[k]):
                 continue
         g_dc, g_dw = op.factors(k)
-        cand = _record(m, cap, case, pl, float(lam[k]) / g_ll, "load multiplier", g_dc, g_dw,
-                       op.extreme(k))
+        cand = replace(_record(m, cap, case, pl, float(lam[k]) / g_ll, "load multiplier",
+                               g_dc, g_dw, op.extreme(k)),
+                       dead_at_rating=float(op.dead[k]) if op.sets[k] >= 0 else None,
+                       live_at_rating=float(op.live[k]) if op.sets[k] >= 0 else None,
+                       slack_at_rating=tuple(sorted(slack_of(int(op.sets[k]))))
+                       if op.sets[k] >= 0 else ())
         if best is None or cand.rf < best.rf:
             best = cand
     return best if best is not None else _not_loaded(cap, m.label, case)

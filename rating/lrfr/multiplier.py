@@ -54,6 +54,24 @@ def first_crossings(pc: Pieces, member: np.ndarray, sense: np.ndarray, capacity:
     return best, slot
 
 
+def state_at(pc: Pieces, slot: np.ndarray, member: np.ndarray, sense: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """For each position and request, the piece ``slot`` (X, R) of :func:`first_crossings`
+    (-1: none): the member's factored dead-load force a and live-load force b (gamma_LL = 1)
+    in the sense rated, in that piece's active set (X, R) (NaN for none), and the set's index
+    in the table (X, R) (-1 for none). lam = (C - a) / b there: the rating equation (MBE
+    6A.4.2.1 [value from memory]) with the forces of the active set at the rating level, so
+    a reviewer can check it from these two numbers."""
+    X = pc.k.shape[0]
+    s_ = np.maximum(slot, 0)
+    rows = np.arange(X)[:, None]
+    a = sense * pc.N_dead[rows, s_, member[None, :]]
+    b = sense * pc.N_live[rows, s_, member[None, :]]
+    none = slot < 0
+    k = np.where(none, -1, pc.k[rows, s_])
+    return np.where(none, np.nan, a), np.where(none, np.nan, b), k
+
+
 def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np.ndarray,
                 capacity: np.ndarray, best: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Points between neighbouring positions that can lower a request's least multiplier

@@ -130,6 +130,24 @@ class MemberRow:
 
 
 @dataclass(frozen=True)
+class PathRow:
+    """A member's lowest rating found on the load path, with what checks it by hand: the
+    factored resistance C in the sense rated, the factored dead-load force D and the LL + IM
+    L (gamma_LL = 1) in that sense with the tension-only members as they stand at the rating
+    level (which are slack), gamma_LL and RF = (C - D) / (gamma_LL L)."""
+
+    id: str
+    vehicle: str
+    sense: str
+    capacity: str
+    dead: str
+    live: str
+    gamma_ll: str
+    rf: Cell
+    slack: str
+
+
+@dataclass(frozen=True)
 class LiveRow:
     """One member's row of a live-load table. ``cells``: for each vehicle, LL+IM max and min
     and the RF as HTML table cells (the largest table of the report: its cells, numbers and
@@ -324,6 +342,7 @@ class ReportView:
     influence: tuple[InfluenceView, ...]
     pin_controls: tuple[PinControlNote, ...]
     members: tuple[MemberRow, ...]
+    path_rows: tuple[PathRow, ...]
     live_tables: tuple[LiveTable, ...]
     pins: tuple[PinView, ...]
     findings: tuple[FindingRow, ...]
@@ -611,8 +630,19 @@ def build_view(results: RatingResults, *, paper: str | None = None,
 
     # member table
     rows: list[MemberRow] = []
+    path_rows: list[PathRow] = []
     for m in results.members:
         low = svg.lowest_rating(m.ratings.items())
+        if low is not None and low[1].dead_at_rating is not None \
+                and low[1].live_at_rating is not None and m.resistance is not None:
+            r_ = low[1]
+            cap = (m.resistance.tension if r_.sense == "tension" else m.resistance.compression)
+            path_rows.append(PathRow(
+                id=m.id, vehicle=low[0], sense=r_.sense, capacity=d.force(cap),
+                dead=d.force(r_.dead_at_rating, signed=True),
+                live=d.force(r_.live_at_rating),
+                gamma_ll=d.number(r_.factors.gamma_ll, None, 2) if r_.factors else DASH,
+                rf=rf_cell(r_.rf), slack=", ".join(r_.slack_at_rating) or "none"))
         rt_ = m.resistance.tension if m.resistance else None
         rc_ = m.resistance.compression if m.resistance else None
         finding = ""
@@ -735,6 +765,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         worst_action=worst,
         elevation=svg.elevation_svg(results, d, bands), legend=svg.legend_svg(bands),
         influence=tuple(influence), pin_controls=tuple(pin_notes), members=tuple(rows),
+        path_rows=tuple(path_rows),
         live_tables=tuple(live_tables), pins=pins, findings=findings, vehicles=vehicles,
         assumptions=tuple(assumptions),
         distribution=tuple(Fact(str(k), _fmt_plain(v)) for k, v in results.distribution.items()),

@@ -349,3 +349,22 @@ def test_every_generated_form_is_rated(form: str, position: str) -> None:
     r = rate_bridge(bridge, ["TYPE-3"])
     assert all(not math.isnan(v.rf) for v in r.ratings.values())
     assert math.isfinite(r.postings["TYPE-3"].rf)
+
+
+def test_on_path_ratings_carry_the_forces_that_check_them(rated):
+    """A member rated on the load path reports the factored dead-load force D and the LL + IM
+    L of its active set at the rating level: RF = (C - D) / (gamma_LL L) (MBE Eq. 6A.4.2.1-1
+    with the forces of the truss as it stands there), to round-off; the slack members named
+    are tension-only members of the truss."""
+    tension_only = {m.label for m in rated.geometry.members if m.tension_only}
+    n = 0
+    for (lab, _), r in rated.ratings.items():
+        if r.method != "load multiplier" or not math.isfinite(r.rf):
+            assert r.dead_at_rating is None and r.live_at_rating is None
+            continue
+        n += 1
+        C = rated.capacities[lab].factored_resistance(r.sense)
+        assert r.rf == pytest.approx((C - r.dead_at_rating) / (r.gamma_ll * r.live_at_rating),
+                                     rel=1e-9)
+        assert set(r.slack_at_rating) <= tension_only
+    assert n > 0
