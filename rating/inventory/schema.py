@@ -612,7 +612,9 @@ DEADLOADS = TableSheet(
 
 VEHICLES = TableSheet(
     "Vehicles", "The owner's vehicles",
-    "Vehicles of the owner (local legal, permit or service trucks). Their axles go on Axles.",
+    "Vehicles of the owner (local legal or service trucks), rated and posted as legal loads; "
+    "permit loads are not rated here (their own load factors, no posting). Their axles go on "
+    "Axles.",
     (
         _c("vehicle", "Vehicle id", Kind.LABEL, required=True),
         _c("name", "Name", Kind.TEXT, required=True, width=28),

@@ -572,6 +572,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
     load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
     pins = rate_pins(bridge.pins, g, bridge, dead, dead_f, load_paths, dependent)
+    if pins:
+        assumptions.append(
+            "Pins are rated with phi_c = phi_s = 1.0: the condition and system factors of MBE "
+            "6A.4.2.3 and 6A.4.2.4 [value from memory] are given for members, and a pin inside "
+            "its packing cannot be inspected; the condition of the bars at a joint is not "
+            "carried to its pin. Where a joint is in poor condition (pack rust, worn or loose "
+            "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings))
     for p in pins:

@@ -368,3 +368,13 @@ def test_on_path_ratings_carry_the_forces_that_check_them(rated):
                                      rel=1e-9)
         assert set(r.slack_at_rating) <= tension_only
     assert n > 0
+
+
+def test_pins_say_they_are_rated_without_condition_or_system_factor(rated):
+    """No phi_c or phi_s enters a pin's rating (a reviewer found it unsaid): the assumptions
+    say so and what the engineer may do."""
+    assert rated.pins
+    said = [a for a in rated.assumptions if a.startswith("Pins are rated with phi_c = phi_s")]
+    assert len(said) == 1 and "may scale the pin's rating" in said[0]
+    bare = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"])
+    assert not any(a.startswith("Pins are rated") for a in bare.assumptions)
