@@ -175,8 +175,10 @@ def member_factors(design: MemberDesign, findings: Sequence[Finding], carrying_c
                            f" phi_c = {phi_c:g} ({tabs['condition_factor']['source']}, "
                            f"{tabs['condition_factor']['tag']}; rating mapping common practice)")
     if rating is not None and rating <= tabs["condition_from_rating"]["serious_max"]:
-        warnings.append(f"member {m}: condition rating {rating} (serious or worse); the member "
-                        "needs the engineer's attention beyond a load rating")
+        warnings.append(f"SERIOUS CONDITION: member {m}: condition rating {rating} (serious or "
+                        "worse, NBI scale): its rating allows for it only through phi_c; a member "
+                        "in this condition calls for the engineer's decision on repair, "
+                        "restriction or closure beyond what its rating factor says")
     owner_s = _owner(design.system_factor, "system factor", design)
     if owner_s is not None:
         phi_s = owner_s

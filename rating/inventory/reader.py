@@ -110,6 +110,7 @@ UNSAVED_EDITS = "UNSAVED EDITS POSSIBLE"
 rating may not be of the workbook the engineer sees), so it is headed in capitals
 (rating.results.bears_on_the_decision)."""
 NO_DEAD_LOAD = "NO DECK DEAD LOAD"
+DAMAGE_IN_NOTE = "DAMAGE IN A NOTE"
 NO_PINS = "PINS NOT RATED"
 
 
@@ -941,10 +942,11 @@ class _Reading:
             note = _s(r, "note") or ""
             said = damage_in_note(note) if state in (BarState.SOUND, BarState.BENT) else None
             if said is not None:
-                log.warning(r.ref("bar_state"), f"the note on member {member} speaks of "
-                            f"{said!r} but the bar state is {state.value}: the rating counts "
-                            "the bar or part as carrying its load; if it is cracked or broken, "
-                            "record that bar state (it is then taken as carrying none)")
+                log.warning(r.ref("bar_state"), f"{DAMAGE_IN_NOTE}: the note on member "
+                            f"{member} speaks of {said!r} but the bar state is {state.value}: "
+                            "the rating counts the bar or part as carrying its load; if it is "
+                            "cracked or broken, record that bar state (it is then taken as "
+                            "carrying none)")
             pack = bool(_b(r, "pack_rust"))
             cond = _i(r, "condition")
             if (remaining is None and loss is None and state is BarState.SOUND and not pack

@@ -349,6 +349,19 @@ class EnvelopeSet:
         return out
 
 
+PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
+
+
+def _pin_bearing_as_built(warning: str, joint: str, controlling: set[str]) -> str:
+    """A pin that controls a posting, rated with the packing's plate thicknesses while section
+    loss is recorded at a bar's head or connection at its joint (rating.lrfr.pins
+    ._end_loss_notes): the posting may rest on metal that is no longer there, so the warning
+    is headed in capitals (it bears on the decision)."""
+    if f"pin at {joint}" in controlling and "has section loss recorded at its" in warning:
+        return f"{PIN_BEARING_AS_BUILT}: {warning}"
+    return warning
+
+
 def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting]) -> list[str]:
     """A pony truss's top chord and end posts are rated as braced out of the truss plane at
     every panel point; a pony truss has no top lateral bracing and holds its chord only by
@@ -581,8 +594,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
             "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings))
+    controlling = {cp.controlling for cid, cp in postings.items()
+                   if any(c.id == cid and c.postable for c in cases)}
     for p in pins:
-        warnings.extend(p.warnings)
+        warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],

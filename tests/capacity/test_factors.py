@@ -87,6 +87,11 @@ def test_member_condition_from_lowest_rating_and_override():
     assert none.phi_c == 1.0 and any("no condition rating" in a for a in none.assumptions)
     low = member_factors(MemberDesign("M", BARS, STEEL), (Finding("M", condition_rating=2),), 2)
     assert any("serious or worse" in w for w in low.warnings)
+    # NBI 3 or worse calls for a decision beyond the RF: headed in capitals for the reviewer
+    from rating.results import bears_on_the_decision
+
+    assert any(w.startswith("SERIOUS CONDITION: member M:") and bears_on_the_decision(w)
+               for w in low.warnings)
 
 
 def test_bad_owner_factor():

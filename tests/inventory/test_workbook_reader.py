@@ -180,6 +180,8 @@ def test_a_note_that_speaks_of_a_crack_beside_a_sound_bar_is_a_warning(
     else:
         p = find(reading, where, f"speaks of {word!r}", "warning")
         assert "member L1U1" in p.message and "record that bar state" in p.message
+        # it bears on the decision (a crack taken as sound metal): headed in capitals
+        assert p.message.startswith("DAMAGE IN A NOTE: the note on member L1U1")
 
 
 def test_two_bars_of_a_member_without_a_section_are_not_taken_for_one(tmp_path) -> None:

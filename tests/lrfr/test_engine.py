@@ -378,3 +378,18 @@ def test_pins_say_they_are_rated_without_condition_or_system_factor(rated):
     assert len(said) == 1 and "may scale the pin's rating" in said[0]
     bare = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"])
     assert not any(a.startswith("Pins are rated") for a in bare.assumptions)
+
+
+def test_end_loss_at_a_pin_that_controls_a_posting_bears_on_the_decision():
+    """A pin rated on the as-built plate thicknesses while loss is recorded at a bar's head at
+    its joint: headed in capitals only where that pin controls a posting."""
+    from rating.lrfr.engine import _pin_bearing_as_built
+    from rating.results import bears_on_the_decision
+
+    w = ("pin at joint L0: member L0U1 has section loss recorded at its head (Findings!B9); "
+         "the pin's bearing and packing use the plate thicknesses of the Packing sheet")
+    headed = _pin_bearing_as_built(w, "L0", {"pin at L0", "L1U1"})
+    assert headed == "PIN BEARING AS BUILT: " + w and bears_on_the_decision(headed)
+    assert _pin_bearing_as_built(w, "L0", {"L1U1"}) == w
+    assert _pin_bearing_as_built("pin at joint L0: other", "L0", {"pin at L0"}) == \
+        "pin at joint L0: other"
