@@ -173,7 +173,9 @@ def member_factors(design: MemberDesign, findings: Sequence[Finding], carrying_c
         assumptions.append(f"member {m}: condition rating {rating} "
                            f"({f.where if f and f.where else 'lowest recorded'}) -> {condition},"
                            f" phi_c = {phi_c:g} ({tabs['condition_factor']['source']}, "
-                           f"{tabs['condition_factor']['tag']}; rating mapping common practice)")
+                           f"{tabs['condition_factor']['tag']}; rating mapped by "
+                           f"{tabs['condition_from_rating']['source'].split(' (')[0]}, "
+                           f"{tabs['condition_from_rating']['tag']})")
     if rating is not None and rating <= tabs["condition_from_rating"]["serious_max"]:
         warnings.append(f"SERIOUS CONDITION: member {m}: condition rating {rating} (serious or "
                         "worse, NBI scale): its rating allows for it only through phi_c; a member "
