@@ -340,7 +340,9 @@ def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, Mem
                             "the bearing is concentrated")
         if D < 7.0 / 8.0 * s.width_in - 1e-6:
             warnings.append(f"pin at joint {j}: pin {D:g} in is less than 7/8 of the body width "
-                            f"{s.width_in:g} in of member {n} (AISC LRFD 1999 D3.2)")
+                            f"{s.width_in:g} in of member {n} (AISC LRFD 1999 D3.2): a slender "
+                            "pin for its bars; its bending, shear and bearing are checked with "
+                            "its own diameter (section 5)")
         k = sum(1 for i in items if i == n)
         if k != s.count:
             warnings.append(f"pin at joint {j}: the packing has {k} plate(s) of member {n}, "

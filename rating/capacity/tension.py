@@ -256,7 +256,9 @@ def _eyebar_proportions(report: SectionReport, head_ratio_min: float,
                        "Waddell 1898 p. 176)")
     if b.hole_diameter_in < 7.0 / 8.0 * b.width_in - 1.0 / 32.0:
         out.append(f"member {m}: pin hole {b.hole_diameter_in:g} in is smaller than 7/8 of the "
-                   f"body width {b.width_in:g} in (AISC LRFD 1999 D3.2 proportion)")
+                   f"body width {b.width_in:g} in (AISC LRFD 1999 D3.2 proportion): the head "
+                   "may be weaker than the body; its checks through and beyond the hole use "
+                   "its own dimensions and govern the member's tension where they are lower")
     return out
 
 

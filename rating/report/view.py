@@ -474,13 +474,15 @@ def _dedupe(items: Sequence[str]) -> tuple[str, ...]:
     return tuple(seen)
 
 
-def _named_parts(line: str) -> list[tuple[str, str]]:
-    """("X", text) for each member named by a "member X: text" or "members X, Y: text"
-    line; an empty list for other lines."""
+def _named_parts(line: str) -> list[tuple[str, str, str]]:
+    """(kind, "X", text) for each member or pin named by a "member X: text", "members X, Y:
+    text", "pin at joint X: text" or "pins at joints X, Y: text" line (as
+    rating.results_build.group_member_notes writes them); an empty list for other lines."""
     head, sep, rest = line.partition(": ")
-    for word in ("member ", "members "):
+    for word, kind in (("member ", "member"), ("members ", "member"),
+                       ("pin at joint ", "pin"), ("pins at joints ", "pin")):
         if sep and head.startswith(word):
-            return [(name, rest) for name in head[len(word):].split(", ")]
+            return [(kind, name, rest) for name in head[len(word):].split(", ")]
     return []
 
 

@@ -322,3 +322,17 @@ def test_the_recommendation_comes_before_the_vehicle_table(html_us: str) -> None
     review = html_us.index('<h2>Review and decision</h2>')
     assert html_us.index('<div class="facts">') < rec < table < review
     assert html_us.count('class="signoff"') == 1 and html_us.index('class="signoff"') > review
+
+
+def test_a_pin_warning_said_for_several_pins_is_not_repeated_pin_by_pin() -> None:
+    """The results group a warning shared by pins ("pins at joints L3, L4: text"); each
+    pin's own copy ("pin at joint L3: text") is then not listed again (it was, once per
+    joint: a reviewer counted the same warning four ways)."""
+    from rating.report.view import _with_own_warnings
+
+    general = ["pins at joints L3, L4: pin 5 in is small", "member A: rusty"]
+    own = ["pin at joint L3: pin 5 in is small", "pin at joint L4: pin 5 in is small",
+           "pin at joint L5: other", "member A: rusty", "member B: rusty"]
+    assert _with_own_warnings(general, own) == (
+        "pins at joints L3, L4: pin 5 in is small", "member A: rusty",
+        "pin at joint L5: other", "member B: rusty")
