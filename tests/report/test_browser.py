@@ -266,3 +266,27 @@ def test_batch_index_in_browser(browser: Browser, tmp_path: Path,
             assert "broken.xlsx" in page.evaluate("document.body.innerText")
         finally:
             page.close()
+
+
+PHONE = """(() => {
+  const dd = [...document.querySelectorAll('.facts dd')].map(e => e.getBoundingClientRect().width);
+  return {page: [document.documentElement.scrollWidth, document.documentElement.clientWidth],
+          narrowest_fact: Math.min(...dd),
+          tables: [...document.querySelectorAll('table')].map(t => getComputedStyle(t).overflowX)};
+})()"""
+
+
+def test_report_on_a_phone(browser: Browser, tmp_path: Path, results_si: RatingResults) -> None:
+    """A 420 px window (a phone): the page itself does not scroll sideways, the facts keep a
+    readable width (two columns of them squeezed each value to about 30 px, a letter a
+    line), and each table scrolls on its own."""
+    path = tmp_path / "phone.html"
+    path.write_text(render_report(results_si), encoding="utf-8")
+    page = browser.open(path, width=420, height=900)
+    try:
+        got = page.evaluate(PHONE)
+    finally:
+        page.close()
+    assert got["page"][0] <= got["page"][1], got["page"]
+    assert got["narrowest_fact"] >= 150, got["narrowest_fact"]
+    assert set(got["tables"]) == {"auto"}
