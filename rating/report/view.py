@@ -426,6 +426,11 @@ def _rf_cells(cells: Iterable[Cell]) -> str:
     return "".join([f'<td class="rf {c.band}">{c.text}</td>' for c in cells])
 
 
+def _capitalized(text: str) -> str:
+    """The text with its first letter in capitals ("parker through truss" -> "Parker ...")."""
+    return text[:1].upper() + text[1:]
+
+
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
     return v.name if v is not None and v.name else vid
 
@@ -539,8 +544,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         ("Location", b.location),
         ("Owner", b.owner),
         ("Year built", str(b.year_built) if b.year_built else ""),
-        ("Truss", " ".join(x for x in (b.form, b.deck_position and f"{b.deck_position} truss")
-                           if x)),
+        ("Truss", _capitalized(" ".join(
+            x for x in (b.form, b.deck_position and f"{b.deck_position} truss") if x))),
         ("Span", f"{d.field(b, 'span')} {units.length}, {b.panel_count} panels"
          if b.panel_count else f"{d.field(b, 'span')} {units.length}"),
         ("Truss spacing / roadway", f"{d.field(b, 'truss_spacing')} / "
@@ -655,7 +660,9 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             length=d.field(m.section, "length") if m.section else DASH,
             dc=d.force(m.dead_load.get("DC"), signed=True),
             dw=d.force(m.dead_load.get("DW"), signed=True),
-            phi_rt=d.force(rt_), phi_rc=d.force(rc_),
+            # (a tension-only member has no compression resistance: a dash, not 0.0)
+            phi_rt=d.force(rt_),
+            phi_rc=DASH if m.tension_only and not rc_ else d.force(rc_),
             rf=rf_cell(low[1].rf if low else None),
             vehicle=low[0] if low else "not rated",
             check=(low[1].check if low and low[1].check.startswith(low[1].sense)

@@ -336,3 +336,13 @@ def test_a_pin_warning_said_for_several_pins_is_not_repeated_pin_by_pin() -> Non
     assert _with_own_warnings(general, own) == (
         "pins at joints L3, L4: pin 5 in is small", "member A: rusty",
         "pin at joint L5: other", "member B: rusty")
+
+
+def test_member_table_details(results_us: RatingResults) -> None:
+    """A tension-only member's compression resistance reads as a dash (it has none), not
+    0.0; the truss form is written with a capital."""
+    view = build_view(results_us)
+    t_only = [r for r in view.members if r.tension_only]
+    assert t_only and all(r.phi_rc != "0.0" for r in t_only)
+    truss = next(f.value for f in view.bridge_facts if f.label == "Truss")
+    assert truss[:1] == truss[:1].upper()
