@@ -421,7 +421,9 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             id=case.id, name=load.name + (f" ({case.level.value})"
                                           if case.level is not RatingLevel.LEGAL else ""),
             category=load.category.value, gross_weight=load.gross_weight_tons,
-            axle_loads=tuple(axles.axle_loads_kip) if axles else (),
+            # the axles as they act (the lane-type legal load takes 0.75 of the Type 3-3's)
+            axle_loads=tuple(float(a) * axles.axle_scale for a in axles.axle_loads_kip)
+            if axles else (),
             spacings=tuple((s.min_ft, s.max_ft) for s in axles.spacings) if axles else (),
             lane_load=lane, source=load.source, tag=load.tag, rating_level=case.level.value,
             gamma_ll=case.gamma_ll.value, im=case.im.value))

@@ -131,3 +131,26 @@ def test_notes_of_members_and_of_pins_fold_by_their_text() -> None:
     assert group_member_notes(lines) == (
         "members A, B: rusty", "pins at joints L1, L2: shared", "pin at joint L3: other",
         "plain note", "members C, D: already grouped")
+
+
+def test_the_lane_type_legal_load_lists_its_axles_as_they_act() -> None:
+    """The lane-type legal load is 0.75 of the Type 3-3's axles plus 0.2 klf (MBE 6A.4.4.2.1
+    [value from memory]): the results list the axles it puts on the bridge (they listed the
+    Type 3-3's own)."""
+    import sys
+
+    sys.path.insert(0, str(Path(__file__).resolve().parent / "lrfr"))
+    from demo_bridge import STEEL, make_pratt_bridge, section_for
+
+    from rating.model import MemberDesign
+    from rating.model.builders import build_truss
+
+    g = build_truss("pratt", 10, 21.0, 28.0)  # 210 ft: the lane-type load applies
+    designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    bridge = replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    res = build_results(rate_bridge(bridge, ["LEGAL-LANE", "TYPE-3-3"]))
+    lane = next(v for v in res.vehicles if v.id == "LEGAL-LANE")
+    t33 = next(v for v in res.vehicles if v.id == "TYPE-3-3")
+    assert lane.axle_loads == pytest.approx(tuple(0.75 * a for a in t33.axle_loads))
+    assert lane.lane_load == pytest.approx(0.2)
