@@ -490,6 +490,15 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     # (after any OUT OF SERVICE notice: a reviewer reads these first)
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _bent_tension_only_relied_on(g, bridge, dependent)
+    if dependent:
+        assumptions.append(
+            "On the load path (members whose force depends on which tension-only members act) "
+            "the dead-load factors are taken together, all at their maximum or all at their "
+            "minimum, whichever gives the lower rating (AASHTO LRFD 3.4.1 [value from "
+            "memory]); DC and DW are not mixed (maximum of one with minimum of the other). "
+            "They reach a truss at the same panel points, so their effects rarely differ in "
+            "sense (common practice); where a member's DC and DW differ in sign, check it by "
+            "hand.")
 
     dist = lateral_distribution(bridge.cross_section, override=st.distribution_factor_override,
                                 prefer=dead.rated_truss)
