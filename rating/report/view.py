@@ -557,6 +557,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         ("Provision set", results.provision_set),
         ("Units", "SI" if d.system == "SI" else "US customary"),
         ("Workbook", b.source_file),
+        ("Made with", results.generator),  # (which program and version made these numbers)
     ) if v)
 
     ctl = controls(results)
