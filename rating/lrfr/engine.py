@@ -202,24 +202,33 @@ def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
     """The dead-load set and the sets with crossing tension-only pairs flipped.
 
     A pair is a slack and an active tension-only member that cross in one panel (a counter and
-    its main). With up to ``max_pairs`` pairs every combination is formed; beyond that, every
-    single flip and every double flip of two neighbouring panels (pairs whose bars share a
-    joint): in a truss with one diagonal acting per panel a member's line depends on its own
-    panel and, for a post between two counter panels, on both of them.
+    its main): its flip makes the slack one act and the active one slack. Where both members
+    of a crossing pair act under dead load (a panel with no dead-load shear, as the middle
+    panel of a symmetric truss with an odd number of panels: both take a share), each of them
+    going slack is a flip of its own (the live load's shear puts one of them in compression).
+    With up to ``max_pairs`` flips every combination is formed; beyond that, every single
+    flip and every double flip of two neighbouring panels (flips whose bars share a joint):
+    in a truss with one diagonal acting per panel a member's line depends on its own panel
+    and, for a post between two counter panels, on both of them.
     """
     g = family.geometry
     t_only = [m for m in g.members if m.tension_only]
-    pairs = []
+    pairs: list[tuple[str | None, str]] = []  # (made to act, made slack)
     for a, b in itertools.combinations(t_only, 2):
-        if (a.label in dead_slack) != (b.label in dead_slack) and members_cross(g, a, b):
+        if not members_cross(g, a, b):
+            continue
+        if (a.label in dead_slack) != (b.label in dead_slack):
             slack, active = (a, b) if a.label in dead_slack else (b, a)
             pairs.append((slack.label, active.label))
+        elif a.label not in dead_slack:  # both act under dead load: either may let go
+            pairs += [(None, a.label), (None, b.label)]
     if len(pairs) <= max_pairs:
         combos = itertools.chain.from_iterable(
             itertools.combinations(pairs, k) for k in range(1, len(pairs) + 1))
     else:
-        def joints_of(pair: tuple[str, str]) -> set[str]:
-            return {j for lab in pair for j in (g.member(lab).start, g.member(lab).end)}
+        def joints_of(pair: tuple[str | None, str]) -> set[str]:
+            return {j for lab in pair if lab is not None
+                    for j in (g.member(lab).start, g.member(lab).end)}
 
         neighbours = [(a, b) for a, b in itertools.combinations(pairs, 2)
                       if joints_of(a) & joints_of(b)]
@@ -228,7 +237,8 @@ def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
     for combo in combos:
         s = set(dead_slack)
         for slack, active in combo:
-            s.discard(slack)
+            if slack is not None:
+                s.discard(slack)
             s.add(active)
         fs = frozenset(s)
         if fs not in configs and family.is_stable(fs):

@@ -393,3 +393,45 @@ def test_end_loss_at_a_pin_that_controls_a_posting_bears_on_the_decision():
     assert _pin_bearing_as_built(w, "L0", {"L1U1"}) == w
     assert _pin_bearing_as_built("pin at joint L0: other", "L0", {"pin at L0"}) == \
         "pin at joint L0: other"
+
+
+def test_crossed_diagonals_of_a_middle_panel_are_rated_on_the_load_path():
+    """An odd-panel Pratt with two crossed tension-only diagonals in its middle panel: under
+    the symmetric dead load the panel has no shear and both act, so neither is slack under
+    dead load; the live load's shear puts one in compression and it lets go. Both are rated on
+    the exact load path in tension (they were rated linearly, on the line of the panel with
+    both acting, and "in compression" at RF near 0.1: a first-time user's bridge). Checked
+    against an independent brute force: lam stepped, the tension-only truss solved again at
+    each step (rating.analysis.truss.solve_tension_only), to the first lam where the member
+    reaches its resistance."""
+    from demo_bridge import STEEL, section_for
+
+    from rating.model import MemberDesign, RodEnd, RodSet
+    from rating.model.builders import build_truss
+
+    g = build_truss("pratt", 5, 20.0, 12.0, "pony", counter_panels=(3,))
+    mid = ("U2L3", "L2U3")
+    designs = tuple(MemberDesign(m.label, RodSet(1, 1.0, RodEnd.LOOP) if m.label in mid
+                                 else section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    bridge = replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    rated = rate_bridge(bridge, ["TYPE-3"])
+    assert set(mid) <= rated.dependent_members
+    case = next(c for c in rated.cases if c.id == "TYPE-3")
+    for lab in mid:
+        r = rated.ratings[(lab, "TYPE-3")]
+        assert (r.method, r.sense) == ("load multiplier", "tension"), (lab, r.check)
+        P_dead = (r.gamma_dc * rated.dead.joint_loads_dc_kip
+                  + r.gamma_dw * rated.dead.joint_loads_dw_kip)
+        P_live = case.gamma_ll.value * live_joint_loads(g, case.load, r.extreme,
+                                                        case.im.value,
+                                                        rated.distribution_factor)
+        C = rated.capacities[lab].factored_resistance("tension")
+        i = g.member_index[lab]
+        lam_bf = next(lam for lam in np.arange(0.0, 5.0, 0.001)
+                      if solve_tension_only(g, P_dead + lam * P_live).solution
+                      .member_forces_kip[i] >= C)
+        assert lam_bf - 0.001 <= r.rf <= lam_bf + 1e-9, (lab, r.rf, lam_bf)
+        other = next(x for x in mid if x != lab)
+        assert other in solve_tension_only(g, P_dead + r.rf * P_live).slack
+    assert rated.postings["TYPE-3"].controlling in mid
