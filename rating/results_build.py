@@ -278,7 +278,8 @@ def _report_posting(cp: CasePosting, system: UnitSystem, W_tons: float) -> _Repo
     """The action, the safe posting load in whole units of the report's weight unit and the
     note of one case. An SI bridge is posted in whole tonnes by the same rule
     (rating.lrfr.posting.posting, MBE 6A.8.3) applied to W in tonnes: rounded down once, not
-    tons converted and rounded again, and a load under one tonne is a closure too."""
+    tons converted and rounded again; a safe load under 3 tons (2.72 t) is a closure, as in
+    tons (MBE 6A.8.1 [value from memory])."""
     res = cp.result
     if system is not UnitSystem.SI or res.action is PostingAction.NONE:
         return _ReportPosting(res.action, res.posting_tons, cp.note)
@@ -304,17 +305,22 @@ def recommendation(rating: BridgeRating, unit: str,
 
     Closing is considered from the trucks (the legal loads, the SHVs and the owner's
     vehicles): RF below 0.3, or a safe posting load under the 3 tons a bridge kept open must
-    carry (MBE 6A.8.3 and 6A.8.1 [value from memory]). An emergency vehicle that cannot be
-    posted does not close the bridge to all traffic: it is said apart, as a restriction of
-    emergency vehicles for the owner to arrange with the emergency services (common
-    practice; the owner's policy governs)."""
+    carry (MBE 6A.8.3 and 6A.8.1 [value from memory]). Emergency vehicles are said apart: one
+    that cannot be posted does not close the bridge to all traffic but calls for barring such
+    vehicles, for the owner to arrange with the emergency services (common practice; the
+    owner's policy governs); where one is barred the others' postings are given one by one,
+    not as one sign for the class."""
     legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
              and not rating.postings[c.id].screened_out]
+    screens = [c for c in rating.cases if c.postable and c.load.id in SCREENING]
     ev_all = [c for c in legal if c.category is VehicleCategory.EMERGENCY]
     trucks_all = [c for c in legal if c.category is not VehicleCategory.EMERGENCY]
     closing = [c for c in trucks_all if report[c.id].action is PostingAction.CLOSE]
     ev_barred = [c for c in ev_all if report[c.id].action is PostingAction.CLOSE]
     posted = [c for c in legal if report[c.id].action is PostingAction.POST]
+    trucks = [c for c in posted if c.category is not VehicleCategory.EMERGENCY]
+    ev_posted = [c for c in posted if c.category is VehicleCategory.EMERGENCY]
+    least = "3 tons" if unit == "ton" else "3 tons (2.72 tonnes)"
     tail = DECISION_NOTE
 
     def names(cs: list[RatingCase]) -> str:
@@ -325,60 +331,65 @@ def recommendation(rating: BridgeRating, unit: str,
         low_rf = [c for c in cs if reported_rf(rating.postings[c.id].rf) < 0.3]
         light = [c for c in cs if c not in low_rf]
         return "; ".join(([f"the rating factor is below 0.3 for {names(low_rf)}"] if low_rf
-                          else []) + ([f"the safe posting load is less than 3 tons for "
+                          else []) + ([f"the safe posting load is less than {least} for "
                                        f"{names(light)}"] if light else []))
-
-    ev_text = ""
-    if ev_barred:
-        ev_text = ((" Emergency vehicles that cannot be posted: " if len(ev_barred) > 1 else
-                    " An emergency vehicle cannot be posted: ") + why(ev_barred) + "; consider "
-                   "barring such vehicles from the bridge and telling the emergency services "
-                   "which route to take (common practice; the owner's policy governs).")
-    if closing:
-        return "Consider closing the bridge: " + why(closing) + "." + ev_text + tail
-    if not posted:
-        if not legal:
-            return "No legal loads were rated, so no posting is indicated by this run." + tail
-        if ev_barred:
-            return ("No load restriction is indicated for trucks: every truck rated has a "
-                    "rating factor of at least 1.0." + ev_text + tail)
-        return ("No load restriction is indicated: every legal load rated has a rating factor "
-                "of at least 1.0." + tail)
 
     def amount(c: RatingCase) -> float:
         load = report[c.id].load
         assert load is not None  # posted
         return load
 
+    def each(cs: list[RatingCase]) -> str:
+        return "; ".join(f"{c.load.name} {amount(c):g} {unit}s" for c in cs)
+
+    # emergency vehicles: one sign for the class only where every one of them can be posted
+    ev_text = ""
+    if ev_barred:
+        ev_text = ((" Emergency vehicles that cannot be posted: " if len(ev_barred) > 1 else
+                    " An emergency vehicle cannot be posted: ") + why(ev_barred) + "; consider "
+                   "barring such vehicles from the bridge and telling the emergency services "
+                   "which route to take (common practice; the owner's policy governs).")
+        if ev_posted:
+            ev_text += f" Other emergency vehicles may be posted one by one: {each(ev_posted)}."
+    elif ev_posted:
+        low = min(ev_posted, key=amount)
+        ev_text = (f" Emergency vehicles: post for {amount(low):g} {unit}s (from "
+                   f"{low.load.name}), separately from the truck limit (common practice; the "
+                   "owner's policy governs).")
+
+    if closing:
+        text = "Consider closing the bridge: " + why(closing) + "."
+        if trucks:
+            text += (" Should the owner keep it open meanwhile, the other trucks' safe posting "
+                     f"loads are: {each(trucks)}.")
+        return text + ev_text + tail
+    if not trucks_all:
+        chosen = ", ".join(c.load.id for c in rating.cases if c.postable) or "none"
+        text = ("No truck legal load was rated (the vehicles rated at the legal level: "
+                f"{chosen}), so this run indicates no posting for trucks; rate the legal "
+                "loads before deciding on one.")
+        return text + ev_text + tail
+    if not trucks:
+        below = [c for c in screens if reported_rf(rating.postings[c.id].rf) < 1.0]
+        text = ("No load restriction is indicated for trucks: every truck rated has a rating "
+                "factor of at least 1.0")
+        if below:
+            text += (f" ({names(below)} is a screening load below 1.0: the single-unit SHVs "
+                     "were rated one by one instead, each at least 1.0)")
+        return text + "." + ev_text + tail
+
     groups = []
     for title, ids in (("single-unit trucks", SINGLE_UNIT), ("combination trucks", COMBINATION)):
-        sel = [c for c in posted if c.load.id in ids]
+        sel = [c for c in trucks if c.load.id in ids]
         if sel:
             low = min(sel, key=amount)
             groups.append(f"{title} {amount(low):g} {unit}s (from {low.load.name})")
-    ev = [c for c in posted if c.category is VehicleCategory.EMERGENCY]
-    if ev:
-        low = min(ev, key=amount)
-        groups.append(f"emergency vehicles {amount(low):g} {unit}s (from {low.load.name})")
-    other = [c for c in posted if c.load.id not in SINGLE_UNIT | COMBINATION
-             and c.category is not VehicleCategory.EMERGENCY]
-    for c in other:
-        groups.append(f"{c.load.name} {amount(c):g} {unit}s")
-    trucks = [c for c in posted if c.category is not VehicleCategory.EMERGENCY]
-    if not trucks:
-        text = ("No load restriction is indicated for trucks: every truck rated has a rating "
-                "factor of at least 1.0.")
-        if groups:
-            text += " Post for emergency vehicles: " + "; ".join(groups) + "."
-    else:
-        text = ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)
-                + ".")
-        single = min(trucks, key=amount)
-        text += (f" A single weight limit for trucks would be {amount(single):g} {unit}s (from "
-                 f"{single.load.name}, controlled by {rating.postings[single.id].controlling}).")
-    if ev:
-        text += (" Emergency vehicles are posted separately from the truck limit (common "
-                 "practice; the owner's policy governs).")
+    groups += [f"{c.load.name} {amount(c):g} {unit}s" for c in trucks
+               if c.load.id not in SINGLE_UNIT | COMBINATION]
+    single = min(trucks, key=amount)
+    text = ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)
+            + f". A single weight limit for trucks would be {amount(single):g} {unit}s (from "
+            f"{single.load.name}, controlled by {rating.postings[single.id].controlling}).")
     return text + ev_text + tail
 
 

@@ -43,22 +43,26 @@ def pony_rating():
 
 
 def test_si_posting_under_the_least_tonnes_is_a_closure(pony_rating):
-    """Type 3, W = 25 tons = 22.68 t, RF 0.39: (25 / 0.7)(0.09) = 3.21 -> 3 tons, a posting,
-    but (22.68 / 0.7)(0.09) = 2.92 -> 2 tonnes, under the 3 tons (2.72 t) a bridge kept open
-    must carry (MBE 6A.8.1 [value from memory]; equation MBE 6A.8.3 as in Khan 2010 p. 187).
-    An SI report rounds down once, in tonnes, and the bridge-level recommendation says
-    closing is to be considered rather than "post for 2 tonnes"."""
+    """Type 3, W = 25 tons = 22.68 t. RF 0.38: (22.68 / 0.7)(0.08) = 2.59 t, under the 3 tons
+    (2.72 t) a bridge kept open must carry (MBE 6A.8.1 [value from memory]; equation MBE
+    6A.8.3 as in Khan 2010 p. 187): the bridge-level recommendation says closing is to be
+    considered. RF 0.39: 2.92 t, so it stays open and is posted for 2 t (rounded down once,
+    in tonnes): the decision is on the safe load, the same in either unit."""
     cp = pony_rating.postings["TYPE-3"]
-    edge = replace(cp, rf=0.39, result=posting(0.39, 25.0))
-    assert edge.result.posting_tons == 3.0  # in tons
+    edge = replace(cp, rf=0.38, result=posting(0.38, 25.0))
     rating = replace(pony_rating, postings={**pony_rating.postings, "TYPE-3": edge})
     res = build_results(rating)
     entry = res.posting["TYPE-3"]
     assert entry.action == "close" and entry.posting_tons is None
-    assert "is 2 tonnes, less than the 3 tons (2.7 tonnes)" in entry.note
+    assert "is 2.59 tonnes, less than the 3 tons (2.72 tonnes)" in entry.note
     assert res.recommendation.startswith("Consider closing the bridge")
-    assert ("the safe posting load is less than 3 tons for AASHTO legal load Type 3 (RF 0.39"
+    assert ("the safe posting load is less than 3 tons (2.72 tonnes) for AASHTO legal load "
+            "Type 3 (RF 0.38"
             in res.recommendation)
+    kept = replace(cp, rf=0.39, result=posting(0.39, 25.0))
+    res = build_results(replace(pony_rating, postings={**pony_rating.postings, "TYPE-3": kept}))
+    entry = res.posting["TYPE-3"]
+    assert entry.action == "post" and entry.posting_tons / TON_PER_TONNE == pytest.approx(2.0)
 
 
 def _with_case(rating, case_id: str, rf: float):
@@ -154,3 +158,36 @@ def test_the_lane_type_legal_load_lists_its_axles_as_they_act() -> None:
     t33 = next(v for v in res.vehicles if v.id == "TYPE-3-3")
     assert lane.axle_loads == pytest.approx(tuple(0.75 * a for a in t33.axle_loads))
     assert lane.lane_load == pytest.approx(0.2)
+
+
+def test_recommendation_when_no_truck_was_rated() -> None:
+    """Only emergency vehicles chosen (Settings or --vehicles): the recommendation says no
+    truck legal load was rated; it said "every truck rated has a rating factor of at least
+    1.0" with none rated (a reviewer's finding)."""
+    bridge = read_workbook(PONY_SI).bridge
+    res = build_results(rate_bridge(bridge, ["HL-93", "EV3"]))
+    assert res.recommendation.startswith("No truck legal load was rated (the vehicles rated "
+                                         "at the legal level: EV3)")
+    assert "every truck rated" not in res.recommendation
+
+
+def test_recommendation_for_a_closure_gives_the_other_trucks_postings(pony_rating):
+    """A closure to consider (one truck below 0.3) with other trucks postable: they are given
+    as what applies should the owner keep the bridge open, not as a posting beside it."""
+    res = build_results(_with_case(pony_rating, "TYPE-3", 0.2))
+    assert res.recommendation.startswith("Consider closing the bridge: the rating factor is "
+                                         "below 0.3 for AASHTO legal load Type 3 (RF 0.20")
+    assert "Should the owner keep it open meanwhile, the other trucks' safe posting loads " \
+           "are:" in res.recommendation
+    assert "Post the bridge" not in res.recommendation
+
+
+def test_an_emergency_vehicle_barred_beside_one_posted(pony_rating):
+    """EV3 cannot be posted, EV2 can: EV2's posting is given on its own, not as the sign of
+    the class (a 9-ton sign would admit the heavier-axled EV3 the bridge cannot carry)."""
+    res = build_results(_with_case(pony_rating, "EV3", 0.25))
+    assert "An emergency vehicle cannot be posted: the rating factor is below 0.3" \
+        in res.recommendation
+    assert "Other emergency vehicles may be posted one by one: Emergency vehicle EV2 " \
+        in res.recommendation
+    assert "Emergency vehicles: post for" not in res.recommendation

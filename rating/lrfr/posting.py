@@ -69,14 +69,16 @@ def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
     if shown >= 1.0:
         return PostingResult(rf, rt, None, PostingAction.NONE, p["source"])
     if shown >= p["lower_rf"]:
-        load = posting_load(rf, gross_weight)
+        # whether the bridge can carry the least weight is judged on the safe load itself;
+        # only the sign is rounded down (in tonnes a whole unit is coarse beside 2.72 t)
+        safe = safe_posting_load(shown, gross_weight, p["lower_rf"])
         least = least_posting_load(unit)
-        if load >= least - 1e-9:
-            return PostingResult(rf, rt, load, PostingAction.POST, p["source"])
-        # a sign for less than the least weight is not a posting: that is a closure
-        in_unit = "" if unit == "ton" else f" ({least:.1f} {unit}s)"
+        if safe >= least - 1e-9:
+            return PostingResult(rf, rt, posting_load(rf, gross_weight), PostingAction.POST,
+                                 p["source"])
+        in_unit = "" if unit == "ton" else f" ({least:.2f} {unit}s)"
         return PostingResult(rf, rt, None, PostingAction.CLOSE, p["least_source"], (
-            f"the safe posting load (W / 0.7) \u00d7 (RF \u2212 0.3) is {load:g} {unit}"
-            f"{'' if load == 1 else 's'}, less than the {p['least_tons']:g} tons{in_unit} a "
-            "bridge kept open must carry (MBE 6A.8.1 [value from memory])"))
+            f"the safe posting load (W / 0.7) \u00d7 (RF \u2212 0.3) is {safe:.2f} {unit}s, "
+            f"less than the {p['least_tons']:g} tons{in_unit} a bridge kept open must carry "
+            "(MBE 6A.8.1 [value from memory])"))
     return PostingResult(rf, rt, None, PostingAction.CLOSE, p["close_source"])
