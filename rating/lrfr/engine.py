@@ -359,6 +359,42 @@ class EnvelopeSet:
         return out
 
 
+LOOP_ROD_CONTROLS = "LOOP ROD CONTROLS"
+DEAD_LOAD_PAST_RESISTANCE = "DEAD LOAD EXCEEDS RESISTANCE"
+
+
+def _loop_rod_controls(warning: str, controlling: set[str],
+                       ratings: Mapping[tuple[str, str], MemberCaseRating]) -> str:
+    """The forge-weld caution of a loop rod (rating.capacity.sections) headed in capitals
+    where that rod controls a posting at its loop: a crack at the forge line, not seen, would
+    take the rod out, and the posting rests on it."""
+    head, sep, _ = warning.partition(": ")
+    if not (sep and head.startswith("member ") and "forge-welded loop rods" in warning):
+        return warning
+    member = head.removeprefix("member ")
+    at_loop = any(lab == member and "loop" in r.check for (lab, _), r in ratings.items())
+    if member in controlling and at_loop:
+        return f"{LOOP_ROD_CONTROLS}: {warning}"
+    return warning
+
+
+def _dead_load_past_resistance(ratings: Mapping[tuple[str, str], MemberCaseRating],
+                               cases: Sequence[RatingCase]) -> list[str]:
+    """Members whose factored resistance is below their factored dead load (RF below zero for
+    some case): the rating equation gives no live load at all (MBE 6A.4.2.1 [value from
+    memory]); the truss stands today on what the rating does not count."""
+    ids = {c.id for c in cases}
+    members = sorted({lab for (lab, cid), r in ratings.items()
+                      if cid in ids and r.rf < 0.0 and math.isfinite(r.rf)})
+    if not members:
+        return []
+    return [f"{DEAD_LOAD_PAST_RESISTANCE}: member(s) {', '.join(members)} cannot carry their "
+            "factored dead load (rating factor below zero): the truss stands today only on "
+            "what the rating does not count (dead loads lighter than taken, metal stronger or "
+            "thicker than recorded, a load path not modelled). Check the measurements and the "
+            "material, and consider closing at once until they are confirmed."]
+
+
 PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
 
 
@@ -618,6 +654,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
+    warnings[:] = [_loop_rod_controls(w, controlling, ratings) for w in warnings]
+    at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
+    warnings[at:at] = _dead_load_past_resistance(ratings, cases)
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
         configs=configs, lines_by_config=lines, cases=cases, live=live, ratings=ratings, pins=pins,

@@ -435,3 +435,27 @@ def test_crossed_diagonals_of_a_middle_panel_are_rated_on_the_load_path():
         other = next(x for x in mid if x != lab)
         assert other in solve_tension_only(g, P_dead + r.rf * P_live).slack
     assert rated.postings["TYPE-3"].controlling in mid
+
+
+def test_dead_load_past_resistance_and_a_controlling_loop_rod_bear_on_the_decision():
+    """A member whose factored resistance is below its factored dead load (RF below zero) is
+    said in capitals, first; a loop rod's forge-weld caution is headed in capitals where the
+    rod controls a posting at its loop, and left as it is where it does not."""
+    from rating.lrfr.engine import _dead_load_past_resistance, _loop_rod_controls
+
+    bridge = make_pratt_bridge(pins=False, findings=(Finding("L1L2", percent_loss=95.0),))
+    r = rate_bridge(bridge, ["TYPE-3"])
+    low = r.ratings[("L1L2", "TYPE-3")]
+    assert low.rf < 0.0  # 5 % of the bottom chord left: less than its factored dead load
+    said = _dead_load_past_resistance(r.ratings, r.cases)
+    assert said and said[0].startswith("DEAD LOAD EXCEEDS RESISTANCE: member(s) L1L2")
+    assert said[0] in r.warnings
+    assert _dead_load_past_resistance(rate_bridge(make_pratt_bridge(pins=False),
+                                                  ["TYPE-3"]).ratings, r.cases) == []
+    w = "member L1U1: forge-welded loop rods crack at the forge line, a frequent flaw"
+    at_loop = {("L1U1", "TYPE-3"): replace(low, member="L1U1",
+                                           check="rod end fracture at the loop at the forge line")}
+    assert _loop_rod_controls(w, {"L1U1"}, at_loop).startswith("LOOP ROD CONTROLS: member L1U1")
+    assert _loop_rod_controls(w, {"L0L1"}, at_loop) == w
+    body = {("L1U1", "TYPE-3"): replace(low, member="L1U1", check="rod body yielding")}
+    assert _loop_rod_controls(w, {"L1U1"}, body) == w
