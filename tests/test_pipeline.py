@@ -519,7 +519,9 @@ def test_path_table_checks_by_hand(outcomes):
              for r in re.findall(r'<tr>\s*<td class="id">.*?</tr>', body, re.S)]
     rfs = re.findall(r'<td class="rf [^"]*">([^<]*)</td>', body)
     assert rows and len(cells) == len(rows) == len(rfs)
-    for (c, d, ll, g), rf in zip(cells, rfs, strict=True):
+    assert any("(sets the posting)" in r for r in
+               re.findall(r'<tr>\s*<td class="id">.*?</tr>', body, re.S))
+    for (c, d, _factors, ll, g), rf in zip(cells, rfs, strict=True):
         num = [float(x.replace("\u2212", "-").replace("+", "")) for x in (c, d, ll, g)]
         by_hand = (num[0] - num[1]) / (num[3] * num[2])
         assert abs(_m.floor(by_hand * 100) / 100 - float(rf)) <= 0.011, (c, d, ll, g, rf)

@@ -114,8 +114,8 @@ def _arrow_marker(mid: str, colour: str) -> str:
 
 # ------------------------------------------------------------------ elevation
 
-def _cross(a: tuple[float, float], b: tuple[float, float], c: tuple[float, float],
-           d: tuple[float, float]) -> bool:
+def segments_cross(a: tuple[float, float], b: tuple[float, float],
+                   c: tuple[float, float], d: tuple[float, float]) -> bool:
     """Whether segments ab and cd cross at a point inside both (not at an end)."""
     def side(p: tuple[float, float], q: tuple[float, float], r: tuple[float, float]) -> float:
         return (q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0])
@@ -143,7 +143,7 @@ def _label_fractions(members: Sequence[MemberResult], pos: dict[str, tuple[float
         for n in members[k + 1:]:
             if set(m.joints) & set(n.joints):
                 continue
-            if _cross(*ends[m.id], *ends[n.id]):
+            if segments_cross(*ends[m.id], *ends[n.id]):
                 group[root(m.id)] = root(n.id)
     crossing: dict[str, list[str]] = {}
     for m in members:

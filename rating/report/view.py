@@ -141,10 +141,14 @@ class PathRow:
     sense: str
     capacity: str
     dead: str
+    gamma_dead: str  # "gamma_DC / gamma_DW" of D
     live: str
     gamma_ll: str
     rf: Cell
     slack: str
+    controls: str = ""  # the vehicle whose posting this rating sets ("" for none)
+    both_act: str = ""  # crossing tension-only members both acting in this state: D and L
+    # come from the stiffness of the truss, not from a section cut
 
 
 @dataclass(frozen=True)
@@ -426,6 +430,17 @@ def _rf_cells(cells: Iterable[Cell]) -> str:
     return "".join([f'<td class="rf {c.band}">{c.text}</td>' for c in cells])
 
 
+def _crossing_tension_only(results: RatingResults) -> list[tuple[str, str]]:
+    """The pairs of tension-only members that cross in a panel (a counter and its main), from
+    the joints' coordinates."""
+    at = {j.id: (j.x, j.y) for j in results.joints}
+    t_only = [m for m in results.members if m.tension_only]
+    return [(a.id, b.id) for k, a in enumerate(t_only) for b in t_only[k + 1:]
+            if not set(a.joints) & set(b.joints)
+            and svg.segments_cross(at[a.joints[0]], at[a.joints[1]],
+                                   at[b.joints[0]], at[b.joints[1]])]
+
+
 def _capitalized(text: str) -> str:
     """The text with its first letter in capitals ("parker through truss" -> "Parker ...")."""
     return text[:1].upper() + text[1:]
@@ -636,21 +651,36 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             check=crit.rating.check if crit.rating else "", position=_position_text(pos, d),
             lane=lane, drawing=drawing, note=note))
 
-    # member table
+    # member table; the ratings on the load path: each member's lowest, and each that sets a
+    # posting (a reviewer checks the postings from these)
     rows: list[MemberRow] = []
     path_rows: list[PathRow] = []
+    sets_posting = {(e.member, vid) for vid, e in results.posting.items()
+                    if vmap.get(vid) is not None and vmap[vid].rating_level == "legal"}
+    crossing = _crossing_tension_only(results)
     for m in results.members:
         low = svg.lowest_rating(m.ratings.items())
-        if low is not None and low[1].dead_at_rating is not None \
-                and low[1].live_at_rating is not None and m.resistance is not None:
-            r_ = low[1]
+        wanted = ([low[0]] if low is not None else []) + [
+            vid for vid in m.ratings if (m.id, vid) in sets_posting
+            and (low is None or vid != low[0])]
+        for vid in wanted:
+            r_ = m.ratings[vid]
+            if r_.dead_at_rating is None or r_.live_at_rating is None or m.resistance is None:
+                continue
             cap = (m.resistance.tension if r_.sense == "tension" else m.resistance.compression)
+            f_ = r_.factors
+            acting = [f"{a}, {b}" for a, b in crossing
+                      if a not in r_.slack_at_rating and b not in r_.slack_at_rating]
             path_rows.append(PathRow(
-                id=m.id, vehicle=low[0], sense=r_.sense, capacity=d.force(cap),
+                id=m.id, vehicle=vid, sense=r_.sense, capacity=d.force(cap),
                 dead=d.force(r_.dead_at_rating, signed=True),
+                gamma_dead=(f"{d.number(f_.gamma_dc, None, 2)} / {d.number(f_.gamma_dw, None, 2)}"
+                            if f_ else DASH),
                 live=d.force(r_.live_at_rating),
-                gamma_ll=d.number(r_.factors.gamma_ll, None, 2) if r_.factors else DASH,
-                rf=rf_cell(r_.rf), slack=", ".join(r_.slack_at_rating) or "none"))
+                gamma_ll=d.number(f_.gamma_ll, None, 2) if f_ else DASH,
+                rf=rf_cell(r_.rf), slack=", ".join(r_.slack_at_rating) or "none",
+                controls=vid if (m.id, vid) in sets_posting else "",
+                both_act="; ".join(acting)))
         rt_ = m.resistance.tension if m.resistance else None
         rc_ = m.resistance.compression if m.resistance else None
         finding = ""
