@@ -48,8 +48,9 @@ class VehicleLine:
     rf: float | None
     member: str
     action: str  # "none", "post", "close", "bar" (an emergency vehicle that cannot be
-    # posted) or "not posted" (a screening load below 1.0)
+    # posted), "not posted" (a screening load below 1.0) or "design-load rating" (HL-93)
     posting: float | None  # safe posting load, display weight unit, whole units
+    category: str = ""  # the vehicle's category (rating.results.VehicleResult.category)
 
 
 @dataclass(frozen=True)
@@ -77,9 +78,11 @@ class BridgeRow:
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
     def lowest_legal(self) -> VehicleLine | None:
-        """The lowest RF among the vehicles rated at the legal level (legal loads, SHVs,
-        emergency and owner vehicles), with its vehicle."""
-        legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None]
+        """The lowest RF among the trucks rated at the legal level (legal loads, SHVs and
+        owner vehicles; not the emergency vehicles, which never close a bridge:
+        rating.results.overall_action), with its vehicle."""
+        legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None
+                 and v.category != EMERGENCY]
         return min(legal, key=lambda v: v.rf if v.rf is not None else math.inf, default=None)
 
 
@@ -201,9 +204,11 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
             action = "not posted"  # as in the report
         if action == "close" and v.category == EMERGENCY:
             action = "bar"  # an emergency vehicle that cannot be posted: not a closure
+        if action == "none" and v.rating_level in ("inventory", "operating"):
+            action = "design-load rating"  # as in the report: HL-93 is never posted
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
                                     entry.member if entry is not None else "", action,
-                                    posting))
+                                    posting, v.category))
     action = overall_action((results.posting[v.id].action, v.category)
                             for v in results.vehicles
                             if v.rating_level == "legal" and v.id in results.posting)
@@ -448,7 +453,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     bridge's own weight unit, named in its row)."""
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
-            "weight unit", "lowest legal-level RF", "its vehicle", "action",
+            "weight unit", "lowest truck RF", "its vehicle", "action",
             "recommendation", "read before deciding", "errors", "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:

@@ -417,3 +417,24 @@ def test_earlier_outputs_and_copies_are_named_in_the_summary(tmp_path: Path) -> 
     sid = sample_results().bridge.id
     assert f"Structure {sid}</strong> is rated from 2 workbooks" in index
     assert index.index('id="failed"') < index.index('id="rated"')  # what needs action first
+
+
+def test_csv_speaks_as_the_report_and_its_lowest_rf_is_a_trucks(tmp_path: Path) -> None:
+    """HL-93's action reads "design-load rating" as in the report (not "none"); the lowest RF
+    beside the action is the lowest truck's: an emergency vehicle never closes a bridge
+    (rating.results.overall_action), so it is not the one named there."""
+    from dataclasses import replace
+
+    from rating.batch import _row_from_results
+
+    res = sample_results()
+    ev = next(v.id for v in res.vehicles if v.category == "emergency")
+    low_ev = replace(res, posting={**res.posting, ev: replace(res.posting[ev], rf=0.05)})
+    row = _row_from_results(tmp_path / "a.xlsx", low_ev, None, tmp_path / "a.json", (), 0.0)
+    design = [v for v in row.vehicles if v.level in ("inventory", "operating")]
+    assert design and all(v.action == "design-load rating" for v in design
+                          if res.posting[v.vehicle].action == "none")
+    low = row.lowest_legal()
+    assert low is not None and low.vehicle != ev and low.category != "emergency"
+    csv_row = _csv_rows_text(summary_csv([row]))[0]
+    assert csv_row["its vehicle"] == low.vehicle
