@@ -184,6 +184,12 @@ def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
     refused = _out_of_range(v, core, col, si)
     if refused is not None:
         return refused
+    if col.unit == "%" and 0.0 < v < 1.0 and not (isinstance(raw, str) and "%" in raw):
+        # a spreadsheet stores "20%" typed in a cell as 0.2: read as 0.2 % it would pass for
+        # a loss a hundred times too small (unconservative), so it is refused, not guessed
+        return Invalid(f"reads as {_fmt(v)} %, under one percent: a percent typed with its "
+                       f"sign in a spreadsheet ({_fmt(v * 100.0)}%) is stored as {_fmt(v)}; "
+                       f"type the number of percent ({_fmt(v * 100.0)}) in this column")
     value: object = int(core) if integer else core
     if col.warn_below is not None and core < col.warn_below:
         return Parsed(value, _unusual(v, col, si, "small (below", col.warn_below))

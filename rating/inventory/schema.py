@@ -536,7 +536,8 @@ FINDINGS = TableSheet(
         _c("remaining", "Remaining thickness", Kind.NUMBER, DIM, ge=0, le=6,
            help="Of the plate or bar; for a rod, the remaining diameter."),
         _pct("loss", "Loss", ge=0, le=100, warn_above=60,
-             help="Of thickness (of diameter for a rod)."),
+             help="Of thickness; for a rod, of diameter (30 % of the diameter takes 51 % of "
+                  "the area). The number of percent: 20 for 20 %."),
         _c("bar_state", "Bar state", Kind.CHOICE, choices=tuple(b.value for b in BarState),
            blank_means="sound"),
         _c("pack_rust", "Pack rust", Kind.YESNO, choices=YES_NO, blank_means="no"),
