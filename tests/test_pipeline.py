@@ -313,6 +313,18 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
     legal = [p for vid, p in without.posting.items()
              if vid not in ("HL-93-INV", "HL-93-OPR", "NRL")]
     assert legal and all(p.rf < 0.3 and p.action == "close" for p in legal)
+    # the warning itself gives that sensitivity (members rated again without the counter,
+    # the trucks only): the same verdict, and an RF no lower than the full re-rating's (the
+    # pins, not rated in it, can only lower a rating)
+    import re
+
+    said = re.search(r"Rated as if L3U4 did not act \(its bars loose\), the members give "
+                     r"a closure to consider: lowest truck RF (\d\.\d\d) \(([\w-]+), ", first)
+    assert said is not None, first
+    trucks = [p for vid, p in without.posting.items()
+              if vid not in ("HL-93-INV", "HL-93-OPR", "NRL", "EV2", "EV3")]
+    full = min(math.floor(p.rf * 100 + 1e-7) / 100 for p in trucks)
+    assert float(said.group(1)) >= full - 1e-9
 
 
 def test_the_pony_sample_says_its_top_chord_rests_on_unchecked_u_frames(outcomes):

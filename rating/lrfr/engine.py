@@ -33,7 +33,7 @@ from rating.analysis.truss import (
 )
 from rating.capacity.member import MemberCapacity, member_capacity
 from rating.capacity.sections import gross_area_as_built_in2
-from rating.errors import InputError
+from rating.errors import ConvergenceError, InputError
 from rating.lrfr.equation import SenseLoads, lower_beyond_round_off, rating_factor
 from rating.lrfr.factors import (
     Factor,
@@ -54,6 +54,7 @@ from rating.lrfr.positions import (
     runs_of,
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
+from rating.lrfr.reported import reported_rf
 from rating.model import (
     BarState,
     Bridge,
@@ -459,6 +460,47 @@ def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
     return out
 
 
+def _without_bent(warning: str, bridge: Bridge, cases: Sequence[RatingCase]) -> str:
+    """A BENT ... RELIED ON warning with what the rating gives if that member does not act:
+    the members rated again with all its bars loose (out of service), for the trucks rated at
+    the legal level (the emergency vehicles and HL-93 left out: they close no bridge). The
+    pins are not rated again, so the RF given is an upper bound of that rating: where it
+    already calls for closing, so would the full one."""
+    head, sep, rest = warning.partition(": ")
+    if not (sep and head.startswith("BENT ") and head.endswith(" RELIED ON")
+            and rest.startswith("member ")):
+        return warning
+    member = rest.removeprefix("member ").split(" ", 1)[0]
+    trucks = list(dict.fromkeys(c.load.id for c in cases if c.postable
+                                and c.category is not VehicleCategory.EMERGENCY
+                                and c.load.id not in SCREENING_LOADS))
+    if not trucks:
+        return warning
+    loose = replace(bridge, pins=(), findings=bridge.findings + (
+        Finding(member, "all", bar_state=BarState.LOOSE, where="(rated as if it did not act)"),))
+    try:
+        other = rate_bridge(loose, trucks, what_if=False)
+    except (InputError, ConvergenceError):
+        return warning + (f" Rated as if {member} did not act, the truss has no load path "
+                          "for these loads: consider closing.")
+    legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
+             and any(c.id == cp.case and c.postable for c in other.cases)]
+    if not legal:
+        return warning
+    low = min(legal, key=lambda cp: cp.rf)
+    closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
+    verdict = ("a closure to consider" if closing else "a posting" if any(
+        cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
+    return warning + (f" Rated as if {member} did not act (its bars loose), the members give "
+                      f"{verdict}: lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, "
+                      f"{low.controlling}); the pins were not rated again, so this RF is the "
+                      "most that rating could give.")
+
+
+SCREENING_LOADS = frozenset({"NRL"})
+"""Loads rated as a screen, not posted (the NRL: FHWA SHV Q&A, March 2014)."""
+
+
 def _dependent_members(lines: dict[frozenset[str], InfluenceLines]) -> frozenset[str]:
     """Members whose influence line changes with the active set of the counter panels."""
     rows = [il.ordinates for il in lines.values()]
@@ -484,8 +526,13 @@ of where it stands there, not over the whole deck: a window of judgement, not a 
 # --------------------------------------------------------------------------- the rating
 
 
-def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> BridgeRating:
-    """Rate every member and pin of the bridge for every chosen rating load."""
+def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
+                what_if: bool = True) -> BridgeRating:
+    """Rate every member and pin of the bridge for every chosen rating load.
+
+    ``what_if``: for each bent tension-only member the ratings rest on, rate the members
+    again without it and say what that gives (:func:`_without_bent`); off for that rating
+    itself."""
     st = bridge.settings
     g = rating_geometry(bridge)
     warnings: list[str] = []
@@ -655,6 +702,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None) -> Bri
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
     warnings[:] = [_loop_rod_controls(w, controlling, ratings) for w in warnings]
+    if what_if:
+        warnings[:] = [_without_bent(w, bridge, cases) for w in warnings]
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases)
     return BridgeRating(
