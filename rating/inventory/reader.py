@@ -114,6 +114,15 @@ DAMAGE_IN_NOTE = "DAMAGE IN A NOTE"
 NO_PINS = "PINS NOT RATED"
 
 
+def _on_a_pin(design: MemberDesign | None) -> bool:
+    """Whether a member's bars hang on pins by their form: eyebars, and rods with loop
+    ends."""
+    if design is None:
+        return False
+    sec = design.section
+    return isinstance(sec, EyebarSet) or (isinstance(sec, RodSet) and sec.end is RodEnd.LOOP)
+
+
 def open_elsewhere(path: Path) -> Path | None:
     """The lock file a spreadsheet program keeps beside a workbook it has open ("~$name",
     "~$" in place of the name's first two letters, or ".~lock.name#"), if there is one."""
@@ -326,11 +335,11 @@ class _Reading:
                                f"{rows[label].ref('member')}); a member has one row")
                 continue
             rows[label] = r
-        if not rows and members.present:
+        mode = _s(self.b, "geometry") or "generated"
+        if not rows and members.present and mode != "generated":
             self.log.error(members.header_ref("member"),
                            "no members are listed; every member of the truss needs a row with "
                            "its section")
-        mode = _s(self.b, "geometry") or "generated"
         if mode == "generated":
             return self._generated(rows), rows
         return self._explicit(rows), rows
@@ -429,6 +438,12 @@ class _Reading:
             log.error(self.t[sc.MEMBERS.name].header_ref("member"),
                       f"the generated {form} truss has members with no row on Members (each "
                       f"needs its section): {_listing(missing, 40)}")
+        elif missing and self.t[sc.MEMBERS.name].present:
+            # (the names the user must type: they follow from the truss form and panels)
+            log.error(self.t[sc.MEMBERS.name].header_ref("member"),
+                      f"no members are listed; the generated {form} truss has these "
+                      f"{len(missing)}, each needing a row with its section: "
+                      f"{_listing(missing, 80)}")
         return g
 
     def _explicit(self, rows: dict[str, Row]) -> TrussGeometry | None:
@@ -1176,6 +1191,17 @@ class _Reading:
             diameter, mat = pins[joint]
             out.append(Pin(joint, diameter, tuple(it for _, it, _ in items), mat,
                            where=r.ref("joint")))
+        if pin_rows and g is not None:
+            # eyebars and loop rods hang on pins by their nature: a joint where they end with
+            # no pin listed has a pin that is not rated (riveted joints have no such bars)
+            pinned = [j.label for j in g.joints if j.label not in pin_rows and any(
+                _on_a_pin(by_member.get(m.label)) for m in g.members_at(j.label))]
+            if pinned:
+                many = len(pinned) > 1
+                log.warning(f"{sc.PINS.name}!A{sc.HEADER_ROW + 1}", "eyebars or loop rods end "
+                            f"at joint{'s' if many else ''} {_listing(pinned)} but no pin is "
+                            f"listed there, so {'those pins are' if many else 'that pin is'} "
+                            "not rated; list each with its packing (pins often govern)")
         if not pin_rows and self.book.find(sc.PINS.name) is not None:
             log.warning(f"{sc.PINS.name}!A{sc.HEADER_ROW + 1}", f"{NO_PINS}: the Pins sheet "
                         "lists no pin, so no pin is rated; on a pin-connected truss the pins "

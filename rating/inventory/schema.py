@@ -531,7 +531,12 @@ FINDINGS = TableSheet(
         _c("member", "Member", Kind.LABEL, required=True, list_source=MEMBER_LIST, width=10),
         _c("component", "Component", Kind.LABEL, blank_means="all"),
         _c("region", "Location", Kind.CHOICE, choices=tuple(r.value for r in FindingRegion),
-           blank_means="body"),
+           blank_means="body",
+           help="body: the shank, up to where an eyebar widens into its head; head: the forged "
+                "head around the pin hole (loss there is checked through and beyond the hole; "
+                "record the plate's remaining thickness on Packing too); thread: a rod's "
+                "thread, upset or loop; connection: a built-up member's pin plate or riveted "
+                "end."),
         _c("station", "Distance from start joint", Kind.NUMBER, LENGTH, ge=0, le=500),
         _c("remaining", "Remaining thickness", Kind.NUMBER, DIM, ge=0, le=6,
            help="Of the plate or bar; for a rod, the remaining diameter."),
@@ -600,7 +605,9 @@ DEADLOADS = TableSheet(
         _c("psf_deck", "Load on deck area", Kind.NUMBER, PSF, gt=0, le=500),
         _c("plf_bridge", "Line load on whole bridge", Kind.NUMBER, PLF, gt=0, le=10000),
         _c("plf_truss", "Line load on each truss", Kind.NUMBER, PLF, gt=0, le=5000),
-        _c("kip_floorbeam", "Load at each floorbeam", Kind.NUMBER, FORCE, gt=0, le=200),
+        _c("kip_floorbeam", "Load at each floorbeam", Kind.NUMBER, FORCE, gt=0, le=200,
+           help="For the whole floorbeam (not per truss): it is shared between the trusses "
+                "like the deck load."),
         _c("offset", "Offset from centre line", Kind.NUMBER, LENGTH, ge=-60, le=60,
            blank_means="0"),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
