@@ -106,6 +106,7 @@ class SummaryRow:
     posting: str
     note: str
     alike: str = ""  # others rated the same (mirror members of a symmetric truss)
+    finding: str = ""  # the inspection finding behind the governing check, if any
 
 
 @dataclass(frozen=True)
@@ -598,7 +599,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             check=(c.rating.check if c.rating is not None else ""),
             rf=rf_cell(rf), rating_tons=d.weight(rt), action=action, action_key=action_key,
             posting=posting, note=note,
-            alike=", ".join(entry.alike) if entry is not None else ""))
+            alike=", ".join(entry.alike) if entry is not None else "",
+            finding=c.rating.finding if c.rating is not None else ""))
     worst = overall_action((c.entry.action, c.vehicle.category) for c in ctl
                            if c.entry is not None)
 

@@ -346,3 +346,17 @@ def test_member_table_details(results_us: RatingResults) -> None:
     assert t_only and all(r.phi_rc != "0.0" for r in t_only)
     truss = next(f.value for f in view.bridge_facts if f.label == "Truss")
     assert truss[:1] == truss[:1].upper()
+
+
+def test_the_summary_names_the_finding_behind_each_governing_check(
+        results_us: RatingResults) -> None:
+    """Beside a governing check that rests on a recorded finding, the summary names it (a
+    reviewer read "rod end fracture at the loop" without the 45 % loss that drives it)."""
+    view = build_view(results_us)
+    with_finding = [r for r in view.summary if r.finding]
+    controls_ = {c.vehicle.id: c for c in controls(results_us)}
+    for r in view.summary:
+        c = controls_[r.vehicle_id]
+        assert r.finding == (c.rating.finding if c.rating is not None else "")
+    if with_finding:
+        assert f"finding: {with_finding[0].finding}" in render_report(results_us)
