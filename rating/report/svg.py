@@ -330,6 +330,10 @@ def legend_svg(bands: RFBands | None = None) -> Markup:
     body.append(_bearing(494, 20, "roller")
                 .replace("<title>expansion bearing (roller)</title>", ""))
     body.append(_text(508, y2 + 1.5, "expansion bearing", size=9, anchor="start"))
+    # (an upper joint drawn as a small hollow circle: no pin of it rated)
+    body.append('<circle cx="612" cy="30" r="2.6" fill="#fff" stroke="#222" '
+                'stroke-width="1"/>')
+    body.append(_text(620, y2 + 1.5, "joint, no pin rated", size=9, anchor="start"))
     return _svg(WIDTH, 46, "legend: rating factor bands", body, "legend")
 
 
