@@ -15,9 +15,10 @@ import io
 import posixpath
 import re
 import zipfile
-from collections.abc import Iterable, Sequence
+from collections.abc import Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import Any
 
 import openpyxl
 from defusedxml import ElementTree as SafeET
@@ -265,6 +266,24 @@ def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[obj
     return SheetGrid(name, tuple(rows), uncached, merges, truncated)
 
 
+def _shown_values(rows: Iterable[Sequence[Any]]) -> Iterator[tuple[object, ...]]:
+    """The cells' values, row by row, with a number formatted as a percent marked as such
+    (rating.inventory.xlsx.PercentNumber), as the direct reader marks it."""
+    for row in rows:
+        yield tuple(_shown(c) for c in row)
+
+
+def _shown(cell: Any) -> object:
+    v = cell.value
+    if type(v) not in (int, float):
+        return v
+    try:
+        code = getattr(cell, "number_format", None)
+    except (TypeError, IndexError, KeyError):  # a style openpyxl cannot look up (an empty
+        return v  # or damaged s attribute): its value as stored, as the direct reader has it
+    return xlsx.PercentNumber(v) if xlsx.is_percent_format(code) else v
+
+
 def open_book_reference(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
     """:func:`open_book` through openpyxl: the reader of every workbook the fast one refuses,
     and the reference the tests compare it with."""
@@ -296,9 +315,8 @@ def open_book_reference(path: Path, wanted: dict[str, int], max_rows: int) -> Bo
                 continue
             ex = extras.get(name, _Extras((), {}, {}))
             try:
-                grids[wanted_name] = _grid(name, ncols, max_rows, ws.iter_rows(
-                    min_row=1, max_row=max_rows + 1, max_col=ncols, values_only=True),
-                    ex.uncached, ex.merges)
+                grids[wanted_name] = _grid(name, ncols, max_rows, _shown_values(ws.iter_rows(
+                    min_row=1, max_row=max_rows + 1, max_col=ncols)), ex.uncached, ex.merges)
             except Exception as exc:  # noqa: BLE001 - a damaged sheet part: say so, go on
                 try:
                     ex = _sheet_extras(path, max_rows, {_sheet_key(name)}, deep=True).get(

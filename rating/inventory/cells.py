@@ -13,6 +13,7 @@ from dataclasses import dataclass
 
 from rating import units
 from rating.inventory.schema import YES_NO, Column, Kind
+from rating.inventory.xlsx import PercentNumber
 
 EXCEL_ERRORS = frozenset({"#DIV/0!", "#N/A", "#NAME?", "#NULL!", "#NUM!", "#REF!", "#VALUE!",
                           "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!", "#BLOCKED!",
@@ -161,11 +162,16 @@ def _unusual(v: float, col: Column, si: bool, words: str, limit: float) -> str:
 
 
 def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
+    shown_as_percent = isinstance(raw, PercentNumber)
     if isinstance(raw, int | float) and not isinstance(raw, bool):
         try:
             v = float(raw)
         except OverflowError:  # an integer beyond the range of a float
             v = math.inf
+        if shown_as_percent and col.unit == "%":
+            # a cell formatted as a percent shows its number a hundred times larger ("20%"
+            # typed is 0.2 stored): a percent column reads what the cell shows
+            v = round(v * 100.0, 9)
     elif isinstance(raw, str):
         got = _number_from_text(raw, col.unit_for(si))
         if got is None:
@@ -184,12 +190,13 @@ def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
     refused = _out_of_range(v, core, col, si)
     if refused is not None:
         return refused
-    if col.unit == "%" and 0.0 < v < 1.0 and not (isinstance(raw, str) and "%" in raw):
-        # a spreadsheet stores "20%" typed in a cell as 0.2: read as 0.2 % it would pass for
-        # a loss a hundred times too small (unconservative), so it is refused, not guessed
-        return Invalid(f"reads as {_fmt(v)} %, under one percent: a percent typed with its "
-                       f"sign in a spreadsheet ({_fmt(v * 100.0)}%) is stored as {_fmt(v)}; "
-                       f"type the number of percent ({_fmt(v * 100.0)}) in this column")
+    if (col.unit == "%" and 0.0 < v < 1.0 and not shown_as_percent
+            and not (isinstance(raw, str) and "%" in raw)):
+        # a fraction where the number of percent belongs (0.2 for 20 %) would pass for a loss
+        # a hundred times too small (unconservative): refused, not guessed
+        return Invalid(f"reads as {_fmt(v)} %, under one percent: this column takes the "
+                       f"number of percent, so for {_fmt(v * 100.0)} % type "
+                       f"{_fmt(v * 100.0)}; a loss under one percent is recorded as 0 or 1")
     value: object = int(core) if integer else core
     if col.warn_below is not None and core < col.warn_below:
         return Parsed(value, _unusual(v, col, si, "small (below", col.warn_below))

@@ -115,6 +115,23 @@ class _Plain:
     tail: int  # after the content's closing tag
 
 
+class PercentNumber(float):
+    """A number whose cell is formatted as a percent: the spreadsheet shows it a hundred
+    times larger (a cell typed "20%" holds 0.2 and shows 20%). It equals the stored value;
+    a percent column reads what the cell shows (rating.inventory.cells.parse_number)."""
+
+    __slots__ = ()
+
+
+def is_percent_format(code: str | None) -> bool:
+    """Whether a number format shows its number as a percent: a % outside quoted text and
+    escapes (a date or duration format is never one here)."""
+    if not code:
+        return False
+    plain = re.sub(r'"[^"]*"|\\.', "", code)
+    return "%" in plain
+
+
 @dataclass(frozen=True)
 class Package:
     """The parts of one workbook this reader needs, read and checked."""
@@ -126,6 +143,7 @@ class Package:
     duration_styles: frozenset[int]
     epoch: dt.datetime
     dimensioned: tuple[bool, ...]  # per sheet: a dimension before the rows
+    percent_styles: frozenset[int] = frozenset()  # styles showing numbers as percents
 
     def cells(self, name: str, ncols: int, max_rows: int) -> SheetCells:
         """The cells of sheet ``name``, ``ncols`` columns wide (see :class:`SheetCells`);
@@ -408,7 +426,8 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         CustomPropertyList.from_tree(fromstring(members.read(ARC_CUSTOM)))
     if ARC_THEME in names:
         members.read(ARC_THEME)  # openpyxl reads it: a damaged theme part is noticed here too
-    dates, durations = _date_styles(members.read(ARC_STYLE)) if ARC_STYLE in names else ((), ())
+    dates, durations, percents = (_date_styles(members.read(ARC_STYLE)) if ARC_STYLE in names
+                                  else ((), (), ()))
     sheet_names: list[str] = []
     worksheets: list[_Plain] = []
     dimensioned: list[bool] = []
@@ -434,7 +453,7 @@ def read_package(z: zipfile.ZipFile, path: Path) -> Package:
         _bind_sheet_names(workbook.definedNames, len(sheet_names))
     epoch = MAC_EPOCH if workbook.properties.date1904 else WINDOWS_EPOCH
     return Package(tuple(sheet_names), tuple(worksheets), strings, frozenset(dates),
-                   frozenset(durations), epoch, tuple(dimensioned))
+                   frozenset(durations), epoch, tuple(dimensioned), frozenset(percents))
 
 
 def _bind_sheet_names(names: DefinedNameList, sheets: int) -> None:
@@ -497,12 +516,13 @@ def _workbook_part(overrides: list[tuple[str, str]]) -> str:
     raise Unsupported("no workbook part among the overrides")
 
 
-def _date_styles(data: bytes) -> tuple[set[int], set[int]]:
+def _date_styles(data: bytes) -> tuple[set[int], set[int], set[int]]:
     """The cell styles (indexes into ``cellXfs``) whose number format shows a date or time,
-    and those showing a duration, derived as openpyxl derives them (Stylesheet
+    those showing a duration, derived as openpyxl derives them (Stylesheet
     ``_normalise_numbers``): a style's ``numFmtId`` names a custom ``numFmt`` of the sheet or
     else a built-in format, and openpyxl's own ``is_date_format`` and ``is_timedelta_format``
-    judge the format code. The rest of the stylesheet is only checked to be well-formed."""
+    judge the format code; and those showing a percent (:func:`is_percent_format`). The rest
+    of the stylesheet is only checked to be well-formed."""
     custom: dict[int, str] = {}
     formats: list[int] | None = None
     lists = {"numFmts": 0, "cellXfs": 0}
@@ -522,13 +542,16 @@ def _date_styles(data: bytes) -> tuple[set[int], set[int]]:
         raise Unsupported("a stylesheet with two lists of number or cell formats")
     dates: set[int] = set()
     durations: set[int] = set()
+    percents: set[int] = set()
     for idx, fmt_id in enumerate(formats or ()):
         fmt = custom[fmt_id] if fmt_id in custom else BUILTIN_FORMATS.get(fmt_id)
         if is_date_format(fmt):
             dates.add(idx)
+        elif is_percent_format(fmt):
+            percents.add(idx)
         if is_timedelta_format(fmt):
             durations.add(idx)
-    return dates, durations
+    return dates, durations, percents
 
 
 # A worksheet's relationships in the plain form programs write (attribute values without
@@ -732,7 +755,9 @@ class _SheetReader:
         text, start, end = part.text, part.start, part.end
         # references or carriage returns anywhere among the rows: every text is resolved
         escaped = text.find("&", start, end) >= 0 or text.find("\r", start, end) >= 0
-        plain: dict[str, bool] = {"": 0 not in dates}  # style -> its numbers are plain
+        percents = self.package.percent_styles
+        plain: dict[str, bool] = {"": 0 not in dates and 0 not in percents}  # style -> its
+        # numbers are plain (not dates, durations or percents)
         at, row, values, inside = "", 0, None, False  # the row of the cells met last
         for letters, digits, style, t, v, inline, inline_text in _VALUE_CELL.findall(
                 text, start, end):
@@ -745,7 +770,8 @@ class _SheetReader:
             elif not t or t == "n":
                 number = plain.get(style)
                 if number is None:
-                    number = plain[style] = int(style) not in dates
+                    number = plain[style] = (int(style) not in dates
+                                             and int(style) not in percents)
                 if not number:
                     got = value("n", int(style) if style else 0, v, False, None)
                 elif "." in v or "E" in v or "e" in v:  # as _cast_number
@@ -851,6 +877,8 @@ class _SheetReader:
                                       timedelta=style in self.package.duration_styles)
                 except (OverflowError, ValueError):
                     return "#VALUE!"  # as openpyxl: outside the limits for dates
+            if style in self.package.percent_styles:
+                return PercentNumber(number)
             return number
         if t == "s":
             return self.package.strings[int(v)]

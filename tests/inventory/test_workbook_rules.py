@@ -75,10 +75,9 @@ def _cells() -> tuple[dict, Edit | None]:
     add(d, "Materials", {"material": "M-2", "kind": "steel", "F_y": 250.0, "F_u": 400.0})
 
     def edit(wb: Workbook) -> None:
-        # "20%" typed into a spreadsheet cell is stored as 0.2 with a percent format
+        # a fraction typed where the number of percent belongs (0.2 for 20 %)
         s, c = cell("Findings", 1, "loss").split("!")
         wb[s][c] = 0.2
-        wb[s][c].number_format = "0%"
         s, c = cell("Findings", 0, "station").split("!")
         wb[s][c] = "#DIV/0!"
         s, c = cell("Rods", 0, "diameter").split("!")
@@ -119,9 +118,9 @@ CASES = [
          "holds the spreadsheet error #DIV/0!"),
     Case("formula without result", "cells", cell("Rods", 0, "diameter"),
          "the cell holds a formula (=1+0.125) whose result was never saved"),
-    Case("percent typed with its sign", "cells", cell("Findings", 1, "loss"),
-         "reads as 0.2 %, under one percent: a percent typed with its sign in a spreadsheet "
-         "(20%) is stored as 0.2; type the number of percent (20) in this column"),
+    Case("fraction for a percent", "cells", cell("Findings", 1, "loss"),
+         "reads as 0.2 %, under one percent: this column takes the number of percent, so for "
+         "20 % type 20; a loss under one percent is recorded as 0 or 1"),
     Case("merged cells", "cells", cell("Vehicles", 0, "vehicle"), "are merged; unmerge them"),
     Case("merged hides a value", "cells", cell("Vehicles", 0, "name"),
          "Name of vehicle OWN-1 is required and is blank"),

@@ -354,7 +354,7 @@ def test_date_styles_as_openpyxl_derives_them(styles: str) -> None:
         return
     expected = ((sheet.date_formats, sheet.timedelta_formats) if sheet.cell_styles
                 else (set(), set()))
-    assert xlsx._date_styles(styles.encode()) == expected
+    assert xlsx._date_styles(styles.encode())[:2] == expected
 
 
 def test_samples_date_styles_as_openpyxl_derives_them() -> None:
@@ -365,7 +365,44 @@ def test_samples_date_styles_as_openpyxl_derives_them() -> None:
         with zipfile.ZipFile(path) as z:
             data = z.read("xl/styles.xml")
         sheet = Stylesheet.from_tree(fromstring(data))
-        assert xlsx._date_styles(data) == (sheet.date_formats, sheet.timedelta_formats)
+        assert xlsx._date_styles(data)[:2] == (sheet.date_formats, sheet.timedelta_formats)
+
+
+@pytest.mark.parametrize("code,percent", [
+    ("0%", True), ("0.00%", True), ('0.0"%"', False), ("0\\%", False), ("General", False),
+    ("0.00", False), ("yyyy-mm-dd", False), (None, False), ('[Red]0.0%;"-"', True)])
+def test_percent_formats(code: str | None, percent: bool) -> None:
+    """A number format shows a percent where a % stands outside quoted text and escapes
+    (ECMA-376 Part 1, 18.8.31 numFmt, the format codes)."""
+    assert xlsx.is_percent_format(code) is percent
+
+
+def test_a_percent_typed_with_its_sign_reads_as_shown_both_ways(tmp_path: Path) -> None:
+    """A cell typed "45%" in a spreadsheet holds 0.45 with a percent format: both readers
+    mark it (xlsx.PercentNumber), and a percent column reads 45, what the cell shows (a
+    reviewer saw 100% read as 1 %)."""
+    import openpyxl
+
+    from rating.inventory.book import open_book, open_book_reference
+    from rating.inventory.cells import parse_number
+    from rating.inventory.schema import FINDINGS
+
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Data"
+    ws["A1"], ws["B1"], ws["C1"] = 0.45, 1.0, 0.45
+    ws["A1"].number_format = ws["B1"].number_format = "0%"
+    path = tmp_path / "pct.xlsx"
+    wb.save(path)
+    loss = next(c for c in FINDINGS.columns if c.key == "loss")
+    for opener in (open_book, open_book_reference):
+        grid = opener(path, {"Data": 3}, 10).grids["Data"]
+        a, b, c = grid.value(1, 1), grid.value(1, 2), grid.value(1, 3)
+        assert isinstance(a, xlsx.PercentNumber) and isinstance(b, xlsx.PercentNumber)
+        assert not isinstance(c, xlsx.PercentNumber)
+        assert parse_number(a, loss, False).value == 45.0
+        assert parse_number(b, loss, False).value == 100.0
+        assert "type 45" in parse_number(c, loss, False).message
 
 
 def test_stylesheet_values_never_used_no_longer_refuse_the_workbook(tmp_path: Path) -> None:
