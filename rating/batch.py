@@ -356,7 +356,11 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
     for p in planned:
         if p.resolve() in inputs:
             raise InputError(f"refusing to write {p}: it is an input workbook", where=str(p))
-    out_dir.mkdir(parents=True, exist_ok=True)
+    try:
+        out_dir.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:  # a file on the way, a folder we may not write to
+        raise InputError(f"the output folder {out_dir} cannot be made: {exc}",
+                         where=str(out_dir)) from exc
     vids = tuple(vehicle_ids) if vehicle_ids else None
     tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder))
              for b, s in zip(books, stems, strict=True)]

@@ -208,9 +208,11 @@ def run_batch(args: argparse.Namespace) -> int:
     if args.workers is not None and args.workers < 1:
         print("pintruss: --workers must be 1 or more", file=sys.stderr)
         return EXIT_USAGE
-    if args.out.exists() and not args.out.is_dir():
-        print(f"pintruss: --out {args.out} is a file, not a folder; nothing was rated or "
-              "written", file=sys.stderr)
+    blocked = next((q for q in (args.out, *args.out.parents)
+                    if q.exists() and not q.is_dir()), None)
+    if blocked is not None:
+        print(f"pintruss: --out {args.out}: {blocked} is a file, not a folder; nothing was "
+              "rated or written", file=sys.stderr)
         return EXIT_USAGE
     vehicle_ids = None
     if getattr(args, "vehicles", None):

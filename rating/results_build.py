@@ -360,8 +360,9 @@ def recommendation(rating: BridgeRating, unit: str,
     if closing:
         text = "Consider closing the bridge: " + why(closing) + "."
         if trucks:
-            text += (" Should the owner keep it open meanwhile, the other trucks' safe posting "
-                     f"loads are: {each(trucks)}.")
+            text += (" Should the owner keep it open meanwhile, the trucks named here must not "
+                     "cross (no posting covers them), and the other trucks' safe posting loads "
+                     f"are: {each(trucks)}.")
         return text + ev_text + tail
     if not trucks_all:
         chosen = ", ".join(c.load.id for c in rating.cases if c.postable) or "none"

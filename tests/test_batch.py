@@ -202,6 +202,9 @@ def test_cli_batch_exit_codes(tmp_path: Path, capsys: pytest.CaptureFixture[str]
     capsys.readouterr()
     assert main(["batch", str(folder), "--out", str(a_file), "--workers", "1"]) == 2
     assert "is a file, not a folder" in capsys.readouterr().err
+    # and a folder beneath a file (it raised NotADirectoryError, a traceback)
+    assert main(["batch", str(folder), "--out", str(a_file / "sub"), "--workers", "1"]) == 2
+    assert "is a file, not a folder" in capsys.readouterr().err
     assert a_file.read_text() == "mine"
     # an id outside the library may be an owner's vehicle: said once, before the workbooks
     main(["batch", str(folder), "--out", str(tmp_path / "o"), "--workers", "1",

@@ -177,8 +177,9 @@ def test_recommendation_for_a_closure_gives_the_other_trucks_postings(pony_ratin
     res = build_results(_with_case(pony_rating, "TYPE-3", 0.2))
     assert res.recommendation.startswith("Consider closing the bridge: the rating factor is "
                                          "below 0.3 for AASHTO legal load Type 3 (RF 0.20")
-    assert "Should the owner keep it open meanwhile, the other trucks' safe posting loads " \
-           "are:" in res.recommendation
+    assert ("Should the owner keep it open meanwhile, the trucks named here must not cross "
+            "(no posting covers them), and the other trucks' safe posting loads are:"
+            in res.recommendation)
     assert "Post the bridge" not in res.recommendation
 
 

@@ -96,7 +96,7 @@ def read_workbook(path: Path) -> WorkbookReading:
     if lock is not None:
         log.warning(path.name, f"{UNSAVED_EDITS}: the workbook seems to be open in a spreadsheet "
                     f"program (its lock file {lock.name} is beside it): what is read is the "
-                    "file as last saved; edits not yet saved are not in this rating")
+                    "file as last saved; edits not yet saved are not in this rating.")
     problems, assumptions = tuple(log.problems), tuple(log.assumptions)
     if getattr(reading, "si", False):
         # the messages quote core units; an SI workbook reads them in SI
@@ -1207,7 +1207,7 @@ class _Reading:
                         "lists no pin, so no pin is rated; on a pin-connected truss the pins "
                         "often govern, so list each pin with its packing before relying on a "
                         "posting (where the joints are riveted, their gusset plates need a "
-                        "rating of their own)")
+                        "rating of their own).")
         return tuple(out)
 
     # -- loads ----------------------------------------------------------------------------
@@ -1252,15 +1252,15 @@ class _Reading:
         elif _b(b, "ws_measured"):
             log.warning(b.ref("ws_measured"), "the wearing surface is marked as measured but "
                         "no thickness is given")
-        if not out and self.book.find(sc.DEADLOADS.name) is not None \
-                and not self.t[sc.DEADLOADS.name].rows:
-            # a truss always carries a deck and a floor system: nothing here is a gap in the
-            # record, and it raises every rating (the dead load is the trusses' weight only)
+        if (not any(x.kind is DeadLoadKind.DC for x in out)
+                and self.book.find(sc.DEADLOADS.name) is not None and not log.has_errors):
+            # a truss always carries a deck and a floor system: no DC beyond the trusses' own
+            # weight is a gap in the record, and it raises every rating
             log.warning(f"{sc.DEADLOADS.name}!A{sc.HEADER_ROW + 1}", f"{NO_DEAD_LOAD}: the "
-                        "DeadLoads sheet lists no dead load and no wearing surface is given, so "
-                        "the rating carries the trusses' own weight only, without the deck, "
-                        "stringers, floorbeams or railings; list them (psf of deck, plf or kip "
-                        "per floorbeam) before relying on any rating factor or posting")
+                        "DeadLoads sheet lists no DC (deck, stringers, floorbeams, railings), "
+                        "so the rating carries the trusses' own weight and any wearing surface "
+                        "only; list them (psf of deck, plf or kip per floorbeam) before relying "
+                        "on any rating factor or posting.")
         return tuple(out)
 
     def _vehicles(self) -> tuple[Vehicle, ...]:

@@ -74,8 +74,12 @@ def posting(rf: float, gross_weight: float, unit: str = "ton") -> PostingResult:
         safe = safe_posting_load(shown, gross_weight, p["lower_rf"])
         least = least_posting_load(unit)
         if safe >= least - 1e-9:
-            return PostingResult(rf, rt, posting_load(rf, gross_weight), PostingAction.POST,
-                                 p["source"])
+            load = posting_load(rf, gross_weight)
+            note = "" if load >= least - 1e-9 else (
+                f"the safe posting load, {safe:.2f} {unit}s, is at least the "
+                f"{p['least_tons']:g} tons ({least:.2f} {unit}s) a bridge kept open must "
+                f"carry; the sign is rounded down to whole {unit}s")
+            return PostingResult(rf, rt, load, PostingAction.POST, p["source"], note)
         in_unit = "" if unit == "ton" else f" ({least:.2f} {unit}s)"
         return PostingResult(rf, rt, None, PostingAction.CLOSE, p["least_source"], (
             f"the safe posting load (W / 0.7) \u00d7 (RF \u2212 0.3) is {safe:.2f} {unit}s, "

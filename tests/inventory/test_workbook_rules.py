@@ -242,6 +242,21 @@ CASES += [
 ]
 
 
+@group("wearing-surface-only")
+def _wearing_surface_only() -> tuple[dict, Edit | None]:
+    d = fresh()
+    d["tables"]["DeadLoads"] = []
+    d["bridge"].update(ws_thickness=2.0)
+    return d, None
+
+
+CASES += [
+    # a wearing surface (DW) alone does not make a deck: still no DC beyond the trusses
+    Case("wearing surface only", "wearing-surface-only", "DeadLoads!A4",
+         "NO DECK DEAD LOAD: the DeadLoads sheet lists no DC", "warning"),
+]
+
+
 @group("empty-dead-loads-and-pins")
 def _empty_dead_loads_and_pins() -> tuple[dict, Edit | None]:
     d = fresh()
@@ -256,7 +271,7 @@ CASES += [
     # a truss always carries a deck and floor system: none listed lowers no rating factor,
     # it raises them all; said in capitals, beside the recommendation
     Case("no dead load listed", "empty-dead-loads-and-pins", "DeadLoads!A4",
-         "NO DECK DEAD LOAD: the DeadLoads sheet lists no dead load", "warning"),
+         "NO DECK DEAD LOAD: the DeadLoads sheet lists no DC (deck, stringers", "warning"),
     Case("no pin listed", "empty-dead-loads-and-pins", "Pins!A4",
          "PINS NOT RATED: the Pins sheet lists no pin", "warning"),
 ]

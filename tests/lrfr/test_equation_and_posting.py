@@ -135,6 +135,10 @@ def test_a_posting_under_three_tons_is_a_closure():
     # reviewer found SI closing it after rounding 2.79 down to 2 first)
     si = posting(0.35, 39.0, "tonne")
     assert si.action is PostingAction.POST and si.posting_tons == 2.0
+    # a sign under 2.72 t says why the bridge is not closed (a reviewer asked)
+    assert "2.79 tonnes, is at least the 3 tons (2.72 tonnes)" in si.reason
+    assert "the sign is rounded down to whole tonnes" in si.reason
+    assert posting(0.36, 40.0).reason == ""
     assert posting(0.35, 39.0 * 1.10231131, "ton").posting_tons == 3.0
     assert least_posting_load("ton") == 3.0
     assert least_posting_load("tonne") == pytest.approx(3.0 * 0.90718474)
