@@ -78,12 +78,24 @@ class BridgeRow:
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
     def lowest_legal(self) -> VehicleLine | None:
-        """The lowest RF among the trucks rated at the legal level (legal loads, SHVs and
-        owner vehicles; not the emergency vehicles, which never close a bridge:
-        rating.results.overall_action), with its vehicle."""
+        """The truck that decides the bridge's action (legal loads, SHVs and owner vehicles;
+        not the emergency vehicles, which never close a bridge: rating.results.overall_action):
+        the lowest RF among those calling for closing, else the lowest posting (the single
+        weight limit), else the lowest RF. (The lowest RF alone may be a posted truck while a
+        lighter one closes the bridge by the 3-ton rule.)"""
         legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None
                  and v.category != EMERGENCY]
-        return min(legal, key=lambda v: v.rf if v.rf is not None else math.inf, default=None)
+
+        def rf(v: VehicleLine) -> float:
+            return v.rf if v.rf is not None else math.inf
+
+        closing = [v for v in legal if v.action == "close"]
+        if closing:
+            return min(closing, key=rf)
+        posted = [v for v in legal if v.action == "post" and v.posting is not None]
+        if posted:
+            return min(posted, key=lambda v: (v.posting, rf(v)))
+        return min(legal, key=rf, default=None)
 
 
 @dataclass(frozen=True)
@@ -457,7 +469,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     bridge's own weight unit, named in its row)."""
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
-            "weight unit", "lowest truck RF", "its vehicle", "action",
+            "weight unit", "deciding truck RF", "deciding truck", "action",
             "recommendation", "read before deciding", "errors", "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:
@@ -584,11 +596,13 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
 def _same_structure(rows: Sequence[BridgeRow]) -> tuple[tuple[str, tuple[str, ...]], ...]:
     """Structure ids rated from more than one workbook, with those workbooks: a copy of a
     workbook, or a bridge entered under another's id; either way the reviewer should know."""
-    by_id: dict[str, list[str]] = {}
+    by_id: dict[str, tuple[str, list[str]]] = {}
     for r in rows:
-        if r.structure:
-            by_id.setdefault(r.structure, []).append(r.workbook)
-    return tuple((sid, tuple(books)) for sid, books in by_id.items() if len(books) > 1)
+        if r.structure.strip():
+            # (the same id typed in another case or with spaces is the same bridge)
+            key = " ".join(r.structure.split()).casefold()
+            by_id.setdefault(key, (r.structure.strip(), []))[1].append(r.workbook)
+    return tuple((sid, tuple(books)) for sid, books in by_id.values() if len(books) > 1)
 
 
 def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:
@@ -603,4 +617,11 @@ def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:
             stream.write(f"    {e}\n")
         if len(r.errors) > 5:
             stream.write(f"    ... and {len(r.errors) - 5} more (see {INDEX_HTML})\n")
+    for sid, books in _same_structure(summary.rated):
+        stream.write(f"  note: structure {sid} is rated from {len(books)} workbooks: "
+                     f"{', '.join(books)}\n")
+    stale = [x for r in summary.rows for x in r.stale]
+    if stale or summary.others:
+        stream.write(f"  note: {len(stale) + len(summary.others)} rating file(s) in the output "
+                     "folder are not from this run (listed in the index)\n")
     stream.write(f"summary: {summary.csv_path}\nindex:   {summary.index_path}\n")

@@ -419,6 +419,13 @@ def test_earlier_outputs_and_copies_are_named_in_the_summary(tmp_path: Path) -> 
     index = (out / INDEX_HTML).read_text(encoding="utf-8")
     sid = sample_results().bridge.id
     assert f"Structure {sid}</strong> is rated from 2 workbooks" in index
+    # the terminal says so too, not only the index
+    from rating.batch import print_summary
+
+    text = io.StringIO()
+    print_summary(rate_folder(folder, out, workers=1, rate=fake_rate), text)
+    assert f"note: structure {sid} is rated from 2 workbooks: a.xlsx, b.xlsx" in text.getvalue()
+    assert "rating file(s) in the output folder are not from this run" in text.getvalue()
     assert index.index('id="failed"') < index.index('id="rated"')  # what needs action first
 
 
@@ -440,4 +447,24 @@ def test_csv_speaks_as_the_report_and_its_lowest_rf_is_a_trucks(tmp_path: Path) 
     low = row.lowest_legal()
     assert low is not None and low.vehicle != ev and low.category != "emergency"
     csv_row = _csv_rows_text(summary_csv([row]))[0]
-    assert csv_row["its vehicle"] == low.vehicle
+    assert csv_row["deciding truck"] == low.vehicle
+
+
+def test_the_deciding_truck_is_the_one_behind_the_action(tmp_path: Path) -> None:
+    """The CSV's deciding truck: a closing one where the bridge closes (a lighter truck can
+    close it by the 3-ton rule while the lowest RF is posted), the lowest posting where it is
+    posted. Structure ids that differ only in case or spaces are one bridge."""
+    from dataclasses import replace
+
+    from rating.batch import VehicleLine, _same_structure
+
+    lines = (VehicleLine("SU7", "SU7", "legal", 0.36, "L1U1", "post", 3.0, "specialized"),
+             VehicleLine("SU6", "SU6", "legal", 0.37, "L1U1", "close", None, "specialized"),
+             VehicleLine("T3", "T3", "legal", 0.40, "L1U1", "post", 5.0, "legal"))
+    row = BridgeRow(workbook="a.xlsx", rated=True, vehicles=lines, action="close")
+    assert row.lowest_legal().vehicle == "SU6"
+    posted = replace(row, vehicles=(lines[0], lines[2]), action="post")
+    assert posted.lowest_legal().vehicle == "SU7"
+    same = _same_structure([replace(row, structure="TC-0417"),
+                            replace(row, workbook="b.xlsx", structure=" tc-0417 ")])
+    assert same == (("TC-0417", ("a.xlsx", "b.xlsx")),)
