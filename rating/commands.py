@@ -220,9 +220,9 @@ def run_batch(args: argparse.Namespace) -> int:
         if vehicle_ids is None:
             print("pintruss: --vehicles names no vehicle", file=sys.stderr)
             return EXIT_USAGE
-        from rating.vehicles.library import library, rating_loads
+        from rating.vehicles.library import known_ids
 
-        known = {x.id.casefold() for x in (*rating_loads(), *library())}
+        known = known_ids()
         for vid in vehicle_ids:
             if vid.casefold() not in known:  # (it may be an owner's vehicle on the workbooks)
                 print(f"pintruss: note: {vid} is not in the vehicle library, so it must be an "

@@ -71,7 +71,7 @@ from rating.model import (
 )
 from rating.model.builders import build_truss
 from rating.units import si_text
-from rating.vehicles.library import library, rating_loads
+from rating.vehicles.library import known_ids, rating_loads
 
 __all__ = ["read_workbook", "WorkbookReading"]
 
@@ -1400,9 +1400,8 @@ class _Reading:
 
 
 def _library_ids() -> frozenset[str]:
-    """Ids of the library's rating loads and vehicles, case-folded."""
-    return frozenset([r.id.casefold() for r in rating_loads()]
-                     + [v.id.casefold() for v in library()])
+    """Ids of the library's rating loads, their design cases and vehicles, case-folded."""
+    return known_ids()
 
 
 _DAMAGE_WORDS = re.compile(

@@ -151,9 +151,25 @@ def rating_load(load_id: str, owner_vehicles: Sequence[Vehicle] = ()) -> RatingL
     for v in library():
         if v.id.casefold() == key:
             return as_rating_load(v)
+    for level in ("-inv", "-opr"):  # a design load's case id, as the results name it
+        if key.endswith(level):
+            for c in _data()[1]:
+                if c.id.casefold() == key.removesuffix(level) and \
+                        c.category is VehicleCategory.DESIGN:
+                    return c  # (both levels are rated: they share the load's search)
     known = ", ".join([c.id for c in _data()[1]] + [v.id for v in library()]
                       + [v.id for v in owner_vehicles])
     raise InputError(f"no rating load or vehicle with id {load_id!r}; known: {known}")
+
+
+def known_ids() -> frozenset[str]:
+    """Every id :func:`rating_load` takes without the owner's vehicles, case-folded: the
+    shipped loads, their design cases (``hl-93-inv``, ``hl-93-opr``) and the vehicles."""
+    loads = _data()[1]
+    return frozenset([c.id.casefold() for c in loads]
+                     + [f"{c.id.casefold()}{level}" for c in loads
+                        if c.category is VehicleCategory.DESIGN for level in ("-inv", "-opr")]
+                     + [v.id.casefold() for v in library()])
 
 
 def as_rating_load(v: Vehicle, *, neglect_opposing_axles: bool = False) -> RatingLoad:

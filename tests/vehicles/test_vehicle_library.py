@@ -102,3 +102,14 @@ def test_unknown_id_lists_the_library():
         vehicle("HS-25")
     with pytest.raises(InputError, match="HL-93"):
         rating_load("HS-25")
+
+
+def test_a_design_case_id_names_its_load():
+    """The results name HL-93's cases HL-93-INV and HL-93-OPR: those ids, as printed, are
+    taken for the load (both levels are rated, sharing its search); other suffixes are not."""
+    from rating.vehicles.library import known_ids, rating_load
+
+    assert rating_load("HL-93-INV").id == rating_load("hl-93-opr").id == "HL-93"
+    assert {"hl-93-inv", "hl-93-opr", "hl-93", "type-3"} <= known_ids()
+    with pytest.raises(InputError):
+        rating_load("TYPE-3-INV")
