@@ -35,6 +35,13 @@ from rating.results import (
 
 TAG_TEXT = {"V": "read in the source", "M": "value from memory", "CP": "common practice"}
 LEVEL_TEXT = {"inventory": "inventory", "operating": "operating", "legal": "legal load"}
+
+
+def level_text(v: VehicleResult) -> str:
+    """The rating level as the report words it; an emergency vehicle, rated at the legal level
+    with its own load factor, is named as one (it never closes a bridge)."""
+    text = LEVEL_TEXT.get(v.rating_level, v.rating_level)
+    return f"{text} (emergency vehicle)" if v.category == EMERGENCY else text
 ACTION_TEXT = {"none": "no restriction", "post": "post", "close": "consider closing"}
 
 
@@ -594,7 +601,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             note = "" if "design" in note.lower() else note
         summary.append(SummaryRow(
             vehicle=_vehicle_label(v, v.id), vehicle_id=v.id,
-            level=LEVEL_TEXT.get(v.rating_level, v.rating_level),
+            level=level_text(v),
             weight=d.field(v, "gross_weight"), element=c.element or DASH,
             check=(c.rating.check if c.rating is not None else ""),
             rf=rf_cell(rf), rating_tons=d.weight(rt), action=action, action_key=action_key,
@@ -748,7 +755,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
 
     vehicles = tuple(VehicleRow(
         id=v.id, name=v.name, category=v.category,
-        level=LEVEL_TEXT.get(v.rating_level, v.rating_level),
+        level=level_text(v),
         weight=d.field(v, "gross_weight"), axles=d.series(v.axle_loads, "force"),
         spacings=" / ".join(d.length(a) if math.isclose(a, b_) else
                             f"{d.length(a)}\u2013{d.length(b_)}" for a, b_ in v.spacings),

@@ -365,3 +365,13 @@ def test_the_summary_names_the_finding_behind_each_governing_check(
         repeats = sum(1 for a, b in zip(view.summary, view.summary[1:], strict=False)
                       if b.finding and b.finding == a.finding)
         assert html.count("finding: as above") == repeats
+
+
+def test_an_emergency_vehicle_is_named_as_one_in_the_level_column(
+        results_us: RatingResults) -> None:
+    view = build_view(results_us)
+    ev = {v.id for v in results_us.vehicles if v.category == "emergency"}
+    assert ev and all(r.level == "legal load (emergency vehicle)" for r in view.summary
+                      if r.vehicle_id in ev)
+    assert all(r.level != "legal load (emergency vehicle)" for r in view.summary
+               if r.vehicle_id not in ev)
