@@ -78,11 +78,12 @@ class BridgeRow:
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
     def lowest_legal(self) -> VehicleLine | None:
-        """The truck that decides the bridge's action (legal loads, SHVs and owner vehicles;
-        not the emergency vehicles, which never close a bridge: rating.results.overall_action):
-        the lowest RF among those calling for closing, else the lowest posting (the single
-        weight limit), else the lowest RF. (The lowest RF alone may be a posted truck while a
-        lighter one closes the bridge by the 3-ton rule.)"""
+        """The vehicle that decides the bridge's action: among the trucks (legal loads, SHVs
+        and owner vehicles) the lowest RF of those calling for closing, else the lowest posting
+        (the single weight limit); else a barred emergency vehicle (the bridge's "post" is then
+        its barring: rating.results.overall_action); else the lowest RF of a truck that could
+        be posted. (The lowest RF alone may be a posted truck while a lighter one closes the
+        bridge by the 3-ton rule.)"""
         legal = [v for v in self.vehicles if v.level == "legal" and v.rf is not None
                  and v.category != EMERGENCY]
 
@@ -95,7 +96,11 @@ class BridgeRow:
         posted = [v for v in legal if v.action == "post" and v.posting is not None]
         if posted:
             return min(posted, key=lambda v: (v.posting, rf(v)))
-        return min(legal, key=rf, default=None)
+        barred = [v for v in self.vehicles if v.action == "bar" and v.rf is not None]
+        if barred:  # the bridge's "post" is an emergency vehicle's barring alone
+            return min(barred, key=rf)
+        # (not a screening load: it is never posted, so it decides nothing)
+        return min((v for v in legal if v.action != "not posted"), key=rf, default=None)
 
 
 @dataclass(frozen=True)

@@ -465,6 +465,13 @@ def test_the_deciding_truck_is_the_one_behind_the_action(tmp_path: Path) -> None
     assert row.lowest_legal().vehicle == "SU6"
     posted = replace(row, vehicles=(lines[0], lines[2]), action="post")
     assert posted.lowest_legal().vehicle == "SU7"
+    # a bridge whose "post" is an emergency vehicle's barring names that vehicle; the NRL, a
+    # screen never posted, decides nothing
+    nrl = VehicleLine("NRL", "NRL", "legal", 0.49, "U2L3", "not posted", None, "specialized")
+    fine = VehicleLine("T3", "T3", "legal", 1.2, "L1U1", "none", None, "legal")
+    ev = VehicleLine("EV3", "EV3", "legal", 0.25, "L1U1", "bar", None, "emergency")
+    assert replace(row, vehicles=(nrl, fine, ev), action="post").lowest_legal().vehicle == "EV3"
+    assert replace(row, vehicles=(nrl, fine), action="none").lowest_legal().vehicle == "T3"
     same = _same_structure([replace(row, structure="TC-0417"),
                             replace(row, workbook="b.xlsx", structure=" tc-0417 ")])
     assert same == (("TC-0417", ("a.xlsx", "b.xlsx")),)

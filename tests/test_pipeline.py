@@ -494,7 +494,7 @@ def test_the_pin_tables_print_the_plate_forces_at_the_rating_load(outcomes):
 
 
 def test_workbook_warnings_that_bear_on_the_decision_reach_the_recommendation(tmp_path):
-    """A workbook warning headed in capitals (no dead load listed, no pin listed, the workbook
+    """A workbook warning headed in capitals (here: no deck dead load listed, the workbook
     open with edits perhaps unsaved) keeps its head first in the results, with its cell after
     it, so the report's recommendation box and the batch's "read before deciding" show it."""
     sys.path.insert(0, str(Path(__file__).resolve().parent / "inventory"))

@@ -194,9 +194,10 @@ def parse_number(raw: object, col: Column, si: bool) -> Parsed | Invalid:
             and not (isinstance(raw, str) and "%" in raw)):
         # a fraction where the number of percent belongs (0.2 for 20 %) would pass for a loss
         # a hundred times too small (unconservative): refused, not guessed
-        return Invalid(f"reads as {_fmt(v)} %, under one percent: this column takes the "
-                       f"number of percent, so for {_fmt(v * 100.0)} % type "
-                       f"{_fmt(v * 100.0)}; a loss under one percent is recorded as 0 or 1")
+        return Invalid(f"reads as {_fmt(v)} %, under one percent: the number of percent "
+                       f"goes here, so for {_fmt(v * 100.0)} % type {_fmt(v * 100.0)}"
+                       + ("; a loss under one percent is recorded as 0 or 1"
+                          if col.key == "loss" else ""))
     value: object = int(core) if integer else core
     if col.warn_below is not None and core < col.warn_below:
         return Parsed(value, _unusual(v, col, si, "small (below", col.warn_below))

@@ -259,6 +259,16 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
                                         for v in bridge.owner_vehicles]
     else:
         loads = [rating_load(i, bridge.owner_vehicles) for i in ids]
+        chosen = {x.id for x in loads}
+        if "NRL" in chosen:
+            # the NRL is a screen for the single-unit SHVs (FHWA SHV Q&A, March 2014): where
+            # it rates below 1.0 they are rated one by one, so they are rated with it
+            added = [v for v in SHVS if v not in chosen]
+            loads += [rating_load(v, bridge.owner_vehicles) for v in added]
+            if added:
+                notes.append(f"The NRL is rated as a screen for the single-unit SHVs; "
+                             f"{', '.join(added)} are rated with it (FHWA, Load Rating of "
+                             "Specialized Hauling Vehicles, Q&A, March 2014).")
     cases: list[RatingCase] = []
     seen: set[str] = set()
     for load in loads:
@@ -364,17 +374,14 @@ LOOP_ROD_CONTROLS = "LOOP ROD CONTROLS"
 DEAD_LOAD_PAST_RESISTANCE = "DEAD LOAD EXCEEDS RESISTANCE"
 
 
-def _loop_rod_controls(warning: str, controlling: set[str],
-                       ratings: Mapping[tuple[str, str], MemberCaseRating]) -> str:
+def _loop_rod_controls(warning: str, controlling: set[str]) -> str:
     """The forge-weld caution of a loop rod (rating.capacity.sections) headed in capitals
-    where that rod controls a posting at its loop: a crack at the forge line, not seen, would
-    take the rod out, and the posting rests on it."""
+    where that rod sets a posting, a closure or a barring, whatever check governs it: a crack
+    at the forge line, not seen, would take the rod out, and the decision rests on it."""
     head, sep, _ = warning.partition(": ")
     if not (sep and head.startswith("member ") and "forge-welded loop rods" in warning):
         return warning
-    member = head.removeprefix("member ")
-    at_loop = any(lab == member and "loop" in r.check for (lab, _), r in ratings.items())
-    if member in controlling and at_loop:
+    if head.removeprefix("member ") in controlling:
         return f"{LOOP_ROD_CONTROLS}: {warning}"
     return warning
 
@@ -696,12 +703,14 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings))
+    # what sets a posting, a closure or a barring (not a rating of 1.0 or more, nor a screen)
     controlling = {cp.controlling for cid, cp in postings.items()
-                   if any(c.id == cid and c.postable for c in cases)}
+                   if any(c.id == cid and c.postable for c in cases) and not cp.screened_out
+                   and cp.result.action in (PostingAction.POST, PostingAction.CLOSE)}
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
-    warnings[:] = [_loop_rod_controls(w, controlling, ratings) for w in warnings]
+    warnings[:] = [_loop_rod_controls(w, controlling) for w in warnings]
     if what_if:
         warnings[:] = [_without_bent(w, bridge, cases) for w in warnings]
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
@@ -1035,8 +1044,19 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                           "and posted one by one (FHWA SHV Q&A, March 2014)"), alike=alike)
     if nrl_ok:
         for cid, cp in out.items():
-            if cid in ("SU4", "SU5", "SU6", "SU7"):
+            if cid not in SHVS:
+                continue
+            if cp.rf >= 1.0:
                 out[cid] = replace(cp, screened_out=True, note=(
                     "NRL rating factor is at least 1.0, so this single-unit SHV need not be "
                     "rated (FHWA SHV Q&A, March 2014); shown for information."))
+            else:  # the NRL does not cover it here (e.g. a member the load reverses)
+                out[cid] = replace(cp, note=(
+                    "rated below 1.0 although the NRL rates at least 1.0: the NRL does not "
+                    "cover this SHV for the member that controls it, so it is posted on its "
+                    "own" + (f"; {cp.note}" if cp.note else "")))
     return out
+
+
+SHVS = ("SU4", "SU5", "SU6", "SU7")
+"""The single-unit specialized hauling vehicles the NRL screens (FHWA SHV Q&A, March 2014)."""

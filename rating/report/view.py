@@ -665,7 +665,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     rows: list[MemberRow] = []
     path_rows: list[PathRow] = []
     sets_posting = {(e.member, vid) for vid, e in results.posting.items()
-                    if vmap.get(vid) is not None and vmap[vid].rating_level == "legal"}
+                    if vmap.get(vid) is not None and vmap[vid].rating_level == "legal"
+                    and e.action in ("post", "close")}
     crossing = _crossing_tension_only(results)
     for m in results.members:
         low = svg.lowest_rating(m.ratings.items())

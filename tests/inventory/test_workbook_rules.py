@@ -119,8 +119,8 @@ CASES = [
     Case("formula without result", "cells", cell("Rods", 0, "diameter"),
          "the cell holds a formula (=1+0.125) whose result was never saved"),
     Case("fraction for a percent", "cells", cell("Findings", 1, "loss"),
-         "reads as 0.2 %, under one percent: this column takes the number of percent, so for "
-         "20 % type 20; a loss under one percent is recorded as 0 or 1"),
+         "reads as 0.2 %, under one percent: the number of percent goes here, so for 20 % "
+         "type 20; a loss under one percent is recorded as 0 or 1"),
     Case("merged cells", "cells", cell("Vehicles", 0, "vehicle"), "are merged; unmerge them"),
     Case("merged hides a value", "cells", cell("Vehicles", 0, "name"),
          "Name of vehicle OWN-1 is required and is blank"),

@@ -453,9 +453,58 @@ def test_dead_load_past_resistance_and_a_controlling_loop_rod_bear_on_the_decisi
     assert _dead_load_past_resistance(rate_bridge(make_pratt_bridge(pins=False),
                                                   ["TYPE-3"]).ratings, r.cases) == []
     w = "member L1U1: forge-welded loop rods crack at the forge line, a frequent flaw"
-    at_loop = {("L1U1", "TYPE-3"): replace(low, member="L1U1",
-                                           check="rod end fracture at the loop at the forge line")}
-    assert _loop_rod_controls(w, {"L1U1"}, at_loop).startswith("LOOP ROD CONTROLS: member L1U1")
-    assert _loop_rod_controls(w, {"L0L1"}, at_loop) == w
-    body = {("L1U1", "TYPE-3"): replace(low, member="L1U1", check="rod body yielding")}
-    assert _loop_rod_controls(w, {"L1U1"}, body) == w
+    assert _loop_rod_controls(w, {"L1U1"}).startswith("LOOP ROD CONTROLS: member L1U1")
+    assert _loop_rod_controls(w, {"L0L1"}) == w
+
+
+def test_a_sound_loop_rod_that_sets_a_posting_bears_on_the_decision():
+    """The Pratt sample's hanger L1U1 (loop rods, no loss recorded at the loop: body
+    yielding governs) sets the single-unit trucks' postings: its forge-weld caution is headed
+    in capitals all the same (a reviewer found it left in lower case unless a loss at the loop
+    governed); a loop rod that sets no posting keeps its caution in lower case."""
+    from pathlib import Path
+
+    from rating.inventory.reader import read_workbook
+    from rating.lrfr.posting import PostingAction
+
+    book = Path(__file__).resolve().parents[2] / "sample_inventory" / "tc0417_pratt_1898.xlsx"
+    r = rate_bridge(read_workbook(book).bridge)
+    setting = {cp.controlling for cp in r.postings.values()
+               if cp.result.action in (PostingAction.POST, PostingAction.CLOSE)
+               and not cp.screened_out}
+    loops = [w for w in r.warnings if "forge-welded loop rods" in w]
+    assert loops
+    for w in loops:
+        member = w.removeprefix("LOOP ROD CONTROLS: ").split(":")[0].removeprefix("member ")
+        assert w.startswith("LOOP ROD CONTROLS: ") == (member in setting), w
+    assert any(w.startswith("LOOP ROD CONTROLS: member L1U1") for w in loops)
+
+
+def test_the_nrl_brings_the_shvs_it_screens():
+    """Choosing the NRL rates the single-unit SHVs with it (it is their screen: FHWA SHV Q&A,
+    March 2014); a reviewer rated TYPE-3 and the NRL alone and was told the SHVs had been
+    rated one by one, each at least 1.0, when none had been."""
+    from rating.lrfr.engine import rating_cases
+
+    cases, notes = rating_cases(make_pratt_bridge(pins=False), ["TYPE-3", "NRL"], 160.0)
+    assert [c.id for c in cases] == ["TYPE-3", "NRL", "SU4", "SU5", "SU6", "SU7"]
+    assert any("SU4, SU5, SU6, SU7 are rated with it" in n for n in notes)
+    cases, notes = rating_cases(make_pratt_bridge(pins=False), ["NRL", "SU7"], 160.0)
+    assert [c.id for c in cases] == ["NRL", "SU7", "SU4", "SU5", "SU6"]
+
+
+def test_an_shv_below_one_is_not_screened_out_by_the_nrl():
+    """The NRL screen assumes it covers the SHVs; where an SHV's own RF is below 1.0 although
+    the NRL's is at least 1.0 (a member the loads reverse), that SHV is posted on its own,
+    not shown "for information" (the batch and the report's box counted it, the words did
+    not)."""
+    from rating.lrfr.engine import _postings
+
+    strong = make_pratt_bridge(pins=False, distribution_factor_override=0.2)
+    r = rate_bridge(strong, ["NRL", "SU4", "SU7"])
+    assert r.postings["NRL"].rf >= 1.0 and r.postings["SU4"].screened_out
+    low = {k: (replace(v, rf=0.9) if k[1] == "SU7" else v) for k, v in r.ratings.items()}
+    out = _postings(r.cases, low, r.pins, r.geometry)
+    assert out["SU4"].screened_out and not out["SU7"].screened_out
+    assert out["SU7"].result.action.value == "post"
+    assert "the NRL does not cover this SHV" in out["SU7"].note
