@@ -364,7 +364,8 @@ def recommendation(rating: BridgeRating, unit: str,
                      "cross (no posting covers them), and the other trucks' safe posting loads "
                      f"are: {each(trucks)}.")
         return text + ev_text + tail
-    if not trucks_all:
+    if not any(c.postable and c.category is not VehicleCategory.EMERGENCY
+               for c in rating.cases):  # (a screened SHV or the NRL was rated: not this)
         chosen = ", ".join(c.load.id for c in rating.cases if c.postable) or "none"
         text = ("No truck legal load was rated (the vehicles rated at the legal level: "
                 f"{chosen}), so this run indicates no posting for trucks; rate the legal "

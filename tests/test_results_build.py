@@ -192,3 +192,17 @@ def test_an_emergency_vehicle_barred_beside_one_posted(pony_rating):
     assert "Other emergency vehicles may be posted one by one: Emergency vehicle EV2 " \
         in res.recommendation
     assert "Emergency vehicles: post for" not in res.recommendation
+
+
+def test_shvs_screened_out_are_trucks_rated() -> None:
+    """The NRL and the SHVs it screens out (each at least 1.0) are trucks that were rated:
+    the recommendation does not say none was (a reviewer's finding)."""
+    import sys
+
+    sys.path.insert(0, str(Path(__file__).resolve().parent / "lrfr"))
+    from demo_bridge import make_pratt_bridge
+
+    strong = make_pratt_bridge(pins=False, distribution_factor_override=0.2)
+    res = build_results(rate_bridge(strong, ["NRL"]))
+    assert not res.recommendation.startswith("No truck legal load was rated")
+    assert res.recommendation.startswith("No load restriction is indicated for trucks")
