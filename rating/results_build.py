@@ -10,9 +10,16 @@ from typing import NamedTuple
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
 from rating.capacity.pins import PHI_B, PinCheck, PlateLoad
-from rating.lrfr.engine import BridgeRating, CasePosting, MemberCaseRating, RatingCase
+from rating.lrfr.engine import (
+    SCREENING_LOADS,
+    SHVS,
+    BridgeRating,
+    CasePosting,
+    MemberCaseRating,
+    RatingCase,
+)
 from rating.lrfr.factors import RatingLevel, provisions
-from rating.lrfr.posting import PostingAction
+from rating.lrfr.posting import PostingAction, least_posting_load
 from rating.lrfr.posting import posting as legal_load_posting
 from rating.lrfr.reported import reported_rf
 from rating.model import Finding, RodSet, UnitSystem, VehicleCategory
@@ -43,9 +50,8 @@ from rating.units import TON_PER_TONNE, from_core, si_text
 METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C \u2212 \u03b3DC DC \u2212 \u03b3DW DW) / "
           "(\u03b3LL (LL + IM)), C = \u03c6c \u03c6s \u03c6 Rn")
 
-SINGLE_UNIT = {"TYPE-3", "SU4", "SU5", "SU6", "SU7"}
+SINGLE_UNIT = {"TYPE-3", *SHVS}
 COMBINATION = {"TYPE-3S2", "TYPE-3-3", "LEGAL-LANE"}
-SCREENING = {"NRL"}
 
 
 def finding_text(f: Finding | None, rod: bool = False) -> str:
@@ -310,9 +316,9 @@ def recommendation(rating: BridgeRating, unit: str,
     vehicles, for the owner to arrange with the emergency services (common practice; the
     owner's policy governs); where one is barred the others' postings are given one by one,
     not as one sign for the class."""
-    legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING
+    legal = [c for c in rating.cases if c.postable and c.load.id not in SCREENING_LOADS
              and not rating.postings[c.id].screened_out]
-    screens = [c for c in rating.cases if c.postable and c.load.id in SCREENING]
+    screens = [c for c in rating.cases if c.postable and c.load.id in SCREENING_LOADS]
     ev_all = [c for c in legal if c.category is VehicleCategory.EMERGENCY]
     trucks_all = [c for c in legal if c.category is not VehicleCategory.EMERGENCY]
     closing = [c for c in trucks_all if report[c.id].action is PostingAction.CLOSE]
@@ -320,7 +326,9 @@ def recommendation(rating: BridgeRating, unit: str,
     posted = [c for c in legal if report[c.id].action is PostingAction.POST]
     trucks = [c for c in posted if c.category is not VehicleCategory.EMERGENCY]
     ev_posted = [c for c in posted if c.category is VehicleCategory.EMERGENCY]
-    least = "3 tons" if unit == "ton" else "3 tons (2.72 tonnes)"
+    tons = provisions()["posting"]["least_tons"]
+    least = (f"{tons:g} tons" if unit == "ton"
+             else f"{tons:g} tons ({least_posting_load('tonne'):.2f} tonnes)")
     tail = DECISION_NOTE
 
     def names(cs: list[RatingCase]) -> str:
