@@ -444,12 +444,12 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting]) -> li
 
 
 def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
-                                 dependent: frozenset[str]) -> list[str]:
+                                 dependent: frozenset[str]) -> dict[str, str]:
     """A warning for each bent tension-only member (a counter, a slack-prone main) whose panel
     changes its load path with the live load: the rating counts it as fully effective in
     tension, and the ratings of the panel rest on it (common practice: a bowed rod takes load
     only once straightened; a seized turnbuckle cannot be adjusted)."""
-    out = []
+    out = {}
     for m in g.members:
         if not (m.tension_only and m.label in dependent):
             continue
@@ -457,7 +457,7 @@ def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
         if not bent:
             continue
         where = ", ".join(dict.fromkeys(f.where for f in bent if f.where))
-        out.append(
+        out[m.label] = (
             f"BENT {m.role.value.upper()} RELIED ON: member {m.label} is recorded bent"
             f"{f' ({where})' if where else ''} and is counted as fully effective in tension; "
             "the load path of its panel rests on it when the live load reverses the panel's "
@@ -467,41 +467,35 @@ def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
     return out
 
 
-def _without_bent(warning: str, bridge: Bridge, cases: Sequence[RatingCase]) -> str:
-    """A BENT ... RELIED ON warning with what the rating gives if that member does not act:
-    the members rated again with all its bars loose (out of service), for the trucks rated at
-    the legal level (the emergency vehicles and HL-93 left out: they close no bridge). The
-    pins are not rated again, so the RF given is an upper bound of that rating: where it
-    already calls for closing, so would the full one."""
-    head, sep, rest = warning.partition(": ")
-    if not (sep and head.startswith("BENT ") and head.endswith(" RELIED ON")
-            and rest.startswith("member ")):
-        return warning
-    member = rest.removeprefix("member ").split(" ", 1)[0]
+def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]) -> str:
+    """What the rating gives if a bent tension-only member the ratings rest on does not act,
+    for its warning: the members rated again with all its bars loose (out of service), for
+    the trucks rated at the legal level (the emergency vehicles, HL-93 and the NRL left out:
+    they close no bridge). The pins are not rated again, so the RF given is an upper bound of
+    that rating: where it already calls for closing, so would the full one."""
     trucks = list(dict.fromkeys(c.load.id for c in cases if c.postable
                                 and c.category is not VehicleCategory.EMERGENCY
                                 and c.load.id not in SCREENING_LOADS))
     if not trucks:
-        return warning
+        return ""
     loose = replace(bridge, pins=(), findings=bridge.findings + (
         Finding(member, "all", bar_state=BarState.LOOSE, where="(rated as if it did not act)"),))
     try:
         other = rate_bridge(loose, trucks, what_if=False)
     except (InputError, ConvergenceError):
-        return warning + (f" Rated as if {member} did not act, the truss has no load path "
-                          "for these loads: consider closing.")
+        return (f" Rated as if {member} did not act, the truss has no load path for these "
+                "loads: consider closing.")
     legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
              and any(c.id == cp.case and c.postable for c in other.cases)]
     if not legal:
-        return warning
+        return ""
     low = min(legal, key=lambda cp: cp.rf)
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
-    return warning + (f" Rated as if {member} did not act (its bars loose), the members give "
-                      f"{verdict}: lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, "
-                      f"{low.controlling}); the pins were not rated again, so this RF is the "
-                      "most that rating could give.")
+    return (f" Rated as if {member} did not act (its bars loose), the members give {verdict}: "
+            f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling}); the "
+            "pins were not rated again, so this RF is the most that rating could give.")
 
 
 SCREENING_LOADS = frozenset({"NRL"})
@@ -589,7 +583,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     dependent = _dependent_members(lines)
     # (after any OUT OF SERVICE notice: a reviewer reads these first)
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
-    warnings[at:at] = _bent_tension_only_relied_on(g, bridge, dependent)
+    bent_relied_on = _bent_tension_only_relied_on(g, bridge, dependent)
+    warnings[at:at] = list(bent_relied_on.values())
     if dependent:
         assumptions.append(
             "On the load path (members whose force depends on which tension-only members act) "
@@ -712,7 +707,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         assumptions.extend(p.assumptions)
     warnings[:] = [_loop_rod_controls(w, controlling) for w in warnings]
     if what_if:
-        warnings[:] = [_without_bent(w, bridge, cases) for w in warnings]
+        for member, text in bent_relied_on.items():
+            warnings[warnings.index(text)] = text + _without_bent(member, bridge, cases)
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases)
     return BridgeRating(
