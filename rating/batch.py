@@ -95,7 +95,8 @@ class BridgeRow:
             return min(closing, key=rf)
         posted = [v for v in legal if v.action == "post" and v.posting is not None]
         if posted:
-            return min(posted, key=lambda v: (v.posting, rf(v)))
+            return min(posted, key=lambda v: v.posting)  # (the first of equal postings, in
+            # the vehicles' order, as the report's single weight limit names it)
         barred = [v for v in self.vehicles if v.action == "bar" and v.rf is not None]
         if barred:  # the bridge's "post" is an emergency vehicle's barring alone
             return min(barred, key=rf)
@@ -554,9 +555,18 @@ class _IndexView:
 
 
 def _first_clause(text: str) -> str:
-    """A warning to its first clause (up to the first "; " or ". "), for the index's row."""
+    """A warning to its first clause (up to the first "; " or ". "), for the index's row,
+    with the verdict of a sensitivity it ends with ("Rated as if L3U4 did not act ..., the
+    members give a closure to consider: lowest truck RF 0.12 (SU7, U3L4)": the part that
+    bears on the decision)."""
     cut = [i for i in (text.find("; "), text.find(". ")) if i > 0]
-    return text[:min(cut)] if cut else text
+    head = text[:min(cut)] if cut else text
+    at = text.find(" Rated as if ")
+    if at > 0:
+        verdict = text[at + 1:]
+        end = verdict.find("; ")
+        head += ". " + (verdict[:end] if end > 0 else verdict.rstrip("."))
+    return head
 
 
 def render_index(summary: BatchSummary, max_problems: int = 30) -> str:

@@ -475,3 +475,21 @@ def test_the_deciding_truck_is_the_one_behind_the_action(tmp_path: Path) -> None
     same = _same_structure([replace(row, structure="TC-0417"),
                             replace(row, workbook="b.xlsx", structure=" tc-0417 ")])
     assert same == (("TC-0417", ("a.xlsx", "b.xlsx")),)
+
+
+def test_the_index_keeps_the_verdict_of_a_sensitivity() -> None:
+    """A bent counter's warning is cut to its first clause in the index, but the verdict of
+    its sensitivity (what the members give without it) is kept: it is the part that bears on
+    the decision (a reviewer saw "post 9 tonnes" beside a warning stripped of "a closure to
+    consider")."""
+    from rating.batch import _first_clause
+
+    w = ("BENT COUNTER RELIED ON: member L2U3 is recorded bent (Findings!B9) and is counted as "
+         "fully effective; the load path rests on it. The engineer should confirm it. Rated as "
+         "if L2U3 did not act (its bars loose), the members give a closure to consider: lowest "
+         "truck RF 0.07 (SU6, U2L3); the pins were not rated again, so this RF is the most.")
+    assert _first_clause(w) == (
+        "BENT COUNTER RELIED ON: member L2U3 is recorded bent (Findings!B9) and is counted as "
+        "fully effective. Rated as if L2U3 did not act (its bars loose), the members give a "
+        "closure to consider: lowest truck RF 0.07 (SU6, U2L3)")
+    assert _first_clause("OUT OF SERVICE: x; y") == "OUT OF SERVICE: x"

@@ -1256,11 +1256,13 @@ class _Reading:
                 and self.book.find(sc.DEADLOADS.name) is not None and not log.has_errors):
             # a truss always carries a deck and a floor system: no DC beyond the trusses' own
             # weight is a gap in the record, and it raises every rating
+            units = ("kPa of deck, kN/m or kN per floorbeam" if self.si
+                     else "psf of deck, plf or kip per floorbeam")
             log.warning(f"{sc.DEADLOADS.name}!A{sc.HEADER_ROW + 1}", f"{NO_DEAD_LOAD}: the "
                         "DeadLoads sheet lists no DC (deck, stringers, floorbeams, railings), "
                         "so the rating carries the trusses' own weight and any wearing surface "
-                        "only; list them (psf of deck, plf or kip per floorbeam) before relying "
-                        "on any rating factor or posting.")
+                        f"only; list them ({units}) before relying on any rating factor or "
+                        "posting.")
         return tuple(out)
 
     def _vehicles(self) -> tuple[Vehicle, ...]:
@@ -1343,9 +1345,9 @@ class _Reading:
             gross = _f(vr, "gross")
             if gross is not None and abs(gross - total_tons) > 0.02 * total_tons:
                 log.warning(vr.ref("gross"), f"the gross weight of vehicle {vid} "
-                            f"({_g(gross)} ton) differs from the sum of its axles "
-                            f"({_g(total_tons)} ton); the gross weight given is used for "
-                            "ratings in tons")
+                            f"({_g(gross)} tons) differs from the sum of its axles "
+                            f"({_g(total_tons)} tons); the gross weight given is used for "
+                            "its rating in weight (RT) and posting")
             out.append(Vehicle(id=vid, name=name,
                                category=VehicleCategory(_s(vr, "category") or "owner"),
                                axle_loads_kip=tuple(loads), spacings=tuple(spacings),

@@ -667,7 +667,11 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     sets_posting = {(e.member, vid) for vid, e in results.posting.items()
                     if vmap.get(vid) is not None and vmap[vid].rating_level == "legal"
                     and e.action in ("post", "close")}
-    crossing = _crossing_tension_only(results)
+    # (a member out of service is left out of the analysis: it acts in no state)
+    gone = {m.id for m in results.members if m.ratings and all(
+        r.check.startswith("out of service") for r in m.ratings.values())}
+    crossing = [(a, b) for a, b in _crossing_tension_only(results)
+                if a not in gone and b not in gone]
     for m in results.members:
         low = svg.lowest_rating(m.ratings.items())
         wanted = ([low[0]] if low is not None else []) + [
