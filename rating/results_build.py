@@ -305,6 +305,28 @@ def _posting_entry(cp: CasePosting, report: _ReportPosting,
 
 def recommendation(rating: BridgeRating, unit: str,
                    report: Mapping[str, _ReportPosting]) -> str:
+    """The bridge-level recommendation (:func:`_recommendation`), made conditional where it
+    rests on a bent member that, rated without, gives a closure to consider: the engineer
+    reads first that the posting holds only if that member acts (a reviewer would not sign a
+    "post" headline with the closure only in a warning)."""
+    text = _recommendation(rating, unit, report)
+    hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
+    if not hinge or text.startswith("Consider closing"):
+        return text
+    names = ", ".join(hinge)
+    if_not = "; ".join(
+        f"without {m}, {'no load path for the trucks' if w.rf is None else 'lowest truck RF'}"
+        + ("" if w.rf is None else f" {reported_rf(w.rf):.2f} ({w.case}, {w.controlling})")
+        for m, w in hinge.items())
+    one = len(hinge) == 1
+    return (f"Only if {names} {'is' if one else 'are'} confirmed to act (recorded bent): "
+            + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
+            + f" If {'it does' if one else 'they do'} not act, consider closing the bridge "
+            f"({if_not}; members only, see the warning)." + DECISION_NOTE)
+
+
+def _recommendation(rating: BridgeRating, unit: str,
+                    report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation, always worded for the engineer's decision;
     ``report``: each case's action and posting load in the report's unit
     (:func:`_report_posting`).

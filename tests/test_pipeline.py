@@ -24,7 +24,7 @@ from sample_results import sample_results  # noqa: E402
 
 from rating.cli import main  # noqa: E402
 from rating.pipeline import rate_workbook  # noqa: E402
-from rating.results import Position, results_json, to_plain  # noqa: E402
+from rating.results import DECISION_NOTE, Position, results_json, to_plain  # noqa: E402
 
 ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = sorted((ROOT / "sample_inventory").glob("*.xlsx"))
@@ -325,6 +325,14 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
               if vid not in ("HL-93-INV", "HL-93-OPR", "NRL", "EV2", "EV3")]
     full = min(math.floor(p.rf * 100 + 1e-7) / 100 for p in trucks)
     assert float(said.group(1)) >= full - 1e-9
+    # and the recommendation itself is made conditional on the counter (a reviewer would not
+    # sign a "post" headline with the closure only in a warning)
+    rec = res.recommendation
+    assert rec.startswith("Only if L3U4 is confirmed to act (recorded bent): post the bridge.")
+    assert (f"If it does not act, consider closing the bridge (without L3U4, lowest truck RF "
+            f"{said.group(1)} ({said.group(2)}, ") in rec
+    assert rec.endswith(DECISION_NOTE)
+    assert not any(r.startswith("Only if") for r in (parker.recommendation,))
 
 
 def test_the_pony_sample_says_its_top_chord_rests_on_unchecked_u_frames(outcomes):

@@ -173,6 +173,20 @@ class BridgeRating:
     warnings: tuple[str, ...]
     assumptions: tuple[str, ...]
     provisions: tuple[str, ...] = field(default=())
+    without: Mapping[str, WithoutMember] = field(default_factory=dict)  # a bent member the
+    # ratings rest on -> what the members give without it (:func:`_without_bent`)
+
+
+@dataclass(frozen=True)
+class WithoutMember:
+    """What the members give for the trucks with one member out of service: the verdict
+    ("a closure to consider", "a posting", "no restriction"), the lowest truck RF, its case
+    and what controls it (None: no load path for the trucks at all)."""
+
+    verdict: str
+    rf: float | None = None
+    case: str = ""
+    controlling: str = ""
 
 
 # --------------------------------------------------------------------------- set-up
@@ -467,35 +481,43 @@ def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
     return out
 
 
-def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]) -> str:
-    """What the rating gives if a bent tension-only member the ratings rest on does not act,
-    for its warning: the members rated again with all its bars loose (out of service), for
-    the trucks rated at the legal level (the emergency vehicles, HL-93 and the NRL left out:
-    they close no bridge). The pins are not rated again, so the RF given is an upper bound of
-    that rating: where it already calls for closing, so would the full one."""
+def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
+                  ) -> WithoutMember | None:
+    """What the rating gives if a bent tension-only member the ratings rest on does not act:
+    the members rated again with all its bars loose (out of service), for the trucks rated at
+    the legal level (the emergency vehicles, HL-93 and the NRL left out: they close no
+    bridge). The pins are not rated again, so the RF given is an upper bound of that rating:
+    where it already calls for closing, so would the full one. None where no truck is rated."""
     trucks = list(dict.fromkeys(c.load.id for c in cases if c.postable
                                 and c.category is not VehicleCategory.EMERGENCY
                                 and c.load.id not in SCREENING_LOADS))
     if not trucks:
-        return ""
+        return None
     loose = replace(bridge, pins=(), findings=bridge.findings + (
         Finding(member, "all", bar_state=BarState.LOOSE, where="(rated as if it did not act)"),))
     try:
         other = rate_bridge(loose, trucks, what_if=False)
     except (InputError, ConvergenceError):
-        return (f" Rated as if {member} did not act, the truss has no load path for these "
-                "loads: consider closing.")
+        return WithoutMember("a closure to consider")
     legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
              and any(c.id == cp.case and c.postable for c in other.cases)]
     if not legal:
-        return ""
+        return None
     low = min(legal, key=lambda cp: cp.rf)
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
-    return (f" Rated as if {member} did not act (its bars loose), the members give {verdict}: "
-            f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling}); the "
-            "pins were not rated again, so this RF is the most that rating could give.")
+    return WithoutMember(verdict, low.rf, low.case, low.controlling)
+
+
+def without_text(member: str, w: WithoutMember) -> str:
+    """The sentence a bent member's warning ends with (:func:`_without_bent`)."""
+    if w.rf is None:
+        return (f" Rated as if {member} did not act, the truss has no load path for these "
+                "loads: consider closing.")
+    return (f" Rated as if {member} did not act (its bars loose), the members give {w.verdict}: "
+            f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling}); the pins "
+            "were not rated again, so this RF is the most that rating could give.")
 
 
 SCREENING_LOADS = frozenset({"NRL"})
@@ -706,9 +728,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
     warnings[:] = [_loop_rod_controls(w, controlling) for w in warnings]
+    without: dict[str, WithoutMember] = {}
     if what_if:
         for member, text in bent_relied_on.items():
-            warnings[warnings.index(text)] = text + _without_bent(member, bridge, cases)
+            w = _without_bent(member, bridge, cases)
+            if w is not None:
+                without[member] = w
+                warnings[warnings.index(text)] = text + without_text(member, w)
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases)
     return BridgeRating(
@@ -720,6 +746,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         provisions=tuple(dict.fromkeys(
             [f.describe() for f in dead_f.values()]
             + [c.gamma_ll.describe() for c in cases] + [c.im.describe() for c in cases])),
+        without=without,
     )
 
 
