@@ -355,6 +355,7 @@ class ReportView:
     pin_controls: tuple[PinControlNote, ...]
     members: tuple[MemberRow, ...]
     path_rows: tuple[PathRow, ...]
+    every_path_row: tuple[PathRow, ...]
     live_tables: tuple[LiveTable, ...]
     pins: tuple[PinView, ...]
     findings: tuple[FindingRow, ...]
@@ -672,29 +673,35 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         r.check.startswith("out of service") for r in m.ratings.values())}
     crossing = [(a, b) for a, b in _crossing_tension_only(results)
                 if a not in gone and b not in gone]
+    every_path_row: list[PathRow] = []  # every rating on the load path (the appendix)
+
+    def path_row(m: MemberResult, vid: str) -> PathRow | None:
+        r_ = m.ratings[vid]
+        if r_.dead_at_rating is None or r_.live_at_rating is None or m.resistance is None:
+            return None
+        cap = (m.resistance.tension if r_.sense == "tension" else m.resistance.compression)
+        f_ = r_.factors
+        acting = [f"{a}, {b}" for a, b in crossing
+                  if a not in r_.slack_at_rating and b not in r_.slack_at_rating]
+        return PathRow(
+            id=m.id, vehicle=vid, sense=r_.sense, capacity=d.force(cap),
+            dead=d.force(r_.dead_at_rating, signed=True),
+            gamma_dead=(f"{d.number(f_.gamma_dc, None, 2)} / {d.number(f_.gamma_dw, None, 2)}"
+                        if f_ else DASH),
+            live=d.force(r_.live_at_rating),
+            gamma_ll=d.number(f_.gamma_ll, None, 2) if f_ else DASH,
+            rf=rf_cell(r_.rf), slack=", ".join(r_.slack_at_rating) or "none",
+            controls=vid if (m.id, vid) in sets_posting else "",
+            both_act="; ".join(acting))
+
     for m in results.members:
         low = svg.lowest_rating(m.ratings.items())
+        every = {vid: path_row(m, vid) for vid in m.ratings}
+        every_path_row += [r for r in every.values() if r is not None]
         wanted = ([low[0]] if low is not None else []) + [
             vid for vid in m.ratings if (m.id, vid) in sets_posting
             and (low is None or vid != low[0])]
-        for vid in wanted:
-            r_ = m.ratings[vid]
-            if r_.dead_at_rating is None or r_.live_at_rating is None or m.resistance is None:
-                continue
-            cap = (m.resistance.tension if r_.sense == "tension" else m.resistance.compression)
-            f_ = r_.factors
-            acting = [f"{a}, {b}" for a, b in crossing
-                      if a not in r_.slack_at_rating and b not in r_.slack_at_rating]
-            path_rows.append(PathRow(
-                id=m.id, vehicle=vid, sense=r_.sense, capacity=d.force(cap),
-                dead=d.force(r_.dead_at_rating, signed=True),
-                gamma_dead=(f"{d.number(f_.gamma_dc, None, 2)} / {d.number(f_.gamma_dw, None, 2)}"
-                            if f_ else DASH),
-                live=d.force(r_.live_at_rating),
-                gamma_ll=d.number(f_.gamma_ll, None, 2) if f_ else DASH,
-                rf=rf_cell(r_.rf), slack=", ".join(r_.slack_at_rating) or "none",
-                controls=vid if (m.id, vid) in sets_posting else "",
-                both_act="; ".join(acting)))
+        path_rows += [r for vid in wanted if (r := every[vid]) is not None]
         rt_ = m.resistance.tension if m.resistance else None
         rc_ = m.resistance.compression if m.resistance else None
         finding = ""
@@ -733,10 +740,13 @@ def build_view(results: RatingResults, *, paper: str | None = None,
                 hi = force(ll.max_with_im) if ll else DASH
                 lo = force(ll.min_with_im) if ll else DASH
                 rf = rf_cell(r.rf if r else None)
+                # (a rating on the load path: its forces are those of the truss at the
+                # rating level, in the appendix, not the envelope beside it)
+                on_path = "*" if r is not None and r.dead_at_rating is not None else ""
                 # numbers and band keys only, as Display and RFBands write them: nothing
                 # to escape
                 cells.append(f'<td class="num">{hi}</td><td class="num">{lo}</td>'
-                             f'<td class="rf {rf.band}">{rf.text}</td>')
+                             f'<td class="rf {rf.band}">{rf.text}{on_path}</td>')
             lrows.append(LiveRow(m.id, Markup("".join(cells))))
         live_tables.append(LiveTable(chunk, tuple(lrows)))
 
@@ -819,7 +829,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         worst_action=worst,
         elevation=svg.elevation_svg(results, d, bands), legend=svg.legend_svg(bands),
         influence=tuple(influence), pin_controls=tuple(pin_notes), members=tuple(rows),
-        path_rows=tuple(path_rows),
+        path_rows=tuple(path_rows), every_path_row=tuple(every_path_row),
         live_tables=tuple(live_tables), pins=pins, findings=findings, vehicles=vehicles,
         assumptions=tuple(assumptions),
         distribution=tuple(Fact(str(k), _fmt_plain(v)) for k, v in results.distribution.items()),
