@@ -742,10 +742,15 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
     for c, f in removed.items():
         warnings.append(f"member {member}: {comps[c]} is {f.bar_state.value} "
                         f"({f.where or describe_finding(f)}) and is taken as carrying no load")
+    one = len(comps) == 1
     for c, f in bent.items():
         warnings.append(f"member {member}: {comps[c]} is bent ({f.where or describe_finding(f)})"
-                        "; it is counted in tension (it may take less than its share until "
-                        "straightened) and not counted in compression")
+                        "; it is counted in tension at its full resistance (the bend is not in "
+                        "the numbers: " + (f"a bowed {comps[c].split()[0]} takes load only "
+                                           "once straightened" if one else
+                                           "it may take less than its share of the member's "
+                                           "force until straightened")
+                        + ") and not counted in compression")
     removal_findings = tuple(dict.fromkeys(removed.values()))
 
     keys: list[tuple[FindingRegion, float | None]] = []

@@ -385,3 +385,20 @@ def test_a_whole_element_lost_is_said_at_its_location():
     # C2 at the connection: web and both flanges, once each although built twice (bent L1
     # makes the compression build differ)
     assert len(said) == 3 and all("part C2" in w and "F!A4" in w for w in said)
+
+
+def test_a_bent_bar_is_said_to_be_counted_at_full_resistance() -> None:
+    """A bent bar is counted in tension at its full resistance (the bend is not in the
+    numbers); a single rod is not said to take "less than its share" (it has no other bar to
+    share with: a reviewer's finding)."""
+    from rating.capacity.sections import section_properties
+    from rating.model import BarState, Finding, RodEnd, RodSet
+
+    one = section_properties(RodSet(1, 1.25, RodEnd.UPSET), member="L3U4",
+                             findings=(Finding("L3U4", "rod 1", bar_state=BarState.BENT),))
+    said = [w for w in one.warnings if "is bent" in w]
+    assert said and "at its full resistance" in said[0] and "bowed rod" in said[0]
+    assert "its share" not in said[0]
+    two = section_properties(RodSet(2, 1.25, RodEnd.UPSET), member="L3U4",
+                             findings=(Finding("L3U4", "rod 1", bar_state=BarState.BENT),))
+    assert any("less than its share" in w for w in two.warnings)
