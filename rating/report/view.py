@@ -135,6 +135,7 @@ class MemberRow:
     check: str
     method: str
     finding: str
+    factors: str = ""  # phi_c x phi_s of its resistance (the condition and system factors)
 
 
 @dataclass(frozen=True)
@@ -721,7 +722,10 @@ def build_view(results: RatingResults, *, paper: str | None = None,
                    else f"{low[1].sense}: {low[1].check}" if low and low[1].check
                    else (low[1].sense if low else "")),
             method=low[1].method if low else "",
-            finding=finding))
+            finding=finding,
+            factors=(f"{d.number(low[1].factors.phi_c, None, 2)} \u00d7 "
+                     f"{d.number(low[1].factors.phi_s, None, 2)}"
+                     if low and low[1].factors else DASH)))
 
     # live load and RF per vehicle, in tables of a few vehicles each
     live_tables: list[LiveTable] = []

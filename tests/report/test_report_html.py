@@ -11,6 +11,7 @@ from htmlcheck import read
 from rating.errors import InputError
 from rating.report import render_report
 from rating.report.html import environment, template_dir
+from rating.report.svg import lowest_rating
 from rating.report.view import build_view, controls
 from rating.results import RatingResults
 from rating.units import from_core
@@ -376,3 +377,15 @@ def test_an_emergency_vehicle_is_named_as_one_in_the_level_column(
                       if r.vehicle_id in ev)
     assert all(r.level != "legal load (emergency vehicle)" for r in view.summary
                if r.vehicle_id not in ev)
+
+
+def test_member_table_gives_the_condition_and_system_factors(results_us: RatingResults) -> None:
+    """phi_c x phi_s of each member's resistance is in the member table (a reviewer found a
+    posting resting on phi_c 0.95 from a condition rating with nothing in the table to say
+    so)."""
+    view = build_view(results_us)
+    for m, row in zip(results_us.members, view.members, strict=True):
+        low = lowest_rating(m.ratings.items())
+        if low is not None and low[1].factors is not None:
+            assert row.factors == f"{low[1].factors.phi_c:.2f} \u00d7 {low[1].factors.phi_s:.2f}"
+    assert "&phi;<sub>c</sub> &times; &phi;<sub>s</sub>" in render_report(results_us)
