@@ -1279,7 +1279,7 @@ class _Reading:
                 continue
             vrows[vid] = r
             if library_ids is None:
-                library_ids = _library_ids()
+                library_ids = known_ids()
             if vid.casefold() in library_ids:
                 log.warning(r.ref("vehicle"), f"vehicle {vid} has the id of a library vehicle; "
                             "the one on this sheet is used in its place")
@@ -1370,7 +1370,7 @@ class _Reading:
                 self.log.warning(s.ref("vehicles"), f"vehicle {sorted(dup)[0]} is listed "
                                  "twice; it is rated once")
                 vehicle_ids = tuple(dict.fromkeys(vehicle_ids))
-            known = _library_ids()
+            known = known_ids()
             owner = {v.id.casefold() for v in vehicles}
             unknown = [v for v in vehicle_ids if v.casefold() not in owner | known]
             if unknown:
@@ -1399,11 +1399,6 @@ class _Reading:
             detail_allowance_given=da is not None,
             units=UnitSystem.SI if self.si else UnitSystem.US,
         )
-
-
-def _library_ids() -> frozenset[str]:
-    """Ids of the library's rating loads, their design cases and vehicles, case-folded."""
-    return known_ids()
 
 
 _DAMAGE_WORDS = re.compile(

@@ -979,7 +979,7 @@ def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
 
 def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[_SensePlan],
                   found: list[_OnPath],
-                  slack_of: Callable[[int], frozenset[str]] = lambda k: frozenset()
+                  slack_of: Callable[[int], frozenset[str]]
                   ) -> MemberCaseRating:
     """The member's rating for one case: the least live-load multiplier over its candidates
     (found with gamma_LL = 1). Where the factored dead load alone is past the resistance the
