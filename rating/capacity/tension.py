@@ -186,6 +186,20 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             lambda s: f"{len(s.eyebars)} heads, a = {_fmt(_arr(s, 'beyond_hole_in'))} in, "
                       f"d = {_fmt(_arr(s, 'hole_diameter_in'))} in, F_u = {Fu:g} ksi"))
         warnings.extend(_eyebar_proportions(report, head_ratio_min, beyond_ratio_min))
+        per_bar = {"body": (body, phi_y, lambda b: float(yielding_nominal(b.body_area_in2, Fy))),
+                   "head through the hole" + (" (pin-plate form)" if head_as_pin_plate else ""):
+                   (head, phi_pin_plate if head_as_pin_plate else phi_u,
+                    (lambda b: float(pin_plate_tension_nominal(
+                        b.head_thickness_in, b.side_edge_in, Fu))) if head_as_pin_plate
+                    else (lambda b: float(fracture_nominal(b.through_hole_area_in2, Fu)))),
+                   "head beyond the hole": (head, phi_pin_plate, lambda b: float(
+                       pin_plate_shear_nominal(b.head_thickness_in, b.beyond_hole_in,
+                                               b.hole_diameter_in, Fu)))}
+        weakest = _each_bar_weakest(checks, per_bar, lambda s: s.eyebars, "bar",
+                                    "AASHTO LRFD 6.8.2.1 [value from memory]; AISC LRFD 1999 "
+                                    "D3 [V]")
+        if weakest is not None:
+            checks.append(weakest)
     elif report.kind == "rod set":
         body = _in({None, FindingRegion.BODY}, T)
         end = _in({None, FindingRegion.THREAD}, T)
@@ -200,6 +214,13 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             end,
             lambda s: float(fracture_nominal(s.A_n_in2, Fu)),
             lambda s: f"{len(s.rods)} rods, A_end = {s.A_n_in2:.3f} in2, F_u = {Fu:g} ksi"))
+        weakest = _each_bar_weakest(checks, {
+            "body": (body, phi_y, lambda r: float(yielding_nominal(r.body_area_in2, Fy))),
+            f"{rod_end_label(end_kind)}": (end, phi_u,
+                                           lambda r: float(fracture_nominal(r.end_area_in2, Fu)))},
+            lambda s: s.rods, "rod", "AASHTO LRFD 6.8.2.1 [value from memory]")
+        if weakest is not None:
+            checks.append(weakest)
     else:
         checks.append(_governing(
             "yielding on the gross section", phi_y, yield_prov, T,
@@ -218,6 +239,58 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
                                 f"{lim:g} (AASHTO LRFD 6.8.4, value from memory); expect "
                                 "vibration and handling damage")
     return TensionResult(tuple(checks), tuple(warnings), tuple(assumptions))
+
+
+def _each_bar_weakest(checks: Sequence[Check],
+                      parts: dict[str, tuple[Sequence[SectionAtLocation], float,
+                                             Callable[[object], float]]],
+                      bars_of: Callable[[SectionAtLocation], Sequence[object]], word: str,
+                      provision: str) -> Check | None:
+    """The bars of a set each at its own weakest part, summed: the check that governs where the
+    loss is in different parts of different bars (bar 1 at its head, bar 2 in its body). The
+    bars act side by side, each no stronger than its weakest part, so the set carries the sum
+    over the bars of each bar's least factored resistance (common practice); the checks of
+    one part summed over every bar (``checks``) can each be well above that. None where it
+    gives no less than those checks (the same part governs every bar).
+
+    ``parts``: for each part of a bar, the locations it is checked at, its resistance factor
+    and the nominal resistance of one bar there (AASHTO LRFD 6.8.2.1 [value from memory],
+    AISC LRFD 1999 D3 [V]: the provisions of the checks summed over the bars). The result is
+    given as the sum of the bars' nominal resistances with the resistance factor that makes
+    their factored sum (phi = sum phi_i R_i / sum R_i), the quantities bar by bar in its
+    detail."""
+    least = min((c.phi_R_n_kip for c in checks), default=0.0)
+    best: dict[str, tuple[float, float, float, str, SectionAtLocation]] = {}
+    for part, (locations, phi, nominal) in parts.items():
+        for s in locations:
+            for b in bars_of(s):
+                rn = nominal(b)
+                label = b.label  # type: ignore[attr-defined]
+                if label not in best or phi * rn < best[label][0]:
+                    best[label] = (phi * rn, rn, phi, part, s)
+    if not best:
+        return None
+    factored = sum(v[0] for v in best.values())
+    if not factored < least * (1.0 - 1e-9):
+        return None
+    nominal_sum = sum(v[1] for v in best.values())
+    # the location of the bar whose weakest part is furthest below its as-built state names
+    # the finding shown with the check; every bar's part is in the detail
+    shown = min(best.values(), key=lambda v: (v[4].location.finding is None, v[0]))[4]
+    detail = "; ".join(
+        f"{label.replace('bar', word)} {part} ({s.location.describe()}): {phi:g} x "
+        f"{rn:.1f} = {f:.1f} kip" for label, (f, rn, phi, part, s) in best.items())
+    by_part: dict[str, list[str]] = {}
+    for label, v in best.items():
+        by_part.setdefault(v[3], []).append(label.split()[-1])
+    which = "; ".join(f"{word}{'s' if len(n) > 1 else ''} {', '.join(n)} {part}"
+                      for part, n in by_part.items())
+    return Check(f"{word}s each at their weakest part ({which})", Sense.TENSION,
+                 factored / nominal_sum if nominal_sum > 0 else 0.0, nominal_sum,
+                 f"{provision}; each {word} at its weakest part, summed over the {word}s "
+                 "[common practice]", shown.location,
+                 f"{detail}; sum {factored:.1f} kip of R_n {nominal_sum:.1f} kip (phi weighted "
+                 "over the bars)")
 
 
 def _total(a: np.ndarray) -> float:

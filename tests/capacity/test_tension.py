@@ -118,6 +118,57 @@ def test_multi_bar_sum_over_bars_that_carry_load():
     assert any("no bar or part is left" in w for w in none.warnings)
 
 
+def test_loss_in_different_parts_of_different_bars_takes_each_bar_at_its_weakest():
+    # Bar 1 has lost its head, bar 2 its body: each bar is no stronger than its weakest part
+    # and the bars act side by side, so the set carries the sum of each bar's least factored
+    # resistance (common practice), not the least of "every body" and "every head".
+    e = EyebarSet(2, 6.0, 1.0, 15.0, 5.03)
+    head_loss = Finding("M", "bar 1", FindingRegion.HEAD, remaining_thickness_in=0.3,
+                        where="Findings!D3")
+    body_loss = Finding("M", "bar 2", FindingRegion.BODY, remaining_thickness_in=0.4,
+                        where="Findings!D4")
+    r = checks(e, (head_loss, body_loss))
+    # bar 1 head, AISC LRFD 1999 D3.1(a) [V]: b_eff = 2 x 0.3 + 0.63 = 1.23,
+    #   P_n = 2 x 0.3 x 1.23 x 52 = 38.376, phi 0.75 -> 28.782 kip
+    #   (its body: 0.95 x 26 x 6 x 1 = 148.2; beyond the hole: 0.75 x 0.6 x 2 x 0.3 x (4.985
+    #   + 2.515) x 52 = 105.3)
+    # bar 2 body, AASHTO LRFD 6.8.2.1-1 [value from memory]: 26 x 6 x 0.4 = 62.4, phi 0.95
+    #   -> 59.28 kip (its head: 0.75 x 2 x 1 x 2.63 x 52 = 205.14)
+    # the set: 28.782 + 59.28 = 88.062 kip, on R_n = 38.376 + 62.4 = 100.776 kip
+    each = by_name(r, "each at their weakest")
+    assert each.phi_R_n_kip == pytest.approx(28.782 + 59.28)
+    assert each.R_n_kip == pytest.approx(38.376 + 62.4)
+    assert "bar 1 head through the hole" in each.detail and "bar 2 body" in each.detail
+    # the checks of one part over both bars are each far above it: body 0.95 x 26 x 6 x 1.4
+    # = 207.48, heads 0.75 x (38.376 + 2 x 1 x 2.63 x 52) = 233.9
+    assert by_name(r, "body yielding").phi_R_n_kip == pytest.approx(207.48)
+    assert min(c.phi_R_n_kip for c in r.checks) == pytest.approx(88.062)
+
+
+def test_rods_each_at_their_weakest_part():
+    # rod 1 has lost half its diameter at the upset end, rod 2 half in its body: 1.5 in rods,
+    # F_y 26, F_u 52 (AASHTO LRFD 6.8.2.1 [value from memory], phi_y 0.95, phi_u 0.80)
+    rods = RodSet(2, 1.5, RodEnd.UPSET)
+    end = Finding("M", "bar 1", FindingRegion.THREAD, percent_loss=50.0)
+    body = Finding("M", "bar 2", FindingRegion.BODY, percent_loss=50.0)
+    r = checks(rods, (end, body))
+    full, half = math.pi / 4 * 1.5**2, math.pi / 4 * 0.75**2  # 1.7671, 0.4418 in2
+    # rod 1: end 0.80 x 52 x 0.4418 = 18.38 (body 0.95 x 26 x 1.7671 = 43.65)
+    # rod 2: body 0.95 x 26 x 0.4418 = 10.91 (end 0.80 x 52 x 1.7671 = 73.51)
+    each = by_name(r, "rods each at their weakest")
+    assert each.phi_R_n_kip == pytest.approx(0.80 * 52 * half + 0.95 * 26 * half)
+    # the sums over both rods of one part are well above: body 0.95 x 26 x (full + half)
+    assert by_name(r, "body yielding").phi_R_n_kip == pytest.approx(0.95 * 26 * (full + half))
+    assert "rod 1 upset end" in each.detail and "rod 2 body" in each.detail
+
+
+def test_no_each_bar_check_where_one_part_governs_every_bar():
+    e = EyebarSet(2, 6.0, 1.0, 15.0, 5.03)
+    both = Finding("M", "all", FindingRegion.BODY, remaining_thickness_in=0.5)
+    assert not [c for c in checks(e, (both,)).checks if "weakest" in c.name]
+    assert not [c for c in checks(e).checks if "weakest" in c.name]
+
+
 def test_rods_threaded_upset_loop():
     # rods: threaded ends on the root area, upset ends on the body [common practice]
     thr = checks(RodSet(2, 1.5, RodEnd.THREADED, root_diameter_in=1.29))
