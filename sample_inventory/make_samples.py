@@ -48,9 +48,10 @@ def _eyebars(sid: str, count: int, width: float, thick: float, hole: float,
 
 def _laced_channels(sid: str, depth: float, bf: float, tw: float, tf: float, back_gap: float,
                     cover: tuple[float, float] | None, spacing: float, holes: int,
-                    pin_plate: float = 0.0, note: str = ""
-                    ) -> tuple[Row, list[Row], list[Row]]:
-    """Two channels toes out, backs ``back_gap`` apart, optional cover plate on top, laced."""
+                    note: str = "") -> tuple[Row, list[Row], list[Row]]:
+    """Two channels toes out, backs ``back_gap`` apart, optional cover plate on top, laced.
+    (Pin plates at the ends are not parts of the section, which runs the member's length:
+    they are on the Packing sheet only, see ``_sections_packing``.)"""
     x = back_gap / 2.0
     chans = [
         {"section": sid, "part": "channel L", "x": -x, "y": 0.0, "depth": depth,
@@ -63,11 +64,6 @@ def _laced_channels(sid: str, depth: float, bf: float, tw: float, tf: float, bac
         w, t = cover
         plates.append({"section": sid, "part": "cover", "x": 0.0, "y": depth / 2 + t / 2,
                        "width": w, "thickness": t, "along": "x"})
-    if pin_plate:
-        for side, sx in (("L", -1), ("R", 1)):
-            plates.append({"section": sid, "part": f"pin plate {side}",
-                           "x": sx * (x - tw - pin_plate / 2), "y": 0.0, "width": depth * 0.6,
-                           "thickness": pin_plate, "along": "y"})
     built = {"section": sid, "connectors": "lacing", "spacing": spacing, "snug_tight": "yes",
              "hole_diameter": 0.875, "holes": holes, "U": 0.85, "note": note}
     return built, plates, chans
@@ -102,14 +98,11 @@ def _packing(g: TrussGeometry, joint: str, plates_of: Callable[[str], list[float
 
 def _sections_packing(g: TrussGeometry, assign: dict[str, str], sheets: dict[str, list[Row]],
                       pin_of: Callable[[str], float], pin_material: str | None,
-                      gap: float, stirrup: float) -> None:
-    """Pins at every joint with the packing made from the members' sections."""
+                      gap: float, stirrup: float, pin_plates: dict[str, float]) -> None:
+    """Pins at every joint with the packing made from the members' sections; a built-up
+    section's ends carry a pin plate of thickness ``pin_plates[section]`` on each side."""
     eyebar = {r["section"]: r for r in sheets["Eyebars"]}
     rods = {r["section"]: r for r in sheets["Rods"]}
-    pinplates = {}
-    for r in sheets["Plates"]:
-        if str(r["part"]).startswith("pin plate"):
-            pinplates.setdefault(r["section"], []).append(r)
     chans = {}
     for r in sheets["Channels"]:
         chans.setdefault(r["section"], []).append(r)
@@ -125,7 +118,7 @@ def _sections_packing(g: TrussGeometry, assign: dict[str, str], sheets: dict[str
         # built-up: the channel web plus its pin plate bears on the pin, one each side;
         # negative marks "outside" for the packing order
         tw = float(chans[sid][0]["web_thickness"])  # type: ignore[arg-type]
-        pp = sum(float(p["thickness"]) for p in pinplates.get(sid, [])) / 2.0  # type: ignore[arg-type]
+        pp = pin_plates.get(sid, 0.0)
         return [-(tw + pp), -(tw + pp)]
 
     for j in g.joints:
@@ -202,18 +195,19 @@ def pratt_1898() -> WorkbookContent:
          "note": "adjustable counter, turnbuckle at mid-length"},
     ]
     _add_builtup(sheets, _laced_channels("TC-1", 10.0, 2.6, 0.24, 0.436, 10.25, (14.0, 0.3125),
-                                         15.0, 4, pin_plate=0.375,
+                                         15.0, 4,
                                          note="2 channels 10 in, cover plate, laced below"))
     _add_builtup(sheets, _laced_channels("EP-1", 12.0, 2.94, 0.28, 0.501, 10.25,
-                                         (16.0, 0.375), 16.0, 4, pin_plate=0.5,
+                                         (16.0, 0.375), 16.0, 4,
                                          note="end post, 2 channels 12 in, cover plate"))
     _add_builtup(sheets, _laced_channels("VP-1", 7.0, 2.09, 0.21, 0.366, 8.0, None, 12.0, 2,
-                                         pin_plate=0.3125,
                                          note="post, 2 channels 7 in laced both faces"))
+    pin_plates = {"TC-1": 0.375, "EP-1": 0.5, "VP-1": 0.3125}
     for m in g.members:
         sheets["Members"].append({"member": m.label, "start": m.start, "end": m.end,
                                   "role": m.role.value, "section": assign[m.label]})
-    _sections_packing(g, assign, sheets, pin_of, None, 0.0625, stirrup=0.875)
+    _sections_packing(g, assign, sheets, pin_of, None, 0.0625, stirrup=0.875,
+                      pin_plates=pin_plates)
     L = g.member_length_ft
     sheets["Findings"] += [
         {"member": "L1L2", "component": "bar 2", "region": "body", "station": 9.0,
@@ -319,13 +313,13 @@ def parker_1907() -> WorkbookContent:
          "note": "adjustable counter"},
     ]
     _add_builtup(sheets, _laced_channels("TC-1", 12.0, 2.94, 0.28, 0.501, 12.0, (18.0, 0.375),
-                                         16.0, 4, pin_plate=0.5))
+                                         16.0, 4))
     _add_builtup(sheets, _laced_channels("TC-2", 12.0, 3.05, 0.39, 0.501, 12.0,
-                                         (18.0, 0.4375), 16.0, 4, pin_plate=0.5))
+                                         (18.0, 0.4375), 16.0, 4))
     _add_builtup(sheets, _laced_channels("EP-1", 15.0, 3.4, 0.4, 0.65, 12.0, (18.0, 0.4375),
-                                         18.0, 4, pin_plate=0.5))
-    _add_builtup(sheets, _laced_channels("VP-1", 8.0, 2.26, 0.22, 0.39, 9.0, None, 13.0, 2,
-                                         pin_plate=0.375))
+                                         18.0, 4))
+    _add_builtup(sheets, _laced_channels("VP-1", 8.0, 2.26, 0.22, 0.39, 9.0, None, 13.0, 2))
+    pin_plates = {"TC-1": 0.5, "TC-2": 0.5, "EP-1": 0.5, "VP-1": 0.375}
     sheets["Materials"] += [
         {"material": "CT-2019", "kind": "steel", "F_y": 31.5, "F_u": 57.0,
          "basis": "coupon tests from two bottom-chord bars, 2019 (invented report TC-19-07)"},
@@ -336,7 +330,8 @@ def parker_1907() -> WorkbookContent:
         sheets["Members"].append({"member": m.label, "section": assign[m.label],
                                   "material": "CT-2019"})
     sheets["Heights"] += [{"point": k, "height": v} for k, v in enumerate(heights, start=1)]
-    _sections_packing(g, assign, sheets, pin_of, "PIN", 0.0625, stirrup=1.0)
+    _sections_packing(g, assign, sheets, pin_of, "PIN", 0.0625, stirrup=1.0,
+                      pin_plates=pin_plates)
     r1, r2 = PARKER_HANGER_LOSS_PERCENT
     findings: list[Row] = [
         {"member": "L1U1", "component": "rod 1", "region": "thread", "station": 0.5,
@@ -438,8 +433,7 @@ def pony_1903_si() -> WorkbookContent:
          "note": "square counter rod"},
     ]
     built, plates, chans = _laced_channels("TC-1", 178.0, 53.0, 5.3, 9.3, 190.0, (300.0, 8.0),
-                                           300.0, 4, pin_plate=8.0,
-                                           note="top chord and end posts")
+                                           300.0, 4, note="top chord and end posts")
     built["hole_diameter"] = 20.6
     _add_builtup(sheets, (built, plates, chans))
     sheets["BuiltUp"].append({"section": "VP-1", "connectors": "lacing", "spacing": 280.0,
@@ -452,12 +446,6 @@ def pony_1903_si() -> WorkbookContent:
                                ("A-4", 80.0, -60.0, "-x", "+y")):
         sheets["Angles"].append({"section": "VP-1", "part": part, "x": x, "y": y, "leg_x": a,
                                  "leg_y": a, "thickness": 8.0, "x_dir": xd, "y_dir": yd})
-    sheets["Plates"] += [
-        {"section": "VP-1", "part": "pin plate L", "x": -86.0, "y": 0.0, "width": 150.0,
-         "thickness": 10.0, "along": "y"},
-        {"section": "VP-1", "part": "pin plate R", "x": 86.0, "y": 0.0, "width": 150.0,
-         "thickness": 10.0, "along": "y"},
-    ]
     for m in g.members:
         sheets["Members"].append({"member": m.label, "section": assign[m.label],
                                   "K": 0.875 if assign[m.label] == "TC-1" else None})
@@ -470,6 +458,8 @@ def pony_1903_si() -> WorkbookContent:
             return [float(eyebar[sid]["thickness"])] * int(eyebar[sid]["count"])  # type: ignore[arg-type]
         if sid in rods:
             return [float(rods[sid]["diameter"])] * int(rods[sid]["count"])  # type: ignore[arg-type]
+        # built-up: at the ends the web with its pin plate bears on the pin each side (on
+        # Packing only: the pin plates are not parts of the section, see _laced_channels)
         return [-16.0, -16.0] if sid == "VP-1" else [-(5.3 + 8.0), -(5.3 + 8.0)]
 
     for j in g.joints:

@@ -189,6 +189,10 @@ def _reverse_label(label: str) -> str | None:
     return m.group(2) + m.group(1) if m else None
 
 
+_END_PLATE_WORDS = re.compile(r"\b(pin|end|reinforc\w*|bearing)\b", re.IGNORECASE)
+"""Words in a plate's name that say it is at the member's ends only (a pin plate)."""
+
+
 class _Reading:
     """One pass over one workbook (a fresh instance per read; nothing is shared)."""
 
@@ -727,6 +731,12 @@ class _Reading:
                                 f"{_s(r, 'section')} is thicker than wide; are width and "
                                 "thickness swapped?")
                 part = PlatePart(str(_s(r, "part")), w, t, x, y, vertical=along == "y")
+                if _END_PLATE_WORDS.search(part.label):
+                    log.warning(r.ref("part"), f"plate {part.label} of section "
+                                f"{_s(r, 'section')} is counted as running the member's whole "
+                                "length (in its area, weight and buckling); pin plates and "
+                                "other plates at the ends only belong on the Packing sheet, "
+                                "not here")
             add(r, part)
         for r in self.t[sc.CHANNELS.name].rows:
             vals = [_f(r, k) for k in ("x", "y", "depth", "flange_width", "web_thickness",

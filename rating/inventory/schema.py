@@ -421,7 +421,8 @@ _XY = (
 
 PLATES = TableSheet(
     "Plates", "Plates of built-up members",
-    "x across the truss plane, y in the truss plane; (x, y) is the centre of the plate.",
+    "x across the truss plane, y in the truss plane; (x, y) is the centre of the plate. Only "
+    "plates that run the member's whole length: pin plates at the ends go on Packing.",
     (
         _c("section", "Section id", Kind.LABEL, required=True),
         _c("part", "Part", Kind.LABEL, required=True, help="Unique within the section, e.g. "

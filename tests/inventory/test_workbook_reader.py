@@ -242,3 +242,19 @@ def test_a_missing_packing_sheet_is_one_error_not_one_per_pin(tmp_path) -> None:
     assert [p.message for p in errors] == [
         "the Packing sheet is missing, so the 2 pin(s) listed here cannot be checked: list "
         "the bars on each pin in order on that sheet, or delete the pin rows"]
+
+
+def test_a_pin_plate_listed_with_a_sections_parts_is_a_warning_at_its_cell(tmp_path) -> None:
+    """Every part on the Plates sheet runs the member's whole length (its area, weight and
+    buckling use it); a pin plate at the ends belongs on Packing only. A plate named as one
+    is warned about at its cell (a reviewer found the bundled samples' laced chords 27 %
+    too strong in buckling from such plates)."""
+    from inventory_helpers import cell, find
+
+    d = fresh()
+    d["tables"]["Plates"].append({"section": "EP", "part": "pin plate L", "x": -4.5, "y": 0.0,
+                                  "width": 6.0, "thickness": 0.375, "along": "y"})
+    r = check(tmp_path, d)
+    find(r, cell("Plates", 3, "part"), "pin plates and other plates at the ends only belong "
+         "on the Packing sheet", severity="warning")
+    assert not [w for w in check(tmp_path, fresh()).warnings if "Packing sheet" in w.message]

@@ -202,13 +202,14 @@ def test_mirror_members_rated_alike_are_named_beside_the_controlling_one() -> No
 
     root = Path(__file__).resolve().parents[2]
     r = rate_workbook(root / "sample_inventory" / "tc0903_pony_1903_si.xlsx").results
-    entry = r.posting["TYPE-3"]
+    entry = r.posting["SU4"]
     assert entry.member == "U2L3" and entry.alike == ("L3U4",)
-    assert entry.rf == pytest.approx(r.member("L3U4").ratings["TYPE-3"].rf, rel=1e-9)
+    assert entry.rf == pytest.approx(r.member("L3U4").ratings["SU4"].rf, rel=1e-9)
     html = render_report(r)
     assert "same RF: L3U4" in html
-    # its Type 3S2 rating is a load reversal of an eyebar diagonal without a counter: said so
-    assert r.posting["TYPE-3S2"].member == "U1L2"
+    # its Type 3 rating is a load reversal of an eyebar diagonal without a counter: said so
+    assert r.posting["TYPE-3"].member == "U1L2" and r.posting["TYPE-3"].alike == ("L4U5",)
+    assert "same RF: L4U5" in html
     assert "reverses this tension-only member" in html
 
 
