@@ -154,7 +154,7 @@ class Rating:
     sense: str = ""  # "tension" | "compression" | "pin"
     check: str = ""
     factors: Factors | None = None
-    method: str = "linear"  # "linear" | "load multiplier" (tension-only / pins)
+    method: str = "linear"  # "linear" | "load multiplier" (tension-only / pins) | "dead load alone"
     position: Position | None = None
     finding: str = ""
     # a member rated on the load path: its factored dead-load force and its LL + IM (with the

@@ -186,7 +186,7 @@ class LinearTruss:
         u = np.zeros_like(P2)
         u[f] = self._K_inv @ P2[f]
         elong = self._B @ u
-        N = self._k_axial[:, None] * elong
+        N = without_round_off(self._k_axial[:, None] * elong)
         R = self._B.T @ N - P2  # internal nodal forces minus applied = support reactions
         R[f] = 0.0
         shape = (nj, 2) if single else (nj, 2, P2.shape[1])
@@ -205,12 +205,12 @@ class LinearTruss:
             u = np.zeros_like(P1)
             u[f] = self._K_inv @ P1[f]
             elong = self._B @ u
-            return self._k_axial * elong, elong
+            return without_round_off(self._k_axial * elong), elong
         P2 = P.reshape(-1, P.shape[-1])
         u = np.zeros_like(P2)
         u[f] = self._K_inv @ P2[f]
         elong = self._B @ u
-        return self._k_axial[:, None] * elong, elong
+        return without_round_off(self._k_axial[:, None] * elong), elong
 
     @cached_property
     def redundancy(self) -> np.ndarray:
@@ -246,6 +246,20 @@ class LinearTruss:
             stations_ft=np.array(g.deck_stations_ft, dtype=float),
             ordinates=self.unit_load_lines[0],
         )
+
+
+ROUND_OFF = 1e-10
+"""A member force within this fraction of the largest member force of its loading is zero:
+the solve leaves about 1e-15 of it in a member that carries nothing (a zero-force member, a
+vertical that a unit load does not reach), and a rating divided by it would be 1e15 or a
+sign picked by round-off."""
+
+
+def without_round_off(N: np.ndarray) -> np.ndarray:
+    """Member forces (m,) or (m, k) of one loading per column with the round-off of the solve
+    set to zero (:data:`ROUND_OFF`)."""
+    scale = np.abs(N).max(axis=0, initial=0.0)
+    return np.where(np.abs(N) <= ROUND_OFF * scale, 0.0, N)
 
 
 def influence_lines(geometry: TrussGeometry, inactive: Iterable[str] = ()) -> InfluenceLines:

@@ -401,17 +401,27 @@ def _loop_rod_controls(warning: str, controlling: set[str]) -> str:
 
 
 def _dead_load_past_resistance(ratings: Mapping[tuple[str, str], MemberCaseRating],
-                               cases: Sequence[RatingCase]) -> list[str]:
+                               cases: Sequence[RatingCase], pins: Sequence[PinRating]
+                               ) -> list[str]:
     """Members whose factored resistance is below their factored dead load (RF below zero for
-    some case): the rating equation gives no live load at all (MBE 6A.4.2.1 [value from
-    memory]); the truss stands today on what the rating does not count."""
+    some case, or -inf where no vehicle loads them), and pins whose check under factored dead
+    load alone is past the limit: the rating equation gives no live load at all (MBE
+    6A.4.2.1 [value from memory]); the truss stands today on what the rating does not
+    count."""
     ids = {c.id for c in cases}
     members = sorted({lab for (lab, cid), r in ratings.items()
-                      if cid in ids and r.rf < 0.0 and math.isfinite(r.rf)})
-    if not members:
+                      if cid in ids and r.rf < 0.0 and (math.isfinite(r.rf)
+                                                        or r.method == DEAD_ALONE)})
+    pins_past = [p.joint for p in pins if p.dead_check is not None
+                 and p.dead_check.utilization >= 1.0]
+    if not members and not pins_past:
         return []
-    return [f"{DEAD_LOAD_PAST_RESISTANCE}: member(s) {', '.join(members)} cannot carry their "
-            "factored dead load (rating factor below zero): the truss stands today only on "
+    who = " and ".join(filter(None, (
+        f"member(s) {', '.join(members)}" if members else "",
+        f"the pin(s) at {', '.join(pins_past)}" if pins_past else "")))
+    return [f"{DEAD_LOAD_PAST_RESISTANCE}: {who} cannot carry their "
+            "factored dead load (rating factor below zero, or zero for a pin): the truss "
+            "stands today only on "
             "what the rating does not count (dead loads lighter than taken, metal stronger or "
             "thicker than recorded, a load path not modelled). Check the measurements and the "
             "material, and consider closing at once until they are confirmed."]
@@ -736,7 +746,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
-    warnings[at:at] = _dead_load_past_resistance(ratings, cases)
+    warnings[at:at] = _dead_load_past_resistance(ratings, cases, pins)
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
         configs=configs, lines_by_config=lines, cases=cases, live=live, ratings=ratings, pins=pins,
@@ -974,7 +984,29 @@ def _rate_linear(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW
                        pl.extremes[k])
         if best is None or cand.rf < best.rf:
             best = cand
-    return best if best is not None else _not_loaded(cap, m.label, case)
+    return best if best is not None else _dead_alone(m, cap, case, DC, DW, DWs, dead_f)
+
+
+DEAD_ALONE = "dead load alone"
+"""The method of a member the vehicle does not load whose factored dead load is past its
+resistance: its RF is -inf (C - D < 0 over no live load)."""
+
+
+def _dead_alone(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW: float,
+                DWs: float, dead_f) -> MemberCaseRating:
+    """A member the vehicle does not load: "not loaded" (RF +inf), unless its factored dead
+    load alone is past its resistance in the sense it acts, where no live load at all can be
+    carried: RF -inf (MBE 6A.4.2.1 [value from memory], C - gamma_D D < 0 with LL = 0)."""
+    for sense, name in SENSES:
+        r = rating_factor(cap.factored_resistance(name),
+                          SenseLoads(sense * DC, sense * DW, 0.0, DW_surface=sense * DWs),
+                          case.gamma_ll.value, dead_f)
+        if r.factored_dead_kip > 0.0 and lower_beyond_round_off(r.capacity_kip,
+                                                                 r.factored_dead_kip):
+            pl = _SensePlan(sense, name, (), (0.0,), r.capacity_kip, cap.governing(name))
+            return _record(m, cap, case, pl, -math.inf, DEAD_ALONE, r.gamma_dc, r.gamma_dw,
+                           None)
+    return _not_loaded(cap, m.label, case)
 
 
 def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[_SensePlan],

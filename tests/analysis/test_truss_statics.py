@@ -66,3 +66,25 @@ def test_hanger_carries_only_its_floorbeam(lines):
     expected = np.zeros_like(row)
     expected[1] = 1.0
     np.testing.assert_allclose(row, expected, atol=1e-9)
+
+
+def test_a_member_a_unit_load_does_not_reach_has_a_line_of_exact_zeros():
+    # Statics (common practice): on a deck truss the end panel's bottom chord L0L1 meets the
+    # support and one vertical only, so with no load at L0 it carries nothing; the verticals
+    # of an odd-panel double-intersection truss at mid-span are likewise unloaded. The solve
+    # leaves about 1e-15 in such a member, and a rating divided by it was 1e15 or a sign
+    # picked by round-off; the line is exactly zero.
+    deck = influence_lines(build_truss("pratt", 6, 15.0, 12.0, "deck"))
+    assert np.all(deck.row("L0L1") == 0.0) and np.all(deck.row("L5L6") == 0.0)
+    assert np.abs(deck.row("L1L2")).max() > 0.1  # (a loaded chord keeps its line)
+    double = influence_lines(build_truss("double intersection", 11, 20.0, 26.0))
+    assert np.all(double.row("L5U5") == 0.0) and np.all(double.row("L6U6") == 0.0)
+
+
+def test_round_off_is_measured_against_each_loading_on_its_own():
+    from rating.analysis.truss import without_round_off
+
+    N = np.array([[1e-15, 2.0e-3], [1.0, 1e-16], [-3.0, 4.0e-3]])
+    np.testing.assert_array_equal(without_round_off(N),
+                                  [[0.0, 2.0e-3], [1.0, 0.0], [-3.0, 4.0e-3]])
+    np.testing.assert_array_equal(without_round_off(np.array([1e-14, 5.0])), [0.0, 5.0])

@@ -447,11 +447,11 @@ def test_dead_load_past_resistance_and_a_controlling_loop_rod_bear_on_the_decisi
     r = rate_bridge(bridge, ["TYPE-3"])
     low = r.ratings[("L1L2", "TYPE-3")]
     assert low.rf < 0.0  # 5 % of the bottom chord left: less than its factored dead load
-    said = _dead_load_past_resistance(r.ratings, r.cases)
+    said = _dead_load_past_resistance(r.ratings, r.cases, r.pins)
     assert said and said[0].startswith("DEAD LOAD EXCEEDS RESISTANCE: member(s) L1L2")
     assert said[0] in r.warnings
     assert _dead_load_past_resistance(rate_bridge(make_pratt_bridge(pins=False),
-                                                  ["TYPE-3"]).ratings, r.cases) == []
+                                                  ["TYPE-3"]).ratings, r.cases, ()) == []
     w = "member L1U1: forge-welded loop rods crack at the forge line, a frequent flaw"
     assert _loop_rod_controls(w, {"L1U1"}).startswith("LOOP ROD CONTROLS: member L1U1")
     assert _loop_rod_controls(w, {"L0L1"}) == w
@@ -508,3 +508,51 @@ def test_an_shv_below_one_is_not_screened_out_by_the_nrl():
     assert out["SU4"].screened_out and not out["SU7"].screened_out
     assert out["SU7"].result.action.value == "post"
     assert "the NRL does not cover this SHV" in out["SU7"].note
+
+
+def test_a_member_no_vehicle_loads_is_not_rated_from_round_off():
+    """The mid-span verticals of an 11-panel double-intersection truss carry dead load but no
+    live load (statics, common practice). As posts they are "not loaded" (RF +inf, not the
+    1e15 the solve's round-off once gave); as rods (tension-only) they cannot carry the
+    dead-load compression at all: RF -inf by the dead load alone, said in capitals, and the
+    rating calls for closing (MBE 6A.4.2.1 [value from memory]: C - gamma_D D < 0)."""
+    from demo_bridge import STEEL, section_for
+
+    from rating.lrfr.engine import DEAD_ALONE
+    from rating.lrfr.posting import PostingAction
+    from rating.model import MemberDesign, RodEnd, RodSet
+    from rating.model.builders import build_truss
+
+    g = build_truss("double intersection", 11, 14.0, 22.0)  # (154 ft: the demo's sections)
+    designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    bridge = replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    r = rate_bridge(bridge, ["TYPE-3"])
+    for lab in ("L5U5", "L6U6"):
+        assert r.live[(lab, "TYPE-3")].max == 0.0 == r.live[(lab, "TYPE-3")].min
+        assert r.ratings[(lab, "TYPE-3")].rf == math.inf
+    assert not [w for w in r.warnings if w.startswith("DEAD LOAD EXCEEDS")]
+    rods = tuple(replace(d, section=RodSet(2, 1.25, RodEnd.LOOP))
+                 if d.member in ("L5U5", "L6U6") else d for d in designs)
+    r = rate_bridge(replace(bridge, member_designs=rods), ["TYPE-3"])
+    low = r.ratings[("L5U5", "TYPE-3")]
+    assert low.rf == -math.inf and low.method == DEAD_ALONE and low.sense == "compression"
+    assert any(w.startswith("DEAD LOAD EXCEEDS RESISTANCE: member(s) L5U5, L6U6")
+               for w in r.warnings)
+    assert r.postings["TYPE-3"].result.action is PostingAction.CLOSE
+
+
+def test_a_pin_past_its_limit_under_dead_load_bears_on_the_decision():
+    """A pin whose check under factored dead load alone is past its limit rates 0.0 for
+    every vehicle; it is named in the DEAD LOAD EXCEEDS RESISTANCE warning as a member would
+    be (it was a bare 0.00 with no word why)."""
+    from rating.model import Material, MaterialKind
+
+    bridge = make_pratt_bridge()
+    weak = Material(MaterialKind.STEEL, F_y=1.0, F_u=2.0)
+    bridge = replace(bridge, pins=tuple(replace(p, material=weak) for p in bridge.pins))
+    r = rate_bridge(bridge, ["TYPE-3"])
+    (pin,) = r.pins
+    assert pin.ratings["TYPE-3"].rf == 0.0 and pin.dead_check.utilization >= 1.0
+    assert any(w.startswith("DEAD LOAD EXCEEDS RESISTANCE: the pin(s) at L2")
+               for w in r.warnings)
