@@ -98,7 +98,9 @@ def design_lane_count(roadway_width_ft: float, *, lane_width_ft: float = 12.0,
     (AASHTO LRFD 3.6.1.1.1), and for a rating 18 to 20 ft gives two as well, each half the
     roadway (MBE 6A.2.3.2; under 18 ft one lane). [value from memory]
     """
-    w = float(roadway_width_ft)
+    # (to a millionth of a foot: an SI width is a converted number, 5.4864 m is 18 ft, not
+    # 17.999999999999996 ft, which would lose the second lane)
+    w = round(float(roadway_width_ft), 6)
     if two_lanes_20_to_24_ft and 20.0 <= w <= 24.0:
         return 2
     if two_lanes_18_to_20_ft and 18.0 <= w < 20.0:

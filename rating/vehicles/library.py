@@ -68,8 +68,9 @@ class RatingLoad:
     tag: str = ""
 
     def applies_to(self, span_ft: float) -> bool:
-        """True when the load is to be rated on a span of ``span_ft``."""
-        return self.min_span_ft is None or span_ft > self.min_span_ft
+        """True when the load is to be rated on a span of ``span_ft`` (compared to a millionth
+        of a foot: an SI span is a converted number, and 60.96 m is 200 ft exactly)."""
+        return self.min_span_ft is None or round(span_ft, 6) > self.min_span_ft
 
 
 # ---------------------------------------------------------------------------------------------

@@ -32,6 +32,19 @@ def test_design_lanes_and_multiple_presence():
     assert [multiple_presence_factor(k) for k in (1, 2, 3, 4, 6)] == [1.2, 1.0, 0.85, 0.65, 0.65]
 
 
+def test_an_si_roadway_on_a_lane_limit_keeps_its_lanes():
+    # 5.4864 m is 18 ft exactly, and the reader's conversion gives 17.999999999999996 ft: the
+    # same bridge in SI lost its second lane (every RF about 19 % high). Widths are compared
+    # to a millionth of a foot.
+    from rating.units import to_core
+
+    assert to_core(5.4864, "m") < 18.0  # (the conversion's round-off, as the reader makes it)
+    assert design_lane_count(to_core(5.4864, "m")) == 2
+    assert design_lane_count(to_core(7.3152, "m")) == 2  # 24 ft
+    assert design_lane_count(to_core(3.6576 * 3, "m")) == 3  # 36 ft
+    assert design_lane_count(17.99) == 1
+
+
 def test_one_lane_hand_statics():
     # Hand statics (lever rule, simple floorbeam; common practice): trusses 16 ft apart,
     # roadway 14 ft centred (curbs at 1 and 15 ft). Wheels 2 ft from the curb and 6 ft apart

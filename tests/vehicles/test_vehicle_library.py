@@ -60,6 +60,8 @@ def test_hl93_and_lane_type_legal_load():
     (m,) = lane.models
     assert m.axles.axle_scale == 0.75 and m.lane_load_klf == pytest.approx(0.2)
     assert not lane.applies_to(200.0) and lane.applies_to(200.5)
+    # an SI span of 60.96 m is 200 ft: not over it, whatever the conversion's last digit
+    assert not lane.applies_to(200.0 + 3e-14) and lane.applies_to(200.001)
     ids = [r.id for r in rating_loads()]
     assert ids[0] == "HL-93"
     assert "HL93-TRUCK" not in ids and "TYPE-3" in ids and "EV3" in ids
