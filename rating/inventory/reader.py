@@ -1354,10 +1354,20 @@ class _Reading:
             total_tons = sum(loads) / 2.0
             gross = _f(vr, "gross")
             if gross is not None and abs(gross - total_tons) > 0.02 * total_tons:
-                log.warning(vr.ref("gross"), f"the gross weight of vehicle {vid} "
-                            f"({_g(gross)} tons) differs from the sum of its axles "
-                            f"({_g(total_tons)} tons); the gross weight given is used for "
-                            "its rating in weight (RT) and posting")
+                if not _f(vr, "lane_load"):
+                    # the RF comes from the axles and the posting load from W: a W above the
+                    # axles' sum would post the bridge for more than it carries
+                    log.error(vr.ref("gross"), f"the gross weight of vehicle {vid} "
+                              f"({_g(gross)} tons) differs from the sum of its axles "
+                              f"({_g(total_tons)} tons): the rating comes from the axles and "
+                              "the posting load from the gross weight, so they must agree; "
+                              "correct one of them, or leave the gross weight blank")
+                else:
+                    log.warning(vr.ref("gross"), f"the gross weight of vehicle {vid} "
+                                f"({_g(gross)} tons) differs from the sum of its axles "
+                                f"({_g(total_tons)} tons); with its lane load, the gross "
+                                "weight given is used for its rating in weight (RT) and "
+                                "posting")
             out.append(Vehicle(id=vid, name=name,
                                category=VehicleCategory(_s(vr, "category") or "owner"),
                                axle_loads_kip=tuple(loads), spacings=tuple(spacings),

@@ -258,3 +258,21 @@ def test_a_pin_plate_listed_with_a_sections_parts_is_a_warning_at_its_cell(tmp_p
     find(r, cell("Plates", 3, "part"), "pin plates and other plates at the ends only belong "
          "on the Packing sheet", severity="warning")
     assert not [w for w in check(tmp_path, fresh()).warnings if "Packing sheet" in w.message]
+
+
+def test_a_gross_weight_apart_from_the_axles_is_kept_only_with_a_lane_load(tmp_path) -> None:
+    """The RF comes from the axles and the safe posting load from W: a W of 50 tons on 15
+    tons of axles posted a bridge for 26 tons instead of about 7. Without a lane load the two
+    must agree (an error at the gross weight's cell); with one, W may be given apart."""
+    from inventory_helpers import cell, find
+
+    d = fresh()
+    d["tables"]["Vehicles"][0]["gross"] = 50.0  # axles: 12 + 22 kip = 17 tons
+    r = check(tmp_path, d)
+    find(r, cell("Vehicles", 0, "gross"), "the posting load from the gross weight")
+    assert len(r.errors) == 1
+    d["tables"]["Vehicles"][0]["lane_load"] = 0.2
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    find(r, cell("Vehicles", 0, "gross"), "with its lane load", severity="warning")
+    assert [v for v in r.bridge.owner_vehicles if v.id == "OWN-1"][0].gross_weight_tons == 50.0

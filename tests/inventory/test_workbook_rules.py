@@ -841,8 +841,8 @@ CASES += [
     Case("max below spacing", "loads-vehicles", cell("Axles", 11, "max_spacing"),
          "the maximum spacing of axle 2 of vehicle OWN-6 (10 ft) is less than the spacing"),
     Case("gross differs from axles", "loads-vehicles", cell("Vehicles", 7, "gross"),
-         "the gross weight of vehicle OWN-7 (40 tons) differs from the sum of its axles (10 tons)",
-         "warning"),
+         "the gross weight of vehicle OWN-7 (40 tons) differs from the sum of its axles (10 tons):"
+         " the rating comes from the axles and the posting load from the gross weight"),
     Case("library id reused", "loads-vehicles", cell("Vehicles", 8, "vehicle"),
          "vehicle SU4 has the id of a library vehicle; the one on this sheet is used",
          "warning"),
