@@ -313,9 +313,10 @@ def recommendation(rating: BridgeRating, unit: str,
     hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
     if not hinge or text.startswith("Consider closing"):
         return text
-    names = ", ".join(hinge)
+    names = ", ".join(w.what(m) for m, w in hinge.items())
     if_not = "; ".join(
-        f"without {m}, {'no load path for the trucks' if w.rf is None else 'lowest truck RF'}"
+        f"without {w.what(m)}, "
+        f"{'no load path for the trucks' if w.rf is None else 'lowest truck RF'}"
         + ("" if w.rf is None else f" {reported_rf(w.rf):.2f} ({w.case}, {w.controlling})")
         for m, w in hinge.items())
     one = len(hinge) == 1

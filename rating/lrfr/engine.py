@@ -187,6 +187,11 @@ class WithoutMember:
     rf: float | None = None
     case: str = ""
     controlling: str = ""
+    bars: str = ""  # the bent bars left out ("bar 2"); "" for the whole member
+
+    def what(self, member: str) -> str:
+        """What was left out, in words: "L3U4" or "the bent bar 2 of L3L4"."""
+        return f"the bent {self.bars} of {member}" if self.bars else member
 
 
 # --------------------------------------------------------------------------- set-up
@@ -481,14 +486,35 @@ def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
         if not bent:
             continue
         where = ", ".join(dict.fromkeys(f.where for f in bent if f.where))
+        bars = _bent_bars(bridge, m.label)
+        said = (f"member {m.label} is recorded bent{f' ({where})' if where else ''} and is "
+                "counted as fully effective in tension" if not bars else
+                f"member {m.label} has {bars} recorded bent{f' ({where})' if where else ''}, "
+                "counted as fully effective in tension")
+        rests = ("the load path of its panel rests on it when the live load reverses the "
+                 "panel's shear" if m.role in (MemberRole.COUNTER, MemberRole.DIAGONAL)
+                 else "its force depends on which counters act, and its ratings rest on its "
+                 "full section")
         out[m.label] = (
-            f"BENT {m.role.value.upper()} RELIED ON: member {m.label} is recorded bent"
-            f"{f' ({where})' if where else ''} and is counted as fully effective in tension; "
-            "the load path of its panel rests on it when the live load reverses the panel's "
-            "shear. If it does not take load (a bowed rod that does not straighten, a seized "
-            "turnbuckle), the ratings of that panel may fall sharply. The engineer should "
-            "confirm that it acts, or rate without it by recording its bars as loose.")
+            f"BENT {m.role.value.upper()} RELIED ON: {said}; {rests}. If "
+            f"{'it does' if not bars else 'the bent bars do'} not take load (a bowed bar or rod "
+            "that does not straighten, a seized turnbuckle), the ratings of that panel may "
+            "fall sharply. The engineer should confirm that "
+            f"{'it acts' if not bars else 'they act'}, or rate without "
+            f"{'it' if not bars else 'them'} by recording "
+            f"{'its bars' if not bars else 'them'} as loose.")
     return out
+
+
+def _bent_bars(bridge: Bridge, member: str) -> str:
+    """The bent bars of a member in words ("bar 2", "bar 1, bar 3"); "" where they are the
+    whole member (a finding on "all", or every bar of the set bent)."""
+    bent = [f for f in bridge.findings_for(member) if f.bar_state is BarState.BENT]
+    if any(f.component.strip().lower() == "all" for f in bent):
+        return ""
+    bars = list(dict.fromkeys(f.component.strip().lower() for f in bent))
+    count = getattr(bridge.design_of(member).section, "count", None)
+    return "" if count is None or len(bars) >= count else ", ".join(bars)
 
 
 def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
@@ -503,12 +529,14 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
                                 and c.load.id not in SCREENING_LOADS))
     if not trucks:
         return None
-    loose = replace(bridge, pins=(), findings=bridge.findings + (
-        Finding(member, "all", bar_state=BarState.LOOSE, where="(rated as if it did not act)"),))
+    bars = _bent_bars(bridge, member)
+    loose = replace(bridge, pins=(), findings=bridge.findings + tuple(
+        Finding(member, c, bar_state=BarState.LOOSE, where="(rated as if it did not act)")
+        for c in (bars.split(", ") if bars else ["all"])))
     try:
         other = rate_bridge(loose, trucks, what_if=False)
     except (InputError, ConvergenceError):
-        return WithoutMember("a closure to consider")
+        return WithoutMember("a closure to consider", bars=bars)
     legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
              and any(c.id == cp.case and c.postable for c in other.cases)]
     if not legal:
@@ -517,15 +545,16 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
-    return WithoutMember(verdict, low.rf, low.case, low.controlling)
+    return WithoutMember(verdict, low.rf, low.case, low.controlling, bars)
 
 
 def without_text(member: str, w: WithoutMember) -> str:
     """The sentence a bent member's warning ends with (:func:`_without_bent`)."""
     if w.rf is None:
-        return (f" Rated as if {member} did not act, the truss has no load path for these "
-                "loads: consider closing.")
-    return (f" Rated as if {member} did not act (its bars loose), the members give {w.verdict}: "
+        return (f" Rated as if {w.what(member)} did not act, the truss has no load path for "
+                "these loads: consider closing.")
+    return (f" Rated as if {w.what(member)} did not act ({'its bars' if not w.bars else 'as'}"
+            f" loose), the members give {w.verdict}: "
             f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling}); the pins "
             "were not rated again, so this RF is the most that rating could give.")
 

@@ -556,3 +556,25 @@ def test_a_pin_past_its_limit_under_dead_load_bears_on_the_decision():
     assert pin.ratings["TYPE-3"].rf == 0.0 and pin.dead_check.utilization >= 1.0
     assert any(w.startswith("DEAD LOAD EXCEEDS RESISTANCE: the pin(s) at L2")
                for w in r.warnings)
+
+
+def test_one_bent_bar_of_a_chord_is_left_out_alone_in_the_what_if():
+    """A bottom chord of four eyebars with one bar recorded bent: the what-if rates the truss
+    with that bar loose (three bars left), not the whole chord (a mechanism, which read as a
+    closure to consider), and the warning speaks of the bar, not of a counter's panel shear
+    (common practice: a bowed bar takes load only once straightened)."""
+    from rating.model import BarState
+
+    bent = Finding("L3L4", "bar 2", bar_state=BarState.BENT, where="Findings!B9")
+    r = rate_bridge(make_pratt_bridge(pins=False, findings=(bent,)), ["TYPE-3", "SU4"])
+    (said,) = [w for w in r.warnings if w.startswith("BENT")]
+    assert said.startswith("BENT BOTTOM CHORD RELIED ON: member L3L4 has bar 2 recorded bent "
+                           "(Findings!B9)")
+    assert "reverses the panel's shear" not in said and "the bent bar 2 of L3L4" in said
+    w = r.without["L3L4"]
+    assert w.bars == "bar 2" and w.verdict == "no restriction" and w.rf is not None
+    assert w.rf <= min(cp.rf for cp in r.postings.values()) + 1e-9
+    # a counter of one rod with that rod bent is the whole member
+    rod = Finding("L3U4", "rod 1", bar_state=BarState.BENT)
+    r = rate_bridge(make_pratt_bridge(pins=False, findings=(rod,)), ["TYPE-3"])
+    assert r.without["L3U4"].bars == "" and "member L3U4 is recorded bent" in r.warnings[0]
