@@ -518,7 +518,7 @@ def test_workbook_warnings_that_bear_on_the_decision_reach_the_recommendation(tm
     heads = [w.partition(":")[0] for w in outcome.results.decision_warnings]
     assert "NO DECK DEAD LOAD" in heads and "UNSAVED EDITS POSSIBLE" in heads
     dead = next(w for w in outcome.results.decision_warnings if w.startswith("NO DECK"))
-    assert dead.startswith("NO DECK DEAD LOAD: DeadLoads!A4: the DeadLoads sheet lists no DC")
+    assert dead.startswith("NO DECK DEAD LOAD: DeadLoads!A6: the DeadLoads sheet lists no DC")
 
 
 def test_path_table_checks_by_hand(outcomes):

@@ -192,6 +192,16 @@ def lateral_distribution(
         if n < 1:
             raise InputError(f"the owner's lane count must be at least 1, got {n}", where or None)
         lane_w = min(lane_width_ft, w / n)
+        design = design_lane_count(w, lane_width_ft=lane_width_ft,
+                                   two_lanes_20_to_24_ft=two_lanes_20_to_24_ft,
+                                   two_lanes_18_to_20_ft=two_lanes_18_to_20_ft)
+        if n < design:
+            warnings.append(
+                f"the owner's lane count ({n}) is less than the {design} design lanes of a "
+                f"{w:g} ft roadway (AASHTO LRFD 3.6.1.1.1, MBE 6A.2.3.2 [value from memory]): "
+                "with fewer lanes loaded the trusses' share of the live load can be smaller "
+                "than the roadway allows, and every rating higher; confirm that traffic is "
+                "held to that many lanes (striping, the owner's policy)")
         if lane_w < 2 * wheel_to_edge_ft + wheel_gauge_ft:
             warnings.append(f"owner's {n} lanes on a {w:g} ft roadway are {lane_w:.1f} ft wide; "
                             "vehicles are centred in their lanes")

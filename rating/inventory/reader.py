@@ -19,6 +19,7 @@ from rating.capacity.pins import FLOORBEAM
 from rating.capacity.sections import (
     gross_area_as_built_in2,
     part_reference_thickness_in,
+    section_kind,
     validate_section,
 )
 from rating.errors import GeometryError, InputError, InstabilityError
@@ -69,7 +70,7 @@ from rating.model import (
     Vehicle,
     VehicleCategory,
 )
-from rating.model.builders import build_truss
+from rating.model.builders import build_truss, counters_not_built
 from rating.units import si_text
 from rating.vehicles.library import known_ids, rating_loads
 
@@ -112,6 +113,12 @@ rating may not be of the workbook the engineer sees), so it is headed in capital
 NO_DEAD_LOAD = "NO DECK DEAD LOAD"
 DAMAGE_IN_NOTE = "DAMAGE IN A NOTE"
 NO_PINS = "PINS NOT RATED"
+
+
+def _first_entry(spec: sc.TableSheet) -> str:
+    """The cell where a table's first entry goes (below its example rows): where a warning
+    about a sheet that lists nothing, or too little, points the user."""
+    return f"{spec.name}!A{sc.FIRST_DATA_ROW + len(spec.examples)}"
 
 
 def _on_a_pin(design: MemberDesign | None) -> bool:
@@ -412,6 +419,20 @@ class _Reading:
             return None
         if len(set(counters)) != len(counters):
             log.warning(b.ref("counter_panels"), "a counter panel is listed twice")
+        try:
+            skipped = counters_not_built(form, n, pos, counters)
+        except ValueError:  # (an unknown form is said by build_truss below)
+            skipped = ()
+        if skipped:
+            many = len(skipped) > 1
+            log.warning(b.ref("counter_panels"), f"counter panel{'s' if many else ''} "
+                        f"{_listing([str(c) for c in skipped])} get{'' if many else 's'} no "
+                        "counter: " + (
+                            "an end panel is crossed by the end post, not by a diagonal"
+                            if form in ("pratt", "parker") else
+                            f"counters are generated for Pratt and Parker trusses only; list "
+                            f"the members of this {form} truss explicitly to give it "
+                            "counters"))
         try:
             g = build_truss(form, n, p, heights, deck_position=pos,
                             counter_panels=tuple(sorted(set(counters))))
@@ -885,6 +906,10 @@ class _Reading:
             r = rows[m.label]
             t_only = _b(r, "tension_only")
             section = by_label[m.label].section
+            if t_only is False and isinstance(section, EyebarSet | RodSet):
+                log.warning(r.ref("tension_only"), f"member {m.label} is marked not "
+                            f"tension-only, but its section is {_a(section_kind(section))}, "
+                            "which cannot push: it is rated as tension-only")
             area = areas.get(id(section))
             if area is None:
                 area = areas[id(section)] = gross_area_as_built_in2(section)
@@ -1208,12 +1233,12 @@ class _Reading:
                 _on_a_pin(by_member.get(m.label)) for m in g.members_at(j.label))]
             if pinned:
                 many = len(pinned) > 1
-                log.warning(f"{sc.PINS.name}!A{sc.HEADER_ROW + 1}", "eyebars or loop rods end "
+                log.warning(_first_entry(sc.PINS), f"{NO_PINS}: eyebars or loop rods end "
                             f"at joint{'s' if many else ''} {_listing(pinned)} but no pin is "
                             f"listed there, so {'those pins are' if many else 'that pin is'} "
                             "not rated; list each with its packing (pins often govern)")
         if not pin_rows and self.book.find(sc.PINS.name) is not None:
-            log.warning(f"{sc.PINS.name}!A{sc.HEADER_ROW + 1}", f"{NO_PINS}: the Pins sheet "
+            log.warning(_first_entry(sc.PINS), f"{NO_PINS}: the Pins sheet "
                         "lists no pin, so no pin is rated; on a pin-connected truss the pins "
                         "often govern, so list each pin with its packing before relying on a "
                         "posting (where the joints are riveted, their gusset plates need a "
@@ -1268,7 +1293,7 @@ class _Reading:
             # weight is a gap in the record, and it raises every rating
             units = ("kPa of deck, kN/m or kN per floorbeam" if self.si
                      else "psf of deck, plf or kip per floorbeam")
-            log.warning(f"{sc.DEADLOADS.name}!A{sc.HEADER_ROW + 1}", f"{NO_DEAD_LOAD}: the "
+            log.warning(_first_entry(sc.DEADLOADS), f"{NO_DEAD_LOAD}: the "
                         "DeadLoads sheet lists no DC (deck, stringers, floorbeams, railings), "
                         "so the rating carries the trusses' own weight and any wearing surface "
                         f"only; list them ({units}) before relying on any rating factor or "

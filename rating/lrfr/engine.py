@@ -637,7 +637,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))
-                        + " would have to carry compression")
+                        + " would have to carry compression (the truss cannot stand with "
+                        "them slack): an eyebar, a rod or a member marked tension-only cannot "
+                        "push. Check each one's section and its tension-only entry on the "
+                        "Members sheet (a post or a chord given a bar's section?)")
 
     configs = active_set_configurations(family, dead.slack_members)
     lines = {c: family.solver(c).influence_lines for c in configs}

@@ -134,6 +134,24 @@ def build_truss(
                          deck_position=deck_position)
 
 
+def counters_not_built(form: TrussForm | str, panel_count: int,
+                       deck_position: DeckPosition | str, counter_panels: Sequence[int]
+                       ) -> tuple[int, ...]:
+    """The listed counter panels that :func:`build_truss` gives no counter: the end panels of
+    a through or pony Pratt or Parker (an end post, not a diagonal, crosses them), and every
+    panel of the forms whose counters are not generated (Warren, Warren with verticals,
+    double intersection: their diagonals are listed as they are)."""
+    form = TrussForm(str(form).strip().lower())
+    deck_position = DeckPosition(str(deck_position).strip().lower())
+    listed = sorted(set(map(int, counter_panels)))
+    if form not in (TrussForm.PRATT, TrussForm.PARKER):
+        return tuple(listed) if form not in (TrussForm.BALTIMORE,
+                                             TrussForm.PENNSYLVANIA) else ()
+    if deck_position is DeckPosition.DECK:
+        return ()
+    return tuple(c for c in listed if c in (1, int(panel_count)))
+
+
 def _num(label: str) -> int:
     return int(label[1:])
 

@@ -118,6 +118,12 @@ def test_owner_override_and_lane_count_override():
         lateral_distribution(CrossSection(16.0, 14.0), override=-1.0)
     two = lateral_distribution(CrossSection(26.0, 18.0, lane_count_override=2))
     assert two.design_lanes == 2 and two.lane_width_ft == pytest.approx(9.0)
+    assert not any("less than the" in w for w in two.warnings)
+    # one lane on a 44 ft roadway (3 design lanes, AASHTO LRFD 3.6.1.1.1 [value from memory])
+    # raised a reviewer's Type 3 RF from 0.74 to 1.11 without a word
+    one = lateral_distribution(CrossSection(48.0, 44.0, lane_count_override=1))
+    assert any("the owner's lane count (1) is less than the 3 design lanes of a 44 ft "
+               "roadway" in w for w in one.warnings)
 
 
 @settings(max_examples=100, deadline=None)

@@ -276,3 +276,38 @@ def test_a_gross_weight_apart_from_the_axles_is_kept_only_with_a_lane_load(tmp_p
     assert r.errors == ()
     find(r, cell("Vehicles", 0, "gross"), "with its lane load", severity="warning")
     assert [v for v in r.bridge.owner_vehicles if v.id == "OWN-1"][0].gross_weight_tons == 50.0
+
+
+def test_counter_panels_that_get_no_counter_are_said_at_their_cell(tmp_path) -> None:
+    """A through Pratt's end panels are crossed by the end posts, and the Warren forms get no
+    generated counters at all: a listed panel that gets none was dropped without a word."""
+    from inventory_helpers import find, form_cell
+
+    d = fresh()
+    d["bridge"].update(counter_panels="1, 2, 3, 4")
+    r = check(tmp_path, d)
+    find(r, form_cell("Bridge", "counter_panels"), "counter panels 1, 4 get no counter: an "
+         "end panel is crossed by the end post", severity="warning")
+    assert "counter panel 2" not in " ".join(w.message for w in r.warnings)
+    d["bridge"].update(counter_panels="2", truss_form="warren")
+    r = check(tmp_path, d)
+    find(r, form_cell("Bridge", "counter_panels"), "counter panel 2 gets no counter: counters "
+         "are generated for Pratt and Parker trusses only", severity="warning")
+    d["bridge"].update(counter_panels="2, 3", truss_form="pratt")
+    assert not [w for w in check(tmp_path, d).warnings if "get no counter" in w.message
+                or "gets no counter" in w.message]
+
+
+def test_a_bar_marked_not_tension_only_is_said_to_be_rated_as_one(tmp_path) -> None:
+    """An eyebar or a rod cannot push whatever the Members sheet says: "no" in its
+    tension-only cell was ignored without a word."""
+    from inventory_helpers import cell
+
+    d = fresh()
+    rows = d["tables"]["Members"]
+    k = next(i for i, r in enumerate(rows) if r["member"] == "L1U1")  # the loop-rod hanger
+    rows[k]["tension_only"] = "no"
+    r = check(tmp_path, d)
+    (w,) = [w for w in r.warnings if "marked not tension-only" in w.message]
+    assert w.where == cell("Members", k, "tension_only")
+    assert "its section is a rod set, which cannot push: it is rated as tension-only" in w.message

@@ -252,7 +252,7 @@ def _wearing_surface_only() -> tuple[dict, Edit | None]:
 
 CASES += [
     # a wearing surface (DW) alone does not make a deck: still no DC beyond the trusses
-    Case("wearing surface only", "wearing-surface-only", "DeadLoads!A4",
+    Case("wearing surface only", "wearing-surface-only", "DeadLoads!A6",
          "NO DECK DEAD LOAD: the DeadLoads sheet lists no DC", "warning"),
 ]
 
@@ -270,9 +270,9 @@ def _empty_dead_loads_and_pins() -> tuple[dict, Edit | None]:
 CASES += [
     # a truss always carries a deck and floor system: none listed lowers no rating factor,
     # it raises them all; said in capitals, beside the recommendation
-    Case("no dead load listed", "empty-dead-loads-and-pins", "DeadLoads!A4",
+    Case("no dead load listed", "empty-dead-loads-and-pins", "DeadLoads!A6",
          "NO DECK DEAD LOAD: the DeadLoads sheet lists no DC (deck, stringers", "warning"),
-    Case("no pin listed", "empty-dead-loads-and-pins", "Pins!A4",
+    Case("no pin listed", "empty-dead-loads-and-pins", "Pins!A5",
          "PINS NOT RATED: the Pins sheet lists no pin", "warning"),
 ]
 
@@ -893,6 +893,10 @@ def test_base_workbook_is_clean(tmp_path) -> None:
     # the base lists one pin (L2) of the many its eyebars hang on: said once, as it should be
     unrated = [p for p in reading.warnings if "but no pin is listed there" in p.message]
     assert len(unrated) == 1 and "joints L0, L1, L3, L4, U1, U3" in unrated[0].message
+    # pins not rated bear on the decision (a posting may rest on a pin no one checked): said
+    # in capitals, beside the recommendation, at the first pin's row (not the example row)
+    assert unrated[0].message.startswith("PINS NOT RATED: eyebars or loop rods end at joints")
+    assert unrated[0].where == "Pins!A5"
     rest = [p for p in reading.warnings if p not in unrated]
     assert all(p.message.startswith("assumed: ") for p in rest)
     assert len(reading.assumptions) == len(rest) == 1

@@ -540,6 +540,9 @@ def test_a_member_no_vehicle_loads_is_not_rated_from_round_off():
     assert any(w.startswith("DEAD LOAD EXCEEDS RESISTANCE: member(s) L5U5, L6U6")
                for w in r.warnings)
     assert r.postings["TYPE-3"].result.action is PostingAction.CLOSE
+    assert any(w.startswith("under dead load alone the tension-only members L5U5, L6U6 would "
+                            "have to carry compression") and "given a bar's section" in w
+               for w in r.warnings)
 
 
 def test_a_pin_past_its_limit_under_dead_load_bears_on_the_decision():
