@@ -743,14 +743,23 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
         warnings.append(f"member {member}: {comps[c]} is {f.bar_state.value} "
                         f"({f.where or describe_finding(f)}) and is taken as carrying no load")
     one = len(comps) == 1
+    bars = isinstance(section, EyebarSet | RodSet)
     for c, f in bent.items():
+        if not bars:  # a part of a member that pushes
+            warnings.append(
+                f"member {member}: {comps[c]} is bent ({f.where or describe_finding(f)}); it "
+                "is left out of the member's compression resistance (a bowed part of a "
+                "column carries little until straightened; the member's buckling with its bow "
+                "is not worked here, so the engineer should judge it, e.g. from the measured "
+                "bow) and counted in tension at its full resistance")
+            continue
         warnings.append(f"member {member}: {comps[c]} is bent ({f.where or describe_finding(f)})"
                         "; it is counted in tension at its full resistance (the bend is not in "
                         "the numbers: " + (f"a bowed {comps[c].split()[0]} takes load only "
                                            "once straightened" if one else
                                            "it may take less than its share of the member's "
                                            "force until straightened")
-                        + ") and not counted in compression")
+                        + ")")
     removal_findings = tuple(dict.fromkeys(removed.values()))
 
     keys: list[tuple[FindingRegion, float | None]] = []
