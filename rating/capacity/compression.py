@@ -30,9 +30,16 @@ K_RIVETED = 0.75
 [value from memory]"""
 
 K_UNSTIFFENED = 0.56
-"""b/t limit coefficient, flanges and outstanding legs, LRFD Table 6.9.4.2-1. [value from memory]"""
+"""b/t limit coefficient, flanges of channels and rolled shapes, LRFD Table 6.9.4.2-1. [value
+from memory]"""
 K_UNSTIFFENED_SLENDER = 1.03
 """Upper coefficient of the Q_s transition, AISC 360-10 E7.1(a). [value from memory]"""
+K_LEG = 0.45
+"""b/t limit coefficient, legs of angles standing apart and all other unstiffened elements,
+LRFD Table 6.9.4.2.1-1; AISC 360-10 E7.1(c). [value from memory]"""
+K_LEG_SLENDER = 0.91
+"""Upper coefficient of the Q_s transition for such legs, AISC 360-10 E7.1(c). [value from
+memory]"""
 K_PLATE = 1.40
 """b/t limit coefficient, cover plates between lines of connectors, AASHTO LRFD Table 6.9.4.2-1.
 [value from memory]"""
@@ -90,27 +97,42 @@ def modified_slenderness(KL_r_o, a_in, r_i_in):
 
 
 def unstiffened_Q(b_t, F_y, E, *, k_limit: float = K_UNSTIFFENED,
-                  k_slender: float = K_UNSTIFFENED_SLENDER):
+                  k_slender: float = K_UNSTIFFENED_SLENDER, leg: bool = False):
     """Q_s of an unstiffened element (flange, outstanding leg) from its b/t (vectorised).
 
-    AASHTO LRFD 6.9.4.2.2 (same form as AISC 360-10 Eqs. E7-4 to E7-6). [value from memory]
+    AASHTO LRFD 6.9.4.2.2 (same form as AISC 360-10 Eqs. E7-4 to E7-6) [value from memory].
+    ``leg``: a leg of an angle that stands apart from the other parts (the angles of a laced
+    post), an "other unstiffened element" of LRFD Table 6.9.4.2.1-1, k = 0.45: AISC 360-10
+    Eqs. E7-10 to E7-12, Q_s = 1.34 - 0.76 (b/t) sqrt(F_y/E) up to 0.91 sqrt(E/F_y), then
+    0.53 E / (F_y (b/t)^2) [value from memory].
     """
     lam = np.asarray(b_t, dtype=float)
     s = math.sqrt(E / F_y)
+    if leg:
+        k_limit, k_slender, a, b, c = K_LEG, K_LEG_SLENDER, 1.34, 0.76, 0.53
+    else:
+        a, b, c = 1.415, 0.74, 0.69
     with np.errstate(divide="ignore"):
         q = np.where(lam <= k_limit * s, 1.0,
-                     np.where(lam < k_slender * s, 1.415 - 0.74 * lam * math.sqrt(F_y / E),
-                              0.69 * E / (F_y * np.maximum(lam, 1e-12) ** 2)))
+                     np.where(lam < k_slender * s, a - b * lam * math.sqrt(F_y / E),
+                              c * E / (F_y * np.maximum(lam, 1e-12) ** 2)))
     return q if q.ndim else float(q)
 
 
+def element_Q(e: ElementAtLocation, F_y: float, E: float) -> float:
+    """Q_s of one unstiffened element of a built-up section: an angle's leg by the form for
+    legs standing apart, any other (a channel's flange) as a flange (:func:`unstiffened_Q`)."""
+    return float(unstiffened_Q(e.b_in / e.t_in, F_y, E, leg=e.element.startswith("leg")))
+
+
 def width_thickness_limit(stiffened: bool, element: str, F_y: float, E: float) -> float:
-    """Limiting b/t = k sqrt(E/F_y): 0.56 flanges/legs, 1.49 webs, 1.40 plates.
+    """Limiting b/t = k sqrt(E/F_y): 0.56 flanges, 0.45 legs of angles (element "leg ..."),
+    1.49 webs, 1.40 plates.
 
     AASHTO LRFD 6.9.4.2, Table 6.9.4.2-1. [value from memory]
     """
     if not stiffened:
-        k = K_UNSTIFFENED
+        k = K_LEG if element.startswith("leg") else K_UNSTIFFENED
     elif element == "web":
         k = K_WEB
     else:
@@ -178,8 +200,7 @@ def _Q_at(s: SectionAtLocation, F_y: float,
     AASHTO LRFD 6.9.4.2, Table 6.9.4.2-1, and 6.9.4.2.2. [value from memory]
     """
     un = [e for e in s.elements if not e.stiffened and e.t_in > 0]
-    Q = float(np.min(unstiffened_Q(np.array([e.b_in / e.t_in for e in un]), F_y, E))) \
-        if un else 1.0
+    Q = min((element_Q(e, F_y, E) for e in un), default=1.0)
     slender = [e for e in s.elements if e.stiffened and e.t_in > 0
                and e.b_in / e.t_in > width_thickness_limit(True, e.element, F_y, E)]
     return Q, slender

@@ -121,12 +121,11 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
     rated without each such part, and without all of them, and the larger resistance kept
     (common practice: a part that buckles locally is taken as not carrying compression).
     AASHTO LRFD 6.9.4.2 [value from memory]."""
-    from rating.capacity.compression import unstiffened_Q
+    from rating.capacity.compression import element_Q
 
     F_y, E = design.material.F_y, design.material.E
     slender = sorted({e.part for s_ in report.compression for e in s_.elements
-                      if not e.stiffened and e.t_in > 0
-                      and float(unstiffened_Q(e.b_in / e.t_in, F_y, E)) < 1.0})
+                      if not e.stiffened and e.t_in > 0 and element_Q(e, F_y, E) < 1.0})
     best = c
     options = [[p] for p in slender] + ([slender] if len(slender) > 1 else [])
     for parts in options:

@@ -104,7 +104,24 @@ def test_unstiffened_Q_regions():
     assert unstiffened_Q(20.0, FY, E) == pytest.approx(0.8935, abs=1e-4)
     # b/t 40: 0.69 x 29000 / (36 x 1600) = 0.3474
     assert unstiffened_Q(40.0, FY, E) == pytest.approx(0.3474, abs=1e-4)
-    assert width_thickness_limit(False, "leg x", FY, E) == pytest.approx(15.894, abs=1e-3)
+    assert width_thickness_limit(False, "flange", FY, E) == pytest.approx(15.894, abs=1e-3)
+
+
+def test_legs_of_angles_standing_apart_take_the_single_angle_form():
+    # The angles of a laced four-angle post stand apart: their legs are "other unstiffened
+    # elements", k = 0.45 (AASHTO LRFD Table 6.9.4.2.1-1; AISC 360-10 E7.1(c), Eqs. E7-10 to
+    # E7-12) [value from memory], not the flanges' 0.56. F_y 36, E 29,000:
+    # limits 0.45 sqrt(E/F_y) = 12.772, 0.91 sqrt(E/F_y) = 25.828
+    assert width_thickness_limit(False, "leg x", FY, E) == pytest.approx(12.772, abs=1e-3)
+    assert unstiffened_Q(12.0, FY, E, leg=True) == 1.0
+    # b/t 14 is within the flanges' limit but past the legs': 1.34 - 0.76 x 14 x
+    # sqrt(36/29000) = 0.96512
+    assert unstiffened_Q(14.0, FY, E) == 1.0
+    assert unstiffened_Q(14.0, FY, E, leg=True) == pytest.approx(0.96512, abs=1e-4)
+    # b/t 20: 1.34 - 0.76 x 20 x 0.035233 = 0.80446; b/t 30: 0.53 x 29000 / (36 x 900)
+    # = 0.47438
+    assert unstiffened_Q(20.0, FY, E, leg=True) == pytest.approx(0.80446, abs=1e-4)
+    assert unstiffened_Q(30.0, FY, E, leg=True) == pytest.approx(0.47438, abs=1e-4)
     assert width_thickness_limit(True, "web", FY, E) == pytest.approx(1.49 * math.sqrt(E / FY))
 
 
@@ -196,3 +213,13 @@ def test_lacing_itself_is_not_rated_and_says_so():
                for a in c.assumptions)
     solid = BuiltUpSection(parts=POST.parts, connectors=Connectors(ConnectorKind.SOLID))
     assert not any("not checked" in a for a in run(solid).assumptions)
+
+
+def test_a_built_up_members_elements_take_their_own_form():
+    from rating.capacity.compression import element_Q
+    from rating.capacity.sections import ElementAtLocation
+
+    leg = ElementAtLocation("A-1", "leg x", 14.0, 1.0, False)
+    flange = ElementAtLocation("C-left", "flange", 14.0, 1.0, False)
+    assert element_Q(leg, FY, E) == pytest.approx(0.96512, abs=1e-4)  # (above)
+    assert element_Q(flange, FY, E) == 1.0
