@@ -221,6 +221,8 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             lambda s: s.rods, "rod", "AASHTO LRFD 6.8.2.1 [value from memory]")
         if weakest is not None:
             checks.append(weakest)
+        if end_kind is RodEnd.LOOP:
+            warnings.extend(_loop_loss_as_local(m, end, checks, Fy, phi_y))
     else:
         checks.append(_governing(
             "yielding on the gross section", phi_y, yield_prov, T,
@@ -291,6 +293,32 @@ def _each_bar_weakest(checks: Sequence[Check],
                  "[common practice]", shown.location,
                  f"{detail}; sum {factored:.1f} kip of R_n {nominal_sum:.1f} kip (phi weighted "
                  "over the bars)")
+
+
+def _loop_loss_as_local(member: str, end: Sequence[SectionAtLocation], checks: Sequence[Check],
+                        F_y: float, phi_y: float) -> list[str]:
+    """Loss recorded at a loop is checked for fracture only, as a local section (like a
+    thread root, AASHTO LRFD 6.8.2.1 [value from memory]); a loop is a length of bar around
+    the pin, and where the loss runs along it, yielding on the reduced section governs
+    instead. Said, with that resistance, where it would be lower than every check (common
+    practice; the engineer decides where the loss lies)."""
+    least = min((c.phi_R_n_kip for c in checks), default=0.0)
+    out = []
+    for s in end:
+        if s.location.finding is None:
+            continue
+        y = phi_y * float(yielding_nominal(s.A_n_in2, F_y))
+        if y < least * (1.0 - 1e-9):
+            out.append(f"member {member}: the loss at its loop ({s.location.describe()}) is "
+                       f"checked as a local section, for fracture only (as at a thread "
+                       f"root); if it runs along the bar around the pin, yielding on that "
+                       f"section governs: phi_y F_y A = {phi_y:g} x {F_y:g} ksi x "
+                       f"{s.A_n_in2:.3f} in2 = {y:.1f} kip, against phi R_n = {least:.1f} kip "
+                       "as rated. "
+                       "Record the loss on the body to rate it so (the engineer's judgement "
+                       "of where the loss lies)")
+            break
+    return out
 
 
 def _total(a: np.ndarray) -> float:

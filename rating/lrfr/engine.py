@@ -394,11 +394,14 @@ DEAD_LOAD_PAST_RESISTANCE = "DEAD LOAD EXCEEDS RESISTANCE"
 
 
 def _loop_rod_controls(warning: str, controlling: set[str]) -> str:
-    """The forge-weld caution of a loop rod (rating.capacity.sections) headed in capitals
-    where that rod sets a posting, a closure or a barring, whatever check governs it: a crack
-    at the forge line, not seen, would take the rod out, and the decision rests on it."""
+    """The forge-weld caution of a loop rod (rating.capacity.sections), and the caution that
+    loss at its loop is rated as local (rating.capacity.tension), headed in capitals where
+    that rod sets a posting, a closure or a barring, whatever check governs it: a crack at the
+    forge line, not seen, would take the rod out, and loss along the loop would lower its
+    rating; the decision rests on either."""
     head, sep, _ = warning.partition(": ")
-    if not (sep and head.startswith("member ") and "forge-welded loop rods" in warning):
+    if not (sep and head.startswith("member ") and ("forge-welded loop rods" in warning
+                                                     or "the loss at its loop" in warning)):
         return warning
     if head.removeprefix("member ") in controlling:
         return f"{LOOP_ROD_CONTROLS}: {warning}"

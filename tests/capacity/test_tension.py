@@ -217,3 +217,19 @@ def test_governing_location_is_numpys_first_least(values):
     assert c.location == f"location {k}"
     assert math.copysign(1.0, c.R_n_kip) == math.copysign(1.0, values[k])
     assert c.R_n_kip == values[k] or (math.isnan(c.R_n_kip) and math.isnan(values[k]))
+
+
+def test_loss_at_a_loop_is_said_to_be_rated_as_local():
+    # Loss at a loop is checked for fracture only, as a local section (AASHTO LRFD 6.8.2.1
+    # [value from memory]); a loop is a length of bar, and loss along it would make yielding
+    # on the reduced section govern. A 1.25 in loop rod, 40 % of its diameter gone at the loop:
+    # A = pi/4 (0.75)^2 = 0.4418 in2; fracture 0.80 x 52 x 0.4418 = 18.38 kip, yielding on it
+    # 0.95 x 26 x 0.4418 = 10.91 kip: said, with that number.
+    loss = Finding("M", "rod 1", FindingRegion.THREAD, percent_loss=40.0, where="Findings!B5")
+    r = checks(RodSet(1, 1.25, RodEnd.LOOP), (loss,))
+    assert min(c.phi_R_n_kip for c in r.checks) == pytest.approx(0.80 * 52 * 0.441786, rel=1e-4)
+    (said,) = [w for w in r.warnings if "the loss at its loop" in w]
+    assert "= 10.9 kip, against phi R_n = 18.4 kip as rated" in said
+    # an upset end's thread root is a local section by its nature: nothing said
+    r = checks(RodSet(1, 1.25, RodEnd.UPSET), (loss,))
+    assert not [w for w in r.warnings if "the loss at its loop" in w]

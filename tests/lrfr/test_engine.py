@@ -455,6 +455,9 @@ def test_dead_load_past_resistance_and_a_controlling_loop_rod_bear_on_the_decisi
     w = "member L1U1: forge-welded loop rods crack at the forge line, a frequent flaw"
     assert _loop_rod_controls(w, {"L1U1"}).startswith("LOOP ROD CONTROLS: member L1U1")
     assert _loop_rod_controls(w, {"L0L1"}) == w
+    local = "member L1U1: the loss at its loop (thread at 0.5 ft) is checked as a local section"
+    assert _loop_rod_controls(local, {"L1U1"}).startswith("LOOP ROD CONTROLS: member L1U1: the "
+                                                          "loss at its loop")
 
 
 def test_a_sound_loop_rod_that_sets_a_posting_bears_on_the_decision():
