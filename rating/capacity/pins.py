@@ -44,6 +44,12 @@ GAMMA_M0 = 1.00
 """Partial factor gamma_M0, EN 1993-1-1 6.1 (recommended value). [value from memory]"""
 GAMMA_M2 = 1.25
 """Partial factor gamma_M2, EN 1993-1-8 Table 2.1 (recommended value). [value from memory]"""
+WORN_CLEARANCE_IN = 0.25
+"""A pin smaller than its hole by more than this is worn far past the fit (common practice):
+rated, with a warning that bears on the decision."""
+MAX_CLEARANCE_IN = 1.0
+"""A pin smaller than its hole by more than this is taken as a data error (common practice)."""
+PIN_WORN = "PIN WORN"
 FIT_CLEARANCE_IN = 1.0 / 32.0
 """Hole not more than the pin + 1/32 in, AISC LRFD 1999 D3.2. [V]"""
 FLOORBEAM = "floorbeam"
@@ -319,6 +325,7 @@ def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, Mem
     AISC LRFD 1999 D3.2: hole <= pin + 1/32 in; pin >= 7/8 of the body width. [V]
     """
     j, D = pin.joint, pin.diameter_in
+    worn: dict[str, float] = {}
     for n in dict.fromkeys(i for i in items if i is not None):
         d = designs.get(n)
         if d is None or not isinstance(d.section, EyebarSet):
@@ -334,7 +341,9 @@ def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, Mem
                              f"of member {n} ({hole:g} in) by {hole - D:.3f} in, more than "
                              f"{max_clearance_in:g} in; check the pin diameter or the hole",
                              _where(pin))
-        if hole - D > FIT_CLEARANCE_IN + 1e-3:
+        if hole - D > WORN_CLEARANCE_IN:
+            worn[n] = hole
+        elif hole - D > FIT_CLEARANCE_IN + 1e-3:
             warnings.append(f"pin at joint {j}: member {n} hole {hole:g} in is more than 1/32 in "
                             f"over the pin {D:g} in (AISC LRFD 1999 D3.2); worn pin or hole, "
                             "the bearing is concentrated")
@@ -347,6 +356,16 @@ def _fit_checks(pin: Pin, items: Sequence[str | None], designs: Mapping[str, Mem
         if k != s.count:
             warnings.append(f"pin at joint {j}: the packing has {k} plate(s) of member {n}, "
                             f"its section has {s.count} eyebars")
+    if worn:
+        many = len(worn) > 1
+        warnings.append(
+            f"{PIN_WORN}: pin at joint {j}: the pin ({D:g} in) is smaller than the pin "
+            f"hole{'s' if many else ''} of member{'s' if many else ''} {', '.join(worn)} "
+            f"({'/'.join(f'{h:g}' for h in dict.fromkeys(worn.values()))} in) by "
+            f"{'up to ' if many else ''}{max(worn.values()) - D:.3f} in: a worn pin or hole. It "
+            "is rated with the diameter given, but the bars bear on a narrow strip, not the "
+            "half-round the bearing check assumes (AISC LRFD 1999 D3.2: 1/32 in [V]); the "
+            "engineer should inspect it and judge its rating")
 
 
 def _forces(layout: _Layout, actions: Sequence[MemberAction],
@@ -421,7 +440,7 @@ def prepare_pin(pin: Pin, members: Sequence[str], directions: Sequence[tuple[flo
                 *, has_external: bool = True,
                 designs: Mapping[str, MemberDesign] | None = None,
                 default_pin_material: Material | None = None,
-                max_clearance_in: float = 0.25) -> PinPrepared:
+                max_clearance_in: float = MAX_CLEARANCE_IN) -> PinPrepared:
     """The layout of :func:`pin_check` (and :class:`PinModel`) for these members, once."""
     warnings: list[str] = []
     assumptions: list[str] = []
@@ -439,7 +458,7 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
               default_pin_material: Material | None = None,
               phi_f: float = PHI_F, phi_v: float = PHI_V, phi_b: float = PHI_B,
               limit: float = INTERACTION_LIMIT, gamma_M0: float = GAMMA_M0,
-              gamma_M2: float = GAMMA_M2, max_clearance_in: float = 0.25,
+              gamma_M2: float = GAMMA_M2, max_clearance_in: float = MAX_CLEARANCE_IN,
               equilibrium_tolerance: float = 1e-3,
               prepared: PinPrepared | None = None) -> PinCheck:
     """Moment, shear and bearing of a pin under the concurrent member forces of ONE load state.
@@ -454,7 +473,8 @@ def pin_check(pin: Pin, actions: Sequence[MemberAction], *,
             and pin is used) and the pin-to-hole fit of eyebars.
         default_pin_material: used when ``pin.material`` is None (else MBE default steel).
         max_clearance_in: a hole larger than the pin by more than this is taken as a data
-            error (common practice); more than 1/32 in is a warning.
+            error (common practice); more than 1/32 in is a warning, more than 1/4 in one
+            that bears on the decision (PIN WORN).
         equilibrium_tolerance: relative tolerance of the force and moment balance check.
         prepared: the layout worked out before (:func:`prepare_pin`) for these members in
             this order, with the same designs, material and clearance; used when it fits.
@@ -575,7 +595,8 @@ def pin_load_multiplier(pin: Pin, base: Sequence[MemberAction], added: Sequence[
                         designs: Mapping[str, MemberDesign] | None = None,
                         default_pin_material: Material | None = None,
                         phi_f: float = PHI_F, phi_v: float = PHI_V, phi_b: float = PHI_B,
-                        limit: float = INTERACTION_LIMIT, max_clearance_in: float = 0.25,
+                        limit: float = INTERACTION_LIMIT,
+                        max_clearance_in: float = MAX_CLEARANCE_IN,
                         lam_max: float = 1e6) -> float:
     """The multiplier lam >= 0 with utilization(base + lam * added) = 1.0.
 
@@ -760,7 +781,7 @@ class PinModel:
                  designs: Mapping[str, MemberDesign] | None = None,
                  default_pin_material: Material | None = None, phi_f: float = PHI_F,
                  phi_v: float = PHI_V, phi_b: float = PHI_B, limit: float = INTERACTION_LIMIT,
-                 max_clearance_in: float = 0.25, prepared: PinPrepared | None = None,
+                 max_clearance_in: float = MAX_CLEARANCE_IN, prepared: PinPrepared | None = None,
                  balanced: bool = False) -> None:
         if prepared is None or prepared.members != tuple(members) \
                 or prepared.has_external != has_external:

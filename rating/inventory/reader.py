@@ -16,6 +16,7 @@ from pathlib import Path
 
 from rating.capacity.materials import MaterialDefault, default_material
 from rating.capacity.pins import FLOORBEAM
+from rating.capacity.pins import MAX_CLEARANCE_IN as MAX_PIN_CLEARANCE_IN
 from rating.capacity.sections import (
     gross_area_as_built_in2,
     part_reference_thickness_in,
@@ -77,7 +78,6 @@ from rating.vehicles.library import known_ids, rating_loads
 __all__ = ["read_workbook", "WorkbookReading"]
 
 _TOL_IN = 1e-6
-MAX_PIN_CLEARANCE_IN = 0.25  # beyond this a hole is a data error (as rating.capacity.pins)
 _LABEL_PAIR = re.compile(r"^([A-Za-z]+\d+)([A-Za-z]+\d+)$")
 _BAR = re.compile(r"^(?:bar|eyebar|rod)\s*(?:no\.?|#)?\s*(\d+)$", re.IGNORECASE)
 
@@ -1131,6 +1131,7 @@ class _Reading:
                 at_joint.setdefault(end, []).append(m.label)
         packing: dict[str, list[tuple[int, PackingItem, Row]]] = {}
         positions: dict[tuple[str, int], Row] = {}
+        fit_said: set[tuple[str, str]] = set()
         for r in self.t[sc.PACKING.name].rows:
             joint, pos, t = _s(r, "joint"), _i(r, "position"), _f(r, "thickness")
             if joint is None or pos is None:
@@ -1165,7 +1166,9 @@ class _Reading:
                     continue
                 d = by_member.get(member)
                 pin = pins.get(joint)
-                if d is not None and pin is not None and isinstance(d.section, EyebarSet):
+                if (d is not None and pin is not None and isinstance(d.section, EyebarSet)
+                        and (member, joint) not in fit_said):
+                    fit_said.add((member, joint))  # (once for each member's bars on a pin)
                     hole = d.section.pin_hole_diameter_in
                     if hole < pin[0] - _TOL_IN:
                         log.error(r.ref("member"), f"the eyebars of {member} have a {_g(hole)} in "

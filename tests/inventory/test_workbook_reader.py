@@ -311,3 +311,16 @@ def test_a_bar_marked_not_tension_only_is_said_to_be_rated_as_one(tmp_path) -> N
     (w,) = [w for w in r.warnings if "marked not tension-only" in w.message]
     assert w.where == cell("Members", k, "tension_only")
     assert "its section is a rod set, which cannot push: it is rated as tension-only" in w.message
+
+
+def test_a_hole_far_larger_than_its_pin_is_said_once_for_each_member(tmp_path) -> None:
+    """One error for each member's bars on the pin, not one for every plate of the packing (a
+    reviewer counted 13 identical errors); a pin worn a quarter inch under its holes is read
+    (its rating says PIN WORN), not refused."""
+    d = fresh()
+    d["tables"]["Pins"][0].update(diameter=2.5)  # holes 3.53 in: 1.03 in over, a data error
+    r = check(tmp_path, d)
+    said = [e for e in r.errors if "larger than the 2.5 in pin" in e.message]
+    assert sorted(e.message.split()[3] for e in said) == ["L1L2", "L2L3", "L2U3", "U1L2"]
+    d["tables"]["Pins"][0].update(diameter=3.25)  # 0.28 in over: worn, rated
+    assert check(tmp_path, d).errors == ()

@@ -727,7 +727,7 @@ def _pin_default() -> tuple[dict, Edit | None]:
     d = fresh()
     for m in d["tables"]["Members"]:
         m["material"] = "M-1"
-    d["tables"]["Pins"][0].update(material=None, diameter=3.25)
+    d["tables"]["Pins"][0].update(material=None, diameter=2.5)
     return d, None
 
 
@@ -776,8 +776,8 @@ CASES += [
     Case("members not packed", "packing-partial", cell("Pins", 0, "joint"),
          "members L2U2, U1L2, L2U3 meet at L2 but have no plate in its packing"),
     Case("hole far larger than pin", "pin-default", cell("Packing", 1, "member"),
-         "the eyebars of L1L2 have a 3.53 in pin hole, 0.28 in larger than the 3.25 in pin at "
-         "L2 (more than 0.25 in)"),
+         "the eyebars of L1L2 have a 3.53 in pin hole, 1.03 in larger than the 2.5 in pin at "
+         "L2 (more than 1 in)"),
     Case("plates differ from bars", "packing-partial", cell("Pins", 0, "joint"),
          "member L2L3 has 2 eyebars but 1 plates on the pin at L2", "warning"),
 ]
