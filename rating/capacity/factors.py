@@ -195,6 +195,7 @@ def member_factors(design: MemberDesign, findings: Sequence[Finding], carrying_c
                            " section mapping common practice)")
     if phi_c * phi_s < lo:
         assumptions.append(f"member {m}: phi_c x phi_s = {phi_c * phi_s:.3f} raised to the "
-                           f"floor {lo:g} (Khan 2010, p. 187)")
+                           f"floor {lo:g} (MBE 6A.4.2.1 [value from memory]; Khan 2010, "
+                           "p. 187)")
     return MemberFactors(phi_c, phi_s, condition, rating, lo, tuple(assumptions),
                          tuple(warnings))

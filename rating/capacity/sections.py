@@ -693,6 +693,11 @@ def _left(t_elem: float, t_ref: float, f: Finding) -> float:
     return t_elem * (1.0 - (f.percent_loss or 0.0) / 100.0)
 
 
+END_REGION = 0.25
+"""A head, thread or connection finding further than this fraction of the member's length from
+both ends is said to be out of place (a head is at an end; common practice)."""
+
+
 def section_properties(section: Section, *, member: str, findings: Sequence[Finding] = (),
                        length_ft: float | None = None, where: str = "") -> SectionReport:
     """Properties of the section as built and at every location of the loss findings.
@@ -721,6 +726,14 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
                 span = f"0 to {length_ft:g} ft" if length_ft is not None else "0 or more"
                 raise _err(member, f, f"station {f.station_ft!r} ft is off the member "
                                       f"(stations run {span} from its start joint)")
+            if (length_ft and f.region is not FindingRegion.BODY
+                    and min(f.station_ft, length_ft - f.station_ft) > END_REGION * length_ft):
+                warnings.append(
+                    f"member {member}: a finding at its {f.region.value} "
+                    f"({f.where or describe_finding(f)}) is {f.station_ft:g} ft along the "
+                    f"{length_ft:g} ft member, far from both ends, where a head, thread or "
+                    "connection is: it is rated as recorded (at that end region's check), so "
+                    "check its region and its station")
         cs = _resolve(section, member, f)
         if f.bar_state in REMOVING_STATES:
             for c in cs:

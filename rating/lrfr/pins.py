@@ -36,7 +36,7 @@ from rating.lrfr.equation import lower_beyond_round_off
 from rating.lrfr.factors import factored_dw
 from rating.lrfr.multiplier import first_of_least
 from rating.lrfr.positions import LoadPaths
-from rating.model import FindingRegion, Pin, TrussGeometry
+from rating.model import FindingRegion, Pin, RodEnd, RodSet, TrussGeometry
 
 CHANGE_POINT_WINDOW = 1.1
 """Between two neighbouring positions the search for change points (where the pin reaches
@@ -760,14 +760,20 @@ joint is taken to be at that joint's pin (a finding with no station, at both end
 
 def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
     """The pin's bearing and packing use the thicknesses of the Packing sheet; section loss
-    recorded at a member's head or connection at this joint does not reach them (common
-    practice: the bar's bearing face at the pin is what carries its force into the pin)."""
+    recorded at a member's head or connection (a loop rod's loop) at this joint does not reach
+    them (common practice: the bar's bearing face at the pin is what carries its force into
+    the pin)."""
     out = []
     for m in g.members_at(joint):
         length = g.member_length_ft(m.label)
         near_start = m.start == joint
+        d = bridge.design_of(m.label)
+        # a loop rod's end is its loop, on the pin
+        loop = d is not None and isinstance(d.section, RodSet) and d.section.end is RodEnd.LOOP
+        at_pin = (FindingRegion.HEAD, FindingRegion.CONNECTION) + (
+            (FindingRegion.THREAD,) if loop else ())
         for f in bridge.findings_for(m.label):
-            if f.region not in (FindingRegion.HEAD, FindingRegion.CONNECTION):
+            if f.region not in at_pin:
                 continue
             if f.remaining_thickness_in is None and f.percent_loss is None:
                 continue
@@ -776,7 +782,8 @@ def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
                 if from_here > END_REACH * length:
                     continue
             out.append(f"pin at joint {joint}: member {m.label} has section loss recorded at "
-                       f"its {f.region.value} ({f.where or m.label}); the pin's bearing and "
+                       f"its {'loop' if f.region is FindingRegion.THREAD else f.region.value}"
+                       f" ({f.where or m.label}); the pin's bearing and "
                        "packing use the plate thicknesses of the Packing sheet, so record the "
                        "remaining thickness there where the loss is at this pin's bearing")
     return tuple(dict.fromkeys(out))

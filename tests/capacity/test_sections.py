@@ -14,6 +14,7 @@ element, removed parts out, bent parts out in compression) and expect the same t
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import pytest
 
@@ -407,3 +408,17 @@ def test_a_bent_bar_is_said_to_be_counted_at_full_resistance() -> None:
     two = section_properties(RodSet(2, 1.25, RodEnd.UPSET), member="L3U4",
                              findings=(Finding("L3U4", "rod 1", bar_state=BarState.BENT),))
     assert any("less than its share" in w for w in two.warnings)
+
+
+def test_a_head_finding_at_mid_member_is_said_to_be_out_of_place() -> None:
+    """A head (thread, connection) is at an end: a finding there recorded 14 ft along a 28 ft
+    member was accepted without a word, and governed (a reviewer's finding)."""
+    e = EyebarSet(2, 6.0, 1.0, 15.0, 5.03)
+    mid = Finding("M", "bar 1", FindingRegion.HEAD, station_ft=14.0, remaining_thickness_in=0.5,
+                  where="F!A7")
+    r = section_properties(e, member="M", findings=(mid,), length_ft=28.0)
+    assert any("a finding at its head (F!A7) is 14 ft along the 28 ft member, far from both "
+               "ends" in w for w in r.warnings)
+    end = replace(mid, station_ft=0.5)
+    assert not [w for w in section_properties(e, member="M", findings=(end,),
+                                              length_ft=28.0).warnings if "far from" in w]

@@ -584,3 +584,21 @@ def test_one_bent_bar_of_a_chord_is_left_out_alone_in_the_what_if():
     rod = Finding("L3U4", "rod 1", bar_state=BarState.BENT)
     r = rate_bridge(make_pratt_bridge(pins=False, findings=(rod,)), ["TYPE-3"])
     assert r.without["L3U4"].bars == "" and "member L3U4 is recorded bent" in r.warnings[0]
+
+
+def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
+    """A loop rod's loop is on the pin: loss recorded there (region "thread", the loop's end
+    of a rod) is named at that pin as loss at a head is (it was left out)."""
+    from rating.lrfr.pins import _end_loss_notes
+    from rating.model import FindingRegion, RodEnd, RodSet
+
+    loss = Finding("L1U1", "rod 1", FindingRegion.THREAD, station_ft=0.5, percent_loss=30.0,
+                   where="Findings!B5")
+    bridge = make_pratt_bridge(pins=False, findings=(loss,))
+    loops = tuple(replace(d, section=RodSet(2, 1.25, RodEnd.LOOP)) if d.member == "L1U1"
+                  else d for d in bridge.member_designs)
+    bridge = replace(bridge, member_designs=loops)
+    (said,) = _end_loss_notes("L1", bridge.geometry, bridge)
+    assert said.startswith("pin at joint L1: member L1U1 has section loss recorded at its loop "
+                           "(Findings!B5)")
+    assert _end_loss_notes("U1", bridge.geometry, bridge) == ()  # (0.5 ft from L1 only)
