@@ -11,6 +11,7 @@ never written.
 
 from __future__ import annotations
 
+import dataclasses
 import io
 import posixpath
 import re
@@ -65,6 +66,8 @@ class Book:
     path: Path
     sheet_names: tuple[str, ...]
     grids: dict[str, SheetGrid]
+    hidden_sheets: tuple[str, ...] = ()
+    hidden_rows: dict[str, tuple[int, ...]] = field(default_factory=dict)  # of sheets read
 
     def find(self, wanted: str) -> str | None:
         """The workbook's own name of sheet ``wanted`` (case, spaces and _ ignored)."""
@@ -207,17 +210,55 @@ def _sheet_extras(path: Path, max_rows: int, wanted: set[str],
 
 
 def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
-    """Read the sheets named in ``wanted`` (name -> columns to read) from ``path``.
+    """Read the sheets named in ``wanted`` (name -> columns to read) from ``path``, with the
+    sheets and rows hidden in the spreadsheet (:func:`_hidden`).
 
     Raises :class:`InputError` when the file is missing or is not a readable workbook.
     """
     path = Path(path)
+    book: Book | None = None
     with _open_container(path) as z:
         try:
-            return open_book_fast(z, path, wanted, max_rows)
+            book = open_book_fast(z, path, wanted, max_rows)
         except Exception:  # noqa: BLE001 - not the plain form, or damaged: the reference decides
             pass
-    return open_book_reference(path, wanted, max_rows)
+        if book is not None:
+            return _with_hidden(book, z)
+    book = open_book_reference(path, wanted, max_rows)
+    with zipfile.ZipFile(path) as z:
+        return _with_hidden(book, z)
+
+
+_ROW_TAG = re.compile(rb"<(?:\w+:)?row\b([^>]*)>")
+_ROW_NUMBER = re.compile(rb"""\br\s*=\s*["'](\d+)["']""")
+_HIDDEN_ATTR = re.compile(rb"""\bhidden\s*=\s*["'](?:1|true)["']""")
+
+
+def _with_hidden(book: Book, z: zipfile.ZipFile) -> Book:
+    """The book with the sheets hidden in the spreadsheet and the hidden rows of each sheet
+    read: they are read like any other, but the user does not see them (a hidden finding once
+    controlled a rating unseen). A part that cannot be scanned hides nothing here (its
+    reading says what is wrong with it)."""
+    try:
+        hidden_sheets: list[str] = []
+        wb = SafeET.fromstring(z.read("xl/workbook.xml"))
+        for el in wb.iter():
+            if el.tag.endswith("}sheet") and el.get("state") in ("hidden", "veryHidden"):
+                hidden_sheets.append(str(el.get("name")))
+        parts = _sheet_parts(z)
+        rows: dict[str, tuple[int, ...]] = {}
+        for g in book.grids.values():
+            part = parts.get(g.name)
+            if part is None:
+                continue
+            found = tuple(int(n.group(1)) for m in _ROW_TAG.finditer(z.read(part))
+                          if _HIDDEN_ATTR.search(m.group(1))
+                          and (n := _ROW_NUMBER.search(m.group(1))) is not None)
+            if found:
+                rows[g.name] = found
+    except Exception:  # noqa: BLE001 - untrusted file: the sheets' reading says what is wrong
+        return book
+    return dataclasses.replace(book, hidden_sheets=tuple(hidden_sheets), hidden_rows=rows)
 
 
 def open_book_fast(z: zipfile.ZipFile, path: Path, wanted: dict[str, int],

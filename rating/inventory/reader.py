@@ -93,6 +93,7 @@ def read_workbook(path: Path) -> WorkbookReading:
     log = ProblemLog()
     reading = _Reading(book, log)
     bridge = reading.bridge()
+    _unseen(book, log)
     lock = open_elsewhere(path)
     if lock is not None:
         log.warning(path.name, f"{UNSAVED_EDITS}: the workbook seems to be open in a spreadsheet "
@@ -104,6 +105,32 @@ def read_workbook(path: Path) -> WorkbookReading:
         problems = tuple(dataclasses.replace(p, message=si_text(p.message)) for p in problems)
         assumptions = tuple(si_text(a) for a in assumptions)
     return WorkbookReading(None if log.has_errors else bridge, problems, assumptions)
+
+
+def _unseen(book: Book, log: ProblemLog) -> None:
+    """What is read without being seen, or seen without being read: rows and sheets hidden in
+    the spreadsheet that hold something (read like any other), and sheets that are not the
+    workbook's own (not read at all: an older copy of a sheet, a scratch sheet)."""
+    for g in book.grids.values():
+        full = [r for r in book.hidden_rows.get(g.name, ())
+                if any(v is not None and v != "" for v in (g.rows[r - 1] if r <= len(g.rows)
+                                                            else ()))]
+        if full:
+            many = len(full) > 1
+            log.warning(f"{g.name}!A{full[0]}", f"row{'s' if many else ''} "
+                        f"{_listing([str(r) for r in full])} of sheet {g.name} "
+                        f"{'are' if many else 'is'} hidden in the spreadsheet and "
+                        f"{'are' if many else 'is'} read like any other: unhide "
+                        f"{'them' if many else 'it'} to see what is rated")
+    own = {book.find(n) for n in (sc.INSTRUCTIONS_SHEET, *sheets_read())} - {None}
+    for name in book.sheet_names:
+        if name in book.hidden_sheets and name in own:
+            log.warning(f"{name}!A1", f"sheet {name} is hidden in the spreadsheet and is read "
+                        "like any other: unhide it to see what is rated")
+        elif name not in own:
+            log.warning(f"{name}!A1", f"sheet {name} is not one of the workbook's own sheets "
+                        "and is not read (an older copy of a sheet, or notes?): what it holds "
+                        "is not in the rating")
 
 
 UNSAVED_EDITS = "UNSAVED EDITS POSSIBLE"

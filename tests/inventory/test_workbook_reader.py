@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 import pytest
-from inventory_helpers import check, explicit, fresh
+from inventory_helpers import cell, check, explicit, find, fresh
 
 from rating.model import (
     BuiltUpSection,
@@ -166,7 +166,7 @@ def test_a_note_that_speaks_of_a_crack_beside_a_sound_bar_is_a_warning(
     sound (or bent) is counted as carrying its load: the reading warns at the bar state, so
     the engineer records the state that takes it out (common practice: a cracked bar or
     forge weld is not counted). Words just before that deny it ("no crack found") do not."""
-    from inventory_helpers import cell, find
+
 
     d = fresh()
     d["tables"]["Findings"][2]["note"] = note
@@ -249,7 +249,7 @@ def test_a_pin_plate_listed_with_a_sections_parts_is_a_warning_at_its_cell(tmp_p
     buckling use it); a pin plate at the ends belongs on Packing only. A plate named as one
     is warned about at its cell (a reviewer found the bundled samples' laced chords 27 %
     too strong in buckling from such plates)."""
-    from inventory_helpers import cell, find
+
 
     d = fresh()
     d["tables"]["Plates"].append({"section": "EP", "part": "pin plate L", "x": -4.5, "y": 0.0,
@@ -264,7 +264,7 @@ def test_a_gross_weight_apart_from_the_axles_is_kept_only_with_a_lane_load(tmp_p
     """The RF comes from the axles and the safe posting load from W: a W of 50 tons on 15
     tons of axles posted a bridge for 26 tons instead of about 7. Without a lane load the two
     must agree (an error at the gross weight's cell); with one, W may be given apart."""
-    from inventory_helpers import cell, find
+
 
     d = fresh()
     d["tables"]["Vehicles"][0]["gross"] = 50.0  # axles: 12 + 22 kip = 17 tons
@@ -281,7 +281,7 @@ def test_a_gross_weight_apart_from_the_axles_is_kept_only_with_a_lane_load(tmp_p
 def test_counter_panels_that_get_no_counter_are_said_at_their_cell(tmp_path) -> None:
     """A through Pratt's end panels are crossed by the end posts, and the Warren forms get no
     generated counters at all: a listed panel that gets none was dropped without a word."""
-    from inventory_helpers import find, form_cell
+    from inventory_helpers import form_cell
 
     d = fresh()
     d["bridge"].update(counter_panels="1, 2, 3, 4")
@@ -301,7 +301,7 @@ def test_counter_panels_that_get_no_counter_are_said_at_their_cell(tmp_path) -> 
 def test_a_bar_marked_not_tension_only_is_said_to_be_rated_as_one(tmp_path) -> None:
     """An eyebar or a rod cannot push whatever the Members sheet says: "no" in its
     tension-only cell was ignored without a word."""
-    from inventory_helpers import cell
+
 
     d = fresh()
     rows = d["tables"]["Members"]
@@ -324,3 +324,40 @@ def test_a_hole_far_larger_than_its_pin_is_said_once_for_each_member(tmp_path) -
     assert sorted(e.message.split()[3] for e in said) == ["L1L2", "L2L3", "L2U3", "U1L2"]
     d["tables"]["Pins"][0].update(diameter=3.25)  # 0.28 in over: worn, rated
     assert check(tmp_path, d).errors == ()
+
+
+def test_hidden_rows_and_sheets_and_sheets_not_read_are_said(tmp_path) -> None:
+    """A hidden Findings row (60 % loss) controlled a reviewer's rating unseen; an older copy
+    of a sheet ("Findings (2023)") was ignored without a word. Both are said, at their place,
+    by either reader of the workbook."""
+    import zipfile
+
+    from inventory_helpers import coords, write
+
+    from rating.inventory.book import _with_hidden, open_book_reference
+    from rating.inventory.reader import read_workbook, rows_read, sheets_read
+
+    _, ref_cell = coords(cell("Findings", 1, "member"))
+    row = int("".join(ch for ch in ref_cell if ch.isdigit()))
+
+    def edit(wb) -> None:
+        wb["Findings"].row_dimensions[row].hidden = True
+        wb["Vehicles"].sheet_state = "hidden"
+        wb.create_sheet("Findings (2023)")["A1"] = "last inspection"
+
+    path = write(tmp_path / "hidden.xlsx", fresh(), edit)
+    r = read_workbook(path)
+    (said,) = [w for w in r.warnings if w.where == f"Findings!A{row}"]
+    assert f"row {row} of sheet Findings is hidden in the spreadsheet and is read" in said.message
+    assert any(w.where == "Vehicles!A1" and "sheet Vehicles is hidden" in w.message
+               for w in r.warnings)
+    assert any(w.where == "Findings (2023)!A1" and "is not read" in w.message
+               for w in r.warnings)
+    assert r.errors == ()
+    # the reference reader (openpyxl) finds the same
+    with zipfile.ZipFile(path) as z:
+        ref = _with_hidden(open_book_reference(path, sheets_read(), rows_read()), z)
+    assert ref.hidden_sheets == ("Vehicles",) and ref.hidden_rows["Findings"] == (row,)
+    # the template's own workbook hides nothing and has no other sheet
+    assert not [w for w in check(tmp_path, fresh()).warnings
+                if "hidden" in w.message or "is not read" in w.message]
