@@ -38,6 +38,12 @@ INDEX_HTML = "index.html"
 
 # ------------------------------------------------------------------ what one workbook gave
 
+
+EV_ONLY = "post emergency vehicles"
+"""A bridge's action where only emergency vehicles are posted or barred (its trucks rate 1.0
+or more): not a truck posting (rating.results.overall_action says "post")."""
+
+
 @dataclass(frozen=True)
 class VehicleLine:
     """The controlling rating of one vehicle on one bridge (values in the bridge's units)."""
@@ -66,7 +72,7 @@ class BridgeRow:
     weight_unit: str = "ton"
     vehicles: tuple[VehicleLine, ...] = ()
     recommendation: str = ""
-    action: str = ""  # "none" | "post" | "close" over the legal loads
+    action: str = ""  # "none" | "post" | "close" over the legal loads, or EV_ONLY
     report: str = ""  # file name in the output folder
     results_file: str = ""
     errors: tuple[str, ...] = ()
@@ -230,6 +236,9 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
     action = overall_action((results.posting[v.id].action, v.category)
                             for v in results.vehicles
                             if v.rating_level == "legal" and v.id in results.posting)
+    if action == "post" and not any(v.action in ("post", "close") for v in vehicles
+                                    if v.category != EMERGENCY):
+        action = EV_ONLY  # the trucks rate 1.0 or more: the sign is for emergency vehicles
     b = results.bridge
     return BridgeRow(
         workbook=name or workbook.name, rated=True, structure=b.id, name=b.name,
@@ -594,7 +603,7 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
                          tuple(_first_clause(w) for w in r.decision_warnings))
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
-              "post": sum(1 for r in summary.rows if r.action == "post"),
+              "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)),
               "close": sum(1 for r in summary.rows if r.action == "close"),
               "read": sum(1 for r in summary.rows if r.decision_warnings)}
     view = _IndexView(

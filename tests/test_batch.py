@@ -317,6 +317,29 @@ def test_an_emergency_vehicle_that_cannot_be_posted_is_barred_not_a_closure(
     assert row.action == "close"
 
 
+def test_a_bridge_whose_trucks_all_rate_one_or_more_posts_emergency_vehicles_only(
+        tmp_path: Path) -> None:
+    """Where the trucks rate 1.0 or more and only an emergency vehicle is posted or barred, the
+    bridge's action says so ("post emergency vehicles"), not "post" beside a deciding truck
+    RF of 1.0 or more (a reviewer read it as a truck posting); the index counts it with the
+    postings."""
+    from dataclasses import replace
+
+    from rating.batch import EV_ONLY, _row_from_results
+
+    res = sample_results()
+    trucks = [v.id for v in res.vehicles
+              if v.rating_level == "legal" and v.category != "emergency"]
+    ev = next(v.id for v in res.vehicles if v.category == "emergency")
+    fine = {**res.posting, **{t: replace(res.posting[t], rf=1.2, action="none",
+                                         posting_tons=None) for t in trucks}}
+    fine[ev] = replace(res.posting[ev], rf=0.6, action="post", posting_tons=10.0)
+    row = _row_from_results(tmp_path / "a.xlsx", replace(res, posting=fine), None,
+                            tmp_path / "a.json", (), 0.0)
+    assert row.action == EV_ONLY == "post emergency vehicles"
+    assert _csv_rows_text(summary_csv([row]))[0]["action"] == EV_ONLY
+
+
 def _csv_rows_text(text: str) -> list[dict[str, str]]:
     return list(csv.DictReader(io.StringIO(text.lstrip("\ufeff"))))
 
