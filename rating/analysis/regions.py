@@ -84,6 +84,10 @@ class RegionTable:
         self._dead: dict[Hashable, tuple[np.ndarray, list[np.ndarray], list[np.ndarray]]] = {}
         self._dead_stacked: dict[Hashable, tuple[np.ndarray, np.ndarray]] = {}
         self._arrays: tuple | None = None  # (K, and the arrays of _stacked) once stacked
+        # what depends on the loadings and the sets only, for the next caller with the same
+        # array (both dead-load factor sets search the same positions): by kind ("L", "B"),
+        # the last two (p, K, array); p is held, so that it is that very array
+        self._of_p: dict[str, list[tuple[np.ndarray, int, np.ndarray]]] = {"L": [], "B": []}
         for S in sets:
             self.index(S)
 
@@ -173,8 +177,22 @@ class RegionTable:
     # ---------------------------------------------------------------- the paths
 
     def live_forces(self, p: np.ndarray) -> np.ndarray:
-        """Member forces (K, X, m) of the panel-point loads ``p`` (s, X) in every set."""
-        return np.matmul(self._stacked()[0], p).transpose(0, 2, 1)
+        """Member forces (K, X, m) of the panel-point loads ``p`` (s, X) in every set (not to
+        be written to: the same array serves each caller with this ``p``)."""
+        return self._for_loadings("L", p)
+
+    def _for_loadings(self, kind: str, p: np.ndarray) -> np.ndarray:
+        """The live forces ("L", (K, X, m)) or the rates of the conditions ("B", (K, X, C))
+        of the loadings ``p``, worked out once for each array ``p`` and set count."""
+        K = len(self.slack)
+        kept = self._of_p[kind]
+        for q, k, a in kept:
+            if q is p and k == K:
+                return a
+        lines = self._stacked()[0 if kind == "L" else 1]
+        a = np.matmul(lines, p).transpose(0, 2, 1)
+        kept[:] = [(p, K, a), *kept[:1]]
+        return a
 
     def force_lines(self) -> np.ndarray:
         """(K, m, s): member forces for a 1-kip downward load at each deck panel point, in
@@ -200,8 +218,7 @@ class RegionTable:
         tol_f = _TOL_REL * max(float(np.abs(Fd).max(initial=0.0)), 1.0)
         tol_e = _TOL_REL * max(float(np.abs(Ed).max(initial=0.0)), 1e-30)
         A = np.where(pull, Fd[:, cons] + tol_f, np.where(slk, tol_e - Ed[:, cons], 1.0))
-        B = np.matmul(lines, p).transpose(0, 2, 1)
-        return A, B, cons
+        return A, self._for_loadings("B", p), cons
 
     def pieces(self, key: Hashable, P_dead: np.ndarray, dead_state: ActiveSetSolution,
                p: np.ndarray, lam_max: float = LAM_MAX, walk: bool = True) -> Pieces:
@@ -352,9 +369,28 @@ def _gather(a: np.ndarray, k: np.ndarray) -> np.ndarray:
     return np.take_along_axis(a.T, np.minimum(k, K - 1), axis=1)
 
 
+_INTERVAL_BLOCK = 256
+"""Loadings taken at a time by :func:`_intervals`: its temporaries (K, C, block) stay small
+(a 16-panel truss with counters in every panel made them 100 MB each, and slower)."""
+
+
 def _intervals(A: np.ndarray, B: np.ndarray, lam_max: float) -> tuple[np.ndarray, np.ndarray]:
     """Where A + lam B >= 0 holds for every member, for each set and loading: lo, hi (K, X);
-    lo > hi where the set holds nowhere in [0, lam_max]."""
+    lo > hi where the set holds nowhere in [0, lam_max] (:func:`_intervals_of`, a block of
+    loadings at a time)."""
+    K, X = B.shape[0], B.shape[1]
+    if X <= _INTERVAL_BLOCK:
+        return _intervals_of(A, B, lam_max)
+    lo, hi = np.empty((K, X)), np.empty((K, X))
+    for s in range(0, X, _INTERVAL_BLOCK):
+        lo[:, s:s + _INTERVAL_BLOCK], hi[:, s:s + _INTERVAL_BLOCK] = _intervals_of(
+            A, B[:, s:s + _INTERVAL_BLOCK], lam_max)
+    return lo, hi
+
+
+def _intervals_of(A: np.ndarray, B: np.ndarray, lam_max: float
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`_intervals` of one block of loadings."""
     # over (K, C, X), the order :meth:`RegionTable.conditions` makes B in: the extremes over
     # the members are then taken element by element across the loadings (several times
     # faster than along the short last axis; the same numbers)
