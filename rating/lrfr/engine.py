@@ -435,6 +435,29 @@ def _dead_load_past_resistance(ratings: Mapping[tuple[str, str], MemberCaseRatin
             "material, and consider closing at once until they are confirmed."]
 
 
+BAR_WOULD_PUSH = "A BAR WOULD HAVE TO PUSH"
+
+
+def _bars_that_would_push(g: TrussGeometry, ratings: Mapping[tuple[str, str], MemberCaseRating],
+                          dependent: frozenset[str], controlling: set[str]) -> list[str]:
+    """Tension-only members rated on the load path in compression (:func:`_sense_plans`):
+    the truss cannot stand without them when the live load reverses them, so the rating ends
+    where they would have to push. Said once, headed in capitals where one of them sets a
+    posting, a closure or a barring."""
+    bars = sorted({lab for (lab, _), r in ratings.items()
+                   if lab in dependent and g.member(lab).tension_only
+                   and r.sense == "compression" and r.method == "load multiplier"})
+    if not bars:
+        return []
+    head = f"{BAR_WOULD_PUSH}: " if set(bars) & controlling else ""
+    return [f"{head}member(s) {', '.join(bars)}: tension-only (bars that cannot push), yet "
+            "when the live load reverses them the truss cannot stand without them (released, "
+            "they leave a mechanism), so their ratings end where their force reaches zero "
+            "('compression: tension-only member', on the load path). Another load path (a "
+            "counter, a stiff member, the joints' actual details) would have to be shown by "
+            "the engineer before any rating above that is relied on."]
+
+
 PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
 
 
@@ -560,6 +583,11 @@ def without_text(member: str, w: WithoutMember) -> str:
             f" loose), the members give {w.verdict}: "
             f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling}); the pins "
             "were not rated again, so this RF is the most that rating could give.")
+
+
+PUSH_ROUND_OFF = 1e-6
+"""The push (a fraction of the largest dead-load force) at which a tension-only member in
+forced compression is taken to have to carry compression (:func:`_sense_plans`)."""
 
 
 SCREENING_LOADS = frozenset({"NRL"})
@@ -692,6 +720,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     DWs = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_surface_kip,
                                               strict=True)}
 
+    # a push of round-off size: far above the regions' consistency tolerance (1e-11 of the
+    # largest dead-load force), far below any force that matters
+    push_kip = PUSH_ROUND_OFF * max([1.0] + [abs(DC[lab]) + abs(DW[lab]) for lab in DC])
     dead_states = factored_dead_states(family, dead, dead_f)
     table = RegionTable(family, configs)
     live: dict[tuple[str, str], LiveEffect] = {}
@@ -724,7 +755,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 continue
             member_envs[lab] = [e for e, _ in mine]
         plans = {lab: _sense_plans(g.member(lab), resist[lab], case, df, envs_here,
-                                   lab in dependent)
+                                   lab in dependent, push_kip)
                  for lab, envs_here in member_envs.items()}
         plans_of[case.id] = plans
         for lab, pl in plans.items():
@@ -769,6 +800,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     controlling = {cp.controlling for cid, cp in postings.items()
                    if any(c.id == cid and c.postable for c in cases) and not cp.screened_out
                    and cp.result.action in (PostingAction.POST, PostingAction.CLOSE)}
+    warnings.extend(_bars_that_would_push(g, ratings, dependent, controlling))
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)
@@ -822,11 +854,19 @@ class _SensePlan:
 
 
 def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: RatingCase,
-                 df: float, envs, dependent: bool) -> list[_SensePlan]:
+                 df: float, envs, dependent: bool, push_kip: float = 0.0) -> list[_SensePlan]:
     """The senses in which the vehicle loads the member (tension, compression), each with its
     extremes over the active sets and its factored resistance and governing check
     (``resist`` by sense name, :func:`_resistances`). The dead-load factors follow from the
-    sign of the dead load in the sense rated (rating.lrfr.equation.rating_factor)."""
+    sign of the dead load in the sense rated (rating.lrfr.equation.rating_factor).
+
+    A tension-only member on the load path goes slack rather than push, so its force never
+    turns to compression, unless the truss cannot stand without it: then it is in forced
+    compression (rating.analysis.regions.RegionTable._can_let_go), which a bar cannot carry;
+    the truss is a mechanism from there on. Its compression is rated against ``push_kip``, a
+    push of round-off size (not zero: a slack member's force is zero all along), so that
+    the least lam at which it would have to push limits its rating (common practice: an
+    eyebar or rod has no compression resistance)."""
     im = case.im.value
     plans = []
     for sense, name in SENSES:
@@ -834,9 +874,10 @@ def _sense_plans(m: Member, resist: Mapping[str, tuple[float, object]], case: Ra
         ll = tuple(sense * df * e.total_kip(im) for e in extremes)
         if max(ll) <= 0:
             continue  # the vehicle does not load the member this way
+        capacity, check = resist[name]
         if sense < 0 and m.tension_only and dependent:
-            continue  # a tension-only member goes slack instead; not rated in compression
-        plans.append(_SensePlan(sense, name, extremes, ll, *resist[name]))
+            capacity = push_kip  # (its compression resistance is zero)
+        plans.append(_SensePlan(sense, name, extremes, ll, capacity, check))
     return plans
 
 

@@ -602,3 +602,71 @@ def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
     assert said.startswith("pin at joint L1: member L1U1 has section loss recorded at its loop "
                            "(Findings!B5)")
     assert _end_loss_notes("U1", bridge.geometry, bridge) == ()  # (0.5 ft from L1 only)
+
+
+def _tension_only_equilibrium(g, P: np.ndarray) -> bool:
+    """Whether any member forces balance the joint loads ``P`` (n_joints, 2) with every
+    tension-only member pulling (N >= 0): a linear program (scipy's linprog), independent of
+    the engine's active-set solver (statics of a pin-jointed truss, common practice)."""
+    from scipy.optimize import linprog
+
+    fixed = {(g.joint_index[s.joint], 1) for s in g.supports} | {
+        (g.joint_index[s.joint], 0) for s in g.supports if s.kind.value == "pin"}
+    rows = [(j, d) for j in range(len(g.joints)) for d in (0, 1) if (j, d) not in fixed]
+    at = {r: k for k, r in enumerate(rows)}
+    A = np.zeros((len(rows), len(g.members)))
+    for i, m in enumerate(g.members):
+        a, b = g.joint(m.start), g.joint(m.end)
+        u = np.array([b.x_ft - a.x_ft, b.y_ft - a.y_ft])
+        u /= np.linalg.norm(u)
+        for label, vec in ((m.start, u), (m.end, -u)):
+            for d in (0, 1):
+                k = at.get((g.joint_index[label], d))
+                if k is not None:
+                    A[k, i] += vec[d]
+    rhs = np.array([-P[j, d] for j, d in rows])
+    bounds = [(0, None) if m.tension_only else (None, None) for m in g.members]
+    res = linprog(np.zeros(len(g.members)), A_eq=A, b_eq=rhs, bounds=bounds, method="highs")
+    return res.status == 0
+
+
+def test_a_bar_the_truss_would_need_to_push_limits_the_rating():
+    """A double-intersection truss with eyebar diagonals: when the live load reverses a
+    diagonal that the truss cannot do without (released, it leaves a mechanism), the bar would
+    have to push, which it cannot. The rating stops there (it ran on with the bar in
+    compression, up to twice too high, a reviewer found). Checked by an independent linear
+    program: just below the rating level some equilibrium has every bar pulling, just above
+    none has."""
+    from demo_bridge import STEEL, eyebars, laced_channels, section_for
+
+    from rating.model import MemberDesign, MemberRole
+    from rating.model.builders import build_truss
+
+    g = build_truss("double intersection", 9, 18.0, 26.0)
+
+    def section(m):
+        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
+            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
+        if m.role is MemberRole.BOTTOM_CHORD:
+            return eyebars(4, 6.0, 1.0, 5.0)
+        return section_for(m.label, m.role)
+
+    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
+    r = rate_bridge(replace(make_pratt_bridge(pins=False), geometry=g,
+                            member_designs=designs), ["TYPE-3"])
+    cp = r.postings["TYPE-3"]
+    low = r.ratings[(cp.controlling, "TYPE-3")]
+    assert low.sense == "compression" and low.check == "compression: tension-only member"
+    assert low.method == "load multiplier" and 0.0 < low.rf < 1.0
+    case = r.cases[0]
+    rg = r.geometry
+    P_dead = low.gamma_dc * r.dead.joint_loads_dc_kip + low.gamma_dw * r.dead.joint_loads_dw_kip
+    P_live = case.gamma_ll.value * live_joint_loads(rg, case.load, low.extreme, case.im.value,
+                                                    r.distribution_factor)
+    assert _tension_only_equilibrium(rg, P_dead + 0.99 * low.rf * P_live)
+    assert not _tension_only_equilibrium(rg, P_dead + 1.01 * low.rf * P_live)
+    (said,) = [w for w in r.warnings if "would have to push" in w.lower()
+               or "A BAR WOULD HAVE TO PUSH" in w]
+    # (the mirror diagonals of the symmetric truss both)
+    assert said.startswith("A BAR WOULD HAVE TO PUSH: member(s) L5U7, U2L4: tension-only")
+    assert cp.controlling in ("L5U7", "U2L4")
