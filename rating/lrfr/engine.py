@@ -613,8 +613,9 @@ load path search the vehicle (spacing, lane segments) of each model that gives o
 that model's least multiplier among the envelope positions, over this many of the longest
 panels each side of where it stands there, not over the whole deck: a window of judgement,
 not a proven bound (common practice for a screen). On the bundled samples the whole deck
-gives the same ratings; on a reviewer's 140 random bridges it gave up to 10 % more when one
-model's run alone was searched, and within 0.3 % now (tests/lrfr/test_lane_run_reach.py)."""
+gives the same ratings; on a reviewer's 140 random bridges it gave up to 10 % more while one
+model's run alone was searched (within 0.3 % now on that case,
+tests/lrfr/test_lane_run_reach.py)."""
 
 
 # --------------------------------------------------------------------------- the rating
