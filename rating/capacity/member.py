@@ -188,6 +188,12 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         K = effective_length_factor(end_condition)
         k_note = (f"member {m}: effective length factor K = {K:g} for {end_condition} ends "
                   "(AASHTO LRFD 4.6.2.5, value from memory)")
+        if role is MemberRole.END_POST:
+            # out of the truss plane an end post is held at its top only by the portal frame
+            k_note += (", in and out of the truss plane alike: out of plane an end post is "
+                       "held at its top by the portal bracing, which is not checked here; "
+                       "where the portal sways, K out of plane is larger (1.0 or more), and "
+                       "the engineer gives it on the Members sheet")
     warnings, assumptions = _material_notes(design)
     report = section_properties(design.section, member=m, findings=findings,
                                 length_ft=float(length_ft), where=design.where)

@@ -69,6 +69,10 @@ def test_builtup_post_k_override_and_floor():
     b = member_capacity(MemberDesign("U1L1", post, STEEL, K=0.75), MemberRole.VERTICAL, L, (),
                         False)
     assert a.summary.K == 0.875 and b.summary.K == 0.75
+    # an end post's K is said to hold out of plane too, where the portal (not checked) holds it
+    end = member_capacity(MemberDesign("L0U1", post, STEEL), MemberRole.END_POST, L, (), False)
+    assert any("portal bracing, which is not checked here" in a_ for a_ in end.assumptions)
+    assert not any("portal" in a_ for a_ in a.assumptions)
     assert b.factored_resistance("compression") > a.factored_resistance("compression")
     poor = member_capacity(MemberDesign("U1L1", post, STEEL), MemberRole.VERTICAL, L,
                            (Finding("U1L1", condition_rating=3),), False)
