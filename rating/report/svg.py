@@ -186,6 +186,20 @@ def _member_label(ax: float, ay: float, bx: float, by: float, t: float, content:
                  rotate=None if abs(ang) < 1e-9 else ang)
 
 
+LABEL_EM = 0.6
+"""Width of a label's character, in font sizes (8 px labels; DejaVu Sans digits and capitals
+are about 0.6 em wide)."""
+
+
+def _fitting(member: str, rf_text: str, ax: float, ay: float, bx: float, by: float) -> str:
+    """A member's label, "L3L4 0.87", or its RF alone where the name and RF would run past
+    the member's drawn length between its joints' pins (a truss of many panels): the member
+    is then named by its joints beside it and in the member table."""
+    room = math.hypot(bx - ax, by - ay) - 14.0  # (the pins' circles at both ends)
+    full = f"{member} {rf_text}"
+    return full if len(full) * LABEL_EM * 8 <= room else rf_text
+
+
 def elevation_svg(results: RatingResults, display: Display,
                   bands: RFBands | None = None) -> Markup:
     """Elevation of one truss: members between joints shaded by their lowest RF, labelled,
@@ -231,7 +245,7 @@ def elevation_svg(results: RatingResults, display: Display,
             f'stroke-linecap="round"{dash}><title>{esc(m.id)} ({esc(m.role)}): lowest '
             f'RF {esc(rf_text)}</title></line>')
         t = fractions.get(m.id, 0.5)
-        labels.append(_member_label(ax, ay, bx, by, t, f"{m.id} {rf_text}",
+        labels.append(_member_label(ax, ay, bx, by, t, _fitting(m.id, rf_text, ax, ay, bx, by),
                                     below=m.role == "bottom chord"))
     body.extend(lines)
 

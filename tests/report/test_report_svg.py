@@ -274,3 +274,16 @@ def test_labels_of_crossing_members_move_apart_under_a_sloping_chord() -> None:
         return (a[0] + (b[0] - a[0]) * t[mid], a[1] + (b[1] - a[1]) * t[mid])
 
     assert math.dist(spot("L3U4"), spot("U3L4")) > 20.0
+
+
+def test_a_label_too_long_for_its_member_gives_the_rf_alone():
+    """On a truss of many panels a chord's name and RF ran over the pins and its neighbours'
+    labels (a reviewer's 16-panel truss): where "L10L11 0.28" is longer than the member's
+    drawn length between its pins, the label is the RF alone (the member table names it)."""
+    from rating.report.svg import LABEL_EM, _fitting
+
+    assert _fitting("L10L11", "0.28", 0.0, 0.0, 40.7, 0.0) == "0.28"
+    assert _fitting("L3L4", "0.87", 0.0, 0.0, 90.0, 0.0) == "L3L4 0.87"
+    # (at 8 px, "L3L4 0.87" is 9 x 0.6 x 8 = 43.2 px: it fits in 43.2 + 14 px)
+    assert _fitting("L3L4", "0.87", 0.0, 0.0, 9 * LABEL_EM * 8 + 14.0, 0.0) == "L3L4 0.87"
+    assert _fitting("L3L4", "0.87", 0.0, 0.0, 9 * LABEL_EM * 8 + 13.9, 0.0) == "0.87"
