@@ -1407,6 +1407,12 @@ class _Reading:
             if not ok or not vr.ok or name is None:
                 continue
             total_tons = sum(loads) / 2.0
+            if len(loads) == 1:
+                log.warning(vr.ref("vehicle"), f"vehicle {vid} has one axle: its safe posting "
+                            "load is an axle load (a sign for the weight on one axle), not a "
+                            "truck's gross weight, yet it is posted and counted in the single "
+                            "weight limit for trucks like any truck; the engineer should post "
+                            "it apart if at all")
             gross = _f(vr, "gross")
             if gross is not None and abs(gross - total_tons) > 0.02 * total_tons:
                 if not _f(vr, "lane_load"):

@@ -361,3 +361,14 @@ def test_hidden_rows_and_sheets_and_sheets_not_read_are_said(tmp_path) -> None:
     # the template's own workbook hides nothing and has no other sheet
     assert not [w for w in check(tmp_path, fresh()).warnings
                 if "hidden" in w.message or "is not read" in w.message]
+
+
+def test_a_one_axle_owner_vehicle_is_said_to_be_an_axle_load(tmp_path) -> None:
+    """A 24 kip roller set a reviewer's single weight limit for trucks at 7 tons where SU4 gave
+    10: a one-axle vehicle's posting is an axle load, which is said at its row."""
+    d = fresh()
+    d["tables"]["Axles"] = [a for a in d["tables"]["Axles"] if a["axle"] == 1]
+    d["tables"]["Vehicles"][0]["gross"] = None
+    r = check(tmp_path, d)
+    (said,) = [w for w in r.warnings if "has one axle" in w.message]
+    assert said.where == cell("Vehicles", 0, "vehicle") and r.errors == ()
