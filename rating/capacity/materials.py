@@ -54,4 +54,18 @@ def default_material(kind: MaterialKind, year_built: int | None) -> MaterialDefa
                    basis=f"default by year ({when})", assumed=True)
     text = (f"Steel of unknown grade ({when}) assumed Fy = {row['F_y']:g} ksi, "
             f"Fu = {row['F_u']:g} ksi from {s['source']} ({s['tag']}).")
+    rows = s["rows"]
+    k = rows.index(row) if year_built is not None else 0
+    if k > 0 and year_built - rows[k - 1]["built_before"] < NEAR_BOUNDARY_YEARS:
+        # a bridge built just after a boundary of the table may be of the older steel
+        # (rolled, or ordered, before it): common practice
+        prev = rows[k - 1]
+        text += (f" Built within {NEAR_BOUNDARY_YEARS} years of the table's {prev['built_before']}"
+                 f" boundary: its steel may be older (Fy = {prev['F_y']:g} ksi before it); "
+                 "coupon tests, or the older value, where the rating depends on it.")
     return MaterialDefault(mat, text)
+
+
+NEAR_BOUNDARY_YEARS = 3
+"""Years after a boundary of the steel-by-year table within which a bridge's steel may be of
+the older kind (rolled or ordered before the boundary; common practice)."""
