@@ -781,7 +781,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     for gi, (gc, plans) in enumerate(zip(group_cases, group_plans, strict=True)):
         for case in gc:
             for lab, pls in plans.items():
-                if lab in dependent:
+                if lab in dependent and not pls:  # (the vehicle does not load it)
+                    ratings[(lab, case.id)] = _dead_alone(g.member(lab), capacities[lab], case,
+                                                          DC[lab], DW[lab], DWs[lab], dead_f)
+                elif lab in dependent:
                     ratings[(lab, case.id)] = _rate_on_path(
                         g.member(lab), capacities[lab], case, pls,
                         [on_path[(gi, lab, pl.sense)] for pl in pls],
