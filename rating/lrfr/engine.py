@@ -585,7 +585,7 @@ def without_text(member: str, w: WithoutMember) -> str:
             "were not rated again, so this RF is the most that rating could give.")
 
 
-PUSH_ROUND_OFF = 1e-6
+PUSH_ROUND_OFF = 1e-8
 """The push (a fraction of the largest dead-load force) at which a tension-only member in
 forced compression is taken to have to carry compression (:func:`_sense_plans`)."""
 
@@ -722,7 +722,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     DWs = {m.label: float(f) for m, f in zip(g.members, dead.member_forces_dw_surface_kip,
                                               strict=True)}
 
-    # a push of round-off size: far above the regions' consistency tolerance (1e-11 of the
+    # a push of round-off size: above the regions' consistency tolerance (1e-11 of the
     # largest dead-load force), far below any force that matters
     push_kip = PUSH_ROUND_OFF * max([1.0] + [abs(DC[lab]) + abs(DW[lab]) for lab in DC])
     dead_states = factored_dead_states(family, dead, dead_f)
