@@ -336,7 +336,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     g = float(klr[0])
     lim = limit_secondary if role in SECONDARY_ROLES else limit_primary
     if math.isfinite(g) and g > lim:
-        warnings.append(f"member {m}: compression slenderness KL/r = {g:.0f} exceeds {lim:g} "
+        shown = f"{g:.0f}" if round(g) > lim else f"{g:.1f}"  # (not "120 exceeds 120")
+        warnings.append(f"member {m}: compression slenderness KL/r = {shown} exceeds {lim:g} "
                         "(AASHTO LRFD 6.9.3, value from memory)")
     s = C[k]
     axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"

@@ -237,7 +237,8 @@ def tension_checks(report: SectionReport, material: Material, *, role: MemberRol
             L_r = length_ft * 12.0 / r if r > 0 else float("inf")
             lim = slenderness_limit_secondary if role in SECONDARY_ROLES else slenderness_limit
             if L_r > lim:
-                warnings.append(f"member {m}: tension slenderness L/r = {L_r:.0f} exceeds "
+                shown = f"{L_r:.0f}" if round(L_r) > lim else f"{L_r:.1f}"
+                warnings.append(f"member {m}: tension slenderness L/r = {shown} exceeds "
                                 f"{lim:g} (AASHTO LRFD 6.8.4, value from memory); expect "
                                 "vibration and handling damage")
     return TensionResult(tuple(checks), tuple(warnings), tuple(assumptions))

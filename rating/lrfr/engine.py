@@ -24,6 +24,7 @@ from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
 from rating.analysis.distribution import lateral_distribution
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
+from rating.analysis.path import member_load_multiplier
 from rating.analysis.regions import LAM_MAX, PathStore, RegionTable
 from rating.analysis.truss import (
     ActiveSetSolution,
@@ -43,7 +44,7 @@ from rating.lrfr.factors import (
     factored_dw,
     live_load_factor,
 )
-from rating.lrfr.liveload import position_key
+from rating.lrfr.liveload import live_joint_loads, position_key
 from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points, state_at
 from rating.lrfr.pins import PinRating, rate_pins
 from rating.lrfr.positions import (
@@ -51,6 +52,7 @@ from rating.lrfr.positions import (
     PositionBatch,
     PositionSet,
     fixed_axles_only,
+    run_key,
     runs_of,
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
@@ -785,10 +787,19 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                     ratings[(lab, case.id)] = _dead_alone(g.member(lab), capacities[lab], case,
                                                           DC[lab], DW[lab], DWs[lab], dead_f)
                 elif lab in dependent:
-                    ratings[(lab, case.id)] = _rate_on_path(
-                        g.member(lab), capacities[lab], case, pls,
-                        [on_path[(gi, lab, pl.sense)] for pl in pls],
-                        lambda k: table.slack[k])
+                    r = _rate_on_path(g.member(lab), capacities[lab], case, pls,
+                                      [on_path[(gi, lab, pl.sense)] for pl in pls],
+                                      lambda k: table.slack[k])
+                    if (r.sense == "compression" and g.member(lab).tension_only
+                            and 0.0 < r.rf < math.inf and not _push_confirmed(
+                                family, g, lab, r, case, df, push_kip, dead_states)):
+                        # the regions' path forced the bar where the exact path does not:
+                        # rated by its tension alone, as before such bars were rated to push
+                        pull = [pl for pl in pls if pl.sense > 0]
+                        r = _rate_on_path(g.member(lab), capacities[lab], case, pull,
+                                          [on_path[(gi, lab, pl.sense)] for pl in pull],
+                                          lambda k: table.slack[k])
+                    ratings[(lab, case.id)] = r
     fs_max = (dead_f["gamma_dc_max"].value, dead_f["gamma_dw_max"].value)
     load_paths = LoadPaths(tuple(group_cases), batch, stores[fs_max])
     pins = rate_pins(bridge.pins, g, bridge, dead, dead_f, load_paths, dependent)
@@ -961,11 +972,21 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
     models = [ps.extreme(i).model for i in range(ps.size)]
     of_model = [np.array([i for i, mo in enumerate(models) if mo == name], dtype=int)
                 for name in dict.fromkeys(models)]
-    chosen = [ps.extreme(int(ix[first_of_least(lam[ix, r])])) for r in range(member.size)
-              for ix in of_model if np.isfinite(lam[ix, r]).any()]
+    # a bar that would have to push (:func:`_sense_plans`) is searched over the whole deck:
+    # where it pushes depends on which sets the path meets, not on its envelope (a reviewer's
+    # bar rated 1.60 within the reach and 0.60 over the whole deck)
+    push = [bool(sense[r] < 0) and g.members[int(member[r])].tension_only
+            for r in range(member.size)]
+    chosen: tuple[list[Extreme], list[Extreme]] = ([], [])
+    for r in range(member.size):
+        chosen[push[r]].extend(ps.extreme(int(ix[first_of_least(lam[ix, r])]))
+                               for ix in of_model if np.isfinite(lam[ix, r]).any())
     reach = LANE_RUN_REACH_PANELS * float(np.diff(g.deck_stations_ft).max())
-    return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list,
-                       runs_of(case.load, chosen, reach), loose_loads=ps.p)
+    whole = runs_of(case.load, chosen[True], math.inf)
+    done = {run_key(w) for w in whole}
+    near = [run for run in runs_of(case.load, chosen[False], reach) if run_key(run) not in done]
+    return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list, whole + near,
+                       loose_loads=ps.p)
 
 
 def _requests(g: TrussGeometry, group_plans: list[dict[str, list[_SensePlan]]],
@@ -1094,6 +1115,24 @@ def _dead_alone(m: Member, cap: MemberCapacity, case: RatingCase, DC: float, DW:
             return _record(m, cap, case, pl, -math.inf, DEAD_ALONE, r.gamma_dc, r.gamma_dw,
                            None)
     return _not_loaded(cap, m.label, case)
+
+
+def _push_confirmed(family: TrussFamily, g: TrussGeometry, member: str, r: MemberCaseRating,
+                    case: RatingCase, df: float, push_kip: float, dead_states) -> bool:
+    """Whether the exact load path, walked a change of active set at a time
+    (rating.analysis.path), has the tension-only ``member`` pushing where its rating says it
+    would (:func:`_sense_plans`): the regions' paths are found from the intervals of the
+    sets the family has met, and where a bar is in forced compression in one of them they
+    can take it where the walk does not (a reviewer found ratings of half the walk's so).
+    Common practice: the exact path is the reference."""
+    if r.extreme is None:
+        return True
+    P_dead, state = dead_states[(r.gamma_dc, r.gamma_dw)]
+    P_live = live_joint_loads(g, case.load, r.extreme, case.im.value, df)
+    lam = r.rf * case.gamma_ll.value
+    walked, _ = member_load_multiplier(family, member, -1, push_kip, P_dead, P_live,
+                                       lam_max=lam * 1.01 + 1e-6, dead_state=state)
+    return walked <= lam * (1.0 + 1e-6) + 1e-9
 
 
 def _rate_on_path(m: Member, cap: MemberCapacity, case: RatingCase, plans: list[_SensePlan],

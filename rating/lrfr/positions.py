@@ -96,7 +96,7 @@ def runs_of(load: RatingLoad, extremes: Iterable[Extreme], reach_ft: float = 0.0
     return list(out.values())
 
 
-def _run_key(r: Run | Extreme) -> tuple:
+def run_key(r: Run | Extreme) -> tuple:
     """What makes the loading of a run, or of an extreme on one, apart from its station."""
     if isinstance(r, Run):
         return (r.model, r.direction, r.spacings_ft, r.lane_klf if r.lane_segments_ft else 0.0,
@@ -138,11 +138,11 @@ class PositionSet:
             fronts.extend(x.tolist())
             self._extremes.extend([None] * x.size)
             intervals.extend((start + i, start + i + 1) for i in range(x.size - 1))
-            on_runs[_run_key(run)] = set(np.round(x, 6).tolist())
+            on_runs[run_key(run)] = set(np.round(x, 6).tolist())
         # the loose positions a run does not have already (same loading)
         kept = [k for k, e in enumerate(loose)
                 if not (e.position is not None and round(e.position.front_axle_ft, 6)
-                        in on_runs.get(_run_key(e), ()))]
+                        in on_runs.get(run_key(e), ()))]
         if kept:
             cols.append(loose_loads[:, kept] if loose_loads is not None
                         else self._loads_of([loose[k] for k in kept]))

@@ -670,3 +670,44 @@ def test_a_bar_the_truss_would_need_to_push_limits_the_rating():
     # (the mirror diagonals of the symmetric truss both)
     assert said.startswith("A BAR WOULD HAVE TO PUSH: member(s) L5U7, U2L4: tension-only")
     assert cp.controlling in ("L5U7", "U2L4")
+
+
+def test_a_push_is_confirmed_on_the_exact_path_before_it_rates_a_bar():
+    """The regions' paths can take a bar into forced compression where the exact path, walked
+    a change of set at a time, does not (a reviewer's double-intersection bridges: ratings of
+    half the walk's); a bar's push rating stands only where the walk confirms it
+    (rating.lrfr.engine._push_confirmed), else the bar is rated by its tension alone."""
+    from demo_bridge import STEEL, eyebars, laced_channels, section_for
+
+    from rating.lrfr.engine import (
+        PUSH_ROUND_OFF,
+        TrussFamily,
+        _push_confirmed,
+        dead_load_factors,
+        factored_dead_states,
+    )
+    from rating.model import MemberDesign, MemberRole
+    from rating.model.builders import build_truss
+
+    g = build_truss("double intersection", 9, 18.0, 26.0)
+
+    def section(m):
+        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
+            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
+        if m.role is MemberRole.BOTTOM_CHORD:
+            return eyebars(4, 6.0, 1.0, 5.0)
+        return section_for(m.label, m.role)
+
+    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
+    r = rate_bridge(replace(make_pratt_bridge(pins=False), geometry=g,
+                            member_designs=designs), ["TYPE-3"])
+    low = r.ratings[(r.postings["TYPE-3"].controlling, "TYPE-3")]
+    family = TrussFamily(r.geometry)
+    states = factored_dead_states(family, r.dead, dead_load_factors(False))
+    push = PUSH_ROUND_OFF * max(abs(f) for f in r.dead.member_forces_dc_kip)
+    case = r.cases[0]
+    args = (family, r.geometry, low.member, low, case, r.distribution_factor, push, states)
+    assert _push_confirmed(*args)
+    early = replace(low, rf=0.5 * low.rf)  # a push the walk does not reach by then
+    assert not _push_confirmed(family, r.geometry, low.member, early, case,
+                               r.distribution_factor, push, states)
