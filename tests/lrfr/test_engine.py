@@ -604,6 +604,27 @@ def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
     assert _end_loss_notes("U1", bridge.geometry, bridge) == ()  # (0.5 ft from L1 only)
 
 
+def _double_intersection_with_eyebar_diagonals():
+    """A 9-panel double-intersection truss, eyebar diagonals, chords strong enough that a
+    diagonal the live load reverses controls (invented test data)."""
+    from demo_bridge import STEEL, eyebars, laced_channels, section_for
+
+    from rating.model import MemberDesign, MemberRole
+    from rating.model.builders import build_truss
+
+    g = build_truss("double intersection", 9, 18.0, 26.0)
+
+    def section(m):
+        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
+            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
+        if m.role is MemberRole.BOTTOM_CHORD:
+            return eyebars(4, 6.0, 1.0, 5.0)
+        return section_for(m.label, m.role)
+
+    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
+    return replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+
+
 def _tension_only_equilibrium(g, P: np.ndarray) -> bool:
     """Whether any member forces balance the joint loads ``P`` (n_joints, 2) with every
     tension-only member pulling (N >= 0): a linear program (scipy's linprog), independent of
@@ -637,23 +658,7 @@ def test_a_bar_the_truss_would_need_to_push_limits_the_rating():
     compression, up to twice too high, a reviewer found). Checked by an independent linear
     program: just below the rating level some equilibrium has every bar pulling, just above
     none has."""
-    from demo_bridge import STEEL, eyebars, laced_channels, section_for
-
-    from rating.model import MemberDesign, MemberRole
-    from rating.model.builders import build_truss
-
-    g = build_truss("double intersection", 9, 18.0, 26.0)
-
-    def section(m):
-        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
-            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
-        if m.role is MemberRole.BOTTOM_CHORD:
-            return eyebars(4, 6.0, 1.0, 5.0)
-        return section_for(m.label, m.role)
-
-    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
-    r = rate_bridge(replace(make_pratt_bridge(pins=False), geometry=g,
-                            member_designs=designs), ["TYPE-3"])
+    r = rate_bridge(_double_intersection_with_eyebar_diagonals(), ["TYPE-3"])
     cp = r.postings["TYPE-3"]
     low = r.ratings[(cp.controlling, "TYPE-3")]
     assert low.sense == "compression" and low.check == "compression: tension-only member"
@@ -677,8 +682,6 @@ def test_a_push_is_confirmed_on_the_exact_path_before_it_rates_a_bar():
     a change of set at a time, does not (a reviewer's double-intersection bridges: ratings of
     half the walk's); a bar's push rating stands only where the walk confirms it
     (rating.lrfr.engine._push_confirmed), else the bar is rated by its tension alone."""
-    from demo_bridge import STEEL, eyebars, laced_channels, section_for
-
     from rating.lrfr.engine import (
         PUSH_ROUND_OFF,
         TrussFamily,
@@ -686,21 +689,8 @@ def test_a_push_is_confirmed_on_the_exact_path_before_it_rates_a_bar():
         dead_load_factors,
         factored_dead_states,
     )
-    from rating.model import MemberDesign, MemberRole
-    from rating.model.builders import build_truss
 
-    g = build_truss("double intersection", 9, 18.0, 26.0)
-
-    def section(m):
-        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
-            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
-        if m.role is MemberRole.BOTTOM_CHORD:
-            return eyebars(4, 6.0, 1.0, 5.0)
-        return section_for(m.label, m.role)
-
-    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
-    r = rate_bridge(replace(make_pratt_bridge(pins=False), geometry=g,
-                            member_designs=designs), ["TYPE-3"])
+    r = rate_bridge(_double_intersection_with_eyebar_diagonals(), ["TYPE-3"])
     low = r.ratings[(r.postings["TYPE-3"].controlling, "TYPE-3")]
     family = TrussFamily(r.geometry)
     states = factored_dead_states(family, r.dead, dead_load_factors(False))
