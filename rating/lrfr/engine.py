@@ -947,7 +947,8 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
     For a load with a lane part or a variable spacing (HL-93) the runs are those of the
     vehicle (spacing, lane segments) of each model at which each member rated on the path has
     its least multiplier among that model's envelope positions, both ways, over
-    :data:`LANE_RUN_REACH_PANELS` panels each side of where it stands there."""
+    :data:`LANE_RUN_REACH_PANELS` panels each side of where it stands there (over the whole
+    deck for a bar's push, :func:`_sense_plans`)."""
     im = case.im.value
     loose: dict[tuple, Extreme] = {}
     for m in g.members:
