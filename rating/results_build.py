@@ -303,6 +303,13 @@ def _posting_entry(cp: CasePosting, report: _ReportPosting,
                               alike=cp.alike)
 
 
+def _rf_words(rf: float) -> str:
+    """An RF in a sentence as the tables print it: two decimals, or "−∞" where no
+    rating is possible (the member cannot carry its dead load, or has no resistance in the
+    sense the live load acts)."""
+    return "−∞" if rf == -math.inf else f"{reported_rf(rf):.2f}"
+
+
 def recommendation(rating: BridgeRating, unit: str,
                    report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation (:func:`_recommendation`), made conditional where it
@@ -355,7 +362,7 @@ def _recommendation(rating: BridgeRating, unit: str,
     tail = DECISION_NOTE
 
     def names(cs: list[RatingCase]) -> str:
-        return ", ".join(f"{c.load.name} (RF {reported_rf(rating.postings[c.id].rf):.2f}, "
+        return ", ".join(f"{c.load.name} (RF {_rf_words(rating.postings[c.id].rf)}, "
                          f"{rating.postings[c.id].controlling})" for c in cs)
 
     def why(cs: list[RatingCase]) -> str:

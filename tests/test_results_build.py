@@ -206,3 +206,14 @@ def test_shvs_screened_out_are_trucks_rated() -> None:
     res = build_results(rate_bridge(strong, ["NRL"]))
     assert not res.recommendation.startswith("No truck legal load was rated")
     assert res.recommendation.startswith("No load restriction is indicated for trucks")
+
+
+def test_an_rf_past_any_rating_reads_in_the_recommendation_as_in_the_tables() -> None:
+    """A member that cannot carry its dead load rates -inf: the recommendation wrote "RF
+    -inf" where the tables print "\u2212\u221e"; both print it alike now."""
+    import math
+
+    from rating.results_build import _rf_words
+
+    assert _rf_words(-math.inf) == "\u2212\u221e"
+    assert _rf_words(0.456) == "0.45"  # (two decimals, rounded down, as printed)
