@@ -136,22 +136,31 @@ _MAYBE_FORMULA_OR_MERGE = re.compile(rb"<(?:\w+:)?f[\s>/]|mergeCell")
 
 def _sheet_parts(z: zipfile.ZipFile) -> dict[str, str]:
     """Sheet name -> its XML part in the package."""
+    return _sheet_index(z)[0]
+
+
+def _sheet_index(z: zipfile.ZipFile) -> tuple[dict[str, str], tuple[str, ...]]:
+    """Sheet name -> its XML part in the package, and the sheets hidden in the spreadsheet
+    (state "hidden" or "veryHidden"), from one reading of the workbook part."""
     names = set(z.namelist())
     if "xl/workbook.xml" not in names or "xl/_rels/workbook.xml.rels" not in names:
-        return {}
+        return {}, ()
     wb = SafeET.fromstring(z.read("xl/workbook.xml"))
     rels = SafeET.fromstring(z.read("xl/_rels/workbook.xml.rels"))
     targets = {r.get("Id"): r.get("Target", "") for r in rels if r.tag.endswith("Relationship")}
     out: dict[str, str] = {}
+    hidden: list[str] = []
     for el in wb.iter():
         if not el.tag.endswith("}sheet"):
             continue
+        if el.get("state") in ("hidden", "veryHidden"):
+            hidden.append(str(el.get("name")))
         target = targets.get(el.get(f"{{{_NS_REL}}}id"), "")
         part = target.lstrip("/") if target.startswith("/") else posixpath.normpath(
             posixpath.join("xl", target))
         if part in names:
             out[str(el.get("name"))] = part
-    return out
+    return out, tuple(hidden)
 
 
 def _scan(data: bytes, max_rows: int) -> _Extras:
@@ -211,7 +220,7 @@ def _sheet_extras(path: Path, max_rows: int, wanted: set[str],
 
 def open_book(path: Path, wanted: dict[str, int], max_rows: int) -> Book:
     """Read the sheets named in ``wanted`` (name -> columns to read) from ``path``, with the
-    sheets and rows hidden in the spreadsheet (:func:`_hidden`).
+    sheets and rows hidden in the spreadsheet (:func:`_with_hidden`).
 
     Raises :class:`InputError` when the file is missing or is not a readable workbook.
     """
@@ -240,12 +249,7 @@ def _with_hidden(book: Book, z: zipfile.ZipFile) -> Book:
     controlled a rating unseen). A part that cannot be scanned hides nothing here (its
     reading says what is wrong with it)."""
     try:
-        hidden_sheets: list[str] = []
-        wb = SafeET.fromstring(z.read("xl/workbook.xml"))
-        for el in wb.iter():
-            if el.tag.endswith("}sheet") and el.get("state") in ("hidden", "veryHidden"):
-                hidden_sheets.append(str(el.get("name")))
-        parts = _sheet_parts(z)
+        parts, hidden_sheets = _sheet_index(z)
         rows: dict[str, tuple[int, ...]] = {}
         for g in book.grids.values():
             part = parts.get(g.name)
@@ -258,7 +262,7 @@ def _with_hidden(book: Book, z: zipfile.ZipFile) -> Book:
                 rows[g.name] = found
     except Exception:  # noqa: BLE001 - untrusted file: the sheets' reading says what is wrong
         return book
-    return dataclasses.replace(book, hidden_sheets=tuple(hidden_sheets), hidden_rows=rows)
+    return dataclasses.replace(book, hidden_sheets=hidden_sheets, hidden_rows=rows)
 
 
 def open_book_fast(z: zipfile.ZipFile, path: Path, wanted: dict[str, int],

@@ -233,8 +233,8 @@ def _pin_kinks(jn: _Joints, which: np.ndarray, Nd: np.ndarray, Na: np.ndarray,
         q = np.flatnonzero(inside)
         if q.size:
             f_b = f(r1[q], t_b[q])
-            sel = q[np.isfinite(f_b) & (np.sign(f_b) != np.sign(f_known[q]))]
-            f_b = f_b[np.isin(q, sel)]
+            crosses = np.isfinite(f_b) & (np.sign(f_b) != np.sign(f_known[q]))
+            sel, f_b = q[crosses], f_b[crosses]
             a_, b_ = np.minimum(t_b[sel], t_known[sel]), np.maximum(t_b[sel], t_known[sel])
             fa = np.where(t_b[sel] < t_known[sel], f_b, f_known[sel])
             fb = np.where(t_b[sel] < t_known[sel], f_known[sel], f_b)
