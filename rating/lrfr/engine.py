@@ -545,13 +545,16 @@ def _bent_bars(bridge: Bridge, member: str) -> str:
     return "" if count is None or len(bars) >= count else ", ".join(bars)
 
 
-def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
+def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
+                  capacities: Mapping[str, MemberCapacity] | None = None
                   ) -> WithoutMember | None:
     """What the rating gives if a bent tension-only member the ratings rest on does not act:
     the members rated again with all its bars loose (out of service), for the trucks rated at
     the legal level (the emergency vehicles, HL-93 and the NRL left out: they close no
     bridge). The pins are not rated again, so the RF given is an upper bound of that rating:
-    where it already calls for closing, so would the full one. None where no truck is rated."""
+    where it already calls for closing, so would the full one. None where no truck is rated.
+    ``capacities``: the members' resistances as rated, kept for every member but this one
+    (their designs and findings are the same)."""
     trucks = list(dict.fromkeys(c.load.id for c in cases if c.postable
                                 and c.category is not VehicleCategory.EMERGENCY
                                 and c.load.id not in SCREENING_LOADS))
@@ -562,7 +565,8 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase]
         Finding(member, c, bar_state=BarState.LOOSE, where="(rated as if it did not act)")
         for c in (bars.split(", ") if bars else ["all"])))
     try:
-        other = rate_bridge(loose, trucks, what_if=False)
+        other = rate_bridge(loose, trucks, what_if=False, capacities={
+            lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
     legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
@@ -624,22 +628,27 @@ tests/lrfr/test_lane_run_reach.py)."""
 
 
 def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
-                what_if: bool = True) -> BridgeRating:
+                what_if: bool = True,
+                capacities: Mapping[str, MemberCapacity] | None = None) -> BridgeRating:
     """Rate every member and pin of the bridge for every chosen rating load.
 
     ``what_if``: for each bent tension-only member the ratings rest on, rate the members
     again without it and say what that gives (:func:`_without_bent`); off for that rating
-    itself."""
+    itself. ``capacities``: resistances already found for members of this geometry with
+    the same designs and findings (that rating's, :func:`_without_bent`)."""
+    known = dict(capacities or {})
     st = bridge.settings
     g = rating_geometry(bridge)
     warnings: list[str] = []
     assumptions: list[str] = []
 
-    capacities: dict[str, MemberCapacity] = {}
+    capacities = {}
     for m in g.members:
-        d = bridge.design_of(m.label)
-        cap = member_capacity(d, m.role, g.member_length_ft(m.label),
-                              bridge.findings_for(m.label), m.tension_only)
+        cap = known.get(m.label)
+        if cap is None:
+            cap = member_capacity(bridge.design_of(m.label), m.role,
+                                  g.member_length_ft(m.label), bridge.findings_for(m.label),
+                                  m.tension_only)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
@@ -824,7 +833,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     without: dict[str, WithoutMember] = {}
     if what_if:
         for member, text in bent_relied_on.items():
-            w = _without_bent(member, bridge, cases)
+            w = _without_bent(member, bridge, cases, capacities)
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
@@ -983,11 +992,42 @@ def _positions(g: TrussGeometry, case: RatingCase, df: float, envs: EnvelopeSet,
         chosen[push[r]].extend(ps.extreme(int(ix[first_of_least(lam[ix, r])]))
                                for ix in of_model if np.isfinite(lam[ix, r]).any())
     reach = LANE_RUN_REACH_PANELS * float(np.diff(g.deck_stations_ft).max())
+    if any(push):
+        chosen[True].extend(_push_runs_chosen(g, case, df, table, dead_states,
+                                              chosen[True] + chosen[False], member, sense,
+                                              cap, np.asarray(push)))
     whole = runs_of(case.load, chosen[True], math.inf)
     done = {run_key(w) for w in whole}
     near = [run for run in runs_of(case.load, chosen[False], reach) if run_key(run) not in done]
     return PositionSet(g.deck_stations_ft, case.load, im, df, loose_list, whole + near,
                        loose_loads=ps.p)
+
+
+def _push_runs_chosen(g: TrussGeometry, case: RatingCase, df: float, table: RegionTable,
+                      dead_states, extremes: list[Extreme], member: np.ndarray,
+                      sense: np.ndarray, cap: np.ndarray, push: np.ndarray) -> list[Extreme]:
+    """For the bars that would have to push (``push``, over the requests ``member``,
+    ``sense``, ``cap``): one position of each whole-deck run of the vehicles (spacing, lane
+    segments) among ``extremes`` on which some bar's push is reached at a position.
+
+    Where a bar pushes depends on which tension-only members the loading lets go, and a lane
+    pattern chosen for another member can be the one that does it (a reviewer's hanger rated
+    0.79 for HL-93 on its own patterns, 0.60 on another member's). Every pattern is driven
+    over the whole deck for these requests alone, on the paths the region table knows (no
+    walk: a screen), and the runs where a push is reached join the search, whose least can
+    lie between two of their positions (common practice for a screen; the rating is then
+    confirmed on the walked path, :func:`_push_confirmed`)."""
+    runs = runs_of(case.load, extremes, math.inf)
+    ps = PositionSet(g.deck_stations_ft, case.load, case.im.value, df, (), runs)
+    if not ps.size:
+        return []
+    rq = np.flatnonzero(push)
+    lam = np.min([first_crossings(table.pieces(fs, P, state, ps.p, walk=False), member[rq],
+                                  sense[rq], cap[rq])[0]
+                  for fs, (P, state) in dead_states.items()], axis=0)
+    reached = np.isfinite(lam).any(axis=1)
+    out = {run_key(ps.extreme(i)): ps.extreme(i) for i in np.flatnonzero(reached).tolist()}
+    return list(out.values())
 
 
 def _requests(g: TrussGeometry, group_plans: list[dict[str, list[_SensePlan]]],

@@ -98,3 +98,22 @@ def make_pratt_bridge(findings=(), pins=True, counter_panels=(4, 5), **settings)
         ),
         settings=RatingSettings(**settings),
     )
+
+
+def double_intersection_bridge(panels: int) -> Bridge:
+    """A double-intersection truss of 18 ft panels, 26 ft deep, with eyebar diagonals and
+    chords strong enough that a diagonal the live load reverses controls (invented test
+    data)."""
+    from dataclasses import replace
+
+    g = build_truss("double intersection", panels, 18.0, 26.0)
+
+    def section(m):
+        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
+            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
+        if m.role is MemberRole.BOTTOM_CHORD:
+            return eyebars(4, 6.0, 1.0, 5.0)
+        return section_for(m.label, m.role)
+
+    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
+    return replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)

@@ -607,22 +607,9 @@ def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
 def _double_intersection_with_eyebar_diagonals():
     """A 9-panel double-intersection truss, eyebar diagonals, chords strong enough that a
     diagonal the live load reverses controls (invented test data)."""
-    from demo_bridge import STEEL, eyebars, laced_channels, section_for
+    from demo_bridge import double_intersection_bridge
 
-    from rating.model import MemberDesign, MemberRole
-    from rating.model.builders import build_truss
-
-    g = build_truss("double intersection", 9, 18.0, 26.0)
-
-    def section(m):
-        if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST):
-            return laced_channels(15.0, 3.4, 0.4, 0.65, 12.0, cover=(18.0, 0.5))
-        if m.role is MemberRole.BOTTOM_CHORD:
-            return eyebars(4, 6.0, 1.0, 5.0)
-        return section_for(m.label, m.role)
-
-    designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
-    return replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    return double_intersection_bridge(9)
 
 
 def _tension_only_equilibrium(g, P: np.ndarray) -> bool:

@@ -116,3 +116,24 @@ def test_the_lane_type_legal_load_on_a_span_over_200_ft(monkeypatch):
         b = whole.ratings[key].rf
         if 0 < b < 1e9:
             assert b <= r.rf * (1 + 1e-9) and r.rf <= b * 1.01, (key, r.rf, b)
+
+
+@pytest.mark.parametrize("panels", [9, 10])
+def test_a_bars_push_is_found_on_another_members_lane_pattern(panels, monkeypatch):
+    """Where a bar would have to push (rating.lrfr.engine._sense_plans) depends on which
+    tension-only members the loading lets go, and the lane pattern that does it can be one
+    chosen for another member: on double-intersection trusses with eyebar diagonals
+    (invented test data; a reviewer's random bridge showed the same) the default search gave
+    HL-93 inventory RFs 18 % (9 panels, U3L5) and 36 % (10 panels) above the whole deck's.
+    Every member's pattern is now driven over the whole deck for the bars' pushes, and the
+    runs where one is reached are searched: the same ratings as the whole deck."""
+    from demo_bridge import double_intersection_bridge
+
+    bridge = double_intersection_bridge(panels)
+    usual = rate_bridge(bridge, ["HL-93"], what_if=False)
+    monkeypatch.setattr(engine_module, "LANE_RUN_REACH_PANELS", 1000.0)
+    whole = rate_bridge(bridge, ["HL-93"], what_if=False)
+    assert any(r.check == "compression: tension-only member" and 0 < r.rf < 1e9
+               for r in whole.ratings.values())
+    for key, r in usual.ratings.items():
+        assert r.rf == pytest.approx(whole.ratings[key].rf, rel=1e-9), key
