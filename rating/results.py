@@ -110,7 +110,7 @@ class SectionSummary:
 class CheckSummary:
     """One resistance check of a member at its governing location: phi, the nominal resistance
     R_n and the factored resistance phi_c phi_s phi R_n (kip), with the provision, the location
-    and the finding there."""
+    and the finding there, and the quantities it used (``detail``, words with their units)."""
 
     name: str
     sense: str  # "tension" | "compression"
@@ -120,6 +120,7 @@ class CheckSummary:
     provision: str = ""
     location: str = ""
     finding: str = ""
+    detail: str = ""
 
 
 @dataclass(frozen=True)

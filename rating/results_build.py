@@ -505,7 +505,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         checks = tuple(
             CheckSummary(c.name, c.sense.value, c.phi, c.R_n_kip, phi_cs * c.phi_R_n_kip,
                          c.provision, text(c.location.describe()),
-                         text(finding_text(c.finding, rod)))
+                         text(finding_text(c.finding, rod)), text(c.detail))
             for c in cap.checks)
         t = cap.governing("tension")
         c_ = cap.governing("compression")

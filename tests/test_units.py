@@ -18,6 +18,8 @@ from rating.units import si_text
     ("lane 0.64 klf", "lane 9.34 kN/m"),
     ("unit weight 150 pcf", "unit weight 23.56 kN/m3"),
     ("area 1 in2", "area 645.2 mm2"),
+    ("S_x = 50.9 in3", "S_x = 834100 mm3"),  # 50.9 x 25.4^3 = 834,101 mm3
+    ("w = 45 plf across", "w = 0.6567 kN/m across"),  # 45 lbf/ft = 0.65672 kN/m
     ("20 tons", "18.14 tonnes"),
 ])
 def test_core_quantities_are_restated_in_si(us, si):
@@ -53,6 +55,9 @@ def test_sample_si_report_quotes_no_us_units():
         texts += list(m.warnings) + [x.finding for x in m.ratings.values()]
         texts += [c.location for c in m.resistance.checks] + [c.finding
                                                               for c in m.resistance.checks]
-    us = re.compile(r"(?<![\w./^-])\d+(?:\.\d+)? ?(in|ft|ksi|kip|kip-in|klf|pcf|psf)(?![\w-])")
+        texts += [c.detail for c in m.resistance.checks]  # (the quantities each check used)
+    assert any("own-weight" in c.name for m in r.members for c in m.resistance.checks)
+    us = re.compile(r"(?<![\w./^-])\d+(?:\.\d+)? ?(in|in2|in3|ft|ksi|kip|kip-in|klf|plf|pcf|psf)"
+                    r"(?![\w-])")
     left = [t for t in texts if t and us.search(t)]
     assert not left, left[:3]

@@ -14,6 +14,7 @@ from dataclasses import dataclass, field
 from rating.capacity.checks import Check, Sense
 from rating.capacity.compression import PHI_C, compression_checks, effective_length_factor
 from rating.capacity.factors import combined_factor, member_factors
+from rating.capacity.interaction import PHI_F, axial_limit_kip, own_weight_moment_kip_in
 from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.capacity.tension import PHI_PIN_PLATE, PHI_U, PHI_Y, tension_checks
 from rating.errors import InputError
@@ -152,12 +153,80 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
     return best
 
 
+OWN_WEIGHT_CHECKS = ("compression: buckling with own-weight bending",
+                     "tension with own-weight bending")
+"""The names of the checks of :func:`_own_weight_checks` (compression, tension)."""
+
+
+OWN_WEIGHT_NOTE = (
+    "Built-up members that are not vertical bend between their pins under their own weight "
+    "across their length (details included, as in the dead load): the moment, dead load at "
+    "gamma_DC, is combined with the axial force by the interaction equations of AASHTO LRFD "
+    "6.8.2.3 and 6.9.2.2, magnified in compression (4.5.3.2.2b) [value from memory]; M_r is "
+    "the first-yield moment phi_f Q F_y S_x (lateral-torsional buckling of a laced or plated "
+    "member not checked). The pins are taken on the centroid: an eccentric pin's moment is "
+    "not included. Eyebars, rods and rolled shapes (no section modulus given) are not checked "
+    "so.")
+"""The one assumption every member checked by :func:`_own_weight_checks` gives (the same
+words, said once in a report)."""
+
+
+def _own_weight_checks(report, design: MemberDesign, tension: tuple[Check, ...],
+                       buckling: Check, Q: float, K: float, length_ft: float, w_klf: float,
+                       gamma_dc: float, phi_cs: float) -> tuple[tuple[Check, ...], list[str]]:
+    """The axial resistances of a built-up member that bends under its own weight: the axial
+    force at which the interaction of AASHTO LRFD 6.8.2.3 / 6.9.2.2 reaches 1.0 with the
+    factored own-weight moment gamma_DC w L^2 / 8 (rating.capacity.interaction) [value from
+    memory]. P_r is the governing check's factored resistance (phi_c phi_s phi R_n) and M_r =
+    phi_c phi_s phi_f Q F_y S_x, S_x the least over the locations (loss included); in
+    compression the moment is magnified with P_e = pi^2 E I_x / (K L)^2, I_x the least. Each
+    check has phi_c phi_s phi R_n equal to that axial force. Eyebars, rods and rolled shapes
+    (no section modulus given) are not checked."""
+    if report.kind != "built-up":
+        return (), []
+    props = [s.properties for s in report.tension + report.compression
+             if s.properties is not None and s.properties.A_in2 > 0]
+    if not props:
+        return (), []
+    mat = design.material
+    S = min(p.S_x_in3 for p in props)
+    I_x = min(p.I_x_in4 for p in props)
+    M_u = gamma_dc * own_weight_moment_kip_in(w_klf, length_ft)
+    out: list[Check] = []
+    base = min(tension, key=lambda c_: c_.phi_R_n_kip) if tension else None
+    for chk, name, Q_m, P_e in (
+            (buckling, OWN_WEIGHT_CHECKS[0], Q,
+             math.pi**2 * mat.E * I_x / (K * length_ft * 12.0) ** 2),
+            (base, OWN_WEIGHT_CHECKS[1], 1.0, None)):
+        if chk is None or chk.R_n_kip <= 0.0 or chk.phi <= 0.0:
+            continue
+        P_r = phi_cs * chk.phi_R_n_kip
+        M_r = phi_cs * PHI_F * Q_m * mat.F_y * S
+        P_star = axial_limit_kip(P_r, M_u, M_r, P_e)
+        magnified = (f", P_e = {P_e:.0f} kip (moment magnified, C_m = 1.0, LRFD 4.5.3.2.2b)"
+                     if P_e is not None else "")
+        detail = (f"with {chk.name}: P_r = {P_r:.1f} kip; M_u = {M_u:.1f} kip-in "
+                  f"(gamma_DC {gamma_dc:g} x w L^2/8, w = {w_klf * 1000.0:.0f} plf across "
+                  f"the member, L = {length_ft:.2f} ft); M_r = {M_r:.0f} kip-in "
+                  f"(phi_f {PHI_F:g}{f' x Q {Q_m:.3f}' if Q_m < 1.0 else ''} x F_y x S_x, S_x "
+                  f"= {S:.1f} in3){magnified}; the interaction reaches 1.0 at P = "
+                  f"{P_star:.1f} kip")
+        prov = ("AASHTO LRFD " + ("6.9.2.2, Eqs. 6.9.2.2-1/-2" if P_e is not None
+                                  else "6.8.2.3, Eqs. 6.8.2.3-1/-2")
+                + " [value from memory]; own weight across a pin-ended member [common practice]")
+        out.append(Check(name, chk.sense, chk.phi, P_star / (phi_cs * chk.phi), prov,
+                         chk.location, detail))
+    notes = [OWN_WEIGHT_NOTE] if out else []
+    return tuple(out), notes
+
+
 def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                     findings: tuple[Finding, ...], tension_only: bool, *,
                     end_condition: str = "pinned", head_as_pin_plate: bool = True,
                     phi_y: float = PHI_Y, phi_u: float = PHI_U,
                     phi_pin_plate: float = PHI_PIN_PLATE, phi_c_axial: float = PHI_C,
-                    phi_cs_floor: float | None = None) -> MemberCapacity:
+                    phi_cs_floor: float | None = None, own_weight_klf: float = 0.0,
+                    gamma_dc: float = 1.25) -> MemberCapacity:
     """Resistances of one member after the recorded section loss, with phi_c and phi_s.
 
     AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [V].
@@ -172,6 +241,9 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         head_as_pin_plate: check eyebar heads with the AISC LRFD 1999 D3 pin-plate forms.
         phi_y, phi_u, phi_pin_plate, phi_c_axial: resistance factors (owner may change).
         phi_cs_floor: lower limit of phi_c phi_s (default 0.85 from factors.json).
+        own_weight_klf: the member's own weight per foot across its axis (details included,
+            unfactored; 0 for a vertical member): the bending it makes is combined with the
+            axial force (:func:`_own_weight_checks`), factored by ``gamma_dc``.
     """
     m = design.member
     if not isinstance(length_ft, int | float) or not math.isfinite(length_ft) or length_ft <= 0:
@@ -214,6 +286,12 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
     f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)
     warnings.extend(t.warnings + c.warnings + f.warnings)
     assumptions.extend(t.assumptions + c.assumptions + f.assumptions)
+    bending: tuple[Check, ...] = ()
+    if own_weight_klf > 0.0:
+        bending, notes = _own_weight_checks(
+            report, design, t.checks, c.checks[0], c.Q, K, float(length_ft), own_weight_klf,
+            gamma_dc, combined_factor(f.phi_c, f.phi_s, f.floor))
+        assumptions.extend(notes)
 
     A_g = min(s.A_g_in2 for s in report.tension)
     A_n = min(s.A_n_in2 for s in report.tension)
@@ -228,6 +306,6 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                              comp_at.r_x_in if comp_at else 0.0,
                              comp_at.r_y_in if comp_at else 0.0, c.Q)
     removed = tuple(comp for comp, _ in report.removed)
-    return MemberCapacity(m, role, t.checks + c.checks, f.phi_c, f.phi_s, f.condition,
+    return MemberCapacity(m, role, t.checks + c.checks + bending, f.phi_c, f.phi_s, f.condition,
                           f.condition_rating, summary, tuple(dict.fromkeys(warnings)),
                           tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor)

@@ -115,7 +115,8 @@ class AreaProperties:
     """Area, centroid and second moments of a set of rectangles (in, in^2, in^4).
 
     ``I_x_in4`` about the centroidal x axis (in-plane buckling), ``I_y_in4`` about the
-    centroidal y axis (out-of-plane buckling), ``I_xy_in4`` the product of inertia.
+    centroidal y axis (out-of-plane buckling), ``I_xy_in4`` the product of inertia;
+    ``y_top_in``/``y_bottom_in`` the extreme fibres in y (for the section modulus).
     """
 
     A_in2: float
@@ -124,6 +125,15 @@ class AreaProperties:
     I_x_in4: float
     I_y_in4: float
     I_xy_in4: float
+    y_top_in: float = 0.0
+    y_bottom_in: float = 0.0
+
+    @property
+    def S_x_in3(self) -> float:
+        """The least elastic section modulus about the centroidal x axis (bending in the truss
+        plane), I_x / c to the farther extreme fibre (common practice)."""
+        c = max(self.y_top_in - self.y_c_in, self.y_c_in - self.y_bottom_in)
+        return self.I_x_in4 / c if c > 0.0 else 0.0
 
     @property
     def r_x_in(self) -> float:
@@ -167,7 +177,8 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
         parts_y.append(by * bx**3 / 12.0 + a * dx**2)
         parts_xy.append(a * dx * dy)
     return AreaProperties(At, xc, yc, math.fsum(parts_x), math.fsum(parts_y),
-                          math.fsum(parts_xy))
+                          math.fsum(parts_xy), max(r.cy_in + 0.5 * r.by_in for r in rects),
+                          min(r.cy_in - 0.5 * r.by_in for r in rects))
 
 
 def _rects_area_in2(rects: Sequence[Rect]) -> float:

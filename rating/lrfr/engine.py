@@ -219,6 +219,16 @@ def rating_geometry(bridge: Bridge) -> TrussGeometry:
     return replace(g, members=tuple(members))
 
 
+def _across_weight_klf(g: TrussGeometry, m: Member, design, detail_allowance: float) -> float:
+    """The member's own weight per foot across its axis, kip/ft: gross area as built times
+    unit weight, with the detail allowance of the dead load (rating.analysis.deadload), times
+    the cosine of its slope (statics; 0 for a vertical member)."""
+    a, b = g.joint(m.start), g.joint(m.end)
+    cos = abs(b.x_ft - a.x_ft) / g.member_length_ft(m.label)
+    return (gross_area_as_built_in2(design.section) / 144.0 * design.material.unit_weight_pcf
+            * (1.0 + detail_allowance) * cos / 1000.0)
+
+
 def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
                               max_pairs: int = 4) -> tuple[frozenset[str], ...]:
     """The dead-load set and the sets with crossing tension-only pairs flipped.
@@ -642,13 +652,16 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     warnings: list[str] = []
     assumptions: list[str] = []
 
+    dead_f = dead_load_factors(st.wearing_surface_measured)
     capacities = {}
     for m in g.members:
         cap = known.get(m.label)
         if cap is None:
             cap = member_capacity(bridge.design_of(m.label), m.role,
                                   g.member_length_ft(m.label), bridge.findings_for(m.label),
-                                  m.tension_only)
+                                  m.tension_only, own_weight_klf=_across_weight_klf(
+                                      g, m, bridge.design_of(m.label), st.detail_allowance),
+                                  gamma_dc=dead_f["gamma_dc_max"].value)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
@@ -716,7 +729,6 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
-    dead_f = dead_load_factors(st.wearing_surface_measured)
     if st.wearing_surface_measured:
         if np.any(dead.joint_loads_dw_surface_kip):
             assumptions.append(

@@ -803,7 +803,9 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}"))))
         for m in results.members if m.section is not None)
     checks = tuple(CheckRow(m.id, Markup(
-        f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}</td><td>{esc(c.sense)}</td>'
+        f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}'
+        + (f'<br><span class="small">{breakable(c.detail)}</span>' if c.detail else "")
+        + f'</td><td>{esc(c.sense)}</td>'
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
         f"<td>{breakable(c.location)}</td><td>{breakable(c.finding)}</td>"))

@@ -293,3 +293,51 @@ def test_as_built_gross_area_in_the_summary():
     fs = (Finding("M", "C1", percent_loss=30), Finding("M", "C2", bar_state=BarState.LOOSE))
     cap = member_capacity(MemberDesign("M", s, STEEL), MemberRole.TOP_CHORD, L, fs, False)
     assert cap.summary.A_g_as_built_in2 == gross_area_as_built_in2(s)
+
+
+def test_a_chord_bending_under_its_own_weight_hand_check():
+    """A laced chord (two 10 in channels and a 14 x 1/2 in cover) 24 ft long carrying 60 lb/ft
+    across it: M_u = 1.25 x 0.06 x 24^2 / 8 = 5.4 kip-ft (statics); P_r = phi_c phi_s phi_c
+    P_n of the buckling check, M_r = phi_c phi_s F_y S_x; the axial limit is the lesser root of
+    the quadratic of AASHTO LRFD Eq. 6.9.2.2-2 with delta_b = 1 / (1 - P/P_e) (4.5.3.2.2b,
+    C_m = 1, phi_K = 1) [value from memory]; in tension P_r (1 - 8/9 M_u / M_r) (Eq.
+    6.8.2.3-2)."""
+    from rating.capacity.member import OWN_WEIGHT_CHECKS
+    from rating.capacity.sections import section_properties
+
+    chord = BuiltUpSection(
+        parts=(ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
+               ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT),
+               PlatePart("cover", 14.0, 0.5, y_in=5.25)),
+        connectors=Connectors(ConnectorKind.LACING, spacing_in=16.0))
+    design = MemberDesign("U1U2", chord, STEEL)
+    plain = member_capacity(design, MemberRole.TOP_CHORD, L, (), False)
+    mc = member_capacity(design, MemberRole.TOP_CHORD, L, (), False, own_weight_klf=0.06)
+    p = section_properties(chord, member="U1U2").compression[0].properties
+    phi_cs = mc.phi_cs
+    buck = plain.governing("compression")
+    P_r = phi_cs * buck.phi_R_n_kip
+    M_u = 1.25 * 0.06 * L**2 / 8 * 12
+    M_r = phi_cs * 1.0 * STEEL.F_y * p.S_x_in3
+    P_e = math.pi**2 * STEEL.E * p.I_x_in4 / (0.875 * L * 12) ** 2
+    m = M_u / M_r
+    b = P_e + P_r
+    P_star = (b - math.sqrt(b * b - 4 * P_r * P_e * (1 - 8 * m / 9))) / 2
+    assert P_star / P_r >= 0.2
+    g = mc.governing("compression")
+    assert g.name == OWN_WEIGHT_CHECKS[0]
+    assert mc.factored_resistance("compression") == pytest.approx(P_star, rel=1e-9)
+    assert "M_u = 64.8 kip-in" in g.detail and "6.9.2.2" in g.provision
+    t = mc.governing("tension")
+    assert t.name == OWN_WEIGHT_CHECKS[1]
+    base = min(c.phi_R_n_kip for c in plain.checks_in("tension")) * phi_cs
+    assert mc.factored_resistance("tension") == pytest.approx(base * (1 - 8 / 9 * m),
+                                                              rel=1e-9)
+    assert any("under their own weight" in a for a in mc.assumptions)
+    assert "w = 60 plf across the member" in g.detail
+    # nothing across it (a vertical), or bars that cannot bend it: no such check
+    assert [c.name for c in plain.checks] == [
+        c.name for c in mc.checks if c.name not in OWN_WEIGHT_CHECKS]
+    bars = member_capacity(MemberDesign("L1L2", EyebarSet(2, 4.0, 1.0, 9.0, 4.0), STEEL),
+                           MemberRole.BOTTOM_CHORD, L, (), True, own_weight_klf=0.05)
+    assert not any(c.name in OWN_WEIGHT_CHECKS for c in bars.checks)

@@ -688,3 +688,38 @@ def test_a_push_is_confirmed_on_the_exact_path_before_it_rates_a_bar():
     early = replace(low, rf=0.5 * low.rf)  # a push the walk does not reach by then
     assert not _push_confirmed(family, r.geometry, low.member, early, case,
                                r.distribution_factor, push, states)
+
+
+def test_chords_and_end_posts_are_rated_with_their_own_weight_bending():
+    """Each member not vertical bends between its pins under its own weight across its axis:
+    gross area as built x 490 pcf x (1 + the 15 % detail allowance of the dead load) x the
+    cosine of its slope (statics), factored by gamma_DC max 1.25 (AASHTO LRFD Table
+    3.4.1-2 [value from memory]); the capacity is member_capacity's with that weight, and the
+    linear rating of a chord uses it (MBE 6A.4.2.1 [value from memory])."""
+    from rating.capacity.member import OWN_WEIGHT_CHECKS, member_capacity
+    from rating.capacity.sections import gross_area_as_built_in2
+    from rating.lrfr.engine import rating_geometry
+
+    bridge = make_pratt_bridge(pins=False)
+    r = rate_bridge(bridge, ["TYPE-3"], what_if=False)
+    g = rating_geometry(bridge)
+    seen = set()
+    for m in g.members:
+        d = bridge.design_of(m.label)
+        a, b = g.joint(m.start), g.joint(m.end)
+        cos = abs(b.x_ft - a.x_ft) / g.member_length_ft(m.label)
+        w = gross_area_as_built_in2(d.section) / 144 * 490.0 * 1.15 * cos / 1000
+        want = member_capacity(d, m.role, g.member_length_ft(m.label), (), m.tension_only,
+                               own_weight_klf=w, gamma_dc=1.25)
+        got = r.capacities[m.label]
+        for sense in ("tension", "compression"):
+            assert got.factored_resistance(sense) == pytest.approx(
+                want.factored_resistance(sense), rel=1e-12), (m.label, sense)
+        names = {c.name for c in got.checks}
+        if names & set(OWN_WEIGHT_CHECKS):
+            seen.add(m.role.value)
+            assert cos > 0 and not m.tension_only
+    assert {"top chord", "end post"} <= seen
+    cp = r.capacities["U2U3"]
+    assert cp.governing("compression").name == OWN_WEIGHT_CHECKS[0]
+    assert r.ratings[("U2U3", "TYPE-3")].check == OWN_WEIGHT_CHECKS[0]
