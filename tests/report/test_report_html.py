@@ -390,3 +390,30 @@ def test_member_table_gives_the_condition_and_system_factors(results_us: RatingR
         if low is not None and low[1].factors is not None:
             assert row.factors == f"{low[1].factors.phi_c:.2f} \u00d7 {low[1].factors.phi_s:.2f}"
     assert "&phi;<sub>c</sub> &times; &phi;<sub>s</sub>" in render_report(results_us)
+
+
+def test_a_section_heading_is_kept_with_its_first_drawing(html_us: str) -> None:
+    """In print a page must not end on a section's heading with its drawing on the next page
+    (a reviewer's 16-panel report left "3. Influence lines ..." and its note at the foot of a
+    page). The heading of sections 2 and 3, the note and the first drawing are one block the
+    browser does not break (class "keep": break-inside avoid), checked on the document's
+    structure: the heading and the first figure's drawing share that block."""
+    for section, first in (("elevation", "<svg"), ("influence", "<figure")):
+        body = html_us[html_us.index(f'<section id="{section}">'):]
+        body = body[:body.index("</section>")]
+        assert '<div class="keep lead">' in body, section
+        block = body[body.index('<div class="keep lead">'):]
+        head = block.index("<h2>")
+        assert head < block.index(first, head), section
+        # the first drawing's figure closes before the keep block does
+        assert block.index("</figure>") < _closing_div(block), section
+
+
+def _closing_div(block: str) -> int:
+    """Index of the </div> that closes the <div> the block starts with."""
+    depth = 0
+    for m in re.finditer(r"<div\b|</div>", block):
+        depth += 1 if m.group().startswith("<div") else -1
+        if depth == 0:
+            return m.start()
+    raise AssertionError("unclosed <div>")
