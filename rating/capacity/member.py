@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 from rating.capacity.checks import Check, Sense
 from rating.capacity.compression import PHI_C, compression_checks, effective_length_factor
 from rating.capacity.factors import combined_factor, member_factors
-from rating.capacity.interaction import PHI_F, axial_limit_kip, own_weight_moment_kip_in
+from rating.capacity.own_weight import OWN_WEIGHT_CHECKS, own_weight_checks
 from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.capacity.tension import PHI_PIN_PLATE, PHI_U, PHI_Y, tension_checks
 from rating.errors import InputError
@@ -92,6 +92,14 @@ class MemberCapacity:
         g = self.governing(sense)
         return 0.0 if g is None else self.phi_cs * g.phi_R_n_kip
 
+    def carries_nothing(self) -> bool:
+        """Every bar out (loose, missing, broken, cracked): no resistance in either sense by
+        the member's own checks (its own-weight checks aside: their zero is the moment's,
+        rating.capacity.own_weight)."""
+        return bool(self.removed) and all(
+            min((c.phi_R_n_kip for c in self.checks_in(s_) if c.name not in OWN_WEIGHT_CHECKS),
+                default=0.0) == 0.0 for s_ in Sense)
+
 
 def _material_notes(design: MemberDesign) -> tuple[list[str], list[str]]:
     mat, m = design.material, design.member
@@ -121,13 +129,14 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
     than nothing by the Q method; a part cannot weaken the member, so the section is also
     rated without each such part, and without all of them, and the larger resistance kept
     (common practice: a part that buckles locally is taken as not carrying compression).
-    AASHTO LRFD 6.9.4.2 [value from memory]."""
+    AASHTO LRFD 6.9.4.2 [value from memory]. Returns the checks kept and the sections they
+    were found on (their locations with the inspection's findings alone)."""
     from rating.capacity.compression import element_Q
 
     F_y, E = design.material.F_y, design.material.E
     slender = sorted({e.part for s_ in report.compression for e in s_.elements
                       if not e.stiffened and e.t_in > 0 and element_Q(e, F_y, E) < 1.0})
-    best = c
+    best, best_report = c, report
     options = [[p] for p in slender] + ([slender] if len(slender) > 1 else [])
     for parts in options:
         extra = tuple(Finding(m, p, bar_state=BarState.LOOSE) for p in parts)
@@ -144,80 +153,17 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
                     "adds (a part cannot weaken the member; common practice)")
             # the location's findings are the inspection's own (the part left out is said
             # in the note, not as a finding nobody recorded)
+            def own(loc, extra=extra):
+                return dataclasses.replace(loc, findings=tuple(
+                    f for f in loc.findings if f not in extra))
+
             chk = alt.checks[0]
-            loc = chk.location
-            kept = tuple(f for f in loc.findings if f not in extra)
-            chk = dataclasses.replace(chk, location=dataclasses.replace(loc, findings=kept))
+            chk = dataclasses.replace(chk, location=own(chk.location))
             best = type(alt)((chk,), alt.warnings, alt.assumptions + (note,), alt.K,
                              alt.KL_r, alt.Q)
-    return best
-
-
-OWN_WEIGHT_CHECKS = ("compression: buckling with own-weight bending",
-                     "tension with own-weight bending")
-"""The names of the checks of :func:`_own_weight_checks` (compression, tension)."""
-
-
-OWN_WEIGHT_NOTE = (
-    "Built-up members that are not vertical bend between their pins under their own weight "
-    "across their length (details included, as in the dead load): the moment, dead load at "
-    "gamma_DC, is combined with the axial force by the interaction equations of AASHTO LRFD "
-    "6.8.2.3 and 6.9.2.2, magnified in compression (4.5.3.2.2b) [value from memory]; M_r is "
-    "the first-yield moment phi_f Q F_y S_x (lateral-torsional buckling of a laced or plated "
-    "member not checked). The pins are taken on the centroid: an eccentric pin's moment is "
-    "not included. Eyebars, rods and rolled shapes (no section modulus given) are not checked "
-    "so.")
-"""The one assumption every member checked by :func:`_own_weight_checks` gives (the same
-words, said once in a report)."""
-
-
-def _own_weight_checks(report, design: MemberDesign, tension: tuple[Check, ...],
-                       buckling: Check, Q: float, K: float, length_ft: float, w_klf: float,
-                       gamma_dc: float, phi_cs: float) -> tuple[tuple[Check, ...], list[str]]:
-    """The axial resistances of a built-up member that bends under its own weight: the axial
-    force at which the interaction of AASHTO LRFD 6.8.2.3 / 6.9.2.2 reaches 1.0 with the
-    factored own-weight moment gamma_DC w L^2 / 8 (rating.capacity.interaction) [value from
-    memory]. P_r is the governing check's factored resistance (phi_c phi_s phi R_n) and M_r =
-    phi_c phi_s phi_f Q F_y S_x, S_x the least over the locations (loss included); in
-    compression the moment is magnified with P_e = pi^2 E I_x / (K L)^2, I_x the least. Each
-    check has phi_c phi_s phi R_n equal to that axial force. Eyebars, rods and rolled shapes
-    (no section modulus given) are not checked."""
-    if report.kind != "built-up":
-        return (), []
-    props = [s.properties for s in report.tension + report.compression
-             if s.properties is not None and s.properties.A_in2 > 0]
-    if not props:
-        return (), []
-    mat = design.material
-    S = min(p.S_x_in3 for p in props)
-    I_x = min(p.I_x_in4 for p in props)
-    M_u = gamma_dc * own_weight_moment_kip_in(w_klf, length_ft)
-    out: list[Check] = []
-    base = min(tension, key=lambda c_: c_.phi_R_n_kip) if tension else None
-    for chk, name, Q_m, P_e in (
-            (buckling, OWN_WEIGHT_CHECKS[0], Q,
-             math.pi**2 * mat.E * I_x / (K * length_ft * 12.0) ** 2),
-            (base, OWN_WEIGHT_CHECKS[1], 1.0, None)):
-        if chk is None or chk.R_n_kip <= 0.0 or chk.phi <= 0.0:
-            continue
-        P_r = phi_cs * chk.phi_R_n_kip
-        M_r = phi_cs * PHI_F * Q_m * mat.F_y * S
-        P_star = axial_limit_kip(P_r, M_u, M_r, P_e)
-        magnified = (f", P_e = {P_e:.0f} kip (moment magnified, C_m = 1.0, LRFD 4.5.3.2.2b)"
-                     if P_e is not None else "")
-        detail = (f"with {chk.name}: P_r = {P_r:.1f} kip; M_u = {M_u:.1f} kip-in "
-                  f"(gamma_DC {gamma_dc:g} x w L^2/8, w = {w_klf * 1000.0:.0f} plf across "
-                  f"the member, L = {length_ft:.2f} ft); M_r = {M_r:.0f} kip-in "
-                  f"(phi_f {PHI_F:g}{f' x Q {Q_m:.3f}' if Q_m < 1.0 else ''} x F_y x S_x, S_x "
-                  f"= {S:.1f} in3){magnified}; the interaction reaches 1.0 at P = "
-                  f"{P_star:.1f} kip")
-        prov = ("AASHTO LRFD " + ("6.9.2.2, Eqs. 6.9.2.2-1/-2" if P_e is not None
-                                  else "6.8.2.3, Eqs. 6.8.2.3-1/-2")
-                + " [value from memory]; own weight across a pin-ended member [common practice]")
-        out.append(Check(name, chk.sense, chk.phi, P_star / (phi_cs * chk.phi), prov,
-                         chk.location, detail))
-    notes = [OWN_WEIGHT_NOTE] if out else []
-    return tuple(out), notes
+            best_report = dataclasses.replace(rep, compression=tuple(
+                dataclasses.replace(s_, location=own(s_.location)) for s_ in rep.compression))
+    return best, best_report
 
 
 def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
@@ -278,20 +224,23 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         else None
     c = compression_checks(report, design.material, K=K, length_ft=float(length_ft), role=role,
                            tension_only=tension_only, connectors=connectors, phi_c=phi_c_axial)
+    comp_report = report
     if isinstance(design.section, BuiltUpSection) and not tension_only and c.Q < 1.0:
-        c = _without_slender_parts(design, m, findings, float(length_ft), role, K,
-                                   connectors, phi_c_axial, report, c)
+        c, comp_report = _without_slender_parts(design, m, findings, float(length_ft), role,
+                                                K, connectors, phi_c_axial, report, c)
     if report.kind in ("built-up", "rolled shape") and not tension_only:
         assumptions.append(k_note)
     f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)
     warnings.extend(t.warnings + c.warnings + f.warnings)
     assumptions.extend(t.assumptions + c.assumptions + f.assumptions)
     bending: tuple[Check, ...] = ()
-    if own_weight_klf > 0.0:
-        bending, notes = _own_weight_checks(
-            report, design, t.checks, c.checks[0], c.Q, K, float(length_ft), own_weight_klf,
-            gamma_dc, combined_factor(f.phi_c, f.phi_s, f.floor))
+    if own_weight_klf > 0.0 and not tension_only:
+        bending, notes, heavy = own_weight_checks(
+            report, comp_report, design.material, c.checks[0], c.Q, K, float(length_ft),
+            own_weight_klf, gamma_dc, combined_factor(f.phi_c, f.phi_s, f.floor), phi_y,
+            phi_u)
         assumptions.extend(notes)
+        warnings.extend(heavy)
 
     A_g = min(s.A_g_in2 for s in report.tension)
     A_n = min(s.A_n_in2 for s in report.tension)

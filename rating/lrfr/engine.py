@@ -671,8 +671,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                for m in g.members}
     out_of_service = frozenset(
         lab for lab, cap in capacities.items()
-        if cap.removed and cap.factored_resistance("tension") == 0.0
-        and cap.factored_resistance("compression") == 0.0)
+        if cap.carries_nothing())
     family = TrussFamily(g, excluded=out_of_service)
     if out_of_service:
         names = ", ".join(sorted(out_of_service))

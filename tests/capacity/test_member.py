@@ -302,7 +302,7 @@ def test_a_chord_bending_under_its_own_weight_hand_check():
     the quadratic of AASHTO LRFD Eq. 6.9.2.2-2 with delta_b = 1 / (1 - P/P_e) (4.5.3.2.2b,
     C_m = 1, phi_K = 1) [value from memory]; in tension P_r (1 - 8/9 M_u / M_r) (Eq.
     6.8.2.3-2)."""
-    from rating.capacity.member import OWN_WEIGHT_CHECKS
+    from rating.capacity.own_weight import OWN_WEIGHT_CHECKS
     from rating.capacity.sections import section_properties
 
     chord = BuiltUpSection(
@@ -341,3 +341,123 @@ def test_a_chord_bending_under_its_own_weight_hand_check():
     bars = member_capacity(MemberDesign("L1L2", EyebarSet(2, 4.0, 1.0, 9.0, 4.0), STEEL),
                            MemberRole.BOTTOM_CHORD, L, (), True, own_weight_klf=0.05)
     assert not any(c.name in OWN_WEIGHT_CHECKS for c in bars.checks)
+
+
+def _laced_chord(angles: bool = False) -> BuiltUpSection:
+    from rating.model import AnglePart
+
+    parts = (ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
+             ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT),
+             PlatePart("cover", 14.0, 0.5, y_in=5.25))
+    if angles:
+        parts += (AnglePart("A1", 6.0, 6.0, 0.5, x_in=-4.0, y_in=-5.0, x_sign=-1, y_sign=-1),
+                  AnglePart("A2", 6.0, 6.0, 0.5, x_in=4.0, y_in=-5.0, x_sign=1, y_sign=-1))
+    return BuiltUpSection(parts=parts, connectors=Connectors(ConnectorKind.LACING,
+                                                             spacing_in=16.0))
+
+
+def _own(mc, sense: str):
+    from rating.capacity.own_weight import OWN_WEIGHT_CHECKS
+
+    name = OWN_WEIGHT_CHECKS[0 if sense == "compression" else 1]
+    return next(c for c in mc.checks if c.name == name)
+
+
+def test_own_weight_magnifier_takes_k_in_the_truss_plane():
+    """An owner's K of 2.0 (an end post whose portal sways out of plane) is not the member's
+    K in the truss plane, where it is held at both pins: P_e takes K at most 1.0 (AASHTO LRFD
+    4.5.3.2.2b [value from memory]; a reviewer saw P_e fall from 1,319 to 252 kip)."""
+    chord = _laced_chord()
+    at_two = member_capacity(MemberDesign("L0U1", chord, STEEL, K=2.0), MemberRole.END_POST,
+                             L, (), False, own_weight_klf=0.06)
+    at_one = member_capacity(MemberDesign("L0U1", chord, STEEL, K=1.0), MemberRole.END_POST,
+                             L, (), False, own_weight_klf=0.06)
+    a, b = _own(at_two, "compression"), _own(at_one, "compression")
+    assert "in-plane K = 1;" in a.detail and "in-plane K = 1;" in b.detail
+    assert a.detail.split("P_e = ")[1].split(" ")[0] == b.detail.split("P_e = ")[1].split(" ")[0]
+    # M_r as printed carries phi_c phi_s, so the printed numbers reproduce it
+    assert "M_r = " in a.detail and "phi_c phi_s 0.9 x phi_f 1 x F_y x S_x" in a.detail
+
+
+def test_own_weight_is_checked_where_the_moment_is():
+    """The moment of a uniform load is 4 x (L - x) / L^2 of its mid-length value at x
+    (statics): heavy loss 0.5 ft from a pin meets a twentieth of it, the same loss at
+    mid-length all of it; the check names the location that governs (a reviewer found the
+    least section anywhere put with the mid-length moment: 11 % low in tension)."""
+    chord = _laced_chord()
+    near = (Finding("U1U2", "C1", FindingRegion.BODY, station_ft=0.5, percent_loss=50.0),)
+    mid = (Finding("U1U2", "C1", FindingRegion.BODY, station_ft=L / 2, percent_loss=50.0),)
+    design = MemberDesign("U1U2", chord, STEEL)
+    a = member_capacity(design, MemberRole.BOTTOM_CHORD, L, near, False, own_weight_klf=0.4)
+    b = member_capacity(design, MemberRole.BOTTOM_CHORD, L, mid, False, own_weight_klf=0.4)
+    ta, tb = _own(a, "tension"), _own(b, "tension")
+    assert ta.phi_R_n_kip > tb.phi_R_n_kip * 1.02
+    assert tb.location.station_ft == L / 2 and "(at mid-length;" in tb.detail
+    from rating.capacity.own_weight import moment_factor
+    assert moment_factor(tb.location, L) == pytest.approx(1.0)
+    assert moment_factor(near_location(0.5), L) == pytest.approx(4 * 0.5 * 23.5 / L**2)
+
+
+def near_location(station_ft: float):
+    from rating.capacity.sections import Location
+
+    return Location(FindingRegion.BODY, station_ft)
+
+
+def test_a_moment_past_the_resistance_is_said_and_is_not_out_of_service():
+    """Where the own-weight moment alone reaches M_r no axial force is left (the interaction
+    at P = 0 is past 1.0); that is said, and it is not the member's bars all being out (a
+    reviewer saw the OUT OF SERVICE test fire on it)."""
+    design = MemberDesign("U1U2", _laced_chord(), STEEL)
+    fs = (Finding("U1U2", "C1", bar_state=BarState.BROKEN),)
+    mc = member_capacity(design, MemberRole.TOP_CHORD, L, fs, False, own_weight_klf=30.0)
+    assert mc.factored_resistance("compression") == 0.0
+    assert mc.factored_resistance("tension") == 0.0
+    assert not mc.carries_nothing()
+    assert any("own-weight moment alone" in w and "can carry no axial force" in w
+               for w in mc.warnings)
+
+
+def test_a_rolled_shape_says_its_own_weight_bending_is_not_checked():
+    from rating.capacity.own_weight import OWN_WEIGHT_CHECKS
+    from rating.model import RolledShape
+
+    design = MemberDesign("U1U2", RolledShape("W12x50", 14.6, 5.18, 1.96), STEEL)
+    mc = member_capacity(design, MemberRole.TOP_CHORD, L, (), False, own_weight_klf=0.05)
+    assert not any(c.name in OWN_WEIGHT_CHECKS for c in mc.checks)
+    assert any("member U1U2: its bending under its own weight (50 plf across it) is not "
+               "checked" in a for a in mc.assumptions)
+
+
+def test_a_member_all_but_vertical_gets_no_own_weight_check():
+    from rating.capacity.own_weight import OWN_WEIGHT_CHECKS
+
+    mc = member_capacity(MemberDesign("U1L1", _laced_chord(), STEEL), MemberRole.VERTICAL, L,
+                         (), False, own_weight_klf=1e-7)
+    assert not any(c.name in OWN_WEIGHT_CHECKS for c in mc.checks)
+
+
+def test_own_weight_uses_the_section_the_buckling_check_used():
+    """Angles so corroded that the chord is rated without them (a part cannot weaken the
+    member): the own-weight check takes I_x and S_x of that same section, not of the one with
+    the thinned angles (a reviewer saw P_e of 1,958 kip for 1,229)."""
+    from rating.capacity.sections import section_properties
+
+    chord = _laced_chord(angles=True)
+    fs = (Finding("U1U2", "A1", percent_loss=80.0), Finding("U1U2", "A2", percent_loss=80.0))
+    mc = member_capacity(MemberDesign("U1U2", chord, STEEL), MemberRole.TOP_CHORD, L, fs,
+                         False, own_weight_klf=0.08)
+    assert any("taken as not carrying compression" in a for a in mc.assumptions)
+    out = fs + (Finding("U1U2", "A1", bar_state=BarState.LOOSE),
+                Finding("U1U2", "A2", bar_state=BarState.LOOSE))
+    p = section_properties(chord, member="U1U2", findings=out).compression[0].properties
+    K = 0.875
+    P_e = math.pi**2 * STEEL.E * p.I_x_in4 / (K * L * 12) ** 2
+    c = _own(mc, "compression")
+    assert _number_after("P_e = ", c.detail) == pytest.approx(P_e, rel=5e-4)
+    assert _number_after("S_x = ", c.detail) == pytest.approx(p.S_x_in3, rel=5e-4)
+    assert not any(f.bar_state is BarState.LOOSE for f in c.location.findings)
+
+
+def _number_after(label: str, text: str) -> float:
+    return float(text.split(label)[1].split(" ")[0])
