@@ -456,6 +456,12 @@ def _capitalized(text: str) -> str:
     return text[:1].upper() + text[1:]
 
 
+_WORKED_OUT = "with own-weight bending"
+"""The checks whose quantities the appendix prints under their name: their R_n is worked
+back from an interaction (rating.capacity.own_weight), not read from one formula; the
+others' quantities are in the results file (``detail``) and mostly in the sections table."""
+
+
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
     return v.name if v is not None and v.name else vid
 
@@ -804,7 +810,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         for m in results.members if m.section is not None)
     checks = tuple(CheckRow(m.id, Markup(
         f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}'
-        + (f'<br><span class="small">{breakable(c.detail)}</span>' if c.detail else "")
+        + (f'<br><span class="small">{breakable(c.detail)}</span>'
+           if c.detail and c.name.endswith(_WORKED_OUT) else "")
         + f'</td><td>{esc(c.sense)}</td>'
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'

@@ -417,3 +417,20 @@ def _closing_div(block: str) -> int:
         if depth == 0:
             return m.start()
     raise AssertionError("unclosed <div>")
+
+
+def test_the_appendix_works_out_the_own_weight_checks(sample_outcomes) -> None:
+    """A check "with own-weight bending" has an R_n worked back from an interaction
+    (rating.capacity.own_weight): the appendix prints its quantities under its name (P_r,
+    M_u, M_r, P_e and the axial force reached); the other checks' quantities stay in the
+    results file (their R_n is one formula of the sections table's numbers)."""
+    results = next(o.results for o in sample_outcomes
+                   if o.results is not None and o.workbook.name.startswith("tc0417"))
+    html = render_report(results)
+    rows = re.findall(r"<tr><td class=\"id\">[^<]*</td><td>(.*?)</td>", html)
+    own = [r for r in rows if "with own-weight bending" in r]
+    assert own and all("the interaction reaches 1.0 at P =" in r for r in own)
+    plain = [r for r in rows if r.startswith("yielding on the gross section")]
+    assert plain and not any("<br>" in r for r in plain)
+    checks = [c for m in results.members for c in m.resistance.checks]
+    assert all(c.detail for c in checks if c.name == "yielding on the gross section")
