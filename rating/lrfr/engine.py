@@ -64,6 +64,7 @@ from rating.model import (
     EyebarSet,
     Finding,
     Member,
+    MemberDesign,
     MemberRole,
     RodSet,
     TrussGeometry,
@@ -219,7 +220,8 @@ def rating_geometry(bridge: Bridge) -> TrussGeometry:
     return replace(g, members=tuple(members))
 
 
-def _across_weight_klf(g: TrussGeometry, m: Member, design, detail_allowance: float) -> float:
+def _across_weight_klf(g: TrussGeometry, m: Member, design: MemberDesign,
+                       detail_allowance: float) -> float:
     """The member's own weight per foot across its axis, kip/ft: gross area as built times
     unit weight, with the detail allowance of the dead load (rating.analysis.deadload), times
     the cosine of its slope (statics; 0 for a vertical member)."""
@@ -655,7 +657,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     assumptions: list[str] = []
 
     dead_f = dead_load_factors(st.wearing_surface_measured)
-    capacities = {}
+    capacities: dict[str, MemberCapacity] = {}
     for m in g.members:
         cap = known.get(m.label)
         if cap is None:
