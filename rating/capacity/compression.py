@@ -229,6 +229,17 @@ def _Q_text(Q_s: float, Q_a: float) -> str:
     return f"Q = Q_s Q_a = {Q_s:.3f} x {Q_a:.3f} = {Q_s * Q_a:.3f}"
 
 
+TORSIONAL_NOTE = (
+    "Members in compression are checked for flexural buckling about both axes (AASHTO LRFD "
+    "6.9.4.1.1, with Q for slender elements, and the modified slenderness of built-up "
+    "members) [value from memory]; torsional and flexural-torsional buckling (LRFD "
+    "6.9.4.1.3 [value from memory]) are not checked. They can govern a singly symmetric or "
+    "unsymmetric section that is open, such as a chord of two channels with a cover plate on "
+    "one side and lacing on the other, or single angles: the engineer should check such "
+    "members by hand.")
+"""Said once in a report with any compression member (the same words for every member)."""
+
+
 def compression_checks(report: SectionReport, material: Material, *, K: float,
                        length_ft: float, role: MemberRole | None = None,
                        tension_only: bool = False, connectors: Connectors | None = None,
@@ -333,6 +344,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     if report.kind == "rolled shape":
         assumptions.append(f"member {m}: rolled shape taken as nonslender (no element "
                            "dimensions)")
+    assumptions.append(TORSIONAL_NOTE)
     g = float(klr[0])
     lim = limit_secondary if role in SECONDARY_ROLES else limit_primary
     if math.isfinite(g) and g > lim:

@@ -212,7 +212,18 @@ def test_lacing_itself_is_not_rated_and_says_so():
     assert any("lacing bars or plates and their rivets are not checked" in a
                for a in c.assumptions)
     solid = BuiltUpSection(parts=POST.parts, connectors=Connectors(ConnectorKind.SOLID))
-    assert not any("not checked" in a for a in run(solid).assumptions)
+    assert not any("lacing bars" in a for a in run(solid).assumptions)
+
+
+def test_torsional_buckling_is_said_to_be_left_to_the_engineer():
+    """Only flexural buckling is checked; torsional and flexural-torsional buckling (AASHTO
+    LRFD 6.9.4.1.3 [value from memory]) are said to be left to the engineer, once for the
+    report (the same words for every member), and not for bars that carry no compression."""
+    from rating.capacity.compression import TORSIONAL_NOTE
+
+    assert TORSIONAL_NOTE in run(POST).assumptions
+    assert "6.9.4.1.3" in TORSIONAL_NOTE and "not checked" in TORSIONAL_NOTE
+    assert TORSIONAL_NOTE not in run(POST, tension_only=True).assumptions
 
 
 def test_a_built_up_members_elements_take_their_own_form():
