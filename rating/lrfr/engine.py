@@ -64,7 +64,6 @@ from rating.model import (
     EyebarSet,
     Finding,
     Member,
-    MemberDesign,
     MemberRole,
     RodSet,
     TrussGeometry,
@@ -220,15 +219,15 @@ def rating_geometry(bridge: Bridge) -> TrussGeometry:
     return replace(g, members=tuple(members))
 
 
-def _across_weight_klf(g: TrussGeometry, m: Member, design: MemberDesign,
+def _across_weight_klf(g: TrussGeometry, m: Member, weight: MemberWeight,
                        detail_allowance: float) -> float:
     """The member's own weight per foot across its axis, kip/ft: gross area as built times
     unit weight, with the detail allowance of the dead load (rating.analysis.deadload), times
     the cosine of its slope (statics; 0 for a vertical member)."""
     a, b = g.joint(m.start), g.joint(m.end)
     cos = abs(b.x_ft - a.x_ft) / g.member_length_ft(m.label)
-    return (gross_area_as_built_in2(design.section) / 144.0 * design.material.unit_weight_pcf
-            * (1.0 + detail_allowance) * cos / 1000.0)
+    return (weight.area_in2 / 144.0 * weight.unit_weight_pcf * (1.0 + detail_allowance) * cos
+            / 1000.0)
 
 
 def active_set_configurations(family: TrussFamily, dead_slack: frozenset[str],
@@ -657,6 +656,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     assumptions: list[str] = []
 
     dead_f = dead_load_factors(st.wearing_surface_measured)
+    weights = {m.label: MemberWeight(gross_area_as_built_in2(bridge.design_of(m.label).section),
+                                     bridge.design_of(m.label).material.unit_weight_pcf)
+               for m in g.members}
     capacities: dict[str, MemberCapacity] = {}
     for m in g.members:
         cap = known.get(m.label)
@@ -664,15 +666,12 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             cap = member_capacity(bridge.design_of(m.label), m.role,
                                   g.member_length_ft(m.label), bridge.findings_for(m.label),
                                   m.tension_only, own_weight_klf=_across_weight_klf(
-                                      g, m, bridge.design_of(m.label), st.detail_allowance),
+                                      g, m, weights[m.label], st.detail_allowance),
                                   gamma_dc=dead_f["gamma_dc_max"].value)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
 
-    weights = {m.label: MemberWeight(gross_area_as_built_in2(bridge.design_of(m.label).section),
-                                     bridge.design_of(m.label).material.unit_weight_pcf)
-               for m in g.members}
     out_of_service = frozenset(
         lab for lab, cap in capacities.items()
         if cap.carries_nothing())
