@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import numpy as np
+
 from rating.model import (
     Bridge,
     BridgeInfo,
@@ -117,3 +119,29 @@ def double_intersection_bridge(panels: int) -> Bridge:
 
     designs = tuple(MemberDesign(m.label, section(m), STEEL) for m in g.members)
     return replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+
+
+def tension_only_equilibrium(g, P: np.ndarray) -> bool:
+    """Whether any member forces balance the joint loads ``P`` (n_joints, 2) with every
+    tension-only member pulling (N >= 0): a linear program (scipy's linprog), independent of
+    the engine's active-set solver (statics of a pin-jointed truss, common practice)."""
+    from scipy.optimize import linprog
+
+    fixed = {(g.joint_index[s.joint], 1) for s in g.supports} | {
+        (g.joint_index[s.joint], 0) for s in g.supports if s.kind.value == "pin"}
+    rows = [(j, d) for j in range(len(g.joints)) for d in (0, 1) if (j, d) not in fixed]
+    at = {r: k for k, r in enumerate(rows)}
+    A = np.zeros((len(rows), len(g.members)))
+    for i, m in enumerate(g.members):
+        a, b = g.joint(m.start), g.joint(m.end)
+        u = np.array([b.x_ft - a.x_ft, b.y_ft - a.y_ft])
+        u /= np.linalg.norm(u)
+        for label, vec in ((m.start, u), (m.end, -u)):
+            for d in (0, 1):
+                k = at.get((g.joint_index[label], d))
+                if k is not None:
+                    A[k, i] += vec[d]
+    rhs = np.array([-P[j, d] for j, d in rows])
+    bounds = [(0, None) if m.tension_only else (None, None) for m in g.members]
+    res = linprog(np.zeros(len(g.members)), A_eq=A, b_eq=rhs, bounds=bounds, method="highs")
+    return res.status == 0

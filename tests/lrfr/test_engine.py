@@ -13,7 +13,7 @@ from dataclasses import replace
 
 import numpy as np
 import pytest
-from demo_bridge import make_pratt_bridge
+from demo_bridge import make_pratt_bridge, tension_only_equilibrium
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -612,32 +612,6 @@ def _double_intersection_with_eyebar_diagonals():
     return double_intersection_bridge(9)
 
 
-def _tension_only_equilibrium(g, P: np.ndarray) -> bool:
-    """Whether any member forces balance the joint loads ``P`` (n_joints, 2) with every
-    tension-only member pulling (N >= 0): a linear program (scipy's linprog), independent of
-    the engine's active-set solver (statics of a pin-jointed truss, common practice)."""
-    from scipy.optimize import linprog
-
-    fixed = {(g.joint_index[s.joint], 1) for s in g.supports} | {
-        (g.joint_index[s.joint], 0) for s in g.supports if s.kind.value == "pin"}
-    rows = [(j, d) for j in range(len(g.joints)) for d in (0, 1) if (j, d) not in fixed]
-    at = {r: k for k, r in enumerate(rows)}
-    A = np.zeros((len(rows), len(g.members)))
-    for i, m in enumerate(g.members):
-        a, b = g.joint(m.start), g.joint(m.end)
-        u = np.array([b.x_ft - a.x_ft, b.y_ft - a.y_ft])
-        u /= np.linalg.norm(u)
-        for label, vec in ((m.start, u), (m.end, -u)):
-            for d in (0, 1):
-                k = at.get((g.joint_index[label], d))
-                if k is not None:
-                    A[k, i] += vec[d]
-    rhs = np.array([-P[j, d] for j, d in rows])
-    bounds = [(0, None) if m.tension_only else (None, None) for m in g.members]
-    res = linprog(np.zeros(len(g.members)), A_eq=A, b_eq=rhs, bounds=bounds, method="highs")
-    return res.status == 0
-
-
 def test_a_bar_the_truss_would_need_to_push_limits_the_rating():
     """A double-intersection truss with eyebar diagonals: when the live load reverses a
     diagonal that the truss cannot do without (released, it leaves a mechanism), the bar would
@@ -655,8 +629,8 @@ def test_a_bar_the_truss_would_need_to_push_limits_the_rating():
     P_dead = low.gamma_dc * r.dead.joint_loads_dc_kip + low.gamma_dw * r.dead.joint_loads_dw_kip
     P_live = case.gamma_ll.value * live_joint_loads(rg, case.load, low.extreme, case.im.value,
                                                     r.distribution_factor)
-    assert _tension_only_equilibrium(rg, P_dead + 0.99 * low.rf * P_live)
-    assert not _tension_only_equilibrium(rg, P_dead + 1.01 * low.rf * P_live)
+    assert tension_only_equilibrium(rg, P_dead + 0.99 * low.rf * P_live)
+    assert not tension_only_equilibrium(rg, P_dead + 1.01 * low.rf * P_live)
     (said,) = [w for w in r.warnings if "would have to push" in w.lower()
                or "A BAR WOULD HAVE TO PUSH" in w]
     # (the mirror diagonals of the symmetric truss both)

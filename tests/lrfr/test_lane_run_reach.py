@@ -126,8 +126,13 @@ def test_a_bars_push_is_found_on_another_members_lane_pattern(panels, monkeypatc
     (invented test data; a reviewer's random bridge showed the same) the default search gave
     HL-93 inventory RFs 18 % (9 panels, U3L5) and 36 % (10 panels) above the whole deck's.
     Every member's pattern is now driven over the whole deck for the bars' pushes, and the
-    runs where one is reached are searched: the same ratings as the whole deck."""
-    from demo_bridge import double_intersection_bridge
+    runs where one is reached are searched: the same ratings as the whole deck. The lowest
+    push rating is checked by an independent linear program (scipy's linprog, statics of a
+    pin-jointed truss): just below it some equilibrium has every bar pulling, just above none
+    has."""
+    from demo_bridge import double_intersection_bridge, tension_only_equilibrium
+
+    from rating.lrfr.liveload import live_joint_loads
 
     bridge = double_intersection_bridge(panels)
     usual = rate_bridge(bridge, ["HL-93"], what_if=False)
@@ -137,3 +142,13 @@ def test_a_bars_push_is_found_on_another_members_lane_pattern(panels, monkeypatc
                for r in whole.ratings.values())
     for key, r in usual.ratings.items():
         assert r.rf == pytest.approx(whole.ratings[key].rf, rel=1e-9), key
+    pushes = [r for (_, cid), r in usual.ratings.items() if cid == "HL-93-INV"
+              and r.check == "compression: tension-only member" and 0 < r.rf < 1e9]
+    low = min(pushes, key=lambda r: r.rf)
+    case = next(c for c in usual.cases if c.id == "HL-93-INV")
+    g, d = usual.geometry, usual.dead
+    P_dead = low.gamma_dc * d.joint_loads_dc_kip + low.gamma_dw * d.joint_loads_dw_kip
+    P_live = case.gamma_ll.value * live_joint_loads(g, case.load, low.extreme, case.im.value,
+                                                    usual.distribution_factor)
+    assert tension_only_equilibrium(g, P_dead + 0.99 * low.rf * P_live)
+    assert not tension_only_equilibrium(g, P_dead + 1.01 * low.rf * P_live)
