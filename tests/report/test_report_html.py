@@ -53,9 +53,12 @@ def test_self_contained_no_network_no_script(html_us: str) -> None:
     doc = read(html_us)
     names = {t for t, _ in doc.tags}
     assert not names & {"script", "link", "img", "iframe", "object", "embed", "base", "form"}
+    ids = {attrs["id"] for _, attrs in doc.tags if "id" in attrs}
     for tag, attrs in doc.tags:
         for k, val in attrs.items():
             assert not k.startswith("on"), (tag, k)
+            if tag == "a" and k == "href" and val.startswith("#") and val[1:] in ids:
+                continue  # the contents: a place in this page, nothing fetched
             if k in ("src", "href", "xlink:href", "action"):
                 pytest.fail(f"{tag} has {k}={val!r}")
             if k == "xmlns":
@@ -434,3 +437,11 @@ def test_the_appendix_works_out_the_own_weight_checks(sample_outcomes) -> None:
     assert plain and not any("<br>" in r for r in plain)
     checks = [c for m in results.members for c in m.resistance.checks]
     assert all(c.detail for c in checks if c.name == "yielding on the gross section")
+
+
+def test_the_contents_name_every_numbered_section(html_us: str) -> None:
+    """Page 1 lists the report's ten sections, each a link to its place in this page."""
+    nav = html_us[html_us.index('<nav class="contents"'):html_us.index("</nav>")]
+    targets = re.findall(r'href="#([a-z]+)"', nav)
+    assert targets == re.findall(r'<section id="([a-z]+)">', html_us)
+    assert len(targets) == 10
