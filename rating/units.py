@@ -106,8 +106,7 @@ SI_OF_CORE = {"ft": "m", "in": "mm", "in2": "mm2", "kip": "kN", "ksi": "MPa", "k
 # as the capacity and rating layers word their warnings and assumptions.
 _TEXT_CORE_UNITS = {"kip-in": "kip-in", "kip": "kip", "ksi": "ksi", "klf": "klf", "plf": "plf",
                     "psf": "psf", "pcf": "pcf", "in3": "in3", "in2": "in2", "in^2": "in2",
-                    "in²": "in2",
-                    "ft": "ft", "in": "in", "tons": "ton", "ton": "ton"}
+                    "in²": "in2", "ft": "ft", "in": "in", "tons": "ton", "ton": "ton"}
 _SI_TEXT_NAME = {"tonne": "tonnes"}
 _TEXT_QUANTITY = re.compile(
     r"(?<![\w./^'\"-])(-?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?)( ?)"

@@ -189,7 +189,7 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         phi_cs_floor: lower limit of phi_c phi_s (default 0.85 from factors.json).
         own_weight_klf: the member's own weight per foot across its axis (details included,
             unfactored; 0 for a vertical member): the bending it makes is combined with the
-            axial force (:func:`_own_weight_checks`), factored by ``gamma_dc``.
+            axial force (rating.capacity.own_weight), factored by ``gamma_dc``.
     """
     m = design.member
     if not isinstance(length_ft, int | float) or not math.isfinite(length_ft) or length_ft <= 0:
