@@ -48,7 +48,8 @@ from rating.results import (
 from rating.units import TON_PER_TONNE, from_core, si_text
 
 METHOD = ("LRFR: MBE 6A.4.2.1, RF = (C \u2212 \u03b3DC DC \u2212 \u03b3DW DW) / "
-          "(\u03b3LL (LL + IM)), C = \u03c6c \u03c6s \u03c6 Rn")
+          "(\u03b3LL (LL + IM)), C = \u03c6c \u03c6s \u03c6 Rn (reduced for a member's "
+          "own-weight bending where that governs)")
 
 SINGLE_UNIT = {"TYPE-3", *SHVS}
 COMBINATION = {"TYPE-3S2", "TYPE-3-3", "LEGAL-LANE"}

@@ -235,8 +235,9 @@ TORSIONAL_NOTE = (
     "members) [value from memory]; torsional and flexural-torsional buckling (LRFD "
     "6.9.4.1.3 [value from memory]) are not checked. They can govern a singly symmetric or "
     "unsymmetric section that is open, such as a chord of two channels with a cover plate on "
-    "one side and lacing on the other, or single angles: the engineer should check such "
-    "members by hand.")
+    "one side and lacing on the other, or single angles: the built-up members with such a "
+    "section are named in their own notes, for the engineer to check by hand (a rolled "
+    "shape's symmetry is not known here).")
 """Said once in a report with any compression member (the same words for every member)."""
 
 
@@ -345,6 +346,12 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         assumptions.append(f"member {m}: rolled shape taken as nonslender (no element "
                            "dimensions)")
     assumptions.append(TORSIONAL_NOTE)
+    shape = report.as_built.properties.symmetry() if report.as_built.properties else ""
+    if shape in ("singly symmetric", "unsymmetric"):
+        assumptions.append(f"member {m}: a {shape} section: its torsional and "
+                           "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
+                           "memory]) are not checked here; the engineer should check them "
+                           "by hand")
     g = float(klr[0])
     lim = limit_secondary if role in SECONDARY_ROLES else limit_primary
     if math.isfinite(g) and g > lim:

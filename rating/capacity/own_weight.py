@@ -12,7 +12,13 @@ from __future__ import annotations
 import math
 
 from rating.capacity.checks import Check, Sense
-from rating.capacity.interaction import PHI_F, axial_limit_kip, own_weight_moment_kip_in
+from rating.capacity.interaction import (
+    PHI_F,
+    axial_limit_kip,
+    interaction,
+    magnifier,
+    own_weight_moment_kip_in,
+)
 from rating.capacity.sections import Location, SectionAtLocation, SectionReport
 from rating.capacity.tension import fracture_nominal, yielding_nominal
 from rating.model import Material
@@ -27,8 +33,9 @@ OWN_WEIGHT_NOTE = (
     "gamma_DC, is combined with the axial force at each location along the member by the "
     "interaction equations of AASHTO LRFD 6.8.2.3 and 6.9.2.2, magnified in compression "
     "(4.5.3.2.2b, with the member's K in the truss plane, at most 1.0) [value from memory]; "
-    "P_r and M_r = phi_f Q F_y S_x (first yield; lateral-torsional buckling of a laced or "
-    "plated member not checked) both carry the member's phi_c phi_s. The pins are taken on "
+    "P_r and M_r = phi_f F_y S_x at each location (times Q in compression; first yield; "
+    "lateral-torsional buckling of a laced or plated member not checked) both carry the "
+    "member's phi_c phi_s. The pins are taken on "
     "the centroid: an eccentric pin's moment is not included. Eyebars and rods (tension "
     "straightens them) are not checked so.")
 """The one assumption every member checked by :func:`own_weight_checks` gives (the same
@@ -104,8 +111,8 @@ def own_weight_checks(report: SectionReport, compression_report: SectionReport,
         out.append(_check(OWN_WEIGHT_CHECKS[0], buckling, buckling.phi, P_star, P_r, s,
                           M_mid, Q, F_y, phi_cs, gamma_dc, w_klf, length_ft,
                           f", P_e = {_num(P_e)} kip (in-plane K = {_num(K_in)}; moment "
-                          "magnified, C_m = 1.0, LRFD 4.5.3.2.2b)",
-                          "6.9.2.2, Eqs. 6.9.2.2-1/-2"))
+                          "magnified by delta_b = C_m / (1 - P/P_e), C_m = 1.0, LRFD "
+                          "4.5.3.2.2b)", "6.9.2.2, Eqs. 6.9.2.2-1/-2", P_e))
         if P_star == 0.0:
             warnings.append(_too_heavy(m, M_mid, s, phi_cs * PHI_F * Q * F_y))
     if tension:
@@ -139,19 +146,35 @@ def _usable(s: SectionAtLocation) -> bool:
 def _check(name: str, base: Check, phi: float, P_star: float, P_r: float,
            s: SectionAtLocation, M_mid: float, Q: float, F_y: float, phi_cs: float,
            gamma_dc: float, w_klf: float, length_ft: float, magnified: str,
-           equations: str) -> Check:
-    """One own-weight check: phi_c phi_s phi R_n = ``P_star`` at the location ``s``."""
+           equations: str, P_e: float | None = None) -> Check:
+    """One own-weight check: phi_c phi_s phi R_n = ``P_star`` at the location ``s``; its
+    text gives the terms and the interaction worked at ``P_star`` (``P_e``: compression, the
+    moment magnified)."""
     k = moment_factor(s.location, length_ft)
     S = s.properties.S_x_in3
     M_r = phi_cs * PHI_F * Q * F_y * S
-    where = "at mid-length" if k >= 1.0 - 1e-12 else f"{_num(k)} of its mid-length value here"
-    detail = (f"with {base.name}: P_r = {_num(P_r)} kip; M_u = {_num(M_mid * k)} kip-in "
+    M_u = M_mid * k
+    where = "at mid-length" if k >= 1.0 - 1e-12 else (
+        f"at {_num(s.location.station_ft)} ft, {_num(k)} of its mid-length value")
+    delta = magnifier(P_star, P_e) if P_e is not None else 1.0
+    d_txt = f"{_num(delta)} x " if P_e is not None else ""
+    if P_r > 0.0 and M_r > 0.0 and P_star / P_r >= 0.2:
+        worked = (f"P/P_r + 8/9 x {'delta_b x ' if P_e is not None else ''}M_u/M_r = "
+                  f"{_num(P_star)} kip / {_num(P_r)} kip + 8/9 x {d_txt}{_num(M_u)} kip-in / "
+                  f"{_num(M_r)} kip-in = {interaction(P_star, M_u, P_r, M_r, P_e):.3f}")
+    elif P_r > 0.0 and M_r > 0.0:
+        worked = (f"P/(2 P_r) + {'delta_b x ' if P_e is not None else ''}M_u/M_r = "
+                  f"{_num(P_star)} kip / (2 x {_num(P_r)} kip) + {d_txt}{_num(M_u)} kip-in / "
+                  f"{_num(M_r)} kip-in = {interaction(P_star, M_u, P_r, M_r, P_e):.3f}")
+    else:
+        worked = "no axial force is left"
+    detail = (f"with {base.name}: P_r = {_num(P_r)} kip; M_u = {_num(M_u)} kip-in "
               f"({where}; gamma_DC {gamma_dc:g} x w L^2/8 = {_num(M_mid)} kip-in, w = "
               f"{_num(w_klf * 1000.0)} plf across the member, L = {_num(length_ft)} ft); M_r = "
               f"{_num(M_r)} kip-in (phi_c phi_s {_num(phi_cs)} x phi_f {PHI_F:g}"
-              f"{f' x Q {Q:.3f}' if Q < 1.0 else ''} x F_y x S_x, S_x = {_num(S)} in3)"
-              f"{magnified}; the interaction reaches 1.0 at P = {_num(P_star)} kip (shown "
-              "as phi_c phi_s phi R_n; R_n is that over phi_c phi_s phi)")
+              f"{f' x Q {Q:.3f}' if Q < 1.0 else ''} x F_y x S_x, S_x = {_num(S)} in3 here)"
+              f"{magnified}; the interaction reaches 1.0 at P = {_num(P_star)} kip: {worked} "
+              "(P is shown as phi_c phi_s phi R_n; R_n is that over phi_c phi_s phi)")
     prov = (f"AASHTO LRFD {equations} [value from memory]; own weight across a pin-ended "
             "member [common practice]")
     return Check(name, base.sense, phi, P_star / (phi_cs * phi), prov, s.location, detail)

@@ -116,7 +116,8 @@ class AreaProperties:
 
     ``I_x_in4`` about the centroidal x axis (in-plane buckling), ``I_y_in4`` about the
     centroidal y axis (out-of-plane buckling), ``I_xy_in4`` the product of inertia;
-    ``y_top_in``/``y_bottom_in`` the extreme fibres in y (for the section modulus).
+    ``y_top_in``/``y_bottom_in`` and ``x_left_in``/``x_right_in`` the extreme fibres (for the
+    section modulus and the section's symmetry).
     """
 
     A_in2: float
@@ -127,6 +128,22 @@ class AreaProperties:
     I_xy_in4: float
     y_top_in: float = 0.0
     y_bottom_in: float = 0.0
+    x_left_in: float = 0.0
+    x_right_in: float = 0.0
+
+    def symmetry(self, tol: float = 1e-3) -> str:
+        """"doubly symmetric", "singly symmetric" or "unsymmetric": by where the centroid
+        lies between the extreme fibres in each direction (within ``tol`` of the depth or
+        width) and the product of inertia (common practice as a screen: a section with its
+        centroid midway between its fibres is taken as symmetric about that axis)."""
+        about_x = abs(self.y_c_in - 0.5 * (self.y_top_in + self.y_bottom_in)) <= tol * max(
+            self.y_top_in - self.y_bottom_in, 1e-12)
+        about_y = abs(self.x_c_in - 0.5 * (self.x_left_in + self.x_right_in)) <= tol * max(
+            self.x_right_in - self.x_left_in, 1e-12)
+        if abs(self.I_xy_in4) > tol * max(self.I_x_in4, self.I_y_in4, 1e-12):
+            return "unsymmetric"
+        return ("doubly symmetric" if about_x and about_y else
+                "singly symmetric" if about_x or about_y else "unsymmetric")
 
     @property
     def S_x_in3(self) -> float:
@@ -178,7 +195,9 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
         parts_xy.append(a * dx * dy)
     return AreaProperties(At, xc, yc, math.fsum(parts_x), math.fsum(parts_y),
                           math.fsum(parts_xy), max(r.cy_in + 0.5 * r.by_in for r in rects),
-                          min(r.cy_in - 0.5 * r.by_in for r in rects))
+                          min(r.cy_in - 0.5 * r.by_in for r in rects),
+                          min(r.cx_in - 0.5 * r.bx_in for r in rects),
+                          max(r.cx_in + 0.5 * r.bx_in for r in rects))
 
 
 def _rects_area_in2(rects: Sequence[Rect]) -> float:

@@ -301,10 +301,13 @@ class SectionRow:
 @dataclass(frozen=True)
 class CheckRow:
     """One resistance check in the appendix; ``cells``: the member, check, sense, phi, R_n,
-    factored resistance, provision, location and finding as HTML table cells (escaped)."""
+    factored resistance, provision, location and finding as HTML table cells (escaped);
+    ``worked``: the quantities of a check worked back from an interaction, for a row of its
+    own across the table ("" for none)."""
 
     member: str
     cells: Markup
+    worked: Markup = Markup("")
 
 
 @dataclass(frozen=True)
@@ -809,13 +812,11 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         DASH if m.section.KL_r is None else f"{m.section.KL_r:.1f}"))))
         for m in results.members if m.section is not None)
     checks = tuple(CheckRow(m.id, Markup(
-        f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}'
-        + (f'<br><span class="small">{breakable(c.detail)}</span>'
-           if c.detail and c.name.endswith(_WORKED_OUT) else "")
-        + f'</td><td>{esc(c.sense)}</td>'
+        f'<td class="id">{esc(m.id)}</td><td>{esc(c.name)}</td><td>{esc(c.sense)}</td>'
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
-        f"<td>{breakable(c.location)}</td><td>{breakable(c.finding)}</td>"))
+        f"<td>{breakable(c.location)}</td><td>{breakable(c.finding)}</td>"),
+        breakable(c.detail) if c.detail and c.name.endswith(_WORKED_OUT) else Markup(""))
         for m in results.members if m.resistance for c in m.resistance.checks)
 
     p = paper_for(d.system, paper)

@@ -422,3 +422,21 @@ def test_a_head_finding_at_mid_member_is_said_to_be_out_of_place() -> None:
     end = replace(mid, station_ft=0.5)
     assert not [w for w in section_properties(e, member="M", findings=(end,),
                                               length_ft=28.0).warnings if "far from" in w]
+
+
+def test_the_symmetry_of_a_section_from_its_rectangles():
+    """Where the centroid lies between the extreme fibres tells the axes of symmetry (a
+    screen; common practice): a plate is doubly symmetric, a tee singly, an angle
+    unsymmetric (its product of inertia is not zero)."""
+    from rating.capacity.sections import Rect, area_properties
+
+    def rect(cx, cy, bx, by):
+        return Rect("p", "plate", cx, cy, bx, by, False, bx, by, True)
+
+    assert area_properties([rect(0, 0, 10, 1)]).symmetry() == "doubly symmetric"
+    tee = [rect(0, 0, 8, 1), rect(0, -4.5, 1, 8)]
+    assert area_properties(tee).symmetry() == "singly symmetric"
+    angle = [rect(2, 0, 4, 0.5), rect(0.25, -2.25, 0.5, 4)]
+    assert area_properties(angle).symmetry() == "unsymmetric"
+    p = area_properties(tee)
+    assert (p.x_left_in, p.x_right_in, p.y_top_in, p.y_bottom_in) == (-4.0, 4.0, 0.5, -8.5)

@@ -430,11 +430,15 @@ def test_the_appendix_works_out_the_own_weight_checks(sample_outcomes) -> None:
     results = next(o.results for o in sample_outcomes
                    if o.results is not None and o.workbook.name.startswith("tc0417"))
     html = render_report(results)
-    rows = re.findall(r"<tr><td class=\"id\">[^<]*</td><td>(.*?)</td>", html)
-    own = [r for r in rows if "with own-weight bending" in r]
-    assert own and all("the interaction reaches 1.0 at P =" in r for r in own)
-    plain = [r for r in rows if r.startswith("yielding on the gross section")]
-    assert plain and not any("<br>" in r for r in plain)
+    # each such check's row is followed by a row across the table with its terms
+    own = re.findall(r'<tr class="has-worked"><td class="id">[^<]*</td><td>([^<]*)</td>.*?'
+                     r'</tr>\s*<tr class="worked"><td></td><td colspan="8">(.*?)</td></tr>',
+                     html, re.S)
+    assert own and all("with own-weight bending" in name for name, _ in own)
+    assert all("the interaction reaches 1.0 at P =" in worked for _, worked in own)
+    n_own = sum(1 for m in results.members for c in m.resistance.checks
+                if c.name.endswith("with own-weight bending"))
+    assert len(own) == n_own == html.count('<tr class="worked">')
     checks = [c for m in results.members for c in m.resistance.checks]
     assert all(c.detail for c in checks if c.name == "yielding on the gross section")
 
