@@ -69,6 +69,8 @@ class MemberCapacity:
     tension_only: bool
     removed: tuple[str, ...] = ()
     phi_cs_floor: float = 0.85
+    open_section: str = ""  # "singly symmetric" or "unsymmetric": a built-up compression
+    # member whose torsional buckling is not checked (rating.capacity.compression); else ""
 
     @property
     def phi_cs(self) -> float:
@@ -255,6 +257,9 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                              comp_at.r_x_in if comp_at else 0.0,
                              comp_at.r_y_in if comp_at else 0.0, c.Q)
     removed = tuple(comp for comp, _ in report.removed)
+    shape = (report.as_built.properties.symmetry() if report.as_built.properties is not None
+             and report.kind == "built-up" and not tension_only else "")
     return MemberCapacity(m, role, t.checks + c.checks + bending, f.phi_c, f.phi_s, f.condition,
                           f.condition_rating, summary, tuple(dict.fromkeys(warnings)),
-                          tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor)
+                          tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor,
+                          shape if shape != "doubly symmetric" else "")

@@ -471,6 +471,35 @@ def _bars_that_would_push(g: TrussGeometry, ratings: Mapping[tuple[str, str], Me
             "the engineer before any rating above that is relied on."]
 
 
+TORSIONAL_BUCKLING = "TORSIONAL BUCKLING NOT CHECKED"
+
+
+def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
+                           capacities: Mapping[str, MemberCapacity],
+                           postings: Mapping[str, CasePosting], deciding: set[str]
+                           ) -> list[str]:
+    """A member with a singly symmetric or unsymmetric built-up section that sets a posting,
+    a closure or a barring in compression: its torsional and flexural-torsional buckling
+    (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked (rating.capacity.compression),
+    and could give a lower resistance, so the decision waits on the engineer's check."""
+    out = []
+    for cid in sorted(deciding):
+        cp = postings[cid]
+        r = ratings.get((cp.controlling, cid))
+        cap = capacities.get(cp.controlling)
+        if r is None or cap is None or not cap.open_section or r.sense != "compression":
+            continue
+        out.append(cp.controlling)
+    members = list(dict.fromkeys(out))
+    if not members:
+        return []
+    return [f"{TORSIONAL_BUCKLING}: member(s) {', '.join(members)} set a posting, closure or "
+            "barring in compression and have a singly symmetric or unsymmetric built-up "
+            "section, whose torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 "
+            "[value from memory]) are not checked here; the engineer should check them before "
+            "the decision"]
+
+
 PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
 
 
@@ -836,10 +865,12 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings))
     # what sets a posting, a closure or a barring (not a rating of 1.0 or more, nor a screen)
-    controlling = {cp.controlling for cid, cp in postings.items()
-                   if any(c.id == cid and c.postable for c in cases) and not cp.screened_out
-                   and cp.result.action in (PostingAction.POST, PostingAction.CLOSE)}
+    deciding = {cid for cid, cp in postings.items()
+                if any(c.id == cid and c.postable for c in cases) and not cp.screened_out
+                and cp.result.action in (PostingAction.POST, PostingAction.CLOSE)}
+    controlling = {postings[cid].controlling for cid in deciding}
     warnings.extend(_bars_that_would_push(g, ratings, dependent, controlling))
+    warnings.extend(_torsional_not_checked(ratings, capacities, postings, deciding))
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)

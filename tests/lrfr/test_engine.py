@@ -697,3 +697,31 @@ def test_chords_and_end_posts_are_rated_with_their_own_weight_bending():
     cp = r.capacities["U2U3"]
     assert cp.governing("compression").name == OWN_WEIGHT_CHECKS[0]
     assert r.ratings[("U2U3", "TYPE-3")].check == OWN_WEIGHT_CHECKS[0]
+
+
+def test_a_singly_symmetric_chord_that_sets_the_posting_heads_a_warning():
+    """Torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from memory])
+    are not checked; where a member with a singly symmetric built-up section (channels with
+    a cover plate on one side) sets a posting or closure in compression, the warning bears on
+    the decision (a capital head: rating.results.bears_on_the_decision). Invented test data:
+    the demo Pratt with light top chords."""
+    from demo_bridge import laced_channels
+
+    from rating.lrfr.engine import TORSIONAL_BUCKLING
+    from rating.model import MemberRole
+    from rating.results import bears_on_the_decision
+
+    bridge = make_pratt_bridge(pins=False)
+    light = laced_channels(7.0, 2.09, 0.21, 0.37, 6.0, cover=(9.0, 0.25))
+    bridge = replace(bridge, member_designs=tuple(
+        replace(d, section=light) if bridge.geometry.member(d.member).role
+        is MemberRole.TOP_CHORD else d for d in bridge.member_designs))
+    r = rate_bridge(bridge, ["TYPE-3"], what_if=False)
+    cp = r.postings["TYPE-3"]
+    assert r.geometry.member(cp.controlling).role is MemberRole.TOP_CHORD
+    assert r.capacities[cp.controlling].open_section == "singly symmetric"
+    (said,) = [w for w in r.warnings if w.startswith(TORSIONAL_BUCKLING)]
+    assert f"member(s) {cp.controlling} set a posting" in said and bears_on_the_decision(said)
+    # the demo as it is: a hanger sets it, and nothing is said
+    plain = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"], what_if=False)
+    assert not [w for w in plain.warnings if w.startswith(TORSIONAL_BUCKLING)]
