@@ -313,6 +313,7 @@ class FindingEcho:
     photo: str = ""
     note: str = ""
     where: str = ""
+    estimated: bool = False  # the loss judged by eye, not measured
 
 
 @dataclass(frozen=True)

@@ -573,7 +573,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     info = b.info
     findings = tuple(FindingEcho(
         f.member, f.component, f.region.value, f.station_ft, f.remaining_thickness_in,
-        f.percent_loss, f.bar_state.value, f.condition_rating, f.photo, f.note, f.where)
+        f.percent_loss, f.bar_state.value, f.condition_rating, f.photo, f.note, f.where,
+        f.estimated)
         for f in b.findings)
     p = provisions()
     assumptions = list(rating.assumptions) + list(extra_assumptions)

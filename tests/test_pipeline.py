@@ -147,9 +147,11 @@ def test_heavy_loss_on_the_controlling_rod_leads_to_closing(tmp_path):
     wb = openpyxl.load_workbook(pony)
     ws = wb["Findings"]
     row = ws.max_row + 1
-    for col, value in zip("BCDEGJL", ["U2L3", "all", "body", 2.0, 55, 3, "heavy loss"],
-                          strict=True):
-        ws[f"{col}{row}"] = value
+    col = {str(c.value).split(" [")[0]: c.column_letter for c in ws[3] if c.value}
+    for title, value in zip(("Member", "Component", "Location", "Distance from start joint",
+                             "Loss", "Condition rating", "Note"),
+                            ["U2L3", "all", "body", 2.0, 55, 3, "heavy loss"], strict=True):
+        ws[f"{col[title]}{row}"] = value
     book = tmp_path / "pony_heavy_loss.xlsx"
     wb.save(book)
     res = rate_workbook(book).results
@@ -302,8 +304,9 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
     pratt = next(p for p in SAMPLES if "pratt" in p.name)
     wb = openpyxl.load_workbook(pratt)
     ws = wb["Findings"]
-    assert (ws["B10"].value, ws["H10"].value) == ("L3U4", "bent")
-    ws["H10"] = "loose"
+    state = next(c.column_letter for c in ws[3] if c.value == "Bar state")
+    assert (ws["B10"].value, ws[f"{state}10"].value) == ("L3U4", "bent")
+    ws[f"{state}10"] = "loose"
     book = tmp_path / "pratt_without_l3u4.xlsx"
     wb.save(book)
     without = rate_workbook(book).results

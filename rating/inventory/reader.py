@@ -1053,7 +1053,8 @@ class _Reading:
                                station_ft=station, remaining_thickness_in=remaining,
                                percent_loss=loss, bar_state=state, pack_rust=pack,
                                condition_rating=cond, photo=_s(r, "photo") or "",
-                               note=note, where=r.ref("member")))
+                               note=note, where=r.ref("member"),
+                               estimated=_s(r, "how_found") == "estimated"))
         return tuple(out)
 
     def _check_region(self, r: Row, member: str, section: Section,

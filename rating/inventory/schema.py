@@ -60,6 +60,7 @@ class Kind(StrEnum):
 
 
 YES_NO = ("yes", "no")
+HOW_FOUND = ("measured", "estimated")
 
 
 @dataclass(frozen=True)
@@ -544,6 +545,10 @@ FINDINGS = TableSheet(
         _pct("loss", "Loss", ge=0, le=100, warn_above=60,
              help="Of thickness; for a rod, of diameter (30 % of the diameter takes 51 % of "
                   "the area). The number of percent: 20 for 20 %."),
+        _c("how_found", "Loss found by", Kind.CHOICE, choices=HOW_FOUND,
+           blank_means="measured",
+           help="measured: with a gauge or caliper; estimated: judged by eye. Where an "
+                "estimated loss governs a posting, the report asks for it to be measured."),
         _c("bar_state", "Bar state", Kind.CHOICE, choices=tuple(b.value for b in BarState),
            blank_means="sound"),
         _c("pack_rust", "Pack rust", Kind.YESNO, choices=YES_NO, blank_means="no"),
@@ -552,7 +557,8 @@ FINDINGS = TableSheet(
         _c("note", "Note", Kind.TEXT, max_length=1000, width=40),
     ),
     ({"member": "L1L2", "component": "bar 2", "region": "body", "station": 6.5,
-      "remaining": 0.81, "bar_state": "sound", "pack_rust": "no", "condition": 5,
+      "remaining": 0.81, "how_found": "measured", "bar_state": "sound", "pack_rust": "no",
+      "condition": 5,
       "photo": "IMG_0142", "note": "pitting at top edge"},),
     data_rows=500,
     context="the finding on member {member}",

@@ -472,6 +472,26 @@ def _bars_that_would_push(g: TrussGeometry, ratings: Mapping[tuple[str, str], Me
 
 
 TORSIONAL_BUCKLING = "TORSIONAL BUCKLING NOT CHECKED"
+ESTIMATED_LOSS = "ESTIMATED LOSS GOVERNS"
+
+
+def _estimated_loss_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
+                            postings: Mapping[str, CasePosting], deciding: set[str]
+                            ) -> list[str]:
+    """A member that sets a posting, a closure or a barring whose governing finding's loss
+    was estimated (judged by eye) rather than measured: the decision rests on that estimate,
+    so it is headed in capitals (common practice: the loss that governs a posting is
+    measured)."""
+    found: dict[str, str] = {}
+    for cid in sorted(deciding):
+        cp = postings[cid]
+        r = ratings.get((cp.controlling, cid))
+        f = r.finding if r is not None else None
+        if f is not None and f.estimated:
+            found.setdefault(cp.controlling, f.where or cp.controlling)
+    return [f"{ESTIMATED_LOSS}: member {m}: the section loss that sets its rating was estimated, "
+            f"not measured ({where}); measure it before the posting is decided"
+            for m, where in found.items()]
 
 
 def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
@@ -871,6 +891,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     controlling = {postings[cid].controlling for cid in deciding}
     warnings.extend(_bars_that_would_push(g, ratings, dependent, controlling))
     warnings.extend(_torsional_not_checked(ratings, capacities, postings, deciding))
+    warnings.extend(_estimated_loss_governs(ratings, postings, deciding))
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)

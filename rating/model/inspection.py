@@ -35,6 +35,7 @@ class Finding:
     Loss is given either as ``remaining_thickness_in`` or as ``percent_loss`` (of thickness,
     or of diameter for a rod). ``condition_rating`` is the NBI-style 0-9 member rating.
     ``where`` is the workbook place it came from (``Findings!A12``) for messages.
+    ``estimated``: the loss was judged by eye, not measured.
     """
 
     member: str
@@ -49,3 +50,4 @@ class Finding:
     photo: str = ""
     note: str = ""
     where: str = ""
+    estimated: bool = False

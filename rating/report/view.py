@@ -775,8 +775,12 @@ def build_view(results: RatingResults, *, paper: str | None = None,
 
     findings = tuple(FindingRow(
         member=f.member, component=f.component, region=f.region,
-        station=d.field(f, "station"), remaining=d.field(f, "remaining_thickness"),
-        loss=DASH if f.percent_loss is None else f"{f.percent_loss:g}%",
+        station=d.field(f, "station"),
+        remaining=d.field(f, "remaining_thickness") + (
+            " estimated" if f.estimated and f.percent_loss is None
+            and f.remaining_thickness is not None else ""),
+        loss=DASH if f.percent_loss is None else f"{f.percent_loss:g}%" + (
+            " estimated" if f.estimated else ""),
         bar_state=f.bar_state, condition=DASH if f.condition_rating is None
         else str(f.condition_rating), photo=f.photo, note=f.note, where=f.where)
         for f in results.findings)

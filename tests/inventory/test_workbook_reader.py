@@ -69,6 +69,20 @@ def test_findings_carried_faithfully(base) -> None:
     rod = base.findings_for("L1U1")[0]
     # a rod is named as a reviewer calls it ("rod 1"), as the workbook names it
     assert rod.component == "rod 1" and rod.region is FindingRegion.THREAD
+    assert not f.estimated and not rod.estimated  # (blank: measured)
+
+
+def test_a_loss_judged_by_eye_is_carried_as_estimated(tmp_path) -> None:
+    d = fresh()
+    d["tables"]["Findings"][0]["how_found"] = "estimated"
+    d["tables"]["Findings"][1]["how_found"] = "measured"
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    assert r.bridge.findings_for("L1L2")[0].estimated
+    assert not r.bridge.findings_for("U1U2")[0].estimated
+    d["tables"]["Findings"][0]["how_found"] = "guessed"
+    bad = check(tmp_path, d, name="bad.xlsx")
+    find(bad, cell("Findings", 0, "how_found"), "must be one of")
 
 
 def test_pins_loads_vehicles_settings(base) -> None:

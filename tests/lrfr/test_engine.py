@@ -725,3 +725,29 @@ def test_a_singly_symmetric_chord_that_sets_the_posting_heads_a_warning():
     # the demo as it is: a hanger sets it, and nothing is said
     plain = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"], what_if=False)
     assert not [w for w in plain.warnings if w.startswith(TORSIONAL_BUCKLING)]
+
+
+def test_an_estimated_loss_that_sets_the_posting_heads_a_warning():
+    """A loss judged by eye (the Findings sheet's "Loss found by": estimated) that governs the
+    member setting a posting: the decision rests on an estimate, so the warning bears on it
+    (common practice: the loss that governs a posting is measured). The same loss measured
+    says nothing. Invented test data."""
+    from rating.lrfr.engine import ESTIMATED_LOSS
+    from rating.model import Finding, FindingRegion
+    from rating.results import bears_on_the_decision
+
+    def rated(estimated: bool):
+        loss = Finding("L3U4", "rod 1", FindingRegion.BODY, station_ft=10.0, percent_loss=20.0,
+                       where="Findings!B7", estimated=estimated)
+        return rate_bridge(make_pratt_bridge(pins=False, findings=(loss,)), ["TYPE-3"],
+                           what_if=False)
+
+    r = rated(True)
+    cp = r.postings["TYPE-3"]
+    assert cp.controlling == "L3U4" and cp.result.action.value == "post"
+    (said,) = [w for w in r.warnings if w.startswith(ESTIMATED_LOSS)]
+    assert said == (f"{ESTIMATED_LOSS}: member L3U4: the section loss that sets its rating was "
+                    "estimated, not measured (Findings!B7); measure it before the posting is "
+                    "decided")
+    assert bears_on_the_decision(said)
+    assert not [w for w in rated(False).warnings if w.startswith(ESTIMATED_LOSS)]

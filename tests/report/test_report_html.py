@@ -449,3 +449,19 @@ def test_the_contents_name_every_numbered_section(html_us: str) -> None:
     targets = re.findall(r'href="#([a-z]+)"', nav)
     assert targets == re.findall(r'<section id="([a-z]+)">', html_us)
     assert len(targets) == 10
+
+
+def test_an_estimated_loss_is_marked_in_the_findings_echo(results_us: RatingResults) -> None:
+    """A loss judged by eye is echoed with the word "estimated" beside it (the Findings sheet's
+    "Loss found by"), and the results file carries it."""
+    from dataclasses import replace
+
+    from rating.results import results_json
+
+    f0 = results_us.findings[0]
+    said = replace(results_us, findings=(replace(f0, estimated=True),) + results_us.findings[1:])
+    html = render_report(said)
+    body = html[html.index('<section id="findings">'):html.index('<section id="vehicles">')]
+    assert body.count(" estimated</td>") == 1
+    assert '"estimated":true' in results_json(said)
+    assert " estimated</td>" not in render_report(results_us)
