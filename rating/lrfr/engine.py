@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import itertools
 import math
-from collections.abc import Callable, Mapping, Sequence
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field, replace
 
 import numpy as np
@@ -483,15 +483,24 @@ def _estimated_loss_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
     so it is headed in capitals (common practice: the loss that governs a posting is
     measured)."""
     found: dict[str, str] = {}
-    for cid in sorted(deciding):
-        cp = postings[cid]
-        r = ratings.get((cp.controlling, cid))
-        f = r.finding if r is not None else None
-        if f is not None and f.estimated:
-            found.setdefault(cp.controlling, f.where or cp.controlling)
+    for m, r in _deciding_ratings(ratings, postings, deciding):
+        if r.finding is not None and r.finding.estimated:
+            found.setdefault(m, r.finding.where or m)
     return [f"{ESTIMATED_LOSS}: member {m}: the section loss that sets its rating was estimated, "
             f"not measured ({where}); measure it before the posting is decided"
             for m, where in found.items()]
+
+
+def _deciding_ratings(ratings: Mapping[tuple[str, str], MemberCaseRating],
+                      postings: Mapping[str, CasePosting], deciding: set[str]
+                      ) -> Iterator[tuple[str, MemberCaseRating]]:
+    """The member and its rating that sets each of the ``deciding`` cases (a posting, a
+    closure or a barring), in the cases' order; a pin that sets one gives none."""
+    for cid in sorted(deciding):
+        member = postings[cid].controlling
+        r = ratings.get((member, cid))
+        if r is not None:
+            yield member, r
 
 
 def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
@@ -502,15 +511,9 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
     a closure or a barring in compression: its torsional and flexural-torsional buckling
     (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked (rating.capacity.compression),
     and could give a lower resistance, so the decision waits on the engineer's check."""
-    out = []
-    for cid in sorted(deciding):
-        cp = postings[cid]
-        r = ratings.get((cp.controlling, cid))
-        cap = capacities.get(cp.controlling)
-        if r is None or cap is None or not cap.open_section or r.sense != "compression":
-            continue
-        out.append(cp.controlling)
-    members = list(dict.fromkeys(out))
+    members = list(dict.fromkeys(
+        m for m, r in _deciding_ratings(ratings, postings, deciding)
+        if capacities[m].open_section and r.sense == "compression"))
     if not members:
         return []
     return [f"{TORSIONAL_BUCKLING}: member(s) {', '.join(members)} set a posting, closure or "
