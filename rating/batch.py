@@ -30,7 +30,13 @@ from typing import Any, TextIO
 
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
-from rating.results import DECISION_NOTE, EMERGENCY, overall_action, reported_rf
+from rating.results import (
+    DECISION_NOTE,
+    EMERGENCY,
+    overall_action,
+    permit_words,
+    reported_rf,
+)
 
 SUMMARY_CSV = "summary.csv"
 INDEX_HTML = "index.html"
@@ -54,7 +60,8 @@ class VehicleLine:
     rf: float | None
     member: str
     action: str  # "none", "post", "close", "bar" (an emergency vehicle that cannot be
-    # posted), "not posted" (a screening load below 1.0) or "design-load rating" (HL-93)
+    # posted), "not posted" (a screening load below 1.0), "design-load rating" (HL-93) or
+    # the words of rating.results.permit_words (a permit load)
     posting: float | None  # safe posting load, display weight unit, whole units
     category: str = ""  # the vehicle's category (rating.results.VehicleResult.category)
 
@@ -230,6 +237,8 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
             action = "bar"  # an emergency vehicle that cannot be posted: not a closure
         if action == "none" and v.rating_level in ("inventory", "operating"):
             action = "design-load rating"  # as in the report: HL-93 is never posted
+        if entry is not None and v.rating_level == "permit":
+            action = permit_words(entry.rf)  # as in the report: a permit is never posted
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
                                     entry.member if entry is not None else "", action,
                                     posting, v.category))

@@ -281,6 +281,14 @@ class PostingResultEntry:
                 and reported_rf(self.rf) < 1.0)
 
 
+def permit_words(rf: float) -> str:
+    """What a permit load's RF says, in a word for tables: at least 1.0 as printed, the
+    permit can be carried as rated (MBE 6A.4.5 [value from memory]); below, not as
+    requested. A permit is never posted."""
+    return ("permit: can be carried" if math.isfinite(rf) and reported_rf(rf) >= 1.0
+            or rf == math.inf else "permit: not as requested")
+
+
 EMERGENCY = "emergency"
 """The category of the emergency vehicles (rating.vehicles: VehicleCategory.EMERGENCY)."""
 

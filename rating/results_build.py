@@ -318,9 +318,11 @@ def recommendation(rating: BridgeRating, unit: str,
     reads first that the posting holds only if that member acts (a reviewer would not sign a
     "post" headline with the closure only in a warning)."""
     text = _recommendation(rating, unit, report)
+    # the permits last, after any condition on the bridge's own posting
+    permits = _permit_text(rating) + DECISION_NOTE
     hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
     if not hinge or text.startswith("Consider closing"):
-        return text
+        return text.removesuffix(DECISION_NOTE) + permits
     names = ", ".join(w.what(m) for m, w in hinge.items())
     if_not = "; ".join(
         f"without {w.what(m)}, "
@@ -331,7 +333,25 @@ def recommendation(rating: BridgeRating, unit: str,
     return (f"Only if {names} {'is' if one else 'are'} confirmed to act (recorded bent): "
             + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
             + f" If {'it does' if one else 'they do'} not act, consider closing the bridge "
-            f"({if_not}; members only, see the warning)." + DECISION_NOTE)
+            f"({if_not}; members only, see the warning)." + permits)
+
+
+def _permit_text(rating: BridgeRating) -> str:
+    """The permits rated, each with its RF and what it says of the permit (at least 1.0 as
+    printed: can be carried as rated; MBE 6A.4.5 [value from memory]); a permit never posts
+    or closes the bridge."""
+    permits = [c for c in rating.cases if c.category.is_permit]
+    if not permits:
+        return ""
+    parts = []
+    for c in permits:
+        cp = rating.postings[c.id]
+        ok = reported_rf(cp.rf) >= 1.0
+        parts.append(f"{c.load.name} ({c.category.value}) RF {_rf_words(cp.rf)}"
+                     + (f", {cp.controlling}" if cp.controlling else "")
+                     + (": can be carried as rated" if ok else ": not as requested"))
+    return (" Permit loads (for the permit's issue, not a posting): " + "; ".join(parts)
+            + ".")
 
 
 def _recommendation(rating: BridgeRating, unit: str,
@@ -470,8 +490,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         axles = next((m.axles for m in load.models if m.axles is not None), None)
         lane = max((m.lane_load_klf for m in load.models), default=0.0)
         vehicles.append(VehicleResult(
-            id=case.id, name=load.name + (f" ({case.level.value})"
-                                          if case.level is not RatingLevel.LEGAL else ""),
+            id=case.id, name=load.name + (f" ({case.level.value})" if case.level in (
+                RatingLevel.INVENTORY, RatingLevel.OPERATING) else ""),
             category=load.category.value, gross_weight=load.gross_weight_tons,
             # the axles as they act (the lane-type legal load takes 0.75 of the Type 3-3's)
             axle_loads=tuple(float(a) * axles.axle_scale for a in axles.axle_loads_kip)

@@ -245,10 +245,19 @@ def pratt_1898() -> WorkbookContent:
     sheets["Vehicles"].append({"vehicle": "TAM-PLOW", "name": "county snowplow, tandem",
                                "category": "owner", "gross": 27.0,
                                "note": "invented county fleet truck"})
+    sheets["Vehicles"].append({"vehicle": "TAM-CRANE", "name": "mobile crane to Hollis Mill",
+                               "category": "single-trip permit",
+                               "note": "invented permit request: one crossing, mixed with "
+                                       "traffic"})
     sheets["Axles"] += [
         {"vehicle": "TAM-PLOW", "axle": 1, "load": 14.0},
         {"vehicle": "TAM-PLOW", "axle": 2, "load": 20.0, "spacing": 13.5},
         {"vehicle": "TAM-PLOW", "axle": 3, "load": 20.0, "spacing": 4.5},
+        {"vehicle": "TAM-CRANE", "axle": 1, "load": 12.0},
+        {"vehicle": "TAM-CRANE", "axle": 2, "load": 20.0, "spacing": 12.0},
+        {"vehicle": "TAM-CRANE", "axle": 3, "load": 20.0, "spacing": 4.5},
+        {"vehicle": "TAM-CRANE", "axle": 4, "load": 20.0, "spacing": 4.5},
+        {"vehicle": "TAM-CRANE", "axle": 5, "load": 20.0, "spacing": 4.5},
     ]
     bridge = {
         "units": "US", "structure_id": "TC-0417", "name": "Hollis Mill Road over Tamarack Creek",

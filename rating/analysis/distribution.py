@@ -241,3 +241,21 @@ def lateral_distribution(
                             f"below the lever-rule value {lever:.3f}")
     return DistributionResult(factor, basis, lever, governing, tuple(cases), n, lane_w, w, S,
                               tuple(dict.fromkeys(warnings)))
+
+
+SOURCE_ONE_VEHICLE = ("MBE Table 6A.4.5.4.2a-1 (DF: one lane for special permits) and MBE "
+                      "C6A.4.5.4.2a (the multiple presence factor of 1.20 divided out for the "
+                      "permit vehicle alone) [value from memory]")
+
+
+def one_vehicle_alone(result: DistributionResult) -> LaneCase:
+    """The share of one vehicle alone in one lane, with no multiple presence (m = 1.0), on
+    the truss it loads most: the lever-rule one-lane case of ``result`` with its multiple
+    presence factor divided out, for a special permit.
+
+    MBE Table 6A.4.5.4.2a-1 and C6A.4.5.4.2a [value from memory]; lever rule [common
+    practice].
+    """
+    one = [c for c in result.cases if c.loaded_lanes == 1]
+    best = max(one, key=lambda c: round(c.share, 12))
+    return LaneCase(best.truss, 1, 1.0, best.wheel_offsets_ft, best.share, best.share)

@@ -1435,6 +1435,7 @@ class _Reading:
                                axle_loads_kip=tuple(loads), spacings=tuple(spacings),
                                gross_weight_tons=gross if gross is not None else total_tons,
                                lane_load_klf=_f(vr, "lane_load") or 0.0,
+                               gamma_ll=_f(vr, "gamma_ll"),
                                source="owner's vehicle, inspection workbook",
                                tag="owner data", where=vr.ref("vehicle")))
         return tuple(out)

@@ -264,11 +264,13 @@ SETTINGS = FormSheet(
            blank_means="MBE 2018", help="Live-load factors for legal loads by ADTT."),
         _pct("im_override", "Dynamic load allowance override", ge=0, le=100, warn_above=50,
              blank_means="by vehicle and riding surface",
-             help="For the legal loads, SHVs, emergency and owner vehicles; HL-93 keeps 33 %."),
+             help="For the legal loads, SHVs, emergency, owner and permit vehicles; HL-93 "
+                  "keeps 33 %."),
         _c("gamma_ll_override", "Live-load factor override", Kind.NUMBER, gt=0, le=3,
            warn_below=1.0, warn_above=2.0, blank_means="by vehicle, limit state and ADTT",
            help="For the legal loads, SHVs, emergency and owner vehicles; HL-93 keeps its "
-                "inventory and operating factors."),
+                "inventory and operating factors, a permit its own (or the one given on the "
+                "Vehicles sheet)."),
         _c("df_override", "Distribution factor override", Kind.NUMBER, unit="lanes per truss",
            gt=0, le=3, warn_above=1.5, blank_means="lever rule across the floorbeam"),
         _pct("detail_allowance", "Detail allowance on truss self-weight", ge=0, le=100,
@@ -627,18 +629,24 @@ DEADLOADS = TableSheet(
 
 VEHICLES = TableSheet(
     "Vehicles", "The owner's vehicles",
-    "Vehicles of the owner (local legal or service trucks), rated and posted as legal loads; "
-    "permit loads are not rated here (their own load factors, no posting). Their axles go on "
-    "Axles.",
+    "Vehicles of the owner: local legal or service trucks, rated and posted as legal loads, "
+    "and permit loads, rated for the permit's issue with their own load factors and never "
+    "posted. Their axles go on Axles.",
     (
         _c("vehicle", "Vehicle id", Kind.LABEL, required=True),
         _c("name", "Name", Kind.TEXT, required=True, width=28),
         _c("category", "Category", Kind.CHOICE, choices=OWNER_CATEGORIES, blank_means="owner",
            help="Decides the live-load factor: legal and specialized hauling use the legal-load "
-           "factors, emergency its own."),
+           "factors, emergency its own; a permit (routine, single-trip escorted or mixed with "
+           "traffic, multiple-trip) the permit factors, and a special (single- or "
+           "multiple-trip) permit one lane loaded."),
         _c("gross", "Gross weight", Kind.NUMBER, TON, gt=0, le=200,
            blank_means="sum of the axle loads"),
         _c("lane_load", "Lane load", Kind.NUMBER, KLF, ge=0, le=5, blank_means="0"),
+        _c("gamma_ll", "Live-load factor", Kind.NUMBER, gt=0, le=3, warn_below=1.0,
+           warn_above=2.0, blank_means="by category and ADTT",
+           help="The owner's live-load factor for this vehicle, in place of the one its "
+                "category gives."),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"vehicle": "OWN-1", "name": "county tandem dump truck", "category": "owner",

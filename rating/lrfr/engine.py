@@ -21,7 +21,12 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from rating.analysis.deadload import DeadLoadResult, MemberWeight, dead_load
-from rating.analysis.distribution import lateral_distribution
+from rating.analysis.distribution import (
+    SOURCE_ONE_VEHICLE,
+    DistributionResult,
+    lateral_distribution,
+    one_vehicle_alone,
+)
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
 from rating.analysis.path import member_load_multiplier
@@ -321,9 +326,17 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
                 g_ll = live_load_factor(load.category, level, st.adtt_one_direction,
                                         st.provision_set, None)
                 cases.append(RatingCase(f"{load.id}-{suffix}", load, level, g_ll, im))
+        elif load.category.is_permit:
+            # (the owner's gamma_LL on the Settings sheet is for the legal loads; a permit
+            # takes its own, or the one given with the vehicle)
+            g_ll = live_load_factor(load.category, RatingLevel.PERMIT, st.adtt_one_direction,
+                                    st.provision_set, load.gamma_ll,
+                                    weight_ratio_kip_per_ft=load.weight_ratio_kip_per_ft)
+            cases.append(RatingCase(load.id, load, RatingLevel.PERMIT, g_ll, im))
         else:
             g_ll = live_load_factor(load.category, RatingLevel.LEGAL, st.adtt_one_direction,
-                                    st.provision_set, st.gamma_ll_override)
+                                    st.provision_set, load.gamma_ll if load.gamma_ll is not None
+                                    else st.gamma_ll_override)
             cases.append(RatingCase(load.id, load, RatingLevel.LEGAL, g_ll, im))
     if st.im_override is not None and any(
             c.load.category is VehicleCategory.DESIGN for c in cases):
@@ -654,6 +667,39 @@ def without_text(member: str, w: WithoutMember) -> str:
             "were not rated again, so this RF is the most that rating could give.")
 
 
+def _case_distribution(cases: Sequence[RatingCase], dist: DistributionResult
+                       ) -> tuple[dict[str, float], list[str]]:
+    """Each case's fraction of one vehicle to one truss, and notes on the ones that differ
+    from the bridge's: a special permit is rated with one vehicle alone in one lane, the
+    multiple presence factor divided out (MBE Table 6A.4.5.4.2a-1, C6A.4.5.4.2a [value from
+    memory]); a routine permit, like every other load, with the governing lever-rule case."""
+    out: dict[str, float] = {}
+    notes: list[str] = []
+    special = [c for c in cases if c.category.is_special_permit]
+    alone = one_vehicle_alone(dist) if special else None
+    for c in cases:
+        out[c.id] = dist.factor
+        if alone is not None and c in special and dist.basis != "owner override":
+            out[c.id] = alone.factor
+    if alone is not None:
+        names = ", ".join(c.id for c in special)
+        if dist.basis == "owner override":
+            notes.append(
+                f"Special permits ({names}) take the owner's distribution factor "
+                f"{dist.factor:.3f} as given; the permit rules load one lane with the "
+                "multiple presence factor divided out (lever rule: "
+                f"{alone.share:.3f}; {SOURCE_ONE_VEHICLE}).")
+        else:
+            notes.append(
+                f"Special permits ({names}) are rated with the permit vehicle alone in one "
+                f"lane, as near the {alone.truss} truss as the lane rules allow, with no "
+                f"multiple presence: lever-rule share {alone.share:.3f} "
+                f"({SOURCE_ONE_VEHICLE}); the "
+                "other loads use the bridge's distribution factor "
+                f"{dist.factor:.3f}.")
+    return out, notes
+
+
 PUSH_ROUND_OFF = 1e-8
 """The push (a fraction of the largest dead-load force) at which a tension-only member in
 forced compression is taken to have to carry compression (:func:`_sense_plans`)."""
@@ -778,10 +824,11 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             f"load that of the {dist.governing.truss} truss (the larger share): the two are "
             "combined, conservative where they differ (common practice); rating each truss on "
             "its own would give a closer result.")
-    df = dist.factor
     warnings.extend(dist.warnings)
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
+    assumptions.extend(notes)
+    df_of, notes = _case_distribution(cases, dist)
     assumptions.extend(notes)
     if st.wearing_surface_measured:
         if np.any(dead.joint_loads_dw_surface_kip):
@@ -812,7 +859,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     plans_of: dict[str, dict[str, list[_SensePlan]]] = {}
     resist = {lab: _resistances(cap) for lab, cap in capacities.items()}
     for case in cases:
-        im = case.im.value
+        im, df = case.im.value, df_of[case.id]
         member_envs: dict[str, list[MemberEnvelope]] = {}
         for m in g.members:
             lab = m.label
@@ -844,13 +891,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     # The members whose force depends on the counters' active set, and the pins: every
     # position of every rating load on its exact load path, all at once (one load at one IM
     # serves all its rating levels: lam is found with gamma_LL = 1)
-    groups: dict[tuple[str, float], list[RatingCase]] = {}
+    groups: dict[tuple[str, float, float], list[RatingCase]] = {}
     for case in cases:
-        groups.setdefault((case.load.id, case.im.value), []).append(case)
+        groups.setdefault((case.load.id, case.im.value, df_of[case.id]), []).append(case)
     group_cases = [tuple(gc) for gc in groups.values()]
     group_plans = [plans_of[gc[0].id] for gc in group_cases]
-    batch = PositionBatch([_positions(g, gc[0], df, envs, distinct_rows, pl, dependent, table,
-                                      dead_states)
+    batch = PositionBatch([_positions(g, gc[0], df_of[gc[0].id], envs, distinct_rows, pl,
+                                      dependent, table, dead_states)
                            for gc, pl in zip(group_cases, group_plans, strict=True)])
     stores = {fs: PathStore(table, fs, P, state, batch.p)
               for fs, (P, state) in dead_states.items()}
@@ -867,7 +914,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                                       lambda k: table.slack[k])
                     if (r.sense == "compression" and g.member(lab).tension_only
                             and 0.0 < r.rf < math.inf and not _push_confirmed(
-                                family, g, lab, r, case, df, push_kip, dead_states)):
+                                family, g, lab, r, case, df_of[case.id], push_kip,
+                                dead_states)):
                         # the regions' path forced the bar where the exact path does not:
                         # rated by its tension alone, as before such bars were rated to push
                         pull = [pl for pl in pls if pl.sense > 0]
@@ -911,7 +959,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     return BridgeRating(
         bridge=bridge, geometry=g, capacities=capacities, dead=dead, lines=lines[configs[0]],
         configs=configs, lines_by_config=lines, cases=cases, live=live, ratings=ratings, pins=pins,
-        postings=postings, distribution_factor=df, distribution_note=dist.description,
+        postings=postings, distribution_factor=dist.factor,
+        distribution_note=dist.description,
         dependent_members=dependent,
         warnings=tuple(dict.fromkeys(warnings)), assumptions=tuple(dict.fromkeys(assumptions)),
         provisions=tuple(dict.fromkeys(
@@ -1321,6 +1370,7 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
         if not case.postable:
             result = replace(result, posting_tons=None, action=PostingAction.NONE)
             out[case.id] = CasePosting(case.id, rf, who, result, note=(
+                permit_verdict(case.category, rf) if case.category.is_permit else
                 f"design-load rating at the {case.level.value} level; posting is decided from "
                 "the legal loads"), alike=alike)
             continue
@@ -1347,6 +1397,21 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                     "cover this SHV for the member that controls it, so it is posted on its "
                     "own" + (f"; {cp.note}" if cp.note else "")))
     return out
+
+
+def permit_verdict(category: VehicleCategory, rf: float) -> str:
+    """What a permit load's rating factor says of the permit, for the engineer's decision:
+    at least 1.0 as printed, the bridge can carry it as rated (MBE 6A.4.5 [value from
+    memory]); below, not as requested. A permit is never a reason to post or close."""
+    if reported_rf(rf) >= 1.0:
+        return (f"permit load ({category.value}): RF at least 1.0, so the truss members and "
+                "pins can carry this permit under the conditions of its type; issuing it is "
+                "the owner's decision")
+    escort = "" if category is VehicleCategory.PERMIT_ESCORTED else "an escort, "
+    return (f"permit load ({category.value}): RF below 1.0, so this permit should not cross "
+            f"as requested; a lighter or longer vehicle, {escort}or other conditions are "
+            "for the engineer in responsible charge to consider (no posting follows from a "
+            "permit)")
 
 
 SHVS = ("SU4", "SU5", "SU6", "SU7")

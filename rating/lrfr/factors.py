@@ -24,6 +24,7 @@ class RatingLevel(StrEnum):
     INVENTORY = "inventory"
     OPERATING = "operating"
     LEGAL = "legal"
+    PERMIT = "permit"
 
 
 @dataclass(frozen=True)
@@ -118,20 +119,60 @@ def legal_live_load_factor(adtt_one_direction: float | None,
                   f"{s['source']}; ADTT = {adtt_one_direction:g}", s["tag"])
 
 
+def permit_live_load_factor(category: VehicleCategory, adtt_one_direction: float | None,
+                            weight_ratio_kip_per_ft: float) -> Factor:
+    """Live load factor of a permit load by permit type, ADTT in one direction (linear between
+    the tabulated ADTT; unknown ADTT takes the largest) and, for a routine permit, the permit
+    weight ratio GVW / AL (gross weight over the distance from the first axle to the last,
+    kip/ft; up to 2.0, between 2.0 and 3.0, 3.0 and over).
+
+    MBE Table 6A.4.5.4.2a-1 [value from memory, uncertain].
+    """
+    d = provisions()["permit"]
+    row = d[category.value]
+    src, tag = d["source"], d["tag"]
+    if "value" in row:
+        return Factor("gamma_LL", row["value"], f"{src}; {category.value}: {row['lanes']}", tag)
+    if adtt_one_direction is not None and adtt_one_direction < 0:
+        raise InputError(f"ADTT {adtt_one_direction} cannot be negative")
+    col = None
+    words = f"{category.value}: {row['lanes']}"
+    if "ratio_columns_kip_per_ft" in row:
+        lo, hi = row["ratio_columns_kip_per_ft"]
+        r = weight_ratio_kip_per_ft
+        col = 0 if r <= lo else 1 if r < hi else 2
+        words += (f"; GVW/AL = {r:.2f} kip/ft ("
+                  + ("up to", "between", "at least")[col] + " "
+                  + (f"{lo:g}", f"{lo:g} and {hi:g}", f"{hi:g}")[col] + ")")
+    if adtt_one_direction is None:
+        value = row["unknown"] if col is None else row["unknown"][col]
+        return Factor("gamma_LL", value, f"{src}; {words}; ADTT unknown", tag)
+    x = [pt[0] for pt in row["points"]]
+    y = [pt[1] if col is None else pt[1][col] for pt in row["points"]]
+    value = float(np.interp(adtt_one_direction, x, y))
+    return Factor("gamma_LL", round(value, 4),
+                  f"{src}; {words}; ADTT = {adtt_one_direction:g} (linear between the ADTT "
+                  "values)", tag)
+
+
 def live_load_factor(category: VehicleCategory, level: RatingLevel,
                      adtt_one_direction: float | None = None,
                      provision_set: str = "MBE 2018",
-                     override: float | None = None) -> Factor:
+                     override: float | None = None,
+                     weight_ratio_kip_per_ft: float = 0.0) -> Factor:
     """Live load factor gamma_LL for a vehicle category and rating level.
 
     Design load: AASHTO LRFD Table 3.4.1-1 Strength I (inventory) [V]; MBE Table 6A.4.2.2-1
     (operating) [value from memory]. Legal, specialized hauling and owner vehicles: the legal
     load factors [value from memory]. Emergency vehicles: MBE 6A.4.4.2.3 [value from memory].
+    Permits: MBE Table 6A.4.5.4.2a-1 (:func:`permit_live_load_factor`) [value from memory].
     """
     if override is not None:
         if not 0.5 <= override <= 3.0:
             raise InputError(f"live load factor override {override} is outside 0.5..3.0")
         return Factor("gamma_LL", override, "owner override", "owner's value")
+    if category.is_permit:
+        return permit_live_load_factor(category, adtt_one_direction, weight_ratio_kip_per_ft)
     p = provisions()
     if category is VehicleCategory.DESIGN:
         d = p["design"]

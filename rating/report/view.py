@@ -30,6 +30,7 @@ from rating.results import (
     RatingResults,
     VehicleResult,
     overall_action,
+    permit_words,
     reported_rf,
 )
 
@@ -49,7 +50,8 @@ def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display,
                 category: str = "") -> str:
     """What a rating case's posting outcome says, in the words of the report's summary (and
     of the command's printout, so the two never differ): the safe posting load in whole
-    display units, "design-load rating" for HL-93, "not posted" for a screening load rated
+    display units, "design-load rating" for HL-93, "permit: ..." for a permit load
+    (rating.results.permit_words), "not posted" for a screening load rated
     below 1.0 (PostingResultEntry.not_posted_below_one), "consider barring" for an emergency
     vehicle that cannot be posted (the bridge is not closed for it:
     rating.results_build.recommendation)."""
@@ -63,6 +65,8 @@ def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display,
         return f"post for {amount} {unit}{'' if amount == '1' else 's'}"
     if rating_level in ("inventory", "operating") and entry.action == "none":
         return "design-load rating"
+    if rating_level == "permit":
+        return permit_words(entry.rf)
     if entry.not_posted_below_one(rating_level):
         return "not posted"
     return ACTION_TEXT.get(entry.action, entry.action)

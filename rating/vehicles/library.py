@@ -66,6 +66,16 @@ class RatingLoad:
     min_span_ft: float | None = None
     source: str = ""
     tag: str = ""
+    gamma_ll: float | None = None  # the owner's live-load factor for it (None: by category)
+
+    @property
+    def weight_ratio_kip_per_ft(self) -> float:
+        """The permit weight ratio GVW / AL: gross weight (kip) over the distance from the
+        first axle to the last at the longest spacings (ft) of its first vehicle; inf for one
+        axle (MBE Table 6A.4.5.4.2a-1 [value from memory])."""
+        axles = next((m.axles for m in self.models if m.axles is not None), None)
+        length = axles.axle_length_ft if axles is not None else 0.0
+        return 2.0 * self.gross_weight_tons / length if length > 0 else math.inf
 
     def applies_to(self, span_ft: float) -> bool:
         """True when the load is to be rated on a span of ``span_ft`` (compared to a millionth
@@ -178,7 +188,7 @@ def as_rating_load(v: Vehicle, *, neglect_opposing_axles: bool = False) -> Ratin
     axles = v if v.axle_count else None
     model = LoadModel(v.name, axles, v.lane_load_klf, neglect_opposing_axles)
     return RatingLoad(v.id, v.name, v.category, (model,), v.gross_weight_tons, v.min_span_ft,
-                      v.source, v.tag)
+                      v.source, v.tag, v.gamma_ll)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -220,13 +230,15 @@ def make_vehicle(
     source: str = "",
     tag: str = "",
     where: str = "",
+    gamma_ll: float | None = None,
 ) -> Vehicle:
     """Build and check a vehicle; owner vehicles from the workbook come through here.
 
     Axle loads front to rear; one spacing per gap, a number or a ``(min, max)`` range. SI is
     accepted through ``rating.units`` (e.g. ``force_unit="kN", length_unit="m",
     weight_unit="tonne", line_load_unit="kN/m"``). ``gross_weight`` defaults to the sum of the
-    axles. Every problem raises InputError naming the vehicle and ``where`` (its Sheet!Cell).
+    axles. ``gamma_ll``: the owner's live-load factor for the vehicle. Every problem raises
+    InputError naming the vehicle and ``where`` (its Sheet!Cell).
     """
     label = f"vehicle {id!r}" if id else "a vehicle"
     if not str(id).strip():
@@ -272,10 +284,15 @@ def make_vehicle(
     if w_tons < 0 or (loads and w_tons == 0):
         raise InputError(f"{label}: gross weight must be positive", where)
     span = None if min_span is None else _number(min_span, f"{label}: min span", where) * lf
+    if gamma_ll is not None:
+        gamma_ll = _number(gamma_ll, f"{label}: live-load factor", where)
+        if not 0.5 <= gamma_ll <= 3.0:
+            raise InputError(f"{label}: live-load factor {gamma_ll:g} is outside 0.5 to 3.0",
+                             where)
     return Vehicle(id=str(id).strip(), name=str(name).strip() or str(id).strip(),
                    category=category, axle_loads_kip=loads, spacings=tuple(gaps),
                    gross_weight_tons=w_tons, lane_load_klf=lane, axle_scale=scale,
-                   min_span_ft=span, source=source, tag=tag, where=where)
+                   min_span_ft=span, source=source, tag=tag, where=where, gamma_ll=gamma_ll)
 
 
 def owner_vehicle(
