@@ -516,3 +516,32 @@ def test_the_index_keeps_the_verdict_of_a_sensitivity() -> None:
         "fully effective. Rated as if L2U3 did not act (its bars loose), the members give a "
         "closure to consider: lowest truck RF 0.07 (SU6, U2L3)")
     assert _first_clause("OUT OF SERVICE: x; y") == "OUT OF SERVICE: x"
+
+
+def test_a_permit_says_its_verdict_and_decides_nothing_for_the_bridge(tmp_path: Path) -> None:
+    """A permit load (MBE 6A.4.5 [value from memory]) is never posted: in the CSV its action
+    is the report's words for it, and even an RF of 0.2 neither closes the bridge nor becomes
+    its deciding truck."""
+    from dataclasses import replace
+
+    from rating.batch import _row_from_results
+    from rating.results import PostingResultEntry
+
+    res = sample_results()
+    truck = next(v for v in res.vehicles if v.rating_level == "legal"
+                 and v.category != "emergency")
+    permit = replace(truck, id="PERMIT-1", name="invented crane", category="single-trip permit",
+                     rating_level="permit")
+    entry = PostingResultEntry(rf=0.2, rating_tons=9.2, posting_tons=None, member="L1U1",
+                               action="none", note="permit load")
+    fine = {**res.posting, "PERMIT-1": entry}
+    res = replace(res, vehicles=(*res.vehicles, permit), posting=fine)
+    row = _row_from_results(tmp_path / "a.xlsx", res, None, tmp_path / "a.json", (), 0.0)
+    line = next(v for v in row.vehicles if v.vehicle == "PERMIT-1")
+    assert line.action == "permit: not as requested"
+    assert row.action != "close"
+    low = row.lowest_legal()
+    assert low is not None and low.vehicle != "PERMIT-1"
+    csv_row = _csv_rows_text(summary_csv([row]))[0]
+    assert csv_row["PERMIT-1 action"] == "permit: not as requested"
+    assert csv_row["deciding truck"] != "PERMIT-1"

@@ -581,3 +581,32 @@ def test_every_rating_on_the_load_path_checks_by_hand(outcomes):
         # each printed force is within 0.05 of its value: the RF they give, within this
         slack = 0.1 / (v[3] * v[2]) + abs(by_hand) * 0.05 / v[2] + 0.011
         assert abs(_m.floor(by_hand * 100) / 100 - float(rf)) <= slack, row
+
+
+def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
+    """The Pratt sample's single-trip permit (invented): its own load factor (ADTT 40, MBE
+    Table 6A.4.5.4.2a-1 [value from memory]: 1.35), one vehicle alone in one lane (trusses
+    17 ft apart, a 15 ft roadway between them: wheels 3 ft and 9 ft from the truss, (14 + 8)
+    / 17 / 2 = 11/17 of an axle by the lever rule, no multiple presence), never posted, and
+    said last in the recommendation and as such in the report."""
+    from rating.report.html import render_report
+
+    res = outcomes["tc0417_pratt_1898.xlsx"].results
+    v = next(v for v in res.vehicles if v.id == "TAM-CRANE")
+    assert (v.category, v.rating_level, v.gamma_ll) == ("single-trip permit", "permit", 1.35)
+    legal = next(v for v in res.vehicles if v.id == "TAM-PLOW")
+    m = res.members[0]
+    assert m.live_load["TAM-CRANE"].distribution_factor == pytest.approx(11.0 / 17.0, abs=1e-6)
+    assert m.live_load["TAM-PLOW"].distribution_factor == pytest.approx(1.2 * 11.0 / 17.0,
+                                                                        abs=1e-6)
+    assert legal.rating_level == "legal"
+    entry = res.posting["TAM-CRANE"]
+    assert entry.action == "none" and entry.posting_tons is None and entry.rf < 1.0
+    assert "should not cross as requested" in entry.note
+    # last, after the condition on the bent counter and before the engineer's decision
+    tail = res.recommendation.split("If it does not act, consider closing the bridge")[1]
+    assert tail.endswith(" Permit loads (for the permit's issue, not a posting): mobile crane "
+                         "to Hollis Mill (single-trip permit) RF 0.71, L1U1: not as "
+                         "requested." + DECISION_NOTE)
+    html = render_report(res)
+    assert "permit: not as requested" in html

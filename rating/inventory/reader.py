@@ -1436,6 +1436,7 @@ class _Reading:
                                gross_weight_tons=gross if gross is not None else total_tons,
                                lane_load_klf=_f(vr, "lane_load") or 0.0,
                                gamma_ll=_f(vr, "gamma_ll"),
+                               im=None if _f(vr, "im") is None else _f(vr, "im") / 100.0,
                                source="owner's vehicle, inspection workbook",
                                tag="owner data", where=vr.ref("vehicle")))
         return tuple(out)

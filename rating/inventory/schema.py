@@ -647,6 +647,10 @@ VEHICLES = TableSheet(
            warn_above=2.0, blank_means="by category and ADTT",
            help="The owner's live-load factor for this vehicle, in place of the one its "
                 "category gives."),
+        _pct("im", "Dynamic load allowance", ge=0, le=100, warn_above=50,
+             blank_means="as for the legal loads",
+             help="For this vehicle alone, e.g. 0 for an escorted permit held to a crawl "
+                  "(MBE 6A.4.5.5)."),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"vehicle": "OWN-1", "name": "county tandem dump truck", "category": "owner",

@@ -48,6 +48,7 @@ from rating.lrfr.factors import (
     dynamic_load_allowance,
     factored_dw,
     live_load_factor,
+    provisions,
 )
 from rating.lrfr.liveload import live_joint_loads, position_key
 from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points, state_at
@@ -317,10 +318,12 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
                          f"{load.min_span_ft:g} ft and this span is {span_ft:g} ft.")
             continue
         # the owner's IM is for the loads rated at the legal level; the design-load rating
-        # keeps the IM of LRFD 3.6.2.1 (MBE C6A.4.4.3 [value from memory])
+        # keeps the IM of LRFD 3.6.2.1 (MBE C6A.4.4.3 [value from memory]); one given with
+        # an owner's vehicle is for that vehicle (an escorted permit at a crawl: MBE
+        # 6A.4.5.5 [value from memory])
         im = dynamic_load_allowance(load.category, st.riding_surface,
                                     None if load.category is VehicleCategory.DESIGN
-                                    else st.im_override)
+                                    else load.im if load.im is not None else st.im_override)
         if load.category is VehicleCategory.DESIGN:
             for level, suffix in ((RatingLevel.INVENTORY, "INV"), (RatingLevel.OPERATING, "OPR")):
                 g_ll = live_load_factor(load.category, level, st.adtt_one_direction,
@@ -338,6 +341,14 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
                                     st.provision_set, load.gamma_ll if load.gamma_ll is not None
                                     else st.gamma_ll_override)
             cases.append(RatingCase(load.id, load, RatingLevel.LEGAL, g_ll, im))
+    crawl = [c.id for c in cases if c.category is VehicleCategory.PERMIT_ESCORTED
+             and c.im.value > 0.0]
+    if crawl:
+        p = provisions()["permit"]
+        notes.append(f"The escorted permits ({', '.join(crawl)}) are rated with the dynamic "
+                     f"load allowance of the legal loads; {p['im_note']} ({p['im_tag']}): "
+                     "give 0 % with the vehicle on the Vehicles sheet where the escort holds "
+                     "the crossing to a crawl.")
     if st.im_override is not None and any(
             c.load.category is VehicleCategory.DESIGN for c in cases):
         notes.append(f"The owner's dynamic load allowance ({st.im_override:.0%}) applies to the "

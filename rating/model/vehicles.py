@@ -53,7 +53,8 @@ class Vehicle:
     ``axle_scale`` multiplies the axles (e.g. 0.75 for the lane-type legal load);
     ``min_span_ft`` marks a load model that applies only to longer spans.
     ``gross_weight_tons`` is the weight W used for rating in tons and posting.
-    ``gamma_ll``: the owner's live-load factor for this vehicle (None: by its category).
+    ``gamma_ll``: the owner's live-load factor for this vehicle (None: by its category);
+    ``im``: its dynamic load allowance (None: as the settings give for its category).
     """
 
     id: str
@@ -69,6 +70,7 @@ class Vehicle:
     tag: str = ""
     where: str = ""
     gamma_ll: float | None = None
+    im: float | None = None
 
     @property
     def axle_count(self) -> int:

@@ -67,6 +67,7 @@ class RatingLoad:
     source: str = ""
     tag: str = ""
     gamma_ll: float | None = None  # the owner's live-load factor for it (None: by category)
+    im: float | None = None  # the owner's dynamic load allowance for it (None: as settings)
 
     @property
     def weight_ratio_kip_per_ft(self) -> float:
@@ -188,7 +189,7 @@ def as_rating_load(v: Vehicle, *, neglect_opposing_axles: bool = False) -> Ratin
     axles = v if v.axle_count else None
     model = LoadModel(v.name, axles, v.lane_load_klf, neglect_opposing_axles)
     return RatingLoad(v.id, v.name, v.category, (model,), v.gross_weight_tons, v.min_span_ft,
-                      v.source, v.tag, v.gamma_ll)
+                      v.source, v.tag, v.gamma_ll, v.im)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -231,14 +232,16 @@ def make_vehicle(
     tag: str = "",
     where: str = "",
     gamma_ll: float | None = None,
+    im: float | None = None,
 ) -> Vehicle:
     """Build and check a vehicle; owner vehicles from the workbook come through here.
 
     Axle loads front to rear; one spacing per gap, a number or a ``(min, max)`` range. SI is
     accepted through ``rating.units`` (e.g. ``force_unit="kN", length_unit="m",
     weight_unit="tonne", line_load_unit="kN/m"``). ``gross_weight`` defaults to the sum of the
-    axles. ``gamma_ll``: the owner's live-load factor for the vehicle. Every problem raises
-    InputError naming the vehicle and ``where`` (its Sheet!Cell).
+    axles. ``gamma_ll``: the owner's live-load factor for the vehicle; ``im`` its dynamic load
+    allowance (a fraction). Every problem raises InputError naming the vehicle and ``where``
+    (its Sheet!Cell).
     """
     label = f"vehicle {id!r}" if id else "a vehicle"
     if not str(id).strip():
@@ -289,10 +292,16 @@ def make_vehicle(
         if not 0.5 <= gamma_ll <= 3.0:
             raise InputError(f"{label}: live-load factor {gamma_ll:g} is outside 0.5 to 3.0",
                              where)
+    if im is not None:
+        im = _number(im, f"{label}: dynamic load allowance", where)
+        if not 0.0 <= im <= 1.0:
+            raise InputError(f"{label}: dynamic load allowance {im:g} is outside 0 to 1",
+                             where)
     return Vehicle(id=str(id).strip(), name=str(name).strip() or str(id).strip(),
                    category=category, axle_loads_kip=loads, spacings=tuple(gaps),
                    gross_weight_tons=w_tons, lane_load_klf=lane, axle_scale=scale,
-                   min_span_ft=span, source=source, tag=tag, where=where, gamma_ll=gamma_ll)
+                   min_span_ft=span, source=source, tag=tag, where=where, gamma_ll=gamma_ll,
+                   im=im)
 
 
 def owner_vehicle(

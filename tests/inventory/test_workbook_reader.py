@@ -292,6 +292,33 @@ def test_a_gross_weight_apart_from_the_axles_is_kept_only_with_a_lane_load(tmp_p
     assert [v for v in r.bridge.owner_vehicles if v.id == "OWN-1"][0].gross_weight_tons == 50.0
 
 
+def test_a_permit_vehicle_and_its_own_live_load_factor_are_read(tmp_path) -> None:
+    """A permit is a category of the owner's vehicles (MBE 6A.4.5 [value from memory]); the
+    live-load factor given with a vehicle is kept, and one out of range is said at its
+    cell."""
+    from rating.model import VehicleCategory
+
+    d = fresh()
+    d["tables"]["Vehicles"][0]["category"] = "Single-trip permit (escorted)"
+    d["tables"]["Vehicles"][0]["gamma_ll"] = 1.25
+    d["tables"]["Vehicles"][0]["im"] = 0.0
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    v = next(v for v in r.bridge.owner_vehicles if v.id == "OWN-1")
+    assert v.category is VehicleCategory.PERMIT_ESCORTED and v.gamma_ll == 1.25
+    assert v.im == 0.0
+    d["tables"]["Vehicles"][0]["im"] = 10.0
+    v = next(v for v in check(tmp_path, d).bridge.owner_vehicles if v.id == "OWN-1")
+    assert v.im == pytest.approx(0.10)
+    d["tables"]["Vehicles"][0]["gamma_ll"] = 4.0
+    r = check(tmp_path, d)
+    find(r, cell("Vehicles", 0, "gamma_ll"), "3")
+    d["tables"]["Vehicles"][0]["gamma_ll"] = None
+    d["tables"]["Vehicles"][0]["category"] = "permit"
+    r = check(tmp_path, d)
+    find(r, cell("Vehicles", 0, "category"), "routine permit")
+
+
 def test_counter_panels_that_get_no_counter_are_said_at_their_cell(tmp_path) -> None:
     """A through Pratt's end panels are crossed by the end posts, and the Warren forms get no
     generated counters at all: a listed panel that gets none was dropped without a word."""
