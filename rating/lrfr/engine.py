@@ -1416,8 +1416,9 @@ def permit_verdict(category: VehicleCategory, rf: float) -> str:
     memory]); below, not as requested. A permit is never a reason to post or close."""
     if reported_rf(rf) >= 1.0:
         return (f"permit load ({category.value}): RF at least 1.0, so the truss members and "
-                "pins can carry this permit under the conditions of its type; issuing it is "
-                "the owner's decision")
+                "pins can carry this permit under the conditions of its type; the floor "
+                "system, deck and bearings, not rated here, must be checked for it too, and "
+                "issuing it is the owner's decision")
     escort = "" if category is VehicleCategory.PERMIT_ESCORTED else "an escort, "
     return (f"permit load ({category.value}): RF below 1.0, so this permit should not cross "
             f"as requested; a lighter or longer vehicle, {escort}or other conditions are "

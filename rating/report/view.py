@@ -40,9 +40,14 @@ LEVEL_TEXT = {"inventory": "inventory", "operating": "operating", "legal": "lega
 
 def level_text(v: VehicleResult) -> str:
     """The rating level as the report words it; an emergency vehicle, rated at the legal level
-    with its own load factor, is named as one (it never closes a bridge)."""
+    with its own load factor, is named as one (it never closes a bridge); a permit by its
+    type."""
+    if v.rating_level == "permit":
+        return v.category
     text = LEVEL_TEXT.get(v.rating_level, v.rating_level)
     return f"{text} (emergency vehicle)" if v.category == EMERGENCY else text
+
+
 ACTION_TEXT = {"none": "no restriction", "post": "post", "close": "consider closing"}
 
 

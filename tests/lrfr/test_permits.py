@@ -258,3 +258,15 @@ def test_a_vehicles_own_dynamic_load_allowance_is_used():
             assert a == pytest.approx(1.2 * b, rel=1e-6)
     with pytest.raises(InputError, match="dynamic load allowance 1.5 is outside"):
         owner_vehicle("X", "x", (20.0, 20.0), [4.0], im=1.5)
+
+
+def test_a_permit_at_or_above_one_can_be_carried_and_the_floor_is_named():
+    light = replace(_crane(V.PERMIT_SINGLE_TRIP, "LIGHT"),
+                    axle_loads_kip=tuple(0.5 * a for a in AXLES), gross_weight_tons=23.0)
+    r = rate_bridge(replace(make_pratt_bridge(pins=False), owner_vehicles=(light,)),
+                    ["LIGHT"])
+    cp = r.postings["LIGHT"]
+    assert cp.rf >= 1.0 and cp.result.action is PostingAction.NONE
+    assert "can carry this permit" in cp.note and "floor system" in cp.note
+    assert "(single-trip permit) RF" in build_results(r).recommendation
+    assert ": can be carried as rated" in build_results(r).recommendation
