@@ -509,6 +509,8 @@ def pony_1903_si() -> WorkbookContent:
         "material": "wrought iron", "truss_form": "pratt", "deck_position": "pony",
         "panel_count": n, "panel_length": p_m, "height": h_m, "counter_panels": "3, 4",
         "truss_spacing": 5.2, "roadway_width": 4.6, "lane_count": 1, "adtt": 5,
+        # the floorbeams, rolled I of 380 mm (about 440 in4): the U-frames hold the top chord
+        "floorbeam_I": 183_000_000.0,
         "riding_surface": "major deviations", "inspection_date": dt.date(2023, 10, 26),
         "inspector": "J. Mbeki (invented)",
     }

@@ -21,6 +21,8 @@ from rating.units import from_core, si_text
     ("S_x = 50.9 in3", "S_x = 834100 mm3"),  # 50.9 x 25.4^3 = 834,101 mm3
     ("w = 45 plf across", "w = 0.6567 kN/m across"),  # 45 lbf/ft = 0.65672 kN/m
     ("20 tons", "18.14 tonnes"),
+    ("I = 441 in4", "I = 183600000 mm4"),  # 441 x 25.4^4 = 183,557,000 mm4
+    ("spring 2.8 kip/in", "spring 0.4904 kN/mm"),  # 2.8 x 4.44822 / 25.4 = 0.49035
 ])
 def test_core_quantities_are_restated_in_si(us, si):
     assert si_text(us) == si

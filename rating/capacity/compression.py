@@ -245,7 +245,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                        length_ft: float, role: MemberRole | None = None,
                        tension_only: bool = False, connectors: Connectors | None = None,
                        phi_c: float = PHI_C, limit_primary: float = 120.0,
-                       limit_secondary: float = 140.0) -> CompressionResult:
+                       limit_secondary: float = 140.0,
+                       KL_out_of_plane_ft: float | None = None) -> CompressionResult:
     """Flexural buckling of the member at its governing location, or zero if tension-only.
 
     AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [V].
@@ -256,6 +257,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
             compressive resistance is counted.
         limit_primary, limit_secondary: KL/r limits for a warning (AASHTO LRFD 6.9.3)
             [value from memory].
+        KL_out_of_plane_ft: the effective length out of the truss plane where it is found
+            apart (a pony truss's chord on its U-frames, rating.analysis.uframe); else K L.
     """
     m = report.member
     warnings: list[str] = []
@@ -276,8 +279,9 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     # value is the same IEEE operation as the element-wise numpy form (no r: KL/r infinite)
     A = [s.A_g_in2 for s in C]
     KL_in = K * L_in
+    KL_y = KL_in if KL_out_of_plane_ft is None else KL_out_of_plane_ft * 12.0
     klr_x = [KL_in / s.r_x_in if s.r_x_in > 0 else math.inf for s in C]
-    klr_y = [KL_in / s.r_y_in if s.r_y_in > 0 else math.inf for s in C]
+    klr_y = [KL_y / s.r_y_in if s.r_y_in > 0 else math.inf for s in C]
     use_mod = (connectors is not None and connectors.kind is not ConnectorKind.SOLID)
     if use_mod:
         # the lacing or battens themselves are not rated (common practice: they are taken as
@@ -360,8 +364,11 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                         "(AASHTO LRFD 6.9.3, value from memory)")
     s = C[k]
     axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"
-    detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft, KL/r = {klr[k]:.1f} "
-              f"({axis}), {_Q_text(Q_s[k], Q_a[k])}, F_y = {Fy:g} ksi, E = {E:g} ksi")
+    out = ("" if KL_out_of_plane_ft is None else
+           f", KL out of plane = {KL_out_of_plane_ft:.2f} ft (U-frames)")
+    detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft{out}, KL/r = "
+              f"{klr[k]:.1f} ({axis}), {_Q_text(Q_s[k], Q_a[k])}, F_y = {Fy:g} ksi, "
+              f"E = {E:g} ksi")
     chk = Check("compression: flexural buckling", Sense.COMPRESSION, phi_c, float(Pn[k]),
                 "AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
                 s.location, detail)

@@ -355,8 +355,14 @@ class _Reading:
             log.warning(b.ref("lane_count"),
                         f"{lanes} lanes on a {_g(width)} ft roadway is less than 12 ft per lane; "
                         "please confirm the override")
+        fb = _f(b, "floorbeam_I")
+        if fb is not None and pos is not None and pos is not DeckPosition.PONY:
+            log.warning(b.ref("floorbeam_I"),
+                        f"the floorbeam's moment of inertia is used for the U-frames of a pony "
+                        f"truss only; this is a {pos} truss, so it is not used")
         return CrossSection(truss_spacing_ft=spacing, roadway_width_ft=width, left_curb_ft=curb,
-                            lane_count_override=lanes, deck_width_ft=_f(b, "deck_width"))
+                            lane_count_override=lanes, deck_width_ft=_f(b, "deck_width"),
+                            floorbeam_I_in4=fb)
 
     # -- geometry -------------------------------------------------------------------------
 

@@ -230,6 +230,12 @@ BRIDGE = FormSheet(
            blank_means="roadway width", help="Width over which psf deck loads act."),
         _c("lane_count", "Lane count override", Kind.INTEGER, ge=1, le=4,
            blank_means="from the roadway width"),
+        _c("floorbeam_I", "Floorbeam moment of inertia", Kind.NUMBER, ("in4", "mm4"), gt=0,
+           le=50000, warn_below=50,
+           blank_means="U-frames not analysed (a pony truss's top chord taken as held at each "
+                       "panel point)",
+           help="Of one floorbeam about its strong axis. For a pony truss: the floorbeams and "
+                "verticals form the U-frames that hold the top chord out of the truss plane."),
         _c("adtt", "ADTT, one direction", Kind.NUMBER, unit="trucks/day", ge=0, le=50000,
            blank_means="unknown (the provision set's value for unknown ADTT)"),
         _c("riding_surface", "Riding surface", Kind.CHOICE,

@@ -63,6 +63,7 @@ from rating.lrfr.positions import (
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.lrfr.reported import reported_rf
+from rating.lrfr.uframes import UFRAME_ASSUMPTION, pony_chord
 from rating.model import (
     BarState,
     Bridge,
@@ -560,31 +561,79 @@ def _pin_bearing_as_built(warning: str, joint: str, controlling: set[str]) -> st
     return warning
 
 
-def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting]) -> list[str]:
-    """A pony truss's top chord and end posts are rated as braced out of the truss plane at
-    every panel point; a pony truss has no top lateral bracing and holds its chord only by
-    the U-frames of verticals and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]),
-    which are not checked here. Said for every pony truss; headed in capitals where such a
-    member controls a rating case."""
+def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
+                    on_uframes: bool = False) -> list[str]:
+    """A pony truss has no top lateral bracing and holds its chord only by the U-frames of
+    verticals and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]). With the floorbeam's
+    moment of inertia given (``on_uframes``) the chord is rated on them (rating.lrfr.uframes)
+    but the U-frames' own members are not checked; without it the chord is rated as braced at
+    every panel point. Said for every pony truss; headed in capitals where such a member
+    controls a rating case."""
     if g.deck_position is not DeckPosition.PONY:
         return []
     chord = [m.label for m in g.members
              if m.role in (MemberRole.TOP_CHORD, MemberRole.END_POST)]
     if not chord:
         return []
-    text = (f"the top chord and end posts ({', '.join(chord)}) are rated with an effective "
-            "length of K times their length between panel points (K as given in the "
-            "workbook, else the default), out of the truss plane as well. A pony truss has "
-            "no top lateral bracing: its chord is held only by the U-frames of the verticals "
-            "and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]), whose stiffness is not "
-            "checked here. The engineer should check the chord's lateral stability (a column "
-            "on elastic supports) and give the members' effective length factor in the "
-            "workbook where that check makes it longer.")
+    if on_uframes:
+        text = (f"the top chord and end posts ({', '.join(chord)}) are rated out of the truss "
+                "plane as a column on the elastic U-frames of the verticals and floorbeams "
+                "(their effective lengths are among the assumptions), but the U-frames' own "
+                "members (the verticals in bending, the floorbeam connections) are not checked "
+                "for the force that holds the chord (AASHTO LRFD 6.14.2.9 [value from "
+                "memory]): the engineer should check them, and the chord's straightness in "
+                "the field.")
+    else:
+        text = (f"the top chord and end posts ({', '.join(chord)}) are rated with an effective "
+                "length of K times their length between panel points (K as given in the "
+                "workbook, else the default), out of the truss plane as well. A pony truss has "
+                "no top lateral bracing: its chord is held only by the U-frames of the "
+                "verticals and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]), whose "
+                "stiffness is not checked here: give the floorbeam's moment of inertia on the "
+                "Bridge sheet to rate the chord on them, or check the chord's lateral "
+                "stability (a column on elastic supports) by hand and give the members' "
+                "effective length factor in the workbook where that check makes it longer.")
     controls = sorted({p.controlling for p in postings.values()} & set(chord))
     if controls:
         return [f"PONY TRUSS TOP CHORD CONTROLS: {', '.join(controls)} control"
                 f"{'s' if len(controls) == 1 else ''} a rating, and {text}"]
     return [f"pony truss: {text}"]
+
+
+def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, MemberCapacity],
+                      dead: DeadLoadResult, weights: Mapping[str, MemberWeight],
+                      warnings: list[str], assumptions: list[str], gamma_dc: float) -> None:
+    """A pony truss whose floorbeam's moment of inertia is given: its top chord and end posts
+    rated out of the truss plane with the effective lengths of the chord on its U-frames
+    (rating.lrfr.uframes; AASHTO LRFD 6.14.2.9 [value from memory]), in place of K L; their
+    resistances, warnings and assumptions replaced in ``capacities``, ``warnings`` and
+    ``assumptions``."""
+    I_fb = bridge.cross_section.floorbeam_I_in4
+    if g.deck_position is not DeckPosition.PONY or not I_fb:
+        return
+    force = dead.member_forces_dc_kip + dead.member_forces_dw_kip
+    compression = {m.label: -float(f) for m, f in zip(g.members, force, strict=True)}
+    chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb)
+    if chord is None:
+        warnings.append("pony truss: the floorbeam's moment of inertia is given, but the top "
+                        "chord and end posts do not make one path from bearing to bearing (or "
+                        "one has no section left): the U-frames were not analysed")
+        return
+    st = bridge.settings
+    for lab, KL_ft in chord.lengths_ft.items():
+        m = g.member(lab)
+        old = capacities[lab]
+        new = member_capacity(bridge.design_of(lab), m.role, g.member_length_ft(lab),
+                              bridge.findings_for(lab), m.tension_only,
+                              own_weight_klf=_across_weight_klf(g, m, weights[lab],
+                                                                st.detail_allowance),
+                              gamma_dc=gamma_dc, KL_out_of_plane_ft=KL_ft)
+        capacities[lab] = new
+        for said, was, now in ((warnings, old.warnings, new.warnings),
+                               (assumptions, old.assumptions, new.assumptions)):
+            said[:] = [w for w in said if w not in set(was) - set(now)] + [
+                w for w in now if w not in was]
+    assumptions.append(chord.assumption)
 
 
 def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,
@@ -802,6 +851,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     dead = dead_load(g, bridge.cross_section, bridge.dead_loads, weights,
                      st.detail_allowance, st.detail_allowance_given, family=family)
     assumptions.extend(dead.assumptions)
+    _chord_on_uframes(g, bridge, capacities, dead, weights, warnings, assumptions,
+                      dead_f["gamma_dc_max"].value)
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))
@@ -945,7 +996,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             "carried to its pin. Where a joint is in poor condition (pack rust, worn or loose "
             "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
     postings = _postings(cases, ratings, pins, g)
-    warnings.extend(_pony_top_chord(g, postings))
+    warnings.extend(_pony_top_chord(g, postings, on_uframes=any(
+        a.startswith(UFRAME_ASSUMPTION) for a in assumptions)))
     # what sets a posting, a closure or a barring (not a rating of 1.0 or more, nor a screen)
     deciding = {cid for cid, cp in postings.items()
                 if any(c.id == cid and c.postable for c in cases) and not cp.screened_out

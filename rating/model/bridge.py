@@ -53,6 +53,7 @@ class CrossSection:
     left_curb_ft: float | None = None
     lane_count_override: int | None = None
     deck_width_ft: float | None = None
+    floorbeam_I_in4: float | None = None  # strong axis, one floorbeam (a pony truss's U-frames)
 
     @property
     def curb_left_ft(self) -> float:

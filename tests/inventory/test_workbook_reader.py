@@ -413,3 +413,20 @@ def test_a_one_axle_owner_vehicle_is_said_to_be_an_axle_load(tmp_path) -> None:
     r = check(tmp_path, d)
     (said,) = [w for w in r.warnings if "has one axle" in w.message]
     assert said.where == cell("Vehicles", 0, "vehicle") and r.errors == ()
+
+
+def test_the_floorbeams_moment_of_inertia_is_read_and_used_for_pony_trusses(tmp_path) -> None:
+    """The floorbeam's I (for the U-frames of a pony truss) is read in in4, or mm4 in an SI
+    workbook (1 in = 25.4 mm, NIST SP 811); on another truss it is said to go unused."""
+    from inventory_helpers import form_cell
+
+    d = fresh()
+    d["bridge"]["floorbeam_I"] = 440.0
+    r = check(tmp_path, d)
+    assert r.errors == () and r.bridge.cross_section.floorbeam_I_in4 == 440.0
+    find(r, form_cell("Bridge", "floorbeam_I"), "pony truss only", severity="warning")
+    d["bridge"]["deck_position"] = "pony"
+    r = check(tmp_path, d)
+    assert not [w for w in r.warnings if "pony truss only" in w.message]
+    d["bridge"]["floorbeam_I"] = -5.0
+    find(check(tmp_path, d), form_cell("Bridge", "floorbeam_I"), "0")

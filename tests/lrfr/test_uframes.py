@@ -1,0 +1,122 @@
+"""A pony truss's top chord rated out of its plane on the U-frames of verticals and floorbeams
+(rating.lrfr.uframes). The mechanics are checked in tests/analysis/test_uframe.py; here, what
+the rating does with them, on the bundled pony sample (invented data)."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+from pathlib import Path
+
+import pytest
+
+from rating.analysis.uframe import uframe_stiffness_kip_per_in
+from rating.inventory.reader import read_workbook
+from rating.lrfr.engine import rate_bridge
+from rating.lrfr.uframes import UFRAME_ASSUMPTION, pony_chord
+from rating.model import DeckPosition, MemberRole
+
+ROOT = Path(__file__).resolve().parents[2]
+CHORD = (MemberRole.TOP_CHORD, MemberRole.END_POST)
+
+
+@pytest.fixture(scope="module")
+def pony():
+    b = read_workbook(ROOT / "sample_inventory" / "tc0903_pony_1903_si.xlsx")
+    b = getattr(b, "bridge", b)
+    assert b.geometry.deck_position is DeckPosition.PONY
+    # read in mm4 from the SI workbook: 183,000,000 mm4 / 25.4^4 (NIST SP 811)
+    assert b.cross_section.floorbeam_I_in4 == pytest.approx(183e6 / 25.4 ** 4)
+    return b
+
+
+def _with_floorbeam(b, I_in4):
+    return replace(b, cross_section=replace(b.cross_section, floorbeam_I_in4=I_in4))
+
+
+@pytest.fixture(scope="module")
+def ratings(pony):
+    """The sample rated for TYPE-3 without the floorbeam (chord held at each panel point),
+    with it, and with a floorbeam ten times as stiff."""
+    return {I: rate_bridge(_with_floorbeam(pony, I), ["TYPE-3"], what_if=False)
+            for I in (None, pony.cross_section.floorbeam_I_in4,
+                      10.0 * pony.cross_section.floorbeam_I_in4)}
+
+
+def _buckling(cap):
+    return next(c for c in cap.checks if c.name == "compression: flexural buckling")
+
+
+def test_without_the_floorbeam_the_chord_is_held_at_each_panel_point(ratings):
+    r = ratings[None]
+    assert not any(a.startswith(UFRAME_ASSUMPTION) for a in r.assumptions)
+    assert any("give the floorbeam's moment of inertia" in w for w in r.warnings)
+    for m in r.geometry.members:
+        if m.role in CHORD:
+            assert "KL out of plane" not in _buckling(r.capacities[m.label]).detail
+
+
+def test_on_its_u_frames_the_chord_is_longer_and_weaker_never_stronger(ratings, pony):
+    base, on = ratings[None], ratings[pony.cross_section.floorbeam_I_in4]
+    assert any(a.startswith(UFRAME_ASSUMPTION) for a in on.assumptions)
+    for m in on.geometry.members:
+        lab = m.label
+        if m.role in CHORD:
+            cap = on.capacities[lab]
+            assert "KL out of plane" in _buckling(cap).detail
+            assert cap.factored_resistance("compression") <= \
+                base.capacities[lab].factored_resistance("compression") + 1e-9
+            assert on.ratings[(lab, "TYPE-3")].rf <= base.ratings[(lab, "TYPE-3")].rf + 1e-9
+        else:  # the other members are rated as before
+            assert on.ratings[(lab, "TYPE-3")].rf == pytest.approx(
+                base.ratings[(lab, "TYPE-3")].rf, rel=1e-12)
+
+
+def test_a_stiffer_floorbeam_never_lowers_the_chord(ratings, pony):
+    I = pony.cross_section.floorbeam_I_in4
+    on, stiff = ratings[I], ratings[10.0 * I]
+    for m in on.geometry.members:
+        if m.role in CHORD:
+            assert stiff.ratings[(m.label, "TYPE-3")].rf >= \
+                on.ratings[(m.label, "TYPE-3")].rf - 1e-9
+
+
+def test_the_springs_are_the_uprights_u_frames(ratings, pony):
+    # each inner joint of the chord: the U-frame of its vertical (four laced angles), by the
+    # statics of rating.analysis.uframe; the hip verticals of this truss are loop rods, which
+    # hold nothing out of plane (no spring)
+    r = ratings[pony.cross_section.floorbeam_I_in4]
+    g = r.geometry
+    compression = {m.label: -float(dc + dw) for m, dc, dw in zip(
+        g.members, r.dead.member_forces_dc_kip, r.dead.member_forces_dw_kip, strict=True)}
+    chord = pony_chord(g, r.capacities, compression, pony.cross_section.truss_spacing_ft,
+                       pony.cross_section.floorbeam_I_in4)
+    assert chord is not None
+    for joint, (who, c) in chord.springs.items():
+        up = [m for m in g.members_at(joint) if m.role in (MemberRole.VERTICAL,
+                                                            MemberRole.HANGER)]
+        assert len(up) == 1
+        s_ = r.capacities[up[0].label].summary
+        if up[0].role is MemberRole.HANGER:
+            assert (who, c) == ("", 0.0)
+            continue
+        expect = uframe_stiffness_kip_per_in(
+            g.member_length_ft(up[0].label) * 12.0, pony.cross_section.truss_spacing_ft * 12.0,
+            s_.E, s_.A_g_in2 * s_.r_out_of_plane_in ** 2, pony.cross_section.floorbeam_I_in4)
+        assert who == up[0].label and c == pytest.approx(expect)
+    # every chord member's length out of plane is at least K L, and what its check used
+    for lab, KL_ft in chord.lengths_ft.items():
+        cap = r.capacities[lab]
+        assert KL_ft >= cap.summary.K * g.member_length_ft(lab) - 1e-9
+        assert math.isfinite(KL_ft)
+
+
+def test_a_through_truss_ignores_the_floorbeam():
+    from demo_bridge import make_pratt_bridge
+
+    b = make_pratt_bridge(pins=False)
+    base = rate_bridge(b, ["TYPE-3"], what_if=False)
+    with_fb = rate_bridge(_with_floorbeam(b, 800.0), ["TYPE-3"], what_if=False)
+    assert not any(a.startswith(UFRAME_ASSUMPTION) for a in with_fb.assumptions)
+    for key, rating in base.ratings.items():
+        assert with_fb.ratings[key].rf == rating.rf
