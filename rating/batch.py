@@ -238,7 +238,7 @@ def _row_from_results(workbook: Path, results: Any, html: Path | None, js: Path,
         if action == "none" and v.rating_level in ("inventory", "operating"):
             action = "design-load rating"  # as in the report: HL-93 is never posted
         if entry is not None and v.rating_level == "permit":
-            action = permit_words(entry.rf)  # as in the report: a permit is never posted
+            action = permit_words(entry)  # as in the report: a permit is never posted
         vehicles.append(VehicleLine(v.id, v.name, v.rating_level, rf,
                                     entry.member if entry is not None else "", action,
                                     posting, v.category))
@@ -604,8 +604,10 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
                 cells.append(_IndexCell("", "", ""))
             else:
                 text = _rf_text(v.rf).replace("-inf", "\u2212\u221e") or "\u2014"
+                # (a permit's verdict beside its member: it never posts the bridge)
+                who = f"{v.member} ({v.action})" if v.level == "permit" else v.member
                 cells.append(_IndexCell(text, bands.band(v.rf).key if v.rf is not None
-                                        else "nr", v.member))
+                                        else "nr", who))
         item = _IndexRow(r, tuple(cells), r.errors[:max_problems],
                          max(0, len(r.errors) - max_problems),
                          r.recommendation.removesuffix(DECISION_NOTE),

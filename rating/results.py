@@ -272,6 +272,9 @@ class PostingResultEntry:
     note: str = ""
     alike: tuple[str, ...] = q("members and pins rated the same within round-off",
                                default=())
+    permit: str = ""  # a permit load's verdict ("can be carried", "not as requested", "not
+    # over a bridge restricted for legal loads": rating.lrfr.engine.permit_verdict); ""
+    # for any other load
 
     def not_posted_below_one(self, rating_level: str) -> bool:
         """A legal-level load rated below 1.0 (as printed) whose posting is none: a screening
@@ -281,12 +284,10 @@ class PostingResultEntry:
                 and reported_rf(self.rf) < 1.0)
 
 
-def permit_words(rf: float) -> str:
-    """What a permit load's RF says, in a word for tables: at least 1.0 as printed, the
-    permit can be carried as rated (MBE 6A.4.5 [value from memory]); below, not as
-    requested. A permit is never posted."""
-    return ("permit: can be carried" if math.isfinite(rf) and reported_rf(rf) >= 1.0
-            or rf == math.inf else "permit: not as requested")
+def permit_words(entry: PostingResultEntry) -> str:
+    """What a permit load's rating says, in words for tables: its verdict (MBE 6A.4.5 [value
+    from memory]; rating.lrfr.engine.permit_verdict). A permit is never posted."""
+    return f"permit: {entry.permit}"
 
 
 EMERGENCY = "emergency"

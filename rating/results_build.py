@@ -11,12 +11,15 @@ from rating import __version__
 from rating.analysis.moving import Direction, Extreme
 from rating.capacity.pins import PHI_B, PinCheck, PlateLoad
 from rating.lrfr.engine import (
+    CARRIED,
+    NOT_OVER_RESTRICTED,
     SCREENING_LOADS,
     SHVS,
     BridgeRating,
     CasePosting,
     MemberCaseRating,
     RatingCase,
+    permit_conditions,
 )
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction, least_posting_load
@@ -301,7 +304,7 @@ def _posting_entry(cp: CasePosting, report: _ReportPosting,
         load *= TON_PER_TONNE  # whole tonnes held in tons: the SI view shows whole tonnes
     return PostingResultEntry(rf=cp.rf, rating_tons=cp.result.rating_tons, posting_tons=load,
                               member=cp.controlling, action=action.value, note=note,
-                              alike=cp.alike)
+                              alike=cp.alike, permit=cp.permit)
 
 
 def _rf_words(rf: float) -> str:
@@ -318,12 +321,12 @@ def recommendation(rating: BridgeRating, unit: str,
     reads first that the posting holds only if that member acts (a reviewer would not sign a
     "post" headline with the closure only in a warning)."""
     text = _recommendation(rating, unit, report)
-    # the permits last, after any condition on the bridge's own posting
-    permits = _permit_text(rating) + DECISION_NOTE
     hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
     if not hinge or text.startswith("Consider closing"):
-        return text.removesuffix(DECISION_NOTE) + permits
+        return text.removesuffix(DECISION_NOTE) + _permit_text(rating) + DECISION_NOTE
     names = ", ".join(w.what(m) for m, w in hinge.items())
+    # the permits last, after the condition on the bridge's own posting, and on it too
+    permits = _permit_text(rating, names) + DECISION_NOTE
     if_not = "; ".join(
         f"without {w.what(m)}, "
         f"{'no load path for the trucks' if w.rf is None else 'lowest truck RF'}"
@@ -336,20 +339,31 @@ def recommendation(rating: BridgeRating, unit: str,
             f"({if_not}; members only, see the warning)." + permits)
 
 
-def _permit_text(rating: BridgeRating) -> str:
-    """The permits rated, each with its RF and what it says of the permit (at least 1.0 as
-    printed: can be carried as rated; MBE 6A.4.5 [value from memory]); a permit never posts
-    or closes the bridge."""
+def _permit_text(rating: BridgeRating, hinge: str = "") -> str:
+    """The permits rated, each with its RF and verdict (rating.lrfr.engine.permit_verdict:
+    carried by the truss members and pins under the conditions of its type; not as
+    requested; not over a bridge restricted for the legal loads, MBE 6A.4.5 [value from
+    memory]); ``hinge``: the bent members the bridge's own recommendation rests on, which a
+    permit rests on too. A permit never posts or closes the bridge."""
     permits = [c for c in rating.cases if c.category.is_permit]
     if not permits:
         return ""
     parts = []
     for c in permits:
         cp = rating.postings[c.id]
-        ok = reported_rf(cp.rf) >= 1.0
-        parts.append(f"{c.load.name} ({c.category.value}) RF {_rf_words(cp.rf)}"
-                     + (f", {cp.controlling}" if cp.controlling else "")
-                     + (": can be carried as rated" if ok else ": not as requested"))
+        head = (f"{c.load.name}, {c.category.value}, RF {_rf_words(cp.rf)}"
+                + (f" ({cp.controlling})" if cp.controlling else ""))
+        if cp.permit == CARRIED:
+            tail = ("the truss members and pins carry it ("
+                    + permit_conditions(c.category, c.im.value) + ")"
+                    + (f" only if {hinge} acts" if hinge else "")
+                    + "; the floor system, deck and bearings are to be checked for it")
+        elif cp.permit == NOT_OVER_RESTRICTED:
+            tail = ("not over this bridge while it is restricted for the legal loads (MBE "
+                    "6A.4.5 [value from memory])")
+        else:
+            tail = "not as requested"
+        parts.append(f"{head}: {tail}")
     return (" Permit loads (for the permit's issue, not a posting): " + "; ".join(parts)
             + ".")
 

@@ -533,7 +533,7 @@ def test_a_permit_says_its_verdict_and_decides_nothing_for_the_bridge(tmp_path: 
     permit = replace(truck, id="PERMIT-1", name="invented crane", category="single-trip permit",
                      rating_level="permit")
     entry = PostingResultEntry(rf=0.2, rating_tons=9.2, posting_tons=None, member="L1U1",
-                               action="none", note="permit load")
+                               action="none", note="permit load", permit="not as requested")
     fine = {**res.posting, "PERMIT-1": entry}
     res = replace(res, vehicles=(*res.vehicles, permit), posting=fine)
     row = _row_from_results(tmp_path / "a.xlsx", res, None, tmp_path / "a.json", (), 0.0)
@@ -545,3 +545,9 @@ def test_a_permit_says_its_verdict_and_decides_nothing_for_the_bridge(tmp_path: 
     csv_row = _csv_rows_text(summary_csv([row]))[0]
     assert csv_row["PERMIT-1 action"] == "permit: not as requested"
     assert csv_row["deciding truck"] != "PERMIT-1"
+    # the index names the verdict beside the permit's member
+    from rating.batch import BatchSummary, render_index
+
+    index = render_index(BatchSummary(tmp_path, tmp_path, (row,), tmp_path / "s.csv",
+                                      tmp_path / "i.html", 1.0, 1))
+    assert "L1U1 (permit: not as requested)" in index

@@ -606,7 +606,8 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     # last, after the condition on the bent counter and before the engineer's decision
     tail = res.recommendation.split("If it does not act, consider closing the bridge")[1]
     assert tail.endswith(" Permit loads (for the permit's issue, not a posting): mobile crane "
-                         "to Hollis Mill (single-trip permit) RF 0.71, L1U1: not as "
+                         "to Hollis Mill, single-trip permit, RF 0.71 (L1U1): not as "
                          "requested." + DECISION_NOTE)
+    assert entry.permit == "not as requested"
     html = render_report(res)
     assert "permit: not as requested" in html

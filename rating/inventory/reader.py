@@ -1414,12 +1414,18 @@ class _Reading:
             if not ok or not vr.ok or name is None:
                 continue
             total_tons = sum(loads) / 2.0
-            if len(loads) == 1:
+            category = VehicleCategory(_s(vr, "category") or "owner")
+            if len(loads) == 1 and category.is_permit:
+                log.warning(vr.ref("vehicle"), f"permit {vid} has one axle: as a routine "
+                            "permit its weight ratio (gross weight over the first-to-last axle "
+                            "length) is infinite, the table's lightest factor; check the axles")
+            elif len(loads) == 1:
                 log.warning(vr.ref("vehicle"), f"vehicle {vid} has one axle: its safe posting "
                             "load is an axle load (a sign for the weight on one axle), not a "
                             "truck's gross weight, yet it is posted and counted in the single "
                             "weight limit for trucks like any truck; the engineer should post "
                             "it apart if at all")
+            self._owner_factors(vr, vid, category)
             gross = _f(vr, "gross")
             if gross is not None and abs(gross - total_tons) > 0.02 * total_tons:
                 if not _f(vr, "lane_load"):
@@ -1436,8 +1442,7 @@ class _Reading:
                                 f"({_g(total_tons)} tons); with its lane load, the gross "
                                 "weight given is used for its rating in weight (RT) and "
                                 "posting")
-            out.append(Vehicle(id=vid, name=name,
-                               category=VehicleCategory(_s(vr, "category") or "owner"),
+            out.append(Vehicle(id=vid, name=name, category=category,
                                axle_loads_kip=tuple(loads), spacings=tuple(spacings),
                                gross_weight_tons=gross if gross is not None else total_tons,
                                lane_load_klf=_f(vr, "lane_load") or 0.0,
@@ -1446,6 +1451,32 @@ class _Reading:
                                source="owner's vehicle, inspection workbook",
                                tag="owner data", where=vr.ref("vehicle")))
         return tuple(out)
+
+    def _owner_factors(self, vr: Row, vid: str, category: VehicleCategory) -> None:
+        """A factor given with a vehicle replaces the one its category and the settings give:
+        said at its cell, since a lower one raises the rating (and lifts a posting); an IM
+        below the legal loads' belongs to an escorted permit held to a crawl (MBE 6A.4.5.5
+        [value from memory]). A permit's lane load is placed like a legal load's."""
+        log = self.log
+        if _f(vr, "gamma_ll") is not None:
+            log.warning(vr.ref("gamma_ll"), f"vehicle {vid} is rated with its own live-load "
+                        f"factor {_g(_f(vr, 'gamma_ll'))} in place of the one its category "
+                        "gives (see the provisions listed in the report): a lower one raises "
+                        "its rating" + ("" if category.is_permit else " and its safe posting "
+                                        "load") + "; confirm the owner's reason")
+        im = _f(vr, "im")
+        if im is not None and category is not VehicleCategory.PERMIT_ESCORTED:
+            log.warning(vr.ref("im"), f"vehicle {vid} is rated with its own dynamic load "
+                        f"allowance {_g(im)} % in place of the legal loads' (33 %, or less by "
+                        "the riding surface); only an escorted permit held to a crawl is "
+                        "rated without it (MBE 6A.4.5.5 [value from memory]): confirm the "
+                        "owner's reason")
+        if category.is_permit and _f(vr, "lane_load"):
+            log.warning(vr.ref("lane_load"), f"permit {vid} has a lane load: it is placed like "
+                        "a legal load's, on every part of the span where it adds to the "
+                        "force, under the vehicle too (conservative); MBE places a permit's "
+                        "lane load on longer spans only and off the vehicle [value from "
+                        "memory], and an escorted permit has no other load on the bridge")
 
     # -- settings -------------------------------------------------------------------------
 
@@ -1472,10 +1503,11 @@ class _Reading:
         da = _f(s, "detail_allowance")
         riding = _s(b, "riding_surface")
         if _f(b, "adtt") is None and b.ref("adtt"):
-            self.log.warning(b.ref("adtt"), "the ADTT is not given: the legal loads take the "
-                             "live-load factor for an unknown ADTT, the highest of the provision "
-                             "set (MBE Table 6A.4.4.2.3a-1 [value from memory]); give the ADTT "
-                             "from the inventory record for a rating that may be less severe")
+            self.log.warning(b.ref("adtt"), "the ADTT is not given: the legal loads (and "
+                             "permits) take the live-load factor for an unknown ADTT, the "
+                             "highest of their tables (MBE Tables 6A.4.4.2.3a-1 and "
+                             "6A.4.5.4.2a-1 [value from memory]); give the ADTT from the "
+                             "inventory record for a rating that may be less severe")
         return RatingSettings(
             vehicle_ids=vehicle_ids,
             provision_set=_s(s, "provision_set") or "MBE 2018",

@@ -272,7 +272,7 @@ SETTINGS = FormSheet(
              blank_means="by vehicle and riding surface",
              help="For the legal loads, SHVs, emergency, owner and permit vehicles; HL-93 "
                   "keeps 33 %."),
-        _c("gamma_ll_override", "Live-load factor override", Kind.NUMBER, gt=0, le=3,
+        _c("gamma_ll_override", "Live-load factor override", Kind.NUMBER, ge=0.5, le=3,
            warn_below=1.0, warn_above=2.0, blank_means="by vehicle, limit state and ADTT",
            help="For the legal loads, SHVs, emergency and owner vehicles; HL-93 keeps its "
                 "inventory and operating factors, a permit its own (or the one given on the "
@@ -649,7 +649,7 @@ VEHICLES = TableSheet(
         _c("gross", "Gross weight", Kind.NUMBER, TON, gt=0, le=200,
            blank_means="sum of the axle loads"),
         _c("lane_load", "Lane load", Kind.NUMBER, KLF, ge=0, le=5, blank_means="0"),
-        _c("gamma_ll", "Live-load factor", Kind.NUMBER, gt=0, le=3, warn_below=1.0,
+        _c("gamma_ll", "Live-load factor", Kind.NUMBER, ge=0.5, le=3, warn_below=1.0,
            warn_above=2.0, blank_means="by category and ADTT",
            help="The owner's live-load factor for this vehicle, in place of the one its "
                 "category gives."),

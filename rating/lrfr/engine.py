@@ -157,6 +157,7 @@ class CasePosting:
     screened_out: bool = False
     note: str = ""
     alike: tuple[str, ...] = ()  # others rated the same within round-off (mirror members)
+    permit: str = ""  # a permit load's verdict (PERMIT_VERDICTS); "" for any other load
 
 
 @dataclass(frozen=True, eq=False)
@@ -342,6 +343,12 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
                                     st.provision_set, load.gamma_ll if load.gamma_ll is not None
                                     else st.gamma_ll_override)
             cases.append(RatingCase(load.id, load, RatingLevel.LEGAL, g_ll, im))
+    permits = [c.id for c in cases if c.category.is_permit and c.load.gamma_ll is None]
+    if st.gamma_ll_override is not None and permits:
+        notes.append(f"The owner's live-load factor ({st.gamma_ll_override:g}, Settings sheet) "
+                     f"is for the legal loads: the permits ({', '.join(permits)}) take the "
+                     "permit load factors (MBE Table 6A.4.5.4.2a-1 [value from memory]), or "
+                     "the one given with the vehicle on the Vehicles sheet.")
     crawl = [c.id for c in cases if c.category is VehicleCategory.PERMIT_ESCORTED
              and c.im.value > 0.0]
     if crawl:
@@ -353,7 +360,8 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
     if st.im_override is not None and any(
             c.load.category is VehicleCategory.DESIGN for c in cases):
         notes.append(f"The owner's dynamic load allowance ({st.im_override:.0%}) applies to the "
-                     "loads rated at the legal level; the design-load rating (HL-93) keeps "
+                     "loads rated at the legal level and the permits (but a vehicle's own); "
+                     "the design-load rating (HL-93) keeps "
                      "IM = 33 % of AASHTO LRFD 3.6.2.1 (MBE C6A.4.4.3 reduces IM for legal "
                      "loads only [value from memory]).")
     return tuple(cases), notes
@@ -1433,7 +1441,6 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
         if not case.postable:
             result = replace(result, posting_tons=None, action=PostingAction.NONE)
             out[case.id] = CasePosting(case.id, rf, who, result, note=(
-                permit_verdict(case.category, rf) if case.category.is_permit else
                 f"design-load rating at the {case.level.value} level; posting is decided from "
                 "the legal loads"), alike=alike)
             continue
@@ -1446,6 +1453,15 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                                               action=PostingAction.NONE),
                     note=("screening load: with RF below 1.0 the single-unit SHVs are rated "
                           "and posted one by one (FHWA SHV Q&A, March 2014)"), alike=alike)
+    # the permits, once the legal loads are known: none over a bridge restricted for them
+    restricted = any(out[c.id].result.action in (PostingAction.POST, PostingAction.CLOSE)
+                     and not out[c.id].screened_out for c in cases if c.postable
+                     and c.category is not VehicleCategory.EMERGENCY)
+    for case in cases:
+        if case.category.is_permit:
+            verdict, note = permit_verdict(case.category, out[case.id].rf, case.im.value,
+                                           restricted)
+            out[case.id] = replace(out[case.id], note=note, permit=verdict)
     if nrl_ok:
         for cid, cp in out.items():
             if cid not in SHVS:
@@ -1462,20 +1478,46 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
     return out
 
 
-def permit_verdict(category: VehicleCategory, rf: float) -> str:
-    """What a permit load's rating factor says of the permit, for the engineer's decision:
-    at least 1.0 as printed, the bridge can carry it as rated (MBE 6A.4.5 [value from
-    memory]); below, not as requested. A permit is never a reason to post or close."""
+CARRIED, NOT_AS_REQUESTED, NOT_OVER_RESTRICTED = (
+    "can be carried", "not as requested", "not over a bridge restricted for legal loads")
+PERMIT_VERDICTS = (CARRIED, NOT_AS_REQUESTED, NOT_OVER_RESTRICTED)
+"""A permit load's verdict: its RF at least 1.0 as printed and the bridge carrying the legal
+loads; below 1.0; at least 1.0 on a bridge that is itself to be posted or closed for the
+legal loads (MBE 6A.4.5 [value from memory])."""
+
+
+def permit_conditions(category: VehicleCategory, im: float) -> str:
+    """The conditions a permit type is rated under (MBE Table 6A.4.5.4.2a-1 [value from
+    memory]); an escorted permit rated without IM is held to a crawl (MBE 6A.4.5.5)."""
+    text = provisions()["permit"][category.value]["conditions"]
+    if category is VehicleCategory.PERMIT_ESCORTED and im == 0.0:
+        text += ", held to a crawl (rated without dynamic load allowance)"
+    return text
+
+
+def permit_verdict(category: VehicleCategory, rf: float, im: float,
+                   restricted: bool = False) -> tuple[str, str]:
+    """What a permit load's rating factor says of the permit, for the engineer's decision,
+    as (verdict, note): at least 1.0 as printed, the truss members and pins carry it under
+    the conditions of its type; below, not as requested; and none is issued over a bridge
+    that is itself to be posted or closed for the legal loads (``restricted``; MBE 6A.4.5
+    [value from memory], the owner's policy governs). A permit never posts or closes."""
+    kind = f"permit load ({category.value}; {permit_conditions(category, im)})"
+    if reported_rf(rf) >= 1.0 and restricted:
+        return NOT_OVER_RESTRICTED, (
+            f"{kind}: RF at least 1.0, but the bridge itself is to be posted or closed for the "
+            "legal loads, and a permit is not issued over such a bridge (MBE 6A.4.5 [value "
+            "from memory]; the owner's policy governs)")
     if reported_rf(rf) >= 1.0:
-        return (f"permit load ({category.value}): RF at least 1.0, so the truss members and "
-                "pins can carry this permit under the conditions of its type; the floor "
-                "system, deck and bearings, not rated here, must be checked for it too, and "
-                "issuing it is the owner's decision")
+        return CARRIED, (
+            f"{kind}: RF at least 1.0, so the truss members and pins can carry this permit "
+            "under those conditions; the floor system, deck and bearings, not rated here, "
+            "must be checked for it too, and issuing it is the owner's decision")
     escort = "" if category is VehicleCategory.PERMIT_ESCORTED else "an escort, "
-    return (f"permit load ({category.value}): RF below 1.0, so this permit should not cross "
-            f"as requested; a lighter or longer vehicle, {escort}or other conditions are "
-            "for the engineer in responsible charge to consider (no posting follows from a "
-            "permit)")
+    return NOT_AS_REQUESTED, (
+        f"{kind}: RF below 1.0, so this permit should not cross as requested; a lighter or "
+        f"longer vehicle, {escort}or other conditions are for the engineer in responsible "
+        "charge to consider (no posting follows from a permit)")
 
 
 SHVS = ("SU4", "SU5", "SU6", "SU7")

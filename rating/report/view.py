@@ -71,7 +71,7 @@ def action_text(entry: PostingResultEntry | None, rating_level: str, d: Display,
     if rating_level in ("inventory", "operating") and entry.action == "none":
         return "design-load rating"
     if rating_level == "permit":
-        return permit_words(entry.rf)
+        return permit_words(entry)
     if entry.not_posted_below_one(rating_level):
         return "not posted"
     return ACTION_TEXT.get(entry.action, entry.action)

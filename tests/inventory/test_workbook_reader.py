@@ -313,10 +313,34 @@ def test_a_permit_vehicle_and_its_own_live_load_factor_are_read(tmp_path) -> Non
     d["tables"]["Vehicles"][0]["gamma_ll"] = 4.0
     r = check(tmp_path, d)
     find(r, cell("Vehicles", 0, "gamma_ll"), "3")
+    d["tables"]["Vehicles"][0]["gamma_ll"] = 0.4  # below the least factor read (0.5)
+    find(check(tmp_path, d), cell("Vehicles", 0, "gamma_ll"), "0.5")
     d["tables"]["Vehicles"][0]["gamma_ll"] = None
     d["tables"]["Vehicles"][0]["category"] = "permit"
     r = check(tmp_path, d)
     find(r, cell("Vehicles", 0, "category"), "routine permit")
+
+
+def test_the_owners_own_factors_and_a_permits_lane_load_are_said_at_their_cells(
+        tmp_path) -> None:
+    """A live-load factor or dynamic load allowance given with a vehicle replaces its
+    category's (a lower one lifts a posting): said at its cell; so is an IM given for
+    anything but an escorted permit (MBE 6A.4.5.5 [value from memory]), and a permit's lane
+    load, placed like a legal load's."""
+    d = fresh()
+    d["tables"]["Vehicles"][0]["gamma_ll"] = 1.2
+    d["tables"]["Vehicles"][0]["im"] = 0.0
+    r = check(tmp_path, d)
+    find(r, cell("Vehicles", 0, "gamma_ll"), "its own live-load factor 1.2",
+         severity="warning")
+    find(r, cell("Vehicles", 0, "im"), "only an escorted permit held to a crawl",
+         severity="warning")
+    d["tables"]["Vehicles"][0].update(category="single-trip permit (escorted)", gamma_ll=None,
+                                      lane_load=0.2, gross=None)
+    r = check(tmp_path, d)
+    assert not [w for w in r.warnings if w.where == cell("Vehicles", 0, "im")]
+    find(r, cell("Vehicles", 0, "lane_load"), "placed like a legal load's",
+         severity="warning")
 
 
 def test_counter_panels_that_get_no_counter_are_said_at_their_cell(tmp_path) -> None:

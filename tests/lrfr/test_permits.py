@@ -16,10 +16,23 @@ from demo_bridge import make_pratt_bridge
 
 from rating.analysis.distribution import lateral_distribution, one_vehicle_alone
 from rating.errors import InputError
-from rating.lrfr.engine import rate_bridge
+from rating.lrfr.engine import (
+    CARRIED,
+    NOT_AS_REQUESTED,
+    NOT_OVER_RESTRICTED,
+    permit_verdict,
+    rate_bridge,
+)
 from rating.lrfr.factors import RatingLevel, live_load_factor, permit_live_load_factor
 from rating.lrfr.posting import PostingAction
-from rating.model import AxleSpacing, CrossSection, Vehicle, VehicleCategory
+from rating.model import (
+    AxleSpacing,
+    CrossSection,
+    Finding,
+    FindingRegion,
+    Vehicle,
+    VehicleCategory,
+)
 from rating.results import DECISION_NOTE, permit_words
 from rating.results_build import build_results
 from rating.vehicles.library import as_rating_load, owner_vehicle
@@ -183,11 +196,13 @@ def test_permit_ratings_scale_with_load_factor_and_distribution(three_ways):
 
 def test_permits_are_never_posted_and_say_what_they_mean(three_ways):
     r = three_ways
-    for cid in ("ROUTINE", "SINGLE"):
+    for cid, conditions in (("ROUTINE", "unlimited crossings, mixed with traffic"),
+                            ("SINGLE", "one crossing, mixed with traffic")):
         cp = r.postings[cid]
         assert cp.result.action is PostingAction.NONE and cp.result.posting_tons is None
-        assert cp.note.startswith("permit load")
-        assert ("can carry this permit" in cp.note) == (cp.rf >= 1.0)
+        assert cp.note.startswith("permit load (")
+        assert conditions in cp.note
+        assert cp.rf < 1.0 and cp.permit == NOT_AS_REQUESTED
     # the bridge's own decision rests on the legal load alone
     res = build_results(r)
     assert res.posting["AS-LEGAL"].action in ("none", "post", "close")
@@ -196,7 +211,9 @@ def test_permits_are_never_posted_and_say_what_they_mean(three_ways):
                                              "posting): ")
     assert head.startswith("Post the bridge") and "routine permit" not in head
     assert permits.endswith(DECISION_NOTE)
-    assert "(routine permit) RF" in permits and "(single-trip permit) RF" in permits
+    assert ", routine permit, RF 0.79 (L3U4): not as requested" in permits
+    assert ", single-trip permit, RF 0.82 (L3U4): not as requested" in permits
+    assert res.posting["SINGLE"].permit == NOT_AS_REQUESTED
     level = {v.id: v.rating_level for v in res.vehicles}
     assert level == {"AS-LEGAL": "legal", "ROUTINE": "permit", "SINGLE": "permit"}
 
@@ -210,19 +227,26 @@ def test_a_permit_below_one_is_not_as_requested():
     cp = r.postings["HEAVY"]
     assert cp.rf < 1.0 and cp.result.action is PostingAction.NONE
     assert "should not cross as requested" in cp.note
-    assert permit_words(cp.rf) == "permit: not as requested"
+    assert "fewer than 100 crossings" in cp.note
     res = build_results(r)
+    assert permit_words(res.posting["HEAVY"]) == "permit: not as requested"
     # no truck legal load was rated: no posting indicated for trucks, and the permit said
     assert res.recommendation.startswith("No truck legal load was rated")
-    assert "(multiple-trip permit) RF" in res.recommendation
+    assert ", multiple-trip permit, RF" in res.recommendation
     assert "not as requested" in res.recommendation
 
 
-def test_permit_words_follow_the_rf_as_printed():
-    assert permit_words(1.0) == "permit: can be carried"
-    assert permit_words(0.999) == "permit: not as requested"  # printed 0.99
-    assert permit_words(math.inf) == "permit: can be carried"  # (not loaded)
-    assert permit_words(-math.inf) == "permit: not as requested"
+def test_permit_verdicts_follow_the_rf_as_printed_and_the_bridge():
+    # MBE 6A.4.5 [value from memory]: RF at least 1.0 as printed; none over a bridge that is
+    # itself restricted for the legal loads
+    assert permit_verdict(V.PERMIT_SINGLE_TRIP, 1.0, 0.33)[0] == CARRIED
+    assert permit_verdict(V.PERMIT_SINGLE_TRIP, 0.999, 0.33)[0] == NOT_AS_REQUESTED  # 0.99
+    assert permit_verdict(V.PERMIT_SINGLE_TRIP, 1.2, 0.33, True)[0] == NOT_OVER_RESTRICTED
+    assert permit_verdict(V.PERMIT_SINGLE_TRIP, 0.8, 0.33, True)[0] == NOT_AS_REQUESTED
+    assert permit_verdict(V.ROUTINE_PERMIT, -math.inf, 0.33)[0] == NOT_AS_REQUESTED
+    crawl = permit_verdict(V.PERMIT_ESCORTED, 1.5, 0.0)[1]
+    assert "escorted, no other vehicle on the bridge, held to a crawl" in crawl
+    assert "held to a crawl" not in permit_verdict(V.PERMIT_ESCORTED, 1.5, 0.2)[1]
 
 
 def test_a_vehicles_own_live_load_factor_comes_before_the_settings_override():
@@ -237,6 +261,8 @@ def test_a_vehicles_own_live_load_factor_comes_before_the_settings_override():
     permit = _crane(V.PERMIT_ESCORTED, "ESC")
     r = rate_bridge(replace(bridge, owner_vehicles=(permit,)), ["ESC"])
     assert r.cases[0].gamma_ll.value == pytest.approx(1.15)
+    assert any(a.startswith("The owner's live-load factor (1.4, Settings sheet) is for the "
+                            "legal loads: the permits (ESC)") for a in r.assumptions)
 
 
 def test_a_vehicles_own_dynamic_load_allowance_is_used():
@@ -266,7 +292,27 @@ def test_a_permit_at_or_above_one_can_be_carried_and_the_floor_is_named():
     r = rate_bridge(replace(make_pratt_bridge(pins=False), owner_vehicles=(light,)),
                     ["LIGHT"])
     cp = r.postings["LIGHT"]
-    assert cp.rf >= 1.0 and cp.result.action is PostingAction.NONE
+    assert cp.rf >= 1.0 and cp.result.action is PostingAction.NONE and cp.permit == CARRIED
     assert "can carry this permit" in cp.note and "floor system" in cp.note
-    assert "(single-trip permit) RF" in build_results(r).recommendation
-    assert ": can be carried as rated" in build_results(r).recommendation
+    text = build_results(r).recommendation
+    assert (", single-trip permit, RF" in text and ": the truss members and pins carry it "
+            "(one crossing, mixed with traffic); the floor system, deck and bearings are to "
+            "be checked for it." in text)
+
+
+def test_no_permit_over_a_bridge_posted_for_the_legal_loads():
+    # the light crane carried by the truss, but the Type 3 posts this demo bridge when its
+    # diagonals have lost half their section (invented findings): the permit is not issued
+    # over a posted bridge (MBE 6A.4.5 [value from memory])
+    light = replace(_crane(V.PERMIT_SINGLE_TRIP, "LIGHT"),
+                    axle_loads_kip=tuple(0.3 * a for a in AXLES), gross_weight_tons=13.8)
+    worn = [Finding(m, "all", FindingRegion.BODY, percent_loss=55.0, where="test")
+            for m in ("U2L3", "L5U6")]
+    r = rate_bridge(replace(make_pratt_bridge(findings=worn, pins=False),
+                            owner_vehicles=(light,)), ["TYPE-3", "LIGHT"])
+    assert r.postings["TYPE-3"].result.action is not PostingAction.NONE
+    cp = r.postings["LIGHT"]
+    assert cp.rf >= 1.0 and cp.permit == NOT_OVER_RESTRICTED
+    assert "not issued over such a bridge" in cp.note
+    assert ("not over this bridge while it is restricted for the legal loads"
+            in build_results(r).recommendation)
