@@ -218,12 +218,19 @@ def test_permits_are_never_posted_and_say_what_they_mean(three_ways):
     assert level == {"AS-LEGAL": "legal", "ROUTINE": "permit", "SINGLE": "permit"}
 
 
+def _rate_crane(category: VehicleCategory, vid: str, scale: float, findings=(),
+                others: tuple[str, ...] = ()):
+    """The demo Pratt (no pins) rated for the crane with its axles times ``scale``, and the
+    loads ``others``."""
+    v = replace(_crane(category, vid), axle_loads_kip=tuple(scale * a for a in AXLES),
+                gross_weight_tons=46.0 * scale)
+    return rate_bridge(replace(make_pratt_bridge(findings=findings, pins=False),
+                               owner_vehicles=(v,)), [*others, vid])
+
+
 def test_a_permit_below_one_is_not_as_requested():
     # the same crane three times as heavy: below 1.0 on this truss
-    heavy = replace(_crane(V.PERMIT_MULTIPLE_TRIPS, "HEAVY"),
-                    axle_loads_kip=tuple(3.0 * a for a in AXLES), gross_weight_tons=138.0)
-    r = rate_bridge(replace(make_pratt_bridge(pins=False), owner_vehicles=(heavy,)),
-                    ["HEAVY"])
+    r = _rate_crane(V.PERMIT_MULTIPLE_TRIPS, "HEAVY", 3.0)
     cp = r.postings["HEAVY"]
     assert cp.rf < 1.0 and cp.result.action is PostingAction.NONE
     assert "should not cross as requested" in cp.note
@@ -287,10 +294,7 @@ def test_a_vehicles_own_dynamic_load_allowance_is_used():
 
 
 def test_a_permit_at_or_above_one_can_be_carried_and_the_floor_is_named():
-    light = replace(_crane(V.PERMIT_SINGLE_TRIP, "LIGHT"),
-                    axle_loads_kip=tuple(0.5 * a for a in AXLES), gross_weight_tons=23.0)
-    r = rate_bridge(replace(make_pratt_bridge(pins=False), owner_vehicles=(light,)),
-                    ["LIGHT"])
+    r = _rate_crane(V.PERMIT_SINGLE_TRIP, "LIGHT", 0.5)
     cp = r.postings["LIGHT"]
     assert cp.rf >= 1.0 and cp.result.action is PostingAction.NONE and cp.permit == CARRIED
     assert "can carry this permit" in cp.note and "floor system" in cp.note
@@ -304,12 +308,9 @@ def test_no_permit_over_a_bridge_posted_for_the_legal_loads():
     # the light crane carried by the truss, but the Type 3 posts this demo bridge when its
     # diagonals have lost half their section (invented findings): the permit is not issued
     # over a posted bridge (MBE 6A.4.5 [value from memory])
-    light = replace(_crane(V.PERMIT_SINGLE_TRIP, "LIGHT"),
-                    axle_loads_kip=tuple(0.3 * a for a in AXLES), gross_weight_tons=13.8)
     worn = [Finding(m, "all", FindingRegion.BODY, percent_loss=55.0, where="test")
             for m in ("U2L3", "L5U6")]
-    r = rate_bridge(replace(make_pratt_bridge(findings=worn, pins=False),
-                            owner_vehicles=(light,)), ["TYPE-3", "LIGHT"])
+    r = _rate_crane(V.PERMIT_SINGLE_TRIP, "LIGHT", 0.3, worn, ("TYPE-3",))
     assert r.postings["TYPE-3"].result.action is not PostingAction.NONE
     cp = r.postings["LIGHT"]
     assert cp.rf >= 1.0 and cp.permit == NOT_OVER_RESTRICTED
