@@ -1448,6 +1448,7 @@ class _Reading:
                                lane_load_klf=_f(vr, "lane_load") or 0.0,
                                gamma_ll=_f(vr, "gamma_ll"),
                                im=None if _f(vr, "im") is None else _f(vr, "im") / 100.0,
+                               wheel_gauge_ft=_f(vr, "wheel_gauge"),
                                source="owner's vehicle, inspection workbook",
                                tag="owner data", where=vr.ref("vehicle")))
         return tuple(out)

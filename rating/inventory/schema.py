@@ -653,6 +653,10 @@ VEHICLES = TableSheet(
            warn_above=2.0, blank_means="by category and ADTT",
            help="The owner's live-load factor for this vehicle, in place of the one its "
                 "category gives."),
+        _c("wheel_gauge", "Wheel gauge", Kind.NUMBER, LENGTH, ge=3, le=14, warn_above=10,
+           blank_means="6 ft, as the design vehicles",
+           help="Centre to centre of the wheel lines (a wide crane's), for the lever rule "
+                "across the floorbeam."),
         _pct("im", "Dynamic load allowance", ge=0, le=100, warn_above=50,
              blank_means="as for the legal loads",
              help="For this vehicle alone, e.g. 0 for an escorted permit held to a crawl "

@@ -735,36 +735,46 @@ def without_text(member: str, w: WithoutMember) -> str:
             "were not rated again, so this RF is the most that rating could give.")
 
 
-def _case_distribution(cases: Sequence[RatingCase], dist: DistributionResult
+def _case_distribution(cases: Sequence[RatingCase], dist: DistributionResult,
+                       of_gauge: Callable[[float], DistributionResult]
                        ) -> tuple[dict[str, float], list[str]]:
     """Each case's fraction of one vehicle to one truss, and notes on the ones that differ
-    from the bridge's: a special permit is rated with one vehicle alone in one lane, the
-    multiple presence factor divided out (MBE Table 6A.4.5.4.2a-1, C6A.4.5.4.2a [value from
-    memory]); a routine permit, like every other load, with the governing lever-rule case."""
+    from the bridge's ``dist``: a vehicle with its own wheel gauge has its own lever rule
+    (``of_gauge``); a special permit is rated with one vehicle alone in one lane, the multiple
+    presence factor divided out (MBE Table 6A.4.5.4.2a-1, C6A.4.5.4.2a [value from memory]);
+    a routine permit, like every other load, with the governing lever-rule case. The owner's
+    distribution factor, where given, serves every case as given."""
     out: dict[str, float] = {}
     notes: list[str] = []
-    special = [c for c in cases if c.category.is_special_permit]
-    alone = one_vehicle_alone(dist) if special else None
+    own: dict[float, DistributionResult] = {}
+    override = dist.basis == "owner override"
     for c in cases:
-        out[c.id] = dist.factor
-        if alone is not None and c in special and dist.basis != "owner override":
+        gauge = c.load.wheel_gauge_ft
+        if gauge is not None and not override and gauge not in own:
+            try:
+                own[gauge] = of_gauge(gauge)
+            except InputError as e:
+                where = next((m.axles.where for m in c.load.models if m.axles), None)
+                raise InputError(f"vehicle {c.load.id}: {e.message}", where or e.where) from None
+        d = dist if gauge is None or override else own[gauge]
+        out[c.id] = d.factor
+        why = [] if d is dist else [f"its wheel gauge of {gauge:g} ft (lever rule)"]
+        if c.category.is_special_permit:
+            alone = one_vehicle_alone(d)
+            if override:
+                notes.append(
+                    f"Special permit {c.id} takes the owner's distribution factor "
+                    f"{dist.factor:.3f} as given; the permit rules load one lane with the "
+                    f"multiple presence factor divided out (lever rule: {alone.share:.3f}; "
+                    f"{SOURCE_ONE_VEHICLE}).")
+                continue
             out[c.id] = alone.factor
-    if alone is not None:
-        names = ", ".join(c.id for c in special)
-        if dist.basis == "owner override":
-            notes.append(
-                f"Special permits ({names}) take the owner's distribution factor "
-                f"{dist.factor:.3f} as given; the permit rules load one lane with the "
-                "multiple presence factor divided out (lever rule: "
-                f"{alone.share:.3f}; {SOURCE_ONE_VEHICLE}).")
-        else:
-            notes.append(
-                f"Special permits ({names}) are rated with the permit vehicle alone in one "
-                f"lane, as near the {alone.truss} truss as the lane rules allow, with no "
-                f"multiple presence: lever-rule share {alone.share:.3f} "
-                f"({SOURCE_ONE_VEHICLE}); the "
-                "other loads use the bridge's distribution factor "
-                f"{dist.factor:.3f}.")
+            why.append(f"the permit vehicle alone in one lane, as near the {alone.truss} truss "
+                       f"as the lane rules allow, with no multiple presence "
+                       f"({SOURCE_ONE_VEHICLE})")
+        if why:
+            notes.append(f"{c.id} is rated with {' and '.join(why)}: distribution factor "
+                         f"{out[c.id]:.3f}, where the other loads take {dist.factor:.3f}.")
     return out, notes
 
 
@@ -898,7 +908,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
-    df_of, notes = _case_distribution(cases, dist)
+    df_of, notes = _case_distribution(cases, dist, lambda gauge: lateral_distribution(
+        bridge.cross_section, override=st.distribution_factor_override,
+        prefer=dead.rated_truss, wheel_gauge_ft=gauge))
     assumptions.extend(notes)
     if st.wearing_surface_measured:
         if np.any(dead.joint_loads_dw_surface_kip):

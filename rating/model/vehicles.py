@@ -54,7 +54,8 @@ class Vehicle:
     ``min_span_ft`` marks a load model that applies only to longer spans.
     ``gross_weight_tons`` is the weight W used for rating in tons and posting.
     ``gamma_ll``: the owner's live-load factor for this vehicle (None: by its category);
-    ``im``: its dynamic load allowance (None: as the settings give for its category).
+    ``im``: its dynamic load allowance (None: as the settings give for its category);
+    ``wheel_gauge_ft``: its wheel lines' distance apart (None: the 6 ft of the design vehicles).
     """
 
     id: str
@@ -71,6 +72,7 @@ class Vehicle:
     where: str = ""
     gamma_ll: float | None = None
     im: float | None = None
+    wheel_gauge_ft: float | None = None
 
     @property
     def axle_count(self) -> int:

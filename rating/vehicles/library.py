@@ -68,6 +68,7 @@ class RatingLoad:
     tag: str = ""
     gamma_ll: float | None = None  # the owner's live-load factor for it (None: by category)
     im: float | None = None  # the owner's dynamic load allowance for it (None: as settings)
+    wheel_gauge_ft: float | None = None  # its own wheel gauge (None: 6 ft)
 
     @property
     def weight_ratio_kip_per_ft(self) -> float:
@@ -189,7 +190,7 @@ def as_rating_load(v: Vehicle, *, neglect_opposing_axles: bool = False) -> Ratin
     axles = v if v.axle_count else None
     model = LoadModel(v.name, axles, v.lane_load_klf, neglect_opposing_axles)
     return RatingLoad(v.id, v.name, v.category, (model,), v.gross_weight_tons, v.min_span_ft,
-                      v.source, v.tag, v.gamma_ll, v.im)
+                      v.source, v.tag, v.gamma_ll, v.im, v.wheel_gauge_ft)
 
 
 # ---------------------------------------------------------------------------------------------

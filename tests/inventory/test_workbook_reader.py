@@ -308,8 +308,12 @@ def test_a_permit_vehicle_and_its_own_live_load_factor_are_read(tmp_path) -> Non
     assert v.category is VehicleCategory.PERMIT_ESCORTED and v.gamma_ll == 1.25
     assert v.im == 0.0
     d["tables"]["Vehicles"][0]["im"] = 10.0
+    d["tables"]["Vehicles"][0]["wheel_gauge"] = 9.0
     v = next(v for v in check(tmp_path, d).bridge.owner_vehicles if v.id == "OWN-1")
-    assert v.im == pytest.approx(0.10)
+    assert v.im == pytest.approx(0.10) and v.wheel_gauge_ft == 9.0
+    d["tables"]["Vehicles"][0]["wheel_gauge"] = 30.0
+    find(check(tmp_path, d), cell("Vehicles", 0, "wheel_gauge"), "14")
+    d["tables"]["Vehicles"][0]["wheel_gauge"] = None
     d["tables"]["Vehicles"][0]["gamma_ll"] = 4.0
     r = check(tmp_path, d)
     find(r, cell("Vehicles", 0, "gamma_ll"), "3")

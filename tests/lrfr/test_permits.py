@@ -167,7 +167,8 @@ def test_permits_take_their_factors_and_distribution(three_ways):
     assert r.live[(m, "SINGLE")].distribution_factor == pytest.approx(
         one_vehicle_alone(dist).factor)
     assert r.distribution_factor == pytest.approx(dist.factor)
-    assert any("Special permits (SINGLE)" in a for a in r.assumptions)
+    assert any(a.startswith("SINGLE is rated with the permit vehicle alone in one lane")
+               for a in r.assumptions)
 
 
 def test_permit_ratings_scale_with_load_factor_and_distribution(three_ways):
@@ -317,3 +318,30 @@ def test_no_permit_over_a_bridge_posted_for_the_legal_loads():
     assert "not issued over such a bridge" in cp.note
     assert ("not over this bridge while it is restricted for the legal loads"
             in build_results(r).recommendation)
+
+
+def test_a_vehicles_own_wheel_gauge_has_its_own_lever_rule():
+    # the demo Pratt: trusses 18 ft apart, a 16 ft roadway from 1 ft: one 12 ft lane. A
+    # crane of 9 ft gauge cannot keep 2 ft from both lane edges, so it is centred in the
+    # lane: wheels 2.5 ft and 11.5 ft from the truss, ((18 - 2.5) + (18 - 11.5)) / 36 =
+    # 22/36 of an axle (lever rule, statics); the 6 ft gauge, 2 ft from the curb, gives
+    # ((18 - 3) + (18 - 9)) / 36 = 24/36
+    wide = replace(_crane(V.PERMIT_SINGLE_TRIP, "WIDE"), wheel_gauge_ft=9.0)
+    narrow = _crane(V.PERMIT_SINGLE_TRIP, "NARROW")
+    legal = replace(_crane(V.OWNER, "WIDE-LEGAL"), wheel_gauge_ft=9.0)
+    r = rate_bridge(replace(make_pratt_bridge(pins=False),
+                            owner_vehicles=(wide, narrow, legal)),
+                    ["WIDE", "NARROW", "WIDE-LEGAL"])
+    m = r.geometry.members[0].label
+    assert r.live[(m, "WIDE")].distribution_factor == pytest.approx(22.0 / 36.0)
+    assert r.live[(m, "NARROW")].distribution_factor == pytest.approx(24.0 / 36.0)
+    # a legal vehicle of that gauge: one lane loaded with its multiple presence, 1.20
+    assert r.live[(m, "WIDE-LEGAL")].distribution_factor == pytest.approx(1.2 * 22.0 / 36.0)
+    assert any(a.startswith("WIDE is rated with its wheel gauge of 9 ft (lever rule) and "
+                            "the permit vehicle alone") for a in r.assumptions)
+    # a gauge the roadway cannot hold is refused, naming the vehicle and its place
+    too_wide = replace(_crane(V.OWNER, "TOO-WIDE"), wheel_gauge_ft=17.0, where="Vehicles!B9")
+    with pytest.raises(InputError, match="vehicle TOO-WIDE: the roadway is 16 ft wide") as e:
+        rate_bridge(replace(make_pratt_bridge(pins=False), owner_vehicles=(too_wide,)),
+                    ["TOO-WIDE"])
+    assert e.value.where == "Vehicles!B9"
