@@ -74,12 +74,15 @@ def _geometric(L: float, N: float) -> np.ndarray:
 
 def chord_buckling(lengths_in: Sequence[float], EI_kip_in2: Sequence[float],
                    compression_kip: Sequence[float], springs_kip_per_in: Sequence[float],
-                   *, per_segment: int = ELEMENTS_PER_SEGMENT) -> ChordBuckling:
+                   *, hinged: Sequence[int] = (),
+                   per_segment: int = ELEMENTS_PER_SEGMENT) -> ChordBuckling:
     """Elastic buckling of a column of segments (lengths, bending stiffness E I out of plane,
     axial compression each) laid end to end, held laterally at both ends and by a spring at
     each of the joints between segments (``springs_kip_per_in``, one per inner joint; 0 for
-    none), free to turn everywhere: the least load multiplier and each segment's effective
-    length.
+    none), free to turn everywhere, and continuous in bending through every inner joint but
+    those ``hinged`` (numbered from 1, the first inner joint): the least load multiplier and
+    each segment's effective length. A chord that is a mechanism (a hinge with no spring)
+    buckles at 0.
 
     Linear buckling of a beam on elastic supports by cubic beam elements with their consistent
     geometric stiffness (Timoshenko and Gere, Theory of Elastic Stability, 2.10-2.11; the
@@ -94,28 +97,42 @@ def chord_buckling(lengths_in: Sequence[float], EI_kip_in2: Sequence[float],
         return ChordBuckling(math.inf, tuple(math.inf for _ in range(n)))
     k = per_segment
     nodes = n * k + 1
-    K = np.zeros((2 * nodes, 2 * nodes))
-    G = np.zeros((2 * nodes, 2 * nodes))
-    for s in range(n):
-        h = float(lengths_in[s]) / k
-        ke, ge = _beam(h, float(EI_kip_in2[s])), _geometric(h, float(N[s]))
+    # DOFs: each node's lateral movement w and turn theta; a hinged joint has a second turn,
+    # that of the segment to its right
+    hinge = sorted({int(j) for j in hinged if 0 < int(j) < n})
+    extra = {j: 2 * nodes + i for i, j in enumerate(hinge)}
+    size = 2 * nodes + len(hinge)
+    K = np.zeros((size, size))
+    G = np.zeros((size, size))
+    for s_ in range(n):
+        h = float(lengths_in[s_]) / k
+        ke, ge = _beam(h, float(EI_kip_in2[s_])), _geometric(h, float(N[s_]))
         for e in range(k):
-            at = 2 * (s * k + e)
-            K[at:at + 4, at:at + 4] += ke
-            G[at:at + 4, at:at + 4] += ge
+            a = s_ * k + e
+            turn = extra[s_] if e == 0 and s_ in extra else 2 * a + 1
+            dofs = np.array([2 * a, turn, 2 * a + 2, 2 * a + 3])
+            K[np.ix_(dofs, dofs)] += ke
+            G[np.ix_(dofs, dofs)] += ge
     for j, c in enumerate(springs_kip_per_in, start=1):
         K[2 * j * k, 2 * j * k] += float(c)
-    free = np.ones(2 * nodes, dtype=bool)
+    free = np.ones(size, dtype=bool)
     free[[0, 2 * (nodes - 1)]] = False  # the bearings hold the chord's ends laterally
     Kf, Gf = K[np.ix_(free, free)], G[np.ix_(free, free)]
-    # K is positive definite (held at both ends); the largest mu of G x = mu K x is 1 / lam:
-    # with K = C C^T, the largest eigenvalue of C^-1 G C^-T (numpy alone: scipy.linalg's
-    # import costs a one-workbook run more than this whole analysis)
-    C = np.linalg.cholesky(Kf)
+    # K is positive definite where the chord is held (else a mechanism: it buckles at 0); the
+    # largest mu of G x = mu K x is 1 / lam: with K = C C^T, the largest eigenvalue of
+    # C^-1 G C^-T (numpy alone: scipy.linalg's import costs a one-workbook run more than this
+    # whole analysis)
+    try:
+        C = np.linalg.cholesky(Kf)
+    except np.linalg.LinAlgError:
+        return ChordBuckling(0.0, tuple(math.inf for _ in range(n)))
     Ci = np.linalg.inv(C)
     A = Ci @ Gf @ Ci.T
     mu = float(np.linalg.eigvalsh(0.5 * (A + A.T))[-1])
     lam = 1.0 / mu if mu > 0 else math.inf
+    if lam < 1e-9 * float(np.min(np.asarray(EI_kip_in2)) / max(
+            float(np.sum(lengths_in)), 1.0) ** 2 / float(N.max())):
+        return ChordBuckling(0.0, tuple(math.inf for _ in range(n)))  # (a near mechanism)
     EI = np.asarray(EI_kip_in2, dtype=float)
     with np.errstate(divide="ignore"):
         le = np.where(N > 0, math.pi * np.sqrt(EI / (lam * np.where(N > 0, N, 1.0))), math.inf)

@@ -365,7 +365,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     s = C[k]
     axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"
     out = ("" if KL_out_of_plane_ft is None else
-           f", KL out of plane = {KL_out_of_plane_ft:.2f} ft (U-frames)")
+           f", KL out of plane = {KL_out_of_plane_ft:.3f} ft (U-frames)")
     detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft{out}, KL/r = "
               f"{klr[k]:.1f} ({axis}), {_Q_text(Q_s[k], Q_a[k])}, F_y = {Fy:g} ksi, "
               f"E = {E:g} ksi")

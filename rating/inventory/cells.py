@@ -109,6 +109,12 @@ def _number_from_text(text: str, unit: str) -> float | None:
 
 
 def _fmt(v: float) -> str:
+    """Six significant digits, never an exponent where the number is a plain reading (a
+    floorbeam's 20,811,600 mm4, not 2.08116e+07)."""
+    if v != 0 and 1e-4 <= abs(v) < 1e11:
+        digits = max(0, 5 - int(math.floor(math.log10(abs(v)))))
+        text = f"{round(v, digits):.{digits}f}"
+        return text.rstrip("0").rstrip(".") if "." in text else text
     return f"{v:.6g}"
 
 

@@ -589,8 +589,9 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
                 "(their effective lengths are among the assumptions), but the U-frames' own "
                 "members (the verticals in bending, the floorbeam connections) are not checked "
                 "for the force that holds the chord (AASHTO LRFD 6.14.2.9 [value from "
-                "memory]): the engineer should check them, and the chord's straightness in "
-                "the field.")
+                "memory]): the engineer should check them, the chord's continuity out of "
+                "plane at the hips (its effect is among the assumptions) and its straightness "
+                "in the field.")
     else:
         text = (f"the top chord and end posts ({', '.join(chord)}) are rated with an effective "
                 "length of K times their length between panel points (K as given in the "
@@ -598,9 +599,10 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
                 "no top lateral bracing: its chord is held only by the U-frames of the "
                 "verticals and floorbeams (AASHTO LRFD 6.14.2.9 [value from memory]), whose "
                 "stiffness is not checked here: give the floorbeam's moment of inertia on the "
-                "Bridge sheet to rate the chord on them, or check the chord's lateral "
-                "stability (a column on elastic supports) by hand and give the members' "
-                "effective length factor in the workbook where that check makes it longer.")
+                "Bridge sheet to rate the chord on them (where it has verticals), or check the "
+                "chord's lateral stability (a column on elastic supports) by hand and give the "
+                "members' effective length factor in the workbook where that check makes it "
+                "longer.")
     controls = sorted({p.controlling for p in postings.values()} & set(chord))
     if controls:
         return [f"PONY TRUSS TOP CHORD CONTROLS: {', '.join(controls)} control"
@@ -623,9 +625,13 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
     compression = {m.label: -float(f) for m, f in zip(g.members, force, strict=True)}
     chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb)
     if chord is None:
-        warnings.append("pony truss: the floorbeam's moment of inertia is given, but the top "
-                        "chord and end posts do not make one path from bearing to bearing (or "
-                        "one has no section left): the U-frames were not analysed")
+        warnings.append("pony truss: the floorbeam's moment of inertia is given, but the "
+                        "U-frames were not analysed: the top chord and end posts do not make "
+                        "one path from bearing to bearing, one has no section left, or no "
+                        "top-chord joint has a vertical with bending stiffness down to a "
+                        "floorbeam (a chord held by inclined frames alone is not analysed). "
+                        "The chord is rated as held at each panel point; check its lateral "
+                        "stability by hand")
         return
     st = bridge.settings
     for lab, KL_ft in chord.lengths_ft.items():

@@ -25,15 +25,36 @@ _CHORD = (MemberRole.TOP_CHORD, MemberRole.END_POST)
 _UPRIGHT = (MemberRole.VERTICAL, MemberRole.HANGER)
 
 
+UFRAME_FORCE_KLF = 0.30
+"""The lateral force per foot of truss, applied at the top chord's panel points, that the
+verticals, floorbeams and their connections of a half-through truss are to resist (AASHTO
+LRFD 6.14.2.9 [value from memory])."""
+
+
+@dataclass(frozen=True)
+class UFrame:
+    """One inner joint of the chord: the upright that makes its U-frame ("" for none, with
+    ``why``), its spring (kip/in), and the force of :data:`UFRAME_FORCE_KLF` over the joint's
+    share of the chord (kip) with its moment at the upright's foot (kip-in)."""
+
+    upright: str
+    spring_kip_per_in: float
+    why: str = ""
+    force_kip: float = 0.0
+    moment_kip_in: float = 0.0
+
+
 @dataclass(frozen=True)
 class PonyChord:
     """The U-frame analysis of a pony truss's chord: each chord member's effective length out
-    of the truss plane (ft, never less than K L), each inner joint's U-frame spring (kip/in)
-    with the upright that makes it, and the words for the report."""
+    of the truss plane (ft, never less than K L), each inner joint's U-frame, the buckling
+    multiplier of the dead-load forces, the same with the chord hinged out of plane at its
+    hips (``hips_hinged``, 0 for a mechanism), and the words for the report."""
 
     lengths_ft: Mapping[str, float]
-    springs: Mapping[str, tuple[str, float]]
+    frames: Mapping[str, UFrame]
     multiplier: float
+    hips_hinged: float
     assumption: str
 
 
@@ -62,14 +83,16 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                compression_kip: Mapping[str, float], truss_spacing_ft: float,
                floorbeam_I_in4: float, K_of: Mapping[str, float] | None = None
                ) -> PonyChord | None:
-    """The U-frame analysis of a pony truss (None for another deck position, or where the
-    chord is not one path from bearing to bearing). ``compression_kip``: each chord member's
-    dead-load compression (positive); ``K_of``: each member's K (its K L is the least length
-    kept).
+    """The U-frame analysis of a pony truss (None for another deck position, where the chord
+    is not one path from bearing to bearing, where a chord member has nothing left to bend,
+    or where no inner joint has a U-frame: a chord held by inclined frames alone is not
+    analysed). ``compression_kip``: each chord member's dead-load compression (positive);
+    ``K_of``: each member's K (its K L is the least length kept).
 
     U-frame spring: statics of the elastic U-frame; chord: linear buckling on elastic
-    supports (rating.analysis.uframe) [common practice]; AASHTO LRFD 6.14.2.9 for the
-    U-frames of half-through trusses [value from memory].
+    supports, continuous out of plane through its joints (rating.analysis.uframe) [common
+    practice]; AASHTO LRFD 6.14.2.9 for the U-frames of half-through trusses [value from
+    memory].
     """
     if g.deck_position is not DeckPosition.PONY:
         return None
@@ -77,52 +100,86 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
     if path is None:
         return None
     deck = set(g.deck_joints)
-    lengths, EI, N, springs = [], [], [], {}
+    lengths, EI, N = [], [], []
     for lab, _ in path:
-        cap = capacities[lab]
-        s_ = cap.summary
+        s_ = capacities[lab].summary
         lengths.append(g.member_length_ft(lab) * 12.0)
         EI.append(s_.E * s_.A_g_in2 * s_.r_out_of_plane_in ** 2)
         N.append(max(compression_kip.get(lab, 0.0), 0.0))
-    for _, joint in path[:-1]:
-        upright = [m for m in g.members_at(joint) if m.role in _UPRIGHT
-                   and (m.end if m.start == joint else m.start) in deck]
-        c, who = 0.0, ""
-        for m in upright:
+    if not all(x > 0 for x in EI):
+        return None
+    frames: dict[str, UFrame] = {}
+    for i, (_, joint) in enumerate(path[:-1]):
+        # the joint's share of the chord, along the deck: half of each member's run
+        share_ft = 0.5 * sum(abs(g.joint(a).x_ft - g.joint(b).x_ft)
+                             for lab in (path[i][0], path[i + 1][0])
+                             for a, b in [(g.member(lab).start, g.member(lab).end)])
+        best = UFrame("", 0.0, "no vertical or hanger down to a floorbeam")
+        for m in g.members_at(joint):
+            if m.role not in _UPRIGHT or (m.end if m.start == joint else m.start) not in deck:
+                continue
             s_ = capacities[m.label].summary
             I_v = s_.A_g_in2 * s_.r_out_of_plane_in ** 2
-            c_m = uframe_stiffness_kip_per_in(g.member_length_ft(m.label) * 12.0,
-                                              truss_spacing_ft * 12.0, s_.E, I_v,
-                                              floorbeam_I_in4)
-            if c_m > c:
-                c, who = c_m, m.label
-        springs[joint] = (who, c)
-    if not all(x > 0 for x in EI):
-        return None  # (a member with nothing left to bend: no column to speak of)
-    b = chord_buckling(lengths, EI, N, [springs[j][1] for _, j in path[:-1]])
+            h_in = g.member_length_ft(m.label) * 12.0
+            c = uframe_stiffness_kip_per_in(h_in, truss_spacing_ft * 12.0, s_.E, I_v,
+                                            floorbeam_I_in4)
+            if c > best.spring_kip_per_in:
+                F = UFRAME_FORCE_KLF * share_ft
+                best = UFrame(m.label, c, "", F, F * h_in)
+            elif not best.upright:
+                best = UFrame("", 0.0, f"{m.label}, of bars or rods, has no bending "
+                                       "stiffness out of the truss plane")
+        frames[joint] = best
+    if not any(f.spring_kip_per_in > 0 for f in frames.values()):
+        return None
+    springs = [frames[j].spring_kip_per_in for _, j in path[:-1]]
+    b = chord_buckling(lengths, EI, N, springs)
+    hips = [i + 1 for i in range(len(path) - 1)
+            if MemberRole.END_POST in (g.member(path[i][0]).role,
+                                       g.member(path[i + 1][0]).role)]
+    hinged = (chord_buckling(lengths, EI, N, springs, hinged=hips).multiplier if hips
+              else b.multiplier)
     out = {}
     for (lab, _), le_in, L_in in zip(path, b.effective_length_in, lengths, strict=True):
         K = (K_of or {}).get(lab, capacities[lab].summary.K)
         out[lab] = max(K * L_in, le_in if math.isfinite(le_in) else K * L_in) / 12.0
-    return PonyChord(out, springs, b.multiplier, _words(path, out, springs, floorbeam_I_in4,
-                                                      truss_spacing_ft))
+    hip_joints = [path[i - 1][1] for i in hips]
+    return PonyChord(out, frames, b.multiplier, hinged,
+                     _words(path, out, frames, floorbeam_I_in4, truss_spacing_ft,
+                            hip_joints, hinged / b.multiplier if b.multiplier > 0 else 1.0))
 
 
 def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
-           springs: Mapping[str, tuple[str, float]], I_fb: float, spacing_ft: float) -> str:
+           frames: Mapping[str, UFrame], I_fb: float, spacing_ft: float,
+           hips: Sequence[str], hip_ratio: float) -> str:
     """The assumption the report lists."""
-    frames = "; ".join(f"{j}: {who} {c:.3g} kip/in" if who else f"{j}: none"
-                       for j, (who, c) in springs.items())
-    kl = ", ".join(f"{lab} {lengths[lab]:.2f} ft" for lab, _ in path)
+    springs = "; ".join(
+        f"{j}: {f.upright} {f.spring_kip_per_in:.5g} kip/in" if f.upright
+        else f"{j}: none ({f.why})" for j, f in frames.items())
+    forces = "; ".join(f"{j}: {f.force_kip:.4g} kip, {f.moment_kip_in:.4g} kip-in at the foot "
+                       f"of {f.upright}" for j, f in frames.items() if f.upright)
+    kl = ", ".join(f"{lab} {lengths[lab]:.3f} ft" for lab, _ in path)
+    hip = ""
+    if hips:
+        hip = (f" The chord is taken as continuous in bending out of plane through its joints; "
+               f"hinged there at the hips ({', '.join(hips)}), as a butt joint on the pin "
+               "without a splice would be, it would buckle "
+               + ("as a mechanism, at no load: the rating rests on the hips' continuity, "
+                  "which the engineer should confirm" if hip_ratio <= 0 else
+                  f"at {hip_ratio:.0%} of this load: the engineer should confirm the hips' "
+                  "detail") + ".")
     return (f"{UFRAME_ASSUMPTION} the top chord and end posts are rated out of the truss "
             "plane as one column held at the bearings and by the U-frames of the verticals and "
-            f"floorbeams (floorbeam I = {I_fb:.4g} in4 over {spacing_ft:.4g} ft; each upright's "
-            "own section "
-            "after loss, its length as its height): U-frame springs "
-            f"{frames} (a U-frame's spring 1 / (h^3 / (3 E I_v) + h^2 b / (2 E I_fb)), the "
-            "chords moving apart; statics, common practice). Elastic buckling of that column "
-            "under the dead-load forces (beam elements on the springs, common practice; "
-            "AASHTO LRFD 6.14.2.9 for half-through trusses [value from memory]) gives the "
-            f"effective lengths out of plane: {kl} (never less than K L). The U-frames' own "
-            "members (the verticals in bending, the floorbeam connections) are not checked for "
-            "the force that holds the chord, nor is the chord's initial crookedness.")
+            f"floorbeams (floorbeam I = {I_fb:.5g} in4 over {spacing_ft:.5g} ft, as given; each "
+            "upright's own section after loss, its length as the frame's height, its "
+            "connection to the floorbeam rigid, its own axial load and its lacing's shear "
+            f"ignored): U-frame springs {springs} (a U-frame's spring 1 / (h^3 / (3 E I_v) + "
+            "h^2 b / (2 E I_fb)), the chords moving apart; statics, common practice). Elastic "
+            "buckling of that column under the dead-load forces (beam elements on the "
+            "springs, common practice; AASHTO LRFD 6.14.2.9 for half-through trusses [value "
+            f"from memory]) gives the effective lengths out of plane: {kl} (never less than "
+            f"K L).{hip} The U-frames' own members are not checked: AASHTO LRFD 6.14.2.9 "
+            f"[value from memory] has the verticals, floorbeams and their connections resist "
+            f"{UFRAME_FORCE_KLF:g} klf at the top chord's panel points, here {forces}. Nor is "
+            "the chord's sweep in the field beyond what the column curve allows, or the "
+            "brace force it makes.")

@@ -473,6 +473,16 @@ _WORKED_OUT = "with own-weight bending"
 back from an interaction (rating.capacity.own_weight), not read from one formula; the
 others' quantities are in the results file (``detail``) and mostly in the sections table."""
 
+_OWN_LENGTH = "(U-frames)"
+"""In a check's quantities: a length out of plane found apart (a pony truss's chord on its
+U-frames, rating.lrfr.uframes), which the sections table's K and length do not give; the
+appendix prints those quantities too."""
+
+
+def _worked(name: str, detail: str) -> bool:
+    """Whether the appendix prints a check's quantities under it."""
+    return bool(detail) and (name.endswith(_WORKED_OUT) or _OWN_LENGTH in detail)
+
 
 def _vehicle_label(v: VehicleResult | None, vid: str) -> str:
     return v.name if v is not None and v.name else vid
@@ -829,7 +839,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         f'<td class="num">{esc(f"{c.phi:.2f}")}</td><td class="num">{esc(d.field(c, "R_n"))}'
         f'</td><td class="num">{esc(d.field(c, "factored"))}</td><td>{esc(c.provision)}</td>'
         f"<td>{breakable(c.location)}</td><td>{breakable(c.finding)}</td>"),
-        breakable(c.detail) if c.detail and c.name.endswith(_WORKED_OUT) else Markup(""))
+        breakable(c.detail) if _worked(c.name, c.detail) else Markup(""))
         for m in results.members if m.resistance for c in m.resistance.checks)
 
     p = paper_for(d.system, paper)

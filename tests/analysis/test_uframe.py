@@ -116,3 +116,21 @@ def test_u_frame_spring_against_anastruct():
     # each top moves half the spread away from the other
     each = abs(spread) / 2.0
     assert P / each == pytest.approx(uframe_stiffness_kip_per_in(h, b, E, Iv, Ifb), rel=1e-3)
+
+
+def test_a_hinge_on_a_spring_is_two_bars_held_by_it():
+    # two stiff bars of length a, pinned at the ends, hinged together on a spring c: each
+    # bar turning about its end, P delta = (c delta / 2) a, so P = c a / 2 (closed form,
+    # Timoshenko and Gere 2.1); no spring: a mechanism, buckling at no load
+    a, c = 200.0, 5.0
+    b = chord_buckling([a, a], [EI, EI], [1.0, 1.0], [c], hinged=[1])
+    assert b.multiplier == pytest.approx(c * a / 2.0, rel=1e-6)
+    assert chord_buckling([a, a], [EI, EI], [1.0, 1.0], [0.0], hinged=[1]).multiplier == 0.0
+    # a hinge on a rigid support: each span a pinned column, as continuous over it
+    rigid = chord_buckling([a, a], [EI, EI], [100.0, 100.0], [1e9], hinged=[1])
+    assert rigid.multiplier * 100.0 == pytest.approx(math.pi ** 2 * EI / a ** 2, rel=1e-3)
+    # and a hinge never stiffens the chord
+    cont = chord_buckling([a] * 4, [EI] * 4, [50.0, 80.0, 80.0, 50.0], [3.0] * 3)
+    hinged = chord_buckling([a] * 4, [EI] * 4, [50.0, 80.0, 80.0, 50.0], [3.0] * 3,
+                            hinged=[1, 3])
+    assert hinged.multiplier <= cont.multiplier

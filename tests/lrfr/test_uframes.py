@@ -92,14 +92,21 @@ def test_the_springs_are_the_uprights_u_frames(ratings, pony):
     chord = pony_chord(g, r.capacities, compression, pony.cross_section.truss_spacing_ft,
                        pony.cross_section.floorbeam_I_in4)
     assert chord is not None
-    for joint, (who, c) in chord.springs.items():
+    for joint, frame in chord.frames.items():
+        who, c = frame.upright, frame.spring_kip_per_in
         up = [m for m in g.members_at(joint) if m.role in (MemberRole.VERTICAL,
                                                             MemberRole.HANGER)]
         assert len(up) == 1
         s_ = r.capacities[up[0].label].summary
         if up[0].role is MemberRole.HANGER:
-            assert (who, c) == ("", 0.0)
+            assert (who, c) == ("", 0.0) and "no bending stiffness" in frame.why
             continue
+        # AASHTO LRFD 6.14.2.9 [value from memory]: 0.30 klf at the top chord's panel
+        # points, over the joint's share of the chord (a panel here), at the post's height
+        panel = g.span_ft / (len(g.deck_joints) - 1)
+        assert frame.force_kip == pytest.approx(0.30 * panel)
+        assert frame.moment_kip_in == pytest.approx(frame.force_kip
+                                                    * g.member_length_ft(who) * 12.0)
         expect = uframe_stiffness_kip_per_in(
             g.member_length_ft(up[0].label) * 12.0, pony.cross_section.truss_spacing_ft * 12.0,
             s_.E, s_.A_g_in2 * s_.r_out_of_plane_in ** 2, pony.cross_section.floorbeam_I_in4)
@@ -120,3 +127,33 @@ def test_a_through_truss_ignores_the_floorbeam():
     assert not any(a.startswith(UFRAME_ASSUMPTION) for a in with_fb.assumptions)
     for key, rating in base.ratings.items():
         assert with_fb.ratings[key].rf == rating.rf
+
+
+def test_a_warren_pony_without_verticals_is_not_analysed_and_says_so():
+    # no top-chord joint has an upright down to a floorbeam: the chord is held by inclined
+    # frames alone, which are not modelled; rated as before, and the warning says why
+    from demo_bridge import STEEL, make_pratt_bridge, section_for
+
+    from rating.model import MemberDesign
+    from rating.model.builders import build_truss
+
+    g = build_truss("warren", 6, 20.0, 12.0, deck_position="pony")
+    designs = tuple(MemberDesign(m.label, section_for(m.label, m.role), STEEL)
+                    for m in g.members)
+    b = replace(make_pratt_bridge(pins=False), geometry=g, member_designs=designs)
+    base = rate_bridge(b, ["TYPE-3"], what_if=False)
+    on = rate_bridge(_with_floorbeam(b, 800.0), ["TYPE-3"], what_if=False)
+    assert not any(a.startswith(UFRAME_ASSUMPTION) for a in on.assumptions)
+    assert any("the U-frames were not analysed" in w for w in on.warnings)
+    for key, rating in base.ratings.items():
+        assert on.ratings[key].rf == rating.rf
+
+
+def test_the_hips_continuity_is_said_with_what_a_hinge_there_would_give(ratings, pony):
+    r = ratings[pony.cross_section.floorbeam_I_in4]
+    text = next(a for a in r.assumptions if a.startswith(UFRAME_ASSUMPTION))
+    assert "continuous in bending out of plane through its joints" in text
+    assert "hinged there at the hips (U1, U5)" in text
+    assert "U1: none (L1U1, of bars or rods, has no bending stiffness out of the truss " \
+        "plane)" in text
+    assert "0.3 klf at the top chord's panel points" in text
