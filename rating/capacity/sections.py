@@ -153,6 +153,13 @@ class AreaProperties:
         return self.I_x_in4 / c if c > 0.0 else 0.0
 
     @property
+    def S_y_in3(self) -> float:
+        """The least elastic section modulus about the centroidal y axis (bending out of the
+        truss plane), I_y / c to the farther extreme fibre (common practice)."""
+        c = max(self.x_right_in - self.x_c_in, self.x_c_in - self.x_left_in)
+        return self.I_y_in4 / c if c > 0.0 else 0.0
+
+    @property
     def r_x_in(self) -> float:
         return math.sqrt(self.I_x_in4 / self.A_in2) if self.A_in2 > 0 else 0.0
 

@@ -38,7 +38,7 @@ from rating.analysis.truss import (
     solve_tension_only,
 )
 from rating.capacity.member import MemberCapacity, member_capacity
-from rating.capacity.sections import gross_area_as_built_in2
+from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.errors import ConvergenceError, InputError
 from rating.lrfr.equation import SenseLoads, lower_beyond_round_off, rating_factor
 from rating.lrfr.factors import (
@@ -63,7 +63,7 @@ from rating.lrfr.positions import (
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.lrfr.reported import reported_rf
-from rating.lrfr.uframes import UFRAME_ASSUMPTION, pony_chord
+from rating.lrfr.uframes import UFRAME_ASSUMPTION, UFRAME_FORCE_KLF, pony_chord
 from rating.model import (
     BarState,
     Bridge,
@@ -623,7 +623,10 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
         return
     force = dead.member_forces_dc_kip + dead.member_forces_dw_kip
     compression = {m.label: -float(f) for m, f in zip(g.members, force, strict=True)}
-    chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb)
+    S_y = {m.label: _least_S_y_in3(bridge, g, m.label) for m in g.members
+           if m.role in (MemberRole.VERTICAL, MemberRole.HANGER)}
+    chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb,
+                       S_y_in3=S_y)
     if chord is None:
         warnings.append("pony truss: the floorbeam's moment of inertia is given, but the "
                         "U-frames were not analysed: the top chord and end posts do not make "
@@ -648,6 +651,25 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
             said[:] = [w for w in said if w not in set(was) - set(now)] + [
                 w for w in now if w not in was]
     assumptions.append(chord.assumption)
+    over = [f"{f.upright} ({f.stress_ksi:.3g} ksi, F_y {f.F_y_ksi:.3g} ksi)"
+            for f in chord.frames.values() if f.upright and f.stress_ksi > f.F_y_ksi > 0]
+    if over:
+        warnings.append(
+            "pony truss: the U-frame force of AASHTO LRFD 6.14.2.9 [value from memory] "
+            f"({UFRAME_FORCE_KLF:g} klf at the top chord's panel points) bends "
+            f"{', '.join(over)} past yield at the foot: the U-frames may not hold the chord as "
+            "its rating assumes; the engineer should check them and their floorbeam "
+            "connections")
+
+
+def _least_S_y_in3(bridge: Bridge, g: TrussGeometry, label: str) -> float:
+    """A member's least elastic section modulus out of the truss plane along its length,
+    after the recorded loss (0 for bars and rods): rating.capacity.sections."""
+    d = bridge.design_of(label)
+    rep = section_properties(d.section, member=label, findings=bridge.findings_for(label),
+                             length_ft=g.member_length_ft(label), where=d.where)
+    values = [s_.properties.S_y_in3 for s_ in rep.compression if s_.properties is not None]
+    return min(values, default=0.0)
 
 
 def _bent_tension_only_relied_on(g: TrussGeometry, bridge: Bridge,

@@ -35,13 +35,16 @@ LRFD 6.14.2.9 [value from memory])."""
 class UFrame:
     """One inner joint of the chord: the upright that makes its U-frame ("" for none, with
     ``why``), its spring (kip/in), and the force of :data:`UFRAME_FORCE_KLF` over the joint's
-    share of the chord (kip) with its moment at the upright's foot (kip-in)."""
+    share of the chord (kip) with its moment at the upright's foot (kip-in) and the stress
+    that moment makes there (ksi) against the upright's F_y."""
 
     upright: str
     spring_kip_per_in: float
     why: str = ""
     force_kip: float = 0.0
     moment_kip_in: float = 0.0
+    stress_ksi: float = 0.0  # M / S_y of the upright's least section (0: not known)
+    F_y_ksi: float = 0.0
 
 
 @dataclass(frozen=True)
@@ -81,13 +84,14 @@ def _chord_path(g: TrussGeometry) -> list[tuple[str, str]] | None:
 
 def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                compression_kip: Mapping[str, float], truss_spacing_ft: float,
-               floorbeam_I_in4: float, K_of: Mapping[str, float] | None = None
-               ) -> PonyChord | None:
+               floorbeam_I_in4: float, K_of: Mapping[str, float] | None = None,
+               S_y_in3: Mapping[str, float] | None = None) -> PonyChord | None:
     """The U-frame analysis of a pony truss (None for another deck position, where the chord
     is not one path from bearing to bearing, where a chord member has nothing left to bend,
     or where no inner joint has a U-frame: a chord held by inclined frames alone is not
     analysed). ``compression_kip``: each chord member's dead-load compression (positive);
-    ``K_of``: each member's K (its K L is the least length kept).
+    ``K_of``: each member's K (its K L is the least length kept); ``S_y_in3``: each upright's
+    least section modulus out of plane, after loss.
 
     U-frame spring: statics of the elastic U-frame; chord: linear buckling on elastic
     supports, continuous out of plane through its joints (rating.analysis.uframe) [common
@@ -125,7 +129,9 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                                             floorbeam_I_in4)
             if c > best.spring_kip_per_in:
                 F = UFRAME_FORCE_KLF * share_ft
-                best = UFrame(m.label, c, "", F, F * h_in)
+                S = (S_y_in3 or {}).get(m.label, 0.0)
+                best = UFrame(m.label, c, "", F, F * h_in, F * h_in / S if S > 0 else 0.0,
+                              s_.F_y)
             elif not best.upright:
                 best = UFrame("", 0.0, f"{m.label}, of bars or rods, has no bending "
                                        "stiffness out of the truss plane")
@@ -156,8 +162,10 @@ def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
     springs = "; ".join(
         f"{j}: {f.upright} {f.spring_kip_per_in:.5g} kip/in" if f.upright
         else f"{j}: none ({f.why})" for j, f in frames.items())
-    forces = "; ".join(f"{j}: {f.force_kip:.4g} kip, {f.moment_kip_in:.4g} kip-in at the foot "
-                       f"of {f.upright}" for j, f in frames.items() if f.upright)
+    forces = "; ".join(
+        f"{j}: {f.force_kip:.4g} kip, {f.moment_kip_in:.4g} kip-in at the foot of {f.upright}"
+        + (f" (M / S_y = {f.stress_ksi:.4g} ksi against F_y = {f.F_y_ksi:.4g} ksi)"
+           if f.stress_ksi else "") for j, f in frames.items() if f.upright)
     kl = ", ".join(f"{lab} {lengths[lab]:.3f} ft" for lab, _ in path)
     hip = ""
     if hips:

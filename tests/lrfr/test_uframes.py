@@ -157,3 +157,38 @@ def test_the_hips_continuity_is_said_with_what_a_hinge_there_would_give(ratings,
     assert "U1: none (L1U1, of bars or rods, has no bending stiffness out of the truss " \
         "plane)" in text
     assert "0.3 klf at the top chord's panel points" in text
+
+
+def test_each_u_frame_force_is_worked_to_a_stress_and_warned_past_yield(ratings, pony):
+    # M / S_y at the post's foot, S_y its least section modulus out of plane after loss
+    # (rating.capacity.sections, checked against sectionproperties in tests/reference)
+    from rating.capacity.sections import section_properties
+    from rating.model import Finding, FindingRegion
+
+    r = ratings[pony.cross_section.floorbeam_I_in4]
+    g = r.geometry
+    compression = {m.label: -float(dc + dw) for m, dc, dw in zip(
+        g.members, r.dead.member_forces_dc_kip, r.dead.member_forces_dw_kip, strict=True)}
+
+    def least_S(label):
+        d = pony.design_of(label)
+        rep = section_properties(d.section, member=label, findings=pony.findings_for(label),
+                                 length_ft=g.member_length_ft(label))
+        return min(s.properties.S_y_in3 for s in rep.compression if s.properties)
+
+    chord = pony_chord(g, r.capacities, compression, pony.cross_section.truss_spacing_ft,
+                       pony.cross_section.floorbeam_I_in4,
+                       S_y_in3={m.label: least_S(m.label) for m in g.members
+                                if m.role is MemberRole.VERTICAL})
+    framed = [f for f in chord.frames.values() if f.upright]
+    assert framed
+    for f in framed:
+        assert f.stress_ksi == pytest.approx(f.moment_kip_in / least_S(f.upright))
+        assert 0 < f.stress_ksi < f.F_y_ksi  # the sample's posts: within yield
+    assert not any("U-frame force" in w for w in r.warnings)
+    # a fifth of each angle of post L2U2 gone: past yield, and said
+    worn = tuple(Finding("L2U2", a, FindingRegion.BODY, percent_loss=20.0, where="test")
+                 for a in ("A-1", "A-2", "A-3", "A-4"))
+    r2 = rate_bridge(replace(pony, findings=pony.findings + worn), ["TYPE-3"], what_if=False)
+    assert any(w.startswith("pony truss: the U-frame force of AASHTO LRFD 6.14.2.9")
+               and "bends L2U2 (" in w for w in r2.warnings)

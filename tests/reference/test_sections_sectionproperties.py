@@ -6,7 +6,8 @@ geometry; after loss the thinned elements are drawn as rectangles on their mid-l
 loss model stated in rating.capacity.sections. Geometric properties of polygons are integrated
 exactly by its quadratic triangles, so the tolerance is 1e-6 relative. The least elastic
 section modulus about x (for own-weight bending, rating.capacity.interaction) is compared
-with the lesser of its moduli to the top and bottom fibres.
+with the lesser of its moduli to the top and bottom fibres, and that about y (a pony truss's
+U-frame posts bent out of plane, rating.lrfr.uframes) with the lesser to the two sides.
 """
 
 from __future__ import annotations
@@ -54,9 +55,9 @@ def reference(geom) -> dict[str, float]:
     cx, cy = s.get_c()
     ixx, iyy, ixy = s.get_ic()
     rx, ry = s.get_rc()
-    zxx_plus, zxx_minus, _, _ = s.get_z()  # elastic moduli to the top and bottom fibres
+    zxx_plus, zxx_minus, zyy_plus, zyy_minus = s.get_z()  # elastic moduli to the fibres
     return dict(A=s.get_area(), cx=cx, cy=cy, Ix=ixx, Iy=iyy, Ixy=ixy, rx=rx, ry=ry,
-                Sx=min(zxx_plus, zxx_minus))
+                Sx=min(zxx_plus, zxx_minus), Sy=min(zyy_plus, zyy_minus))
 
 
 def ours(section, findings=()) -> dict[str, float]:
@@ -64,12 +65,13 @@ def ours(section, findings=()) -> dict[str, float]:
     s = r.tension[-1]
     p = s.properties
     return dict(A=p.A_in2, cx=p.x_c_in, cy=p.y_c_in, Ix=p.I_x_in4, Iy=p.I_y_in4,
-                Ixy=p.I_xy_in4, rx=s.r_x_in, ry=s.r_y_in, Sx=p.S_x_in3)
+                Ixy=p.I_xy_in4, rx=s.r_x_in, ry=s.r_y_in, Sx=p.S_x_in3, Sy=p.S_y_in3)
 
 
 def compare(a: dict[str, float], b: dict[str, float]) -> None:
     scale = {"A": a["A"], "cx": 1.0, "cy": 1.0, "Ix": a["Ix"], "Iy": a["Iy"],
-             "Ixy": max(a["Ix"], a["Iy"]), "rx": a["rx"], "ry": a["ry"], "Sx": a["Sx"]}
+             "Ixy": max(a["Ix"], a["Iy"]), "rx": a["rx"], "ry": a["ry"], "Sx": a["Sx"],
+             "Sy": a["Sy"]}
     for k in a:
         assert abs(a[k] - b[k]) <= 1e-6 * scale[k], (k, a[k], b[k])
 
