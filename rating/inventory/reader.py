@@ -356,13 +356,17 @@ class _Reading:
                         f"{lanes} lanes on a {_g(width)} ft roadway is less than 12 ft per lane; "
                         "please confirm the override")
         fb = _f(b, "floorbeam_I")
-        if fb is not None and pos is not None and pos is not DeckPosition.PONY:
-            log.warning(b.ref("floorbeam_I"),
-                        f"the floorbeam's moment of inertia is used for the U-frames of a pony "
-                        f"truss only; this is a {pos} truss, so it is not used")
+        for key, what in (("floorbeam_I", "the floorbeam's moment of inertia"),
+                          ("uframe_height", "the U-frame height")):
+            if _f(b, key) is not None and pos is not None and pos is not DeckPosition.PONY:
+                log.warning(b.ref(key), f"{what} is used for the U-frames of a pony truss "
+                            f"only; this is a {pos} truss, so it is not used")
+        if _f(b, "uframe_height") is not None and fb is None:
+            log.warning(b.ref("uframe_height"), "the U-frame height is used with the "
+                        "floorbeam's moment of inertia, which is not given: it is not used")
         return CrossSection(truss_spacing_ft=spacing, roadway_width_ft=width, left_curb_ft=curb,
                             lane_count_override=lanes, deck_width_ft=_f(b, "deck_width"),
-                            floorbeam_I_in4=fb)
+                            floorbeam_I_in4=fb, uframe_height_ft=_f(b, "uframe_height"))
 
     # -- geometry -------------------------------------------------------------------------
 

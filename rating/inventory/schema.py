@@ -236,6 +236,10 @@ BRIDGE = FormSheet(
                        "panel point)",
            help="Of one floorbeam about its strong axis. For a pony truss: the floorbeams and "
                 "verticals form the U-frames that hold the top chord out of the truss plane."),
+        _c("uframe_height", "U-frame height", Kind.NUMBER, LENGTH, gt=0, le=40,
+           blank_means="each vertical's length, chord to chord",
+           help="Pony truss: from the floorbeam's centre to the top chord's, where the "
+                "floorbeam hangs below (or sits above) the bottom chord."),
         _c("adtt", "ADTT, one direction", Kind.NUMBER, unit="trucks/day", ge=0, le=50000,
            blank_means="unknown (the provision set's value for unknown ADTT)"),
         _c("riding_surface", "Riding surface", Kind.CHOICE,

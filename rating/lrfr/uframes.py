@@ -85,13 +85,15 @@ def _chord_path(g: TrussGeometry) -> list[tuple[str, str]] | None:
 def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                compression_kip: Mapping[str, float], truss_spacing_ft: float,
                floorbeam_I_in4: float, K_of: Mapping[str, float] | None = None,
-               S_y_in3: Mapping[str, float] | None = None) -> PonyChord | None:
+               S_y_in3: Mapping[str, float] | None = None,
+               height_ft: float | None = None) -> PonyChord | None:
     """The U-frame analysis of a pony truss (None for another deck position, where the chord
     is not one path from bearing to bearing, where a chord member has nothing left to bend,
     or where no inner joint has a U-frame: a chord held by inclined frames alone is not
     analysed). ``compression_kip``: each chord member's dead-load compression (positive);
     ``K_of``: each member's K (its K L is the least length kept); ``S_y_in3``: each upright's
-    least section modulus out of plane, after loss.
+    least section modulus out of plane, after loss; ``height_ft``: the U-frames' height,
+    floorbeam to top chord (None: each upright's length).
 
     U-frame spring: statics of the elastic U-frame; chord: linear buckling on elastic
     supports, continuous out of plane through its joints (rating.analysis.uframe) [common
@@ -124,7 +126,7 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                 continue
             s_ = capacities[m.label].summary
             I_v = s_.A_g_in2 * s_.r_out_of_plane_in ** 2
-            h_in = g.member_length_ft(m.label) * 12.0
+            h_in = (height_ft if height_ft else g.member_length_ft(m.label)) * 12.0
             c = uframe_stiffness_kip_per_in(h_in, truss_spacing_ft * 12.0, s_.E, I_v,
                                             floorbeam_I_in4)
             if c > best.spring_kip_per_in:
@@ -152,12 +154,13 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
     hip_joints = [path[i - 1][1] for i in hips]
     return PonyChord(out, frames, b.multiplier, hinged,
                      _words(path, out, frames, floorbeam_I_in4, truss_spacing_ft,
-                            hip_joints, hinged / b.multiplier if b.multiplier > 0 else 1.0))
+                            hip_joints, hinged / b.multiplier if b.multiplier > 0 else 1.0,
+                            height_ft))
 
 
 def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
            frames: Mapping[str, UFrame], I_fb: float, spacing_ft: float,
-           hips: Sequence[str], hip_ratio: float) -> str:
+           hips: Sequence[str], hip_ratio: float, height_ft: float | None = None) -> str:
     """The assumption the report lists."""
     springs = "; ".join(
         f"{j}: {f.upright} {f.spring_kip_per_in:.5g} kip/in" if f.upright
@@ -179,7 +182,9 @@ def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
     return (f"{UFRAME_ASSUMPTION} the top chord and end posts are rated out of the truss "
             "plane as one column held at the bearings and by the U-frames of the verticals and "
             f"floorbeams (floorbeam I = {I_fb:.5g} in4 over {spacing_ft:.5g} ft, as given; each "
-            "upright's own section after loss, its length as the frame's height, its "
+            "upright's own section after loss, "
+            + (f"the frame's height {height_ft:.5g} ft as given" if height_ft else
+               "its length as the frame's height") + ", its "
             "connection to the floorbeam rigid, its own axial load and its lacing's shear "
             f"ignored): U-frame springs {springs} (a U-frame's spring 1 / (h^3 / (3 E I_v) + "
             "h^2 b / (2 E I_fb)), the chords moving apart; statics, common practice). Elastic "

@@ -54,6 +54,7 @@ class CrossSection:
     lane_count_override: int | None = None
     deck_width_ft: float | None = None
     floorbeam_I_in4: float | None = None  # strong axis, one floorbeam (a pony truss's U-frames)
+    uframe_height_ft: float | None = None  # floorbeam to top chord (None: each vertical's)
 
     @property
     def curb_left_ft(self) -> float:

@@ -454,7 +454,13 @@ def test_the_floorbeams_moment_of_inertia_is_read_and_used_for_pony_trusses(tmp_
     assert r.errors == () and r.bridge.cross_section.floorbeam_I_in4 == 440.0
     find(r, form_cell("Bridge", "floorbeam_I"), "pony truss only", severity="warning")
     d["bridge"]["deck_position"] = "pony"
+    d["bridge"]["uframe_height"] = 9.5
     r = check(tmp_path, d)
     assert not [w for w in r.warnings if "pony truss only" in w.message]
+    assert r.bridge.cross_section.uframe_height_ft == 9.5
+    d["bridge"]["floorbeam_I"] = None
+    find(check(tmp_path, d), form_cell("Bridge", "uframe_height"), "which is not given",
+         severity="warning")
+    d["bridge"]["floorbeam_I"] = 440.0
     d["bridge"]["floorbeam_I"] = -5.0
     find(check(tmp_path, d), form_cell("Bridge", "floorbeam_I"), "0")

@@ -192,3 +192,18 @@ def test_each_u_frame_force_is_worked_to_a_stress_and_warned_past_yield(ratings,
     r2 = rate_bridge(replace(pony, findings=pony.findings + worn), ["TYPE-3"], what_if=False)
     assert any(w.startswith("pony truss: the U-frame force of AASHTO LRFD 6.14.2.9")
                and "bends L2U2 (" in w for w in r2.warnings)
+
+
+def test_a_taller_u_frame_is_softer(ratings, pony):
+    # the floorbeam hung below the bottom chord: the frame's height is longer than the post
+    # and the spring softer, so the chord no stronger (statics of the U-frame)
+    I = pony.cross_section.floorbeam_I_in4
+    on = ratings[I]
+    post = on.geometry.member_length_ft("L2U2")
+    tall = replace(pony, cross_section=replace(pony.cross_section, uframe_height_ft=post + 1.0))
+    r = rate_bridge(tall, ["TYPE-3"], what_if=False)
+    text = next(a for a in r.assumptions if a.startswith(UFRAME_ASSUMPTION))
+    assert f"the frame's height {post + 1.0:.5g} ft as given" in text
+    for m in r.geometry.members:
+        if m.role in CHORD:
+            assert r.ratings[(m.label, "TYPE-3")].rf <= on.ratings[(m.label, "TYPE-3")].rf
