@@ -611,3 +611,7 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     assert entry.permit == "not as requested"
     html = render_report(res)
     assert "permit: not as requested" in html
+    # the review block has a line for the permit's decision (not in reports without one)
+    assert "Permits: issued, with conditions, or refused" in html
+    parker = render_report(outcomes["tc0622_parker_1907.xlsx"].results)
+    assert "Permits: issued" not in parker

@@ -389,6 +389,7 @@ class ReportView:
     has_neg_inf: bool = False
     pin_tables: tuple[PinTable, ...] = ()
     decision_warnings: tuple[str, ...] = ()  # repeated in the recommendation box
+    has_permits: bool = False  # a permit load was rated: the review block has its line
 
 
 # ------------------------------------------------------------------ helpers
@@ -858,6 +859,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
     footer = f"{b.id} {b.name}".strip() + " \u2014 load rating for review by the licensed " \
         "engineer in responsible charge"
     return ReportView(
+        has_permits=any(v.rating_level == "permit" for v in results.vehicles),
         title=f"Load rating report \u2014 {b.name or b.id}",
         bridge_facts=bridge_facts, method_facts=method_facts, units=units, system=d.system,
         summary=tuple(summary),
