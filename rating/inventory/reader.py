@@ -357,8 +357,9 @@ class _Reading:
                         "please confirm the override")
         fb = _f(b, "floorbeam_I")
         for key, what in (("floorbeam_I", "the floorbeam's moment of inertia"),
-                          ("uframe_height", "the U-frame height")):
-            if _f(b, key) is not None and pos is not None and pos is not DeckPosition.PONY:
+                          ("uframe_height", "the U-frame height"),
+                          ("chord_at_hips", "the top chord at the hips")):
+            if b.get(key) is not None and pos is not None and pos is not DeckPosition.PONY:
                 log.warning(b.ref(key), f"{what} is used for the U-frames of a pony truss "
                             f"only; this is a {pos} truss, so it is not used")
         if _f(b, "uframe_height") is not None and fb is None:
@@ -366,7 +367,8 @@ class _Reading:
                         "floorbeam's moment of inertia, which is not given: it is not used")
         return CrossSection(truss_spacing_ft=spacing, roadway_width_ft=width, left_curb_ft=curb,
                             lane_count_override=lanes, deck_width_ft=_f(b, "deck_width"),
-                            floorbeam_I_in4=fb, uframe_height_ft=_f(b, "uframe_height"))
+                            floorbeam_I_in4=fb, uframe_height_ft=_f(b, "uframe_height"),
+                            chord_hinged_at_hips=_s(b, "chord_at_hips") == "hinged")
 
     # -- geometry -------------------------------------------------------------------------
 

@@ -240,6 +240,11 @@ BRIDGE = FormSheet(
            blank_means="each vertical's length, chord to chord",
            help="Pony truss: from the floorbeam's centre to the top chord's, where the "
                 "floorbeam hangs below (or sits above) the bottom chord."),
+        _c("chord_at_hips", "Top chord at the hips, out of plane", Kind.CHOICE,
+           choices=("continuous", "hinged"), blank_means="continuous",
+           help="Pony truss: whether the end posts and the top chord are continuous in "
+                "bending out of the truss plane where they meet (spliced), or hinged there "
+                "(butted on the pin)."),
         _c("adtt", "ADTT, one direction", Kind.NUMBER, unit="trucks/day", ge=0, le=50000,
            blank_means="unknown (the provision set's value for unknown ADTT)"),
         _c("riding_surface", "Riding surface", Kind.CHOICE,

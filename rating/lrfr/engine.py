@@ -626,7 +626,8 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
     S_y = {m.label: _least_S_y_in3(bridge, g, m.label) for m in g.members
            if m.role in (MemberRole.VERTICAL, MemberRole.HANGER)}
     chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb,
-                       S_y_in3=S_y, height_ft=bridge.cross_section.uframe_height_ft)
+                       S_y_in3=S_y, height_ft=bridge.cross_section.uframe_height_ft,
+                       hinged_at_hips=bridge.cross_section.chord_hinged_at_hips)
     if chord is None:
         warnings.append("pony truss: the floorbeam's moment of inertia is given, but the "
                         "U-frames were not analysed: the top chord and end posts do not make "

@@ -50,14 +50,16 @@ class UFrame:
 @dataclass(frozen=True)
 class PonyChord:
     """The U-frame analysis of a pony truss's chord: each chord member's effective length out
-    of the truss plane (ft, never less than K L), each inner joint's U-frame, the buckling
-    multiplier of the dead-load forces, the same with the chord hinged out of plane at its
-    hips (``hips_hinged``, 0 for a mechanism), and the words for the report."""
+    of the truss plane (ft, never less than K L; inf for a mechanism), each inner joint's
+    U-frame, the buckling multiplier of the dead-load forces (0 for a mechanism), the same
+    with the other assumption at the hips (``other``: hinged there where ``hinged_at_hips``
+    is False, continuous where it is True), and the words for the report."""
 
     lengths_ft: Mapping[str, float]
     frames: Mapping[str, UFrame]
     multiplier: float
-    hips_hinged: float
+    other: float
+    hinged_at_hips: bool
     assumption: str
 
 
@@ -86,14 +88,16 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
                compression_kip: Mapping[str, float], truss_spacing_ft: float,
                floorbeam_I_in4: float, K_of: Mapping[str, float] | None = None,
                S_y_in3: Mapping[str, float] | None = None,
-               height_ft: float | None = None) -> PonyChord | None:
+               height_ft: float | None = None,
+               hinged_at_hips: bool = False) -> PonyChord | None:
     """The U-frame analysis of a pony truss (None for another deck position, where the chord
     is not one path from bearing to bearing, where a chord member has nothing left to bend,
     or where no inner joint has a U-frame: a chord held by inclined frames alone is not
     analysed). ``compression_kip``: each chord member's dead-load compression (positive);
     ``K_of``: each member's K (its K L is the least length kept); ``S_y_in3``: each upright's
     least section modulus out of plane, after loss; ``height_ft``: the U-frames' height,
-    floorbeam to top chord (None: each upright's length).
+    floorbeam to top chord (None: each upright's length); ``hinged_at_hips``: the chord
+    hinged out of plane where the end posts meet the top chord (else continuous there).
 
     U-frame spring: statics of the elastic U-frame; chord: linear buckling on elastic
     supports, continuous out of plane through its joints (rating.analysis.uframe) [common
@@ -141,26 +145,29 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
     if not any(f.spring_kip_per_in > 0 for f in frames.values()):
         return None
     springs = [frames[j].spring_kip_per_in for _, j in path[:-1]]
-    b = chord_buckling(lengths, EI, N, springs)
     hips = [i + 1 for i in range(len(path) - 1)
             if MemberRole.END_POST in (g.member(path[i][0]).role,
                                        g.member(path[i + 1][0]).role)]
-    hinged = (chord_buckling(lengths, EI, N, springs, hinged=hips).multiplier if hips
-              else b.multiplier)
+    b = chord_buckling(lengths, EI, N, springs, hinged=hips if hinged_at_hips else ())
+    other = (chord_buckling(lengths, EI, N, springs,
+                            hinged=() if hinged_at_hips else hips).multiplier if hips
+             else b.multiplier)
     out = {}
     for (lab, _), le_in, L_in in zip(path, b.effective_length_in, lengths, strict=True):
         K = (K_of or {}).get(lab, capacities[lab].summary.K)
-        out[lab] = max(K * L_in, le_in if math.isfinite(le_in) else K * L_in) / 12.0
+        # (a mechanism out of plane: no length holds it, the chord has no buckling strength)
+        out[lab] = (math.inf if b.multiplier <= 0 else
+                    max(K * L_in, le_in if math.isfinite(le_in) else K * L_in) / 12.0)
     hip_joints = [path[i - 1][1] for i in hips]
-    return PonyChord(out, frames, b.multiplier, hinged,
+    return PonyChord(out, frames, b.multiplier, other, hinged_at_hips and bool(hips),
                      _words(path, out, frames, floorbeam_I_in4, truss_spacing_ft,
-                            hip_joints, hinged / b.multiplier if b.multiplier > 0 else 1.0,
-                            height_ft))
+                            hip_joints, b.multiplier, other, hinged_at_hips, height_ft))
 
 
 def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
            frames: Mapping[str, UFrame], I_fb: float, spacing_ft: float,
-           hips: Sequence[str], hip_ratio: float, height_ft: float | None = None) -> str:
+           hips: Sequence[str], lam: float, other: float, hinged: bool,
+           height_ft: float | None = None) -> str:
     """The assumption the report lists."""
     springs = "; ".join(
         f"{j}: {f.upright} {f.spring_kip_per_in:.5g} kip/in" if f.upright
@@ -169,16 +176,24 @@ def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],
         f"{j}: {f.force_kip:.4g} kip, {f.moment_kip_in:.4g} kip-in at the foot of {f.upright}"
         + (f" (M / S_y = {f.stress_ksi:.4g} ksi against F_y = {f.F_y_ksi:.4g} ksi)"
            if f.stress_ksi else "") for j, f in frames.items() if f.upright)
-    kl = ", ".join(f"{lab} {lengths[lab]:.3f} ft" for lab, _ in path)
+    kl = ("none: hinged at the hips, the chord is a mechanism out of plane and has no "
+          "buckling strength" if lam <= 0 else
+          ", ".join(f"{lab} {lengths[lab]:.3f} ft" for lab, _ in path))
     hip = ""
-    if hips:
+    where = f"at the hips ({', '.join(hips)})"
+    if hips and hinged:
+        hip = (f" The chord is taken as hinged out of plane {where}, as the Bridge sheet "
+               "gives, and continuous through its other joints"
+               + ("" if lam <= 0 else f"; continuous there too, it would buckle at "
+                  f"{other / lam:.0%} of this load") + ".")
+    elif hips:
         hip = (f" The chord is taken as continuous in bending out of plane through its joints; "
-               f"hinged there at the hips ({', '.join(hips)}), as a butt joint on the pin "
-               "without a splice would be, it would buckle "
+               f"hinged there {where}, as a butt joint on the pin without a splice would be, "
+               "it would buckle "
                + ("as a mechanism, at no load: the rating rests on the hips' continuity, "
-                  "which the engineer should confirm" if hip_ratio <= 0 else
-                  f"at {hip_ratio:.0%} of this load: the engineer should confirm the hips' "
-                  "detail") + ".")
+                  "which the engineer should confirm" if other <= 0 else
+                  f"at {other / lam:.0%} of this load: the engineer should confirm the hips' "
+                  "detail (the Bridge sheet can give the chord as hinged there)") + ".")
     return (f"{UFRAME_ASSUMPTION} the top chord and end posts are rated out of the truss "
             "plane as one column held at the bearings and by the U-frames of the verticals and "
             f"floorbeams (floorbeam I = {I_fb:.5g} in4 over {spacing_ft:.5g} ft, as given; each "

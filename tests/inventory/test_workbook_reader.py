@@ -450,9 +450,13 @@ def test_the_floorbeams_moment_of_inertia_is_read_and_used_for_pony_trusses(tmp_
 
     d = fresh()
     d["bridge"]["floorbeam_I"] = 440.0
+    d["bridge"]["chord_at_hips"] = "hinged"
     r = check(tmp_path, d)
     assert r.errors == () and r.bridge.cross_section.floorbeam_I_in4 == 440.0
+    assert r.bridge.cross_section.chord_hinged_at_hips
     find(r, form_cell("Bridge", "floorbeam_I"), "pony truss only", severity="warning")
+    find(r, form_cell("Bridge", "chord_at_hips"), "pony truss only", severity="warning")
+    d["bridge"]["chord_at_hips"] = None
     d["bridge"]["deck_position"] = "pony"
     d["bridge"]["uframe_height"] = 9.5
     r = check(tmp_path, d)

@@ -207,3 +207,46 @@ def test_a_taller_u_frame_is_softer(ratings, pony):
     for m in r.geometry.members:
         if m.role in CHORD:
             assert r.ratings[(m.label, "TYPE-3")].rf <= on.ratings[(m.label, "TYPE-3")].rf
+
+
+def test_a_chord_hinged_at_its_hips_is_rated_so(ratings, pony):
+    # the Bridge sheet can give the chord as hinged out of plane at the hips (butted on the
+    # pin): the rating uses it, and says what continuity there would give
+    I = pony.cross_section.floorbeam_I_in4
+    on = ratings[I]
+    hinged = replace(pony, cross_section=replace(pony.cross_section, chord_hinged_at_hips=True))
+    r = rate_bridge(hinged, ["TYPE-3"], what_if=False)
+    text = next(a for a in r.assumptions if a.startswith(UFRAME_ASSUMPTION))
+    assert "hinged out of plane at the hips (U1, U5), as the Bridge sheet gives" in text
+    assert "continuous there too, it would buckle at" in text
+    lower = 0
+    for m in r.geometry.members:
+        if m.role in CHORD:
+            a, b = r.ratings[(m.label, "TYPE-3")].rf, on.ratings[(m.label, "TYPE-3")].rf
+            assert a <= b + 1e-9
+            lower += a < b
+    assert lower  # the end posts and the top chord's ends lose their hold at the hips
+
+
+def test_a_chord_that_is_a_mechanism_out_of_plane_has_no_buckling_strength(pony):
+    # hinged at the hips, with posts L2U2 and L4U4 broken: the top chord between the hips is
+    # held by the one U-frame at U3 and turns about it, the end posts being links pinned at
+    # both ends: a mechanism out of plane (statics), so no buckling strength at all
+    from rating.model import BarState, Finding, FindingRegion
+
+    gone = tuple(Finding(lab, "all", FindingRegion.BODY, bar_state=BarState.BROKEN,
+                         where="test") for lab in ("L2U2", "L4U4"))
+    b = replace(pony, findings=pony.findings + gone,
+                cross_section=replace(pony.cross_section, chord_hinged_at_hips=True))
+    r = rate_bridge(b, ["TYPE-3"], what_if=False)
+    text = next(a for a in r.assumptions if a.startswith(UFRAME_ASSUMPTION))
+    assert "the chord is a mechanism out of plane and has no buckling strength" in text
+    for m in r.geometry.members:
+        if m.role in CHORD:
+            assert r.capacities[m.label].factored_resistance("compression") < 1e-6
+    # continuous at the hips, the same chord stands
+    cont = rate_bridge(replace(b, cross_section=replace(b.cross_section,
+                                                        chord_hinged_at_hips=False)),
+                       ["TYPE-3"], what_if=False)
+    assert all(cont.capacities[m.label].factored_resistance("compression") > 1.0
+               for m in cont.geometry.members if m.role in CHORD)
