@@ -511,6 +511,7 @@ def pony_1903_si() -> WorkbookContent:
         "truss_spacing": 5.2, "roadway_width": 4.6, "lane_count": 1, "adtt": 5,
         # the floorbeams, rolled I of 380 mm (about 440 in4): the U-frames hold the top chord
         "floorbeam_I": 183_000_000.0,
+        "chord_at_hips": "continuous",  # spliced: the cover plate runs over the hip pin
         "riding_surface": "major deviations", "inspection_date": dt.date(2023, 10, 26),
         "inspector": "J. Mbeki (invented)",
     }

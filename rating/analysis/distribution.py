@@ -79,8 +79,8 @@ class DistributionResult:
         text = (f"lever rule across the floorbeam, trusses {self.truss_spacing_ft:g} ft apart, "
                 f"roadway {self.roadway_width_ft:g} ft, {self.design_lanes} design lane"
                 f"{'s' if self.design_lanes != 1 else ''} of {self.lane_width_ft:g} ft: "
-                f"{lanes} loaded toward the {g.truss} truss governs, share {g.share:.3f} x "
-                f"multiple presence {g.multiple_presence:g} = {g.factor:.3f}")
+                f"{lanes} loaded toward the {g.truss} truss governs ({wheels_text(g)}), share "
+                f"{g.share:.3f} x multiple presence {g.multiple_presence:g} = {g.factor:.3f}")
         if self.design_lanes == 2 and 18.0 <= self.roadway_width_ft < 20.0:
             text += (" (two lanes on a roadway of 18 to 20 ft, each half its width: MBE "
                      "6A.2.3.2 [value from memory]; an owner who rates such a bridge as one "
@@ -89,6 +89,14 @@ class DistributionResult:
             text = (f"owner's distribution factor {self.factor:.3f} used "
                     f"(lever rule would give {self.lever_rule_factor:.3f}; {text})")
         return text
+
+
+def wheels_text(case: LaneCase) -> str:
+    """Where a lane case puts the wheel lines, in words ("wheel lines 3 and 9 ft from the left
+    truss"), so that a reviewer can work the lever rule again."""
+    offsets = [f"{w:.4g}" for w in case.wheel_offsets_ft]
+    listed = ", ".join(offsets[:-1]) + f" and {offsets[-1]}" if len(offsets) > 1 else offsets[0]
+    return f"wheel lines {listed} ft from the left truss"
 
 
 def design_lane_count(roadway_width_ft: float, *, lane_width_ft: float = 12.0,

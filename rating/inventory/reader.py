@@ -362,13 +362,18 @@ class _Reading:
             if b.get(key) is not None and pos is not None and pos is not DeckPosition.PONY:
                 log.warning(b.ref(key), f"{what} is used for the U-frames of a pony truss "
                             f"only; this is a {pos} truss, so it is not used")
+        hips = _s(b, "chord_at_hips")
+        if fb is not None and pos is DeckPosition.PONY and hips is None:
+            log.warning(b.ref("chord_at_hips"), "the top chord at the hips is not given: it is "
+                        "taken as continuous out of plane there (spliced), which the U-frame "
+                        "analysis leans on; confirm the detail in the field and give it")
         if _f(b, "uframe_height") is not None and fb is None:
             log.warning(b.ref("uframe_height"), "the U-frame height is used with the "
                         "floorbeam's moment of inertia, which is not given: it is not used")
         return CrossSection(truss_spacing_ft=spacing, roadway_width_ft=width, left_curb_ft=curb,
                             lane_count_override=lanes, deck_width_ft=_f(b, "deck_width"),
                             floorbeam_I_in4=fb, uframe_height_ft=_f(b, "uframe_height"),
-                            chord_hinged_at_hips=_s(b, "chord_at_hips") == "hinged")
+                            chord_hinged_at_hips=None if hips is None else hips == "hinged")
 
     # -- geometry -------------------------------------------------------------------------
 

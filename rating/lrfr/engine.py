@@ -26,6 +26,7 @@ from rating.analysis.distribution import (
     DistributionResult,
     lateral_distribution,
     one_vehicle_alone,
+    wheels_text,
 )
 from rating.analysis.influence import InfluenceLines
 from rating.analysis.moving import Extreme, MemberEnvelope, envelope
@@ -627,7 +628,7 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
            if m.role in (MemberRole.VERTICAL, MemberRole.HANGER)}
     chord = pony_chord(g, capacities, compression, bridge.cross_section.truss_spacing_ft, I_fb,
                        S_y_in3=S_y, height_ft=bridge.cross_section.uframe_height_ft,
-                       hinged_at_hips=bridge.cross_section.chord_hinged_at_hips)
+                       hinged_at_hips=bool(bridge.cross_section.chord_hinged_at_hips))
     if chord is None:
         warnings.append("pony truss: the floorbeam's moment of inertia is given, but the "
                         "U-frames were not analysed: the top chord and end posts do not make "
@@ -652,15 +653,32 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
             said[:] = [w for w in said if w not in set(was) - set(now)] + [
                 w for w in now if w not in was]
     assumptions.append(chord.assumption)
+    if (bridge.cross_section.chord_hinged_at_hips is None and chord.multiplier > 0
+            and chord.other < HIPS_DECIDE * chord.multiplier):
+        hips = [j for j, f in chord.frames.items() if j in chord.hips]
+        warnings.append(
+            "CHORD AT THE HIPS NOT GIVEN: the pony truss's top chord and end posts are rated "
+            f"as continuous out of plane at the hips ({', '.join(hips)}), the Bridge sheet not "
+            "saying otherwise; hinged there (butted on the pin, no splice) the chord would "
+            + ("be a mechanism out of plane, with no buckling strength" if chord.other <= 0
+               else f"buckle at {chord.other / chord.multiplier:.0%} of that load")
+            + ". Confirm the hips' detail in the field and give it on the Bridge sheet (Top "
+            "chord at the hips, out of plane)")
     over = [f"{f.upright} ({f.stress_ksi:.3g} ksi, F_y {f.F_y_ksi:.3g} ksi)"
             for f in chord.frames.values() if f.upright and f.stress_ksi > f.F_y_ksi > 0]
     if over:
         warnings.append(
-            "pony truss: the U-frame force of AASHTO LRFD 6.14.2.9 [value from memory] "
-            f"({UFRAME_FORCE_KLF:g} klf at the top chord's panel points) bends "
+            "U-FRAME POSTS PAST YIELD: the U-frame force of AASHTO LRFD 6.14.2.9 [value from "
+            f"memory] ({UFRAME_FORCE_KLF:g} klf at the top chord's panel points) bends "
             f"{', '.join(over)} past yield at the foot: the U-frames may not hold the chord as "
             "its rating assumes; the engineer should check them and their floorbeam "
             "connections")
+
+
+HIPS_DECIDE = 0.5
+"""Where the chord hinged at its hips would buckle below this fraction of its load as
+continuous there, and the Bridge sheet does not give the detail, the warning is headed in
+capitals (it can turn a posting into a closure; judgement, common practice)."""
 
 
 def _least_S_y_in3(bridge: Bridge, g: TrussGeometry, label: str) -> float:
@@ -787,7 +805,8 @@ def _case_distribution(cases: Sequence[RatingCase], dist: DistributionResult,
                 raise InputError(f"vehicle {c.load.id}: {e.message}", where or e.where) from None
         d = dist if gauge is None or override else own[gauge]
         out[c.id] = d.factor
-        why = [] if d is dist else [f"its wheel gauge of {gauge:g} ft (lever rule)"]
+        why = [] if d is dist else [f"its wheel gauge of {gauge:g} ft (lever rule, "
+                                    f"{wheels_text(d.governing)})"]
         if c.category.is_special_permit:
             alone = one_vehicle_alone(d)
             if override:
@@ -799,8 +818,8 @@ def _case_distribution(cases: Sequence[RatingCase], dist: DistributionResult,
                 continue
             out[c.id] = alone.factor
             why.append(f"the permit vehicle alone in one lane, as near the {alone.truss} truss "
-                       f"as the lane rules allow, with no multiple presence "
-                       f"({SOURCE_ONE_VEHICLE})")
+                       f"as the lane rules allow ({wheels_text(alone)}), with no multiple "
+                       f"presence ({SOURCE_ONE_VEHICLE})")
         if why:
             notes.append(f"{c.id} is rated with {' and '.join(why)}: distribution factor "
                          f"{out[c.id]:.3f}, where the other loads take {dist.factor:.3f}.")

@@ -61,6 +61,7 @@ class PonyChord:
     other: float
     hinged_at_hips: bool
     assumption: str
+    hips: tuple[str, ...] = ()  # the joints where the end posts meet the top chord
 
 
 def _chord_path(g: TrussGeometry) -> list[tuple[str, str]] | None:
@@ -161,7 +162,8 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
     hip_joints = [path[i - 1][1] for i in hips]
     return PonyChord(out, frames, b.multiplier, other, hinged_at_hips and bool(hips),
                      _words(path, out, frames, floorbeam_I_in4, truss_spacing_ft,
-                            hip_joints, b.multiplier, other, hinged_at_hips, height_ft))
+                            hip_joints, b.multiplier, other, hinged_at_hips, height_ft),
+                     tuple(hip_joints))
 
 
 def _words(path: Sequence[tuple[str, str]], lengths: Mapping[str, float],

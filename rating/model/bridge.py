@@ -55,7 +55,8 @@ class CrossSection:
     deck_width_ft: float | None = None
     floorbeam_I_in4: float | None = None  # strong axis, one floorbeam (a pony truss's U-frames)
     uframe_height_ft: float | None = None  # floorbeam to top chord (None: each vertical's)
-    chord_hinged_at_hips: bool = False  # a pony truss's chord out of plane at its hips
+    chord_hinged_at_hips: bool | None = None  # a pony truss's chord out of plane at its hips
+    # (None: not given, taken as continuous)
 
     @property
     def curb_left_ft(self) -> float:

@@ -461,6 +461,8 @@ def test_the_floorbeams_moment_of_inertia_is_read_and_used_for_pony_trusses(tmp_
     d["bridge"]["uframe_height"] = 9.5
     r = check(tmp_path, d)
     assert not [w for w in r.warnings if "pony truss only" in w.message]
+    find(r, form_cell("Bridge", "chord_at_hips"), "taken as continuous", severity="warning")
+    assert r.bridge.cross_section.chord_hinged_at_hips is None
     assert r.bridge.cross_section.uframe_height_ft == 9.5
     d["bridge"]["floorbeam_I"] = None
     find(check(tmp_path, d), form_cell("Bridge", "uframe_height"), "which is not given",

@@ -337,8 +337,11 @@ def test_a_vehicles_own_wheel_gauge_has_its_own_lever_rule():
     assert r.live[(m, "NARROW")].distribution_factor == pytest.approx(24.0 / 36.0)
     # a legal vehicle of that gauge: one lane loaded with its multiple presence, 1.20
     assert r.live[(m, "WIDE-LEGAL")].distribution_factor == pytest.approx(1.2 * 22.0 / 36.0)
-    assert any(a.startswith("WIDE is rated with its wheel gauge of 9 ft (lever rule) and "
-                            "the permit vehicle alone") for a in r.assumptions)
+    note = next(a for a in r.assumptions if a.startswith("WIDE is rated with its wheel gauge "
+                                                         "of 9 ft (lever rule"))
+    # the wheel lines where the lever rule put them, for the reviewer to work it again
+    assert "the permit vehicle alone in one lane, as near the left truss as the lane rules " \
+        "allow (wheel lines 2.5 and 11.5 ft from the left truss)" in note
     # a gauge the roadway cannot hold is refused, naming the vehicle and its place
     too_wide = replace(_crane(V.OWNER, "TOO-WIDE"), wheel_gauge_ft=17.0, where="Vehicles!B9")
     with pytest.raises(InputError, match="vehicle TOO-WIDE: the roadway is 16 ft wide") as e:

@@ -190,8 +190,8 @@ def test_each_u_frame_force_is_worked_to_a_stress_and_warned_past_yield(ratings,
     worn = tuple(Finding("L2U2", a, FindingRegion.BODY, percent_loss=20.0, where="test")
                  for a in ("A-1", "A-2", "A-3", "A-4"))
     r2 = rate_bridge(replace(pony, findings=pony.findings + worn), ["TYPE-3"], what_if=False)
-    assert any(w.startswith("pony truss: the U-frame force of AASHTO LRFD 6.14.2.9")
-               and "bends L2U2 (" in w for w in r2.warnings)
+    assert any(w.startswith("U-FRAME POSTS PAST YIELD: the U-frame force of AASHTO LRFD "
+                            "6.14.2.9") and "bends L2U2 (" in w for w in r2.warnings)
 
 
 def test_a_taller_u_frame_is_softer(ratings, pony):
@@ -250,3 +250,17 @@ def test_a_chord_that_is_a_mechanism_out_of_plane_has_no_buckling_strength(pony)
                        ["TYPE-3"], what_if=False)
     assert all(cont.capacities[m.label].factored_resistance("compression") > 1.0
                for m in cont.geometry.members if m.role in CHORD)
+
+
+def test_hips_not_given_are_headed_in_capitals_where_they_decide(pony):
+    # the sample gives its hips as continuous: no such warning; not given, hinging there
+    # would leave 16 % of the buckling load, below half: headed in capitals, for the box
+    given = rate_bridge(pony, ["TYPE-3"], what_if=False)
+    assert pony.cross_section.chord_hinged_at_hips is False
+    assert not any(w.startswith("CHORD AT THE HIPS NOT GIVEN") for w in given.warnings)
+    blank = replace(pony, cross_section=replace(pony.cross_section, chord_hinged_at_hips=None))
+    r = rate_bridge(blank, ["TYPE-3"], what_if=False)
+    w = next(w for w in r.warnings if w.startswith("CHORD AT THE HIPS NOT GIVEN:"))
+    assert "(U1, U5)" in w and "% of that load" in w
+    for key, rating in given.ratings.items():  # (the rating itself is the same)
+        assert r.ratings[key].rf == rating.rf
