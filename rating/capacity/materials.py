@@ -66,6 +66,26 @@ def default_material(kind: MaterialKind, year_built: int | None) -> MaterialDefa
     return MaterialDefault(mat, text)
 
 
+def older_steel(year_built: int | None) -> tuple[Material, int] | None:
+    """The steel of the row before a boundary of the steel-by-year table where the bridge was
+    built within :data:`NEAR_BOUNDARY_YEARS` after it, with that boundary year; else None.
+
+    MBE Table 6A.6.2.1-1 [value from memory]; the nearness, common practice.
+    """
+    if year_built is None:
+        return None
+    t = _table()
+    rows = t["steel_by_year"]["rows"]
+    for prev in rows[:-1]:
+        edge = prev["built_before"]
+        if edge is not None and 0 <= year_built - edge < NEAR_BOUNDARY_YEARS:
+            mat = Material(MaterialKind.STEEL, F_y=prev["F_y"], F_u=prev["F_u"],
+                           E=t["steel"]["E"], unit_weight_pcf=t["steel"]["unit_weight_pcf"],
+                           basis=f"default by year, the steel before {edge}", assumed=True)
+            return mat, edge
+    return None
+
+
 NEAR_BOUNDARY_YEARS = 3
 """Years after a boundary of the steel-by-year table within which a bridge's steel may be of
 the older kind (rolled or ordered before the boundary; common practice)."""

@@ -38,6 +38,7 @@ from rating.analysis.truss import (
     members_cross,
     solve_tension_only,
 )
+from rating.capacity.materials import NEAR_BOUNDARY_YEARS, older_steel
 from rating.capacity.member import MemberCapacity, member_capacity
 from rating.capacity.sections import gross_area_as_built_in2, section_properties
 from rating.errors import ConvergenceError, InputError
@@ -71,6 +72,8 @@ from rating.model import (
     DeckPosition,
     EyebarSet,
     Finding,
+    Material,
+    MaterialKind,
     Member,
     MemberRole,
     RodSet,
@@ -746,9 +749,7 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
     where it already calls for closing, so would the full one. None where no truck is rated.
     ``capacities``: the members' resistances as rated, kept for every member but this one
     (their designs and findings are the same)."""
-    trucks = list(dict.fromkeys(c.load.id for c in cases if c.postable
-                                and c.category is not VehicleCategory.EMERGENCY
-                                and c.load.id not in SCREENING_LOADS))
+    trucks = _truck_ids(cases)
     if not trucks:
         return None
     bars = _bent_bars(bridge, member)
@@ -760,8 +761,24 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
-    legal = [cp for cp in other.postings.values() if math.isfinite(cp.rf)
-             and any(c.id == cp.case and c.postable for c in other.cases)]
+    return _trucks_verdict(other.postings, other.cases, bars)
+
+
+def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
+    """The loads rated at the legal level that decide a posting or closure for trucks (not
+    the emergency vehicles, HL-93, the permits or the NRL screen)."""
+    return list(dict.fromkeys(c.load.id for c in cases if c.postable
+                              and c.category is not VehicleCategory.EMERGENCY
+                              and c.load.id not in SCREENING_LOADS))
+
+
+def _trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCase],
+                    bars: str = "") -> WithoutMember | None:
+    """What the trucks' ratings give: "a closure to consider", "a posting" or "no
+    restriction", with the lowest truck RF, its case and what controls it (None: no truck
+    rated, or none with a finite RF)."""
+    trucks = set(_truck_ids(cases))
+    legal = [cp for cp in postings.values() if math.isfinite(cp.rf) and cp.case in trucks]
     if not legal:
         return None
     low = min(legal, key=lambda cp: cp.rf)
@@ -769,6 +786,67 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
     return WithoutMember(verdict, low.rf, low.case, low.controlling, bars)
+
+
+@dataclass(frozen=True)
+class OlderSteel:
+    """The members rated again with the steel of the row before a boundary of the
+    steel-by-year table (rating.capacity.materials.older_steel): the members that took the
+    default by year, that steel, the boundary year, and what the trucks' ratings give."""
+
+    members: tuple[str, ...]
+    material: Material
+    boundary: int
+    result: WithoutMember
+
+
+def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
+                 capacities: Mapping[str, MemberCapacity]) -> OlderSteel | None:
+    """A bridge built within a few years after a boundary of MBE Table 6A.6.2.1-1 [value from
+    memory] whose members take the steel by year may be of the older steel (rolled or ordered
+    before the boundary; common practice): its members rated again with it, for the trucks at
+    the legal level, the pins not rated again (an upper bound, as for a bent member's
+    sensitivity, :func:`_without_bent`). None where it does not apply."""
+    older = older_steel(bridge.info.year_built)
+    trucks = _truck_ids(cases)
+    if older is None or not trucks:
+        return None
+    mat, edge = older
+    by_year = tuple(d.member for d in bridge.member_designs
+                    if d.material.assumed and d.material.kind is MaterialKind.STEEL
+                    and d.material.basis.startswith("default by year ("))
+    if not by_year:
+        return None
+    variant = replace(bridge, pins=(), member_designs=tuple(
+        replace(d, material=mat) if d.member in by_year else d for d in bridge.member_designs))
+    try:
+        other = rate_bridge(variant, trucks, what_if=False, capacities={
+            lab: cap for lab, cap in capacities.items() if lab not in by_year})
+    except (InputError, ConvergenceError):
+        return OlderSteel(by_year, mat, edge, WithoutMember("a closure to consider"))
+    result = _trucks_verdict(other.postings, other.cases)
+    return None if result is None else OlderSteel(by_year, mat, edge, result)
+
+
+def older_steel_text(o: OlderSteel, year: int, main: WithoutMember | None) -> str:
+    """The warning of :func:`_older_steel`: headed in capitals where the older steel gives the
+    trucks a posting or a closure (the posting, or its load, then rests on the steel's grade);
+    said plainly where it leaves them unrestricted."""
+    r = o.result
+    what = (f"the bridge was built in {year}, within {NEAR_BOUNDARY_YEARS} years after the "
+            f"{o.boundary} boundary of MBE Table 6A.6.2.1-1 [value from memory]; its "
+            f"{len(o.members)} members taking the steel by year may be of the older steel "
+            f"(F_y = {o.material.F_y:g} ksi, F_u = {o.material.F_u:g} ksi). Rated so, the "
+            f"members give {r.verdict}")
+    if r.rf is not None:
+        what += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
+    if main is not None and main.rf is not None:
+        what += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
+    what += ("; the pins were not rated again. Coupon tests, or mill records, would settle "
+             "the grade")
+    if r.verdict == "no restriction":
+        return f"steel near a table boundary: {what}"
+    return f"STEEL GRADE NEAR A TABLE BOUNDARY: {what}"
 
 
 def without_text(member: str, w: WithoutMember) -> str:
@@ -1085,6 +1163,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
+        older = _older_steel(bridge, cases, capacities)
+        if older is not None and bridge.info.year_built is not None:
+            warnings.append(older_steel_text(older, bridge.info.year_built,
+                                             _trucks_verdict(postings, cases)))
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases, pins)
     return BridgeRating(

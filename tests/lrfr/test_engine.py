@@ -751,3 +751,33 @@ def test_an_estimated_loss_that_sets_the_posting_heads_a_warning():
                     "decided")
     assert bears_on_the_decision(said)
     assert not [w for w in rated(False).warnings if w.startswith(ESTIMATED_LOSS)]
+
+
+def _by_year(year: int):
+    """The demo Pratt built in ``year``, every member of the steel the year gives (MBE Table
+    6A.6.2.1-1 [value from memory], rating.capacity.materials), heavy enough a Type 3 that
+    the trucks are posted."""
+    from rating.capacity.materials import default_material
+    from rating.model import MaterialKind
+
+    b = make_pratt_bridge(pins=False)
+    steel = default_material(MaterialKind.STEEL, year).material
+    return replace(b, info=replace(b.info, year_built=year), member_designs=tuple(
+        replace(d, material=steel) for d in b.member_designs))
+
+
+def test_steel_near_a_table_boundary_is_rated_with_the_older_steel_too():
+    # built 1906, a year after the 1905 boundary: Fy 30 ksi by the table, but the steel may
+    # be the older 26 ksi; the members rated again with it give the lower truck RF, said in
+    # the warning (capitals where it posts or closes: the posting rests on the grade)
+    r = rate_bridge(_by_year(1906), ["TYPE-3", "SU4"])
+    w = next(w for w in r.warnings if "after the 1905 boundary" in w)
+    assert "(F_y = 26 ksi, F_u = 52 ksi)" in w and "the pins were not rated again" in w
+    low_main = min(r.postings[c].rf for c in ("TYPE-3", "SU4"))
+    got = float(w.split("lowest truck RF ")[1].split(" ")[0])
+    assert got < low_main
+    assert w.startswith("STEEL GRADE NEAR A TABLE BOUNDARY:") == (
+        "give no restriction" not in w)
+    # built 1910, or of wrought iron: no such rating
+    assert not any("boundary of MBE" in w for w in rate_bridge(_by_year(1910),
+                                                                ["TYPE-3"]).warnings)
