@@ -557,8 +557,8 @@ FINDINGS = TableSheet(
                 "thread, upset or loop; connection: a built-up member's pin plate or riveted "
                 "end."),
         _c("station", "Distance from start joint", Kind.NUMBER, LENGTH, ge=0, le=500,
-           help="Along the member from its start joint, the first joint in its label (L5U4: "
-                "from L5)."),
+           help="Along the member from its start joint: the Members sheet's Start joint, or "
+                "for a generated member the first joint in its label (L5U4: from L5)."),
         _c("remaining", "Remaining thickness", Kind.NUMBER, DIM, ge=0, le=6,
            help="Of the plate or bar; for a rod, the remaining diameter."),
         _pct("loss", "Loss", ge=0, le=100, warn_above=60,
