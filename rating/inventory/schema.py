@@ -602,7 +602,11 @@ PINS = TableSheet(
 PACKING = TableSheet(
     "Packing", "Packing of bars on the pins",
     "One row per plate on the pin, in order from one end (position 1). Member: the member "
-    "whose bar this is, 'floorbeam' for a floorbeam hanger, blank for a filler or spacer ring.",
+    "whose bar this is, 'floorbeam' for a floorbeam hanger, blank for a filler or spacer ring. "
+    "Each plate brings its member's force into the pin. A chord spliced through the joint "
+    "passes most of its force by the splice and brings only the difference of its two "
+    "members' forces into the pin, which this sheet cannot say: listing both members' plates "
+    "rates that pin on the safe side; check it by hand where it governs.",
     (
         _c("joint", "Joint", Kind.LABEL, required=True, width=10),
         _c("position", "Position", Kind.INTEGER, required=True, ge=1, le=60),
