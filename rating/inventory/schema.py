@@ -606,7 +606,8 @@ PACKING = TableSheet(
     "Each plate brings its member's force into the pin. A chord spliced through the joint "
     "passes most of its force by the splice and brings only the difference of its two "
     "members' forces into the pin, which this sheet cannot say: listing both members' plates "
-    "rates that pin on the safe side; check it by hand where it governs.",
+    "adds the bending of their opposite forces, usually on the safe side; check such a pin "
+    "by hand where it governs.",
     (
         _c("joint", "Joint", Kind.LABEL, required=True, width=10),
         _c("position", "Position", Kind.INTEGER, required=True, ge=1, le=60),
