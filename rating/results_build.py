@@ -368,6 +368,15 @@ def _permit_text(rating: BridgeRating, hinge: str = "") -> str:
             + ".")
 
 
+def _own_fleet(case: RatingCase, unit: str) -> str:
+    """For the owner's own vehicle, posted: that at its weight it should not cross (the
+    posting is a sign for others' trucks; the owner keeps its own off the bridge)."""
+    if case.category is not VehicleCategory.OWNER:
+        return ""
+    w = case.load.gross_weight_tons / (TON_PER_TONNE if unit == "tonne" else 1.0)
+    return f" (the owner's own vehicle, {w:.4g} {unit}s: it should not cross)"
+
+
 def _recommendation(rating: BridgeRating, unit: str,
                     report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation, always worded for the engineer's decision;
@@ -459,7 +468,7 @@ def _recommendation(rating: BridgeRating, unit: str,
         if sel:
             low = min(sel, key=amount)
             groups.append(f"{title} {amount(low):g} {unit}s (from {low.load.name})")
-    groups += [f"{c.load.name} {amount(c):g} {unit}s" for c in trucks
+    groups += [f"{c.load.name} {amount(c):g} {unit}s" + _own_fleet(c, unit) for c in trucks
                if c.load.id not in SINGLE_UNIT | COMBINATION]
     single = min(trucks, key=amount)
     text = ("Post the bridge. Safe posting loads by vehicle class: " + "; ".join(groups)

@@ -615,3 +615,12 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     assert "Permits: issued, with conditions, or refused" in html
     parker = render_report(outcomes["tc0622_parker_1907.xlsx"].results)
     assert "Permits: issued" not in parker
+
+
+def test_the_owners_own_posted_vehicle_is_told_not_to_cross(outcomes):
+    # the county's snowplow (27 tons, invented) posted for 26 tons on the Pratt sample: a
+    # posting is a sign for others' trucks; the owner keeps its own vehicle off the bridge
+    res = outcomes["tc0417_pratt_1898.xlsx"].results
+    assert res.posting["TAM-PLOW"].action == "post"
+    assert ("county snowplow, tandem 26 tons (the owner's own vehicle, 27 tons: it should "
+            "not cross)" in res.recommendation)
