@@ -297,6 +297,20 @@ def _layout(pin: Pin, actions: Sequence[MemberAction], has_external: bool, Fy_pi
         idx = [i for i, it in enumerate(items) if it == n]
         tt = t[idx]
         share[idx, c] = tt / tt.sum()
+    spliced = pin.spliced_chord
+    if spliced is not None and all(n in names for n in spliced):
+        # a chord spliced through the joint passes its force by the splice: its plates bring
+        # only the resultant of its two members' forces into the pin, shared by thickness
+        # (common practice)
+        idx = [i for i, it in enumerate(items) if it in spliced]
+        tt = t[idx]
+        for n in spliced:
+            share[:, names.index(n)] = 0.0
+            share[idx, names.index(n)] = tt / tt.sum()
+        assumptions.append(f"pin at joint {j}: the chord {spliced[0]}-{spliced[1]} is spliced "
+                           "through the joint (Pins sheet): its plates bring only the resultant "
+                           "of its two members' forces into the pin, shared by thickness "
+                           "(common practice)")
     ext = np.zeros(len(z))
     if fb:
         ext[fb] = t[fb] / t[fb].sum()

@@ -1273,7 +1273,8 @@ class _Reading:
                                     "please confirm the packing")
             diameter, mat = pins[joint]
             out.append(Pin(joint, diameter, tuple(it for _, it, _ in items), mat,
-                           where=r.ref("joint")))
+                           where=r.ref("joint"),
+                           spliced_chord=self._spliced(r, joint, g, by_member)))
         if pin_rows and g is not None:
             # eyebars and loop rods hang on pins by their nature: a joint where they end with
             # no pin listed has a pin that is not rated (riveted joints have no such bars)
@@ -1463,6 +1464,31 @@ class _Reading:
                                source="owner's vehicle, inspection workbook",
                                tag="owner data", where=vr.ref("vehicle")))
         return tuple(out)
+
+    def _spliced(self, r: Row, joint: str, g: TrussGeometry | None,
+                 designs: Mapping[str, MemberDesign]) -> tuple[str, str] | None:
+        """The two chord members spliced through the pin's joint, where the Pins sheet says
+        so: the chord members (top or bottom chord, end post) that meet there; an error at
+        the cell where there are not two, or where they are bars (eyebars and rods bear on
+        the pin by their heads or loops: they are not spliced)."""
+        if r.get("spliced") is not True or g is None or joint not in g.joint_index:
+            return None
+        for roles in ((MemberRole.TOP_CHORD, MemberRole.END_POST), (MemberRole.BOTTOM_CHORD,)):
+            chord = [m.label for m in g.members_at(joint) if m.role in roles]
+            if len(chord) == 2:
+                bars = [lab for lab in chord if designs.get(lab) is not None
+                        and isinstance(designs[lab].section, EyebarSet | RodSet)]
+                if bars:
+                    self.log.error(r.ref("spliced"), f"the chord at {joint} is given as "
+                                   f"spliced through the joint, but {_listing(bars)} "
+                                   f"{'is' if len(bars) == 1 else 'are'} of eyebars or rods, "
+                                   "which bear on the pin by their heads or loops")
+                    return None
+                return chord[0], chord[1]
+        self.log.error(r.ref("spliced"), f"the chord at {joint} is given as spliced through "
+                       "the joint, but two members of one chord (top chord or end post, or "
+                       "bottom chord) do not meet there: a splice joins two")
+        return None
 
     def _owner_factors(self, vr: Row, vid: str, category: VehicleCategory) -> None:
         """A factor given with a vehicle replaces the one its category and the settings give:

@@ -592,6 +592,10 @@ PINS = TableSheet(
            warn_below=2, warn_above=8),
         _c("material", "Material id", Kind.LABEL, list_source=MATERIAL_LIST,
            blank_means="default steel for the year built"),
+        _c("spliced", "Chord spliced through", Kind.YESNO, blank_means="no",
+           help="Yes where the chord runs through the joint spliced (its ends milled to bear "
+                "or plated across): its two members' plates then bring only the resultant of "
+                "their forces into the pin."),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"joint": "L2", "diameter": 3.5},),
@@ -603,11 +607,9 @@ PACKING = TableSheet(
     "Packing", "Packing of bars on the pins",
     "One row per plate on the pin, in order from one end (position 1). Member: the member "
     "whose bar this is, 'floorbeam' for a floorbeam hanger, blank for a filler or spacer ring. "
-    "Each plate brings its member's force into the pin. A chord spliced through the joint "
-    "passes most of its force by the splice and brings only the difference of its two "
-    "members' forces into the pin, which this sheet cannot say: listing both members' plates "
-    "adds the bending of their opposite forces, usually on the safe side; check such a pin "
-    "by hand where it governs.",
+    "Each plate brings its member's force into the pin; where the chord is spliced through "
+    "the joint (Pins sheet), its two members' plates bring only the resultant of their "
+    "forces.",
     (
         _c("joint", "Joint", Kind.LABEL, required=True, width=10),
         _c("position", "Position", Kind.INTEGER, required=True, ge=1, le=60),

@@ -31,3 +31,5 @@ class Pin:
     packing: tuple[PackingItem, ...]
     material: Material | None = None
     where: str = ""
+    spliced_chord: tuple[str, str] | None = None  # the two chord members spliced through
+    # the joint: their plates bring only the resultant of their forces into the pin

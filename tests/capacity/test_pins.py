@@ -329,3 +329,27 @@ def test_multiplier_found_when_the_limit_lies_just_inside_lam_max():
     assert math.isinf(pin_load_multiplier(pin, base, added, lam_max=lam * 0.95))
     at = [MemberAction(a.member, lam * a.force_kip, a.direction) for a in added]
     assert pin_check(pin, at).utilization == pytest.approx(1.0, rel=1e-6)
+
+
+def test_a_chord_spliced_through_the_joint_brings_only_its_resultant():
+    # chord members C1 (to the left) and C2 (to the right) in compression of 100 and 120
+    # kip, their plates alternating on the pin, with a hanger H pulling up 20 kip and the
+    # floorbeam's 20 kip down at mid-pin. Butted on the pin, each plate brings its member's
+    # force; spliced through the joint, the chord's plates bring only the resultant, 20 kip
+    # toward the right shared by thickness (statics), so the pin's moment is that of a
+    # pin carrying the 20 kip alone on those plates
+    pk = (PackingItem("C1", 0.75), PackingItem("C2", 0.75), PackingItem("H", 1.0),
+          PackingItem("C2", 0.75), PackingItem("C1", 0.75))
+    acts = [MemberAction("C1", -100.0, (-1, 0)), MemberAction("C2", -120.0, (1, 0)),
+            MemberAction("H", 20.0, (0, 1))]
+    butted = pin_check(Pin("U2", 4.0, pk, PIN_STEEL), acts, external_kip=(20.0, -20.0))
+    spliced = pin_check(Pin("U2", 4.0, pk, PIN_STEEL, spliced_chord=("C1", "C2")), acts,
+                        external_kip=(20.0, -20.0))
+    assert spliced.M_u_kip_in < butted.M_u_kip_in
+    assert any("spliced through the joint" in a for a in spliced.assumptions)
+    # the chord's plates: a quarter each of the resultant (equal thickness), 100 - 120 =
+    # -20 kip along x from the members' pull on the pin (N u: C1 pushes +100 x, C2 -120 x)
+    chord = [p for p in spliced.plates if p.member in ("C1", "C2")]
+    assert all(p.F_h_kip == pytest.approx(-20.0 / 4.0) for p in chord)
+    assert all(p.F_v_kip == pytest.approx(0.0) for p in chord)
+    assert spliced.residual_force_kip == pytest.approx((0.0, 0.0))

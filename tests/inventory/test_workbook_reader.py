@@ -470,3 +470,31 @@ def test_the_floorbeams_moment_of_inertia_is_read_and_used_for_pony_trusses(tmp_
     d["bridge"]["floorbeam_I"] = 440.0
     d["bridge"]["floorbeam_I"] = -5.0
     find(check(tmp_path, d), form_cell("Bridge", "floorbeam_I"), "0")
+
+
+def test_a_chord_spliced_through_a_pin_is_read_with_its_two_members(tmp_path) -> None:
+    """Pins sheet, "Chord spliced through": the two members of one chord meeting at the
+    joint (the end post and top chord at the hip U1); an error at the cell where no two
+    members of one chord meet, or where they are eyebars (they bear on the pin)."""
+    d = fresh()
+    d["tables"]["Pins"].append({"joint": "U1", "diameter": 3.5, "material": "M-1",
+                                "spliced": True})
+    d["tables"]["Packing"] += [{"joint": "U1", "position": k + 1, "member": m,
+                                "thickness": 0.75}
+                               for k, m in enumerate(("L0U1", "U1L2", "L1U1", "U1L2", "U1U2"))]
+    r = check(tmp_path, d)
+    assert not [e for e in r.errors if e.where.startswith("Pins!")], r.errors
+    pin = next(p for p in r.bridge.pins if p.joint == "U1")
+    assert set(pin.spliced_chord) == {"L0U1", "U1U2"}
+    # the eyebar bottom chord at L2 bears on its pin: not spliced
+    d["tables"]["Pins"][0]["spliced"] = True
+    find(check(tmp_path, d), cell("Pins", 0, "spliced"), "of eyebars or rods")
+    # at the bearing L0 the end post meets the bottom chord: not one chord
+    d["tables"]["Pins"][0]["spliced"] = None
+    d["tables"]["Pins"].append({"joint": "L0", "diameter": 3.5, "material": "M-1",
+                                "spliced": True})
+    d["tables"]["Packing"] += [{"joint": "L0", "position": 1, "member": "L0L1",
+                                "thickness": 0.875},
+                               {"joint": "L0", "position": 2, "member": "L0U1",
+                                "thickness": 0.75}]
+    find(check(tmp_path, d), cell("Pins", 2, "spliced"), "two members of one chord")

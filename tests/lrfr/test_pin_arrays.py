@@ -41,3 +41,35 @@ def test_largest_shear_and_lengths(seed, n, nv, plates):
     np.testing.assert_allclose(g, np.linalg.norm(G, axis=-1), rtol=1e-15, atol=0.0)
     shears = g[:, 2 * n:(2 + nv) * n].reshape(9, nv, n)
     np.testing.assert_array_equal(_largest_shears(g, n, nv), shears.max(axis=1))
+
+
+def test_a_spliced_chord_never_lowers_its_pins_rating_on_the_sample():
+    # the Pratt sample's top-chord pins, their built-up chord given as spliced through the
+    # joint: the chord's plates bring the resultant of its two members' forces, not each
+    # one's (rating.capacity.pins); on these pins that rates each one at least as high
+    from dataclasses import replace
+    from pathlib import Path
+
+    from rating.inventory.reader import read_workbook
+    from rating.lrfr.engine import rate_bridge
+
+    root = Path(__file__).resolve().parents[2]
+    b = read_workbook(root / "sample_inventory" / "tc0417_pratt_1898.xlsx").bridge
+    joints = ("U2", "U3")
+    base = rate_bridge(b, ["TYPE-3"], what_if=False)
+    pairs = {j: tuple(m.label for m in b.geometry.members_at(j)
+                      if m.role.value == "top chord") for j in joints}
+    assert all(len(pr) == 2 for pr in pairs.values())
+    spliced = replace(b, pins=tuple(replace(p, spliced_chord=pairs[p.joint])
+                                    if p.joint in joints else p for p in b.pins))
+    r = rate_bridge(spliced, ["TYPE-3"], what_if=False)
+    before = {p.joint: p.ratings["TYPE-3"].rf for p in base.pins}
+    after = {p.joint: p.ratings["TYPE-3"].rf for p in r.pins}
+    for j in joints:
+        assert after[j] >= before[j] * (1 - 1e-9)
+        assert any("spliced through the joint" in a for p in r.pins if p.joint == j
+                   for a in p.assumptions)
+    assert any(after[j] > before[j] * 1.001 for j in joints)
+    for j in before:  # the other pins as before
+        if j not in joints:
+            assert after[j] == before[j]
