@@ -369,12 +369,12 @@ def _permit_text(rating: BridgeRating, hinge: str = "") -> str:
 
 
 def _own_fleet(case: RatingCase, unit: str) -> str:
-    """For the owner's own vehicle, posted: that at its weight it should not cross (the
-    posting is a sign for others' trucks; the owner keeps its own off the bridge)."""
+    """For a vehicle of the owner's Vehicles sheet, posted: that at its full weight it should
+    not cross (the posting is its safe load; lightened to it, as the owner's policy allows)."""
     if case.category is not VehicleCategory.OWNER:
         return ""
     w = case.load.gross_weight_tons / (TON_PER_TONNE if unit == "tonne" else 1.0)
-    return f" (the owner's own vehicle, {w:.4g} {unit}s: it should not cross)"
+    return f" (an owner-specified vehicle of {w:.4g} {unit}s: not to cross at full weight)"
 
 
 def _recommendation(rating: BridgeRating, unit: str,
@@ -422,7 +422,8 @@ def _recommendation(rating: BridgeRating, unit: str,
         return load
 
     def each(cs: list[RatingCase]) -> str:
-        return "; ".join(f"{c.load.name} {amount(c):g} {unit}s" for c in cs)
+        return "; ".join(f"{c.load.name} {amount(c):g} {unit}s" + _own_fleet(c, unit)
+                         for c in cs)
 
     # emergency vehicles: one sign for the class only where every one of them can be posted
     ev_text = ""

@@ -617,10 +617,10 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     assert "Permits: issued" not in parker
 
 
-def test_the_owners_own_posted_vehicle_is_told_not_to_cross(outcomes):
-    # the county's snowplow (27 tons, invented) posted for 26 tons on the Pratt sample: a
-    # posting is a sign for others' trucks; the owner keeps its own vehicle off the bridge
+def test_an_owner_specified_posted_vehicle_is_told_not_to_cross_at_full_weight(outcomes):
+    # the county's snowplow (27 tons, invented) posted for 26 tons on the Pratt sample: at
+    # its full weight it should not cross (lightened to the posting, as the owner allows)
     res = outcomes["tc0417_pratt_1898.xlsx"].results
     assert res.posting["TAM-PLOW"].action == "post"
-    assert ("county snowplow, tandem 26 tons (the owner's own vehicle, 27 tons: it should "
-            "not cross)" in res.recommendation)
+    assert ("county snowplow, tandem 26 tons (an owner-specified vehicle of 27 tons: not to "
+            "cross at full weight)" in res.recommendation)

@@ -1484,6 +1484,12 @@ class _Reading:
                                    f"{'is' if len(bars) == 1 else 'are'} of eyebars or rods, "
                                    "which bear on the pin by their heads or loops")
                     return None
+                hip = any(g.member(lab).role is MemberRole.END_POST for lab in chord)
+                if hip and _s(self.b, "chord_at_hips") == "hinged":
+                    self.log.warning(r.ref("spliced"), f"the pin at the hip {joint} is given "
+                                     "with its chord spliced through, but the Bridge sheet "
+                                     "gives the top chord as hinged at the hips: the two "
+                                     "disagree; check which is so")
                 return chord[0], chord[1]
         self.log.error(r.ref("spliced"), f"the chord at {joint} is given as spliced through "
                        "the joint, but two members of one chord (top chord or end post, or "

@@ -65,7 +65,7 @@ from rating.lrfr.positions import (
 )
 from rating.lrfr.posting import PostingAction, PostingResult, posting
 from rating.lrfr.reported import reported_rf
-from rating.lrfr.uframes import UFRAME_ASSUMPTION, UFRAME_FORCE_KLF, pony_chord
+from rating.lrfr.uframes import UFRAME_ASSUMPTION, UFRAME_FORCE_KLF, PonyChord, pony_chord
 from rating.model import (
     BarState,
     Bridge,
@@ -616,15 +616,16 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
 
 def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, MemberCapacity],
                       dead: DeadLoadResult, weights: Mapping[str, MemberWeight],
-                      warnings: list[str], assumptions: list[str], gamma_dc: float) -> None:
+                      warnings: list[str], assumptions: list[str], gamma_dc: float
+                      ) -> PonyChord | None:
     """A pony truss whose floorbeam's moment of inertia is given: its top chord and end posts
     rated out of the truss plane with the effective lengths of the chord on its U-frames
     (rating.lrfr.uframes; AASHTO LRFD 6.14.2.9 [value from memory]), in place of K L; their
     resistances, warnings and assumptions replaced in ``capacities``, ``warnings`` and
-    ``assumptions``."""
+    ``assumptions``. Returns the analysis (None where there is none)."""
     I_fb = bridge.cross_section.floorbeam_I_in4
     if g.deck_position is not DeckPosition.PONY or not I_fb:
-        return
+        return None
     force = dead.member_forces_dc_kip + dead.member_forces_dw_kip
     compression = {m.label: -float(f) for m, f in zip(g.members, force, strict=True)}
     S_y = {m.label: _least_S_y_in3(bridge, g, m.label) for m in g.members
@@ -640,7 +641,7 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
                         "floorbeam (a chord held by inclined frames alone is not analysed). "
                         "The chord is rated as held at each panel point; check its lateral "
                         "stability by hand")
-        return
+        return None
     st = bridge.settings
     for lab, KL_ft in chord.lengths_ft.items():
         m = g.member(lab)
@@ -656,17 +657,6 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
             said[:] = [w for w in said if w not in set(was) - set(now)] + [
                 w for w in now if w not in was]
     assumptions.append(chord.assumption)
-    if (bridge.cross_section.chord_hinged_at_hips is None and chord.multiplier > 0
-            and chord.other < HIPS_DECIDE * chord.multiplier):
-        hips = [j for j, f in chord.frames.items() if j in chord.hips]
-        warnings.append(
-            "CHORD AT THE HIPS NOT GIVEN: the pony truss's top chord and end posts are rated "
-            f"as continuous out of plane at the hips ({', '.join(hips)}), the Bridge sheet not "
-            "saying otherwise; hinged there (butted on the pin, no splice) the chord would "
-            + ("be a mechanism out of plane, with no buckling strength" if chord.other <= 0
-               else f"buckle at {chord.other / chord.multiplier:.0%} of that load")
-            + ". Confirm the hips' detail in the field and give it on the Bridge sheet (Top "
-            "chord at the hips, out of plane)")
     over = [f"{f.upright} ({f.stress_ksi:.3g} ksi, F_y {f.F_y_ksi:.3g} ksi)"
             for f in chord.frames.values() if f.upright and f.stress_ksi > f.F_y_ksi > 0]
     if over:
@@ -676,12 +666,44 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
             f"{', '.join(over)} past yield at the foot: the U-frames may not hold the chord as "
             "its rating assumes; the engineer should check them and their floorbeam "
             "connections")
+    return chord
 
 
-HIPS_DECIDE = 0.5
-"""Where the chord hinged at its hips would buckle below this fraction of its load as
-continuous there, and the Bridge sheet does not give the detail, the warning is headed in
-capitals (it can turn a posting into a closure; judgement, common practice)."""
+def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord | None
+                 ) -> tuple[tuple[str, ...], WithoutMember] | None:
+    """A pony truss's chord on its U-frames whose hips' detail the Bridge sheet does not
+    give is rated as continuous there; this rates the trucks again with it hinged there
+    (butted on the pin): the hips and what the trucks' ratings give. None where it does
+    not apply."""
+    trucks = _truck_ids(cases)
+    if (chord is None or not chord.hips or not trucks
+            or bridge.cross_section.chord_hinged_at_hips is not None):
+        return None
+    variant = replace(bridge, cross_section=replace(bridge.cross_section,
+                                                    chord_hinged_at_hips=True))
+    try:
+        other = rate_bridge(variant, trucks, what_if=False)
+    except (InputError, ConvergenceError):
+        return chord.hips, WithoutMember("a closure to consider")
+    result = _trucks_verdict(other.postings, other.cases)
+    return None if result is None else (chord.hips, result)
+
+
+def hips_text(hips: Sequence[str], r: WithoutMember, main: WithoutMember | None) -> str:
+    """The warning of :func:`_hips_hinged`: headed in capitals where the chord hinged at the
+    hips gives the trucks a posting or a closure."""
+    what = (f"the pony truss's top chord and end posts are rated as continuous out of plane "
+            f"at the hips ({', '.join(hips)}), the Bridge sheet not saying otherwise; hinged "
+            f"there (butted on the pin, no splice), the trucks give {r.verdict}")
+    if r.rf is not None:
+        what += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
+    if main is not None and main.rf is not None:
+        what += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
+    what += (". Confirm the hips' detail in the field and give it on the Bridge sheet (Top "
+             "chord at the hips, out of plane)")
+    if r.verdict == "no restriction":
+        return f"pony truss: {what}"
+    return f"CHORD AT THE HIPS NOT GIVEN: {what}"
 
 
 def _least_S_y_in3(bridge: Bridge, g: TrussGeometry, label: str) -> float:
@@ -790,42 +812,51 @@ def _trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingC
 
 @dataclass(frozen=True)
 class OlderSteel:
-    """The members rated again with the steel of the row before a boundary of the
-    steel-by-year table (rating.capacity.materials.older_steel): the members that took the
-    default by year, that steel, the boundary year, and what the trucks' ratings give."""
+    """The members and pins rated again with the steel of the row before a boundary of the
+    steel-by-year table (rating.capacity.materials.older_steel): the members and pins that
+    took the default by year, that steel, the boundary year, and what the trucks' ratings
+    give."""
 
     members: tuple[str, ...]
+    pins: tuple[str, ...]
     material: Material
     boundary: int
     result: WithoutMember
 
 
+def _by_year(material: Material | None) -> bool:
+    """A steel taken by year of construction (rating.capacity.materials.default_material)."""
+    return (material is not None and material.assumed and material.kind is MaterialKind.STEEL
+            and material.basis.startswith("default by year ("))
+
+
 def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
                  capacities: Mapping[str, MemberCapacity]) -> OlderSteel | None:
     """A bridge built within a few years after a boundary of MBE Table 6A.6.2.1-1 [value from
-    memory] whose members take the steel by year may be of the older steel (rolled or ordered
-    before the boundary; common practice): its members rated again with it, for the trucks at
-    the legal level, the pins not rated again (an upper bound, as for a bent member's
-    sensitivity, :func:`_without_bent`). None where it does not apply."""
+    memory] whose members or pins take the steel by year may be of the older steel (rolled or
+    ordered before the boundary; common practice): rated again with it, members and pins, for
+    the trucks at the legal level. None where it does not apply."""
     older = older_steel(bridge.info.year_built)
     trucks = _truck_ids(cases)
     if older is None or not trucks:
         return None
     mat, edge = older
-    by_year = tuple(d.member for d in bridge.member_designs
-                    if d.material.assumed and d.material.kind is MaterialKind.STEEL
-                    and d.material.basis.startswith("default by year ("))
-    if not by_year:
+    by_year = tuple(d.member for d in bridge.member_designs if _by_year(d.material))
+    pins = tuple(p.joint for p in bridge.pins if _by_year(p.material))
+    if not by_year and not pins:
         return None
-    variant = replace(bridge, pins=(), member_designs=tuple(
-        replace(d, material=mat) if d.member in by_year else d for d in bridge.member_designs))
+    variant = replace(
+        bridge,
+        pins=tuple(replace(p, material=mat) if p.joint in pins else p for p in bridge.pins),
+        member_designs=tuple(replace(d, material=mat) if d.member in by_year else d
+                             for d in bridge.member_designs))
     try:
         other = rate_bridge(variant, trucks, what_if=False, capacities={
             lab: cap for lab, cap in capacities.items() if lab not in by_year})
     except (InputError, ConvergenceError):
-        return OlderSteel(by_year, mat, edge, WithoutMember("a closure to consider"))
+        return OlderSteel(by_year, pins, mat, edge, WithoutMember("a closure to consider"))
     result = _trucks_verdict(other.postings, other.cases)
-    return None if result is None else OlderSteel(by_year, mat, edge, result)
+    return None if result is None else OlderSteel(by_year, pins, mat, edge, result)
 
 
 def older_steel_text(o: OlderSteel, year: int, main: WithoutMember | None) -> str:
@@ -833,17 +864,20 @@ def older_steel_text(o: OlderSteel, year: int, main: WithoutMember | None) -> st
     trucks a posting or a closure (the posting, or its load, then rests on the steel's grade);
     said plainly where it leaves them unrestricted."""
     r = o.result
-    what = (f"the bridge was built in {year}, within {NEAR_BOUNDARY_YEARS} years after the "
-            f"{o.boundary} boundary of MBE Table 6A.6.2.1-1 [value from memory]; its "
-            f"{len(o.members)} members taking the steel by year may be of the older steel "
+    parts = ([f"{len(o.members)} member{'s' if len(o.members) != 1 else ''}"]
+             if o.members else []) + (
+        [f"{len(o.pins)} pin{'s' if len(o.pins) != 1 else ''}"] if o.pins else [])
+    what = (f"the bridge was built in {year}, within the {NEAR_BOUNDARY_YEARS} years "
+            f"{o.boundary}-{o.boundary + NEAR_BOUNDARY_YEARS - 1} after the {o.boundary} "
+            "boundary of MBE Table 6A.6.2.1-1 [value from memory]; its "
+            f"{' and '.join(parts)} taking the steel by year may be of the older steel "
             f"(F_y = {o.material.F_y:g} ksi, F_u = {o.material.F_u:g} ksi). Rated so, the "
-            f"members give {r.verdict}")
+            f"trucks give {r.verdict}")
     if r.rf is not None:
         what += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
     if main is not None and main.rf is not None:
         what += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
-    what += ("; the pins were not rated again. Coupon tests, or mill records, would settle "
-             "the grade")
+    what += ". Coupon tests, or mill records, would settle the grade"
     if r.verdict == "no restriction":
         return f"steel near a table boundary: {what}"
     return f"STEEL GRADE NEAR A TABLE BOUNDARY: {what}"
@@ -995,8 +1029,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     dead = dead_load(g, bridge.cross_section, bridge.dead_loads, weights,
                      st.detail_allowance, st.detail_allowance_given, family=family)
     assumptions.extend(dead.assumptions)
-    _chord_on_uframes(g, bridge, capacities, dead, weights, warnings, assumptions,
-                      dead_f["gamma_dc_max"].value)
+    chord = _chord_on_uframes(g, bridge, capacities, dead, weights, warnings, assumptions,
+                              dead_f["gamma_dc_max"].value)
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))
@@ -1163,10 +1197,13 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
+        main = _trucks_verdict(postings, cases)
         older = _older_steel(bridge, cases, capacities)
         if older is not None and bridge.info.year_built is not None:
-            warnings.append(older_steel_text(older, bridge.info.year_built,
-                                             _trucks_verdict(postings, cases)))
+            warnings.append(older_steel_text(older, bridge.info.year_built, main))
+        hips = _hips_hinged(bridge, cases, chord)
+        if hips is not None:
+            warnings.append(hips_text(*hips, main))
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases, pins)
     return BridgeRating(

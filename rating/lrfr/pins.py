@@ -784,7 +784,8 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
             found.update(zip(mine, _search([here[i] for i in mine], loads, linear),
                              strict=True))
     rated = (_rate_one(here[i], found[i], g, designs, loads) for i in range(len(here)))
-    return tuple(replace(r, warnings=r.warnings + _end_loss_notes(r.joint, g, bridge),
+    return tuple(replace(r, warnings=r.warnings + _end_loss_notes(r.joint, g, bridge)
+                         + _splice_notes(r.pin),
                          assumptions=r.assumptions + _support_notes(r.joint, g))
                  for r in rated)
 
@@ -792,6 +793,20 @@ def rate_pins(pins: Sequence[Pin], g: TrussGeometry, bridge, dead, dead_f, loads
 END_REACH = 0.2
 """A finding at a member's head or connection within this fraction of its length from a
 joint is taken to be at that joint's pin (a finding with no station, at both ends)."""
+
+
+def _splice_notes(pin: Pin) -> tuple[str, ...]:
+    """A chord given as spliced through the pin's joint brings only the resultant of its two
+    forces into the pin (rating.capacity.pins); the splice carries the rest, and is not rated
+    here (common practice: a splice of ends milled to bear carries compression only)."""
+    if pin.spliced_chord is None:
+        return ()
+    a, b = pin.spliced_chord
+    return (f"pin at joint {pin.joint}: the chord {a}-{b} is given as spliced through the "
+            "joint (Pins sheet), so the pin takes only the resultant of its two forces; the "
+            "splice itself (its plates and rivets, or ends milled to bear, which carry "
+            "compression only) is not rated here and must carry the chord's force: check it, "
+            "or rate the pin with the chord butted on it where the splice is in doubt",)
 
 
 def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:

@@ -486,6 +486,11 @@ def test_a_chord_spliced_through_a_pin_is_read_with_its_two_members(tmp_path) ->
     assert not [e for e in r.errors if e.where.startswith("Pins!")], r.errors
     pin = next(p for p in r.bridge.pins if p.joint == "U1")
     assert set(pin.spliced_chord) == {"L0U1", "U1U2"}
+    # a hip spliced while the Bridge sheet gives the chord as hinged at the hips: said
+    d["bridge"]["chord_at_hips"] = "hinged"
+    find(check(tmp_path, d), cell("Pins", 1, "spliced"), "the two disagree",
+         severity="warning")
+    d["bridge"]["chord_at_hips"] = None
     # the eyebar bottom chord at L2 bears on its pin: not spliced
     d["tables"]["Pins"][0]["spliced"] = True
     find(check(tmp_path, d), cell("Pins", 0, "spliced"), "of eyebars or rods")

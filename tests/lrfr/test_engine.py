@@ -22,6 +22,7 @@ from rating.analysis.truss import solve_tension_only
 from rating.capacity.pins import pin_actions, pin_load_multiplier
 from rating.lrfr.engine import rate_bridge
 from rating.lrfr.liveload import live_joint_loads
+from rating.lrfr.reported import reported_rf
 from rating.model import (
     AxleSpacing,
     BarState,
@@ -753,17 +754,17 @@ def test_an_estimated_loss_that_sets_the_posting_heads_a_warning():
     assert not [w for w in rated(False).warnings if w.startswith(ESTIMATED_LOSS)]
 
 
-def _by_year(year: int):
-    """The demo Pratt built in ``year``, every member of the steel the year gives (MBE Table
-    6A.6.2.1-1 [value from memory], rating.capacity.materials), heavy enough a Type 3 that
-    the trucks are posted."""
+def _by_year(year: int, pins: bool = False):
+    """The demo Pratt built in ``year``, every member (and its pin) of the steel the year
+    gives (MBE Table 6A.6.2.1-1 [value from memory], rating.capacity.materials)."""
     from rating.capacity.materials import default_material
     from rating.model import MaterialKind
 
-    b = make_pratt_bridge(pins=False)
+    b = make_pratt_bridge(pins=pins)
     steel = default_material(MaterialKind.STEEL, year).material
     return replace(b, info=replace(b.info, year_built=year), member_designs=tuple(
-        replace(d, material=steel) for d in b.member_designs))
+        replace(d, material=steel) for d in b.member_designs),
+        pins=tuple(replace(p, material=steel) for p in b.pins))
 
 
 def test_steel_near_a_table_boundary_is_rated_with_the_older_steel_too():
@@ -772,7 +773,7 @@ def test_steel_near_a_table_boundary_is_rated_with_the_older_steel_too():
     # the warning (capitals where it posts or closes: the posting rests on the grade)
     r = rate_bridge(_by_year(1906), ["TYPE-3", "SU4"])
     w = next(w for w in r.warnings if "after the 1905 boundary" in w)
-    assert "(F_y = 26 ksi, F_u = 52 ksi)" in w and "the pins were not rated again" in w
+    assert "(F_y = 26 ksi, F_u = 52 ksi)" in w and "the 3 years 1905-1907" in w
     low_main = min(r.postings[c].rf for c in ("TYPE-3", "SU4"))
     got = float(w.split("lowest truck RF ")[1].split(" ")[0])
     assert got < low_main
@@ -781,3 +782,22 @@ def test_steel_near_a_table_boundary_is_rated_with_the_older_steel_too():
     # built 1910, or of wrought iron: no such rating
     assert not any("boundary of MBE" in w for w in rate_bridge(_by_year(1910),
                                                                 ["TYPE-3"]).warnings)
+
+
+def test_the_older_steel_is_given_to_the_pins_too_and_matches_a_rating_with_it():
+    # the same bridge rated with the older steel given explicitly (members and pin): the
+    # warning's lowest truck RF is that rating's (the pins take the steel by year too)
+    from rating.capacity.materials import older_steel
+
+    b = _by_year(1906, pins=True)
+    trucks = ["TYPE-3", "SU4", "SU7"]
+    r = rate_bridge(b, trucks)
+    w = next(w for w in r.warnings if "after the 1905 boundary" in w)
+    assert "31 members and 1 pin taking the steel by year" in w
+    old = replace(older_steel(1906)[0], assumed=False, basis="given")
+    explicit = replace(b, member_designs=tuple(replace(d, material=old)
+                                               for d in b.member_designs),
+                       pins=tuple(replace(p, material=old) for p in b.pins))
+    e = rate_bridge(explicit, trucks, what_if=False)
+    low = min((e.postings[c] for c in trucks), key=lambda cp: cp.rf)
+    assert f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling})" in w

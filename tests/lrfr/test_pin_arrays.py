@@ -69,6 +69,9 @@ def test_a_spliced_chord_never_lowers_its_pins_rating_on_the_sample():
         assert after[j] >= before[j] * (1 - 1e-9)
         assert any("spliced through the joint" in a for p in r.pins if p.joint == j
                    for a in p.assumptions)
+        # and the splice itself, which now carries the chord's force, is said to be unrated
+        assert any("the splice itself" in w and "is not rated here" in w
+                   for p in r.pins if p.joint == j for w in p.warnings)
     assert any(after[j] > before[j] * 1.001 for j in joints)
     for j in before:  # the other pins as before
         if j not in joints:

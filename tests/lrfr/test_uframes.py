@@ -13,6 +13,7 @@ import pytest
 from rating.analysis.uframe import uframe_stiffness_kip_per_in
 from rating.inventory.reader import read_workbook
 from rating.lrfr.engine import rate_bridge
+from rating.lrfr.reported import reported_rf
 from rating.lrfr.uframes import UFRAME_ASSUMPTION, pony_chord
 from rating.model import DeckPosition, MemberRole
 
@@ -252,15 +253,20 @@ def test_a_chord_that_is_a_mechanism_out_of_plane_has_no_buckling_strength(pony)
                for m in cont.geometry.members if m.role in CHORD)
 
 
-def test_hips_not_given_are_headed_in_capitals_where_they_decide(pony):
-    # the sample gives its hips as continuous: no such warning; not given, hinging there
-    # would leave 16 % of the buckling load, below half: headed in capitals, for the box
-    given = rate_bridge(pony, ["TYPE-3"], what_if=False)
+def test_hips_not_given_are_rated_hinged_too_and_said_where_they_decide(pony):
+    # the sample gives its hips as continuous: no such rating; not given, the trucks are
+    # rated again with the chord hinged there, and where that posts or closes the warning
+    # is headed in capitals, with the lowest truck RF of that rating
+    given = rate_bridge(pony, ["TYPE-3", "SU4"])
     assert pony.cross_section.chord_hinged_at_hips is False
-    assert not any(w.startswith("CHORD AT THE HIPS NOT GIVEN") for w in given.warnings)
+    assert not any("at the hips (U1, U5), the Bridge sheet not" in w for w in given.warnings)
     blank = replace(pony, cross_section=replace(pony.cross_section, chord_hinged_at_hips=None))
-    r = rate_bridge(blank, ["TYPE-3"], what_if=False)
-    w = next(w for w in r.warnings if w.startswith("CHORD AT THE HIPS NOT GIVEN:"))
-    assert "(U1, U5)" in w and "% of that load" in w
-    for key, rating in given.ratings.items():  # (the rating itself is the same)
+    r = rate_bridge(blank, ["TYPE-3", "SU4"])
+    w = next(w for w in r.warnings if "at the hips (U1, U5), the Bridge sheet not" in w)
+    hinged = rate_bridge(replace(pony, cross_section=replace(
+        pony.cross_section, chord_hinged_at_hips=True)), ["TYPE-3", "SU4"], what_if=False)
+    low = min((hinged.postings[c] for c in ("TYPE-3", "SU4")), key=lambda cp: cp.rf)
+    assert f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling})" in w
+    assert w.startswith("CHORD AT THE HIPS NOT GIVEN:")
+    for key, rating in given.ratings.items():  # (the rating itself is the continuous one)
         assert r.ratings[key].rf == rating.rf
