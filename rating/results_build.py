@@ -19,6 +19,7 @@ from rating.lrfr.engine import (
     CasePosting,
     MemberCaseRating,
     RatingCase,
+    WithoutMember,
     permit_conditions,
 )
 from rating.lrfr.factors import RatingLevel, provisions
@@ -317,34 +318,50 @@ def _rf_words(rf: float) -> str:
 def recommendation(rating: BridgeRating, unit: str,
                    report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation (:func:`_recommendation`), made conditional where it
-    rests on a bent member that, rated without, gives a closure to consider: the engineer
-    reads first that the posting holds only if that member acts (a reviewer would not sign a
+    rests on something that, where it does not hold, gives a closure to consider: a bent
+    member that does not act (:func:`rating.lrfr.engine._without_bent`), or another
+    condition of the rating (``rating.conditions``: a pony chord's hips, the steel's grade).
+    The engineer reads first that the posting holds only if so (a reviewer would not sign a
     "post" headline with the closure only in a warning)."""
     text = _recommendation(rating, unit, report)
     hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
-    if not hinge or text.startswith("Consider closing"):
+    others = [(c.holds, c.fails, _lowest_words(c.result) + "; see the warning")
+              for c in rating.conditions if c.result.verdict == "a closure to consider"]
+    clauses: list[tuple[str, str, str]] = []  # (holds, fails, what the trucks give then)
+    if hinge:
+        one = len(hinge) == 1
+        names = ", ".join(w.what(m) for m, w in hinge.items())
+        who = names if others else "it" if one else "they"  # (named where others follow)
+        clauses.append((
+            f"{names} {'is' if one else 'are'} confirmed to act (recorded bent)",
+            f"{who} {'does' if one else 'do'} not act",
+            "; ".join(f"without {w.what(m)}, {_lowest_words(w)}" for m, w in hinge.items())
+            + "; members only, see the warning"))
+    clauses += others
+    if not clauses or text.startswith("Consider closing"):
         return text.removesuffix(DECISION_NOTE) + _permit_text(rating) + DECISION_NOTE
-    names = ", ".join(w.what(m) for m, w in hinge.items())
-    # the permits last, after the condition on the bridge's own posting, and on it too
-    permits = _permit_text(rating, names) + DECISION_NOTE
-    if_not = "; ".join(
-        f"without {w.what(m)}, "
-        f"{'no load path for the trucks' if w.rf is None else 'lowest truck RF'}"
-        + ("" if w.rf is None else f" {reported_rf(w.rf):.2f} ({w.case}, {w.controlling})")
-        for m, w in hinge.items())
-    one = len(hinge) == 1
-    return (f"Only if {names} {'is' if one else 'are'} confirmed to act (recorded bent): "
-            + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
-            + f" If {'it does' if one else 'they do'} not act, consider closing the bridge "
-            f"({if_not}; members only, see the warning)." + permits)
+    holds = " and ".join(h for h, _, _ in clauses)
+    # the permits last, after the conditions on the bridge's own posting, and on them too
+    permits = _permit_text(rating, holds) + DECISION_NOTE
+    return (f"Only if {holds}: " + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
+            + "".join(f" If {fails}, consider closing the bridge ({then})."
+                      for _, fails, then in clauses) + permits)
 
 
-def _permit_text(rating: BridgeRating, hinge: str = "") -> str:
+def _lowest_words(w: WithoutMember) -> str:
+    """The lowest truck RF of a sensitivity, in words ("lowest truck RF 0.12 (SU7, U3L4)";
+    "no load path for the trucks" where there is none)."""
+    if w.rf is None:
+        return "no load path for the trucks"
+    return f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling})"
+
+
+def _permit_text(rating: BridgeRating, condition: str = "") -> str:
     """The permits rated, each with its RF and verdict (rating.lrfr.engine.permit_verdict:
     carried by the truss members and pins under the conditions of its type; not as
     requested; not over a bridge restricted for the legal loads, MBE 6A.4.5 [value from
-    memory]); ``hinge``: the bent members the bridge's own recommendation rests on, which a
-    permit rests on too. A permit never posts or closes the bridge."""
+    memory]); ``condition``: what the bridge's own recommendation rests on, which a permit
+    rests on too. A permit never posts or closes the bridge."""
     permits = [c for c in rating.cases if c.category.is_permit]
     if not permits:
         return ""
@@ -356,7 +373,7 @@ def _permit_text(rating: BridgeRating, hinge: str = "") -> str:
         if cp.permit == CARRIED:
             tail = ("the truss members and pins carry it ("
                     + permit_conditions(c.category, c.im.value) + ")"
-                    + (f" only if {hinge} acts" if hinge else "")
+                    + (f" only if {condition}" if condition else "")
                     + "; the floor system, deck and bearings are to be checked for it")
         elif cp.permit == NOT_OVER_RESTRICTED:
             tail = ("not over this bridge while it is restricted for the legal loads (MBE "

@@ -189,6 +189,20 @@ class BridgeRating:
     provisions: tuple[str, ...] = field(default=())
     without: Mapping[str, WithoutMember] = field(default_factory=dict)  # a bent member the
     # ratings rest on -> what the members give without it (:func:`_without_bent`)
+    conditions: tuple[Condition, ...] = ()  # other assumptions the ratings rest on, each
+    # with what the trucks give without it (:func:`_hips_hinged`, :func:`_older_steel`)
+
+
+@dataclass(frozen=True)
+class Condition:
+    """An assumption the ratings rest on that the engineer should confirm, with what the
+    trucks give where it does not hold: ``holds`` words its confirmation ("the top chord is
+    confirmed continuous out of plane at the hips (U1, U5)"), ``fails`` its opposite ("the
+    top chord is hinged there")."""
+
+    holds: str
+    fails: str
+    result: WithoutMember
 
 
 @dataclass(frozen=True)
@@ -1191,6 +1205,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         assumptions.extend(p.assumptions)
     warnings[:] = [_loop_rod_controls(w, controlling) for w in warnings]
     without: dict[str, WithoutMember] = {}
+    conditions: list[Condition] = []
     if what_if:
         for member, text in bent_relied_on.items():
             w = _without_bent(member, bridge, cases, capacities)
@@ -1201,9 +1216,16 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         older = _older_steel(bridge, cases, capacities)
         if older is not None and bridge.info.year_built is not None:
             warnings.append(older_steel_text(older, bridge.info.year_built, main))
+            conditions.append(Condition(
+                "the steel is confirmed of the later grade (coupon tests or mill records)",
+                f"the steel is the older grade (F_y {older.material.F_y:g} ksi)",
+                older.result))
         hips = _hips_hinged(bridge, cases, chord)
         if hips is not None:
             warnings.append(hips_text(*hips, main))
+            conditions.append(Condition(
+                "the top chord is confirmed continuous out of plane at the hips "
+                f"({', '.join(hips[0])})", "the top chord is hinged there", hips[1]))
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases, pins)
     return BridgeRating(
@@ -1216,7 +1238,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         provisions=tuple(dict.fromkeys(
             [f.describe() for f in dead_f.values()]
             + [c.gamma_ll.describe() for c in cases] + [c.im.describe() for c in cases])),
-        without=without,
+        without=without, conditions=tuple(conditions),
     )
 
 
