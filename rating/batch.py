@@ -90,6 +90,12 @@ class BridgeRow:
     stale: tuple[str, ...] = ()  # a workbook not rated this run: its outputs in the output
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
 
+    @property
+    def conditional(self) -> bool:
+        """The recommendation rests on a condition the engineer should confirm ("Only if
+        ... is confirmed ...": rating.results_build.recommendation)."""
+        return self.recommendation.startswith("Only if ")
+
     def lowest_legal(self) -> VehicleLine | None:
         """The vehicle that decides the bridge's action: among the trucks (legal loads, SHVs
         and owner vehicles) the lowest RF of those calling for closing, else the lowest posting
@@ -494,7 +500,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
             "weight unit", "deciding truck RF", "deciding truck", "action",
-            "recommendation", "read before deciding", "errors", "warnings", "problems",
+            "rests on a condition", "recommendation", "read before deciding", "errors",
+            "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:
         head += [f"{vid} RF", f"{vid} controlling member", f"{vid} action",
@@ -507,7 +514,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
         line = [_cell(r.workbook), "rated" if r.rated else "not rated", _cell(r.structure),
                 _cell(r.name), _cell(r.location), r.inspection_date,
                 r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
-                _cell(low.vehicle) if low else "", r.action, _cell(r.recommendation),
+                _cell(low.vehicle) if low else "", r.action,
+                "yes" if r.conditional else "", _cell(r.recommendation),
                 _cell(" | ".join(r.decision_warnings)), str(len(r.errors)), str(len(r.warnings)),
                 _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
                                                    if len(r.errors) > 20 else "")
@@ -575,8 +583,8 @@ class _IndexView:
 def _first_clause(text: str) -> str:
     """A warning to its first clause (up to the first "; " or ". "), for the index's row,
     with the verdict of a sensitivity it ends with ("Rated as if L3U4 did not act ..., the
-    members give a closure to consider: lowest truck RF 0.12 (SU7, U3L4)": the part that
-    bears on the decision)."""
+    members give a closure to consider: lowest truck RF 0.12 (SU7, U3L4)"; "... the trucks
+    give a posting: lowest truck RF 0.78 (...)": the part that bears on the decision)."""
     cut = [i for i in (text.find("; "), text.find(". ")) if i > 0]
     head = text[:min(cut)] if cut else text
     at = text.find(" Rated as if ")
@@ -584,6 +592,11 @@ def _first_clause(text: str) -> str:
         verdict = text[at + 1:]
         end = verdict.find("; ")
         head += ". " + (verdict[:end] if end > 0 else verdict.rstrip("."))
+    at = text.find("the trucks give ")  # (a sensitivity's verdict: the steel, the hips)
+    if at > len(head):
+        verdict = text[at:]
+        end = verdict.find(". ")
+        head += "; " + (verdict[:end] if end > 0 else verdict.rstrip("."))
     return head
 
 
@@ -616,7 +629,8 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
               "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)),
               "close": sum(1 for r in summary.rows if r.action == "close"),
-              "read": sum(1 for r in summary.rows if r.decision_warnings)}
+              "read": sum(1 for r in summary.rows if r.decision_warnings),
+              "conditional": sum(1 for r in summary.rows if r.conditional)}
     view = _IndexView(
         title=f"Batch load rating \u2014 {summary.folder.name or summary.folder}",
         folder=str(summary.folder), vehicles=vehicles, rated=tuple(rated),

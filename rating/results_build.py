@@ -21,6 +21,7 @@ from rating.lrfr.engine import (
     RatingCase,
     WithoutMember,
     permit_conditions,
+    trucks_verdict,
 )
 from rating.lrfr.factors import RatingLevel, provisions
 from rating.lrfr.posting import PostingAction, least_posting_load
@@ -325,9 +326,12 @@ def recommendation(rating: BridgeRating, unit: str,
     "post" headline with the closure only in a warning)."""
     text = _recommendation(rating, unit, report)
     hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
-    others = [(c.holds, c.fails, _lowest_words(c.result) + "; see the warning")
-              for c in rating.conditions if c.result.verdict == "a closure to consider"]
-    clauses: list[tuple[str, str, str]] = []  # (holds, fails, what the trucks give then)
+    main = trucks_verdict(rating.postings, rating.cases)
+    others = [(c.holds, c.fails, _lowest_words(c.result) + "; see the warning",
+               _consequence(c.result, main))
+              for c in rating.conditions if _consequence(c.result, main)]
+    # (holds, fails, what the trucks give then, what the engineer should then consider)
+    clauses: list[tuple[str, str, str, str]] = []
     if hinge:
         one = len(hinge) == 1
         names = ", ".join(w.what(m) for m, w in hinge.items())
@@ -336,16 +340,33 @@ def recommendation(rating: BridgeRating, unit: str,
             f"{names} {'is' if one else 'are'} confirmed to act (recorded bent)",
             f"{who} {'does' if one else 'do'} not act",
             "; ".join(f"without {w.what(m)}, {_lowest_words(w)}" for m, w in hinge.items())
-            + "; members only, see the warning"))
+            + "; members only, see the warning", "consider closing the bridge"))
     clauses += others
     if not clauses or text.startswith("Consider closing"):
         return text.removesuffix(DECISION_NOTE) + _permit_text(rating) + DECISION_NOTE
-    holds = " and ".join(h for h, _, _ in clauses)
+    holds = " and ".join(c[0] for c in clauses)
     # the permits last, after the conditions on the bridge's own posting, and on them too
     permits = _permit_text(rating, holds) + DECISION_NOTE
-    return (f"Only if {holds}: " + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
-            + "".join(f" If {fails}, consider closing the bridge ({then})."
-                      for _, fails, then in clauses) + permits)
+    # ("No load restriction is indicated for trucks: every truck ..." has its own colon)
+    join = ", " if text.startswith("No load restriction") else ": "
+    return (f"Only if {holds}{join}" + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
+            + "".join(f" If {fails}, {then_do} ({then})."
+                      for _, fails, then, then_do in clauses) + permits)
+
+
+def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:
+    """What a sensitivity's verdict asks of the engineer where it is worse than the
+    rating's own (""; where it is not): closing, a posting where none is, or lower posting
+    loads (the lowest truck RF as printed lower)."""
+    if w.verdict == "a closure to consider":
+        return "consider closing the bridge"
+    if w.verdict != "a posting":
+        return ""
+    if main is None or main.verdict == "no restriction":
+        return "post the bridge"
+    if w.rf is not None and main.rf is not None and reported_rf(w.rf) < reported_rf(main.rf):
+        return "post the bridge for lower loads"
+    return ""
 
 
 def _lowest_words(w: WithoutMember) -> str:

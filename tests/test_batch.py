@@ -551,3 +551,34 @@ def test_a_permit_says_its_verdict_and_decides_nothing_for_the_bridge(tmp_path: 
     index = render_index(BatchSummary(tmp_path, tmp_path, (row,), tmp_path / "s.csv",
                                       tmp_path / "i.html", 1.0, 1))
     assert "L1U1 (permit: not as requested)" in index
+
+
+def test_a_recommendation_resting_on_a_condition_is_marked_and_its_verdict_kept(
+        tmp_path: Path) -> None:
+    """A recommendation that starts "Only if ... is confirmed" is marked in the CSV ("rests
+    on a condition") and counted in the index; the index's short form of a sensitivity's
+    warning keeps what the trucks give (the part that bears on the decision)."""
+    from dataclasses import replace
+
+    from rating.batch import BatchSummary, _first_clause, _row_from_results, render_index
+    from rating.results import DECISION_NOTE
+
+    res = sample_results()
+    warning = ("STEEL GRADE NEAR A TABLE BOUNDARY: the bridge was built in 1906, within the 3 "
+               "years 1905-1907 after the 1905 boundary of MBE Table 6A.6.2.1-1 [value from "
+               "memory]; its 31 members taking the steel by year may be of the older steel "
+               "(F_y = 26 ksi, F_u = 52 ksi). Rated so, the trucks give a posting: lowest "
+               "truck RF 0.78 (SU7, L1U1), against 0.92 (SU7, L1U1). Coupon tests would "
+               "settle the grade")
+    res = replace(res, recommendation="Only if the steel is confirmed of the later grade "
+                  "(coupon tests or mill records): post the bridge. " + DECISION_NOTE.strip(),
+                  warnings=(*res.warnings, warning))
+    row = _row_from_results(tmp_path / "a.xlsx", res, None, tmp_path / "a.json", (), 0.0)
+    assert row.conditional
+    assert _csv_rows_text(summary_csv([row]))[0]["rests on a condition"] == "yes"
+    short = _first_clause(warning)
+    assert short.endswith("the trucks give a posting: lowest truck RF 0.78 (SU7, L1U1), "
+                          "against 0.92 (SU7, L1U1)")
+    index = render_index(BatchSummary(tmp_path, tmp_path, (row,), tmp_path / "s.csv",
+                                      tmp_path / "i.html", 1.0, 1))
+    assert "1 whose recommendation rests on a condition to confirm" in index

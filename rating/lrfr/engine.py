@@ -699,7 +699,7 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
         other = rate_bridge(variant, trucks, what_if=False)
     except (InputError, ConvergenceError):
         return chord.hips, WithoutMember("a closure to consider")
-    result = _trucks_verdict(other.postings, other.cases)
+    result = trucks_verdict(other.postings, other.cases)
     return None if result is None else (chord.hips, result)
 
 
@@ -797,7 +797,7 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
-    return _trucks_verdict(other.postings, other.cases, bars)
+    return trucks_verdict(other.postings, other.cases, bars)
 
 
 def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
@@ -808,7 +808,7 @@ def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
                               and c.load.id not in SCREENING_LOADS))
 
 
-def _trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCase],
+def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCase],
                     bars: str = "") -> WithoutMember | None:
     """What the trucks' ratings give: "a closure to consider", "a posting" or "no
     restriction", with the lowest truck RF, its case and what controls it (None: no truck
@@ -869,7 +869,7 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in capacities.items() if lab not in by_year})
     except (InputError, ConvergenceError):
         return OlderSteel(by_year, pins, mat, edge, WithoutMember("a closure to consider"))
-    result = _trucks_verdict(other.postings, other.cases)
+    result = trucks_verdict(other.postings, other.cases)
     return None if result is None else OlderSteel(by_year, pins, mat, edge, result)
 
 
@@ -1212,7 +1212,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
-        main = _trucks_verdict(postings, cases)
+        main = trucks_verdict(postings, cases)
         older = _older_steel(bridge, cases, capacities)
         if older is not None and bridge.info.year_built is not None:
             warnings.append(older_steel_text(older, bridge.info.year_built, main))
@@ -1225,7 +1225,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             warnings.append(hips_text(*hips, main))
             conditions.append(Condition(
                 "the top chord is confirmed continuous out of plane at the hips "
-                f"({', '.join(hips[0])})", "the top chord is hinged there", hips[1]))
+                f"({', '.join(hips[0])})",
+                f"the top chord is hinged at the hips ({', '.join(hips[0])})", hips[1]))
     at = sum(1 for w in warnings if w.startswith("OUT OF SERVICE"))
     warnings[at:at] = _dead_load_past_resistance(ratings, cases, pins)
     return BridgeRating(

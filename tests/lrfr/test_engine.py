@@ -801,3 +801,16 @@ def test_the_older_steel_is_given_to_the_pins_too_and_matches_a_rating_with_it()
     e = rate_bridge(explicit, trucks, what_if=False)
     low = min((e.postings[c] for c in trucks), key=lambda cp: cp.rf)
     assert f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling})" in w
+
+
+def test_where_the_older_steel_would_post_the_recommendation_says_only_if():
+    # the demo built 1906 carries the trucks unrestricted with the later steel; with the
+    # older one they need a posting: the headline rests on the grade, and says so
+    from rating.results_build import build_results
+
+    res = build_results(rate_bridge(_by_year(1906), ["TYPE-3", "SU4"]))
+    text = res.recommendation
+    assert text.startswith("Only if the steel is confirmed of the later grade (coupon tests "
+                           "or mill records), no load restriction is indicated for trucks")
+    assert "If the steel is the older grade (F_y 26 ksi), post the bridge (lowest truck RF" \
+        in text

@@ -284,5 +284,5 @@ def test_where_hinged_hips_would_close_the_bridge_the_recommendation_says_only_i
                            "chord is confirmed continuous out of plane at the hips (U1, U5): "
                            "post the bridge")
     assert "If L2U3 does not act, consider closing the bridge (without L2U3" in text
-    assert "If the top chord is hinged there, consider closing the bridge (lowest truck RF" \
-        in text
+    assert "If the top chord is hinged at the hips (U1, U5), consider closing the bridge " \
+        "(lowest truck RF" in text
