@@ -706,18 +706,27 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
 def hips_text(hips: Sequence[str], r: WithoutMember, main: WithoutMember | None) -> str:
     """The warning of :func:`_hips_hinged`: headed in capitals where the chord hinged at the
     hips gives the trucks a posting or a closure."""
-    what = (f"the pony truss's top chord and end posts are rated as continuous out of plane "
-            f"at the hips ({', '.join(hips)}), the Bridge sheet not saying otherwise; hinged "
-            f"there (butted on the pin, no splice), the trucks give {r.verdict}")
+    return _sensitivity_warning(
+        "CHORD AT THE HIPS NOT GIVEN", "pony truss",
+        f"the pony truss's top chord and end posts are rated as continuous out of plane at "
+        f"the hips ({', '.join(hips)}), the Bridge sheet not saying otherwise; hinged there "
+        "(butted on the pin, no splice)", r, main,
+        "Confirm the hips' detail in the field and give it on the Bridge sheet (Top chord at "
+        "the hips, out of plane)")
+
+
+def _sensitivity_warning(head: str, plain: str, what: str, r: WithoutMember,
+                         main: WithoutMember | None, advice: str) -> str:
+    """A sensitivity's warning: what was changed, what the trucks then give (verdict, lowest
+    truck RF) against the rating's own, and the advice; headed ``head`` in capitals where
+    the verdict is a posting or a closure (it bears on the decision), else ``plain``."""
+    text = f"{what}, the trucks give {r.verdict}"
     if r.rf is not None:
-        what += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
+        text += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
     if main is not None and main.rf is not None:
-        what += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
-    what += (". Confirm the hips' detail in the field and give it on the Bridge sheet (Top "
-             "chord at the hips, out of plane)")
-    if r.verdict == "no restriction":
-        return f"pony truss: {what}"
-    return f"CHORD AT THE HIPS NOT GIVEN: {what}"
+        text += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
+    text += f". {advice}"
+    return f"{plain if r.verdict == 'no restriction' else head}: {text}"
 
 
 def _least_S_y_in3(bridge: Bridge, g: TrussGeometry, label: str) -> float:
@@ -877,24 +886,18 @@ def older_steel_text(o: OlderSteel, year: int, main: WithoutMember | None) -> st
     """The warning of :func:`_older_steel`: headed in capitals where the older steel gives the
     trucks a posting or a closure (the posting, or its load, then rests on the steel's grade);
     said plainly where it leaves them unrestricted."""
-    r = o.result
     parts = ([f"{len(o.members)} member{'s' if len(o.members) != 1 else ''}"]
              if o.members else []) + (
         [f"{len(o.pins)} pin{'s' if len(o.pins) != 1 else ''}"] if o.pins else [])
-    what = (f"the bridge was built in {year}, within the {NEAR_BOUNDARY_YEARS} years "
-            f"{o.boundary}-{o.boundary + NEAR_BOUNDARY_YEARS - 1} after the {o.boundary} "
-            "boundary of MBE Table 6A.6.2.1-1 [value from memory]; its "
-            f"{' and '.join(parts)} taking the steel by year may be of the older steel "
-            f"(F_y = {o.material.F_y:g} ksi, F_u = {o.material.F_u:g} ksi). Rated so, the "
-            f"trucks give {r.verdict}")
-    if r.rf is not None:
-        what += f": lowest truck RF {reported_rf(r.rf):.2f} ({r.case}, {r.controlling})"
-    if main is not None and main.rf is not None:
-        what += f", against {reported_rf(main.rf):.2f} ({main.case}, {main.controlling})"
-    what += ". Coupon tests, or mill records, would settle the grade"
-    if r.verdict == "no restriction":
-        return f"steel near a table boundary: {what}"
-    return f"STEEL GRADE NEAR A TABLE BOUNDARY: {what}"
+    return _sensitivity_warning(
+        "STEEL GRADE NEAR A TABLE BOUNDARY", "steel near a table boundary",
+        f"the bridge was built in {year}, within the {NEAR_BOUNDARY_YEARS} years "
+        f"{o.boundary}-{o.boundary + NEAR_BOUNDARY_YEARS - 1} after the {o.boundary} "
+        "boundary of MBE Table 6A.6.2.1-1 [value from memory]; its "
+        f"{' and '.join(parts)} taking the steel by year may be of the older steel "
+        f"(F_y = {o.material.F_y:g} ksi, F_u = {o.material.F_u:g} ksi). Rated so", o.result,
+        main,
+        "Coupon tests, or mill records, would settle the grade")
 
 
 def without_text(member: str, w: WithoutMember) -> str:
