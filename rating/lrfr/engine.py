@@ -161,7 +161,7 @@ class CasePosting:
     screened_out: bool = False
     note: str = ""
     alike: tuple[str, ...] = ()  # others rated the same within round-off (mirror members)
-    permit: str = ""  # a permit load's verdict (PERMIT_VERDICTS); "" for any other load
+    permit: str = ""  # a permit load's verdict (CARRIED, ...); "" for any other load
 
 
 @dataclass(frozen=True, eq=False)
@@ -1685,7 +1685,6 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
 
 CARRIED, NOT_AS_REQUESTED, NOT_OVER_RESTRICTED = (
     "can be carried", "not as requested", "not over a bridge restricted for legal loads")
-PERMIT_VERDICTS = (CARRIED, NOT_AS_REQUESTED, NOT_OVER_RESTRICTED)
 """A permit load's verdict: its RF at least 1.0 as printed and the bridge carrying the legal
 loads; below 1.0; at least 1.0 on a bridge that is itself to be posted or closed for the
 legal loads (MBE 6A.4.5 [value from memory])."""

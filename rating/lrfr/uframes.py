@@ -51,15 +51,12 @@ class UFrame:
 class PonyChord:
     """The U-frame analysis of a pony truss's chord: each chord member's effective length out
     of the truss plane (ft, never less than K L; inf for a mechanism), each inner joint's
-    U-frame, the buckling multiplier of the dead-load forces (0 for a mechanism), the same
-    with the other assumption at the hips (``other``: hinged there where ``hinged_at_hips``
-    is False, continuous where it is True), and the words for the report."""
+    U-frame, the buckling multiplier of the dead-load forces (0 for a mechanism), and the
+    words for the report (with what the other assumption at the hips would give)."""
 
     lengths_ft: Mapping[str, float]
     frames: Mapping[str, UFrame]
     multiplier: float
-    other: float
-    hinged_at_hips: bool
     assumption: str
     hips: tuple[str, ...] = ()  # the joints where the end posts meet the top chord
 
@@ -160,7 +157,7 @@ def pony_chord(g: TrussGeometry, capacities: Mapping[str, MemberCapacity],
         out[lab] = (math.inf if b.multiplier <= 0 else
                     max(K * L_in, le_in if math.isfinite(le_in) else K * L_in) / 12.0)
     hip_joints = [path[i - 1][1] for i in hips]
-    return PonyChord(out, frames, b.multiplier, other, hinged_at_hips and bool(hips),
+    return PonyChord(out, frames, b.multiplier,
                      _words(path, out, frames, floorbeam_I_in4, truss_spacing_ft,
                             hip_joints, b.multiplier, other, hinged_at_hips, height_ft),
                      tuple(hip_joints))
