@@ -29,3 +29,28 @@ def first_of_distinct_rows(keys: np.ndarray) -> np.ndarray:
     s = keys[order]
     new = np.concatenate(([True], (s[1:] != s[:-1]).any(axis=1)))
     return np.sort(order[new])
+
+
+BLOCK_ELEMENTS = 4_000_000
+"""Array elements (32 MB of floats) a search's temporaries take at a time where it works in
+blocks (:func:`blocks`): on a large truss (16 panels, counters or rods in every panel) the
+searches over every position at once made temporaries of several GB."""
+
+
+def blocks(keys: np.ndarray, per_item: int, budget: int = BLOCK_ELEMENTS) -> list[slice]:
+    """Consecutive slices of ``keys`` (n,) holding about ``budget / per_item`` items each,
+    never splitting a run of equal keys (the pieces of one position's path, say): the work
+    of each item stays whole within one block. One slice for all where they fit; none for
+    no items."""
+    n = keys.size
+    size = max(budget // max(per_item, 1), 1)
+    if n <= size:
+        return [slice(0, n)] if n else []
+    starts = np.flatnonzero(np.concatenate(([True], keys[1:] != keys[:-1])))
+    out, s = [], 0
+    while s < n:
+        i = int(np.searchsorted(starts, s + size))
+        e = int(starts[i]) if i < starts.size else n
+        out.append(slice(s, e))
+        s = e
+    return out

@@ -22,6 +22,7 @@ from __future__ import annotations
 import numpy as np
 
 from rating.analysis.regions import LAM_MAX, Pieces
+from rating.arrays import blocks
 
 _ROUND_OFF = 1e-9
 
@@ -38,13 +39,27 @@ def first_crossings(pc: Pieces, member: np.ndarray, sense: np.ndarray, capacity:
     multiplier [value from memory]); pieces hold on disjoint intervals of lam, so the least
     crossing that lies in its piece is the first one along the path.
     """
-    a = sense * pc.N_dead[:, :, member]  # (X, J, R)
-    b = sense * pc.N_live[:, :, member]
+    X, J = pc.k.shape
+    if X == 0:
+        return np.zeros((0, member.size)), np.zeros((0, member.size), dtype=int)
+    # (a position's temporaries: a few arrays of its pieces x requests)
+    parts = [_first_crossings(pc, rows, member, sense, capacity)
+             for rows in blocks(np.arange(X), 8 * J * member.size)]
+    if len(parts) == 1:
+        return parts[0]
+    return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
+
+
+def _first_crossings(pc: Pieces, rows: slice, member: np.ndarray, sense: np.ndarray,
+                     capacity: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`first_crossings` of the positions ``rows``."""
+    a = sense * pc.N_dead[rows][:, :, member]  # (X, J, R)
+    b = sense * pc.N_live[rows][:, :, member]
     C = capacity[None, None, :]
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         lam = np.where(b > 0, (C - a) / np.where(b > 0, b, 1.0), np.inf)
-    ok = ((b > 0) & (lam >= pc.lo[:, :, None] - _ROUND_OFF) & (lam <= pc.hi[:, :, None])
-          & (pc.k[:, :, None] >= 0))
+    ok = ((b > 0) & (lam >= pc.lo[rows][:, :, None] - _ROUND_OFF)
+          & (lam <= pc.hi[rows][:, :, None]) & (pc.k[rows][:, :, None] >= 0))
     val = np.where(ok, np.maximum(lam, 0.0), np.inf)
     slot = np.argmin(val, axis=1)  # (X, R)
     best = np.take_along_axis(val, slot[:, None, :], axis=1)[:, 0, :]
@@ -90,9 +105,13 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     # the intervals where some set is, then the sets
     with np.errstate(divide="ignore", invalid="ignore"):
         scale = np.where(Kc > 0, sense[None, :] / np.where(Kc > 0, Kc, 1.0), 0.0)  # (K, R)
-    load = pc.L[:, :, member]  # (K, X, R): the member's live force over Kc in each set
-    load *= scale[:, None, :]
-    top = load.max(axis=0)  # (X, R)
+    # the member's live force over Kc in each set, at its most over the sets (X, R); the
+    # (K, X, R) array of them is made a block of positions at a time
+    n_sets, n_pos = pc.L.shape[0], pc.L.shape[1]
+    top = np.empty((n_pos, member.size))
+    L_t = pc.L.transpose(0, 2, 1)  # (K, m, X): the order the table makes them in
+    for cols in blocks(np.arange(n_pos), n_sets * member.size):
+        top[cols] = (L_t[:, member, cols] * scale[:, :, None]).max(axis=0).T
     with np.errstate(invalid="ignore"):  # (0 x -inf for a request a load does not have)
         i, r = np.nonzero(np.maximum(top[xa], top[xb]) * best > 1.0 + _ROUND_OFF)
     if not i.size:
@@ -101,8 +120,9 @@ def kink_points(pc: Pieces, intervals: np.ndarray, member: np.ndarray, sense: np
     # once between two positions, so a set that holds in between holds at an end too)
     ends = np.concatenate([pc.k[xa[i]], pc.k[xb[i]]], axis=1)  # (n, 2J)
     ks = np.maximum(ends, 0)
-    hot = (ends >= 0) & (np.maximum(load[ks, xa[i][:, None], r[:, None]],
-                                    load[ks, xb[i][:, None], r[:, None]])
+    m_, s_ = member[r][:, None], scale[ks, r[:, None]]
+    hot = (ends >= 0) & (np.maximum(pc.L[ks, xa[i][:, None], m_] * s_,
+                                    pc.L[ks, xb[i][:, None], m_] * s_)
                          * best[i, r][:, None] > 1.0 + _ROUND_OFF)
     hot[:, 1:] &= ends[:, 1:] != ends[:, :-1]  # (a set twice in a row at one end)
     q, c = np.nonzero(hot)

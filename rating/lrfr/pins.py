@@ -21,7 +21,7 @@ import numpy as np
 
 from rating.analysis.moving import Extreme
 from rating.analysis.regions import LAM_MAX, PathStore, Pieces
-from rating.arrays import distinct_sorted
+from rating.arrays import blocks, distinct_sorted
 from rating.capacity.pins import (
     PinCheck,
     PinModel,
@@ -336,13 +336,14 @@ def _pin_crossings(jn: _Joints, pc: Pieces, src: np.ndarray, which: np.ndarray,
     low = np.full(r.size, np.nan)
     up = np.full(r.size, np.nan)
 
-    def solve(rows: np.ndarray) -> None:
-        """The exact crossing at the positions ``rows`` (bool, (X,))."""
-        sel = np.flatnonzero(rows[r])
-        lam[rows] = np.inf
-        if not sel.size:
-            return
-        rs, js, lo_s, ln_s = r[sel], j[sel], lo_q[sel], ln[sel]
+    # (a piece's forces, checked vectors and the temporaries of their bounds)
+    per_piece = 2 * jn.cols.shape[1] + 8 * jn.T.shape[2]
+
+    def reached(sel: np.ndarray) -> tuple[np.ndarray, ...]:
+        """Of the pieces ``sel`` (the whole paths of some positions, in order), the first
+        of each position that reaches the limit, with its forces and checked vectors at its
+        start and their rates."""
+        ln_s = ln[sel]
         N0, Nl, G0, G1 = forces(sel)
         missing = np.isnan(low[sel])
         if missing.any():  # pieces the bounds did not need
@@ -354,17 +355,29 @@ def _pin_crossings(jn: _Joints, pc: Pieces, src: np.ndarray, which: np.ndarray,
         if check.size:
             reach[check] = stack.utilization(
                 G0[check] + ln_s[check, None, None] * G1[check], w_q[sel[check]]) >= 1.0
-        # the first piece of each position that reaches the limit
         hit = np.flatnonzero(reach)
-        if not hit.size:
+        rs = r[sel]
+        q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))] if hit.size else hit
+        return sel[q], N0[q], Nl[q], G0[q], G1[q]
+
+    def solve(rows: np.ndarray) -> None:
+        """The exact crossing at the positions ``rows`` (bool, (X,)); the pieces a block of
+        positions at a time (rating.arrays.blocks), the roots all at once."""
+        sel = np.flatnonzero(rows[r])
+        lam[rows] = np.inf
+        if not sel.size:
             return
-        q = hit[np.concatenate(([True], rs[hit[1:]] != rs[hit[:-1]]))]
-        at = rs[q]
-        rel = _least_roots(stack, which[at], G0[q], G1[q], lo_s[q], low[sel][q],
-                           np.minimum(up[sel][q], ln_s[q]), group[at])
-        lam[at] = lo_s[q] + rel
-        N_at[at] = N0[q] + rel[:, None] * Nl[q]
-        slot[at] = js[q]
+        found = [reached(sel[b]) for b in blocks(r[sel], per_piece)]
+        pq, N0, Nl, G0, G1 = (found[0] if len(found) == 1 else
+                              tuple(np.concatenate(v) for v in zip(*found, strict=True)))
+        if not pq.size:
+            return
+        at, lo_s = r[pq], lo_q[pq]
+        rel = _least_roots(stack, which[at], G0, G1, lo_s, low[pq],
+                           np.minimum(up[pq], ln[pq]), group[at])
+        lam[at] = lo_s + rel
+        N_at[at] = N0 + rel[:, None] * Nl
+        slot[at] = j[pq]
 
     # The most promising position of each load (by ``floor``, a lower bound of its lam) is
     # solved first: its lam bounds the least from above. Then bounds piece by piece along the
@@ -400,8 +413,9 @@ def _pin_crossings(jn: _Joints, pc: Pieces, src: np.ndarray, which: np.ndarray,
         row_low[r[gone]] = np.minimum(row_low[r[gone]], lo_q[gone])
         settled[r[gone]] = True
         q = here[~beyond]
+        for b in blocks(q, per_piece):
+            low[q[b]], up[q[b]] = stack.multiplier_bounds(*forces(q[b])[2:], w_q[q[b]])
         if q.size:
-            low[q], up[q] = stack.multiplier_bounds(*forces(q)[2:], w_q[q])
             np.minimum.at(row_low, r[q], np.where(low[q] <= ln[q], lo_q[q] + low[q], np.inf))
             np.minimum.at(row_up, r[q], np.where(up[q] <= ln[q], lo_q[q] + up[q], np.inf))
             settled[r[q[up[q] <= ln[q]]]] = True
