@@ -37,13 +37,14 @@ blocks (:func:`blocks`): on a large truss (16 panels, counters or rods in every 
 searches over every position at once made temporaries of several GB."""
 
 
-def blocks(keys: np.ndarray, per_item: int, budget: int = BLOCK_ELEMENTS) -> list[slice]:
-    """Consecutive slices of ``keys`` (n,) holding about ``budget / per_item`` items each,
+def blocks(keys: np.ndarray, per_item: int, budget: int | None = None) -> list[slice]:
+    """Consecutive slices of ``keys`` (n,) holding about ``budget / per_item`` items each
+    (``budget``: :data:`BLOCK_ELEMENTS` unless given),
     never splitting a run of equal keys (the pieces of one position's path, say): the work
     of each item stays whole within one block. One slice for all where they fit; none for
     no items."""
     n = keys.size
-    size = max(budget // max(per_item, 1), 1)
+    size = max((BLOCK_ELEMENTS if budget is None else budget) // max(per_item, 1), 1)
     if n <= size:
         return [slice(0, n)] if n else []
     starts = np.flatnonzero(np.concatenate(([True], keys[1:] != keys[:-1])))

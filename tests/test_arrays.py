@@ -11,7 +11,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 from hypothesis.extra.numpy import arrays
 
-from rating.arrays import distinct_sorted, first_of_distinct_rows
+from rating.arrays import blocks, distinct_sorted, first_of_distinct_rows
 
 
 @given(arrays(np.int64, st.tuples(st.integers(0, 6), st.integers(1, 5)),
@@ -45,3 +45,23 @@ def test_a_rating_does_not_import_numpy_ma() -> None:
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          check=True, cwd=Path(__file__).resolve().parents[1])
     assert out.stdout.strip() == "False"
+
+
+@given(st.lists(st.integers(0, 5), max_size=60).map(sorted),
+       st.integers(1, 50), st.integers(1, 200))
+def test_blocks_cover_every_item_once_and_keep_runs_whole(keys, per_item, budget) -> None:
+    keys = np.array(keys, dtype=int)
+    got = blocks(keys, per_item, budget)
+    size = max(budget // per_item, 1)
+    # consecutive, covering 0..n, none empty
+    assert [b.start for b in got] == ([0] + [b.stop for b in got[:-1]] if got else [])
+    assert (got[-1].stop if got else 0) == keys.size
+    assert all(b.stop > b.start for b in got)
+    for b in got:
+        # a run of equal keys is never split; a block is over its size only by one run
+        if b.start:
+            assert keys[b.start] != keys[b.start - 1]
+        if b.stop - b.start > size:
+            assert keys[b.start + size - 1] == keys[b.stop - 1]
+    if keys.size <= size:
+        assert len(got) == (1 if keys.size else 0)
