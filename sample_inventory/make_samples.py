@@ -153,16 +153,18 @@ def _holes_for(g: TrussGeometry, assign: dict[str, str], sid: str,
 # ------------------------------------------------------------------------------------------
 
 
-def pratt_1898() -> WorkbookContent:
-    n, p, h = 8, 18.0, 22.0
-    g = build_truss("pratt", n, p, h, DeckPosition.THROUGH, counter_panels=(3, 4, 5, 6))
+def pratt_1898(n: int = 8, counters: tuple[int, ...] = (3, 4, 5, 6)) -> WorkbookContent:
+    """The Pratt sample; ``n`` panels and counters in the panels ``counters`` for a larger
+    truss of the same members (bench/report_bench.py, ``--only large``: invented)."""
+    p, h = 18.0, 22.0
+    g = build_truss("pratt", n, p, h, DeckPosition.THROUGH, counter_panels=counters)
     assign: dict[str, str] = {}
     for m in g.members:
         a, b = m.start, m.end
         i = sorted(int(s[1:]) for s in (a, b))
         if m.role.value == "bottom chord":
             k = min(i[0], n - 1 - i[0])  # panel from the nearer end, 0-based
-            assign[m.label] = ("BC-1", "BC-1", "BC-2", "BC-3")[k]
+            assign[m.label] = ("BC-1", "BC-1", "BC-2", "BC-3")[min(k, 3)]
         elif m.role.value == "top chord":
             assign[m.label] = "TC-1"
         elif m.role.value == "end post":
@@ -176,7 +178,7 @@ def pratt_1898() -> WorkbookContent:
         else:  # main diagonals by panel from the nearer end
             panel = max(i)
             k = min(panel, n + 1 - panel)
-            assign[m.label] = {2: "DG-1", 3: "DG-2", 4: "DG-3"}[k]
+            assign[m.label] = {2: "DG-1", 3: "DG-2"}.get(k, "DG-3")
 
     def pin_of(joint: str) -> float:
         return 4.5  # one pin size throughout, as on many county trusses of the period
@@ -265,7 +267,8 @@ def pratt_1898() -> WorkbookContent:
         "owner": "Tamarack County Highway Department", "year_built": 1898,
         "material": "steel", "geometry": "generated", "truss_form": "pratt",
         "deck_position": "through", "panel_count": n, "panel_length": p, "height": h,
-        "counter_panels": "3, 4, 5, 6", "truss_spacing": 17.0, "roadway_width": 15.0,
+        "counter_panels": ", ".join(map(str, counters)), "truss_spacing": 17.0,
+        "roadway_width": 15.0,
         "adtt": 40, "riding_surface": "minor deviations",
         "inspection_date": dt.date(2024, 5, 14), "inspector": "R. Okafor, PE (invented)",
     }

@@ -191,7 +191,8 @@ class RegionTable:
                 return a
         lines = self._stacked()[0 if kind == "L" else 1]
         a = np.matmul(lines, p).transpose(0, 2, 1)
-        kept[:] = [(p, K, a), *kept[:1]]
+        # (an entry of fewer sets is never asked for again: the table only grows)
+        kept[:] = [(p, K, a), *(e for e in kept[:1] if e[1] == K)]
         return a
 
     def force_lines(self) -> np.ndarray:
@@ -253,8 +254,11 @@ class RegionTable:
         k_safe = np.where(valid, kk, 0)
         hi_p = np.where(valid, _gather(hi, k_safe), np.inf)
         lo_p = np.where(valid, _gather(lo, k_safe), np.inf)
-        N_dead = np.where(valid[:, :, None], Fd[k_safe], 0.0)
-        N_live = np.where(valid[:, :, None], L[k_safe, np.arange(X)[:, None]], 0.0)
+        # (gathered, then padding zeroed in place: no second array of (X, J, m))
+        N_dead = Fd[k_safe]
+        N_dead[~valid] = 0.0
+        N_live = L[k_safe, np.arange(X)[:, None]]
+        N_live[~valid] = 0.0
         pc = Pieces(kk, lo_p, hi_p, N_dead, N_live, L, Fd, A, B, cons,
                     np.zeros(X, dtype=bool), np.minimum(cover, lam_max))
         return self._with_walks(pc, walked_paths) if walked_paths else pc
