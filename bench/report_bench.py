@@ -6,13 +6,17 @@
 2. Batch throughput: a generated folder of N workbooks (copies of the bundled samples,
    round-robin) rated by ``python -m rating.cli batch --workers W``. Target: at least
    1,000 bridges per minute on 2 cores.
+3. A larger truss (the Pratt sample's members on 12 panels, counters in every inner panel):
+   wall time and peak memory of ``rate`` in a fresh interpreter. No target; a batch runs
+   one such rating per worker at a time, so its memory is what a worker may need.
 
 Run from the repository root:
-    python bench/report_bench.py                 # both, 200 workbooks, 2 workers
+    python bench/report_bench.py                 # all, 200 workbooks, 2 workers
     python bench/report_bench.py --count 40      # a quicker batch
     python bench/report_bench.py --only single
     python bench/report_bench.py --only stages     # in process, every sample, no fresh runs
     python bench/report_bench.py --only stand-in   # batch machinery + report, no engine
+    python bench/report_bench.py --only large      # a 12-panel truss: wall time, peak memory
 Outputs go to a temporary folder (or --keep DIR); nothing is written into the checkout.
 """
 
@@ -234,9 +238,53 @@ def stand_in(count: int, workers: int, work: Path) -> None:
           f"({len(s.rated)} reports and JSON files written) ==")
 
 
+LARGE_TRUSSES = ((12, tuple(range(2, 12))),)
+"""The larger trusses of ``--only large``: the Pratt sample's members on (panels, counter
+panels), written by sample_inventory/make_samples.py (invented)."""
+
+
+def large(runs: int, work: Path) -> None:
+    """Wall time and peak memory of ``rate`` in a fresh interpreter on a larger truss with
+    counters in every inner panel (the searches grow with the positions, the active sets
+    and the pieces of each path), median of ``runs``."""
+    sys.path.insert(0, str(SAMPLES))
+    from make_samples import pratt_1898
+
+    from rating.inventory.template import write_workbook
+
+    env = installed_env(work)
+    print(f"== larger trusses ({runs} runs each, fresh interpreter) ==")
+    for n, counters in LARGE_TRUSSES:
+        book = work / f"pratt_{n}_panels.xlsx"
+        write_workbook(book, pratt_1898(n, counters))
+        times, peaks, codes = [], [], set()
+        for k in range(runs):
+            t0 = time.perf_counter()
+            proc = subprocess.run(
+                [sys.executable, "-c", _PEAK_PROBE, str(book), str(work / f"large-{n}-{k}")],
+                capture_output=True, text=True, cwd=REPO, env=env)
+            times.append(time.perf_counter() - t0)
+            codes.add(proc.returncode)
+            peaks.append(float(proc.stdout.split()[-1]) if proc.returncode == 0 else 0.0)
+        status = "rated" if codes == {0} else f"NOT RATED (exit {sorted(codes)})"
+        print(f"Pratt sample's members, {n} panels, counters in panels {counters[0]}-"
+              f"{counters[-1]}: median {statistics.median(times):6.2f} s, peak memory "
+              f"{max(peaks):.0f} MB  {status}")
+
+
+_PEAK_PROBE = """
+import resource, sys
+from rating.cli import main
+code = main(["rate", sys.argv[1], "--out", sys.argv[2]])
+print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024)
+sys.exit(code)
+"""
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    ap.add_argument("--only", choices=("single", "stages", "batch", "stand-in"), default=None)
+    ap.add_argument("--only", choices=("single", "stages", "batch", "stand-in", "large"),
+                    default=None)
     ap.add_argument("--runs", type=int, default=5)
     ap.add_argument("--count", type=int, default=200)
     ap.add_argument("--workers", type=int, default=2)
@@ -256,6 +304,8 @@ def main() -> None:
             stand_in(a.count, a.workers, work)
         if a.only in (None, "batch"):
             batch(a.count, a.workers, work)
+        if a.only in (None, "large"):
+            large(min(a.runs, 3), work)
 
 
 if __name__ == "__main__":
