@@ -24,6 +24,7 @@ import time
 import urllib.parse
 from collections.abc import Callable, Sequence
 from concurrent.futures import ProcessPoolExecutor, as_completed
+from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any, TextIO
@@ -314,6 +315,33 @@ def rate_one(task: _Task) -> BridgeRow:
                          seconds=time.perf_counter() - t0)
 
 
+def _in_pool(tasks: Sequence[_Task], workers: int,
+             done: Callable[[_Task, BridgeRow], None]) -> list[_Task]:
+    """Rate ``tasks`` in a pool of ``workers`` processes, each row given to ``done``; the
+    tasks lost when a worker died (the pool then breaks), in the order given. With one
+    worker the tasks run in that order, so the first one lost is the one that died."""
+    ctx = multiprocessing.get_context("spawn")
+    lost: list[_Task] = []
+    with ProcessPoolExecutor(max_workers=workers, mp_context=ctx,
+                             initializer=_worker_setup) as pool:
+        futures = {pool.submit(rate_one, t): t for t in tasks}
+        for fut in as_completed(futures):
+            t = futures[fut]
+            try:
+                row = fut.result()
+            except BrokenProcessPool:
+                lost.append(t)
+                continue
+            except Exception as exc:  # (rate_one records its own; a result that could not
+                # come back from the worker, say)
+                row = BridgeRow(workbook=t.name, rated=False, errors=(
+                    f"error   {t.name}: the rating process failed "
+                    f"({type(exc).__name__}: {exc})",))
+            done(t, row)
+    order = {id(t): i for i, t in enumerate(tasks)}
+    return sorted(lost, key=lambda t: order[id(t)])
+
+
 def _largest_first(tasks: Sequence[_Task]) -> list[_Task]:
     """The tasks with the largest workbooks first (a larger bridge takes longer to rate), so
     that the pool does not end on one long workbook while the other processes wait; the
@@ -421,20 +449,24 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         finally:
             gc.set_threshold(*before)
     else:
-        ctx = multiprocessing.get_context("spawn")
-        with ProcessPoolExecutor(max_workers=n, mp_context=ctx,
-                                 initializer=_worker_setup) as pool:
-            futures = {pool.submit(rate_one, t): t for t in _largest_first(tasks)}
-            for fut in as_completed(futures):
-                t = futures[fut]
-                try:
-                    row = fut.result()
-                except Exception as exc:  # a worker died (killed, out of memory)
-                    row = BridgeRow(workbook=t.name, rated=False, errors=(
-                        f"error   {t.name}: the rating process failed "
-                        f"({type(exc).__name__}: {exc})",))
-                rows[t.name] = row
-                bar.update(row)
+        def done(t: _Task, row: BridgeRow) -> None:
+            rows[t.name] = row
+            bar.update(row)
+
+        left = _in_pool(_largest_first(tasks), n, done)
+        # A worker died (killed by the system, out of memory on a large truss): every
+        # workbook still waiting in that pool was lost with it. They are rated again one
+        # at a time, so that the one that kills its process is known and the rest are rated
+        while left:
+            lost = _in_pool(left, 1, done)
+            if lost:
+                culprit, left = lost[0], lost[1:]
+                done(culprit, BridgeRow(workbook=culprit.name, rated=False, errors=(
+                    f"error   {culprit.name}: the rating process died, rated alone too "
+                    "(killed by the system: out of memory on a very large truss?); the "
+                    "other workbooks were rated",)))
+            else:
+                left = []
     ordered, others = _earlier_outputs(tuple(rows[t.name] for t in tasks), tasks, out_dir)
     from rating.pipeline import write_atomic
 

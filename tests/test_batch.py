@@ -7,6 +7,7 @@ from __future__ import annotations
 import csv
 import hashlib
 import io
+import os
 import sys
 from pathlib import Path
 
@@ -46,6 +47,8 @@ def fake_rate(path: Path, vehicle_ids: list[str] | None = None) -> RateOutcome:
                            (Problem("warning", "Bridge!B10", "assumed: steel by year"),))
     if data.startswith(b"FAULT"):
         raise RuntimeError("simulated program fault")
+    if data.startswith(b"KILL"):  # the process dies, as when the system kills it (memory)
+        os._exit(9)
     return RateOutcome(Path(path), None, (Problem("error", "Members!C7",
                                                   "member U1U2 has no section"),))
 
@@ -64,6 +67,22 @@ def _digest(folder: Path) -> dict[str, str]:
 
 def _csv_rows(path: Path) -> list[dict[str, str]]:
     return list(csv.DictReader(io.StringIO(path.read_text(encoding="utf-8-sig"))))
+
+
+def test_a_rating_process_that_dies_loses_no_other_workbook(tmp_path: Path) -> None:
+    # A worker that dies (killed for memory on a very large truss) breaks its pool: every
+    # workbook waiting in it was lost. They are rated again one at a time; only the one
+    # whose process dies is not rated, and said so.
+    files = {f"bridge_{i}.xlsx": GOOD for i in range(5)}
+    files["bridge_2.xlsx"] = b"KILL" + b" " * 100  # (the largest: rated first)
+    folder = _folder(tmp_path, files)
+    s = rate_folder(folder, tmp_path / "out", workers=2, rate=fake_rate)
+    assert [r.workbook for r in s.rows] == [f"bridge_{i}.xlsx" for i in range(5)]
+    assert [r.rated for r in s.rows] == [True, True, False, True, True]
+    (msg,) = s.rows[2].errors
+    assert "bridge_2.xlsx: the rating process died, rated alone too" in msg
+    rows = _csv_rows(tmp_path / "out" / SUMMARY_CSV)
+    assert [r["status"] for r in rows] == ["rated", "rated", "not rated", "rated", "rated"]
 
 
 @pytest.mark.parametrize("workers", [1, 2])
