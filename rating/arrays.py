@@ -32,17 +32,16 @@ def first_of_distinct_rows(keys: np.ndarray) -> np.ndarray:
 
 
 BLOCK_ELEMENTS = 4_000_000
-"""Array elements (32 MB of floats) a search's temporaries take at a time where it works in
+"""Array elements (32 MiB of floats) a search's temporaries take at a time where it works in
 blocks (:func:`blocks`): on a large truss (16 panels, counters or rods in every panel) the
-searches over every position at once made temporaries of several GB."""
+searches over every position at once made temporaries of several GiB."""
 
 
 def blocks(keys: np.ndarray, per_item: int, budget: int | None = None) -> list[slice]:
     """Consecutive slices of ``keys`` (n,) holding about ``budget / per_item`` items each
-    (``budget``: :data:`BLOCK_ELEMENTS` unless given),
-    never splitting a run of equal keys (the pieces of one position's path, say): the work
-    of each item stays whole within one block. One slice for all where they fit; none for
-    no items."""
+    (``budget``: :data:`BLOCK_ELEMENTS` unless given), never splitting a run of equal keys
+    (the pieces of one position's path, say): the work of each item stays whole within one
+    block. One slice for all where they fit; none for no items."""
     n = keys.size
     size = max((BLOCK_ELEMENTS if budget is None else budget) // max(per_item, 1), 1)
     if n <= size:

@@ -459,14 +459,13 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         # at a time, so that the one that kills its process is known and the rest are rated
         while left:
             lost = _in_pool(left, 1, done)
-            if lost:
-                culprit, left = lost[0], lost[1:]
-                done(culprit, BridgeRow(workbook=culprit.name, rated=False, errors=(
-                    f"error   {culprit.name}: the rating process died, rated alone too "
-                    "(killed by the system: out of memory on a very large truss?); the "
-                    "other workbooks were rated",)))
-            else:
-                left = []
+            if not lost:
+                break
+            culprit, left = lost[0], lost[1:]
+            done(culprit, BridgeRow(workbook=culprit.name, rated=False, errors=(
+                f"error   {culprit.name}: the rating process died, also when rated alone "
+                "(killed by the system: out of memory on a very large truss?); the other "
+                "workbooks were rated",)))
     ordered, others = _earlier_outputs(tuple(rows[t.name] for t in tasks), tasks, out_dir)
     from rating.pipeline import write_atomic
 

@@ -80,7 +80,7 @@ def test_a_rating_process_that_dies_loses_no_other_workbook(tmp_path: Path) -> N
     assert [r.workbook for r in s.rows] == [f"bridge_{i}.xlsx" for i in range(5)]
     assert [r.rated for r in s.rows] == [True, True, False, True, True]
     (msg,) = s.rows[2].errors
-    assert "bridge_2.xlsx: the rating process died, rated alone too" in msg
+    assert "bridge_2.xlsx: the rating process died, also when rated alone" in msg
     rows = _csv_rows(tmp_path / "out" / SUMMARY_CSV)
     assert [r["status"] for r in rows] == ["rated", "rated", "not rated", "rated", "rated"]
 
