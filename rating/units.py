@@ -67,6 +67,9 @@ _UNITS: dict[str, Quantity] = {
     # moment of inertia
     "in4": Quantity("moment of inertia", "in4", 1.0),
     "mm4": Quantity("moment of inertia", "in4", IN_PER_MM**4),
+    # warping constant
+    "in6": Quantity("warping constant", "in6", 1.0),
+    "mm6": Quantity("warping constant", "in6", IN_PER_MM**6),
     # spring stiffness (a U-frame's)
     "kip/in": Quantity("spring stiffness", "kip/in", 1.0),
     "kN/mm": Quantity("spring stiffness", "kip/in", KIP_PER_KN / IN_PER_MM),
@@ -106,19 +109,20 @@ def known_units() -> tuple[str, ...]:
 # The SI counterpart of each core unit, for reports in SI.
 SI_OF_CORE = {"ft": "m", "in": "mm", "in2": "mm2", "kip": "kN", "ksi": "MPa", "klf": "kN/m",
               "psf": "kPa", "pcf": "kN/m3", "ton": "tonne", "kip-in": "kN-m", "in3": "mm3",
-              "in4": "mm4", "kip/in": "kN/mm"}
+              "in4": "mm4", "in6": "mm6", "kip/in": "kN/mm"}
 
 
 # Quantities written in core units inside message text ("pin 2.99213 in", "E = 27000 ksi"),
 # as the capacity and rating layers word their warnings and assumptions.
-_TEXT_CORE_UNITS = {"kip-in": "kip-in", "kip/in": "kip/in", "in4": "in4", "kip": "kip",
+_TEXT_CORE_UNITS = {"kip-in": "kip-in", "kip/in": "kip/in", "in6": "in6", "in4": "in4",
+                    "kip": "kip",
                     "ksi": "ksi", "klf": "klf", "plf": "plf", "psf": "psf", "pcf": "pcf",
                     "in3": "in3", "in2": "in2", "in^2": "in2", "in²": "in2", "ft": "ft",
                     "in": "in", "tons": "ton", "ton": "ton"}
 _SI_TEXT_NAME = {"tonne": "tonnes"}
 _TEXT_QUANTITY = re.compile(
     r"(?<![\w./^'\"-])(-?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?)( ?)"
-    r"(kip-in|kip/in|kip|ksi|klf|plf|psf|pcf|in4|in3|in2|in\^2|in²|ft|in|tons|ton)"
+    r"(kip-in|kip/in|kip|ksi|klf|plf|psf|pcf|in6|in4|in3|in2|in\^2|in²|ft|in|tons|ton)"
     r"(?![\w²^/-])")
 
 

@@ -22,6 +22,7 @@ from rating.units import from_core, si_text
     ("w = 45 plf across", "w = 0.6567 kN/m across"),  # 45 lbf/ft = 0.65672 kN/m
     ("20 tons", "18.14 tonnes"),
     ("I = 441 in4", "I = 183600000 mm4"),  # 441 x 25.4^4 = 183,557,000 mm4
+    ("C_w = 3997 in6", "C_w = 1073000000000 mm6"),  # 3997 x 25.4^6 = 1.0733e12 mm6
     ("spring 2.8 kip/in", "spring 0.4904 kN/mm"),  # 2.8 x 4.44822 / 25.4 = 0.49035
 ])
 def test_core_quantities_are_restated_in_si(us, si):

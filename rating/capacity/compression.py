@@ -12,6 +12,7 @@ Q_a = A_eff / A_g with A_eff = A_g - sum (b - b_e) t; a warning states b_e and Q
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -19,6 +20,7 @@ import numpy as np
 from rating.capacity.checks import Check, Sense
 from rating.capacity.sections import ElementAtLocation, SectionAtLocation, SectionReport
 from rating.capacity.tension import SECONDARY_ROLES
+from rating.capacity.torsion import TorsionProperties, torsion_properties
 from rating.model import ConnectorKind, Connectors, Material, MemberRole
 
 PHI_C = 0.95
@@ -72,6 +74,80 @@ def nominal_compressive_resistance(A_g, F_y, E, KL_r, Q=1.0):
         P_n = np.where(ratio <= 1.0 / 0.44, 0.658**ratio * P_o, 0.877 * P_e)
     P_n = np.where(A_g > 0, P_n, 0.0)
     return P_n if P_n.ndim else float(P_n)
+
+
+G_OVER_E = 0.385
+"""Shear modulus over Young's modulus of steel, G = 0.385 E, AASHTO LRFD 6.9.4.1.3. [value
+from memory]"""
+K_Z = 1.0
+"""Effective length factor for torsional buckling of a truss member between panel points:
+pins and gusset-less joints do not hold its ends against warping (common practice)."""
+
+
+def _euler_kip(E: float, A_g: float, KL_r: float) -> float:
+    """Flexural buckling load pi^2 E A_g / (KL/r)^2, kip (AASHTO LRFD Eq. 6.9.4.1.2-1
+    [value from memory]); zero for an infinite slenderness."""
+    if not math.isfinite(KL_r):
+        return 0.0
+    return math.pi ** 2 * E * A_g / KL_r ** 2 if KL_r > 0 else math.inf
+
+
+def nominal_from_elastic(P_o: float, P_e: float) -> float:
+    """P_n from the squash load and an elastic buckling load, kip.
+
+    AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 (the same forms as
+    ``nominal_compressive_resistance``) [value from memory].
+    """
+    if P_o <= 0.0:
+        return 0.0
+    if not P_e > 0.0:
+        return 0.0
+    ratio = P_o / P_e
+    return 0.658 ** ratio * P_o if ratio <= 1.0 / 0.44 else 0.877 * P_e
+
+
+def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: float,
+                            P_ey: float, KL_z_in: float) -> tuple[float, str]:
+    """The elastic torsional or flexural-torsional buckling load P_e, kip, and its mode.
+
+    AASHTO LRFD 6.9.4.1.3 [value from memory]: P_ez = (pi^2 E C_w / (K_z l_z)^2 + G J) /
+    r_o^2, r_o^2 = x_o^2 + y_o^2 + (I_x + I_y)/A_g; a doubly symmetric section buckles in
+    torsion at P_ez (Eq. 6.9.4.1.3-1), a singly symmetric one at the lower root of
+    Eq. 6.9.4.1.3-2, an unsymmetric one at the least root of the cubic Eq. 6.9.4.1.3-3. All
+    three are the least eigenvalue P of
+
+        | P_ey - P     c          -P y_o          |
+        | c            P_ex - P    P x_o          |  = 0,  c = I_xy sqrt(P_ex P_ey / (I_x I_y))
+        | -P y_o       P x_o       r_o^2 (P_ez - P)|
+
+    (displacements along x and y and the twist about the shear centre; Timoshenko and Gere,
+    *Theory of Elastic Stability*, 2nd ed., 1961, Art. 5.4 [value from memory]), which with
+    c = 0 (principal axes) is the standard's cubic; c carries a product of inertia left by
+    uneven loss, with each axis's own effective length.
+
+    Args:
+        tp: the section's torsion and warping properties. E, G: ksi.
+        P_ex, P_ey: flexural buckling loads about x and y, kip (with the modified slenderness
+            of a built-up member where it applies).
+        KL_z_in: the effective length for twisting, in.
+    Returns:
+        P_e (the least of the three modes, which may be a flexural one) and the mode's name,
+        "torsional" (no shear-centre offset) or "flexural-torsional".
+    """
+    r_o2 = tp.r_o_in ** 2
+    P_ez = (math.pi ** 2 * E * tp.C_w_in6 / KL_z_in ** 2 + G * tp.J_in4) / r_o2
+    x_o, y_o = tp.x_o_in, tp.y_o_in
+    coupled = math.hypot(x_o, y_o) > 1e-6 * math.sqrt(r_o2)
+    if not coupled and tp.I_xy_in4 == 0.0:
+        return min(P_ex, P_ey, P_ez), "torsional"
+    c = tp.I_xy_in4 * math.sqrt(P_ex * P_ey / (tp.I_x_in4 * tp.I_y_in4))
+    stiffness = np.array([[P_ey, c, 0.0], [c, P_ex, 0.0], [0.0, 0.0, r_o2 * P_ez]])
+    geometric = np.array([[1.0, 0.0, -y_o], [0.0, 1.0, x_o], [-y_o, x_o, r_o2]])
+    # the generalized symmetric problem through the Cholesky factor of the (positive
+    # definite) geometric matrix: eigenvalues of L^-1 K L^-T
+    L_inv = np.linalg.inv(np.linalg.cholesky(geometric))
+    P = np.linalg.eigvalsh(L_inv @ stiffness @ L_inv.T)
+    return float(P.min()), "flexural-torsional" if coupled else "torsional"
 
 
 def effective_length_factor(end_condition: str = "pinned", *, K_pinned: float = K_PINNED,
@@ -191,6 +267,9 @@ class CompressionResult:
     K: float
     KL_r: float  # governing effective slenderness at the governing location (inf: none)
     Q: float
+    # "singly symmetric" or "unsymmetric": a built-up section whose torsional and
+    # flexural-torsional buckling could not be computed (rolled shapes: never); else ""
+    torsional_unchecked: str = ""
 
 
 def _Q_at(s: SectionAtLocation, F_y: float,
@@ -232,13 +311,34 @@ def _Q_text(Q_s: float, Q_a: float) -> str:
 TORSIONAL_NOTE = (
     "Members in compression are checked for flexural buckling about both axes (AASHTO LRFD "
     "6.9.4.1.1, with Q for slender elements, and the modified slenderness of built-up "
-    "members) [value from memory]; torsional and flexural-torsional buckling (LRFD "
-    "6.9.4.1.3 [value from memory]) are not checked. They can govern a singly symmetric or "
-    "unsymmetric section that is open, such as a chord of two channels with a cover plate on "
-    "one side and lacing on the other, or single angles: the built-up members with such a "
-    "section are named in their own notes, for the engineer to check by hand (a rolled "
-    "shape's symmetry is not known here).")
+    "members) [value from memory]. Torsional and flexural-torsional buckling (LRFD "
+    "6.9.4.1.3 [value from memory]) are checked for built-up members whose parts are riveted "
+    "into one section: its torsional constant J, warping constant C_w and shear centre are "
+    "found by finite elements on its rectangles after the loss at each location (the "
+    "riveted faces taken as continuous), with K_z = 1.0 between panel points and "
+    "G = 0.385 E. A section open on a face that lacing or battens cross (a chord of two "
+    "channels with a cover plate on one side and lacing on the other) is taken as closed by "
+    "them, so that it buckles in flexure (common practice for lacing or battens in sound "
+    "condition); where its open form would buckle lower, the member's warning gives that "
+    "resistance. Neither is checked for rolled shapes (no geometry is recorded) nor for "
+    "built-up sections whose parts do not make one section: such members that are not "
+    "doubly symmetric are named in their own notes, for the engineer to check by hand.")
 """Said once in a report with any compression member (the same words for every member)."""
+
+
+def _torsional_at(s: SectionAtLocation, E: float, P_ex: float, P_ey: float, KL_z_in: float,
+                  found: dict[tuple, TorsionProperties | str]
+                  ) -> tuple[float, str, TorsionProperties] | str:
+    """Elastic torsional or flexural-torsional buckling load at one location (see
+    ``torsional_buckling_load``), or why it cannot be found there. ``found`` keeps the
+    torsion analysis of each distinct set of rectangles for this call."""
+    tp = found.get(s.torsion_rects)
+    if tp is None:
+        tp = found[s.torsion_rects] = torsion_properties(s.torsion_rects)
+    if isinstance(tp, str):
+        return tp
+    P_e, mode = torsional_buckling_load(tp, E, G_OVER_E * E, P_ex, P_ey, KL_z_in)
+    return P_e, mode, tp
 
 
 def compression_checks(report: SectionReport, material: Material, *, K: float,
@@ -246,7 +346,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                        tension_only: bool = False, connectors: Connectors | None = None,
                        phi_c: float = PHI_C, limit_primary: float = 120.0,
                        limit_secondary: float = 140.0,
-                       KL_out_of_plane_ft: float | None = None) -> CompressionResult:
+                       KL_out_of_plane_ft: float | None = None,
+                       torsion_found: dict | None = None) -> CompressionResult:
     """Flexural buckling of the member at its governing location, or zero if tension-only.
 
     AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [V].
@@ -259,6 +360,9 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
             [value from memory].
         KL_out_of_plane_ft: the effective length out of the truss plane where it is found
             apart (a pony truss's chord on its U-frames, rating.analysis.uframe); else K L.
+        torsion_found: the torsion analysis (``rating.capacity.torsion``) of each distinct
+            set of a built-up section's rectangles already found, by those rectangles; this
+            call adds its own. None: kept for this call only.
     """
     m = report.member
     warnings: list[str] = []
@@ -342,6 +446,17 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     Q = [qs * qa for qs, qa in zip(Q_s, Q_a, strict=True)]
     Pn = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, klr_n, Q))
     k = int(np.argmin(Pn))
+    shape = report.as_built.properties.symmetry() if report.as_built.properties else ""
+    torsional: list[tuple[float, str, TorsionProperties] | str] = []
+    if report.kind == "built-up" and shape:
+        found = {} if torsion_found is None else torsion_found
+        for i, s in enumerate(C):
+            torsional.append(_torsional_at(s, E, _euler_kip(E, A[i], klr_x[i]),
+                                           _euler_kip(E, A[i], klr_y[i]), K_Z * L_in, found))
+    # the torsional mode's resistance at each location where it was found
+    Pn_t = [nominal_from_elastic(Q[i] * Fy * A[i], t[0]) if not isinstance(t, str)
+            else math.inf for i, t in enumerate(torsional)]
+    k_t = min(range(len(Pn_t)), key=Pn_t.__getitem__) if Pn_t else -1
     if Q_s[k] < 1.0:
         q_txt = f"Q = {Q[k]:.3f}" if Q_a[k] == 1.0 else f"Q_s = {Q_s[k]:.3f}"
         warnings.append(f"member {m}: slender unstiffened element(s); {q_txt} reduces the "
@@ -350,12 +465,11 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         assumptions.append(f"member {m}: rolled shape taken as nonslender (no element "
                            "dimensions)")
     assumptions.append(TORSIONAL_NOTE)
-    shape = report.as_built.properties.symmetry() if report.as_built.properties else ""
-    if shape in ("singly symmetric", "unsymmetric"):
-        assumptions.append(f"member {m}: a {shape} section: its torsional and "
-                           "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
-                           "memory]) are not checked here; the engineer should check them "
-                           "by hand")
+    # lacing or battens across the open face: the rating takes them as closing the section
+    closed_by = (connectors.kind.value if connectors is not None
+                 and connectors.kind is not ConnectorKind.SOLID else "")
+    unchecked = _torsional_notes(m, shape, C, torsional, Pn_t, k_t, length_ft, closed_by,
+                                 float(Pn[k]), assumptions, warnings)
     g = float(klr[0])
     lim = limit_secondary if role in SECONDARY_ROLES else limit_primary
     if math.isfinite(g) and g > lim:
@@ -372,5 +486,82 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     chk = Check("compression: flexural buckling", Sense.COMPRESSION, phi_c, float(Pn[k]),
                 "AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
                 s.location, detail)
+    if k_t >= 0 and Pn_t[k_t] < float(Pn[k]) * (1.0 - 1e-12) and not closed_by:
+        # the torsional mode governs: its own location and quantities
+        P_e, mode, tp = torsional[k_t]
+        i = k_t
+        detail = (f"A_g = {A[i]:.3f} in2, {_Q_text(Q_s[i], Q_a[i])}, F_y = {Fy:g} ksi, "
+                  f"E = {E:g} ksi, G = {G_OVER_E:g} E; {_torsion_text(tp)}, K_z L = "
+                  f"{K_Z * length_ft:g} ft, KL/r = {klr_x[i]:.1f} (in-plane), "
+                  f"{klr_y[i]:.1f} (out-of-plane){out}: P_e = {P_e:.1f} kip; flexural "
+                  f"buckling alone P_n = {float(Pn[k]):.1f} kip")
+        chk = Check(f"compression: {mode} buckling", Sense.COMPRESSION, phi_c, Pn_t[i],
+                    "AASHTO LRFD 6.9.4.1.3 with Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
+                    C[i].location, detail)
+        k = i
     return CompressionResult((chk,), tuple(warnings), tuple(assumptions), K, float(klr[k]),
-                             float(Q[k]))
+                             float(Q[k]), unchecked)
+
+
+def _torsion_text(tp: TorsionProperties) -> str:
+    """The torsion analysis's quantities for a check's detail."""
+    def at(v: float) -> str:
+        return f"{v if abs(v) >= 0.005 else 0.0:.2f}"  # (never "-0.00")
+
+    return (f"J = {tp.J_in4:.3f} in4, C_w = {tp.C_w_in6:.4g} in6, shear centre x_o = "
+            f"{at(tp.x_o_in)} in, y_o = {at(tp.y_o_in)} in from the centroid, r_o = "
+            f"{tp.r_o_in:.2f} in")
+
+
+def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
+                     torsional: Sequence[tuple[float, str, TorsionProperties] | str],
+                     Pn_t: Sequence[float], k_t: int, length_ft: float, closed_by: str,
+                     Pn_flexural: float, assumptions: list[str], warnings: list[str]) -> str:
+    """The member's notes on its torsional and flexural-torsional buckling.
+
+    Returns what the engine must say if the member decides a posting in compression: its
+    as-built symmetry where some location could not be checked and the section is not
+    doubly symmetric; "laced" or "battened" where the rating takes the lacing or battens as
+    closing a section whose open form would buckle lower; "" otherwise.
+    """
+    if not torsional:
+        return ""
+    missed = [(s, t) for s, t in zip(C, torsional, strict=True) if isinstance(t, str)]
+    flag = ""
+    if k_t >= 0 and math.isfinite(Pn_t[k_t]):
+        _, mode, tp = torsional[k_t]
+        found = (f"least P_n = {Pn_t[k_t]:.1f} kip ({mode}) at "
+                 f"{C[k_t].location.describe()}: {_torsion_text(tp)}, K_z = {K_Z:g}, l_z = "
+                 f"{length_ft:g} ft")
+        if not closed_by:
+            assumptions.append(f"member {m}: torsional and flexural-torsional buckling (AASHTO "
+                               f"LRFD 6.9.4.1.3 [value from memory]) checked at each location; "
+                               f"{found}")
+        elif Pn_t[k_t] < Pn_flexural * (1.0 - 1e-12):
+            flag = "laced" if closed_by == "lacing" else "battened"
+            warnings.append(
+                f"member {m}: the rating takes the {closed_by} as closing the section, which "
+                f"then buckles in flexure (P_n = {Pn_flexural:.1f} kip; common practice for "
+                f"sound {closed_by}, which carries the shear across the open face). Open, "
+                "the section would buckle in flexural-torsional buckling (AASHTO LRFD "
+                f"6.9.4.1.3 [value from memory]) "
+                f"{100.0 * (1.0 - Pn_t[k_t] / Pn_flexural):.0f} % lower: {found}. Loose, "
+                f"broken or missing {closed_by} leaves it open: the engineer judges the "
+                f"{closed_by} from the inspection")
+        else:
+            assumptions.append(f"member {m}: flexural-torsional buckling of the section open "
+                               f"on its {closed_by} face (AASHTO LRFD 6.9.4.1.3 [value from "
+                               f"memory]) does not govern even with the {closed_by} taken as "
+                               f"not closing it: {found}")
+    if not missed or shape == "doubly symmetric" and all(
+            t.startswith("the parts do not make one") for _, t in missed):
+        return flag
+    where = "; ".join(f"at {s.location.describe()}: {t}" for s, t in missed)
+    if shape == "doubly symmetric":
+        assumptions.append(f"member {m}: torsional buckling not checked {where}")
+        return flag
+    assumptions.append(f"member {m}: a {shape} section whose torsional and "
+                       "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
+                       f"memory]) could not be checked {where}; the engineer should check "
+                       "them by hand")
+    return shape

@@ -69,8 +69,10 @@ class MemberCapacity:
     tension_only: bool
     removed: tuple[str, ...] = ()
     phi_cs_floor: float = 0.85
-    open_section: str = ""  # "singly symmetric" or "unsymmetric": a built-up compression
-    # member whose torsional buckling is not checked (rating.capacity.compression); else ""
+    # "singly symmetric" or "unsymmetric": a built-up compression member whose torsional
+    # buckling could not be checked; "laced" or "battened": one whose open section would
+    # buckle lower than the closed one the rating takes (rating.capacity.compression)
+    open_section: str = ""
 
     @property
     def phi_cs(self) -> float:
@@ -126,7 +128,8 @@ def _material_notes(design: MemberDesign) -> tuple[list[str], list[str]]:
 
 def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding, ...],
                            length_ft: float, role: MemberRole, K: float, connectors,
-                           phi_c: float, report, c, KL_out_ft: float | None = None):
+                           phi_c: float, report, c, KL_out_ft: float | None = None,
+                           torsion_found: dict | None = None):
     """A part whose slender (corroded) elements lower the whole section's Q may carry less
     than nothing by the Q method; a part cannot weaken the member, so the section is also
     rated without each such part, and without all of them, and the larger resistance kept
@@ -149,7 +152,7 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
             continue  # nothing left to carry the load without them
         alt = compression_checks(rep, design.material, K=K, length_ft=length_ft, role=role,
                                  connectors=connectors, phi_c=phi_c,
-                                 KL_out_of_plane_ft=KL_out_ft)
+                                 KL_out_of_plane_ft=KL_out_ft, torsion_found=torsion_found)
         if alt.checks[0].R_n_kip > best.checks[0].R_n_kip:
             note = (f"member {m}: {', '.join(parts)} taken as not carrying compression: "
                     "its slender elements would lower the whole section's Q more than it "
@@ -163,7 +166,7 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
             chk = alt.checks[0]
             chk = dataclasses.replace(chk, location=own(chk.location))
             best = type(alt)((chk,), alt.warnings, alt.assumptions + (note,), alt.K,
-                             alt.KL_r, alt.Q)
+                             alt.KL_r, alt.Q, alt.torsional_unchecked)
             best_report = dataclasses.replace(rep, compression=tuple(
                 dataclasses.replace(s_, location=own(s_.location)) for s_ in rep.compression))
     return best, best_report
@@ -176,7 +179,8 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                     phi_pin_plate: float = PHI_PIN_PLATE, phi_c_axial: float = PHI_C,
                     phi_cs_floor: float | None = None, own_weight_klf: float = 0.0,
                     gamma_dc: float = 1.25,
-                    KL_out_of_plane_ft: float | None = None) -> MemberCapacity:
+                    KL_out_of_plane_ft: float | None = None,
+                    torsion_found: dict | None = None) -> MemberCapacity:
     """Resistances of one member after the recorded section loss, with phi_c and phi_s.
 
     AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [V].
@@ -196,6 +200,8 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
             axial force (rating.capacity.own_weight), factored by ``gamma_dc``.
         KL_out_of_plane_ft: the effective length out of the truss plane found apart (a pony
             truss's chord on its U-frames, rating.analysis.uframe); None: K L.
+        torsion_found: the torsion analyses of sections already found (see
+            ``compression_checks``), shared by the caller's members; None: this call's own.
     """
     m = design.member
     if not isinstance(length_ft, int | float) or not math.isfinite(length_ft) or length_ft <= 0:
@@ -230,12 +236,12 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         else None
     c = compression_checks(report, design.material, K=K, length_ft=float(length_ft), role=role,
                            tension_only=tension_only, connectors=connectors, phi_c=phi_c_axial,
-                           KL_out_of_plane_ft=KL_out_of_plane_ft)
+                           KL_out_of_plane_ft=KL_out_of_plane_ft, torsion_found=torsion_found)
     comp_report = report
     if isinstance(design.section, BuiltUpSection) and not tension_only and c.Q < 1.0:
         c, comp_report = _without_slender_parts(design, m, findings, float(length_ft), role,
                                                 K, connectors, phi_c_axial, report, c,
-                                                KL_out_of_plane_ft)
+                                                KL_out_of_plane_ft, torsion_found)
     if report.kind in ("built-up", "rolled shape") and not tension_only:
         assumptions.append(k_note)
     f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)
@@ -263,9 +269,7 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                              comp_at.r_x_in if comp_at else 0.0,
                              comp_at.r_y_in if comp_at else 0.0, c.Q)
     removed = tuple(comp for comp, _ in report.removed)
-    shape = (report.as_built.properties.symmetry() if report.as_built.properties is not None
-             and report.kind == "built-up" and not tension_only else "")
     return MemberCapacity(m, role, t.checks + c.checks + bending, f.phi_c, f.phi_s, f.condition,
                           f.condition_rating, summary, tuple(dict.fromkeys(warnings)),
                           tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor,
-                          shape if shape != "doubly symmetric" else "")
+                          c.torsional_unchecked)

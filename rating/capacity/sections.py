@@ -28,6 +28,7 @@ station covers its whole region and acts at every location of that region.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 import re
 from collections.abc import Iterable, Sequence
@@ -205,6 +206,50 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
                           min(r.cy_in - 0.5 * r.by_in for r in rects),
                           min(r.cx_in - 0.5 * r.bx_in for r in rects),
                           max(r.cx_in + 0.5 * r.bx_in for r in rects))
+
+
+def _extent(r: Rect) -> tuple[float, float, float, float]:
+    """(x low, x high, y low, y high) of a rectangle."""
+    return (r.cx_in - 0.5 * r.bx_in, r.cx_in + 0.5 * r.bx_in,
+            r.cy_in - 0.5 * r.by_in, r.cy_in + 0.5 * r.by_in)
+
+
+def touched_faces(r: Rect, rects: Sequence[Rect], tol_in: float = 1e-6) -> tuple[bool, bool]:
+    """Whether another of ``rects`` shares a stretch of ``r``'s low and of its high
+    thickness face (riveted to it, or the same part's next element), in that order."""
+    x0, x1, y0, y1 = _extent(r)
+    low = high = False
+    for o in rects:
+        if o is r:
+            continue
+        a0, a1, b0, b1 = _extent(o)
+        if r.thick_along_x:
+            if min(y1, b1) - max(y0, b0) <= tol_in:
+                continue
+            low = low or abs(a1 - x0) <= tol_in
+            high = high or abs(a0 - x1) <= tol_in
+        else:
+            if min(x1, a1) - max(x0, a0) <= tol_in:
+                continue
+            low = low or abs(b1 - y0) <= tol_in
+            high = high or abs(b0 - y1) <= tol_in
+    return low, high
+
+
+def _kept_against(r: Rect, t_new: float, faces: tuple[bool, bool]) -> Rect:
+    """``r`` thinned to ``t_new`` for the torsion analysis: a rectangle that touches the rest
+    of the section on one thickness face only keeps that face (its loss taken off the free
+    face), so that the parts stay joined; otherwise its mid-line is kept, as for the other
+    properties. The area is the same either way; the centroid moves by at most half the loss
+    (common practice: loss is on the exposed faces)."""
+    low, high = faces
+    thin = r.thinned(t_new)
+    if low == high:
+        return thin
+    shift = 0.5 * (r.t_in - t_new) * (1.0 if high else -1.0)
+    if r.thick_along_x:
+        return dataclasses.replace(thin, cx_in=r.cx_in + shift)
+    return dataclasses.replace(thin, cy_in=r.cy_in + shift)
 
 
 def _rects_area_in2(rects: Sequence[Rect]) -> float:
@@ -528,6 +573,9 @@ class SectionAtLocation:
     ``r_x_in``: in-plane radius of gyration; ``r_y_in``: out-of-plane (see module doc).
     ``modified_axis``: "x" or "y", the axis on which the connectors work (built-up laced or
     battened members), else None. ``r_i_in``: least r of one component between connectors.
+    ``torsion_rects``: a built-up section's rectangles for its torsion and warping analysis
+    (``rating.capacity.torsion``): as ``properties``, except that a thinned rectangle riveted
+    to another part on one face only keeps that face (see ``_kept_against``).
     """
 
     location: Location
@@ -542,6 +590,7 @@ class SectionAtLocation:
     r_i_in: float | None = None
     modified_axis: str | None = None
     shear_lag_U: float = 1.0
+    torsion_rects: tuple[Rect, ...] = ()
 
     @property
     def r_in_plane_in(self) -> float:
@@ -966,6 +1015,7 @@ class _BuiltUpState:
     r_i_in: float | None
     modified_axis: str | None
     main_only: bool
+    torsion_rects: tuple[Rect, ...]
 
 
 class _BuiltUpWork:
@@ -978,7 +1028,8 @@ class _BuiltUpWork:
     is the identity of its ``_Loss`` objects, which live as long as the call.
     """
 
-    __slots__ = ("section", "parts", "t_h0", "_part_props", "_whole", "_axis", "_states")
+    __slots__ = ("section", "parts", "t_h0", "_part_props", "_whole", "_axis", "_states",
+                 "_faces")
 
     def __init__(self, section: BuiltUpSection,
                  rectangles: Sequence[tuple[Rect, ...]]) -> None:
@@ -992,6 +1043,14 @@ class _BuiltUpWork:
         self._whole: AreaProperties | None = None
         self._axis: str | None = None
         self._states: dict[tuple[frozenset[str], tuple[int, ...]], _BuiltUpState] = {}
+        self._faces: dict[Rect, tuple[bool, bool]] | None = None
+
+    def _touched_faces(self) -> dict[Rect, tuple[bool, bool]]:
+        # which thickness faces of each as-built rectangle another rectangle touches
+        if self._faces is None:
+            rects = [r for _, _, _, rs in self.parts for r in rs]
+            self._faces = {r: touched_faces(r, rects) for r in rects}
+        return self._faces
 
     def _as_built_part_props(self, key: str, rects: tuple[Rect, ...]) -> AreaProperties:
         props = self._part_props.get(key)
@@ -1024,11 +1083,13 @@ class _BuiltUpWork:
         zeroed: list[tuple[str, str, float]] = []
         # kept parts: (key, part, rectangles left, as built?)
         kept: list[tuple[str, Part, tuple[Rect, ...], bool]] = []
+        torsion: list[Rect] = []
         for key, p, t_ref, rects0 in self.parts:
             if key in gone:
                 continue
             if not any(key in lo.components for lo in acting):
                 kept.append((key, p, rects0, True))  # no loss on this part: as built
+                torsion.extend(rects0)
                 continue
             rects = []
             for r in rects0:
@@ -1037,7 +1098,12 @@ class _BuiltUpWork:
                     zeroed.append((p.label, r.element, r.t_in))
                 if t_new > 0.0:
                     # _min_left gives back the as-built thickness itself when nothing is lost
-                    rects.append(r if t_new is r.t_in else r.thinned(t_new))
+                    if t_new is r.t_in:
+                        rects.append(r)
+                        torsion.append(r)
+                    else:
+                        rects.append(r.thinned(t_new))
+                        torsion.append(_kept_against(r, t_new, self._touched_faces()[r]))
             if rects:
                 kept.append((key, p, tuple(rects), False))
         all_rects = [r for _, _, rects, _ in kept for r in rects]
@@ -1062,7 +1128,8 @@ class _BuiltUpWork:
                            else area_properties(rects)).r_min_in
                           for k, _, rects, as_built in main)
                 main_only = len(main) < len(kept)
-        return _BuiltUpState(tuple(zeroed), props, An, elements, r_i, axis, main_only)
+        return _BuiltUpState(tuple(zeroed), props, An, elements, r_i, axis, main_only,
+                             tuple(torsion))
 
     def at(self, section: BuiltUpSection, member: str, loc: Location,
            acting: Sequence[_Loss], gone: frozenset[str], _bent: frozenset[str],
@@ -1087,7 +1154,8 @@ class _BuiltUpWork:
         return SectionAtLocation(loc, props.A_in2, st.A_n_in2, props.r_x_in, props.r_y_in,
                                  props, elements=st.elements, r_i_in=st.r_i_in,
                                  modified_axis=st.modified_axis,
-                                 shear_lag_U=section.shear_lag_U)
+                                 shear_lag_U=section.shear_lag_U,
+                                 torsion_rects=st.torsion_rects)
 
 
 def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequence[_Loss],

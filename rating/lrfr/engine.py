@@ -523,6 +523,7 @@ def _bars_that_would_push(g: TrussGeometry, ratings: Mapping[tuple[str, str], Me
 
 
 TORSIONAL_BUCKLING = "TORSIONAL BUCKLING NOT CHECKED"
+OPEN_SECTION = "LACING CLOSES THE SECTION"
 ESTIMATED_LOSS = "ESTIMATED LOSS GOVERNS"
 
 
@@ -558,20 +559,32 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
                            capacities: Mapping[str, MemberCapacity],
                            postings: Mapping[str, CasePosting], deciding: set[str]
                            ) -> list[str]:
-    """A member with a singly symmetric or unsymmetric built-up section that sets a posting,
-    a closure or a barring in compression: its torsional and flexural-torsional buckling
-    (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked (rating.capacity.compression),
-    and could give a lower resistance, so the decision waits on the engineer's check."""
-    members = list(dict.fromkeys(
-        m for m, r in _deciding_ratings(ratings, postings, deciding)
-        if capacities[m].open_section and r.sense == "compression"))
-    if not members:
-        return []
-    return [f"{TORSIONAL_BUCKLING}: member(s) {', '.join(members)} set a posting, closure or "
-            "barring in compression and have a singly symmetric or unsymmetric built-up "
-            "section, whose torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 "
-            "[value from memory]) are not checked here; the engineer should check them before "
-            "the decision"]
+    """A member that sets a posting, a closure or a barring in compression whose torsional
+    or flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]) either could
+    not be checked (a singly symmetric or unsymmetric built-up section whose parts do not
+    make one section: rating.capacity.compression) or would govern if its lacing or battens
+    did not close the section: the decision waits on the engineer's check."""
+    found: dict[str, str] = {}
+    for m, r in _deciding_ratings(ratings, postings, deciding):
+        if capacities[m].open_section and r.sense == "compression":
+            found.setdefault(m, capacities[m].open_section)
+    said = []
+    unchecked = [m for m, kind in found.items() if kind not in ("laced", "battened")]
+    if unchecked:
+        said.append(f"{TORSIONAL_BUCKLING}: member(s) {', '.join(unchecked)} set a posting, "
+                    "closure or barring in compression and have a singly symmetric or "
+                    "unsymmetric built-up section, whose torsional and flexural-torsional "
+                    "buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked "
+                    "here; the engineer should check them before the decision")
+    open_ = [m for m, kind in found.items() if kind in ("laced", "battened")]
+    if open_:
+        said.append(f"{OPEN_SECTION}: member(s) {', '.join(open_)} set a posting, closure or "
+                    "barring in compression with their lacing or battens taken as closing "
+                    "the section; open, the section would buckle lower in flexural-torsional "
+                    "buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]; the member's "
+                    "warning gives the resistance): the engineer should confirm the lacing "
+                    "or battens from the inspection before the decision")
+    return said
 
 
 PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
@@ -630,8 +643,8 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
 
 def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, MemberCapacity],
                       dead: DeadLoadResult, weights: Mapping[str, MemberWeight],
-                      warnings: list[str], assumptions: list[str], gamma_dc: float
-                      ) -> PonyChord | None:
+                      warnings: list[str], assumptions: list[str], gamma_dc: float,
+                      torsion_found: dict | None = None) -> PonyChord | None:
     """A pony truss whose floorbeam's moment of inertia is given: its top chord and end posts
     rated out of the truss plane with the effective lengths of the chord on its U-frames
     (rating.lrfr.uframes; AASHTO LRFD 6.14.2.9 [value from memory]), in place of K L; their
@@ -664,7 +677,8 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
                               bridge.findings_for(lab), m.tension_only,
                               own_weight_klf=_across_weight_klf(g, m, weights[lab],
                                                                 st.detail_allowance),
-                              gamma_dc=gamma_dc, KL_out_of_plane_ft=KL_ft)
+                              gamma_dc=gamma_dc, KL_out_of_plane_ft=KL_ft,
+                              torsion_found=torsion_found)
         capacities[lab] = new
         for said, was, now in ((warnings, old.warnings, new.warnings),
                                (assumptions, old.assumptions, new.assumptions)):
@@ -1013,6 +1027,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                                      bridge.design_of(m.label).material.unit_weight_pcf)
                for m in g.members}
     capacities: dict[str, MemberCapacity] = {}
+    # the torsion analysis of each distinct section after loss, shared by the members
+    torsion_found: dict = {}
     for m in g.members:
         cap = known.get(m.label)
         if cap is None:
@@ -1020,7 +1036,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                                   g.member_length_ft(m.label), bridge.findings_for(m.label),
                                   m.tension_only, own_weight_klf=_across_weight_klf(
                                       g, m, weights[m.label], st.detail_allowance),
-                                  gamma_dc=dead_f["gamma_dc_max"].value)
+                                  gamma_dc=dead_f["gamma_dc_max"].value,
+                                  torsion_found=torsion_found)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
@@ -1047,7 +1064,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                      st.detail_allowance, st.detail_allowance_given, family=family)
     assumptions.extend(dead.assumptions)
     chord = _chord_on_uframes(g, bridge, capacities, dead, weights, warnings, assumptions,
-                              dead_f["gamma_dc_max"].value)
+                              dead_f["gamma_dc_max"].value, torsion_found)
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))

@@ -215,34 +215,6 @@ def test_lacing_itself_is_not_rated_and_says_so():
     assert not any("lacing bars" in a for a in run(solid).assumptions)
 
 
-def test_torsional_buckling_is_said_to_be_left_to_the_engineer():
-    """Only flexural buckling is checked; torsional and flexural-torsional buckling (AASHTO
-    LRFD 6.9.4.1.3 [value from memory]) are said to be left to the engineer, once for the
-    report (the same words for every member), and not for bars that carry no compression."""
-    from rating.capacity.compression import TORSIONAL_NOTE
-
-    assert TORSIONAL_NOTE in run(POST).assumptions
-    assert "6.9.4.1.3" in TORSIONAL_NOTE and "not checked" in TORSIONAL_NOTE
-    assert TORSIONAL_NOTE not in run(POST, tension_only=True).assumptions
-
-
-def test_a_singly_symmetric_chord_is_named_for_a_torsional_check():
-    """Two channels back to back are doubly symmetric; with a cover plate on one side the
-    section is singly symmetric (its centroid moves toward the plate), and the member is
-    named for the engineer's hand check of torsional and flexural-torsional buckling (AASHTO
-    LRFD 6.9.4.1.3 [value from memory]); the least area properties are sectionproperties'
-    (tests/reference)."""
-    from rating.model import PlatePart
-
-    chord = BuiltUpSection(parts=POST.parts + (PlatePart("cover", 14.0, 0.5, y_in=5.25),),
-                           connectors=POST.connectors)
-    said = [a for a in run(chord).assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
-    assert said == ["member M: a singly symmetric section: its torsional and flexural-torsional "
-                    "buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked "
-                    "here; the engineer should check them by hand"]
-    assert not [a for a in run(POST).assumptions if a.startswith("member M: a ")]
-
-
 def test_a_built_up_members_elements_take_their_own_form():
     from rating.capacity.compression import element_Q
     from rating.capacity.sections import ElementAtLocation

@@ -65,7 +65,10 @@ def test_effective_width_and_Q_a_of_one_plate_hand_calculation():
 
 
 def test_slender_cover_plate_reduces_the_built_up_member():
-    section = BuiltUpSection(parts=CHANNELS + (PlatePart("cover", 20.0, 0.25, y_in=5.125),),
+    # a closed box (cover plates on both sides: its torsional buckling does not govern, so
+    # the flexural check is the one under test)
+    section = BuiltUpSection(parts=CHANNELS + (PlatePart("cover", 20.0, 0.25, y_in=5.125),
+                                               PlatePart("bottom", 20.0, 0.25, y_in=-5.125)),
                              connectors=SOLID)
     r, c = run(section)
     s = r.compression[0]
@@ -77,9 +80,10 @@ def test_slender_cover_plate_reduces_the_built_up_member():
     f = aisc_Fcr(KL_r, FY, E)
     root = math.sqrt(E / f)
     b_e = min(1.92 * 0.25 * root * (1 - 0.34 / 80.0 * root), 20.0)
-    Q = (s.A_g_in2 - (20.0 - b_e) * 0.25) / s.A_g_in2
+    Q = (s.A_g_in2 - 2 * (20.0 - b_e) * 0.25) / s.A_g_in2
     assert c.Q == pytest.approx(Q, rel=1e-12)
     (chk,) = c.checks
+    assert chk.name == "compression: flexural buckling"
     # P_n = F_cr(Q) A_g, AISC 360-10 E7-2 form; KL/r ~ 65.5 is far from the curve's transition
     assert chk.R_n_kip == pytest.approx(aisc_Fcr(KL_r, Q * FY, E) * s.A_g_in2, rel=1e-9)
     # lower than the same member without the reduction (Q = 1), AASHTO LRFD 6.9.4.1.1
@@ -96,7 +100,8 @@ def test_no_slender_stiffened_element_leaves_the_resistance_unchanged(flange_t):
     # AISC 360-10 Eq. E7-5 / LRFD 6.9.4.2.2 [value from memory]): P_n uses Q_s alone
     parts = (ChannelPart("C1", 10.0, 2.6, 0.38, flange_t, x_in=-4.0, toes=ChannelToes.LEFT),
              ChannelPart("C2", 10.0, 2.6, 0.38, flange_t, x_in=4.0, toes=ChannelToes.RIGHT),
-             PlatePart("cover", 20.0, 0.75, y_in=5.375))
+             PlatePart("cover", 20.0, 0.75, y_in=5.375),
+             PlatePart("bottom", 20.0, 0.75, y_in=-5.375))  # a closed box (as above)
     r, c = run(BuiltUpSection(parts=parts, connectors=SOLID))
     Q_s = float(unstiffened_Q(2.6 / flange_t, FY, E))
     assert c.Q == Q_s

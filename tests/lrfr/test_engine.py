@@ -700,32 +700,82 @@ def test_chords_and_end_posts_are_rated_with_their_own_weight_bending():
     assert r.ratings[("U2U3", "TYPE-3")].check == OWN_WEIGHT_CHECKS[0]
 
 
-def test_a_singly_symmetric_chord_that_sets_the_posting_heads_a_warning():
-    """Torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from memory])
-    are not checked; where a member with a singly symmetric built-up section (channels with
-    a cover plate on one side) sets a posting or closure in compression, the warning bears on
-    the decision (a capital head: rating.results.bears_on_the_decision). Invented test data:
-    the demo Pratt with light top chords."""
+def _with_top_chords(section):
+    from rating.model import MemberRole
+
+    bridge = make_pratt_bridge(pins=False)
+    return replace(bridge, member_designs=tuple(
+        replace(d, section=section) if bridge.geometry.member(d.member).role
+        is MemberRole.TOP_CHORD else d for d in bridge.member_designs))
+
+
+def test_a_laced_chord_that_sets_the_posting_heads_a_warning():
+    """A laced chord of two channels and a cover plate is rated as closed by its lacing
+    (flexural buckling); its open form would buckle lower in flexural-torsional buckling
+    (AASHTO LRFD 6.9.4.1.3 [value from memory]), so where it sets a posting the warning
+    bears on the decision (a capital head: rating.results.bears_on_the_decision). Invented
+    test data: the demo Pratt with light top chords."""
     from demo_bridge import laced_channels
 
-    from rating.lrfr.engine import TORSIONAL_BUCKLING
+    from rating.lrfr.engine import OPEN_SECTION, TORSIONAL_BUCKLING
     from rating.model import MemberRole
     from rating.results import bears_on_the_decision
 
-    bridge = make_pratt_bridge(pins=False)
-    light = laced_channels(7.0, 2.09, 0.21, 0.37, 6.0, cover=(9.0, 0.25))
-    bridge = replace(bridge, member_designs=tuple(
-        replace(d, section=light) if bridge.geometry.member(d.member).role
-        is MemberRole.TOP_CHORD else d for d in bridge.member_designs))
+    bridge = _with_top_chords(laced_channels(7.0, 2.09, 0.21, 0.37, 6.0, cover=(9.0, 0.25)))
     r = rate_bridge(bridge, ["TYPE-3"], what_if=False)
     cp = r.postings["TYPE-3"]
     assert r.geometry.member(cp.controlling).role is MemberRole.TOP_CHORD
+    assert r.capacities[cp.controlling].open_section == "laced"
+    names = [c.name for c in r.capacities[cp.controlling].checks]
+    assert "compression: flexural buckling" in names  # (with its own-weight bending)
+    (said,) = [w for w in r.warnings if w.startswith(OPEN_SECTION)]
+    assert f"member(s) {cp.controlling} set a posting" in said and bears_on_the_decision(said)
+    assert not [w for w in r.warnings if w.startswith(TORSIONAL_BUCKLING)]
+    # the demo as it is: a hanger sets it, and nothing is said
+    plain = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"], what_if=False)
+    assert not [w for w in plain.warnings if w.startswith((TORSIONAL_BUCKLING, OPEN_SECTION))]
+
+
+def test_an_open_chord_is_rated_in_flexural_torsional_buckling():
+    """The same light chord with nothing across its open face (solid connectors): its
+    flexural-torsional buckling is the rating's own check, nothing left to the engineer."""
+    from demo_bridge import laced_channels
+
+    from rating.lrfr.engine import OPEN_SECTION, TORSIONAL_BUCKLING
+    from rating.model import ConnectorKind, Connectors
+
+    light = laced_channels(7.0, 2.09, 0.21, 0.37, 6.0, cover=(9.0, 0.25))
+    r = rate_bridge(_with_top_chords(replace(light, connectors=Connectors(
+        ConnectorKind.SOLID))), ["TYPE-3"], what_if=False)
+    laced = rate_bridge(_with_top_chords(light), ["TYPE-3"], what_if=False)
+    cp = r.postings["TYPE-3"]
+    names = [c.name for c in r.capacities[cp.controlling].checks]
+    assert "compression: flexural-torsional buckling" in names  # (with own-weight bending)
+    assert r.ratings[(cp.controlling, "TYPE-3")].sense == "compression"
+    assert r.capacities[cp.controlling].open_section == ""
+    assert not [w for w in r.warnings if w.startswith((TORSIONAL_BUCKLING, OPEN_SECTION))]
+    assert r.ratings[(cp.controlling, "TYPE-3")].rf < \
+        laced.ratings[(cp.controlling, "TYPE-3")].rf
+
+
+def test_a_chord_whose_parts_do_not_touch_heads_a_warning():
+    """A cover plate drawn clear of the channels: the section is not one region, its
+    torsional buckling is not checked, and where it sets a posting in compression the
+    warning bears on the decision."""
+    from demo_bridge import laced_channels
+
+    from rating.lrfr.engine import TORSIONAL_BUCKLING
+    from rating.model import PlatePart
+    from rating.results import bears_on_the_decision
+
+    light = laced_channels(7.0, 2.09, 0.21, 0.37, 6.0, cover=(9.0, 0.25))
+    apart = replace(light, parts=light.parts[:2] + (PlatePart("cover", 9.0, 0.25,
+                                                              y_in=4.0),))
+    r = rate_bridge(_with_top_chords(apart), ["TYPE-3"], what_if=False)
+    cp = r.postings["TYPE-3"]
     assert r.capacities[cp.controlling].open_section == "singly symmetric"
     (said,) = [w for w in r.warnings if w.startswith(TORSIONAL_BUCKLING)]
     assert f"member(s) {cp.controlling} set a posting" in said and bears_on_the_decision(said)
-    # the demo as it is: a hanger sets it, and nothing is said
-    plain = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3"], what_if=False)
-    assert not [w for w in plain.warnings if w.startswith(TORSIONAL_BUCKLING)]
 
 
 def test_an_estimated_loss_that_sets_the_posting_heads_a_warning():
