@@ -446,7 +446,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     Q = [qs * qa for qs, qa in zip(Q_s, Q_a, strict=True)]
     Pn = np.atleast_1d(nominal_compressive_resistance(A, Fy, E, klr_n, Q))
     k = int(np.argmin(Pn))
-    shape = report.as_built.properties.symmetry() if report.as_built.properties else ""
+    # the symmetry of the section rated (a part removed by the inspection is out of it)
+    shape = C[0].properties.symmetry() if C[0].properties else ""
     torsional: list[tuple[float, str, TorsionProperties] | str] = []
     if report.kind == "built-up" and shape:
         found = {} if torsion_found is None else torsion_found

@@ -206,3 +206,18 @@ def test_two_laced_channels_say_nothing_of_torsion():
     assert c.torsional_unchecked == ""
     assert not [a for a in c.assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
     assert not [w for w in c.warnings if "6.9.4.1.3" in w]
+
+
+def test_a_chord_without_its_cover_plate_is_two_laced_channels():
+    """A cover plate recorded loose is out of the section for the whole member: what is rated
+    is two laced channels, doubly symmetric, with nothing to say of torsion."""
+    from rating.model import BarState, Finding
+
+    chord = BuiltUpSection(parts=CHANNELS + (COVER,),
+                           connectors=Connectors(ConnectorKind.LACING, spacing_in=15.0))
+    r = section_properties(chord, member="M", length_ft=18.0,
+                           findings=(Finding("M", "cover", bar_state=BarState.LOOSE),))
+    c = compression_checks(r, STEEL, K=0.875, length_ft=18.0, connectors=chord.connectors)
+    assert r.compression[0].properties.symmetry() == "doubly symmetric"
+    assert c.torsional_unchecked == ""
+    assert not [a for a in c.assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
