@@ -51,8 +51,6 @@ CELLS_ACROSS = 2
 """Elements across each rectangle's thickness at least: the warping function of a thin
 strip is bilinear across it (omega ~ x y), which bilinear elements carry exactly."""
 
-_TOL_IN = 1e-9
-
 # 2 x 2 Gauss points on the reference square [-1, 1]^2 and the bilinear shape functions'
 # values and derivatives there (nodes counter-clockwise from the lower left)
 _G = 1.0 / math.sqrt(3.0)
@@ -108,38 +106,55 @@ class TorsionProperties:
 
 
 def _graded(a: float, b: float, h_min: float) -> np.ndarray:
-    """Grid lines in (a, b], elements of ``h_min`` at both ends growing by ``GROWTH`` to at
-    most ``CELL_MAX_IN`` towards the middle."""
-    half = 0.5 * (b - a)
-    sizes = []
+    """Grid lines in (a, b]: elements of ``h_min`` at both ends growing by ``GROWTH`` to at
+    most ``CELL_MAX_IN``, and equal ones in the middle, none thinner than about ``h_min``/2
+    (a sliver of an element would spoil the solution)."""
+    length = b - a
+    left: list[float] = []  # offsets of the graded lines from each end
     h, total = h_min, 0.0
-    while total + h < half - 1e-12:
-        sizes.append(h)
+    while 2.0 * (total + h) <= length - h_min:
         total += h
+        left.append(total)
         h = min(h * GROWTH, CELL_MAX_IN)
-    if not sizes:
-        n = max(1, math.ceil((b - a) / h_min - 1e-9))
-        return np.linspace(a, b, n + 1)[1:]
-    left = np.cumsum(sizes)
-    gap = b - a - 2.0 * left[-1]  # the middle stretch, below about 2 h
-    middle = np.linspace(a + left[-1], b - left[-1], max(1, math.ceil(gap / h - 1e-9)) + 1)
-    return np.concatenate([a + left, middle[1:-1], (b - left)[::-1], [b]])
+    n = max(1, math.ceil((length - 2.0 * total) / h - 1e-9))
+    middle = np.linspace(a + total, b - total, n + 1)[1:]
+    if not left:
+        return middle
+    offsets = np.array(left)
+    return np.concatenate([a + offsets, middle, (b - offsets[:-1])[::-1], [b]])
 
 
 def _breaks(lo: np.ndarray, hi: np.ndarray, thick: np.ndarray) -> np.ndarray:
     """Grid lines along one axis: every rectangle edge, each interval between them graded
     from ``CELL_MIN_IN`` at its ends (at most 1/``CELLS_ACROSS`` of the thinnest rectangle
     whose thickness lies along this axis and spans the interval)."""
-    edges = np.unique(np.round(np.concatenate([lo, hi]), 9))
+    edges = np.unique(np.concatenate([lo, hi]))  # (snapped: see ``_snapped``)
     lines = [edges[:1]]
     for a, b in zip(edges[:-1], edges[1:], strict=True):
         mid = 0.5 * (a + b)
         spans = (lo < mid) & (hi > mid)
+        if not spans.any():  # a gap between parts: its cells are empty
+            lines.append(np.array([b]))
+            continue
         h = CELL_MIN_IN
         if np.any(spans & np.isfinite(thick)):
             h = min(h, float(np.min(thick[spans])) / CELLS_ACROSS)
         lines.append(_graded(float(a), float(b), h))
     return np.concatenate(lines)
+
+
+def _snapped(lo: np.ndarray, hi: np.ndarray, tol: float = 1e-6
+             ) -> tuple[np.ndarray, np.ndarray]:
+    """The rectangles' edges along one axis with those within ``tol`` of each other made one
+    (the first of each run), so that parts ``_one_region`` joins share a grid line."""
+    v = np.concatenate([lo, hi])
+    order = np.argsort(v, kind="stable")
+    sv = v[order]
+    run = np.concatenate([[0], np.cumsum(np.diff(sv) > tol)])
+    first = np.concatenate([[True], np.diff(run) > 0])
+    out = np.empty_like(v)
+    out[order] = sv[first][run]
+    return out[:len(lo)], out[len(lo):]
 
 
 def _one_region(x0: np.ndarray, x1: np.ndarray, y0: np.ndarray, y1: np.ndarray) -> bool:
@@ -150,7 +165,7 @@ def _one_region(x0: np.ndarray, x1: np.ndarray, y0: np.ndarray, y1: np.ndarray) 
     over_x = np.minimum(x1[:, None], x1[None, :]) - np.maximum(x0[:, None], x0[None, :]) > tol
     side = (np.abs(x1[:, None] - x0[None, :]) <= tol) | (np.abs(x0[:, None] - x1[None, :]) <= tol)
     end = (np.abs(y1[:, None] - y0[None, :]) <= tol) | (np.abs(y0[:, None] - y1[None, :]) <= tol)
-    joined = (side & over_y) | (end & over_x)
+    joined = (side & over_y) | (end & over_x) | (over_x & over_y)  # (overlaps: said later)
     reached = np.zeros(len(x0), dtype=bool)
     reached[0] = True
     while True:
@@ -174,6 +189,11 @@ def torsion_properties(rects: Sequence[Rect]) -> TorsionProperties | str:
     x1 = np.array([x.cx_in + 0.5 * x.bx_in for x in r])
     y0 = np.array([x.cy_in - 0.5 * x.by_in for x in r])
     y1 = np.array([x.cy_in + 0.5 * x.by_in for x in r])
+    if not _one_region(x0, x1, y0, y1):
+        return ("the parts do not make one connected section (a part touches no other, or the "
+                "parts are joined by lacing or battens only)")
+    x0, x1 = _snapped(x0, x1)
+    y0, y1 = _snapped(y0, y1)
     # a rectangle's thickness limits the elements along the axis it lies on
     t_along_x = np.array([x.bx_in if x.thick_along_x else np.inf for x in r])
     t_along_y = np.array([np.inf if x.thick_along_x else x.by_in for x in r])
@@ -192,9 +212,6 @@ def torsion_properties(rects: Sequence[Rect]) -> TorsionProperties | str:
     import scipy.sparse as sp
     from scipy.sparse.linalg import spsolve
 
-    if not _one_region(x0, x1, y0, y1):
-        return ("the parts do not make one connected section (a part touches no other, or the "
-                "parts are joined by lacing or battens only)")
     ix, iy = np.nonzero(count)
     nx1 = len(xs)
     # element nodes, counter-clockwise from the lower left, numbered on the full grid
@@ -234,7 +251,12 @@ def torsion_properties(rects: Sequence[Rect]) -> TorsionProperties | str:
     f = np.bincount(conn.ravel(), weights=f_e.ravel(), minlength=n)
     # omega is found up to a constant: hold the first node, then take the mean out
     omega = np.zeros(n)
-    omega[1:] = spsolve(K[1:, 1:], f[1:])
+    K_held = K[1:, 1:]
+    omega[1:] = spsolve(K_held, f[1:])
+    # a mesh in two pieces (which ``_one_region`` should have said) has no unique solution
+    if not np.all(np.isfinite(omega)) or np.linalg.norm(K_held @ omega[1:] - f[1:]) > \
+            1e-8 * max(float(np.linalg.norm(f)), 1e-300):
+        return "the torsion analysis found no solution (the parts are not joined)"
     wq = omega[conn] @ _N.T  # omega at the Gauss points, (E, point)
     omega -= float(np.sum(wq * w)) / A
     wq -= float(np.sum(wq * w)) / A
