@@ -453,9 +453,10 @@ def pony_1903_si() -> WorkbookContent:
                               "hole_diameter": 20.6, "holes": 2, "U": 0.8,
                               "note": "four angles laced"})
     a = 64.0
-    for part, x, y, xd, yd in (("A-1", -80.0, 60.0, "+x", "-y"), ("A-2", 80.0, 60.0, "-x", "-y"),
-                               ("A-3", -80.0, -60.0, "+x", "+y"),
-                               ("A-4", 80.0, -60.0, "-x", "+y")):
+    # heels 140 mm apart: the 64 mm legs stop 12 mm short of each other
+    for part, x, y, xd, yd in (("A-1", -80.0, 70.0, "+x", "-y"), ("A-2", 80.0, 70.0, "-x", "-y"),
+                               ("A-3", -80.0, -70.0, "+x", "+y"),
+                               ("A-4", 80.0, -70.0, "-x", "+y")):
         sheets["Angles"].append({"section": "VP-1", "part": part, "x": x, "y": y, "leg_x": a,
                                  "leg_y": a, "thickness": 8.0, "x_dir": xd, "y_dir": yd})
     for m in g.members:

@@ -392,16 +392,20 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         # sound and able to make the parts act together; inspection judges them)
         assumptions.append(f"member {m}: the {connectors.kind.value} bars or plates and their "
                            "rivets are not checked; they are taken as sound and able to make "
-                           "the parts act together (loose, bent or missing "
-                           f"{connectors.kind.value} lowers the buckling resistance: engineer "
-                           "to judge from the inspection)")
+                           "the parts act together unless the Findings sheet records them "
+                           f"out of action (component '{connectors.kind.value}'; loose, bent "
+                           f"or missing {connectors.kind.value} lowers the buckling resistance: "
+                           "engineer to judge from the inspection)")
     if use_mod and connectors.spacing_in is None:
         warnings.append(f"member {m}: {connectors.kind.value} spacing not recorded; the modified "
                         "slenderness of the built-up member could not be applied "
                         "(unconservative)")
         use_mod = False
+    defective = report.connectors_defective
     if use_mod:
-        a = connectors.spacing_in
+        # a connection lost doubles the length between sound ones (rating.capacity.sections
+        # ._connector_notes)
+        a = connectors.spacing_in * (2.0 if defective else 1.0)
         for i, s in enumerate(C):
             if s.modified_axis is None or not s.r_i_in:
                 continue
@@ -467,7 +471,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                            "dimensions)")
     assumptions.append(TORSIONAL_NOTE)
     # lacing or battens across the open face: the rating takes them as closing the section
-    closed_by = (connectors.kind.value if connectors is not None
+    closed_by = (connectors.kind.value if connectors is not None and not defective
                  and connectors.kind is not ConnectorKind.SOLID else "")
     unchecked = _torsional_notes(m, shape, C, torsional, Pn_t, k_t, length_ft, closed_by,
                                  float(Pn[k]), assumptions, warnings)

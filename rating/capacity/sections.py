@@ -54,6 +54,7 @@ from rating.model import (
     RodShape,
     RolledShape,
     Section,
+    connector_component,
 )
 
 REMOVING_STATES = frozenset({BarState.LOOSE, BarState.MISSING, BarState.BROKEN,
@@ -432,6 +433,7 @@ def _validated_rectangles(section: BuiltUpSection, member: str,
             _pos(c.r_i_in, "component radius of gyration r_i (in)", member, where)
     by_part = tuple(part_rectangles(p) for p in section.parts)
     rects = [r for rs in by_part for r in rs]
+    _no_overlap(rects, member, where)
     Ag = _rects_area_in2(rects)
     t_h = max(r.t_in for r in rects)
     if section.holes_per_section * section.hole_diameter_in * t_h >= Ag:
@@ -439,6 +441,25 @@ def _validated_rectangles(section: BuiltUpSection, member: str,
                          f"x {section.hole_diameter_in:g} in) remove the whole section",
                          where or None)
     return by_part
+
+
+def _no_overlap(rects: Sequence[Rect], member: str, where: str,
+                tol_in: float = 1e-3) -> None:
+    """Two parts cannot share metal: an overlap (a position or a leg mistyped) would count
+    its area twice, so it is refused, naming the parts and how far they overlap."""
+    ext = [_extent(r) for r in rects]
+    for i, (a0, a1, b0, b1) in enumerate(ext):
+        for j in range(i + 1, len(ext)):
+            c0, c1, d0, d1 = ext[j]
+            over_x = min(a1, c1) - max(a0, c0)
+            over_y = min(b1, d1) - max(b0, d0)
+            if over_x > tol_in and over_y > tol_in:
+                p, q = rects[i], rects[j]
+                raise InputError(
+                    f"member {member}: parts {p.part} ({p.element}) and {q.part} "
+                    f"({q.element}) overlap by {over_x:.3g} in x {over_y:.3g} in; two parts "
+                    "cannot share metal (its area would count twice): check their positions "
+                    "and sizes", where or None)
 
 
 # --------------------------------------------------------------------------------------------
@@ -627,6 +648,16 @@ class SectionReport:
     total_count: int
     warnings: tuple[str, ...]
     assumptions: tuple[str, ...]
+    # findings on a built-up member's lacing or battens (not a part: they change how the
+    # parts act together, rating.capacity.compression), in the order recorded
+    connector_findings: tuple[Finding, ...] = ()
+
+    @property
+    def connectors_defective(self) -> tuple[Finding, ...]:
+        """The connector findings that leave the lacing or battens out of action: a bar
+        loose, missing, broken, cracked or bent."""
+        return tuple(f for f in self.connector_findings
+                     if f.bar_state in REMOVING_STATES or f.bar_state is BarState.BENT)
 
 
 def section_kind(section: Section) -> str:
@@ -802,6 +833,7 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
     removed: dict[str, Finding] = {}
     bent: dict[str, Finding] = {}
     losses: list[_Loss] = []
+    joined: list[Finding] = []  # on the lacing or battens
     for f in findings:
         if f.member != member:
             raise _err(member, f, f"the finding belongs to member {f.member!r}, not {member!r}")
@@ -820,6 +852,10 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
                     f"{length_ft:g} ft member, far from both ends, where a head, thread or "
                     "connection is: it is rated as recorded (at that end region's check), so "
                     "check its region and its station")
+        if isinstance(section, BuiltUpSection) and (f.component or "").strip().lower() \
+                not in comps and connector_component(section.connectors, f.component or ""):
+            joined.append(f)
+            continue
         cs = _resolve(section, member, f)
         if f.bar_state in REMOVING_STATES:
             for c in cs:
@@ -859,6 +895,7 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
                                            "it may take less than its share of the member's "
                                            "force until straightened")
                         + ")")
+    _connector_notes(section, member, joined, warnings, assumptions)
     removal_findings = tuple(dict.fromkeys(removed.values()))
 
     keys: list[tuple[FindingRegion, float | None]] = []
@@ -894,7 +931,43 @@ def section_properties(section: Section, *, member: str, findings: Sequence[Find
     return SectionReport(member, section, section_kind(section), as_built, tension, compression,
                          tuple(removed.items()), tuple(bent.items()),
                          len(comps) - len(gone), len(comps),
-                         tuple(dict.fromkeys(warnings)), tuple(dict.fromkeys(assumptions)))
+                         tuple(dict.fromkeys(warnings)), tuple(dict.fromkeys(assumptions)),
+                         tuple(joined))
+
+
+def _connector_notes(section: Section, member: str, joined: Sequence[Finding],
+                     warnings: list[str], assumptions: list[str]) -> None:
+    """What findings on a built-up member's lacing or battens do to its rating (common
+    practice, as judged here): a bar out of action (loose, missing, broken, cracked or bent)
+    no longer closes the section nor ties the parts where it was, so the member is rated as an
+    open section in torsional buckling and with twice the connector spacing in its modified
+    slenderness (rating.capacity.compression); a loss alone is not rated (lacing and battens
+    are not checked)."""
+    if not joined:
+        return
+    word = section.connectors.kind.value if isinstance(section, BuiltUpSection) \
+        and section.connectors is not None else "lacing"
+    out = [f for f in joined if f.bar_state in REMOVING_STATES or f.bar_state is BarState.BENT]
+    if out:
+        said = ", ".join(f"{f.bar_state.value} ({f.where or describe_finding(f)})" for f in out)
+        warnings.append(
+            f"member {member}: its {word} is recorded {said}: it is taken as no longer closing "
+            "the section nor tying the parts there, so the member is rated as an open section "
+            "in torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
+            "memory]) and with twice the connector spacing in its modified slenderness (one "
+            "connection lost; where more are out, give the distance between sound "
+            "connectors as the spacing on the Sections sheet) [common practice]")
+    for f in joined:
+        if f.pack_rust:
+            warnings.append(f"member {member}: pack rust recorded ({describe_finding(f)}); "
+                            "it can spread and bend the bars or parts; check for distortion")
+        if f not in out and (f.remaining_thickness_in is not None
+                             or f.percent_loss is not None):
+            assumptions.append(
+                f"member {member}: the loss recorded on its {word} "
+                f"({f.where or describe_finding(f)}) is not rated: {word} is not checked, and "
+                "is taken as still tying the parts; if it no longer does, record its bar "
+                "state (broken, missing, loose or bent) to rate the member without it")
 
 
 def _loss_assumptions(section: Section, any_loss: bool) -> list[str]:

@@ -29,6 +29,7 @@ from rating.inventory.book import Book, open_book
 from rating.inventory.problems import ProblemLog, WorkbookReading
 from rating.inventory.tables import Row, read_form, read_table
 from rating.model import (
+    CONNECTOR_WORDS,
     AnglePart,
     AxleSpacing,
     BarState,
@@ -70,6 +71,7 @@ from rating.model import (
     UnitSystem,
     Vehicle,
     VehicleCategory,
+    connector_component,
 )
 from rating.model.builders import build_truss, counters_not_built
 from rating.units import si_text
@@ -994,8 +996,20 @@ class _Reading:
             for n in names:
                 if n == raw or n.lower() == raw.lower():
                     return n
+            joined = connector_component(section.connectors, raw)
+            if joined is not None:
+                return joined
+            words = [w for ws in CONNECTOR_WORDS.values() for w in ws]
+            if raw.strip().lower() in words:
+                has = ("no connectors recorded" if section.connectors is None else
+                       f"its parts are joined by {section.connectors.kind.value}")
+                self.log.error(where, f"member {member} has no {raw.strip().lower()} ({has} "
+                               "on the Sections sheet)")
+                return None
+            kind = section.connectors.kind if section.connectors is not None else None
+            also = (f", or {CONNECTOR_WORDS[kind][0]!r}" if kind in CONNECTOR_WORDS else "")
             self.log.error(where, f"member {member} has no part named {raw!r}; its parts are "
-                           f"{_listing(names)} (or 'all')")
+                           f"{_listing(names)} (or 'all'{also})")
             return None
         self.log.error(where, f"member {member} is a rolled shape without parts; the component "
                        "must be 'all'")
@@ -1057,7 +1071,8 @@ class _Reading:
                     continue
                 component = comp
                 self._check_region(r, member, design.section, region)
-                if remaining is not None and remaining > 0:
+                if remaining is not None and remaining > 0 and component not in (
+                        ws[0] for ws in CONNECTOR_WORDS.values()):
                     self._check_remaining(r, member, design.section, component, region,
                                           remaining, loss)
             key = (member, component, region, station)

@@ -544,8 +544,9 @@ MATERIALS = TableSheet(
 FINDINGS = TableSheet(
     "Findings", "Inspection findings",
     "One row per finding. Component: bar 1, bar 2 (eyebars), rod 1 (rods), a part name "
-    "(built-up) or all. Give the remaining thickness or the percent loss (both only if they "
-    "agree).",
+    "(built-up), lacing or battens (a built-up member's: a bar state of loose, missing, broken "
+    "or bent rates the member without them) or all. Give the remaining thickness or the "
+    "percent loss (both only if they agree).",
     (
         _c("member", "Member", Kind.LABEL, required=True, list_source=MEMBER_LIST, width=10),
         _c("component", "Component", Kind.LABEL, blank_means="all"),

@@ -23,6 +23,7 @@ from rating.model.loads import DeadLoadBasis, DeadLoadItem, DeadLoadKind
 from rating.model.materials import Material, MaterialKind
 from rating.model.pins import PackingItem, Pin
 from rating.model.sections import (
+    CONNECTOR_WORDS,
     AnglePart,
     BuiltUpSection,
     ChannelPart,
@@ -37,15 +38,17 @@ from rating.model.sections import (
     RodShape,
     RolledShape,
     Section,
+    connector_component,
 )
 from rating.model.vehicles import AxleSpacing, Vehicle, VehicleCategory
 
 __all__ = [
-    "AnglePart", "AxleSpacing", "BarState", "Bridge", "BridgeInfo", "BuiltUpSection",
+    "CONNECTOR_WORDS", "AnglePart", "AxleSpacing", "BarState", "Bridge", "BridgeInfo",
+    "BuiltUpSection",
     "ChannelPart", "ChannelToes", "ConnectorKind", "Connectors", "CrossSection",
     "DeadLoadBasis", "DeadLoadItem", "DeadLoadKind", "DeckPosition", "EyebarSet", "Finding",
     "FindingRegion", "Joint", "Material", "MaterialKind", "Member", "MemberDesign",
     "MemberRole", "PackingItem", "Part", "Pin", "PlatePart", "RatingSettings", "RidingSurface",
     "RodEnd", "RodSet", "RodShape", "RolledShape", "Section", "Support", "SupportKind",
-    "TrussGeometry", "UnitSystem", "Vehicle", "VehicleCategory",
+    "TrussGeometry", "UnitSystem", "Vehicle", "VehicleCategory", "connector_component",
 ]

@@ -130,6 +130,22 @@ class Connectors:
     snug_tight: bool = True
 
 
+CONNECTOR_WORDS = {ConnectorKind.LACING: ("lacing", "lacing bars", "lacing bar"),
+                   ConnectorKind.BATTEN: ("battens", "batten", "batten plates",
+                                          "batten plate")}
+"""The words a finding may use for a built-up member's lacing or battens (the first is the
+name a finding keeps)."""
+
+
+def connector_component(connectors: Connectors | None, name: str) -> str | None:
+    """The finding component for ``name`` if it names these connectors ("lacing" or
+    "battens"), else None (a part's name, or connectors the member does not have)."""
+    if connectors is None:
+        return None
+    words = CONNECTOR_WORDS.get(connectors.kind, ())
+    return words[0] if name.strip().lower() in words else None
+
+
 @dataclass(frozen=True)
 class BuiltUpSection:
     """Plates, channels and angles riveted together (laced or battened posts and chords).

@@ -221,3 +221,29 @@ def test_a_chord_without_its_cover_plate_is_two_laced_channels():
     assert r.compression[0].properties.symmetry() == "doubly symmetric"
     assert c.torsional_unchecked == ""
     assert not [a for a in c.assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
+
+
+def test_lacing_recorded_out_of_action_leaves_the_chord_open():
+    """A lacing bar recorded missing (component 'lacing' on the Findings sheet): the chord is
+    rated as the open section it then is (its flexural-torsional buckling governs, as for the
+    solid member) with twice the connector spacing in its modified slenderness; nothing is
+    said of the lacing closing it."""
+    from rating.model import BarState, Finding
+
+    laced = BuiltUpSection(parts=CHANNELS + (COVER,),
+                           connectors=Connectors(ConnectorKind.LACING, spacing_in=15.0))
+    out = Finding("M", "lacing", station_ft=6.0, bar_state=BarState.MISSING,
+                  where="Findings!B9")
+    r = section_properties(laced, member="M", length_ft=18.0, findings=(out,))
+    assert r.connectors_defective == (out,)
+    assert any("its lacing is recorded missing (Findings!B9)" in w for w in r.warnings)
+    c = compression_checks(r, STEEL, K=0.875, length_ft=18.0, connectors=laced.connectors)
+    (chk,) = c.checks
+    assert chk.name == "compression: flexural-torsional buckling"
+    assert c.torsional_unchecked == ""
+    assert not [w for w in c.warnings if "the rating takes the lacing as closing" in w]
+    assert any("a = 30 in" in a for a in c.assumptions)
+    # sound lacing: closed, flexural buckling, higher
+    _, sound = run(laced)
+    assert sound.checks[0].name == "compression: flexural buckling"
+    assert chk.R_n_kip < sound.checks[0].R_n_kip

@@ -440,3 +440,18 @@ def test_the_symmetry_of_a_section_from_its_rectangles():
     assert area_properties(angle).symmetry() == "unsymmetric"
     p = area_properties(tee)
     assert (p.x_left_in, p.x_right_in, p.y_top_in, p.y_bottom_in) == (-4.0, 4.0, 0.5, -8.5)
+
+
+def test_parts_that_share_metal_are_refused():
+    """A cover plate drawn into the channels' flanges (its position mistyped) would count the
+    shared metal twice: refused, naming both parts and the overlap."""
+    channels = (ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
+                ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT))
+    sunk = BuiltUpSection(parts=channels + (PlatePart("cover", 14.0, 0.5, y_in=5.0),))
+    with pytest.raises(InputError) as ei:
+        section_properties(sunk, member="U1U2", where="BuiltUp!B6")
+    assert ei.value.where == "BuiltUp!B6"
+    assert "parts C1 (web) and cover (plate) overlap by 0.38 in x 0.25 in" in str(ei.value)
+    # on the flanges, touching them: accepted
+    on = BuiltUpSection(parts=channels + (PlatePart("cover", 14.0, 0.5, y_in=5.25),))
+    assert section_properties(on, member="U1U2").as_built.A_g_in2 > 0
