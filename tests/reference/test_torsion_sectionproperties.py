@@ -127,3 +127,49 @@ def test_a_single_angle():
     ang = AnglePart("A", 4.0, 3.0, 0.5, x_in=0.0, y_in=0.0, x_sign=1, y_sign=1)
     geom = sp_lib.angle_section(d=3.0, b=4.0, t=0.5, r_r=0, r_t=0, n_r=1)
     assert_matches(part_rectangles(ang), reference(geom))
+
+
+def _random_chords(n: int, seed: int = 7):
+    """Chords of two channels (toes out or in) and a cover plate, some with a second cover
+    plate (a closed box) or one web thinned from its free face: period-like proportions."""
+    import random
+
+    rnd = random.Random(seed)
+    for _ in range(n):
+        d = rnd.choice([7.0, 8.0, 10.0, 12.0, 15.0])
+        bf, tw, tf = rnd.uniform(2.0, 3.5), rnd.uniform(0.2, 0.6), rnd.uniform(0.3, 0.65)
+        gap, out = rnd.uniform(6.0, 14.0), rnd.random() < 0.7
+        boxes = []  # (x0, x1, y0, y1)
+        for s in (-1, 1):
+            x = s * gap / 2
+            web = sorted((x, x + s * tw)) if out else sorted((x, x - s * tw))
+            fl = sorted((x + s * tw, x + s * bf)) if out else sorted((x - s * tw, x - s * bf))
+            boxes += [(*web, -d / 2, d / 2), (*fl, d / 2 - tf, d / 2),
+                      (*fl, -d / 2, -d / 2 + tf)]
+        span = max(b[1] for b in boxes) - min(b[0] for b in boxes)
+        w, t = rnd.uniform(1.0, 1.15) * span, rnd.uniform(0.25, 0.6)
+        kind = rnd.choice(["cover", "two covers", "thinned web"])
+        boxes.append((-w / 2, w / 2, d / 2, d / 2 + t))
+        if kind == "two covers":
+            boxes.append((-w / 2, w / 2, -d / 2 - t, -d / 2))
+        if kind == "thinned web":
+            x0, x1, y0, y1 = boxes[0]
+            left = rnd.uniform(0.5, 0.9) * (x1 - x0)
+            boxes[0] = (x0, x0 + left, y0, y1) if out else (x1 - left, x1, y0, y1)
+        yield [tuple(round(v, 4) for v in b) for b in boxes]
+
+
+@pytest.mark.parametrize("boxes", list(_random_chords(6)))
+def test_random_chords(boxes):
+    """Seeded random chords (40 of them checked once, 2026-12-05: J within 0.4 %, C_w within
+    0.5 %, the shear centre within 0.001 in of sectionproperties at a 0.02 in mesh)."""
+    from rating.capacity.sections import Rect
+
+    rects = [Rect(f"p{k}", "e", (x0 + x1) / 2, (y0 + y1) / 2, x1 - x0, y1 - y0,
+                  x1 - x0 < y1 - y0, max(x1 - x0, y1 - y0), min(x1 - x0, y1 - y0), True)
+             for k, (x0, x1, y0, y1) in enumerate(boxes)]
+    geom = None
+    for x0, x1, y0, y1 in boxes:
+        r = rect(x1 - x0, y1 - y0, (x0 + x1) / 2, (y0 + y1) / 2)
+        geom = r if geom is None else geom + r
+    assert_matches(rects, reference(geom, mesh=0.05))
