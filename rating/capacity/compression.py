@@ -81,7 +81,7 @@ G_OVER_E = 0.385
 from memory]"""
 K_Z = 1.0
 """Effective length factor for torsional buckling of a truss member between panel points:
-pins and gusset-less joints do not hold its ends against warping (common practice)."""
+its pins hold its ends against twisting but not against warping (common practice)."""
 
 
 def _euler_kip(E: float, A_g: float, KL_r: float) -> float:
@@ -348,9 +348,12 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                        limit_secondary: float = 140.0,
                        KL_out_of_plane_ft: float | None = None,
                        torsion_found: dict | None = None) -> CompressionResult:
-    """Flexural buckling of the member at its governing location, or zero if tension-only.
+    """Flexural buckling of the member at its governing location, or zero if tension-only;
+    for a built-up member also torsional and flexural-torsional buckling, which replaces it
+    where lower (an open section; see ``_torsional_notes`` for a laced or battened one).
 
-    AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [V].
+    AASHTO LRFD 6.9.4.1.1 with Q per 6.9.4.2 [value from memory]; Chen Sec. 31.9 [V];
+    AASHTO LRFD 6.9.4.1.3 [value from memory].
 
     Args:
         K: effective length factor. length_ft: panel-point to panel-point length, ft.
@@ -548,11 +551,11 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
                 f"member {m}: the rating takes the {closed_by} as closing the section, which "
                 f"then buckles in flexure (P_n = {Pn_flexural:.1f} kip; common practice for "
                 f"sound {closed_by}, which carries the shear across the open face). Open, "
-                "the section would buckle in flexural-torsional buckling (AASHTO LRFD "
-                f"6.9.4.1.3 [value from memory]) "
-                f"{100.0 * (1.0 - Pn_t[k_t] / Pn_flexural):.0f} % lower: {found}. Loose, "
-                f"broken or missing {closed_by} leaves it open: the engineer judges the "
-                f"{closed_by} from the inspection")
+                f"the section would buckle in {mode} buckling (AASHTO LRFD 6.9.4.1.3 [value "
+                f"from memory]) {100.0 * (1.0 - Pn_t[k_t] / Pn_flexural):.0f} % lower: "
+                f"{found}. Loose, broken, missing or bent {closed_by} leaves it open: the "
+                f"engineer judges the {closed_by} from the inspection, and records it so on "
+                f"the Findings sheet (component '{closed_by}') to rate the member open")
         else:
             assumptions.append(f"member {m}: flexural-torsional buckling of the section open "
                                f"on its {closed_by} face (AASHTO LRFD 6.9.4.1.3 [value from "

@@ -956,7 +956,7 @@ def _connector_notes(section: Section, member: str, joined: Sequence[Finding],
             "in torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
             "memory]) and with twice the connector spacing in its modified slenderness (one "
             "connection lost; where more are out, give the distance between sound "
-            "connectors as the spacing on the Sections sheet) [common practice]")
+            "connectors as the spacing on the BuiltUp sheet) [common practice]")
     for f in joined:
         if f.pack_rust:
             warnings.append(f"member {member}: pack rust recorded ({describe_finding(f)}); "

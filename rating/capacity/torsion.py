@@ -16,13 +16,15 @@ displacement form of the warping problem [value from memory]). From omega:
   the shear centre, of zero mean.
 
 The section must be one connected region: parts that only lacing or battens join are open
-with respect to each other, and a section like that is not handled (None, with the reason).
-The riveted faces between parts are taken as continuous (common practice for a riveted
-built-up member); lacing and battens are not taken as closing the section (an open section
-has the lower J: conservative).
+with respect to each other, and for a section like that the reason is returned instead of
+properties. The riveted faces between parts are taken as continuous (common practice for a
+riveted built-up member). Lacing and battens are not in the analysis: it is of the section
+the rectangles make (``rating.capacity.compression`` decides what a laced section is rated
+as); a closed cell (cover plates on both sides) is found as such.
 
-Checked against an independent finite-element library (sectionproperties) and thin-walled
-closed forms in ``tests/capacity/test_torsion.py``.
+Checked against thin-walled closed forms in ``tests/capacity/test_torsion.py`` and against an
+independent finite-element library (sectionproperties) in
+``tests/reference/test_torsion_sectionproperties.py``.
 """
 
 from __future__ import annotations

@@ -1004,7 +1004,7 @@ class _Reading:
                 has = ("no connectors recorded" if section.connectors is None else
                        f"its parts are joined by {section.connectors.kind.value}")
                 self.log.error(where, f"member {member} has no {raw.strip().lower()} ({has} "
-                               "on the Sections sheet)")
+                               "on the BuiltUp sheet)")
                 return None
             kind = section.connectors.kind if section.connectors is not None else None
             also = (f", or {CONNECTOR_WORDS[kind][0]!r}" if kind in CONNECTOR_WORDS else "")

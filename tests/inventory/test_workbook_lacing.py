@@ -35,9 +35,9 @@ def test_connectors_a_member_does_not_have_are_refused_at_their_cell(tmp_path: P
         {"member": "U1U2", "component": "battens", "bar_state": "loose"},
         {"member": "L1L2", "component": "lacing", "bar_state": "loose"}))
     find(r, cell("Findings", 0, "component"),
-         "member L0U1 has no lacing (its parts are joined by batten on the Sections sheet)")
+         "member L0U1 has no lacing (its parts are joined by batten on the BuiltUp sheet)")
     find(r, cell("Findings", 1, "component"),
-         "member U1U2 has no battens (its parts are joined by lacing on the Sections sheet)")
+         "member U1U2 has no battens (its parts are joined by lacing on the BuiltUp sheet)")
     find(r, cell("Findings", 2, "component"), "component 'lacing' of member L1L2 is not "
          "understood")
     # a part name that is not there lists the lacing as a component it could name
