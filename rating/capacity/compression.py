@@ -138,9 +138,10 @@ def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: flo
     P_ez = (math.pi ** 2 * E * tp.C_w_in6 / KL_z_in ** 2 + G * tp.J_in4) / r_o2
     x_o, y_o = tp.x_o_in, tp.y_o_in
     coupled = math.hypot(x_o, y_o) > 1e-6 * math.sqrt(r_o2)
-    if not coupled and tp.I_xy_in4 == 0.0:
+    if not coupled and tp.area.I_xy_in4 == 0.0:
         return min(P_ex, P_ey, P_ez), "torsional"
-    c = tp.I_xy_in4 * math.sqrt(P_ex * P_ey / (tp.I_x_in4 * tp.I_y_in4))
+    area = tp.area
+    c = area.I_xy_in4 * math.sqrt(P_ex * P_ey / (area.I_x_in4 * area.I_y_in4))
     stiffness = np.array([[P_ey, c, 0.0], [c, P_ex, 0.0], [0.0, 0.0, r_o2 * P_ez]])
     geometric = np.array([[1.0, 0.0, -y_o], [0.0, 1.0, x_o], [-y_o, x_o, r_o2]])
     # the generalized symmetric problem through the Cholesky factor of the (positive

@@ -24,7 +24,7 @@ as); a closed cell (cover plates on both sides) is found as such.
 
 Checked against thin-walled closed forms in ``tests/capacity/test_torsion.py`` and against an
 independent finite-element library (sectionproperties) in
-``tests/reference/test_torsion_sectionproperties.py``.
+``tests/reference/test_sections_sectionproperties.py``.
 """
 
 from __future__ import annotations
@@ -35,7 +35,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from rating.capacity.sections import Rect
+from rating.capacity.sections import AreaProperties, Rect
 
 CELL_MIN_IN = 0.1
 """Element side next to every rectangle edge, in (corners and junctions, where the warping
@@ -69,20 +69,15 @@ _K_ETA = _DN_DETA.T @ _DN_DETA
 
 @dataclass(frozen=True)
 class TorsionProperties:
-    """Torsion and warping properties of a section (in, in^2, in^4, in^6).
+    """Torsion and warping properties of a section (in, in^4, in^6).
 
-    ``x_c_in``/``y_c_in`` the centroid and ``I_x_in4``/``I_y_in4``/``I_xy_in4`` the centroidal
-    second moments of the meshed region (exact for rectangles); ``x_s_in``/``y_s_in`` the
-    shear centre, in the section's coordinates; ``J_in4`` the St Venant torsional constant;
-    ``C_w_in6`` the warping constant; ``elements`` the number of finite elements used.
+    ``area``: area, centroid and centroidal second moments of the meshed region (exact for
+    rectangles); ``x_s_in``/``y_s_in`` the shear centre, in the section's coordinates;
+    ``J_in4`` the St Venant torsional constant; ``C_w_in6`` the warping constant;
+    ``elements`` the number of finite elements used.
     """
 
-    A_in2: float
-    x_c_in: float
-    y_c_in: float
-    I_x_in4: float
-    I_y_in4: float
-    I_xy_in4: float
+    area: AreaProperties
     J_in4: float
     x_s_in: float
     y_s_in: float
@@ -92,19 +87,19 @@ class TorsionProperties:
     @property
     def x_o_in(self) -> float:
         """Shear centre from the centroid along x (LRFD 6.9.4.1.3's x_o)."""
-        return self.x_s_in - self.x_c_in
+        return self.x_s_in - self.area.x_c_in
 
     @property
     def y_o_in(self) -> float:
         """Shear centre from the centroid along y (LRFD 6.9.4.1.3's y_o)."""
-        return self.y_s_in - self.y_c_in
+        return self.y_s_in - self.area.y_c_in
 
     @property
     def r_o_in(self) -> float:
         """Polar radius of gyration about the shear centre, r_o^2 = x_o^2 + y_o^2 +
         (I_x + I_y)/A_g (AASHTO LRFD 6.9.4.1.3 [value from memory])."""
         return math.sqrt(self.x_o_in ** 2 + self.y_o_in ** 2
-                         + (self.I_x_in4 + self.I_y_in4) / self.A_in2)
+                         + (self.area.I_x_in4 + self.area.I_y_in4) / self.area.A_in2)
 
 
 def _graded(a: float, b: float, h_min: float) -> np.ndarray:
@@ -273,5 +268,6 @@ def torsion_properties(rects: Sequence[Rect]) -> TorsionProperties | str:
     ws = wq - b * gx + a * gy
     ws -= float(np.sum(ws * w)) / A
     C_w = float(np.sum(ws * ws * w))
-    return TorsionProperties(A, xc, yc, I_x, I_y, I_xy, max(J, 0.0), xc + a, yc + b,
-                             max(C_w, 0.0), ne)
+    area = AreaProperties(A, xc, yc, I_x, I_y, I_xy, float(ys[iy + 1].max()),
+                          float(ys[iy].min()), float(xs[ix].min()), float(xs[ix + 1].max()))
+    return TorsionProperties(area, max(J, 0.0), xc + a, yc + b, max(C_w, 0.0), ne)

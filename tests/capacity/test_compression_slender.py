@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 
 import pytest
+from capacity_helpers import FY, STEEL, E
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -27,13 +28,9 @@ from rating.model import (
     ChannelToes,
     ConnectorKind,
     Connectors,
-    Material,
-    MaterialKind,
     PlatePart,
 )
 
-E, FY = 29000.0, 26.0
-STEEL = Material(MaterialKind.STEEL, F_y=FY, F_u=52.0)
 CHANNELS = (ChannelPart("C1", 10.0, 2.6, 0.38, 0.44, x_in=-4.0, toes=ChannelToes.LEFT),
             ChannelPart("C2", 10.0, 2.6, 0.38, 0.44, x_in=4.0, toes=ChannelToes.RIGHT))
 SOLID = Connectors(ConnectorKind.SOLID)

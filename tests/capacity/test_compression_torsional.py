@@ -4,7 +4,7 @@ Sources: AASHTO LRFD 6.9.4.1.3, Eqs. 6.9.4.1.3-1 (doubly symmetric), -2 (singly 
 and -3 (unsymmetric, the cubic), with P_n from Eqs. 6.9.4.1.1-1 and -2 [value from memory],
 written out here independently of rating.capacity.compression's eigenvalue form. The
 section's J, C_w and shear centre are checked against sectionproperties in
-tests/reference/test_torsion_sectionproperties.py.
+tests/reference/test_sections_sectionproperties.py.
 """
 
 from __future__ import annotations
@@ -14,6 +14,7 @@ import re
 
 import numpy as np
 import pytest
+from capacity_helpers import FY, LACED, SOLID, STEEL, E, chord
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -23,27 +24,16 @@ from rating.capacity.compression import (
     compression_checks,
     torsional_buckling_load,
 )
-from rating.capacity.sections import section_properties
+from rating.capacity.sections import AreaProperties, section_properties
 from rating.capacity.torsion import TorsionProperties, torsion_properties
-from rating.model import (
-    BuiltUpSection,
-    ChannelPart,
-    ChannelToes,
-    ConnectorKind,
-    Connectors,
-    Material,
-    MaterialKind,
-    PlatePart,
-)
+from rating.model import PlatePart
 
-E, FY = 29000.0, 26.0
 G = G_OVER_E * E
-STEEL = Material(MaterialKind.STEEL, F_y=FY, F_u=52.0)
 
 
 def props(A=13.0, I_x=212.0, I_y=382.0, I_xy=0.0, J=0.78, C_w=4000.0, x_o=0.0,
           y_o=6.7) -> TorsionProperties:
-    return TorsionProperties(A, 0.0, 0.0, I_x, I_y, I_xy, J, x_o, y_o, C_w, 0)
+    return TorsionProperties(AreaProperties(A, 0.0, 0.0, I_x, I_y, I_xy), J, x_o, y_o, C_w, 0)
 
 
 def P_ez(tp: TorsionProperties, KL_z: float) -> float:
@@ -121,13 +111,9 @@ def test_axes_that_are_not_principal_give_the_same_load(I_1, I_2, theta, u, v, J
     assert got == pytest.approx(want, rel=1e-7)
 
 
-CHANNELS = (ChannelPart("C-left", 10.0, 2.6, 0.24, 0.436, x_in=-5.125, toes=ChannelToes.LEFT),
-            ChannelPart("C-right", 10.0, 2.6, 0.24, 0.436, x_in=5.125,
-                        toes=ChannelToes.RIGHT))
-COVER = PlatePart("cover", 14.0, 0.3125, y_in=5.15625)
 
 
-def run(section: BuiltUpSection, L: float = 18.0):
+def run(section, L: float = 18.0):
     r = section_properties(section, member="M", length_ft=L)
     return r, compression_checks(r, STEEL, K=0.875, length_ft=L,
                                  connectors=section.connectors)
@@ -137,8 +123,7 @@ def test_an_open_chord_without_lacing_buckles_in_flexure_and_torsion():
     """Two channels and a cover plate with nothing across the open face (a solid member:
     no lacing or battens): the open section's flexural-torsional buckling governs, by hand
     from Eq. 6.9.4.1.3-2 and Eqs. 6.9.4.1.1-1/-2."""
-    section = BuiltUpSection(parts=CHANNELS + (COVER,), connectors=Connectors(
-        ConnectorKind.SOLID))
+    section = chord(SOLID)
     r, c = run(section)
     s = r.compression[0]
     tp = torsion_properties(s.torsion_rects)
@@ -169,10 +154,7 @@ def test_a_laced_chord_is_taken_as_closed_and_its_open_form_said():
     """The same chord with lacing across its open face: the rating takes the lacing as
     closing the section (flexural buckling governs), and a warning gives the open section's
     lower resistance for the engineer's judgement of the lacing."""
-    laced = BuiltUpSection(parts=CHANNELS + (COVER,),
-                           connectors=Connectors(ConnectorKind.LACING, spacing_in=15.0))
-    solid = BuiltUpSection(parts=CHANNELS + (COVER,),
-                           connectors=Connectors(ConnectorKind.SOLID))
+    laced, solid = chord(LACED), chord(SOLID)
     _, c = run(laced)
     (chk,) = c.checks
     assert chk.name == "compression: flexural buckling"
@@ -189,8 +171,7 @@ def test_a_laced_chord_is_taken_as_closed_and_its_open_form_said():
 
 def test_a_section_whose_parts_do_not_touch_is_named_for_the_engineer():
     # the cover plate drawn 1/2 in above the flanges: no single section to analyse
-    apart = BuiltUpSection(parts=CHANNELS + (PlatePart("cover", 14.0, 0.3125, y_in=5.65625),),
-                           connectors=Connectors(ConnectorKind.SOLID))
+    apart = chord(SOLID, PlatePart("cover", 14.0, 0.3125, y_in=5.65625))
     _, c = run(apart)
     assert c.checks[0].name == "compression: flexural buckling"
     assert c.torsional_unchecked == "singly symmetric"
@@ -201,8 +182,7 @@ def test_a_section_whose_parts_do_not_touch_is_named_for_the_engineer():
 
 def test_two_laced_channels_say_nothing_of_torsion():
     # doubly symmetric, joined by lacing alone: nothing to check, nothing to say
-    _, c = run(BuiltUpSection(parts=CHANNELS, connectors=Connectors(ConnectorKind.LACING,
-                                                                    spacing_in=15.0)))
+    _, c = run(chord(LACED, None))
     assert c.torsional_unchecked == ""
     assert not [a for a in c.assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
     assert not [w for w in c.warnings if "6.9.4.1.3" in w]
@@ -213,11 +193,10 @@ def test_a_chord_without_its_cover_plate_is_two_laced_channels():
     is two laced channels, doubly symmetric, with nothing to say of torsion."""
     from rating.model import BarState, Finding
 
-    chord = BuiltUpSection(parts=CHANNELS + (COVER,),
-                           connectors=Connectors(ConnectorKind.LACING, spacing_in=15.0))
-    r = section_properties(chord, member="M", length_ft=18.0,
+    laced = chord(LACED)
+    r = section_properties(laced, member="M", length_ft=18.0,
                            findings=(Finding("M", "cover", bar_state=BarState.LOOSE),))
-    c = compression_checks(r, STEEL, K=0.875, length_ft=18.0, connectors=chord.connectors)
+    c = compression_checks(r, STEEL, K=0.875, length_ft=18.0, connectors=laced.connectors)
     assert r.compression[0].properties.symmetry() == "doubly symmetric"
     assert c.torsional_unchecked == ""
     assert not [a for a in c.assumptions if "6.9.4.1.3" in a and a.startswith("member M")]
@@ -230,8 +209,7 @@ def test_lacing_recorded_out_of_action_leaves_the_chord_open():
     said of the lacing closing it."""
     from rating.model import BarState, Finding
 
-    laced = BuiltUpSection(parts=CHANNELS + (COVER,),
-                           connectors=Connectors(ConnectorKind.LACING, spacing_in=15.0))
+    laced = chord(LACED)
     out = Finding("M", "lacing", station_ft=6.0, bar_state=BarState.MISSING,
                   where="Findings!B9")
     r = section_properties(laced, member="M", length_ft=18.0, findings=(out,))
