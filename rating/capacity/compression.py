@@ -548,15 +548,21 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
                                f"{found}")
         elif Pn_t[k_t] < Pn_flexural * (1.0 - 1e-12):
             flag = "laced" if closed_by == "lacing" else "battened"
+            # the same words for every such member (the report lists them once); the
+            # numbers in the member's own note
             warnings.append(
                 f"member {m}: the rating takes the {closed_by} as closing the section, which "
-                f"then buckles in flexure (P_n = {Pn_flexural:.1f} kip; common practice for "
-                f"sound {closed_by}, which carries the shear across the open face). Open, "
-                f"the section would buckle in {mode} buckling (AASHTO LRFD 6.9.4.1.3 [value "
-                f"from memory]) {100.0 * (1.0 - Pn_t[k_t] / Pn_flexural):.0f} % lower: "
-                f"{found}. Loose, broken, missing or bent {closed_by} leaves it open: the "
-                f"engineer judges the {closed_by} from the inspection, and records it so on "
-                f"the Findings sheet (component '{closed_by}') to rate the member open")
+                f"then buckles in flexure (common practice for sound {closed_by}, which "
+                "carries the shear across the open face); open, the section would buckle "
+                "lower, in torsional or flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 "
+                "[value from memory]; the member's notes give both resistances). Loose, "
+                f"broken, missing or bent {closed_by} leaves it open: the engineer judges the "
+                f"{closed_by} from the inspection, and records it so on the Findings sheet "
+                f"(component '{closed_by}') to rate the member open")
+            assumptions.append(
+                f"member {m}: with the {closed_by} closing the section, flexural buckling "
+                f"P_n = {Pn_flexural:.1f} kip; open, {mode} buckling "
+                f"{100.0 * (1.0 - Pn_t[k_t] / Pn_flexural):.0f} % lower, {found}")
         else:
             assumptions.append(f"member {m}: flexural-torsional buckling of the section open "
                                f"on its {closed_by} face (AASHTO LRFD 6.9.4.1.3 [value from "
