@@ -153,3 +153,18 @@ def test_a_mirrored_section_has_the_mirrored_shear_centre(shape):
     if shape[4] == 0.0:  # a symmetric tee: its shear centre on its axis
         assert abs(a.x_s_in) < 1e-6
     assert math.isfinite(a.r_o_in) and a.J_in4 > 0.0
+
+
+@settings(max_examples=200, deadline=None)
+@given(a=st.floats(-50.0, 50.0), length=st.floats(1e-3, 40.0), h_min=st.floats(0.01, 0.3))
+def test_graded_lines_cover_the_interval_without_slivers(a, length, h_min):
+    """The grid lines of one interval rise strictly to its end; no element is thinner than
+    half the least side asked for (or the whole interval), none wider than the largest."""
+    import numpy as np
+
+    b = a + length
+    lines = torsion._graded(a, b, h_min)
+    sides = np.diff(np.concatenate([[a], lines]))
+    assert lines[-1] == b and np.all(sides > 0)
+    assert sides.min() >= min(0.5 * h_min, length) * (1 - 1e-9)
+    assert sides.max() <= max(torsion.CELL_MAX_IN, h_min) * (1 + 1e-9)
