@@ -465,3 +465,42 @@ def test_an_estimated_loss_is_marked_in_the_findings_echo(results_us: RatingResu
     assert body.count(" estimated</td>") == 1
     assert '"estimated":true' in results_json(said)
     assert " estimated</td>" not in render_report(results_us)
+
+
+def test_a_flexural_torsional_check_is_explained_under_the_member_table() -> None:
+    """Posts of two channels and one plate with nothing across the open side (invented, the
+    Pratt sample's verticals made so): their flexural-torsional buckling governs, and the
+    note under the member table says what it is and where its terms are."""
+    from dataclasses import replace
+    from pathlib import Path
+
+    from rating.inventory.reader import read_workbook
+    from rating.lrfr.engine import rate_bridge
+    from rating.model import (
+        BuiltUpSection,
+        ChannelPart,
+        ConnectorKind,
+        Connectors,
+        MemberRole,
+        PlatePart,
+    )
+    from rating.results_build import build_results
+
+    root = Path(__file__).resolve().parents[2]
+    b = read_workbook(root / "sample_inventory" / "tc0417_pratt_1898.xlsx").bridge
+
+    def post(section: BuiltUpSection) -> BuiltUpSection:
+        ch = tuple(p for p in section.parts if isinstance(p, ChannelPart))
+        top = max(p.y_in + p.depth_in / 2 for p in ch)
+        return replace(section, parts=ch + (PlatePart("plate", 12.0, 0.25, y_in=top + 0.125),),
+                       connectors=Connectors(ConnectorKind.SOLID))
+
+    b = replace(b, member_designs=tuple(
+        replace(d, section=post(d.section)) if b.geometry.member(d.member).role
+        is MemberRole.VERTICAL and isinstance(d.section, BuiltUpSection) else d
+        for d in b.member_designs))
+    r = rate_bridge(b, ["TYPE-3"], what_if=False)
+    assert r.ratings[("L2U2", "TYPE-3")].check == "compression: flexural-torsional buckling"
+    html = render_report(build_results(r))
+    assert "the member&rsquo;s open section twists as it buckles (AASHTO LRFD 6.9.4.1.3)" \
+        in html
