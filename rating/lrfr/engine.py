@@ -580,10 +580,11 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
     if open_:
         said.append(f"{OPEN_SECTION}: member(s) {', '.join(open_)} set a posting, closure or "
                     "barring in compression with their lacing or battens taken as closing "
-                    "the section; open, the section would buckle lower in flexural-torsional "
-                    "buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]; the member's "
-                    "warning gives the resistance): the engineer should confirm the lacing "
-                    "or battens from the inspection before the decision")
+                    "the section; open, the section would buckle lower, in torsional or "
+                    "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]; "
+                    "the member's notes give both resistances): the engineer should confirm "
+                    "the lacing or battens from the inspection before the decision (recorded "
+                    "out of action on the Findings sheet, they are rated open)")
     return said
 
 
