@@ -92,20 +92,6 @@ def _euler_kip(E: float, A_g: float, KL_r: float) -> float:
     return math.pi ** 2 * E * A_g / KL_r ** 2 if KL_r > 0 else math.inf
 
 
-def nominal_from_elastic(P_o: float, P_e: float) -> float:
-    """P_n from the squash load and an elastic buckling load, kip.
-
-    AASHTO LRFD 6.9.4.1.1, Eqs. 6.9.4.1.1-1 and -2 (the same forms as
-    ``nominal_compressive_resistance``) [value from memory].
-    """
-    if P_o <= 0.0:
-        return 0.0
-    if not P_e > 0.0:
-        return 0.0
-    ratio = P_o / P_e
-    return 0.658 ** ratio * P_o if ratio <= 1.0 / 0.44 else 0.877 * P_e
-
-
 def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: float,
                             P_ey: float, KL_z_in: float) -> tuple[float, str]:
     """The elastic torsional or flexural-torsional buckling load P_e, kip, and its mode.
@@ -462,9 +448,12 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         for i, s in enumerate(C):
             torsional.append(_torsional_at(s, E, _euler_kip(E, A[i], klr_x[i]),
                                            _euler_kip(E, A[i], klr_y[i]), K_Z * L_in, found))
-    # the torsional mode's resistance at each location where it was found
-    Pn_t = [nominal_from_elastic(Q[i] * Fy * A[i], t[0]) if not isinstance(t, str)
-            else math.inf for i, t in enumerate(torsional)]
+    # the torsional mode's resistance at each location where it was found, on the same
+    # column curve: the slenderness whose Euler load is that mode's P_e
+    Pn_t = [float(nominal_compressive_resistance(A[i], Fy, E, math.pi * math.sqrt(
+                E * A[i] / t[0]), Q[i])) if not isinstance(t, str) and t[0] > 0.0
+            else (0.0 if not isinstance(t, str) else math.inf)
+            for i, t in enumerate(torsional)]
     k_t = min(range(len(Pn_t)), key=Pn_t.__getitem__) if Pn_t else -1
     if Q_s[k] < 1.0:
         q_txt = f"Q = {Q[k]:.3f}" if Q_a[k] == 1.0 else f"Q_s = {Q_s[k]:.3f}"

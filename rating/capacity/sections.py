@@ -209,7 +209,7 @@ def area_properties(rects: Sequence[Rect]) -> AreaProperties:
                           max(r.cx_in + 0.5 * r.bx_in for r in rects))
 
 
-def _extent(r: Rect) -> tuple[float, float, float, float]:
+def rect_extent(r: Rect) -> tuple[float, float, float, float]:
     """(x low, x high, y low, y high) of a rectangle."""
     return (r.cx_in - 0.5 * r.bx_in, r.cx_in + 0.5 * r.bx_in,
             r.cy_in - 0.5 * r.by_in, r.cy_in + 0.5 * r.by_in)
@@ -218,12 +218,12 @@ def _extent(r: Rect) -> tuple[float, float, float, float]:
 def touched_faces(r: Rect, rects: Sequence[Rect], tol_in: float = 1e-6) -> tuple[bool, bool]:
     """Whether another of ``rects`` shares a stretch of ``r``'s low and of its high
     thickness face (riveted to it, or the same part's next element), in that order."""
-    x0, x1, y0, y1 = _extent(r)
+    x0, x1, y0, y1 = rect_extent(r)
     low = high = False
     for o in rects:
         if o is r:
             continue
-        a0, a1, b0, b1 = _extent(o)
+        a0, a1, b0, b1 = rect_extent(o)
         if r.thick_along_x:
             if min(y1, b1) - max(y0, b0) <= tol_in:
                 continue
@@ -447,7 +447,7 @@ def _no_overlap(rects: Sequence[Rect], member: str, where: str,
                 tol_in: float = 1e-3) -> None:
     """Two parts cannot share metal: an overlap (a position or a leg mistyped) would count
     its area twice, so it is refused, naming the parts and how far they overlap."""
-    ext = [_extent(r) for r in rects]
+    ext = [rect_extent(r) for r in rects]
     for i, (a0, a1, b0, b1) in enumerate(ext):
         for j in range(i + 1, len(ext)):
             c0, c1, d0, d1 = ext[j]

@@ -35,7 +35,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from rating.capacity.sections import AreaProperties, Rect
+from rating.capacity.sections import AreaProperties, Rect, rect_extent
 
 CELL_MIN_IN = 0.1
 """Element side next to every rectangle edge, in (corners and junctions, where the warping
@@ -182,10 +182,7 @@ def torsion_properties(rects: Sequence[Rect]) -> TorsionProperties | str:
     r = [x for x in rects if x.bx_in > 0 and x.by_in > 0]
     if not r:
         return "no material left"
-    x0 = np.array([x.cx_in - 0.5 * x.bx_in for x in r])
-    x1 = np.array([x.cx_in + 0.5 * x.bx_in for x in r])
-    y0 = np.array([x.cy_in - 0.5 * x.by_in for x in r])
-    y1 = np.array([x.cy_in + 0.5 * x.by_in for x in r])
+    x0, x1, y0, y1 = np.array([rect_extent(x) for x in r]).T
     if not _one_region(x0, x1, y0, y1):
         return ("the parts do not make one connected section (a part touches no other, or the "
                 "parts are joined by lacing or battens only)")
