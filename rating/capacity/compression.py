@@ -334,7 +334,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                        phi_c: float = PHI_C, limit_primary: float = 120.0,
                        limit_secondary: float = 140.0,
                        KL_out_of_plane_ft: float | None = None,
-                       torsion_found: dict | None = None) -> CompressionResult:
+                       torsion_found: dict | None = None,
+                       connectors_close: bool = True) -> CompressionResult:
     """Flexural buckling of the member at its governing location, or zero if tension-only;
     for a built-up member also torsional and flexural-torsional buckling, which replaces it
     where lower (an open section; see ``_torsional_notes`` for a laced or battened one).
@@ -353,6 +354,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         torsion_found: the torsion analysis (``rating.capacity.torsion``) of each distinct
             set of a built-up section's rectangles already found, by those rectangles; this
             call adds its own. None: kept for this call only.
+        connectors_close: sound lacing or battens close the section they cross (the rule);
+            False rates the section open, as a sensitivity (rating.lrfr.engine).
     """
     m = report.member
     warnings: list[str] = []
@@ -465,7 +468,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     assumptions.append(TORSIONAL_NOTE)
     # lacing or battens across the open face: the rating takes them as closing the section
     closed_by = (connectors.kind.value if connectors is not None and not defective
-                 and connectors.kind is not ConnectorKind.SOLID else "")
+                 and connectors_close and connectors.kind is not ConnectorKind.SOLID else "")
     unchecked = _torsional_notes(m, shape, C, torsional, Pn_t, k_t, length_ft, closed_by,
                                  float(Pn[k]), assumptions, warnings)
     g = float(klr[0])

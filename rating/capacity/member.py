@@ -129,7 +129,7 @@ def _material_notes(design: MemberDesign) -> tuple[list[str], list[str]]:
 def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding, ...],
                            length_ft: float, role: MemberRole, K: float, connectors,
                            phi_c: float, report, c, KL_out_ft: float | None = None,
-                           torsion_found: dict | None = None):
+                           torsion_found: dict | None = None, connectors_close: bool = True):
     """A part whose slender (corroded) elements lower the whole section's Q may carry less
     than nothing by the Q method; a part cannot weaken the member, so the section is also
     rated without each such part, and without all of them, and the larger resistance kept
@@ -152,7 +152,8 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
             continue  # nothing left to carry the load without them
         alt = compression_checks(rep, design.material, K=K, length_ft=length_ft, role=role,
                                  connectors=connectors, phi_c=phi_c,
-                                 KL_out_of_plane_ft=KL_out_ft, torsion_found=torsion_found)
+                                 KL_out_of_plane_ft=KL_out_ft, torsion_found=torsion_found,
+                                 connectors_close=connectors_close)
         if alt.checks[0].R_n_kip > best.checks[0].R_n_kip:
             note = (f"member {m}: {', '.join(parts)} taken as not carrying compression: "
                     "its slender elements would lower the whole section's Q more than it "
@@ -180,7 +181,8 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
                     phi_cs_floor: float | None = None, own_weight_klf: float = 0.0,
                     gamma_dc: float = 1.25,
                     KL_out_of_plane_ft: float | None = None,
-                    torsion_found: dict | None = None) -> MemberCapacity:
+                    torsion_found: dict | None = None,
+                    connectors_close: bool = True) -> MemberCapacity:
     """Resistances of one member after the recorded section loss, with phi_c and phi_s.
 
     AASHTO LRFD 6.8.2.1 and 6.9.4.1.1 [value from memory]; AISC LRFD 1999 D3 [V].
@@ -202,6 +204,8 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
             truss's chord on its U-frames, rating.analysis.uframe); None: K L.
         torsion_found: the torsion analyses of sections already found (see
             ``compression_checks``), shared by the caller's members; None: this call's own.
+        connectors_close: False rates a laced or battened section open (a sensitivity; see
+            ``compression_checks``).
     """
     m = design.member
     if not isinstance(length_ft, int | float) or not math.isfinite(length_ft) or length_ft <= 0:
@@ -236,12 +240,14 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
         else None
     c = compression_checks(report, design.material, K=K, length_ft=float(length_ft), role=role,
                            tension_only=tension_only, connectors=connectors, phi_c=phi_c_axial,
-                           KL_out_of_plane_ft=KL_out_of_plane_ft, torsion_found=torsion_found)
+                           KL_out_of_plane_ft=KL_out_of_plane_ft, torsion_found=torsion_found,
+                           connectors_close=connectors_close)
     comp_report = report
     if isinstance(design.section, BuiltUpSection) and not tension_only and c.Q < 1.0:
         c, comp_report = _without_slender_parts(design, m, findings, float(length_ft), role,
                                                 K, connectors, phi_c_axial, report, c,
-                                                KL_out_of_plane_ft, torsion_found)
+                                                KL_out_of_plane_ft, torsion_found,
+                                                connectors_close)
     if report.kind in ("built-up", "rolled shape") and not tension_only:
         assumptions.append(k_note)
     f = member_factors(design, findings, report.carrying_count, floor=phi_cs_floor)

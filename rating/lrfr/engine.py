@@ -645,7 +645,8 @@ def _pony_top_chord(g: TrussGeometry, postings: Mapping[str, CasePosting],
 def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, MemberCapacity],
                       dead: DeadLoadResult, weights: Mapping[str, MemberWeight],
                       warnings: list[str], assumptions: list[str], gamma_dc: float,
-                      torsion_found: dict | None = None) -> PonyChord | None:
+                      torsion_found: dict | None = None,
+                      open_sections: frozenset[str] = frozenset()) -> PonyChord | None:
     """A pony truss whose floorbeam's moment of inertia is given: its top chord and end posts
     rated out of the truss plane with the effective lengths of the chord on its U-frames
     (rating.lrfr.uframes; AASHTO LRFD 6.14.2.9 [value from memory]), in place of K L; their
@@ -679,7 +680,8 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
                               own_weight_klf=_across_weight_klf(g, m, weights[lab],
                                                                 st.detail_allowance),
                               gamma_dc=gamma_dc, KL_out_of_plane_ft=KL_ft,
-                              torsion_found=torsion_found)
+                              torsion_found=torsion_found,
+                              connectors_close=lab not in open_sections)
         capacities[lab] = new
         for said, was, now in ((warnings, old.warnings, new.warnings),
                                (assumptions, old.assumptions, new.assumptions)):
@@ -848,6 +850,130 @@ def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCa
     return WithoutMember(verdict, low.rf, low.case, low.controlling, bars)
 
 
+LACING_WINDOW = 1.25
+"""A member whose laced or battened section is taken as closed, with a truck rating that,
+estimated with its open section, falls within this factor of that truck's controlling RF,
+has the bridge's members rated again with those sections open (:func:`_lacing_open`). The
+estimate is the rating equation with the open resistance at the closed rating's forces
+(exact for a linear rating; on the load path, at the rating level, where the active set may
+differ below it): a window of judgement, not a proven bound (common practice for a
+screen)."""
+
+
+def _open_estimate(r: MemberCaseRating, cap: MemberCapacity, cap_open: MemberCapacity,
+                   dead: tuple[float, float, float], gamma_ll: float, dead_f) -> float:
+    """The member's RF for one case with its open section, estimated from its rating with the
+    closed one (see ``LACING_WINDOW``): MBE Eq. 6A.4.2.1-1 [value from memory]."""
+    C, C_open = cap.factored_resistance("compression"), cap_open.factored_resistance(
+        "compression")
+    if r.dead_at_rating is not None and r.live_at_rating:
+        return (C_open - r.dead_at_rating) / (gamma_ll * r.live_at_rating)
+    DC, DW, DWs = dead
+    D = rating_factor(C, SenseLoads(-DC, -DW, 1.0, DW_surface=-DWs), gamma_ll,
+                      dead_f).factored_dead_kip
+    return r.rf * (C_open - D) / (C - D) if C - D > 0.0 else -math.inf
+
+
+def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
+                 capacities: Mapping[str, MemberCapacity],
+                 ratings: Mapping[tuple[str, str], MemberCaseRating],
+                 postings: Mapping[str, CasePosting], pins: Sequence[PinRating],
+                 chord: PonyChord | None, weights: Mapping[str, MemberWeight], dead_f,
+                 dead: tuple[Mapping[str, float], Mapping[str, float], Mapping[str, float]],
+                 torsion_found: dict | None = None) -> LacingOpen | None:
+    """What the trucks give if the lacing or battens the ratings take as closing the members'
+    open sections do not (loose, broken or missing, or judged unable to carry the shear
+    across the open face): the members rated again with those sections open (AASHTO LRFD
+    6.9.4.1.3 [value from memory]), for the trucks rated at the legal level, where an
+    estimate says it may change their verdict (``LACING_WINDOW``); the pins are as rated
+    (a member's section does not reach them). None where no such member, no truck, or no
+    estimate near the controlling RF."""
+    # (rating.capacity.compression flags such a member where its open form buckles lower)
+    flagged = tuple(lab for lab, cap in capacities.items()
+                    if cap.open_section in ("laced", "battened"))
+    trucks = _truck_ids(cases)
+    if not flagged or not trucks:
+        return None
+    st = bridge.settings
+    lengths = chord.lengths_ft if chord is not None else {}
+    open_caps = {lab: member_capacity(
+        bridge.design_of(lab), g.member(lab).role, g.member_length_ft(lab),
+        bridge.findings_for(lab), g.member(lab).tension_only,
+        own_weight_klf=_across_weight_klf(g, g.member(lab), weights[lab], st.detail_allowance),
+        gamma_dc=dead_f["gamma_dc_max"].value, KL_out_of_plane_ft=lengths.get(lab),
+        torsion_found=torsion_found, connectors_close=False) for lab in flagged}
+    by_id = {c.id: c for c in cases}
+    near = False
+    for cid in trucks:
+        for lab in flagged:
+            r = ratings.get((lab, cid))
+            if r is None or r.sense != "compression" or not 0.0 < r.rf < math.inf:
+                continue
+            est = _open_estimate(r, capacities[lab], open_caps[lab],
+                                 tuple(d[lab] for d in dead), by_id[cid].gamma_ll.value,
+                                 dead_f)
+            near = near or est < LACING_WINDOW * postings[cid].rf
+    if not near:
+        return None
+    try:
+        other = rate_bridge(replace(bridge, pins=()), trucks, what_if=False,
+                            capacities={**capacities, **open_caps},
+                            open_sections=frozenset(flagged))
+    except (InputError, ConvergenceError):
+        return LacingOpen(flagged, WithoutMember("a closure to consider"), True, None)
+    # the pins are as rated: where one of them controls below the members, its posting holds
+    merged = {}
+    for cid, cp in other.postings.items():
+        pin_rf = min((p.ratings[cid].rf for p in pins if cid in p.ratings), default=math.inf)
+        merged[cid] = postings[cid] if pin_rf < cp.rf else cp
+    result = trucks_verdict(merged, other.cases)
+    if result is None:
+        return None
+    # (only lower ratings can follow: a changed action or posting load is a worse one)
+    lowered = any((cp.result.action, cp.result.posting_tons)
+                  != (postings[cid].result.action, postings[cid].result.posting_tons)
+                  for cid, cp in merged.items() if cid in postings)
+    least = min(((other.ratings[(lab, cid)].rf, cid, lab) for cid in trucks for lab in flagged
+                 if (lab, cid) in other.ratings), default=None)
+    return LacingOpen(flagged, result, lowered, least)
+
+
+@dataclass(frozen=True)
+class LacingOpen:
+    """:func:`_lacing_open`'s finding: the members taken as closed by their lacing or battens,
+    what the trucks give with them open, whether that changes any truck's posting (its action
+    or load), and the least of those members' truck RFs open (RF, case, member)."""
+
+    members: tuple[str, ...]
+    result: WithoutMember
+    lowered: bool
+    least: tuple[float, str, str] | None
+
+
+def lacing_text(o: LacingOpen, main: WithoutMember | None) -> str:
+    """The warning of :func:`_lacing_open` where the open sections change a truck's posting:
+    headed in capitals where they give the trucks a posting or a closure, said plainly
+    otherwise."""
+    return _sensitivity_warning(
+        "LACING RELIED ON", "lacing relied on",
+        f"the sections of members {', '.join(o.members)} are open but for their lacing or "
+        "battens, which the rating takes as closing them. Rated with them open "
+        "(torsional and flexural-torsional buckling, AASHTO LRFD 6.9.4.1.3 [value from "
+        "memory]), the pins as rated", o.result, main,
+        "The engineer should confirm the lacing or battens sound from the inspection; "
+        "recorded out of action on the Findings sheet, they are rated open")
+
+
+def lacing_note(o: LacingOpen) -> str:
+    """The assumption of :func:`_lacing_open` where the open sections change no truck's
+    posting."""
+    least = ("" if o.least is None else f"; the least of their truck RFs open is "
+             f"{reported_rf(o.least[0]):.2f} ({o.least[1]}, {o.least[2]})")
+    return (f"Members {', '.join(o.members)}: rated again with their sections open (their "
+            "lacing or battens not closing them; AASHTO LRFD 6.9.4.1.3 [value from memory]), "
+            "no truck's posting changes" + least)
+
+
 @dataclass(frozen=True)
 class OlderSteel:
     """The members and pins rated again with the steel of the row before a boundary of the
@@ -1010,13 +1136,16 @@ up to 60 % lower on double-intersection trusses."""
 
 def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 what_if: bool = True,
-                capacities: Mapping[str, MemberCapacity] | None = None) -> BridgeRating:
+                capacities: Mapping[str, MemberCapacity] | None = None,
+                open_sections: frozenset[str] = frozenset()) -> BridgeRating:
     """Rate every member and pin of the bridge for every chosen rating load.
 
     ``what_if``: for each bent tension-only member the ratings rest on, rate the members
     again without it and say what that gives (:func:`_without_bent`); off for that rating
     itself. ``capacities``: resistances already found for members of this geometry with
-    the same designs and findings (that rating's, :func:`_without_bent`)."""
+    the same designs and findings (that rating's, :func:`_without_bent`). ``open_sections``:
+    members whose lacing or battens are taken as not closing their sections
+    (:func:`_lacing_open`)."""
     known = dict(capacities or {})
     st = bridge.settings
     g = rating_geometry(bridge)
@@ -1038,7 +1167,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                                   m.tension_only, own_weight_klf=_across_weight_klf(
                                       g, m, weights[m.label], st.detail_allowance),
                                   gamma_dc=dead_f["gamma_dc_max"].value,
-                                  torsion_found=torsion_found)
+                                  torsion_found=torsion_found,
+                                  connectors_close=m.label not in open_sections)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
@@ -1065,7 +1195,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                      st.detail_allowance, st.detail_allowance_given, family=family)
     assumptions.extend(dead.assumptions)
     chord = _chord_on_uframes(g, bridge, capacities, dead, weights, warnings, assumptions,
-                              dead_f["gamma_dc_max"].value, torsion_found)
+                              dead_f["gamma_dc_max"].value, torsion_found, open_sections)
     if dead.total.forced_compression:
         warnings.append("under dead load alone the tension-only members "
                         + ", ".join(sorted(dead.total.forced_compression))
@@ -1241,6 +1371,18 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 "the steel is confirmed of the later grade (coupon tests or mill records)",
                 f"the steel is the older grade (F_y {older.material.F_y:g} ksi)",
                 older.result))
+        lacing = _lacing_open(bridge, g, cases, capacities, ratings, postings, pins, chord,
+                              weights, dead_f, (DC, DW, DWs), torsion_found)
+        if lacing is not None and lacing.lowered:
+            # (it says with numbers what the head of a deciding laced member says in words)
+            warnings[:] = [w for w in warnings if not w.startswith(OPEN_SECTION)]
+            warnings.append(lacing_text(lacing, main))
+            members = ", ".join(lacing.members)
+            conditions.append(Condition(
+                f"the lacing or battens of {members} are confirmed sound (they close the "
+                "sections)", f"the sections of {members} are open", lacing.result))
+        elif lacing is not None:
+            assumptions.append(lacing_note(lacing))
         hips = _hips_hinged(bridge, cases, chord)
         if hips is not None:
             warnings.append(hips_text(*hips, main))

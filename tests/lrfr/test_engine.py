@@ -709,6 +709,51 @@ def _with_top_chords(section):
         is MemberRole.TOP_CHORD else d for d in bridge.member_designs))
 
 
+def test_open_sections_that_change_a_posting_are_a_condition_of_the_rating():
+    """Laced chords of 8 in channels set the Type 3 posting; rated again with their sections
+    open (the lacing not closing them), the trucks post lower: a warning in capitals with
+    both lowest truck RFs, and a condition the recommendation rests on. The member-level head
+    (LACING CLOSES THE SECTION) gives way to it. Invented test data."""
+    from demo_bridge import laced_channels
+
+    from rating.lrfr.engine import OPEN_SECTION
+    from rating.results import bears_on_the_decision
+
+    bridge = _with_top_chords(laced_channels(8.0, 2.26, 0.22, 0.39, 6.0,
+                                             cover=(10.0, 0.3125)))
+    r = rate_bridge(bridge, ["TYPE-3"])
+    (said,) = [w for w in r.warnings if w.startswith("LACING RELIED ON")]
+    assert bears_on_the_decision(said) and "the trucks give" in said
+    assert not [w for w in r.warnings if w.startswith(OPEN_SECTION)]
+    (cond,) = [c for c in r.conditions if "lacing or battens" in c.holds]
+    cp = r.postings["TYPE-3"]
+    assert cp.result.posting_tons is not None  # posted as rated (7 tons)
+    assert cond.result.rf < cp.rf and cond.result.case == "TYPE-3"
+    # the open-section rating is the engine's own with those sections open
+    flagged = frozenset(m for m, c in r.capacities.items() if c.open_section == "laced")
+    other = rate_bridge(replace(bridge, pins=()), ["TYPE-3"], what_if=False,
+                        open_sections=flagged)
+    assert cond.result.rf == pytest.approx(other.postings["TYPE-3"].rf, rel=1e-12)
+
+
+def test_open_sections_that_change_no_posting_are_a_note():
+    """The Pratt sample's laced chords, rated open, lower some truck ratings but change no
+    posting: an assumption says so, with the least of their truck RFs; no warning. The
+    Parker sample's chords, far from controlling, are not rated again at all."""
+    from pathlib import Path
+
+    from rating.inventory.reader import read_workbook
+
+    root = Path(__file__).resolve().parents[2] / "sample_inventory"
+    pratt = rate_bridge(read_workbook(root / "tc0417_pratt_1898.xlsx").bridge)
+    (note,) = [a for a in pratt.assumptions if "rated again with their sections open" in a]
+    assert "no truck's posting changes; the least of their truck RFs open is" in note
+    assert not [w for w in pratt.warnings if w.lower().startswith("lacing relied on")]
+    assert not [c for c in pratt.conditions if "lacing" in c.holds]
+    parker = rate_bridge(read_workbook(root / "tc0622_parker_1907.xlsx").bridge)
+    assert not [a for a in parker.assumptions if "rated again with their sections open" in a]
+
+
 def test_a_laced_chord_that_sets_the_posting_heads_a_warning():
     """A laced chord of two channels and a cover plate is rated as closed by its lacing
     (flexural buckling); its open form would buckle lower in flexural-torsional buckling
