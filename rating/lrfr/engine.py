@@ -885,9 +885,9 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     open sections do not (loose, broken or missing, or judged unable to carry the shear
     across the open face): the members rated again with those sections open (AASHTO LRFD
     6.9.4.1.3 [value from memory]), for the trucks rated at the legal level, where an
-    estimate says it may change their verdict (``LACING_WINDOW``); the pins are as rated
-    (a member's section does not reach them). None where no such member, no truck, or no
-    estimate near the controlling RF."""
+    estimate says it may change their verdict (``LACING_WINDOW``); the other members and the
+    pins are as rated (an open section changes its own member's resistance alone). None
+    where no such member, no truck, or no estimate near the controlling RF."""
     # (rating.capacity.compression flags such a member where its open form buckles lower)
     flagged = tuple(lab for lab, cap in capacities.items()
                     if cap.open_section in ("laced", "battened"))
@@ -918,14 +918,17 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     try:
         other = rate_bridge(replace(bridge, pins=()), trucks, what_if=False,
                             capacities={**capacities, **open_caps},
-                            open_sections=frozenset(flagged))
+                            open_sections=frozenset(flagged),
+                            rated_members=frozenset(flagged))
     except (InputError, ConvergenceError):
         return LacingOpen(flagged, WithoutMember("a closure to consider"), True, None)
-    # the pins are as rated: where one of them controls below the members, its posting holds
+    # the other members and the pins are as rated: where one of them is below the open
+    # members, the rating's own posting holds (its controlling member or pin is that one)
     merged = {}
     for cid, cp in other.postings.items():
-        pin_rf = min((p.ratings[cid].rf for p in pins if cid in p.ratings), default=math.inf)
-        merged[cid] = postings[cid] if pin_rf < cp.rf else cp
+        rest = min([r.rf for (lab, c), r in ratings.items() if c == cid and lab not in flagged]
+                   + [p.ratings[cid].rf for p in pins if cid in p.ratings], default=math.inf)
+        merged[cid] = postings[cid] if rest < cp.rf else cp
     result = trucks_verdict(merged, other.cases)
     if result is None:
         return None
@@ -1137,7 +1140,8 @@ up to 60 % lower on double-intersection trusses."""
 def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 what_if: bool = True,
                 capacities: Mapping[str, MemberCapacity] | None = None,
-                open_sections: frozenset[str] = frozenset()) -> BridgeRating:
+                open_sections: frozenset[str] = frozenset(),
+                rated_members: frozenset[str] | None = None) -> BridgeRating:
     """Rate every member and pin of the bridge for every chosen rating load.
 
     ``what_if``: for each bent tension-only member the ratings rest on, rate the members
@@ -1145,7 +1149,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     itself. ``capacities``: resistances already found for members of this geometry with
     the same designs and findings (that rating's, :func:`_without_bent`). ``open_sections``:
     members whose lacing or battens are taken as not closing their sections
-    (:func:`_lacing_open`)."""
+    (:func:`_lacing_open`). ``rated_members``: rate only these members (the others have no
+    rating, and the postings are theirs and the pins' alone); None: all."""
     known = dict(capacities or {})
     st = bridge.settings
     g = rating_geometry(bridge)
@@ -1286,7 +1291,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                     case.gamma_ll.value, im, 0.0, capacities[lab].phi_c,
                     capacities[lab].phi_s, None)
                 continue
-            member_envs[lab] = [e for e, _ in mine]
+            if rated_members is None or lab in rated_members:
+                member_envs[lab] = [e for e, _ in mine]
         plans = {lab: _sense_plans(g.member(lab), resist[lab], case, df, envs_here,
                                    lab in dependent, push_kip)
                  for lab, envs_here in member_envs.items()}
@@ -1785,10 +1791,11 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
     nrl_ok = None
     for case in cases:
         rf, who = math.inf, ""
-        for m in g.members:
-            r = ratings[(m.label, case.id)]
+        rated = [(m.label, ratings[(m.label, case.id)]) for m in g.members
+                 if (m.label, case.id) in ratings]
+        for lab, r in rated:
             if lower_beyond_round_off(r.rf, rf):
-                rf, who = r.rf, m.label
+                rf, who = r.rf, lab
         for p in pins:
             r = p.ratings.get(case.id)
             if r is not None and lower_beyond_round_off(r.rf, rf):
@@ -1796,8 +1803,7 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
         alike = ()
         if math.isfinite(rf):
             alike = tuple(
-                [m.label for m in g.members if m.label != who
-                 and not lower_beyond_round_off(rf, ratings[(m.label, case.id)].rf)]
+                [lab for lab, r in rated if lab != who and not lower_beyond_round_off(rf, r.rf)]
                 + [f"pin at {p.joint}" for p in pins if f"pin at {p.joint}" != who
                    and p.ratings.get(case.id) is not None
                    and not lower_beyond_round_off(rf, p.ratings[case.id].rf)])
