@@ -909,3 +909,20 @@ def test_where_the_older_steel_would_post_the_recommendation_says_only_if():
                            "or mill records), no load restriction is indicated for trucks")
     assert "If the steel is the older grade (F_y 26 ksi), post the bridge (lowest truck RF" \
         in text
+
+
+def test_rating_some_members_gives_their_own_ratings():
+    """rate_bridge(rated_members=) rates those members alone (the lacing sensitivity's
+    re-rating): the same ratings as in the whole rating, no others, and postings of theirs
+    and the pins'. The demo Pratt (invented)."""
+    bridge = make_pratt_bridge()
+    whole = rate_bridge(bridge, ["TYPE-3", "SU7"], what_if=False)
+    some = rate_bridge(bridge, ["TYPE-3", "SU7"], what_if=False,
+                       rated_members=frozenset({"U2U3", "L1U1", "L4U5"}))
+    assert {m for m, _ in some.ratings} == {"U2U3", "L1U1", "L4U5"}
+    for key, r in some.ratings.items():
+        assert r.rf == whole.ratings[key].rf and r.check == whole.ratings[key].check
+    for cid, cp in some.postings.items():
+        least = min([r.rf for (m, c), r in some.ratings.items() if c == cid]
+                    + [p.ratings[cid].rf for p in some.pins if cid in p.ratings])
+        assert cp.rf == least
