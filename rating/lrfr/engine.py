@@ -962,7 +962,7 @@ def lacing_text(o: LacingOpen, main: WithoutMember | None) -> str:
         f"the sections of members {', '.join(o.members)} are open but for their lacing or "
         "battens, which the rating takes as closing them. Rated with them open "
         "(torsional and flexural-torsional buckling, AASHTO LRFD 6.9.4.1.3 [value from "
-        "memory]), the pins as rated", o.result, main,
+        "memory]), the other members and the pins as rated", o.result, main,
         "The engineer should confirm the lacing or battens sound from the inspection; "
         "recorded out of action on the Findings sheet, they are rated open")
 
