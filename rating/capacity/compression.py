@@ -257,6 +257,9 @@ class CompressionResult:
     # "singly symmetric" or "unsymmetric": a built-up section whose torsional and
     # flexural-torsional buckling could not be computed (rolled shapes: never); else ""
     torsional_unchecked: str = ""
+    # laced or battened and taken as closed: the open form's least P_n over the flexural P_n
+    # (at most 1.0; 1.0 where the open form does not buckle lower)
+    open_ratio: float = 1.0
 
 
 def _Q_at(s: SectionAtLocation, F_y: float,
@@ -500,8 +503,10 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                     "AASHTO LRFD 6.9.4.1.3 with Eqs. 6.9.4.1.1-1 and -2 [value from memory]",
                     C[i].location, detail)
         k = i
+    open_ratio = (Pn_t[k_t] / float(Pn[k]) if unchecked in ("laced", "battened")
+                  and float(Pn[k]) > 0.0 else 1.0)
     return CompressionResult((chk,), tuple(warnings), tuple(assumptions), K, float(klr[k]),
-                             float(Q[k]), unchecked)
+                             float(Q[k]), unchecked, open_ratio)
 
 
 def _torsion_text(tp: TorsionProperties) -> str:

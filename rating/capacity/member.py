@@ -73,6 +73,7 @@ class MemberCapacity:
     # buckling could not be checked; "laced" or "battened": one whose open section would
     # buckle lower than the closed one the rating takes (rating.capacity.compression)
     open_section: str = ""
+    open_ratio: float = 1.0  # "laced" or "battened": the open form's P_n over the closed one's
 
     @property
     def phi_cs(self) -> float:
@@ -167,7 +168,7 @@ def _without_slender_parts(design: MemberDesign, m: str, findings: tuple[Finding
             chk = alt.checks[0]
             chk = dataclasses.replace(chk, location=own(chk.location))
             best = type(alt)((chk,), alt.warnings, alt.assumptions + (note,), alt.K,
-                             alt.KL_r, alt.Q, alt.torsional_unchecked)
+                             alt.KL_r, alt.Q, alt.torsional_unchecked, alt.open_ratio)
             best_report = dataclasses.replace(rep, compression=tuple(
                 dataclasses.replace(s_, location=own(s_.location)) for s_ in rep.compression))
     return best, best_report
@@ -278,4 +279,4 @@ def member_capacity(design: MemberDesign, role: MemberRole, length_ft: float,
     return MemberCapacity(m, role, t.checks + c.checks + bending, f.phi_c, f.phi_s, f.condition,
                           f.condition_rating, summary, tuple(dict.fromkeys(warnings)),
                           tuple(dict.fromkeys(assumptions)), tension_only, removed, f.floor,
-                          c.torsional_unchecked)
+                          c.torsional_unchecked, c.open_ratio)

@@ -860,12 +860,15 @@ differ below it): a window of judgement, not a proven bound (common practice for
 screen)."""
 
 
-def _open_estimate(r: MemberCaseRating, cap: MemberCapacity, cap_open: MemberCapacity,
-                   dead: tuple[float, float, float], gamma_ll: float, dead_f) -> float:
+def _open_estimate(r: MemberCaseRating, cap: MemberCapacity,
+                   cap_open: MemberCapacity | float, dead: tuple[float, float, float],
+                   gamma_ll: float, dead_f) -> float:
     """The member's RF for one case with its open section, estimated from its rating with the
-    closed one (see ``LACING_WINDOW``): MBE Eq. 6A.4.2.1-1 [value from memory]."""
-    C, C_open = cap.factored_resistance("compression"), cap_open.factored_resistance(
-        "compression")
+    closed one (see ``LACING_WINDOW``): MBE Eq. 6A.4.2.1-1 [value from memory]. ``cap_open``:
+    the open capacity, or a factor on the closed resistance."""
+    C = cap.factored_resistance("compression")
+    C_open = (C * cap_open if isinstance(cap_open, float)
+              else cap_open.factored_resistance("compression"))
     if r.dead_at_rating is not None and r.live_at_rating:
         return (C_open - r.dead_at_rating) / (gamma_ll * r.live_at_rating)
     DC, DW, DWs = dead
@@ -894,6 +897,23 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     trucks = _truck_ids(cases)
     if not flagged or not trucks:
         return None
+    by_id = {c.id: c for c in cases}
+
+    def near(lab: str, cid: str, open_cap: MemberCapacity | float) -> bool:
+        r = ratings.get((lab, cid))
+        if r is None or r.sense != "compression" or not 0.0 < r.rf < math.inf:
+            return False
+        est = _open_estimate(r, capacities[lab], open_cap, tuple(d[lab] for d in dead),
+                             by_id[cid].gamma_ll.value, dead_f)
+        return est < LACING_WINDOW * postings[cid].rf
+
+    # a first look with the open resistance at its least (the closed one times the ratio of
+    # the plain buckling resistances: own-weight bending lowers it less), which needs no
+    # open capacity; where that is far from every controlling RF, so is the estimate
+    flagged = tuple(lab for lab in flagged if any(
+        near(lab, cid, capacities[lab].open_ratio) for cid in trucks))
+    if not flagged:
+        return None
     st = bridge.settings
     lengths = chord.lengths_ft if chord is not None else {}
     open_caps = {lab: member_capacity(
@@ -902,18 +922,7 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
         own_weight_klf=_across_weight_klf(g, g.member(lab), weights[lab], st.detail_allowance),
         gamma_dc=dead_f["gamma_dc_max"].value, KL_out_of_plane_ft=lengths.get(lab),
         torsion_found=torsion_found, connectors_close=False) for lab in flagged}
-    by_id = {c.id: c for c in cases}
-    near = False
-    for cid in trucks:
-        for lab in flagged:
-            r = ratings.get((lab, cid))
-            if r is None or r.sense != "compression" or not 0.0 < r.rf < math.inf:
-                continue
-            est = _open_estimate(r, capacities[lab], open_caps[lab],
-                                 tuple(d[lab] for d in dead), by_id[cid].gamma_ll.value,
-                                 dead_f)
-            near = near or est < LACING_WINDOW * postings[cid].rf
-    if not near:
+    if not any(near(lab, cid, open_caps[lab]) for lab in flagged for cid in trucks):
         return None
     try:
         other = rate_bridge(replace(bridge, pins=()), trucks, what_if=False,
