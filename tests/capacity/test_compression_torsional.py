@@ -227,3 +227,27 @@ def test_lacing_recorded_out_of_action_leaves_the_chord_open():
     _, sound = run(laced)
     assert sound.checks[0].name == "compression: flexural buckling"
     assert chk.R_n_kip < sound.checks[0].R_n_kip
+
+
+@pytest.mark.parametrize("own_weight_klf", [0.0, 0.05, 0.2])
+@pytest.mark.parametrize("length_ft", [12.0, 18.0, 30.0])
+def test_the_open_resistance_is_at_least_the_closed_one_times_the_open_ratio(
+        own_weight_klf, length_ft):
+    """The lacing screen of rating.lrfr.engine takes the closed resistance times the ratio of
+    the plain buckling resistances as the open one's least: own-weight bending (AASHTO LRFD
+    6.9.2.2 [value from memory]) lowers a weaker member's axial limit less, not more."""
+    from rating.capacity.member import member_capacity
+    from rating.model import MemberDesign, MemberRole
+
+    design = MemberDesign("M", chord(LACED), STEEL)
+    args = (design, MemberRole.TOP_CHORD, length_ft, (), False)
+    closed = member_capacity(*args, own_weight_klf=own_weight_klf)
+    opened = member_capacity(*args, own_weight_klf=own_weight_klf, connectors_close=False)
+    assert closed.open_section == "laced" and 0.0 < closed.open_ratio < 1.0
+    plain = {c.name: c.R_n_kip for c in opened.checks if c.name.startswith("compression: f")}
+    assert closed.open_ratio == pytest.approx(
+        plain["compression: flexural-torsional buckling"]
+        / next(c.R_n_kip for c in closed.checks if c.name == "compression: flexural buckling"),
+        rel=1e-12)
+    assert opened.factored_resistance("compression") >= \
+        closed.factored_resistance("compression") * closed.open_ratio * (1 - 1e-12)
