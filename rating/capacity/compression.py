@@ -21,7 +21,7 @@ from rating.capacity.checks import Check, Sense
 from rating.capacity.sections import ElementAtLocation, SectionAtLocation, SectionReport
 from rating.capacity.tension import SECONDARY_ROLES
 from rating.capacity.torsion import TorsionProperties, torsion_properties
-from rating.model import ConnectorKind, Connectors, Material, MemberRole
+from rating.model import CONNECTOR_WORDS, ConnectorKind, Connectors, Material, MemberRole
 
 PHI_C = 0.95
 """Resistance factor for axial compression, AASHTO LRFD 6.5.4.2. [value from memory]"""
@@ -470,8 +470,9 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                            "dimensions)")
     assumptions.append(TORSIONAL_NOTE)
     # lacing or battens across the open face: the rating takes them as closing the section
-    closed_by = (connectors.kind.value if connectors is not None and not defective
-                 and connectors_close and connectors.kind is not ConnectorKind.SOLID else "")
+    closed_by = (CONNECTOR_WORDS[connectors.kind][0] if connectors is not None
+                 and not defective and connectors_close
+                 and connectors.kind in CONNECTOR_WORDS else "")
     unchecked = _torsional_notes(m, shape, C, torsional, Pn_t, k_t, length_ft, closed_by,
                                  float(Pn[k]), assumptions, warnings)
     g = float(klr[0])
@@ -545,15 +546,16 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
                                f"{found}")
         elif Pn_t[k_t] < Pn_flexural * (1.0 - 1e-12):
             flag = "laced" if closed_by == "lacing" else "battened"
+            carry, leave = ("carries", "leaves") if closed_by == "lacing" else ("carry", "leave")
             # the same words for every such member (the report lists them once); the
             # numbers in the member's own note
             warnings.append(
                 f"member {m}: the rating takes the {closed_by} as closing the section, which "
                 f"then buckles in flexure (common practice for sound {closed_by}, which "
-                "carries the shear across the open face); open, the section would buckle "
+                f"{carry} the shear across the open face); open, the section would buckle "
                 "lower, in torsional or flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 "
                 "[value from memory]; the member's notes give both resistances). Loose, "
-                f"broken, missing or bent {closed_by} leaves it open: the engineer judges the "
+                f"broken, missing or bent {closed_by} {leave} it open: the engineer judges the "
                 f"{closed_by} from the inspection, and records it so on the Findings sheet "
                 f"(component '{closed_by}') to rate the member open")
             assumptions.append(

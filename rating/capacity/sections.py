@@ -38,6 +38,7 @@ import numpy as np
 
 from rating.errors import InputError
 from rating.model import (
+    CONNECTOR_WORDS,
     AnglePart,
     BarState,
     BuiltUpSection,
@@ -945,13 +946,16 @@ def _connector_notes(section: Section, member: str, joined: Sequence[Finding],
     are not checked)."""
     if not joined:
         return
-    word = section.connectors.kind.value if isinstance(section, BuiltUpSection) \
-        and section.connectors is not None else "lacing"
+    # (only a member with such connectors has such findings: rating.model.connector_component)
+    word = CONNECTOR_WORDS[section.connectors.kind][0]
+    is_, it, does, its, them = (("is", "it", "does", "its", "it") if word == "lacing" else
+                                ("are", "they", "do", "their", "them"))
     out = [f for f in joined if f.bar_state in REMOVING_STATES or f.bar_state is BarState.BENT]
     if out:
         said = ", ".join(f"{f.bar_state.value} ({f.where or describe_finding(f)})" for f in out)
         warnings.append(
-            f"member {member}: its {word} is recorded {said}: it is taken as no longer closing "
+            f"member {member}: its {word} {is_} recorded {said}: {it} {is_} taken as no longer "
+            "closing "
             "the section nor tying the parts there, so the member is rated as an open section "
             "in torsional and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
             "memory]) and with twice the connector spacing in its modified slenderness (one "
@@ -965,9 +969,10 @@ def _connector_notes(section: Section, member: str, joined: Sequence[Finding],
                              or f.percent_loss is not None):
             assumptions.append(
                 f"member {member}: the loss recorded on its {word} "
-                f"({f.where or describe_finding(f)}) is not rated: {word} is not checked, and "
-                "is taken as still tying the parts; if it no longer does, record its bar "
-                "state (broken, missing, loose or bent) to rate the member without it")
+                f"({f.where or describe_finding(f)}) is not rated: {word} {is_} not checked, "
+                f"and {is_} taken as still tying the parts; if {it} no longer {does}, record "
+                f"{its} bar state (broken, missing, loose or bent) to rate the member without "
+                f"{them}")
 
 
 def _loss_assumptions(section: Section, any_loss: bool) -> list[str]:

@@ -251,3 +251,20 @@ def test_the_open_resistance_is_at_least_the_closed_one_times_the_open_ratio(
         rel=1e-12)
     assert opened.factored_resistance("compression") >= \
         closed.factored_resistance("compression") * closed.open_ratio * (1 - 1e-12)
+
+
+def test_a_battened_chord_is_treated_as_a_laced_one_in_its_own_words():
+    from rating.model import BarState, ConnectorKind, Connectors, Finding
+
+    battened = chord(Connectors(ConnectorKind.BATTEN, spacing_in=30.0))
+    _, c = run(battened)
+    assert c.torsional_unchecked == "battened" and c.checks[0].name.endswith("flexural buckling")
+    (w,) = [w for w in c.warnings if "closing the section" in w]
+    assert "the rating takes the battens as closing the section" in w
+    assert "which carry the shear" in w and "bent battens leave it open" in w
+    bent = Finding("M", "battens", bar_state=BarState.BENT, where="Findings!B7")
+    r = section_properties(battened, member="M", length_ft=18.0, findings=(bent,))
+    assert any("its battens are recorded bent (Findings!B7): they are taken as no longer "
+               "closing the section" in x for x in r.warnings)
+    c = compression_checks(r, STEEL, K=0.875, length_ft=18.0, connectors=battened.connectors)
+    assert c.checks[0].name == "compression: flexural-torsional buckling"
