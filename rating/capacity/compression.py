@@ -454,12 +454,17 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         for i, s in enumerate(C):
             torsional.append(_torsional_at(s, E, _euler_kip(E, A[i], klr_x[i]),
                                            _euler_kip(E, A[i], klr_y[i]), K_Z * L_in, found))
-    # the torsional mode's resistance at each location where it was found, on the same
-    # column curve: the slenderness whose Euler load is that mode's P_e
-    Pn_t = [float(nominal_compressive_resistance(A[i], Fy, E, math.pi * math.sqrt(
-                E * A[i] / t[0]), Q[i])) if not isinstance(t, str) and t[0] > 0.0
-            else (0.0 if not isinstance(t, str) else math.inf)
-            for i, t in enumerate(torsional)]
+    def on_curve(i: int, t: tuple[float, str, TorsionProperties] | str) -> float:
+        # the torsional mode's resistance on the same column curve: the slenderness whose
+        # Euler load is that mode's P_e (inf where it was not found)
+        if isinstance(t, str):
+            return math.inf
+        if t[0] <= 0.0:
+            return 0.0
+        return float(nominal_compressive_resistance(A[i], Fy, E,
+                                                    math.pi * math.sqrt(E * A[i] / t[0]), Q[i]))
+
+    Pn_t = [on_curve(i, t) for i, t in enumerate(torsional)]
     k_t = min(range(len(Pn_t)), key=Pn_t.__getitem__) if Pn_t else -1
     if Q_s[k] < 1.0:
         q_txt = f"Q = {Q[k]:.3f}" if Q_a[k] == 1.0 else f"Q_s = {Q_s[k]:.3f}"
