@@ -18,7 +18,12 @@ from dataclasses import dataclass
 import numpy as np
 
 from rating.capacity.checks import Check, Sense
-from rating.capacity.sections import ElementAtLocation, SectionAtLocation, SectionReport
+from rating.capacity.sections import (
+    AreaProperties,
+    ElementAtLocation,
+    SectionAtLocation,
+    SectionReport,
+)
 from rating.capacity.tension import SECONDARY_ROLES
 from rating.capacity.torsion import TorsionProperties, torsion_properties
 from rating.model import CONNECTOR_WORDS, ConnectorKind, Connectors, Material, MemberRole
@@ -254,12 +259,17 @@ class CompressionResult:
     K: float
     KL_r: float  # governing effective slenderness at the governing location (inf: none)
     Q: float
-    # "singly symmetric" or "unsymmetric": a built-up section whose torsional and
-    # flexural-torsional buckling could not be computed (rolled shapes: never); else ""
+    # "singly symmetric", "unsymmetric" or UNKNOWN_SYMMETRY (a rolled shape): a section
+    # whose torsional and flexural-torsional buckling could not be computed; else ""
     torsional_unchecked: str = ""
     # laced or battened and taken as closed: the open form's least P_n over the flexural P_n
     # (at most 1.0; 1.0 where the open form does not buckle lower)
     open_ratio: float = 1.0
+
+
+UNKNOWN_SYMMETRY = "unknown symmetry"
+"""The symmetry of a rolled shape whose shear centre is not given (or whose principal axes are
+not x and y), for its flag when its torsional buckling is not checked."""
 
 
 def _Q_at(s: SectionAtLocation, F_y: float,
@@ -310,9 +320,12 @@ TORSIONAL_NOTE = (
     "channels with a cover plate on one side and lacing on the other) is taken as closed by "
     "them, so that it buckles in flexure (common practice for lacing or battens in sound "
     "condition); where its open form would buckle lower, the member's warning gives that "
-    "resistance. Neither is checked for rolled shapes (no geometry is recorded) nor for "
-    "built-up sections whose parts do not make one section: such members that are not "
-    "doubly symmetric are named in their own notes, for the engineer to check by hand.")
+    "resistance. For a rolled shape they are checked where the Rolled sheet gives its J, "
+    "C_w and shear centre about principal axes x and y (not for an angle given with r_z, "
+    "which buckles in flexure about its least axis over the longer effective length). "
+    "Members whose check could not be made (a rolled shape without those properties, a "
+    "built-up section whose parts do not make one section) and that are not doubly "
+    "symmetric are named in their own notes, for the engineer to check by hand.")
 """Said once in a report with any compression member (the same words for every member)."""
 
 
@@ -327,6 +340,25 @@ def _torsional_at(s: SectionAtLocation, E: float, P_ex: float, P_ey: float, KL_z
         tp = found[s.torsion_rects] = torsion_properties(s.torsion_rects)
     if isinstance(tp, str):
         return tp
+    P_e, mode = torsional_buckling_load(tp, E, G_OVER_E * E, P_ex, P_ey, KL_z_in)
+    return P_e, mode, tp
+
+
+def _tabulated_at(s: SectionAtLocation, E: float, P_ex: float, P_ey: float, KL_z_in: float
+                  ) -> tuple[float, str, TorsionProperties] | str:
+    """As ``_torsional_at`` for a rolled shape, from its tabulated J, C_w and shear centre
+    (after the loss: rating.capacity.sections.rolled_torsion_after_loss) about its principal
+    axes x and y."""
+    if s.r_z_in is not None:
+        return "x and y are not its principal axes (r_z given)"
+    if s.torsion_tabulated is None:
+        return "J, C_w and the shear centre are not given on the Rolled sheet"
+    if s.A_g_in2 <= 0.0:
+        return "no section is left"
+    J, C_w, x_o, y_o = s.torsion_tabulated
+    A = s.A_g_in2
+    tp = TorsionProperties(AreaProperties(A, 0.0, 0.0, A * s.r_x_in ** 2, A * s.r_y_in ** 2,
+                                          0.0), J, x_o, y_o, C_w, 0)
     P_e, mode = torsional_buckling_load(tp, E, G_OVER_E * E, P_ex, P_ey, KL_z_in)
     return P_e, mode, tp
 
@@ -382,6 +414,9 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
     KL_y = KL_in if KL_out_of_plane_ft is None else KL_out_of_plane_ft * 12.0
     klr_x = [KL_in / s.r_x_in if s.r_x_in > 0 else math.inf for s in C]
     klr_y = [KL_y / s.r_y_in if s.r_y_in > 0 else math.inf for s in C]
+    # a rolled shape whose least principal axis is neither x nor y (an angle) buckles about
+    # it over the longer of the two effective lengths (conservative; common practice)
+    klr_z = [max(KL_in, KL_y) / s.r_z_in if s.r_z_in else 0.0 for s in C]
     use_mod = (connectors is not None and connectors.kind is not ConnectorKind.SOLID)
     if use_mod:
         # the lacing or battens themselves are not rated (common practice: they are taken as
@@ -425,6 +460,7 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                                 "from memory); the components may buckle between connectors")
     # np.maximum's rule: the first on a tie, NaN if either is NaN
     klr = [x if x >= y or x != x else y for x, y in zip(klr_x, klr_y, strict=True)]
+    klr = [z if z > v else v for v, z in zip(klr, klr_z, strict=True)]
     klr_n = [v if math.isfinite(v) else 1e9 for v in klr]
     Q_s, slender = zip(*(_Q_at(s, Fy, E) for s in C), strict=True)
     Q_a = [1.0] * len(C)
@@ -454,6 +490,16 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         for i, s in enumerate(C):
             torsional.append(_torsional_at(s, E, _euler_kip(E, A[i], klr_x[i]),
                                            _euler_kip(E, A[i], klr_y[i]), K_Z * L_in, found))
+    elif report.kind == "rolled shape":
+        shape = C[0].rolled_symmetry or UNKNOWN_SYMMETRY
+        torsional = [_tabulated_at(s, E, _euler_kip(E, A[i], klr_x[i]),
+                                   _euler_kip(E, A[i], klr_y[i]), K_Z * L_in)
+                     for i, s in enumerate(C)]
+        if C[0].torsion_tabulated is not None:
+            assumptions.append(f"member {m}: J, C_w and the shear centre as tabulated on the "
+                               "Rolled sheet; a percent loss thins every wall of the shape, "
+                               "J with the cube of what is left and C_w in proportion "
+                               "(thin-walled open section; common practice)")
     def on_curve(i: int, t: tuple[float, str, TorsionProperties] | str) -> float:
         # the torsional mode's resistance on the same column curve: the slenderness whose
         # Euler load is that mode's P_e (inf where it was not found)
@@ -488,6 +534,8 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
                         "(AASHTO LRFD 6.9.3, value from memory)")
     s = C[k]
     axis = "in-plane" if klr_x[k] >= klr_y[k] else "out-of-plane"
+    if klr_z[k] > max(klr_x[k], klr_y[k]):
+        axis = f"least principal axis, r_z = {s.r_z_in:g} in"
     out = ("" if KL_out_of_plane_ft is None else
            f", KL out of plane = {KL_out_of_plane_ft:.3f} ft (U-frames)")
     detail = (f"A_g = {A[k]:.3f} in2, K = {K:g}, L = {length_ft:g} ft{out}, KL/r = "
@@ -579,7 +627,9 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
     if shape == "doubly symmetric":
         assumptions.append(f"member {m}: torsional buckling not checked {where}")
         return flag
-    assumptions.append(f"member {m}: a {shape} section whose torsional and "
+    what = (f"a {shape} section" if shape != UNKNOWN_SYMMETRY else
+            "a rolled shape, not shown to be doubly symmetric,")
+    assumptions.append(f"member {m}: {what} whose torsional and "
                        "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
                        f"memory]) could not be checked {where}; the engineer should check "
                        "them by hand")

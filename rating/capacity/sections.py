@@ -324,6 +324,29 @@ def _pos(value: float | None, what: str, member: str, where: str, of: str = "") 
     return float(value)
 
 
+def _rolled_torsion_valid(section: RolledShape, member: str, where: str) -> None:
+    """A rolled shape's least radius and torsion properties, where given: positive (C_w,
+    x_o and y_o at least zero), r_z the least radius, x_o and y_o with J."""
+    if section.r_z_in is not None:
+        rz = _pos(section.r_z_in, "rolled shape r_z (in)", member, where)
+        if rz > min(section.r_x_in, section.r_y_in) * (1.0 + 1e-3) + 1e-6:
+            raise InputError(f"member {member}: rolled shape r_z {rz:g} in exceeds r_x or "
+                             "r_y; r_z is the least radius of gyration", where or None)
+    if section.J_in4 is None:
+        if section.C_w_in6 is not None:
+            raise InputError(f"member {member}: rolled shape C_w given without J",
+                             where or None)
+        return
+    _pos(section.J_in4, "rolled shape J (in4)", member, where)
+    for name, v in (("C_w (in6)", section.C_w_in6), ("x_o (in)", section.x_o_in),
+                    ("y_o (in)", section.y_o_in)):
+        if v is None and name.startswith("C_w"):
+            continue
+        if v is None or not isinstance(v, int | float) or not math.isfinite(v) or v < 0:
+            raise InputError(f"member {member}: rolled shape {name} must be a number of at "
+                             f"least zero with J, got {v!r}", where or None)
+
+
 def validate_section(section: Section, member: str, where: str = "") -> None:
     """Refuse dimensions that cannot describe a real section (negative, zero, inconsistent)."""
     if isinstance(section, EyebarSet):
@@ -363,6 +386,7 @@ def validate_section(section: Section, member: str, where: str = "") -> None:
         A = _pos(section.area_in2, "rolled shape area (in2)", member, where)
         _pos(section.r_x_in, "rolled shape r_x (in)", member, where)
         _pos(section.r_y_in, "rolled shape r_y (in)", member, where)
+        _rolled_torsion_valid(section, member, where)
         if section.net_area_in2 is not None:
             An = _pos(section.net_area_in2, "rolled shape net area (in2)", member, where)
             if An > A:
@@ -598,6 +622,10 @@ class SectionAtLocation:
     ``torsion_rects``: a built-up section's rectangles for its torsion and warping analysis
     (``rating.capacity.torsion``): as ``properties``, except that a thinned rectangle riveted
     to another part on one face only keeps that face (see ``_kept_against``).
+    ``r_z_in``: a rolled shape's least radius about a principal axis where x and y are not
+    principal (None: they are). ``torsion_tabulated``: a rolled shape's (J in4, C_w in6, x_o
+    in, y_o in) after the loss, where given; ``rolled_symmetry`` its symmetry
+    (rating.model.RolledShape.symmetry).
     """
 
     location: Location
@@ -613,6 +641,9 @@ class SectionAtLocation:
     modified_axis: str | None = None
     shear_lag_U: float = 1.0
     torsion_rects: tuple[Rect, ...] = ()
+    r_z_in: float | None = None
+    torsion_tabulated: tuple[float, float, float, float] | None = None
+    rolled_symmetry: str = ""
 
     @property
     def r_in_plane_in(self) -> float:
@@ -624,7 +655,8 @@ class SectionAtLocation:
 
     @property
     def r_least_in(self) -> float:
-        return min(self.r_x_in, self.r_y_in)
+        r = min(self.r_x_in, self.r_y_in)
+        return r if self.r_z_in is None else min(r, self.r_z_in)
 
 
 @dataclass(frozen=True)
@@ -1242,7 +1274,7 @@ def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequenc
     key = next(iter(_components(section, member)))
     if key in gone:
         return SectionAtLocation(loc, 0.0, 0.0, section.r_x_in, section.r_y_in,
-                                 shear_lag_U=section.shear_lag_U)
+                                 shear_lag_U=section.shear_lag_U, r_z_in=section.r_z_in)
     left = 1.0
     for lo in acting:
         left = min(left, 1.0 - (lo.finding.percent_loss or 0.0) / 100.0)
@@ -1252,7 +1284,22 @@ def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequenc
         assumptions.append(f"member {member}: rolled shape net area not given; taken equal to "
                            "the gross area")
     return SectionAtLocation(loc, A, An, section.r_x_in, section.r_y_in,
-                             shear_lag_U=section.shear_lag_U)
+                             shear_lag_U=section.shear_lag_U, r_z_in=section.r_z_in,
+                             torsion_tabulated=rolled_torsion_after_loss(section, left),
+                             rolled_symmetry=section.symmetry)
+
+
+def rolled_torsion_after_loss(section: RolledShape, left: float
+                              ) -> tuple[float, float, float, float] | None:
+    """A rolled shape's (J, C_w, x_o, y_o) with every wall thinned to ``left`` of its
+    thickness (a percent loss over the whole shape, as its area): J = sum b t^3 / 3 goes
+    with left^3, C_w of thin open walls with left, the shear centre stays (thin-walled
+    open sections, e.g. Salmon and Johnson, *Steel Structures*, Ch. 8 [value from memory];
+    common practice). None where J is not given."""
+    if section.J_in4 is None or section.x_o_in is None or section.y_o_in is None:
+        return None
+    return (section.J_in4 * left ** 3, (section.C_w_in6 or 0.0) * left, section.x_o_in,
+            section.y_o_in)
 
 
 # a built-up section is built by its _BuiltUpWork (section_properties makes one per call)

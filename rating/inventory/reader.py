@@ -186,6 +186,25 @@ def rows_read() -> int:
 # --- small typed accessors ---------------------------------------------------------------
 
 
+def _rolled_torsion_consistent(r: Row, sid: str, rx: float, ry: float, rz: float | None,
+                               J: float | None, Cw: float | None, xo: float | None,
+                               yo: float | None, log: ProblemLog) -> None:
+    """A rolled shape's least radius and torsion properties: what each needs with it."""
+    if rz is not None and rz > min(rx, ry) * (1.0 + 1e-3) + _TOL_IN:
+        log.error(r.ref("r_z"), f"the least radius of gyration r_z of section {sid} "
+                  f"({_g(rz)} in) exceeds r_x or r_y ({_g(rx)}, {_g(ry)} in); r_z is the "
+                  "least of all axes (leave it blank where x and y are principal axes)")
+    if Cw is not None and J is None:
+        log.error(r.ref("C_w"), f"section {sid} gives the warping constant C_w without the "
+                  "torsional constant J; give J too, or leave both blank")
+    if J is not None:
+        for key, v in (("x_o", xo), ("y_o", yo)):
+            if v is None:
+                log.error(r.ref(key), f"section {sid} gives J but not the shear centre's "
+                          f"distance {key} from the centroid, which the flexural-torsional "
+                          "check needs: give it (0 on an axis of symmetry)")
+
+
 def _f(row: Row, key: str) -> float | None:
     v = row.values.get(key)
     return float(v) if isinstance(v, int | float) else None
@@ -757,7 +776,11 @@ class _Reading:
             if net is not None and net > area + _TOL_IN:
                 log.error(r.ref("net_area"), f"the net area of section {sid} ({_g(net)} in2) "
                           f"exceeds its gross area ({_g(area)} in2)")
-            out[sid] = (RolledShape(des, area, rx, ry, net, _f(r, "U") or 1.0), r,
+            rz, J, Cw = _f(r, "r_z"), _f(r, "J"), _f(r, "C_w")
+            xo, yo = _f(r, "x_o"), _f(r, "y_o")
+            _rolled_torsion_consistent(r, sid, rx, ry, rz, J, Cw, xo, yo, log)
+            out[sid] = (RolledShape(des, area, rx, ry, net, _f(r, "U") or 1.0, rz, J,
+                                    Cw if Cw is not None or J is None else 0.0, xo, yo), r,
                         "rolled shape")
         for sid, (sec, r, kind) in list(out.items()):
             try:

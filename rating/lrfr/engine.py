@@ -562,7 +562,8 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
     """A member that sets a posting, a closure or a barring in compression whose torsional
     or flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]) either could
     not be checked (a singly symmetric or unsymmetric built-up section whose parts do not
-    make one section: rating.capacity.compression) or would govern if its lacing or battens
+    make one section, a rolled shape without its torsion properties or not shown to be
+    doubly symmetric: rating.capacity.compression) or would govern if its lacing or battens
     did not close the section: the decision waits on the engineer's check."""
     found: dict[str, str] = {}
     for m, r in _deciding_ratings(ratings, postings, deciding):
@@ -572,10 +573,11 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
     unchecked = [m for m, kind in found.items() if kind not in ("laced", "battened")]
     if unchecked:
         said.append(f"{TORSIONAL_BUCKLING}: member(s) {', '.join(unchecked)} set a posting, "
-                    "closure or barring in compression and have a singly symmetric or "
-                    "unsymmetric built-up section, whose torsional and flexural-torsional "
-                    "buckling (AASHTO LRFD 6.9.4.1.3 [value from memory]) are not checked "
-                    "here; the engineer should check them before the decision")
+                    "closure or barring in compression and have a section that is not "
+                    "doubly symmetric (or a rolled shape not shown to be), whose torsional "
+                    "and flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
+                    "memory]) are not checked here; the engineer should check them before "
+                    "the decision")
     open_ = [m for m, kind in found.items() if kind in ("laced", "battened")]
     if open_:
         said.append(f"{OPEN_SECTION}: member(s) {', '.join(open_)} set a posting, closure or "

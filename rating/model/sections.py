@@ -163,7 +163,14 @@ class BuiltUpSection:
 
 @dataclass(frozen=True)
 class RolledShape:
-    """A rolled shape given by its tabulated properties (no part geometry)."""
+    """A rolled shape given by its tabulated properties (no part geometry).
+
+    ``r_x_in``/``r_y_in`` about the axes of in-plane and out-of-plane buckling; ``r_z_in``
+    the least radius about a principal axis where those are not principal (an angle), None
+    where they are. For torsional and flexural-torsional buckling, optionally: ``J_in4``,
+    ``C_w_in6`` and the shear centre's distances from the centroid along x and y
+    (``x_o_in``, ``y_o_in``; 0 on an axis of symmetry), None where not given.
+    """
 
     designation: str
     area_in2: float
@@ -171,6 +178,21 @@ class RolledShape:
     r_y_in: float
     net_area_in2: float | None = None
     shear_lag_U: float = 1.0
+    r_z_in: float | None = None
+    J_in4: float | None = None
+    C_w_in6: float | None = None
+    x_o_in: float | None = None
+    y_o_in: float | None = None
+
+    @property
+    def symmetry(self) -> str:
+        """"doubly symmetric", "singly symmetric" or "unsymmetric" by the shear centre's
+        distances from the centroid along the principal axes x and y; "" where they are not
+        given, or x and y are not principal (r_z given)."""
+        if self.x_o_in is None or self.y_o_in is None or self.r_z_in is not None:
+            return ""
+        on_axes = (self.x_o_in == 0.0) + (self.y_o_in == 0.0)
+        return ("doubly symmetric", "singly symmetric", "unsymmetric")[2 - on_axes]
 
 
 Section = EyebarSet | RodSet | BuiltUpSection | RolledShape

@@ -268,3 +268,31 @@ def test_random_chords(boxes):
         r = rect(x1 - x0, y1 - y0, (x0 + x1) / 2, (y0 + y1) / 2)
         geom = r if geom is None else geom + r
     assert_matches(rects, warping_reference(geom, mesh=0.05))
+
+
+def test_a_tee_given_as_a_rolled_shape_buckles_as_its_plates():
+    # sectionproperties' radii, J, C_w and shear centre of a tee of two plates, entered as a
+    # rolled shape's tabulated properties, give the flexural-torsional resistance that the
+    # program's own analysis of the same plates gives (the two meshes' tolerances)
+    from rating.capacity.compression import compression_checks
+    from rating.model import Material, MaterialKind, RolledShape
+
+    steel = Material(MaterialKind.STEEL, F_y=26.0, F_u=52.0)  # (test data)
+
+    flange = PlatePart("flange", 6.0, 0.5, y_in=0.25)
+    stem = PlatePart("stem", 5.0, 0.5, y_in=-2.5, vertical=True)
+    geom = rect(6.0, 0.5, 0.0, 0.25) + rect(0.5, 5.0, 0.0, -2.5)
+    ref = warping_reference(geom, mesh=0.01)
+    props = reference(rect(6.0, 0.5, 0.0, 0.25) + rect(0.5, 5.0, 0.0, -2.5))
+    tee = RolledShape("tee of plates", props["A"], props["rx"], props["ry"], J_in4=ref["J"],
+                      C_w_in6=ref["C_w"], x_o_in=abs(ref["x_s"] - props["cx"]),
+                      y_o_in=abs(ref["y_s"] - props["cy"]))
+    plates = BuiltUpSection(parts=(flange, stem))
+
+    def resistance(section):
+        r = section_properties(section, member="M", length_ft=10.0)
+        return compression_checks(r, steel, K=1.0, length_ft=10.0).checks[0]
+
+    rolled, built = resistance(tee), resistance(plates)
+    assert rolled.name == built.name == "compression: flexural-torsional buckling"
+    assert rolled.R_n_kip == pytest.approx(built.R_n_kip, rel=0.005)

@@ -1,0 +1,67 @@
+"""A rolled shape's least radius and torsion properties on the Rolled sheet: read (US and SI),
+and refused at their cells where one lacks what it needs. Invented test data (the small
+bridge of inventory_helpers: section PV is a rolled I)."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+from inventory_helpers import cell, check, find, fresh
+
+from rating.model import RolledShape
+from rating.units import IN_PER_MM
+
+
+def _rolled(**given) -> dict:
+    d = fresh()
+    d["tables"]["Rolled"][0].update(given)
+    return d
+
+
+def test_the_torsion_properties_are_read(tmp_path: Path) -> None:
+    r = check(tmp_path, _rolled(J=0.17, C_w=52.0, x_o=0.0, y_o=0.0))
+    assert r.errors == ()
+    s = r.bridge.design_of("L2U2").section
+    assert isinstance(s, RolledShape)
+    assert (s.J_in4, s.C_w_in6, s.x_o_in, s.y_o_in, s.r_z_in) == (0.17, 52.0, 0.0, 0.0, None)
+    assert s.symmetry == "doubly symmetric"
+
+
+def test_a_blank_warping_constant_is_zero_with_J(tmp_path: Path) -> None:
+    # a tee or an angle: C_w small, 0 conservative (it only adds to the torsional stiffness)
+    r = check(tmp_path, _rolled(J=0.17, x_o=0.0, y_o=0.8))
+    assert r.errors == ()
+    s = r.bridge.design_of("L2U2").section
+    assert s.C_w_in6 == 0.0 and s.symmetry == "singly symmetric"
+
+
+def test_si_values_are_converted(tmp_path: Path) -> None:
+    d = _rolled(r_z=20.0, J=70000.0, C_w=8.5e8, x_o=0.0, y_o=10.0)
+    d["bridge"]["units"] = "SI"
+    d["tables"]["Rolled"][0].update(area=3445.0, r_x=82.8, r_y=21.3)
+    d["tables"]["Vehicles"][0]["gross"] = None  # (its kip would be read as kN)
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    s = r.bridge.design_of("L2U2").section
+    assert s.r_z_in == pytest.approx(20.0 * IN_PER_MM)
+    assert s.J_in4 == pytest.approx(70000.0 * IN_PER_MM**4)
+    assert s.C_w_in6 == pytest.approx(8.5e8 * IN_PER_MM**6)
+    assert s.y_o_in == pytest.approx(10.0 * IN_PER_MM)
+
+
+def test_a_least_radius_above_the_others_is_refused(tmp_path: Path) -> None:
+    r = check(tmp_path, _rolled(r_z=1.0))  # r_y is 0.84
+    find(r, cell("Rolled", 0, "r_z"), "the least radius of gyration r_z of section PV (1 in) "
+         "exceeds r_x or r_y")
+
+
+def test_a_warping_constant_without_J_is_refused(tmp_path: Path) -> None:
+    r = check(tmp_path, _rolled(C_w=52.0))
+    find(r, cell("Rolled", 0, "C_w"), "gives the warping constant C_w without the torsional "
+         "constant J")
+
+
+def test_J_without_the_shear_centre_is_refused(tmp_path: Path) -> None:
+    r = check(tmp_path, _rolled(J=0.17, x_o=0.0))
+    find(r, cell("Rolled", 0, "y_o"), "gives J but not the shear centre's distance y_o")
