@@ -823,6 +823,32 @@ def test_a_chord_whose_parts_do_not_touch_heads_a_warning():
     assert f"member(s) {cp.controlling} set a posting" in said and bears_on_the_decision(said)
 
 
+def test_a_rolled_chord_of_unknown_symmetry_heads_a_warning_until_its_torsion_is_given():
+    """Top chords of a rolled tee given by area and radii alone: where one sets a posting in
+    compression its torsional buckling is not checked, and the warning bears on the decision.
+    With its J, C_w and shear centre on the Rolled sheet the rating checks it (lower) and
+    says nothing. Invented test data."""
+    from rating.capacity.compression import UNKNOWN_SYMMETRY
+    from rating.lrfr.engine import TORSIONAL_BUCKLING
+    from rating.model import RolledShape
+    from rating.results import bears_on_the_decision
+
+    tee = RolledShape("WT (test data)", 12.0, 2.2, 2.0)
+    r = rate_bridge(_with_top_chords(tee), ["TYPE-3"], what_if=False)
+    cp = r.postings["TYPE-3"]
+    assert r.ratings[(cp.controlling, "TYPE-3")].sense == "compression"
+    assert r.capacities[cp.controlling].open_section == UNKNOWN_SYMMETRY
+    (said,) = [w for w in r.warnings if w.startswith(TORSIONAL_BUCKLING)]
+    assert f"member(s) {cp.controlling} set a posting" in said and bears_on_the_decision(said)
+    given = replace(tee, J_in4=0.6, C_w_in6=2.0, x_o_in=0.0, y_o_in=1.6)
+    checked = rate_bridge(_with_top_chords(given), ["TYPE-3"], what_if=False)
+    assert "compression: flexural-torsional buckling" in [
+        c.name for c in checked.capacities[cp.controlling].checks]
+    assert not [w for w in checked.warnings if w.startswith(TORSIONAL_BUCKLING)]
+    assert checked.ratings[(cp.controlling, "TYPE-3")].rf < \
+        r.ratings[(cp.controlling, "TYPE-3")].rf
+
+
 def test_an_estimated_loss_that_sets_the_posting_heads_a_warning():
     """A loss judged by eye (the Findings sheet's "Loss found by": estimated) that governs the
     member setting a posting: the decision rests on an estimate, so the warning bears on it
