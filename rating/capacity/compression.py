@@ -495,6 +495,13 @@ def compression_checks(report: SectionReport, material: Material, *, K: float,
         torsional = [_tabulated_at(s, E, _euler_kip(E, A[i], klr_x[i]),
                                    _euler_kip(E, A[i], klr_y[i]), K_Z * L_in)
                      for i, s in enumerate(C)]
+        if C[0].r_z_in is not None:
+            assumptions.append(f"member {m}: rated as a concentric column, in flexural "
+                               f"buckling about its least axis (r_z = {C[0].r_z_in:g} in); a "
+                               "single angle connected through one leg also carries that "
+                               "connection's eccentricity, for which AASHTO LRFD 6.9.4.4 "
+                               "[value from memory] gives an effective slenderness: the "
+                               "engineer should check it by hand where the member governs")
         if C[0].torsion_tabulated is not None:
             assumptions.append(f"member {m}: J, C_w and the shear centre as tabulated on the "
                                "Rolled sheet; a percent loss thins every wall of the shape, "

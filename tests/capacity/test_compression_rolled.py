@@ -51,6 +51,8 @@ def test_an_angle_buckles_about_its_least_axis():
     assert c.torsional_unchecked == UNKNOWN_SYMMETRY
     note = next(a for a in c.assumptions if "not shown to be doubly symmetric" in a)
     assert "x and y are not its principal axes" in note
+    # the eccentricity of a single angle's connection is left to the engineer, said so
+    assert any("AASHTO LRFD 6.9.4.4" in a and "r_z = 0.776 in" in a for a in c.assumptions)
 
 
 def test_the_longer_effective_length_goes_with_r_z():
