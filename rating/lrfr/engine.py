@@ -54,7 +54,7 @@ from rating.lrfr.factors import (
 )
 from rating.lrfr.liveload import live_joint_loads, position_key
 from rating.lrfr.multiplier import first_crossings, first_of_least, kink_points, state_at
-from rating.lrfr.pins import PinRating, rate_pins
+from rating.lrfr.pins import CHANGE_POINT_WINDOW, KINK_GRID, PinRating, rate_pins
 from rating.lrfr.positions import (
     LoadPaths,
     PositionBatch,
@@ -76,6 +76,7 @@ from rating.model import (
     MaterialKind,
     Member,
     MemberRole,
+    Pin,
     RodSet,
     TrussGeometry,
     VehicleCategory,
@@ -1145,6 +1146,37 @@ controlling (tests/lrfr/test_lane_run_reach.py); before the pushes were searched
 up to 60 % lower on double-intersection trusses."""
 
 
+def _screens_said(g: TrussGeometry, pins: Sequence[Pin], cases: Sequence[RatingCase],
+                  dependent: frozenset[str]) -> list[str]:
+    """The screens of judgement that narrow the searches on the load path, said where they
+    act: the reach of a lane load's or variable spacing's runs (:data:`LANE_RUN_REACH_PANELS`)
+    and, for the pins at joints with members on the load path, the window and grid of the
+    search between positions (rating.lrfr.pins). A reviewer signs numbers whose search was
+    narrowed, so the report says how and how far it was checked (common practice)."""
+    if not dependent:
+        return []
+    said = []
+    if any(not fixed_axles_only(c.load) for c in cases):
+        said.append(
+            "On the load path (members whose force depends on which tension-only members act) "
+            "a load with a lane part or a variable axle spacing (HL-93) is driven, in the "
+            "vehicle chosen for each member (its spacing and lane segments), over "
+            f"{LANE_RUN_REACH_PANELS:g} of the longest panels each side of where that member's "
+            "multiplier is least among the envelope positions (over the whole deck for a bar "
+            "that would have to push): a screen of judgement, not a proven bound (common "
+            "practice). On the bundled samples the whole deck gives the same ratings; on test "
+            "bridges it gave some ratings up to 2.2 % lower, none of them controlling.")
+    if any(set(m.label for m in g.members_at(p.joint)) & dependent for p in pins):
+        said.append(
+            "Pins at joints with members on the load path are searched between neighbouring "
+            "vehicle positions (where the pin reaches its limit as a counter's force passes "
+            f"zero) where their multiplier is within {CHANGE_POINT_WINDOW:g} times the load's "
+            f"least, on a grid of {KINK_GRID} steps between the two positions: screens of "
+            "judgement, not proven bounds (common practice). On the bundled samples a window "
+            "of 3.0 and a grid of 256 give the same ratings (to 1e-6).")
+    return said
+
+
 # --------------------------------------------------------------------------- the rating
 
 
@@ -1249,6 +1281,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
+    assumptions.extend(_screens_said(g, bridge.pins, cases, dependent))
     df_of, notes = _case_distribution(cases, dist, lambda gauge: lateral_distribution(
         bridge.cross_section, override=st.distribution_factor_override,
         prefer=dead.rated_truss, wheel_gauge_ft=gauge))

@@ -152,3 +152,35 @@ def test_a_bars_push_is_found_on_another_members_lane_pattern(panels, monkeypatc
                                                     usual.distribution_factor)
     assert tension_only_equilibrium(g, P_dead + 0.99 * low.rf * P_live)
     assert not tension_only_equilibrium(g, P_dead + 1.01 * low.rf * P_live)
+
+
+def test_the_screens_are_said_where_they_act():
+    """The report says how the searches on the load path were narrowed, where they were: a
+    lane load's or a variable spacing's runs, and the pins' search between positions."""
+    bridge = read_workbook(SAMPLES / "tc0417_pratt_1898.xlsx").bridge
+    lane = "a load with a lane part or a variable axle spacing (HL-93) is driven"
+    pins = "Pins at joints with members on the load path are searched between"
+    rated = rate_bridge(bridge, ["HL-93", "TYPE-3"], what_if=False)
+    assert rated.dependent_members
+    assert any(lane in a and "over 2 of the longest panels" in a for a in rated.assumptions)
+    assert any(pins in a and "within 1.1 times" in a and "grid of 64 steps" in a
+               for a in rated.assumptions)
+    # fixed axles alone: only the pins' screens act
+    trucks = rate_bridge(bridge, ["TYPE-3"], what_if=False)
+    assert not any(lane in a for a in trucks.assumptions)
+    assert any(pins in a for a in trucks.assumptions)
+
+
+def test_no_screen_is_said_without_a_load_path():
+    from dataclasses import replace
+
+    from demo_bridge import make_pratt_bridge
+
+    from rating.model.builders import build_truss
+
+    base = make_pratt_bridge(pins=True)
+    bridge = replace(base, geometry=build_truss("pratt", 8, 18.0, 24.0))  # (no counters)
+    rated = rate_bridge(bridge, ["HL-93"], what_if=False)
+    assert not rated.dependent_members and rated.pins
+    assert not any("screen of judgement" in a or "screens of judgement" in a
+                   for a in rated.assumptions)
