@@ -319,14 +319,16 @@ def _rf_words(rf: float) -> str:
 def recommendation(rating: BridgeRating, unit: str,
                    report: Mapping[str, _ReportPosting]) -> str:
     """The bridge-level recommendation (:func:`_recommendation`), made conditional where it
-    rests on something that, where it does not hold, gives a closure to consider: a bent
-    member that does not act (:func:`rating.lrfr.engine._without_bent`), or another
-    condition of the rating (``rating.conditions``: a pony chord's hips, the steel's grade).
-    The engineer reads first that the posting holds only if so (a reviewer would not sign a
-    "post" headline with the closure only in a warning)."""
+    rests on something that, where it does not hold, asks more of the engineer than the
+    rating's own verdict (:func:`_consequence`: a closure to consider, a posting where none
+    is, or lower posting loads): a bent member that does not act
+    (:func:`rating.lrfr.engine._without_bent`), or another condition of the rating
+    (``rating.conditions``: a pony chord's hips, the steel's grade, the lacing). The engineer
+    reads first that the posting holds only if so (a reviewer would not sign a "post"
+    headline with the closure, or a lower posting, only in a warning)."""
     text = _recommendation(rating, unit, report)
-    hinge = {m: w for m, w in rating.without.items() if w.verdict == "a closure to consider"}
     main = trucks_verdict(rating.postings, rating.cases)
+    hinge = {m: w for m, w in rating.without.items() if _consequence(w, main)}
     others = [(c.holds, c.fails, _lowest_words(c.result) + "; see the warning",
                _consequence(c.result, main))
               for c in rating.conditions if _consequence(c.result, main)]
@@ -340,7 +342,8 @@ def recommendation(rating: BridgeRating, unit: str,
             f"{names} {'is' if one else 'are'} confirmed to act (recorded bent)",
             f"{who} {'does' if one else 'do'} not act",
             "; ".join(f"without {w.what(m)}, {_lowest_words(w)}" for m, w in hinge.items())
-            + "; members only, see the warning", "consider closing the bridge"))
+            + "; members only, see the warning", _gravest(
+                [_consequence(w, main) for w in hinge.values()])))
     clauses += others
     if not clauses or text.startswith("Consider closing"):
         return text.removesuffix(DECISION_NOTE) + _permit_text(rating) + DECISION_NOTE
@@ -367,6 +370,13 @@ def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:
     if w.rf is not None and main.rf is not None and reported_rf(w.rf) < reported_rf(main.rf):
         return "post the bridge for lower loads"
     return ""
+
+
+def _gravest(consequences: list[str]) -> str:
+    """The gravest of several consequences (:func:`_consequence`): closing, then a posting
+    where none is, then lower posting loads."""
+    return next(c for c in ("consider closing the bridge", "post the bridge",
+                            "post the bridge for lower loads") if c in consequences)
 
 
 def _lowest_words(w: WithoutMember) -> str:

@@ -217,3 +217,23 @@ def test_an_rf_past_any_rating_reads_in_the_recommendation_as_in_the_tables() ->
 
     assert _rf_words(-math.inf) == "\u2212\u221e"
     assert _rf_words(0.456) == "0.45"  # (two decimals, rounded down, as printed)
+
+
+def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_conditional(
+        pony_rating):
+    """A bent counter the ratings rest on, without which the trucks would be posted lower
+    (not closed): the headline is conditional on it, as for a closure (a reviewer would not
+    sign a posting whose lower alternative is only in a warning). Without it no worse than
+    the rating's own: nothing is added."""
+    from rating.lrfr.engine import WithoutMember
+
+    assert pony_rating.without["L2U3"].verdict == "a closure to consider"  # (the sample)
+    lower = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.40, "SU4",
+                                                                "U2L3")})
+    rec = build_results(lower).recommendation
+    assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent): post the bridge.")
+    assert ("If it does not act, post the bridge for lower loads (without L2U3, lowest truck "
+            "RF 0.40 (SU4, U2L3); members only, see the warning).") in rec
+    same = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.60, "SU4",
+                                                               "U2L3")})
+    assert not build_results(same).recommendation.startswith("Only if")
