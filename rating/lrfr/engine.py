@@ -592,15 +592,21 @@ def _torsional_not_checked(ratings: Mapping[tuple[str, str], MemberCaseRating],
 
 
 PIN_BEARING_AS_BUILT = "PIN BEARING AS BUILT"
+PACK_RUST_AT_PIN = "PACK RUST AT THE PIN"
 
 
 def _pin_bearing_as_built(warning: str, joint: str, controlling: set[str]) -> str:
-    """A pin that controls a posting, rated with the packing's plate thicknesses while section
-    loss is recorded at a bar's head or connection at its joint (rating.lrfr.pins
-    ._end_loss_notes): the posting may rest on metal that is no longer there, so the warning
-    is headed in capitals (it bears on the decision)."""
-    if f"pin at {joint}" in controlling and "has section loss recorded at its" in warning:
+    """A pin that controls a posting, rated with the packing's plate thicknesses and gaps
+    while section loss or pack rust is recorded at a bar's head or connection at its joint
+    (rating.lrfr.pins._end_loss_notes): the posting may rest on metal that is no longer
+    there, or on lever arms the rust has lengthened, so the warning is headed in capitals (it
+    bears on the decision)."""
+    if f"pin at {joint}" not in controlling:
+        return warning
+    if "has section loss recorded at its" in warning:
         return f"{PIN_BEARING_AS_BUILT}: {warning}"
+    if "pack rust is recorded at member" in warning:
+        return f"{PACK_RUST_AT_PIN}: {warning}"
     return warning
 
 

@@ -824,10 +824,11 @@ def _splice_notes(pin: Pin) -> tuple[str, ...]:
 
 
 def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
-    """The pin's bearing and packing use the thicknesses of the Packing sheet; section loss
-    recorded at a member's head or connection (a loop rod's loop) at this joint does not reach
-    them (common practice: the bar's bearing face at the pin is what carries its force into
-    the pin)."""
+    """The pin's bearing and packing use the thicknesses and gaps of the Packing sheet;
+    section loss or pack rust recorded at a member's head or connection (a loop rod's loop)
+    at this joint does not reach them (common practice: the bar's bearing face at the pin is
+    what carries its force into the pin, and the gaps between the bars set the lever arms of
+    the pin's bending)."""
     out = []
     for m in g.members_at(joint):
         length = g.member_length_ft(m.label)
@@ -840,12 +841,20 @@ def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
         for f in bridge.findings_for(m.label):
             if f.region not in at_pin:
                 continue
-            if f.remaining_thickness_in is None and f.percent_loss is None:
-                continue
             if f.station_ft is not None:
                 from_here = f.station_ft if near_start else length - f.station_ft
                 if from_here > END_REACH * length:
                     continue
+            if f.pack_rust:
+                # pack rust between the bars on a pin wedges them apart along it
+                out.append(f"pin at joint {joint}: pack rust is recorded at member {m.label}'s "
+                           f"{'loop' if f.region is FindingRegion.THREAD else f.region.value} "
+                           f"({f.where or m.label}); it spreads the bars along the pin and "
+                           "lengthens the lever arms of its bending, while the pin is rated "
+                           "with the plates and gaps of the Packing sheet: record the measured "
+                           "gaps there (the gap before each plate)")
+            if f.remaining_thickness_in is None and f.percent_loss is None:
+                continue
             out.append(f"pin at joint {joint}: member {m.label} has section loss recorded at "
                        f"its {'loop' if f.region is FindingRegion.THREAD else f.region.value}"
                        f" ({f.where or m.label}); the pin's bearing and "

@@ -605,6 +605,30 @@ def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
     assert _end_loss_notes("U1", bridge.geometry, bridge) == ()  # (0.5 ft from L1 only)
 
 
+def test_pack_rust_at_a_bars_head_is_carried_to_its_pins_note():
+    """Pack rust between the bars on a pin wedges them apart and lengthens the pin's lever
+    arms; the pin is rated with the Packing sheet's gaps, so its note asks for the measured
+    ones, and where that pin controls a posting the note is headed in capitals. Pack rust in
+    a bar's body says nothing at the pin. Invented test data."""
+    from rating.lrfr.engine import PACK_RUST_AT_PIN, _pin_bearing_as_built
+    from rating.lrfr.pins import _end_loss_notes
+    from rating.model import FindingRegion
+    from rating.results import bears_on_the_decision
+
+    rust = Finding("L1L2", "all", FindingRegion.HEAD, station_ft=0.3, pack_rust=True,
+                   where="Findings!B7")
+    body = Finding("L2L3", "all", FindingRegion.BODY, station_ft=9.0, pack_rust=True)
+    bridge = make_pratt_bridge(pins=False, findings=(rust, body))
+    (said,) = _end_loss_notes("L1", bridge.geometry, bridge)
+    assert said.startswith("pin at joint L1: pack rust is recorded at member L1L2's head "
+                           "(Findings!B7)")
+    assert "record the measured gaps there" in said
+    assert _end_loss_notes("L2", bridge.geometry, bridge) == ()  # (0.3 ft from L1 only)
+    headed = _pin_bearing_as_built(said, "L1", {"pin at L1"})
+    assert headed == f"{PACK_RUST_AT_PIN}: {said}" and bears_on_the_decision(headed)
+    assert _pin_bearing_as_built(said, "L1", {"L1U1"}) == said
+
+
 def _double_intersection_with_eyebar_diagonals():
     """A 9-panel double-intersection truss, eyebar diagonals, chords strong enough that a
     diagonal the live load reverses controls (invented test data)."""
