@@ -1283,6 +1283,9 @@ def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequenc
     if record and section.net_area_in2 is None:
         assumptions.append(f"member {member}: rolled shape net area not given; taken equal to "
                            "the gross area")
+    if record and section.J_in4 is not None and section.C_w_in6 is None:
+        assumptions.append(f"member {member}: rolled shape warping constant C_w not given; "
+                           "taken as 0 (conservative for torsional buckling)")
     return SectionAtLocation(loc, A, An, section.r_x_in, section.r_y_in,
                              shear_lag_U=section.shear_lag_U, r_z_in=section.r_z_in,
                              torsion_tabulated=rolled_torsion_after_loss(section, left),

@@ -779,9 +779,8 @@ class _Reading:
             rz, J, Cw = _f(r, "r_z"), _f(r, "J"), _f(r, "C_w")
             xo, yo = _f(r, "x_o"), _f(r, "y_o")
             _rolled_torsion_consistent(r, sid, rx, ry, rz, J, Cw, xo, yo, log)
-            out[sid] = (RolledShape(des, area, rx, ry, net, _f(r, "U") or 1.0, rz, J,
-                                    Cw if Cw is not None or J is None else 0.0, xo, yo), r,
-                        "rolled shape")
+            out[sid] = (RolledShape(des, area, rx, ry, net, _f(r, "U") or 1.0, rz, J, Cw, xo,
+                                    yo), r, "rolled shape")
         for sid, (sec, r, kind) in list(out.items()):
             try:
                 validate_section(sec, f"using section {sid}", r.ref("section"))

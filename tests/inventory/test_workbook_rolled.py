@@ -28,12 +28,17 @@ def test_the_torsion_properties_are_read(tmp_path: Path) -> None:
     assert s.symmetry == "doubly symmetric"
 
 
-def test_a_blank_warping_constant_is_zero_with_J(tmp_path: Path) -> None:
+def test_a_blank_warping_constant_is_zero_with_J_and_said(tmp_path: Path) -> None:
     # a tee or an angle: C_w small, 0 conservative (it only adds to the torsional stiffness)
+    from rating.capacity.sections import section_properties
+
     r = check(tmp_path, _rolled(J=0.17, x_o=0.0, y_o=0.8))
     assert r.errors == ()
     s = r.bridge.design_of("L2U2").section
-    assert s.C_w_in6 == 0.0 and s.symmetry == "singly symmetric"
+    assert s.C_w_in6 is None and s.symmetry == "singly symmetric"
+    rep = section_properties(s, member="L2U2", length_ft=18.0)
+    assert rep.compression[0].torsion_tabulated == (0.17, 0.0, 0.0, 0.8)
+    assert any("C_w not given; taken as 0" in a for a in rep.assumptions)
 
 
 def test_si_values_are_converted(tmp_path: Path) -> None:
