@@ -23,7 +23,8 @@ def rfs(rated) -> dict[tuple[str, str], float]:
     return members | pins
 
 
-@pytest.mark.parametrize("book", ["tc0903_pony_1903_si.xlsx", "tc0417_pratt_1898.xlsx"])
+@pytest.mark.parametrize("book", ["tc0903_pony_1903_si.xlsx", "tc0417_pratt_1898.xlsx",
+                                  "tc0622_parker_1907.xlsx"])
 def test_the_whole_deck_gives_the_same_ratings_of_lane_loads(book, monkeypatch):
     bridge = read_workbook(SAMPLES / book).bridge
     usual = rate_bridge(bridge, LANE_LOADS)

@@ -21,7 +21,8 @@ def pin_rfs(rated) -> dict[tuple[str, str], float]:
     return {(p.joint, cid): r.rf for p in rated.pins for cid, r in p.ratings.items()}
 
 
-@pytest.mark.parametrize("book", ["tc0903_pony_1903_si.xlsx", "tc0417_pratt_1898.xlsx"])
+@pytest.mark.parametrize("book", ["tc0903_pony_1903_si.xlsx", "tc0417_pratt_1898.xlsx",
+                                  "tc0622_parker_1907.xlsx"])
 def test_a_wider_change_point_window_changes_no_pin_rating(book, monkeypatch):
     bridge = read_workbook(SAMPLES / book).bridge
     usual = pin_rfs(rate_bridge(bridge))
@@ -32,7 +33,8 @@ def test_a_wider_change_point_window_changes_no_pin_rating(book, monkeypatch):
         assert wide[key] == pytest.approx(rf, rel=1e-12), key
 
 
-@pytest.mark.parametrize("book", ["tc0622_parker_1907.xlsx", "tc0417_pratt_1898.xlsx"])
+@pytest.mark.parametrize("book", ["tc0622_parker_1907.xlsx", "tc0417_pratt_1898.xlsx",
+                                  "tc0903_pony_1903_si.xlsx"])
 def test_a_finer_change_point_grid_changes_no_pin_rating(book, monkeypatch):
     """The check along a bar's zero line runs to its limit near a pole of the line (lam grows
     without bound there), where the grid's own points see it at one end of a cell only: the
