@@ -105,7 +105,7 @@ def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: flo
     r_o^2, r_o^2 = x_o^2 + y_o^2 + (I_x + I_y)/A_g; a doubly symmetric section buckles in
     torsion at P_ez (Eq. 6.9.4.1.3-1), a singly symmetric one at the lower root of
     Eq. 6.9.4.1.3-2, an unsymmetric one at the least root of the cubic Eq. 6.9.4.1.3-3. All
-    three are the least eigenvalue P of
+    three are the least eigenvalue P, among the modes that twist, of
 
         | P_ey - P     c          -P y_o          |
         | c            P_ex - P    P x_o          |  = 0,  c = I_xy sqrt(P_ex P_ey / (I_x I_y))
@@ -122,15 +122,18 @@ def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: flo
             of a built-up member where it applies).
         KL_z_in: the effective length for twisting, in.
     Returns:
-        P_e (the least of the three modes, which may be a flexural one) and the mode's name,
+        P_e, the least load of a mode that twists (a purely flexural mode, about an axis the
+        twist does not couple with, is the flexural check's own), and the mode's name,
         "torsional" (no shear-centre offset) or "flexural-torsional".
     """
     r_o2 = tp.r_o_in ** 2
     P_ez = (math.pi ** 2 * E * tp.C_w_in6 / KL_z_in ** 2 + G * tp.J_in4) / r_o2
     x_o, y_o = tp.x_o_in, tp.y_o_in
     coupled = math.hypot(x_o, y_o) > 1e-6 * math.sqrt(r_o2)
-    if not coupled and tp.area.I_xy_in4 == 0.0:
-        return min(P_ex, P_ey, P_ez), "torsional"
+    if not coupled:
+        x_o = y_o = 0.0  # (round-off of a symmetric section: the twist alone, exactly)
+        if tp.area.I_xy_in4 == 0.0:
+            return P_ez, "torsional"
     area = tp.area
     c = area.I_xy_in4 * math.sqrt(P_ex * P_ey / (area.I_x_in4 * area.I_y_in4))
     stiffness = np.array([[P_ey, c, 0.0], [c, P_ex, 0.0], [0.0, 0.0, r_o2 * P_ez]])
@@ -138,8 +141,10 @@ def torsional_buckling_load(tp: TorsionProperties, E: float, G: float, P_ex: flo
     # the generalized symmetric problem through the Cholesky factor of the (positive
     # definite) geometric matrix: eigenvalues of L^-1 K L^-T
     L_inv = np.linalg.inv(np.linalg.cholesky(geometric))
-    P = np.linalg.eigvalsh(L_inv @ stiffness @ L_inv.T)
-    return float(P.min()), "flexural-torsional" if coupled else "torsional"
+    P, W = np.linalg.eigh(L_inv @ stiffness @ L_inv.T)
+    modes = L_inv.T @ W  # (u, v, twist) of each mode, by column
+    twists = np.abs(modes[2]) * math.sqrt(r_o2) > 1e-9 * np.linalg.norm(modes[:2], axis=0)
+    return (float(P[twists].min()), "flexural-torsional" if coupled else "torsional")
 
 
 def effective_length_factor(end_condition: str = "pinned", *, K_pinned: float = K_PINNED,
@@ -267,6 +272,10 @@ class CompressionResult:
     open_ratio: float = 1.0
 
 
+NOTHING_LEFT = "no section is left"
+"""Why a location has no torsional check: nothing carries load there (its resistance is
+zero in flexural buckling already)."""
+
 UNKNOWN_SYMMETRY = "unknown symmetry"
 """The symmetry of a rolled shape whose shear centre is not given (or whose principal axes are
 not x and y), for its flag when its torsional buckling is not checked."""
@@ -349,12 +358,13 @@ def _tabulated_at(s: SectionAtLocation, E: float, P_ex: float, P_ey: float, KL_z
     """As ``_torsional_at`` for a rolled shape, from its tabulated J, C_w and shear centre
     (after the loss: rating.capacity.sections.rolled_torsion_after_loss) about its principal
     axes x and y."""
+    if s.A_g_in2 <= 0.0:
+        return NOTHING_LEFT
     if s.r_z_in is not None:
         return "x and y are not its principal axes (r_z given)"
     if s.torsion_tabulated is None:
-        return "J, C_w and the shear centre are not given on the Rolled sheet"
-    if s.A_g_in2 <= 0.0:
-        return "no section is left"
+        return ("J is not given on the Rolled sheet" if s.rolled_symmetry else
+                "J, C_w and the shear centre are not given on the Rolled sheet")
     J, C_w, x_o, y_o = s.torsion_tabulated
     A = s.A_g_in2
     tp = TorsionProperties(AreaProperties(A, 0.0, 0.0, A * s.r_x_in ** 2, A * s.r_y_in ** 2,
@@ -575,7 +585,7 @@ def _torsion_text(tp: TorsionProperties) -> str:
     def at(v: float) -> str:
         return f"{v if abs(v) >= 0.005 else 0.0:.2f}"  # (never "-0.00")
 
-    return (f"J = {tp.J_in4:.3f} in4, C_w = {tp.C_w_in6:.4g} in6, shear centre x_o = "
+    return (f"J = {tp.J_in4:.4g} in4, C_w = {tp.C_w_in6:.4g} in6, shear centre x_o = "
             f"{at(tp.x_o_in)} in, y_o = {at(tp.y_o_in)} in from the centroid, r_o = "
             f"{tp.r_o_in:.2f} in")
 
@@ -593,7 +603,9 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
     """
     if not torsional:
         return ""
-    missed = [(s, t) for s, t in zip(C, torsional, strict=True) if isinstance(t, str)]
+    # (a location with nothing left has no resistance to check; its flexural P_n is zero)
+    missed = [(s, t) for s, t in zip(C, torsional, strict=True) if isinstance(t, str)
+              and s.A_g_in2 > 0.0]
     flag = ""
     if k_t >= 0 and math.isfinite(Pn_t[k_t]):
         _, mode, tp = torsional[k_t]
@@ -630,12 +642,15 @@ def _torsional_notes(m: str, shape: str, C: Sequence[SectionAtLocation],
     if not missed or shape == "doubly symmetric" and all(
             t.startswith("the parts do not make one") for _, t in missed):
         return flag
-    where = "; ".join(f"at {s.location.describe()}: {t}" for s, t in missed)
+    by_reason: dict[str, list[str]] = {}
+    for s, t in missed:
+        by_reason.setdefault(t, []).append(s.location.describe())
+    where = "; ".join(f"at {', '.join(locs)}: {t}" for t, locs in by_reason.items())
     if shape == "doubly symmetric":
         assumptions.append(f"member {m}: torsional buckling not checked {where}")
         return flag
-    what = (f"a {shape} section" if shape != UNKNOWN_SYMMETRY else
-            "a rolled shape, not shown to be doubly symmetric,")
+    what = ("a rolled shape, not shown to be doubly symmetric," if shape == UNKNOWN_SYMMETRY
+            else f"an {shape} section" if shape[0] in "aeiou" else f"a {shape} section")
     assumptions.append(f"member {m}: {what} whose torsional and "
                        "flexural-torsional buckling (AASHTO LRFD 6.9.4.1.3 [value from "
                        f"memory]) could not be checked {where}; the engineer should check "

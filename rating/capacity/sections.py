@@ -1274,7 +1274,8 @@ def _rolled_at(section: RolledShape, member: str, loc: Location, acting: Sequenc
     key = next(iter(_components(section, member)))
     if key in gone:
         return SectionAtLocation(loc, 0.0, 0.0, section.r_x_in, section.r_y_in,
-                                 shear_lag_U=section.shear_lag_U, r_z_in=section.r_z_in)
+                                 shear_lag_U=section.shear_lag_U, r_z_in=section.r_z_in,
+                                 rolled_symmetry=section.symmetry)
     left = 1.0
     for lo in acting:
         left = min(left, 1.0 - (lo.finding.percent_loss or 0.0) / 100.0)

@@ -186,23 +186,43 @@ def rows_read() -> int:
 # --- small typed accessors ---------------------------------------------------------------
 
 
-def _rolled_torsion_consistent(r: Row, sid: str, rx: float, ry: float, rz: float | None,
-                               J: float | None, Cw: float | None, xo: float | None,
-                               yo: float | None, log: ProblemLog) -> None:
-    """A rolled shape's least radius and torsion properties: what each needs with it."""
+def _rolled_torsion_consistent(r: Row, sid: str, area: float, rx: float, ry: float,
+                               rz: float | None, J: float | None, Cw: float | None,
+                               xo: float | None, yo: float | None, log: ProblemLog) -> bool:
+    """A rolled shape's least radius and torsion properties: what each needs with it, and a
+    J no section could have. False where any is wrong (a cell already refused included: a
+    value missing because its cell was bad is not said missing again)."""
+    keys = ("r_z", "J", "C_w", "x_o", "y_o")
+    ok = not any(k in r.bad for k in keys)
     if rz is not None and rz > min(rx, ry) * (1.0 + 1e-3) + _TOL_IN:
         log.error(r.ref("r_z"), f"the least radius of gyration r_z of section {sid} "
-                  f"({_g(rz)} in) exceeds r_x or r_y ({_g(rx)}, {_g(ry)} in); r_z is the "
-                  "least of all axes (leave it blank where x and y are principal axes)")
-    if Cw is not None and J is None:
+                  f"({_g(rz)} in) exceeds the lesser of r_x and r_y ({_g(min(rx, ry))} in); "
+                  "r_z is the least of all axes (leave it blank where x and y are principal "
+                  "axes)")
+        ok = False
+    if Cw is not None and J is None and "J" not in r.bad:
         log.error(r.ref("C_w"), f"section {sid} gives the warping constant C_w without the "
                   "torsional constant J; give J too, or leave both blank")
+        ok = False
     if J is not None:
         for key, v in (("x_o", xo), ("y_o", yo)):
-            if v is None:
+            if v is None and key not in r.bad:
                 log.error(r.ref(key), f"section {sid} gives J but not the shear centre's "
                           f"distance {key} from the centroid, which the flexural-torsional "
                           "check needs: give it (0 on an axis of symmetry)")
+                ok = False
+        polar = area * (rx * rx + ry * ry)  # no section's J exceeds it (a circle's equals it)
+        if J > polar * (1.0 + 1e-3):
+            log.error(r.ref("J"), f"the torsional constant J of section {sid} ({_g(J)} in4) "
+                      f"exceeds its polar moment of inertia A (r_x^2 + r_y^2) = "
+                      f"{_g(polar)} in4, which no section's J can; check the value and its "
+                      "unit")
+            ok = False
+        if rz is not None and ok:
+            log.warning(r.ref("J"), f"section {sid} gives r_z, so its principal axes are not x "
+                        "and y: its J, C_w and shear centre are not used, and its torsional "
+                        "buckling is left to the engineer (said in the member's notes)")
+    return ok
 
 
 def _f(row: Row, key: str) -> float | None:
@@ -773,12 +793,18 @@ class _Reading:
             if area is None or rx is None or ry is None or des is None:
                 self.broken.add(sid)
                 continue
+            ok = True
             if net is not None and net > area + _TOL_IN:
                 log.error(r.ref("net_area"), f"the net area of section {sid} ({_g(net)} in2) "
                           f"exceeds its gross area ({_g(area)} in2)")
+                ok = False
             rz, J, Cw = _f(r, "r_z"), _f(r, "J"), _f(r, "C_w")
             xo, yo = _f(r, "x_o"), _f(r, "y_o")
-            _rolled_torsion_consistent(r, sid, rx, ry, rz, J, Cw, xo, yo, log)
+            if not (_rolled_torsion_consistent(r, sid, area, rx, ry, rz, J, Cw, xo, yo, log)
+                    and ok):
+                # (said at its cell; the section's own check would say it again at the id)
+                self.broken.add(sid)
+                continue
             out[sid] = (RolledShape(des, area, rx, ry, net, _f(r, "U") or 1.0, rz, J, Cw, xo,
                                     yo), r, "rolled shape")
         for sid, (sec, r, kind) in list(out.items()):

@@ -18,7 +18,7 @@ from rating.capacity.compression import (
 )
 from rating.capacity.sections import section_properties
 from rating.errors import InputError
-from rating.model import Finding, RolledShape
+from rating.model import BarState, Finding, RolledShape
 
 G = G_OVER_E * E
 
@@ -77,7 +77,7 @@ def test_a_tee_in_flexural_torsional_buckling_by_eq_2():
     chk = c.checks[0]
     assert chk.name == "compression: flexural-torsional buckling"
     assert chk.R_n_kip == pytest.approx(on_curve(A, P_e), rel=1e-9)
-    assert "J = 0.130 in4" in chk.detail and "y_o = 1.41 in" in chk.detail
+    assert "J = 0.13 in4" in chk.detail and "y_o = 1.41 in" in chk.detail
     assert c.torsional_unchecked == ""
     assert any("as tabulated on the Rolled sheet" in a for a in c.assumptions)
 
@@ -120,3 +120,38 @@ def test_inconsistent_torsion_properties_are_refused(shape, needle):
     with pytest.raises(InputError, match="member M") as e:
         section_properties(shape, member="M", length_ft=10.0)
     assert needle in str(e.value)
+
+
+def test_a_missing_rolled_member_is_not_flagged_for_torsion():
+    # nothing left carries load: its resistance is zero, no torsional check is wanting
+    c = run(TEE, (Finding("M", "all", bar_state=BarState.MISSING),))
+    assert c.checks[0].R_n_kip == 0.0
+    assert c.torsional_unchecked == ""
+    assert not any("could not be checked" in a for a in c.assumptions)
+
+
+def test_an_unsymmetric_shape_without_J_is_named_with_its_article_and_reason():
+    c = run(RolledShape("Z (test data)", 4.0, 2.0, 1.0, x_o_in=0.5, y_o_in=0.3))
+    assert c.torsional_unchecked == "unsymmetric"
+    assert any("an unsymmetric section whose torsional" in a
+               and "J is not given on the Rolled sheet" in a for a in c.assumptions)
+
+
+def test_one_reason_is_said_once_for_every_location():
+    c = run(ANGLE, (Finding("M", "all", station_ft=3.0, percent_loss=20.0),), L=8.0)
+    (note,) = [a for a in c.assumptions if "not shown to be doubly symmetric" in a]
+    assert note.count("x and y are not its principal axes") == 1
+
+
+def test_the_note_gives_the_twisting_modes_load_not_a_flexural_one():
+    # a rolled I (doubly symmetric) whose flexural buckling about y is far below its
+    # torsional buckling: the note's "torsional" load is P_ez's, as Eq. 6.9.4.1.3-1 gives
+    shape = RolledShape("I (test data)", 5.34, 3.26, 0.84, J_in4=0.17, C_w_in6=52.0,
+                        x_o_in=0.0, y_o_in=0.0)
+    c = run(shape, L=16.0)
+    assert c.checks[0].name == "compression: flexural buckling"
+    L_in = 16.0 * 12.0
+    r_o2 = 3.26**2 + 0.84**2
+    P_ez = (math.pi**2 * E * 52.0 / L_in**2 + G * 0.17) / r_o2  # kip (F_ez A)
+    (note,) = [a for a in c.assumptions if "checked at each location" in a]
+    assert f"least P_n = {on_curve(5.34, P_ez):.1f} kip (torsional)" in note

@@ -59,12 +59,26 @@ def test_a_singly_symmetric_section_by_eq_2():
 
 def test_a_doubly_symmetric_section_by_eq_1():
     # Eq. 6.9.4.1.3-1: P_e = (pi^2 E C_w / (K_z l)^2 + G J) A / (I_x + I_y); a flexural
-    # mode below it is the least eigenvalue (and the flexural check's own)
+    # mode below it is the flexural check's own, not the torsional mode's load
     tp = props(J=0.05, C_w=50.0, y_o=0.0)
     want = (math.pi**2 * E * 50.0 / 216.0**2 + G * 0.05) * 13.0 / (212.0 + 382.0)
     got, mode = torsional_buckling_load(tp, E, G, 5000.0, 6000.0, 216.0)
     assert got == pytest.approx(want, rel=1e-12) and mode == "torsional"
-    assert torsional_buckling_load(tp, E, G, 10.0, 6000.0, 216.0)[0] == 10.0
+    assert torsional_buckling_load(tp, E, G, 10.0, 6000.0, 216.0)[0] == got
+
+
+def test_a_flexural_mode_below_the_coupled_one_is_not_the_torsional_load():
+    # symmetric about y (x_o = 0): flexure about x does not twist; with P_ex far below the
+    # coupled root of Eq. 6.9.4.1.3-2 the torsional load is still that root (a reviewer saw
+    # the flexural load named "flexural-torsional" in a note)
+    tp = props()
+    P_ex, P_ey, KL_z = 50.0, 3000.0, 216.0
+    Pz = P_ez(tp, KL_z)
+    H = 1 - tp.y_o_in**2 / tp.r_o_in**2
+    want = (P_ey + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_ey * Pz * H / (P_ey + Pz) ** 2))
+    assert want > P_ex
+    got, mode = torsional_buckling_load(tp, E, G, P_ex, P_ey, KL_z)
+    assert got == pytest.approx(want, rel=1e-9) and mode == "flexural-torsional"
 
 
 @settings(max_examples=100, deadline=None)
@@ -139,7 +153,7 @@ def test_an_open_chord_without_lacing_buckles_in_flexure_and_torsion():
     (chk,) = c.checks
     assert chk.name == "compression: flexural-torsional buckling"
     assert chk.R_n_kip == pytest.approx(P_n, rel=1e-9)
-    assert "6.9.4.1.3" in chk.provision and f"J = {tp.J_in4:.3f} in4" in chk.detail
+    assert "6.9.4.1.3" in chk.provision and f"J = {tp.J_in4:.4g} in4" in chk.detail
     # the flexural resistance it replaces is said beside it, and is higher
     flexural = 0.658 ** (P_o / min(P_ex, P_ey)) * P_o
     assert f"flexural buckling alone P_n = {flexural:.1f} kip" in chk.detail
