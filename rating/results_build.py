@@ -360,14 +360,15 @@ def recommendation(rating: BridgeRating, unit: str,
 def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:
     """What a sensitivity's verdict asks of the engineer where it is worse than the
     rating's own (""; where it is not): closing, a posting where none is, or lower posting
-    loads (the lowest truck RF as printed lower)."""
+    loads (the lowest truck RF as printed lower, or any truck posted lower: ``w.lowered``)."""
     if w.verdict == "a closure to consider":
         return "consider closing the bridge"
     if w.verdict != "a posting":
         return ""
     if main is None or main.verdict == "no restriction":
         return "post the bridge"
-    if w.rf is not None and main.rf is not None and reported_rf(w.rf) < reported_rf(main.rf):
+    if w.lowered or (w.rf is not None and main.rf is not None
+                     and reported_rf(w.rf) < reported_rf(main.rf)):
         return "post the bridge for lower loads"
     return ""
 
@@ -384,7 +385,10 @@ def _lowest_words(w: WithoutMember) -> str:
     "no load path for the trucks" where there is none)."""
     if w.rf is None:
         return "no load path for the trucks"
-    return f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling})"
+    # (which trucks a lower posting would reach; a closure reaches them all)
+    lower = (f", lower postings for {', '.join(w.lowered)}"
+             if w.lowered and w.verdict == "a posting" else "")
+    return f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling}){lower}"
 
 
 def _permit_text(rating: BridgeRating, condition: str = "") -> str:

@@ -237,3 +237,46 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
     same = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.60, "SU4",
                                                                "U2L3")})
     assert not build_results(same).recommendation.startswith("Only if")
+
+
+def test_a_sensitivity_that_posts_another_truck_lower_makes_the_headline_conditional(
+        pony_rating):
+    """The lowest truck RF unchanged, but another truck posted lower without the bent member
+    (``WithoutMember.lowered``, from rating.lrfr.engine.trucks_verdict against the rating's
+    own postings): still conditional, naming the trucks (a reviewer's finding)."""
+    from rating.lrfr.engine import WithoutMember
+
+    main_rf = min(cp.rf for cid, cp in pony_rating.postings.items()
+                  if cid in ("SU4", "SU5", "SU6", "SU7", "TYPE-3", "TYPE-3S2", "TYPE-3-3"))
+    w = WithoutMember("a posting", main_rf, "SU6", "U2L3", lowered=("TYPE-3S2",))
+    rec = build_results(replace(pony_rating, without={"L2U3": w})).recommendation
+    assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent)")
+    assert "post the bridge for lower loads (without L2U3, lowest truck RF" in rec
+    assert "lower postings for TYPE-3S2; members only" in rec
+
+
+def test_two_bent_members_say_the_gravest_consequence(pony_rating):
+    from rating.lrfr.engine import WithoutMember
+
+    lower = WithoutMember("a posting", 0.40, "SU4", "U2L3")
+    closing = WithoutMember("a closure to consider", 0.12, "SU7", "U1L2")
+    rec = build_results(replace(pony_rating, without={"L2U3": lower, "U1L2": closing})
+                        ).recommendation
+    assert rec.startswith("Only if L2U3, U1L2 are confirmed to act (recorded bent)")
+    assert "If they do not act, consider closing the bridge (without L2U3, lowest truck RF "\
+           "0.40 (SU4, U2L3); without U1L2, lowest truck RF 0.12 (SU7, U1L2)" in rec
+
+
+def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
+    from rating.lrfr.engine import trucks_verdict
+    from rating.lrfr.posting import PostingAction
+
+    own = pony_rating.postings
+    cid = next(c for c, cp in own.items() if cp.result.action is PostingAction.POST
+               and c == "TYPE-3S2")
+    lower = dict(own)
+    lower[cid] = replace(own[cid], result=replace(own[cid].result, posting_tons=
+                                                  own[cid].result.posting_tons - 1.0))
+    assert trucks_verdict(lower, pony_rating.cases, against=own).lowered == (cid,)
+    assert trucks_verdict(own, pony_rating.cases, against=own).lowered == ()
+    assert trucks_verdict(lower, pony_rating.cases).lowered == ()

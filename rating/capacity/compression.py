@@ -330,8 +330,9 @@ TORSIONAL_NOTE = (
     "them, so that it buckles in flexure (common practice for lacing or battens in sound "
     "condition); where its open form would buckle lower, the member's warning gives that "
     "resistance. For a rolled shape they are checked where the Rolled sheet gives its J, "
-    "C_w and shear centre about principal axes x and y (not for an angle given with r_z, "
-    "which buckles in flexure about its least axis over the longer effective length). "
+    "C_w and shear centre about principal axes x and y; an angle, given with its least "
+    "radius r_z, is checked in flexure about its least axis over the longer effective "
+    "length and its torsional buckling is left to the engineer. "
     "Members whose check could not be made (a rolled shape without those properties, a "
     "built-up section whose parts do not make one section) and that are not doubly "
     "symmetric are named in their own notes, for the engineer to check by hand.")

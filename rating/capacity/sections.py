@@ -332,6 +332,9 @@ def _rolled_torsion_valid(section: RolledShape, member: str, where: str) -> None
         if rz > min(section.r_x_in, section.r_y_in) * (1.0 + 1e-3) + 1e-6:
             raise InputError(f"member {member}: rolled shape r_z {rz:g} in exceeds r_x or "
                              "r_y; r_z is the least radius of gyration", where or None)
+    if section.r_z_in is None and section.x_o_in and section.y_o_in:
+        raise InputError(f"member {member}: rolled shape with its shear centre off both x and "
+                         "y (an angle) given without its least radius r_z", where or None)
     if section.J_in4 is None:
         if section.C_w_in6 is not None:
             raise InputError(f"member {member}: rolled shape C_w given without J",

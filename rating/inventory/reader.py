@@ -200,6 +200,12 @@ def _rolled_torsion_consistent(r: Row, sid: str, area: float, rx: float, ry: flo
                   "r_z is the least of all axes (leave it blank where x and y are principal "
                   "axes)")
         ok = False
+    if rz is None and xo and yo:
+        log.error(r.ref("r_z"), f"section {sid} has its shear centre off both x and y (x_o "
+                  "and y_o not 0: an angle, or another shape with no axis of symmetry), so x "
+                  "and y are not its principal axes: give its least radius r_z (its torsional "
+                  "buckling is then left to the engineer)")
+        ok = False
     if Cw is not None and J is None and "J" not in r.bad:
         log.error(r.ref("C_w"), f"section {sid} gives the warping constant C_w without the "
                   "torsional constant J; give J too, or leave both blank")

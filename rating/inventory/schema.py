@@ -520,9 +520,12 @@ ROLLED = TableSheet(
            blank_means="0 where J is given",
            help="Warping constant (0 or blank for a tee or an angle)."),
         _c("x_o", "Shear centre x_o", Kind.NUMBER, DIM, ge=0, le=30,
+           blank_means="symmetry not given (torsional buckling left to the engineer)",
            help="Distance from the centroid to the shear centre along the x axis (the axis "
-                "of r_x); 0 where the shape is symmetric about the y axis."),
+                "of r_x); 0 where the shape is symmetric about the y axis. x_o and y_o both 0 "
+                "declare it doubly symmetric; both not 0 (an angle) need r_z."),
         _c("y_o", "Shear centre y_o", Kind.NUMBER, DIM, ge=0, le=30,
+           blank_means="symmetry not given (torsional buckling left to the engineer)",
            help="Distance from the centroid to the shear centre along the y axis; 0 where "
                 "the shape is symmetric about the x axis."),
         _c("net_area", "Net area", Kind.NUMBER, AREA, gt=0, le=200, blank_means="gross area"),

@@ -217,6 +217,9 @@ class WithoutMember:
     case: str = ""
     controlling: str = ""
     bars: str = ""  # the bent bars left out ("bar 2"); "" for the whole member
+    # the trucks posted lower (or closed, or posted where they were not) than in the
+    # rating's own postings, where those were given (:func:`trucks_verdict`)
+    lowered: tuple[str, ...] = ()
 
     def what(self, member: str) -> str:
         """What was left out, in words: "L3U4" or "the bent bar 2 of L3L4"."""
@@ -709,7 +712,8 @@ def _chord_on_uframes(g: TrussGeometry, bridge: Bridge, capacities: dict[str, Me
     return chord
 
 
-def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord | None
+def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord | None,
+                 against: Mapping[str, CasePosting] | None = None
                  ) -> tuple[tuple[str, ...], WithoutMember] | None:
     """A pony truss's chord on its U-frames whose hips' detail the Bridge sheet does not
     give is rated as continuous there; this rates the trucks again with it hinged there
@@ -725,7 +729,7 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
         other = rate_bridge(variant, trucks, what_if=False)
     except (InputError, ConvergenceError):
         return chord.hips, WithoutMember("a closure to consider")
-    result = trucks_verdict(other.postings, other.cases)
+    result = trucks_verdict(other.postings, other.cases, against=against)
     return None if result is None else (chord.hips, result)
 
 
@@ -811,7 +815,8 @@ def _bent_bars(bridge: Bridge, member: str) -> str:
 
 
 def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
-                  capacities: Mapping[str, MemberCapacity] | None = None
+                  capacities: Mapping[str, MemberCapacity] | None = None,
+                  against: Mapping[str, CasePosting] | None = None
                   ) -> WithoutMember | None:
     """What the rating gives if a bent tension-only member the ratings rest on does not act:
     the members rated again with all its bars loose (out of service), for the trucks rated at
@@ -832,7 +837,7 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
-    return trucks_verdict(other.postings, other.cases, bars)
+    return trucks_verdict(other.postings, other.cases, bars, against)
 
 
 def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
@@ -844,10 +849,12 @@ def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
 
 
 def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCase],
-                    bars: str = "") -> WithoutMember | None:
+                   bars: str = "", against: Mapping[str, CasePosting] | None = None
+                   ) -> WithoutMember | None:
     """What the trucks' ratings give: "a closure to consider", "a posting" or "no
     restriction", with the lowest truck RF, its case and what controls it (None: no truck
-    rated, or none with a finite RF)."""
+    rated, or none with a finite RF); with ``against`` (the rating's own postings), the
+    trucks whose posting is worse than there (:func:`_worse_posting`)."""
     trucks = set(_truck_ids(cases))
     legal = [cp for cp in postings.values() if math.isfinite(cp.rf) and cp.case in trucks]
     if not legal:
@@ -856,7 +863,23 @@ def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCa
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
-    return WithoutMember(verdict, low.rf, low.case, low.controlling, bars)
+    lowered = tuple(cid for cid, cp in postings.items() if cid in trucks and against
+                    and cid in against and _worse_posting(cp, against[cid]))
+    return WithoutMember(verdict, low.rf, low.case, low.controlling, bars, lowered)
+
+
+_ACTION_RANK = {PostingAction.NONE: 0, PostingAction.POST: 1, PostingAction.CLOSE: 2}
+
+
+def _worse_posting(a: CasePosting, b: CasePosting) -> bool:
+    """Posting ``a`` restricts the truck more than ``b``: a graver action (posted where it
+    was not, closed where it was posted), or a lower safe posting load."""
+    ra, rb = _ACTION_RANK[a.result.action], _ACTION_RANK[b.result.action]
+    if ra != rb:
+        return ra > rb
+    return (a.result.action is PostingAction.POST and a.result.posting_tons is not None
+            and b.result.posting_tons is not None
+            and a.result.posting_tons < b.result.posting_tons)
 
 
 LACING_WINDOW = 1.25
@@ -947,7 +970,7 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
         rest = min([r.rf for (lab, c), r in ratings.items() if c == cid and lab not in flagged]
                    + [p.ratings[cid].rf for p in pins if cid in p.ratings], default=math.inf)
         merged[cid] = postings[cid] if rest < cp.rf else cp
-    result = trucks_verdict(merged, other.cases)
+    result = trucks_verdict(merged, other.cases, against=postings)
     if result is None:
         return None
     # (only lower ratings can follow: a changed action or posting load is a worse one)
@@ -1016,7 +1039,8 @@ def _by_year(material: Material | None) -> bool:
 
 
 def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
-                 capacities: Mapping[str, MemberCapacity]) -> OlderSteel | None:
+                 capacities: Mapping[str, MemberCapacity],
+                 against: Mapping[str, CasePosting] | None = None) -> OlderSteel | None:
     """A bridge built within a few years after a boundary of MBE Table 6A.6.2.1-1 [value from
     memory] whose members or pins take the steel by year may be of the older steel (rolled or
     ordered before the boundary; common practice): rated again with it, members and pins, for
@@ -1040,7 +1064,7 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in capacities.items() if lab not in by_year})
     except (InputError, ConvergenceError):
         return OlderSteel(by_year, pins, mat, edge, WithoutMember("a closure to consider"))
-    result = trucks_verdict(other.postings, other.cases)
+    result = trucks_verdict(other.postings, other.cases, against=against)
     return None if result is None else OlderSteel(by_year, pins, mat, edge, result)
 
 
@@ -1415,12 +1439,12 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     conditions: list[Condition] = []
     if what_if:
         for member, text in bent_relied_on.items():
-            w = _without_bent(member, bridge, cases, capacities)
+            w = _without_bent(member, bridge, cases, capacities, postings)
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)
         main = trucks_verdict(postings, cases)
-        older = _older_steel(bridge, cases, capacities)
+        older = _older_steel(bridge, cases, capacities, postings)
         if older is not None and bridge.info.year_built is not None:
             warnings.append(older_steel_text(older, bridge.info.year_built, main))
             conditions.append(Condition(
@@ -1439,7 +1463,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 "sections)", f"the sections of {members} are open", lacing.result))
         elif lacing is not None:
             assumptions.append(lacing_note(lacing))
-        hips = _hips_hinged(bridge, cases, chord)
+        hips = _hips_hinged(bridge, cases, chord, postings)
         if hips is not None:
             warnings.append(hips_text(*hips, main))
             conditions.append(Condition(

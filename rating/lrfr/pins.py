@@ -849,10 +849,10 @@ def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
                 # pack rust between the bars on a pin wedges them apart along it
                 out.append(f"pin at joint {joint}: pack rust is recorded at member {m.label}'s "
                            f"{'loop' if f.region is FindingRegion.THREAD else f.region.value} "
-                           f"({f.where or m.label}); it spreads the bars along the pin and "
-                           "lengthens the lever arms of its bending, while the pin is rated "
-                           "with the plates and gaps of the Packing sheet: record the measured "
-                           "gaps there (the gap before each plate)")
+                           f"({f.where or m.label}); it wedges the bars or plates apart along "
+                           "the pin and lengthens the lever arms of its bending, while the pin "
+                           "is rated with the plates and gaps of the Packing sheet: record the "
+                           "measured gaps there (the gap before each plate)")
             if f.remaining_thickness_in is None and f.percent_loss is None:
                 continue
             out.append(f"pin at joint {joint}: member {m.label} has section loss recorded at "

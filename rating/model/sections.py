@@ -192,6 +192,7 @@ class RolledShape:
         if self.x_o_in is None or self.y_o_in is None or self.r_z_in is not None:
             return ""
         on_axes = (self.x_o_in == 0.0) + (self.y_o_in == 0.0)
+        # (off both axes the reader asks for r_z: x and y are then not principal)
         return ("doubly symmetric", "singly symmetric", "unsymmetric")[2 - on_axes]
 
 

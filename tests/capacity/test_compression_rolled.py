@@ -130,11 +130,28 @@ def test_a_missing_rolled_member_is_not_flagged_for_torsion():
     assert not any("could not be checked" in a for a in c.assumptions)
 
 
-def test_an_unsymmetric_shape_without_J_is_named_with_its_article_and_reason():
-    c = run(RolledShape("Z (test data)", 4.0, 2.0, 1.0, x_o_in=0.5, y_o_in=0.3))
-    assert c.torsional_unchecked == "unsymmetric"
-    assert any("an unsymmetric section whose torsional" in a
+def test_a_shape_off_both_axes_is_refused_without_r_z():
+    # its x and y cannot be principal: rated on them an angle buckles too high
+    with pytest.raises(InputError, match="without its least radius r_z"):
+        section_properties(RolledShape("L", 3.75, 1.21, 1.21, J_in4=0.31, x_o_in=0.8,
+                                       y_o_in=0.8), member="M", length_ft=8.0)
+
+
+def test_a_singly_symmetric_shape_without_J_is_named_with_its_reason():
+    c = run(RolledShape("C (test data)", 4.5, 3.9, 0.7, x_o_in=1.2, y_o_in=0.0))
+    assert c.torsional_unchecked == "singly symmetric"
+    assert any("a singly symmetric section whose torsional" in a
                and "J is not given on the Rolled sheet" in a for a in c.assumptions)
+
+
+def test_an_unsymmetric_built_up_section_takes_its_article():
+    from rating.model import AnglePart, BuiltUpSection, PlatePart
+
+    apart = BuiltUpSection(parts=(PlatePart("p", 6.0, 0.5), AnglePart(
+        "a", 3.0, 3.0, 0.375, x_in=5.0, y_in=4.0, x_sign=1, y_sign=1)))
+    c = run(apart)
+    assert c.torsional_unchecked == "unsymmetric"
+    assert any("an unsymmetric section whose torsional" in a for a in c.assumptions)
 
 
 def test_one_reason_is_said_once_for_every_location():

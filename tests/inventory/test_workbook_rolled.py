@@ -97,3 +97,21 @@ def test_torsion_properties_beside_r_z_are_said_unused(tmp_path: Path) -> None:
     assert r.errors == ()
     find(r, cell("Rolled", 0, "J"), "its J, C_w and shear centre are not used",
          severity="warning")
+
+
+def test_a_shape_off_both_axes_needs_r_z(tmp_path: Path) -> None:
+    # an angle's shear centre (its heel) is off both geometric axes, which are then not
+    # principal: rated on them it would buckle 37 % too high (a reviewer's L 4 x 4 x 1/2)
+    r = check(tmp_path, _rolled(J=0.31, x_o=1.0, y_o=1.0))
+    find(r, cell("Rolled", 0, "r_z"), "has its shear centre off both x and y")
+    assert check(tmp_path, _rolled(r_z=0.8, J=0.31, x_o=1.0, y_o=1.0)).errors == ()
+
+
+def test_the_least_radius_message_converts_in_si(tmp_path: Path) -> None:
+    # each number with its own unit, so that an SI workbook reads it in mm
+    d = _rolled(r_z=40.0)
+    d["bridge"]["units"] = "SI"
+    d["tables"]["Rolled"][0].update(area=3445.0, r_x=82.8, r_y=21.3)
+    d["tables"]["Vehicles"][0]["gross"] = None
+    r = check(tmp_path, d)
+    find(r, cell("Rolled", 0, "r_z"), "mm) exceeds the lesser of r_x and r_y (21.3 mm)")
