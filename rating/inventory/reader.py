@@ -221,7 +221,7 @@ def _rolled_torsion_consistent(r: Row, sid: str, area: float, rx: float, ry: flo
         if J > polar * (1.0 + 1e-3):
             log.error(r.ref("J"), f"the torsional constant J of section {sid} ({_g(J)} in4) "
                       f"exceeds its polar moment of inertia A (r_x^2 + r_y^2) = "
-                      f"{_g(polar)} in4, which no section's J can; check the value and its "
+                      f"{polar:.4g} in4, which no section's J can; check the value and its "
                       "unit")
             ok = False
         if rz is not None and ok:
@@ -252,7 +252,10 @@ def _b(row: Row, key: str) -> bool | None:
 
 
 def _g(x: float) -> str:
-    return f"{x:.4g}"
+    """A value in a message: six significant digits, so that an SI workbook's value, held in
+    US units, reads back as entered after rating.units.si_text (four digits of 40 mm held as
+    1.575 in read 40.01 mm)."""
+    return f"{x:.6g}"
 
 
 def _listing(items: Iterable[str], limit: int = 12) -> str:

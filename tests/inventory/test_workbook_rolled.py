@@ -114,4 +114,4 @@ def test_the_least_radius_message_converts_in_si(tmp_path: Path) -> None:
     d["tables"]["Rolled"][0].update(area=3445.0, r_x=82.8, r_y=21.3)
     d["tables"]["Vehicles"][0]["gross"] = None
     r = check(tmp_path, d)
-    find(r, cell("Rolled", 0, "r_z"), "mm) exceeds the lesser of r_x and r_y (21.3 mm)")
+    find(r, cell("Rolled", 0, "r_z"), "(40 mm) exceeds the lesser of r_x and r_y (21.3 mm)")
