@@ -40,21 +40,26 @@ def P_ez(tp: TorsionProperties, KL_z: float) -> float:
     return (math.pi**2 * E * tp.C_w_in6 / KL_z**2 + G * tp.J_in4) / tp.r_o_in**2
 
 
+def eq_2(P_e: float, Pz: float, offset: float, r_o: float) -> float:
+    """Eq. 6.9.4.1.3-2 written out: the lower root for a section whose shear centre lies
+    ``offset`` from the centroid on its axis of symmetry, ``P_e`` the flexural load that
+    couples with the twist. [value from memory]"""
+    H = 1 - offset**2 / r_o**2
+    return (P_e + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_e * Pz * H / (P_e + Pz) ** 2))
+
+
 def test_a_singly_symmetric_section_by_eq_2():
     # symmetric about y (x_o = 0): Eq. 6.9.4.1.3-2 with P_ey
     tp = props()
     P_ex, P_ey, KL_z = 1700.0, 3000.0, 216.0
     Pz = P_ez(tp, KL_z)
-    H = 1 - tp.y_o_in**2 / tp.r_o_in**2
-    want = (P_ey + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_ey * Pz * H / (P_ey + Pz) ** 2))
     got, mode = torsional_buckling_load(tp, E, G, P_ex, P_ey, KL_z)
-    assert got == pytest.approx(want, rel=1e-9) and mode == "flexural-torsional"
+    assert got == pytest.approx(eq_2(P_ey, Pz, tp.y_o_in, tp.r_o_in), rel=1e-9)
+    assert mode == "flexural-torsional"
     # symmetric about x (y_o = 0): the same form with P_ex
     tp = props(x_o=6.7, y_o=0.0)
-    H = 1 - tp.x_o_in**2 / tp.r_o_in**2
-    want = (P_ex + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_ex * Pz * H / (P_ex + Pz) ** 2))
-    assert torsional_buckling_load(tp, E, G, P_ex, P_ey, KL_z)[0] == pytest.approx(want,
-                                                                                 rel=1e-9)
+    assert torsional_buckling_load(tp, E, G, P_ex, P_ey, KL_z)[0] == pytest.approx(
+        eq_2(P_ex, Pz, tp.x_o_in, tp.r_o_in), rel=1e-9)
 
 
 def test_a_doubly_symmetric_section_by_eq_1():
@@ -73,9 +78,7 @@ def test_a_flexural_mode_below_the_coupled_one_is_not_the_torsional_load():
     # the flexural load named "flexural-torsional" in a note)
     tp = props()
     P_ex, P_ey, KL_z = 50.0, 3000.0, 216.0
-    Pz = P_ez(tp, KL_z)
-    H = 1 - tp.y_o_in**2 / tp.r_o_in**2
-    want = (P_ey + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_ey * Pz * H / (P_ey + Pz) ** 2))
+    want = eq_2(P_ey, P_ez(tp, KL_z), tp.y_o_in, tp.r_o_in)
     assert want > P_ex
     got, mode = torsional_buckling_load(tp, E, G, P_ex, P_ey, KL_z)
     assert got == pytest.approx(want, rel=1e-9) and mode == "flexural-torsional"
@@ -145,9 +148,7 @@ def test_an_open_chord_without_lacing_buckles_in_flexure_and_torsion():
     P_ex = math.pi**2 * E * s.A_g_in2 / (KL / s.r_x_in) ** 2
     P_ey = math.pi**2 * E * s.A_g_in2 / (KL / s.r_y_in) ** 2
     assert abs(tp.x_o_in) < 1e-6 and tp.y_o_in > 5.0
-    Pz = P_ez(tp, 18.0 * 12.0)  # K_z = 1.0 over the panel length
-    H = 1 - tp.y_o_in**2 / tp.r_o_in**2
-    P_e = (P_ey + Pz) / (2 * H) * (1 - math.sqrt(1 - 4 * P_ey * Pz * H / (P_ey + Pz) ** 2))
+    P_e = eq_2(P_ey, P_ez(tp, 18.0 * 12.0), tp.y_o_in, tp.r_o_in)  # K_z = 1.0 over the panel
     P_o = FY * s.A_g_in2
     P_n = 0.658 ** (P_o / P_e) * P_o if P_o / P_e <= 2.25 else 0.877 * P_e
     (chk,) = c.checks
