@@ -973,13 +973,9 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     result = trucks_verdict(merged, other.cases, against=postings)
     if result is None:
         return None
-    # (only lower ratings can follow: a changed action or posting load is a worse one)
-    lowered = any((cp.result.action, cp.result.posting_tons)
-                  != (postings[cid].result.action, postings[cid].result.posting_tons)
-                  for cid, cp in merged.items() if cid in postings)
     least = min(((other.ratings[(lab, cid)].rf, cid, lab) for cid in trucks for lab in flagged
                  if (lab, cid) in other.ratings), default=None)
-    return LacingOpen(flagged, result, lowered, least)
+    return LacingOpen(flagged, result, bool(result.lowered), least)
 
 
 @dataclass(frozen=True)
