@@ -961,10 +961,13 @@ class _Reading:
                 continue
             sid = _s(r, "section")
             sec = None
+            estimated_at = ""
             if sid is not None:
                 if sid in sections:
-                    sec = sections[sid][0]
+                    sec, sec_row, _ = sections[sid]
                     used_sections.add(sid)
+                    if _s(sec_row, "dims_from") == "estimated":
+                        estimated_at = sec_row.ref("dims_from")
                 elif sid in self.broken:
                     pass
                 else:
@@ -988,7 +991,7 @@ class _Reading:
                 designs.append(MemberDesign(label, sec, mat, K=_f(r, "K"),
                                             condition_factor=_f(r, "phi_c"),
                                             system_factor=_f(r, "phi_s"),
-                                            where=r.ref("member")))
+                                            where=r.ref("member"), estimated_at=estimated_at))
         if no_material and "material" not in b.bad:
             log.error(b.ref("material"), "no truss material is given here and members "
                       f"{_listing(no_material)} have no material id; state the material "

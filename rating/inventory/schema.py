@@ -61,6 +61,7 @@ class Kind(StrEnum):
 
 YES_NO = ("yes", "no")
 HOW_FOUND = ("measured", "estimated")
+DIMENSION_SOURCES = ("plans", "measured", "estimated")
 
 
 @dataclass(frozen=True)
@@ -159,6 +160,15 @@ def _c(key: str, title: str, kind: Kind, units: tuple[str, str] | None = None,
     if units is not None:
         kw["unit"], kw["si_unit"] = units
     return Column(key, title, kind, **kw)  # type: ignore[arg-type]
+
+
+def _dims_from() -> Column:
+    """Where a section's dimensions come from (the same column on every section sheet)."""
+    return Column("dims_from", "Dimensions from", Kind.CHOICE, choices=DIMENSION_SOURCES,
+                  blank_means="plans or measured",
+                  help="estimated: judged without plans or measurement. A member whose "
+                       "estimated section sets a posting is named in the warnings, to be "
+                       "measured before the decision.")
 
 
 def _pct(key: str, title: str, **kw: object) -> Column:
@@ -376,6 +386,7 @@ EYEBARS = TableSheet(
         _c("head_beyond_hole", "Head beyond the hole", Kind.NUMBER, DIM, gt=0, le=20,
            blank_means="head concentric with the hole",
            help="Measured from the edge of the pin hole to the end of the head, along the bar."),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"section": "EB-1", "count": 2, "width": 4.0, "thickness": 1.0, "head_diameter": 9.5,
@@ -398,6 +409,7 @@ RODS = TableSheet(
         _c("rod_end", "End", Kind.CHOICE, required=True, choices=tuple(e.value for e in RodEnd)),
         _c("root_diameter", "Thread root diameter", Kind.NUMBER, DIM, gt=0, le=6,
            help="Needed for threaded ends."),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"section": "R-1", "count": 2, "shape": "round", "diameter": 1.25, "rod_end": "upset"},),
@@ -424,6 +436,7 @@ BUILTUP = TableSheet(
            warn_above=1.25, blank_means="no holes deducted"),
         _c("holes", "Holes in net section", Kind.INTEGER, ge=0, le=40, blank_means="0"),
         _c("U", "Shear lag factor U", Kind.NUMBER, gt=0, le=1, blank_means="1.0"),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"section": "TC-1", "connectors": "lacing", "spacing": 16.0, "hole_diameter": 0.875,
@@ -530,6 +543,7 @@ ROLLED = TableSheet(
                 "the shape is symmetric about the x axis."),
         _c("net_area", "Net area", Kind.NUMBER, AREA, gt=0, le=200, blank_means="gross area"),
         _c("U", "Shear lag factor U", Kind.NUMBER, gt=0, le=1, blank_means="1.0"),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"section": "S-1", "designation": "I 10 x 25 lb", "area": 7.37, "r_x": 4.07,

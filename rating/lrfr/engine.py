@@ -529,6 +529,7 @@ def _bars_that_would_push(g: TrussGeometry, ratings: Mapping[tuple[str, str], Me
 TORSIONAL_BUCKLING = "TORSIONAL BUCKLING NOT CHECKED"
 OPEN_SECTION = "LACING CLOSES THE SECTION"
 ESTIMATED_LOSS = "ESTIMATED LOSS GOVERNS"
+ESTIMATED_SECTION = "ESTIMATED SECTION GOVERNS"
 
 
 def _estimated_loss_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
@@ -545,6 +546,23 @@ def _estimated_loss_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
     return [f"{ESTIMATED_LOSS}: member {m}: the section loss that sets its rating was estimated, "
             f"not measured ({where}); measure it before the posting is decided"
             for m, where in found.items()]
+
+
+def _estimated_section_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
+                               postings: Mapping[str, CasePosting], deciding: set[str],
+                               bridge: Bridge) -> list[str]:
+    """A member that sets a posting, a closure or a barring whose section's dimensions the
+    workbook records as estimated (not measured, not from plans): the decision rests on
+    them, so it is headed in capitals (common practice: the section that governs a posting
+    is measured)."""
+    found: dict[str, str] = {}
+    for m, _ in _deciding_ratings(ratings, postings, deciding):
+        d = bridge.design_of(m)
+        if d is not None and d.estimated_at:
+            found.setdefault(m, d.estimated_at)
+    return [f"{ESTIMATED_SECTION}: member {m}: the dimensions of the section that sets its "
+            f"rating are recorded as estimated ({where}), not measured or taken from plans; "
+            "measure them before the posting is decided" for m, where in found.items()]
 
 
 def _deciding_ratings(ratings: Mapping[tuple[str, str], MemberCaseRating],
@@ -1246,6 +1264,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
+        if bridge.design_of(m.label).estimated_at:
+            assumptions.append(f"member {m.label}: its section's dimensions are recorded as "
+                               "estimated (not measured or taken from plans) and rated as "
+                               "given")
 
     out_of_service = frozenset(
         lab for lab, cap in capacities.items()
@@ -1427,6 +1449,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     warnings.extend(_bars_that_would_push(g, ratings, dependent, controlling))
     warnings.extend(_torsional_not_checked(ratings, capacities, postings, deciding))
     warnings.extend(_estimated_loss_governs(ratings, postings, deciding))
+    warnings.extend(_estimated_section_governs(ratings, postings, deciding, bridge))
     for p in pins:
         warnings.extend(_pin_bearing_as_built(w, p.joint, controlling) for w in p.warnings)
         assumptions.extend(p.assumptions)

@@ -72,7 +72,9 @@ class CrossSection:
 @dataclass(frozen=True)
 class MemberDesign:
     """A member's section and material; ``K`` overrides the effective length factor,
-    ``condition_factor`` and ``system_factor`` override the tabulated ones."""
+    ``condition_factor`` and ``system_factor`` override the tabulated ones.
+    ``estimated_at``: where the workbook records the section's dimensions as estimated (not
+    measured or from plans), "" where it does not."""
 
     member: str
     section: Section
@@ -81,6 +83,7 @@ class MemberDesign:
     condition_factor: float | None = None
     system_factor: float | None = None
     where: str = ""
+    estimated_at: str = ""
 
 
 @dataclass(frozen=True)
