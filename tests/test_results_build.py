@@ -275,8 +275,29 @@ def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
     cid = next(c for c, cp in own.items() if cp.result.action is PostingAction.POST
                and c == "TYPE-3S2")
     lower = dict(own)
-    lower[cid] = replace(own[cid], result=replace(own[cid].result, posting_tons=
-                                                  own[cid].result.posting_tons - 1.0))
+    lower[cid] = replace(own[cid], rf=own[cid].rf - 0.1)
     assert trucks_verdict(lower, pony_rating.cases, against=own).lowered == (cid,)
     assert trucks_verdict(own, pony_rating.cases, against=own).lowered == ()
     assert trucks_verdict(lower, pony_rating.cases).lowered == ()
+
+
+def test_a_posting_lower_in_tonnes_only_is_lower_for_an_si_bridge(pony_rating):
+    """An SI bridge's signs are worked in whole tonnes: an RF that lowers the tonnes sign
+    but not the tons one (or the other way) is judged in tonnes (MBE 6A.8.3 [value from
+    memory], rounded down once in the bridge's unit)."""
+    from rating.lrfr.engine import trucks_verdict
+    from rating.lrfr.posting import posting_load
+
+    own = pony_rating.postings
+    cid = "TYPE-3"
+    W = next(c.load.gross_weight_tons for c in pony_rating.cases if c.id == cid)
+    # two RFs 0.01 apart, both posted, whose signs differ in tonnes but not in tons
+    pairs = [(r / 100 + 0.01, r / 100) for r in range(40, 99)
+             if posting_load(r / 100 + 0.01, W) == posting_load(r / 100, W)
+             and posting_load(r / 100 + 0.01, W / TON_PER_TONNE)
+             > posting_load(r / 100, W / TON_PER_TONNE)]
+    hi, lo = pairs[0]
+    main = {**own, cid: replace(own[cid], rf=hi, result=posting(hi, W))}
+    other = {**own, cid: replace(own[cid], rf=lo, result=posting(lo, W))}
+    assert trucks_verdict(other, pony_rating.cases, against=main, metric=True).lowered == (cid,)
+    assert trucks_verdict(other, pony_rating.cases, against=main).lowered == ()

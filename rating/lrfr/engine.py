@@ -63,7 +63,7 @@ from rating.lrfr.positions import (
     run_key,
     runs_of,
 )
-from rating.lrfr.posting import PostingAction, PostingResult, posting
+from rating.lrfr.posting import PostingAction, PostingResult, posting, posting_load
 from rating.lrfr.reported import reported_rf
 from rating.lrfr.uframes import UFRAME_ASSUMPTION, UFRAME_FORCE_KLF, PonyChord, pony_chord
 from rating.model import (
@@ -79,8 +79,10 @@ from rating.model import (
     Pin,
     RodSet,
     TrussGeometry,
+    UnitSystem,
     VehicleCategory,
 )
+from rating.units import TON_PER_TONNE
 from rating.vehicles.library import RatingLoad, rating_load, rating_loads
 
 SENSES = ((1, "tension"), (-1, "compression"))
@@ -747,7 +749,8 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
         other = rate_bridge(variant, trucks, what_if=False)
     except (InputError, ConvergenceError):
         return chord.hips, WithoutMember("a closure to consider")
-    result = trucks_verdict(other.postings, other.cases, against=against)
+    result = trucks_verdict(other.postings, other.cases, against=against,
+                            metric=_metric(bridge))
     return None if result is None else (chord.hips, result)
 
 
@@ -855,7 +858,7 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
-    return trucks_verdict(other.postings, other.cases, bars, against)
+    return trucks_verdict(other.postings, other.cases, bars, against, _metric(bridge))
 
 
 def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
@@ -867,12 +870,13 @@ def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
 
 
 def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCase],
-                   bars: str = "", against: Mapping[str, CasePosting] | None = None
-                   ) -> WithoutMember | None:
+                   bars: str = "", against: Mapping[str, CasePosting] | None = None,
+                   metric: bool = False) -> WithoutMember | None:
     """What the trucks' ratings give: "a closure to consider", "a posting" or "no
     restriction", with the lowest truck RF, its case and what controls it (None: no truck
     rated, or none with a finite RF); with ``against`` (the rating's own postings), the
-    trucks whose posting is worse than there (:func:`_worse_posting`)."""
+    trucks whose posting is worse than there (:func:`_worse_posting`; ``metric``: the
+    bridge's signs are in tonnes)."""
     trucks = set(_truck_ids(cases))
     legal = [cp for cp in postings.values() if math.isfinite(cp.rf) and cp.case in trucks]
     if not legal:
@@ -881,23 +885,33 @@ def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCa
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
+    weight = {c.id: c.load.gross_weight_tons for c in cases}
     lowered = tuple(cid for cid, cp in postings.items() if cid in trucks and against
-                    and cid in against and _worse_posting(cp, against[cid]))
+                    and cid in against
+                    and _worse_posting(cp, against[cid], weight[cid], metric))
     return WithoutMember(verdict, low.rf, low.case, low.controlling, bars, lowered)
+
+
+def _metric(bridge: Bridge) -> bool:
+    """The bridge's posting signs are in tonnes (an SI workbook)."""
+    return bridge.settings.units is UnitSystem.SI
 
 
 _ACTION_RANK = {PostingAction.NONE: 0, PostingAction.POST: 1, PostingAction.CLOSE: 2}
 
 
-def _worse_posting(a: CasePosting, b: CasePosting) -> bool:
+def _worse_posting(a: CasePosting, b: CasePosting, W_tons: float, metric: bool) -> bool:
     """Posting ``a`` restricts the truck more than ``b``: a graver action (posted where it
-    was not, closed where it was posted), or a lower safe posting load."""
+    was not, closed where it was posted), or a lower safe posting load in whole units of the
+    bridge's own (tonnes for an SI bridge, whose signs are worked in tonnes:
+    rating.results_build._report_posting; MBE 6A.8.3 [value from memory])."""
     ra, rb = _ACTION_RANK[a.result.action], _ACTION_RANK[b.result.action]
     if ra != rb:
         return ra > rb
-    return (a.result.action is PostingAction.POST and a.result.posting_tons is not None
-            and b.result.posting_tons is not None
-            and a.result.posting_tons < b.result.posting_tons)
+    if a.result.action is not PostingAction.POST:
+        return False
+    W = W_tons / TON_PER_TONNE if metric else W_tons
+    return posting_load(a.rf, W) < posting_load(b.rf, W)
 
 
 LACING_WINDOW = 1.25
@@ -988,7 +1002,7 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
         rest = min([r.rf for (lab, c), r in ratings.items() if c == cid and lab not in flagged]
                    + [p.ratings[cid].rf for p in pins if cid in p.ratings], default=math.inf)
         merged[cid] = postings[cid] if rest < cp.rf else cp
-    result = trucks_verdict(merged, other.cases, against=postings)
+    result = trucks_verdict(merged, other.cases, against=postings, metric=_metric(bridge))
     if result is None:
         return None
     least = min(((other.ratings[(lab, cid)].rf, cid, lab) for cid in trucks for lab in flagged
@@ -1078,7 +1092,8 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
             lab: cap for lab, cap in capacities.items() if lab not in by_year})
     except (InputError, ConvergenceError):
         return OlderSteel(by_year, pins, mat, edge, WithoutMember("a closure to consider"))
-    result = trucks_verdict(other.postings, other.cases, against=against)
+    result = trucks_verdict(other.postings, other.cases, against=against,
+                            metric=_metric(bridge))
     return None if result is None else OlderSteel(by_year, pins, mat, edge, result)
 
 
