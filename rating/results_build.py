@@ -329,7 +329,12 @@ def recommendation(rating: BridgeRating, unit: str,
     text = _recommendation(rating, unit, report)
     main = trucks_verdict(rating.postings, rating.cases)
     hinge = {m: w for m, w in rating.without.items() if _consequence(w, main)}
-    others = [(c.holds, c.fails, _lowest_words(c.result) + "; see the warning",
+    vehicle_names = {c.id: c.load.name for c in rating.cases}
+
+    def lowest(w: WithoutMember) -> str:
+        return _lowest_words(w, vehicle_names, unit, report)
+
+    others = [(c.holds, c.fails, lowest(c.result) + "; see the warning",
                _consequence(c.result, main))
               for c in rating.conditions if _consequence(c.result, main)]
     # (holds, fails, what the trucks give then, what the engineer should then consider)
@@ -341,7 +346,7 @@ def recommendation(rating: BridgeRating, unit: str,
         clauses.append((
             f"{names} {'is' if one else 'are'} confirmed to act (recorded bent)",
             f"{who} {'does' if one else 'do'} not act",
-            "; ".join(f"without {w.what(m)}, {_lowest_words(w)}" for m, w in hinge.items())
+            "; ".join(f"without {w.what(m)}, {lowest(w)}" for m, w in hinge.items())
             + "; members only, see the warning", _gravest(
                 [_consequence(w, main) for w in hinge.values()])))
     clauses += others
@@ -360,34 +365,47 @@ def recommendation(rating: BridgeRating, unit: str,
 def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:
     """What a sensitivity's verdict asks of the engineer where it is worse than the
     rating's own (""; where it is not): closing, a posting where none is, or lower posting
-    loads (the lowest truck RF as printed lower, or any truck posted lower: ``w.lowered``)."""
+    loads (some truck or emergency vehicle posted lower than in the rating's own postings:
+    ``w.lowered``), or permits no longer carried (``w.permits_lost``)."""
     if w.verdict == "a closure to consider":
         return "consider closing the bridge"
-    if w.verdict != "a posting":
-        return ""
-    if main is None or main.verdict == "no restriction":
+    if w.verdict == "a posting" and (main is None or main.verdict == "no restriction"):
         return "post the bridge"
-    if w.lowered or (w.rf is not None and main.rf is not None
-                     and reported_rf(w.rf) < reported_rf(main.rf)):
+    if w.lowered:  # (trucks, or emergency vehicles alone)
         return "post the bridge for lower loads"
-    return ""
+    return "withhold the permits it would not carry" if w.permits_lost else ""
 
 
 def _gravest(consequences: list[str]) -> str:
     """The gravest of several consequences (:func:`_consequence`): closing, then a posting
     where none is, then lower posting loads."""
     return next(c for c in ("consider closing the bridge", "post the bridge",
-                            "post the bridge for lower loads") if c in consequences)
+                            "post the bridge for lower loads",
+                            "withhold the permits it would not carry") if c in consequences)
 
 
-def _lowest_words(w: WithoutMember) -> str:
-    """The lowest truck RF of a sensitivity, in words ("lowest truck RF 0.12 (SU7, U3L4)";
-    "no load path for the trucks" where there is none)."""
+def _lowest_words(w: WithoutMember, names: Mapping[str, str] | None = None,
+                  unit: str = "ton", report: Mapping[str, _ReportPosting] | None = None
+                  ) -> str:
+    """A sensitivity's lowest truck RF, in words ("lowest truck RF 0.12 (SU7, U3L4)"; "no
+    load path for the trucks" where there is none), and where it posts trucks lower, their
+    posting loads there beside the rating's own ("Type 3 10 tons, 15 as rated")."""
     if w.rf is None:
         return "no load path for the trucks"
-    # (which trucks a lower posting would reach; a closure reaches them all)
-    lower = (f", lower postings for {', '.join(w.lowered)}"
-             if w.lowered and w.verdict == "a posting" else "")
+    lower = ""
+    if w.verdict != "a closure to consider":  # (a closure reaches every truck)
+        def as_rated(cid: str) -> str:
+            own = (report or {}).get(cid)
+            return (f"{own.load:g} as rated" if own is not None and own.load is not None
+                    else "not posted as rated")
+        said = [f"{(names or {}).get(cid, cid)} "
+                + (f"{load:g} {unit}s ({as_rated(cid)})" if load is not None
+                   else "not to cross")
+                for cid, load in w.lowered]
+        lower = "; posted lower: " + ", ".join(said) if said else ""
+        if w.permits_lost:
+            lower += "; not carried: " + ", ".join((names or {}).get(cid, cid)
+                                                   for cid in w.permits_lost)
     return f"lowest truck RF {reported_rf(w.rf):.2f} ({w.case}, {w.controlling}){lower}"
 
 

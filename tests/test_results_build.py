@@ -228,13 +228,15 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
     from rating.lrfr.engine import WithoutMember
 
     assert pony_rating.without["L2U3"].verdict == "a closure to consider"  # (the sample)
-    lower = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.40, "SU4",
-                                                                "U2L3")})
+    lower = replace(pony_rating, without={"L2U3": WithoutMember(
+        "a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))})
     rec = build_results(lower).recommendation
     assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent): post the bridge.")
     assert ("If it does not act, post the bridge for lower loads (without L2U3, lowest truck "
-            "RF 0.40 (SU4, U2L3); members only, see the warning).") in rec
-    same = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.60, "SU4",
+            "RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 tonnes (9 "
+            "as rated); members only, see the warning).") in rec
+    # a lower RF that posts no truck lower changes nothing the engineer decides
+    same = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.40, "SU4",
                                                                "U2L3")})
     assert not build_results(same).recommendation.startswith("Only if")
 
@@ -248,23 +250,25 @@ def test_a_sensitivity_that_posts_another_truck_lower_makes_the_headline_conditi
 
     main_rf = min(cp.rf for cid, cp in pony_rating.postings.items()
                   if cid in ("SU4", "SU5", "SU6", "SU7", "TYPE-3", "TYPE-3S2", "TYPE-3-3"))
-    w = WithoutMember("a posting", main_rf, "SU6", "U2L3", lowered=("TYPE-3S2",))
+    w = WithoutMember("a posting", main_rf, "SU6", "U2L3", lowered=(("TYPE-3S2", 12.0),))
     rec = build_results(replace(pony_rating, without={"L2U3": w})).recommendation
     assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent)")
     assert "post the bridge for lower loads (without L2U3, lowest truck RF" in rec
-    assert "lower postings for TYPE-3S2; members only" in rec
+    assert ("posted lower: AASHTO legal load Type 3S2 12 tonnes (17 as rated); members only"
+            in rec)
 
 
 def test_two_bent_members_say_the_gravest_consequence(pony_rating):
     from rating.lrfr.engine import WithoutMember
 
-    lower = WithoutMember("a posting", 0.40, "SU4", "U2L3")
+    lower = WithoutMember("a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))
     closing = WithoutMember("a closure to consider", 0.12, "SU7", "U1L2")
     rec = build_results(replace(pony_rating, without={"L2U3": lower, "U1L2": closing})
                         ).recommendation
     assert rec.startswith("Only if L2U3, U1L2 are confirmed to act (recorded bent)")
     assert "If they do not act, consider closing the bridge (without L2U3, lowest truck RF "\
-           "0.40 (SU4, U2L3); without U1L2, lowest truck RF 0.12 (SU7, U1L2)" in rec
+           "0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 tonnes (9 as "\
+           "rated); without U1L2, lowest truck RF 0.12 (SU7, U1L2)" in rec
 
 
 def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
@@ -276,7 +280,8 @@ def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
                and c == "TYPE-3S2")
     lower = dict(own)
     lower[cid] = replace(own[cid], rf=own[cid].rf - 0.1)
-    assert trucks_verdict(lower, pony_rating.cases, against=own).lowered == (cid,)
+    (got,) = trucks_verdict(lower, pony_rating.cases, against=own).lowered
+    assert got[0] == cid and got[1] < own[cid].result.posting_tons
     assert trucks_verdict(own, pony_rating.cases, against=own).lowered == ()
     assert trucks_verdict(lower, pony_rating.cases).lowered == ()
 
@@ -299,5 +304,64 @@ def test_a_posting_lower_in_tonnes_only_is_lower_for_an_si_bridge(pony_rating):
     hi, lo = pairs[0]
     main = {**own, cid: replace(own[cid], rf=hi, result=posting(hi, W))}
     other = {**own, cid: replace(own[cid], rf=lo, result=posting(lo, W))}
-    assert trucks_verdict(other, pony_rating.cases, against=main, metric=True).lowered == (cid,)
+    (got,) = trucks_verdict(other, pony_rating.cases, against=main, metric=True).lowered
+    assert got == (cid, posting_load(lo, W / TON_PER_TONNE))
     assert trucks_verdict(other, pony_rating.cases, against=main).lowered == ()
+
+
+def test_the_sensitivities_compare_with_the_ratings_own_postings_in_its_unit(monkeypatch):
+    """End to end through rate_bridge: the bent member's sensitivity is compared with the
+    rating's own postings (``lowered``), for this SI bridge in tonnes (a reviewer found that
+    leaving the comparison out failed no test)."""
+    import rating.lrfr.engine as engine
+
+    seen = []
+    real = engine._worse_posting
+
+    def spy(a, b, W_tons, metric):
+        seen.append(metric)
+        return real(a, b, W_tons, metric)
+
+    monkeypatch.setattr(engine, "_worse_posting", spy)
+    rated = rate_bridge(read_workbook(PONY_SI).bridge, ["TYPE-3", "SU4", "SU7"])
+    assert rated.without["L2U3"].lowered
+    assert seen and all(seen)
+
+
+PRATT = PONY_SI.parent / "tc0417_pratt_1898.xlsx"
+
+
+def test_emergency_vehicles_and_permits_rest_on_a_sensitivity_too():
+    """A sensitivity that leaves the trucks unrestricted but posts an emergency vehicle
+    lower, or no longer carries a permit, still makes the headline conditional (a reviewer's
+    1906 bridge: the older steel took EV3 from 1.06 to 0.90 and the crane permit from carried
+    to not as requested, under an unconditional "no load restriction"). End to end: the
+    older steel rated again for the emergency vehicles too."""
+    import sys
+
+    from rating.lrfr.engine import CARRIED, Condition, WithoutMember
+
+    sys.path.insert(0, str(Path(__file__).resolve().parent / "lrfr"))
+    from test_engine import _by_year
+
+    r = rate_bridge(_by_year(1906), ["TYPE-3", "SU4", "EV3"])
+    (cond,) = r.conditions
+    assert "EV3" in dict(cond.result.lowered)
+    rec = build_results(r).recommendation
+    assert "Emergency vehicle EV3 22 tons (27 as rated)" in rec
+
+    rated = rate_bridge(read_workbook(PRATT).bridge, ["TYPE-3", "EV3", "TAM-CRANE"],
+                        what_if=False)
+    carried = replace(rated, postings={**rated.postings, "TAM-CRANE": replace(
+        rated.postings["TAM-CRANE"], permit=CARRIED)})
+    ev_only = WithoutMember("no restriction", 1.2, "TYPE-3", "L1U1", lowered=(("EV3", 5.0),))
+    lost = WithoutMember("no restriction", 1.2, "TYPE-3", "L1U1", permits_lost=("TAM-CRANE",))
+    for w, then in ((ev_only, "post the bridge for lower loads"),
+                    (lost, "withhold the permits it would not carry")):
+        text = build_results(replace(carried, conditions=(Condition(
+            "the steel is confirmed of the later grade", "the steel is the older grade", w),))
+                             ).recommendation
+        assert text.startswith("Only if the steel is confirmed of the later grade")
+        assert f"If the steel is the older grade, {then} (" in text
+    assert "not carried: mobile crane to Hollis Mill" in text
+    assert "only if the steel is confirmed of the later grade" in text  # (the permit's own)

@@ -186,14 +186,25 @@ def rows_read() -> int:
 # --- small typed accessors ---------------------------------------------------------------
 
 
-def _rolled_torsion_consistent(r: Row, sid: str, area: float, rx: float, ry: float,
-                               rz: float | None, J: float | None, Cw: float | None,
-                               xo: float | None, yo: float | None, log: ProblemLog) -> bool:
+_SINGLE_ANGLE = re.compile(r"\s*(?:L\s*\d|angle\b)", re.IGNORECASE)
+"""A designation that names one angle ("L 4 x 4 x 1/2", "angle 3 x 3"), not two ("2L ...")."""
+
+
+def _rolled_torsion_consistent(r: Row, sid: str, des: str, area: float, rx: float,
+                               ry: float, rz: float | None, J: float | None,
+                               Cw: float | None, xo: float | None, yo: float | None,
+                               log: ProblemLog) -> bool:
     """A rolled shape's least radius and torsion properties: what each needs with it, and a
     J no section could have. False where any is wrong (a cell already refused included: a
     value missing because its cell was bad is not said missing again)."""
     keys = ("r_z", "J", "C_w", "x_o", "y_o")
     ok = not any(k in r.bad for k in keys)
+    if rz is None and "r_z" not in r.bad and _SINGLE_ANGLE.match(des):
+        # its geometric axes are not principal: rated on r_x and r_y it buckles far too high
+        log.error(r.ref("r_z"), f"section {sid} is an angle ({des!r}): give its least radius "
+                  "of gyration r_z (about its principal axis), which its buckling takes; r_x "
+                  "and r_y about its legs overstate it")
+        ok = False
     if rz is not None and rz > min(rx, ry) * (1.0 + 1e-3) + _TOL_IN:
         log.error(r.ref("r_z"), f"the least radius of gyration r_z of section {sid} "
                   f"({_g(rz)} in) exceeds the lesser of r_x and r_y ({_g(min(rx, ry))} in); "
@@ -809,8 +820,8 @@ class _Reading:
                 ok = False
             rz, J, Cw = _f(r, "r_z"), _f(r, "J"), _f(r, "C_w")
             xo, yo = _f(r, "x_o"), _f(r, "y_o")
-            if not (_rolled_torsion_consistent(r, sid, area, rx, ry, rz, J, Cw, xo, yo, log)
-                    and ok):
+            if not (_rolled_torsion_consistent(r, sid, des, area, rx, ry, rz, J, Cw, xo, yo,
+                                               log) and ok):
                 # (said at its cell; the section's own check would say it again at the id)
                 self.broken.add(sid)
                 continue

@@ -220,8 +220,11 @@ class WithoutMember:
     controlling: str = ""
     bars: str = ""  # the bent bars left out ("bar 2"); "" for the whole member
     # the trucks posted lower (or closed, or posted where they were not) than in the
-    # rating's own postings, where those were given (:func:`trucks_verdict`)
-    lowered: tuple[str, ...] = ()
+    # rating's own postings, where those were given (:func:`trucks_verdict`): each case with
+    # its safe posting load here in whole units of the bridge's own (None: not posted)
+    lowered: tuple[tuple[str, float | None], ...] = ()
+    # the permits the rating's own postings find carried and this one does not
+    permits_lost: tuple[str, ...] = ()
 
     def what(self, member: str) -> str:
         """What was left out, in words: "L3U4" or "the bent bar 2 of L3L4"."""
@@ -736,7 +739,8 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
                  against: Mapping[str, CasePosting] | None = None
                  ) -> tuple[tuple[str, ...], WithoutMember] | None:
     """A pony truss's chord on its U-frames whose hips' detail the Bridge sheet does not
-    give is rated as continuous there; this rates the trucks again with it hinged there
+    give is rated as continuous there; this rates the trucks (with the emergency vehicles
+    and the permits) again with it hinged there
     (butted on the pin): the hips and what the trucks' ratings give. None where it does
     not apply."""
     trucks = _truck_ids(cases)
@@ -746,7 +750,7 @@ def _hips_hinged(bridge: Bridge, cases: Sequence[RatingCase], chord: PonyChord |
     variant = replace(bridge, cross_section=replace(bridge.cross_section,
                                                     chord_hinged_at_hips=True))
     try:
-        other = rate_bridge(variant, trucks, what_if=False)
+        other = rate_bridge(variant, _sensitivity_ids(cases), what_if=False)
     except (InputError, ConvergenceError):
         return chord.hips, WithoutMember("a closure to consider")
     result = trucks_verdict(other.postings, other.cases, against=against,
@@ -841,9 +845,10 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
                   ) -> WithoutMember | None:
     """What the rating gives if a bent tension-only member the ratings rest on does not act:
     the members rated again with all its bars loose (out of service), for the trucks rated at
-    the legal level (the emergency vehicles, HL-93 and the NRL left out: they close no
-    bridge). The pins are not rated again, so the RF given is an upper bound of that rating:
-    where it already calls for closing, so would the full one. None where no truck is rated.
+    the legal level, the emergency vehicles and the permits (:func:`_sensitivity_ids`; HL-93
+    and the NRL left out). The pins are not rated again, so the RF given is an upper bound of
+    that rating: where it already calls for closing, so would the full one. None where no
+    truck is rated.
     ``capacities``: the members' resistances as rated, kept for every member but this one
     (their designs and findings are the same)."""
     trucks = _truck_ids(cases)
@@ -854,11 +859,20 @@ def _without_bent(member: str, bridge: Bridge, cases: Sequence[RatingCase],
         Finding(member, c, bar_state=BarState.LOOSE, where="(rated as if it did not act)")
         for c in (bars.split(", ") if bars else ["all"])))
     try:
-        other = rate_bridge(loose, trucks, what_if=False, capacities={
+        other = rate_bridge(loose, _sensitivity_ids(cases), what_if=False, capacities={
             lab: cap for lab, cap in (capacities or {}).items() if lab != member})
     except (InputError, ConvergenceError):
         return WithoutMember("a closure to consider", bars=bars)
     return trucks_verdict(other.postings, other.cases, bars, against, _metric(bridge))
+
+
+def _sensitivity_ids(cases: Sequence[RatingCase]) -> list[str]:
+    """The loads a sensitivity rates again: the trucks (:func:`_truck_ids`), the emergency
+    vehicles and the permits, whose lower ratings also ask the engineer for a condition
+    (:func:`trucks_verdict`); not HL-93 or the NRL screen."""
+    return list(dict.fromkeys(c.load.id for c in cases
+                              if (c.postable and c.load.id not in SCREENING_LOADS)
+                              or c.category.is_permit))
 
 
 def _truck_ids(cases: Sequence[RatingCase]) -> list[str]:
@@ -875,8 +889,9 @@ def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCa
     """What the trucks' ratings give: "a closure to consider", "a posting" or "no
     restriction", with the lowest truck RF, its case and what controls it (None: no truck
     rated, or none with a finite RF); with ``against`` (the rating's own postings), the
-    trucks whose posting is worse than there (:func:`_worse_posting`; ``metric``: the
-    bridge's signs are in tonnes)."""
+    trucks and emergency vehicles whose posting is worse than there (:func:`_worse_posting`;
+    ``metric``: the bridge's signs are in tonnes), and the permits carried there and not
+    here."""
     trucks = set(_truck_ids(cases))
     legal = [cp for cp in postings.values() if math.isfinite(cp.rf) and cp.case in trucks]
     if not legal:
@@ -885,11 +900,25 @@ def trucks_verdict(postings: Mapping[str, CasePosting], cases: Sequence[RatingCa
     closing = [cp for cp in legal if cp.result.action is PostingAction.CLOSE]
     verdict = ("a closure to consider" if closing else "a posting" if any(
         cp.result.action is PostingAction.POST for cp in legal) else "no restriction")
+    if not against:
+        return WithoutMember(verdict, low.rf, low.case, low.controlling, bars)
     weight = {c.id: c.load.gross_weight_tons for c in cases}
-    lowered = tuple(cid for cid, cp in postings.items() if cid in trucks and against
-                    and cid in against
+    posted = trucks | {c.id for c in cases if c.category is VehicleCategory.EMERGENCY}
+    lowered = tuple((cid, _sign(cp, weight[cid], metric)) for cid, cp in postings.items()
+                    if cid in posted and cid in against
                     and _worse_posting(cp, against[cid], weight[cid], metric))
-    return WithoutMember(verdict, low.rf, low.case, low.controlling, bars, lowered)
+    lost = tuple(cid for cid, cp in postings.items() if cp.permit and cid in against
+                 and against[cid].permit == CARRIED and cp.permit != CARRIED)
+    return WithoutMember(verdict, low.rf, low.case, low.controlling, bars, lowered, lost)
+
+
+def _sign(cp: CasePosting, W_tons: float, metric: bool) -> float | None:
+    """The safe posting load of a posted case in whole units of the bridge's own (tonnes for
+    an SI bridge: rating.lrfr.posting.posting_load, MBE 6A.8.3 [value from memory]); None
+    where it is not posted."""
+    if cp.result.action is not PostingAction.POST:
+        return None
+    return posting_load(cp.rf, W_tons / TON_PER_TONNE if metric else W_tons)
 
 
 def _metric(bridge: Bridge) -> bool:
@@ -910,8 +939,7 @@ def _worse_posting(a: CasePosting, b: CasePosting, W_tons: float, metric: bool) 
         return ra > rb
     if a.result.action is not PostingAction.POST:
         return False
-    W = W_tons / TON_PER_TONNE if metric else W_tons
-    return posting_load(a.rf, W) < posting_load(b.rf, W)
+    return _sign(a, W_tons, metric) < _sign(b, W_tons, metric)
 
 
 LACING_WINDOW = 1.25
@@ -1072,7 +1100,8 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
     """A bridge built within a few years after a boundary of MBE Table 6A.6.2.1-1 [value from
     memory] whose members or pins take the steel by year may be of the older steel (rolled or
     ordered before the boundary; common practice): rated again with it, members and pins, for
-    the trucks at the legal level. None where it does not apply."""
+    the trucks at the legal level, the emergency vehicles and the permits. None where it does
+    not apply."""
     older = older_steel(bridge.info.year_built)
     trucks = _truck_ids(cases)
     if older is None or not trucks:
@@ -1088,7 +1117,7 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
         member_designs=tuple(replace(d, material=mat) if d.member in by_year else d
                              for d in bridge.member_designs))
     try:
-        other = rate_bridge(variant, trucks, what_if=False, capacities={
+        other = rate_bridge(variant, _sensitivity_ids(cases), what_if=False, capacities={
             lab: cap for lab, cap in capacities.items() if lab not in by_year})
     except (InputError, ConvergenceError):
         return OlderSteel(by_year, pins, mat, edge, WithoutMember("a closure to consider"))

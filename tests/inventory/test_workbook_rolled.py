@@ -115,3 +115,16 @@ def test_the_least_radius_message_converts_in_si(tmp_path: Path) -> None:
     d["tables"]["Vehicles"][0]["gross"] = None
     r = check(tmp_path, d)
     find(r, cell("Rolled", 0, "r_z"), "(40 mm) exceeds the lesser of r_x and r_y (21.3 mm)")
+
+
+def test_a_single_angle_needs_r_z(tmp_path: Path) -> None:
+    # a reviewer's L 4 x 4 x 1/2 with r_x = r_y alone rated 2.4 times its resistance about r_z
+    r = check(tmp_path, _rolled(designation="L 4 x 4 x 1/2", area=3.75, r_x=1.21, r_y=1.21))
+    find(r, cell("Rolled", 0, "r_z"), "is an angle ('L 4 x 4 x 1/2'): give its least radius")
+    ok = check(tmp_path, _rolled(designation="L 4 x 4 x 1/2", area=3.75, r_x=1.21, r_y=1.21,
+                                 r_z=0.776), name="ok.xlsx")
+    assert ok.errors == ()
+    # two angles back to back are symmetric about their axes: nothing asked
+    two = check(tmp_path, _rolled(designation="2L 4 x 4 x 1/2", area=7.5, r_x=1.21, r_y=1.8),
+                name="two.xlsx")
+    assert not [p for p in two.errors if p.where == cell("Rolled", 0, "r_z")]

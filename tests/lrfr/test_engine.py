@@ -924,6 +924,10 @@ def test_steel_near_a_table_boundary_is_rated_with_the_older_steel_too():
     assert got < low_main
     assert w.startswith("STEEL GRADE NEAR A TABLE BOUNDARY:") == (
         "give no restriction" not in w)
+    # compared truck by truck with the rating's own postings (the condition's "lower")
+    (cond,) = r.conditions
+    assert cond.result.lowered
+    assert {cid for cid, _ in cond.result.lowered} <= {"TYPE-3", "SU4"}
     # built 1910, or of wrought iron: no such rating
     assert not any("boundary of MBE" in w for w in rate_bridge(_by_year(1910),
                                                                 ["TYPE-3"]).warnings)

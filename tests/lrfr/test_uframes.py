@@ -268,6 +268,8 @@ def test_hips_not_given_are_rated_hinged_too_and_said_where_they_decide(pony):
     low = min((hinged.postings[c] for c in ("TYPE-3", "SU4")), key=lambda cp: cp.rf)
     assert f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling})" in w
     assert w.startswith("CHORD AT THE HIPS NOT GIVEN:")
+    hips = next(c for c in r.conditions if "hips" in c.holds)
+    assert hips.result.lowered  # (compared with the rating's own postings, truck by truck)
     for key, rating in given.ratings.items():  # (the rating itself is the continuous one)
         assert r.ratings[key].rf == rating.rf
 
