@@ -1501,8 +1501,11 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     without: dict[str, WithoutMember] = {}
     conditions: list[Condition] = []
     if what_if:
+        # a bent member's rating leaves the pins out: its postings are compared with the
+        # members' own, like with like (a truck a pin controls would hide a lower member)
+        members_only = _postings(cases, ratings, (), g) if bent_relied_on else {}
         for member, text in bent_relied_on.items():
-            w = _without_bent(member, bridge, cases, capacities, postings)
+            w = _without_bent(member, bridge, cases, capacities, members_only)
             if w is not None:
                 without[member] = w
                 warnings[warnings.index(text)] = text + without_text(member, w)

@@ -980,3 +980,28 @@ def test_rating_some_members_gives_their_own_ratings():
         least = min([r.rf for (m, c), r in some.ratings.items() if c == cid]
                     + [p.ratings[cid].rf for p in some.pins if cid in p.ratings])
         assert cp.rf == least
+
+
+def test_a_bent_members_rating_is_compared_with_the_members_own_postings(monkeypatch):
+    """The bent member's sensitivity rates the members alone (no pins), so its postings are
+    compared with the members' own: in the Pratt sample a pin controls the Type 3-3, and a
+    comparison with it would hide a member rated lower (a reviewer's finding)."""
+    from pathlib import Path
+
+    import rating.lrfr.engine as engine
+    from rating.inventory.reader import read_workbook
+
+    seen = {}
+    real = engine._without_bent
+
+    def spy(member, bridge, cases, capacities=None, against=None):
+        seen[member] = against
+        return real(member, bridge, cases, capacities, against)
+
+    monkeypatch.setattr(engine, "_without_bent", spy)
+    book = Path(__file__).resolve().parents[2] / "sample_inventory" / "tc0417_pratt_1898.xlsx"
+    rated = engine.rate_bridge(read_workbook(book).bridge, ["TYPE-3-3", "SU4"])
+    assert rated.postings["TYPE-3-3"].controlling.startswith("pin at")
+    against = seen["L3U4"]
+    assert not against["TYPE-3-3"].controlling.startswith("pin")
+    assert against["TYPE-3-3"].rf >= rated.postings["TYPE-3-3"].rf
