@@ -1360,7 +1360,9 @@ class _Reading:
             diameter, mat = pins[joint]
             out.append(Pin(joint, diameter, tuple(it for _, it, _ in items), mat,
                            where=r.ref("joint"),
-                           spliced_chord=self._spliced(r, joint, g, by_member)))
+                           spliced_chord=self._spliced(r, joint, g, by_member),
+                           estimated_at=(r.ref("dims_from")
+                                         if _s(r, "dims_from") == "estimated" else "")))
         if pin_rows and g is not None:
             # eyebars and loop rods hang on pins by their nature: a joint where they end with
             # no pin listed has a pin that is not rated (riveted joints have no such bars)

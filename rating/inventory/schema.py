@@ -166,9 +166,9 @@ def _dims_from() -> Column:
     """Where a section's dimensions come from (the same column on every section sheet)."""
     return Column("dims_from", "Dimensions from", Kind.CHOICE, choices=DIMENSION_SOURCES,
                   blank_means="plans or measured",
-                  help="estimated: judged without plans or measurement. A member whose "
-                       "estimated section sets a posting is named in the warnings, to be "
-                       "measured before the decision.")
+                  help="estimated: judged without plans or measurement. A member or pin "
+                       "whose estimated dimensions set a posting is named in the warnings, to "
+                       "be measured before the decision.")
 
 
 def _pct(key: str, title: str, **kw: object) -> Column:
@@ -633,6 +633,7 @@ PINS = TableSheet(
            help="Yes where the chord runs through the joint spliced (its ends milled to bear "
                 "or plated across): its two members' plates then bring only the resultant of "
                 "their forces into the pin."),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"joint": "L2", "diameter": 3.5},),

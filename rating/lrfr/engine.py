@@ -556,7 +556,7 @@ def _estimated_loss_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
 def _estimated_section_governs(ratings: Mapping[tuple[str, str], MemberCaseRating],
                                postings: Mapping[str, CasePosting], deciding: set[str],
                                bridge: Bridge) -> list[str]:
-    """A member that sets a posting, a closure or a barring whose section's dimensions the
+    """A member or pin that sets a posting, a closure or a barring whose dimensions the
     workbook records as estimated (not measured, not from plans): the decision rests on
     them, so it is headed in capitals (common practice: the section that governs a posting
     is measured)."""
@@ -565,9 +565,17 @@ def _estimated_section_governs(ratings: Mapping[tuple[str, str], MemberCaseRatin
         d = bridge.design_of(m)
         if d is not None and d.estimated_at:
             found.setdefault(m, d.estimated_at)
-    return [f"{ESTIMATED_SECTION}: member {m}: the dimensions of the section that sets its "
+    said = [f"{ESTIMATED_SECTION}: member {m}: the dimensions of the section that sets its "
             f"rating are recorded as estimated ({where}), not measured or taken from plans; "
             "measure them before the posting is decided" for m, where in found.items()]
+    pins = {f"pin at {p.joint}": p for p in bridge.pins}
+    for who in dict.fromkeys(postings[cid].controlling for cid in sorted(deciding)):
+        p = pins.get(who)
+        if p is not None and p.estimated_at:
+            said.append(f"{ESTIMATED_SECTION}: {who}: its dimensions are recorded as estimated "
+                        f"({p.estimated_at}), not measured or taken from plans; measure them "
+                        "before the posting is decided")
+    return said
 
 
 def _deciding_ratings(ratings: Mapping[tuple[str, str], MemberCaseRating],
@@ -1482,6 +1490,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             "its packing cannot be inspected; the condition of the bars at a joint is not "
             "carried to its pin. Where a joint is in poor condition (pack rust, worn or loose "
             "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
+        assumptions.extend(f"pin at joint {p.joint}: its dimensions are recorded as estimated "
+                           "(not measured or taken from plans) and rated as given"
+                           for p in bridge.pins if p.estimated_at)
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings, on_uframes=any(
         a.startswith(UFRAME_ASSUMPTION) for a in assumptions)))

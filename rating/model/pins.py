@@ -33,3 +33,4 @@ class Pin:
     where: str = ""
     spliced_chord: tuple[str, str] | None = None  # the two chord members spliced through
     # the joint: their plates bring only the resultant of their forces into the pin
+    estimated_at: str = ""  # where its dimensions are recorded as estimated ("": they are not)

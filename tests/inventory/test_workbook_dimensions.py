@@ -49,3 +49,38 @@ def test_an_estimated_section_that_sets_a_posting_heads_a_warning(tmp_path: Path
     assert any(a.startswith(f"member {member}: its section's dimensions are recorded as "
                             "estimated") for a in r.assumptions)
     assert not [w for w in rated.warnings if w.startswith(ESTIMATED_SECTION)]
+
+
+def test_an_estimated_pin_that_sets_a_posting_heads_a_warning(tmp_path: Path) -> None:
+    """The Pratt sample's pin at U3 controls the Type 3-3; given a smaller diameter it posts
+    it: with its dimensions recorded as estimated (Pins sheet), the decision rests on them.
+    (Invented test data.)"""
+    import shutil
+
+    import openpyxl
+    from inventory_helpers import header
+
+    from rating.inventory.reader import read_workbook
+
+    book = tmp_path / "pratt.xlsx"
+    shutil.copy(Path(__file__).resolve().parents[2] / "sample_inventory"
+                / "tc0417_pratt_1898.xlsx", book)
+    wb = openpyxl.load_workbook(book)
+    ws = wb["Pins"]
+    col = header("Pins", "dims_from").split("!")[1].rstrip("0123456789")
+    joints = header("Pins", "joint").split("!")[1].rstrip("0123456789")
+    row = next(c.row for c in ws[joints] if c.value == "U3")
+    ws[f"{col}{row}"] = "estimated"
+    dia = header("Pins", "diameter").split("!")[1].rstrip("0123456789")
+    ws[f"{dia}{row}"] = ws[f"{dia}{row}"].value * 0.8
+    wb.save(book)
+    bridge = read_workbook(book).bridge
+    assert next(p for p in bridge.pins if p.joint == "U3").estimated_at == f"Pins!{col}{row}"
+    r = rate_bridge(bridge, ["TYPE-3-3"], what_if=False)
+    assert r.postings["TYPE-3-3"].controlling == "pin at U3"
+    assert r.postings["TYPE-3-3"].result.action.value == "post"
+    (said,) = [w for w in r.warnings if w.startswith(ESTIMATED_SECTION)]
+    assert said.startswith(f"{ESTIMATED_SECTION}: pin at U3: its dimensions are recorded as "
+                           "estimated") and bears_on_the_decision(said)
+    assert any(a.startswith("pin at joint U3: its dimensions are recorded as estimated")
+               for a in r.assumptions)
