@@ -321,7 +321,8 @@ def recommendation(rating: BridgeRating, unit: str,
     """The bridge-level recommendation (:func:`_recommendation`), made conditional where it
     rests on something that, where it does not hold, asks more of the engineer than the
     rating's own verdict (:func:`_consequence`: a closure to consider, a posting where none
-    is, or lower posting loads): a bent member that does not act
+    is, lower posting loads of a truck or an emergency vehicle, a permit no longer carried):
+    a bent member that does not act
     (:func:`rating.lrfr.engine._without_bent`), or another condition of the rating
     (``rating.conditions``: a pony chord's hips, the steel's grade, the lacing). The engineer
     reads first that the posting holds only if so (a reviewer would not sign a "post"
@@ -378,7 +379,7 @@ def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:
 
 def _gravest(consequences: list[str]) -> str:
     """The gravest of several consequences (:func:`_consequence`): closing, then a posting
-    where none is, then lower posting loads."""
+    where none is, then lower posting loads, then permits withheld."""
     return next(c for c in ("consider closing the bridge", "post the bridge",
                             "post the bridge for lower loads",
                             "withhold the permits it would not carry") if c in consequences)
@@ -388,8 +389,10 @@ def _lowest_words(w: WithoutMember, names: Mapping[str, str] | None = None,
                   unit: str = "ton", report: Mapping[str, _ReportPosting] | None = None
                   ) -> str:
     """A sensitivity's lowest truck RF, in words ("lowest truck RF 0.12 (SU7, U3L4)"; "no
-    load path for the trucks" where there is none), and where it posts trucks lower, their
-    posting loads there beside the rating's own ("Type 3 10 tons, 15 as rated")."""
+    load path for the trucks" where there is none), and short of a closure, the trucks and
+    emergency vehicles it posts lower with their posting loads beside the rating's own
+    ("posted lower: AASHTO legal load Type 3 10 tons (15 as rated)") and the permits it
+    would not carry."""
     if w.rf is None:
         return "no load path for the trucks"
     lower = ""
