@@ -987,8 +987,9 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     """What the trucks give if the lacing or battens the ratings take as closing the members'
     open sections do not (loose, broken or missing, or judged unable to carry the shear
     across the open face): the members rated again with those sections open (AASHTO LRFD
-    6.9.4.1.3 [value from memory]), for the trucks rated at the legal level, where an
-    estimate says it may change their verdict (``LACING_WINDOW``); the other members and the
+    6.9.4.1.3 [value from memory]), for the trucks rated at the legal level, the emergency
+    vehicles and the permits (:func:`_sensitivity_ids`), where an estimate says it may change
+    a verdict (``LACING_WINDOW``); the other members and the
     pins are as rated (an open section changes its own member's resistance alone). None
     where no such member, no truck, or no estimate near the controlling RF."""
     # (rating.capacity.compression flags such a member where its open form buckles lower)
@@ -997,6 +998,7 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     trucks = _truck_ids(cases)
     if not flagged or not trucks:
         return None
+    checked = _sensitivity_ids(cases)  # (the trucks, emergency vehicles and permits)
     by_id = {c.id: c for c in cases}
 
     def near(lab: str, cid: str, open_cap: MemberCapacity | float) -> bool:
@@ -1011,7 +1013,7 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
     # the plain buckling resistances: own-weight bending lowers it less), which needs no
     # open capacity; where that is far from every controlling RF, so is the estimate
     flagged = tuple(lab for lab in flagged if any(
-        near(lab, cid, capacities[lab].open_ratio) for cid in trucks))
+        near(lab, cid, capacities[lab].open_ratio) for cid in checked))
     if not flagged:
         return None
     st = bridge.settings
@@ -1022,10 +1024,10 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
         own_weight_klf=_across_weight_klf(g, g.member(lab), weights[lab], st.detail_allowance),
         gamma_dc=dead_f["gamma_dc_max"].value, KL_out_of_plane_ft=lengths.get(lab),
         torsion_found=torsion_found, connectors_close=False) for lab in flagged}
-    if not any(near(lab, cid, open_caps[lab]) for lab in flagged for cid in trucks):
+    if not any(near(lab, cid, open_caps[lab]) for lab in flagged for cid in checked):
         return None
     try:
-        other = rate_bridge(replace(bridge, pins=()), trucks, what_if=False,
+        other = rate_bridge(replace(bridge, pins=()), checked, what_if=False,
                             capacities={**capacities, **open_caps},
                             open_sections=frozenset(flagged),
                             rated_members=frozenset(flagged))
@@ -1043,14 +1045,15 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
         return None
     least = min(((other.ratings[(lab, cid)].rf, cid, lab) for cid in trucks for lab in flagged
                  if (lab, cid) in other.ratings), default=None)
-    return LacingOpen(flagged, result, bool(result.lowered), least)
+    return LacingOpen(flagged, result, bool(result.lowered or result.permits_lost), least)
 
 
 @dataclass(frozen=True)
 class LacingOpen:
     """:func:`_lacing_open`'s finding: the members taken as closed by their lacing or battens,
-    what the trucks give with them open, whether that changes any truck's posting (its action
-    or load), and the least of those members' truck RFs open (RF, case, member)."""
+    what the trucks give with them open, whether that changes the posting of a truck or an
+    emergency vehicle (its action or load) or a permit's verdict, and the least of those
+    members' truck RFs open (RF, case, member)."""
 
     members: tuple[str, ...]
     result: WithoutMember
@@ -1059,7 +1062,8 @@ class LacingOpen:
 
 
 def lacing_text(o: LacingOpen, main: WithoutMember | None) -> str:
-    """The warning of :func:`_lacing_open` where the open sections change a truck's posting:
+    """The warning of :func:`_lacing_open` where the open sections change a posting of a
+    truck or an emergency vehicle, or a permit's verdict:
     headed in capitals where they give the trucks a posting or a closure, said plainly
     otherwise."""
     return _sensitivity_warning(
@@ -1073,13 +1077,14 @@ def lacing_text(o: LacingOpen, main: WithoutMember | None) -> str:
 
 
 def lacing_note(o: LacingOpen) -> str:
-    """The assumption of :func:`_lacing_open` where the open sections change no truck's
-    posting."""
+    """The assumption of :func:`_lacing_open` where the open sections change no posting of
+    a truck or an emergency vehicle, nor a permit's verdict."""
     least = ("" if o.least is None else f"; the least of their truck RFs open is "
              f"{reported_rf(o.least[0]):.2f} ({o.least[1]}, {o.least[2]})")
     return (f"Members {', '.join(o.members)}: rated again with their sections open (their "
             "lacing or battens not closing them; AASHTO LRFD 6.9.4.1.3 [value from memory]), "
-            "no truck's posting changes" + least)
+            "no posting of a truck or an emergency vehicle changes, nor a permit's verdict"
+            + least)
 
 
 @dataclass(frozen=True)

@@ -771,7 +771,8 @@ def test_open_sections_that_change_no_posting_are_a_note():
     root = Path(__file__).resolve().parents[2] / "sample_inventory"
     pratt = rate_bridge(read_workbook(root / "tc0417_pratt_1898.xlsx").bridge)
     (note,) = [a for a in pratt.assumptions if "rated again with their sections open" in a]
-    assert "no truck's posting changes; the least of their truck RFs open is" in note
+    assert ("no posting of a truck or an emergency vehicle changes, nor a permit's verdict; "
+            "the least of their truck RFs open is") in note
     assert not [w for w in pratt.warnings if w.lower().startswith("lacing relied on")]
     assert not [c for c in pratt.conditions if "lacing" in c.holds]
     parker = rate_bridge(read_workbook(root / "tc0622_parker_1907.xlsx").bridge)
@@ -1005,3 +1006,27 @@ def test_a_bent_members_rating_is_compared_with_the_members_own_postings(monkeyp
     against = seen["L3U4"]
     assert not against["TYPE-3-3"].controlling.startswith("pin")
     assert against["TYPE-3-3"].rf >= rated.postings["TYPE-3-3"].rf
+
+
+def test_the_open_sections_are_rated_for_emergency_vehicles_and_permits_too(monkeypatch):
+    """The lacing sensitivity rates its flagged members again for the trucks, the emergency
+    vehicles and the permits (an open chord could lower an emergency vehicle's posting or a
+    permit's verdict alone): the Pratt sample, whose laced chords are rated again."""
+    from pathlib import Path
+
+    import rating.lrfr.engine as engine
+    from rating.inventory.reader import read_workbook
+
+    asked = []
+    real = engine.rate_bridge
+
+    def spy(bridge, vehicle_ids=None, **kw):
+        if kw.get("open_sections"):
+            asked.append(tuple(vehicle_ids))
+        return real(bridge, vehicle_ids, **kw)
+
+    monkeypatch.setattr(engine, "rate_bridge", spy)
+    book = Path(__file__).resolve().parents[2] / "sample_inventory" / "tc0417_pratt_1898.xlsx"
+    real(read_workbook(book).bridge, ["TYPE-3", "SU7", "EV3", "TAM-CRANE"])
+    (ids,) = asked
+    assert set(ids) == {"TYPE-3", "SU7", "EV3", "TAM-CRANE"}
