@@ -1247,6 +1247,16 @@ controlling (tests/lrfr/test_lane_run_reach.py); before the pushes were searched
 up to 60 % lower on double-intersection trusses."""
 
 
+SERVICE_II_NOTE = (
+    "Every load is rated at the strength limit state. The Service II check that MBE Table "
+    "6A.4.2.2-1 gives for steel [value from memory] limits the permanent deformation of "
+    "flexural members (their flange stresses, AASHTO LRFD 6.10.4.2 [value from memory]); the "
+    "truss members rated here carry axial force (with their own-weight bending combined at "
+    "the strength limit state), and the floor system, where it would apply, is not rated "
+    "here.")
+"""Said once in a rating (common practice for the members of a pin-connected truss)."""
+
+
 def _screens_said(g: TrussGeometry, pins: Sequence[Pin], cases: Sequence[RatingCase],
                   dependent: frozenset[str]) -> list[str]:
     """The screens of judgement that narrow the searches on the load path, said where they
@@ -1386,6 +1396,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     span = g.span_ft
     cases, notes = rating_cases(bridge, vehicle_ids, span)
     assumptions.extend(notes)
+    if cases:
+        assumptions.append(SERVICE_II_NOTE)
     assumptions.extend(_screens_said(g, bridge.pins, cases, dependent))
     df_of, notes = _case_distribution(cases, dist, lambda gauge: lateral_distribution(
         bridge.cross_section, override=st.distribution_factor_override,

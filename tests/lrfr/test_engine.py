@@ -1030,3 +1030,13 @@ def test_the_open_sections_are_rated_for_emergency_vehicles_and_permits_too(monk
     real(read_workbook(book).bridge, ["TYPE-3", "SU7", "EV3", "TAM-CRANE"])
     (ids,) = asked
     assert set(ids) == {"TYPE-3", "SU7", "EV3", "TAM-CRANE"}
+
+
+def test_the_limit_state_is_said_once():
+    """Strength only: the Service II check (steel flexural members' flange stresses) is said
+    not to apply to the truss members rated here, once per rating."""
+    from rating.lrfr.engine import SERVICE_II_NOTE
+
+    r = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3", "SU4"], what_if=False)
+    assert r.assumptions.count(SERVICE_II_NOTE) == 1
+    assert "Service II" in SERVICE_II_NOTE and "strength limit state" in SERVICE_II_NOTE
