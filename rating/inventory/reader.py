@@ -1361,8 +1361,9 @@ class _Reading:
             out.append(Pin(joint, diameter, tuple(it for _, it, _ in items), mat,
                            where=r.ref("joint"),
                            spliced_chord=self._spliced(r, joint, g, by_member),
-                           estimated_at=(r.ref("dims_from")
-                                         if _s(r, "dims_from") == "estimated" else "")))
+                           estimated_at=next(
+                               (row.ref("dims_from") for row in (r, *(q for _, _, q in items))
+                                if _s(row, "dims_from") == "estimated"), "")))
         if pin_rows and g is not None:
             # eyebars and loop rods hang on pins by their nature: a joint where they end with
             # no pin listed has a pin that is not rated (riveted joints have no such bars)

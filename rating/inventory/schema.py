@@ -656,6 +656,7 @@ PACKING = TableSheet(
         _c("thickness", "Plate thickness", Kind.NUMBER, DIM, required=True, gt=0, le=6,
            warn_below=0.1),
         _c("gap", "Gap before", Kind.NUMBER, DIM, ge=0, le=12, blank_means="0"),
+        _dims_from(),
         _c("note", "Note", Kind.TEXT, max_length=500, width=30),
     ),
     ({"joint": "L2", "position": 1, "member": "L1L2", "thickness": 1.0},

@@ -33,4 +33,5 @@ class Pin:
     where: str = ""
     spliced_chord: tuple[str, str] | None = None  # the two chord members spliced through
     # the joint: their plates bring only the resultant of their forces into the pin
-    estimated_at: str = ""  # where its dimensions are recorded as estimated ("": they are not)
+    estimated_at: str = ""  # where its dimensions, or a plate's on it, are recorded as
+    # estimated (the Pins row first, then the Packing rows in order; "": none is)

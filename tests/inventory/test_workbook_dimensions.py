@@ -84,3 +84,16 @@ def test_an_estimated_pin_that_sets_a_posting_heads_a_warning(tmp_path: Path) ->
                            "estimated") and bears_on_the_decision(said)
     assert any(a.startswith("pin at joint U3: its dimensions are recorded as estimated")
                for a in r.assumptions)
+
+
+def test_an_estimated_plate_on_a_pin_makes_the_pin_estimated(tmp_path: Path) -> None:
+    # a plate thickness on the Packing sheet judged by eye: the pin's bearing and moments
+    # rest on it (the small bridge's pin at L2)
+    d = fresh()
+    rows = [row for row in d["tables"]["Packing"] if row["joint"] == "L2"]
+    rows[1]["dims_from"] = "estimated"
+    r = check(tmp_path, d)
+    assert r.errors == ()
+    pin = next(p for p in r.bridge.pins if p.joint == "L2")
+    index = d["tables"]["Packing"].index(rows[1])
+    assert pin.estimated_at == cell("Packing", index, "dims_from")
