@@ -572,9 +572,9 @@ def _estimated_section_governs(ratings: Mapping[tuple[str, str], MemberCaseRatin
     for who in dict.fromkeys(postings[cid].controlling for cid in sorted(deciding)):
         p = pins.get(who)
         if p is not None and p.estimated_at:
-            said.append(f"{ESTIMATED_SECTION}: {who}: its dimensions are recorded as estimated "
-                        f"({p.estimated_at}), not measured or taken from plans; measure them "
-                        "before the posting is decided")
+            said.append(f"{ESTIMATED_SECTION}: {who}: its dimensions (or those of a plate on "
+                        f"it) are recorded as estimated ({p.estimated_at}), not measured or "
+                        "taken from plans; measure them before the posting is decided")
     return said
 
 
@@ -1507,9 +1507,9 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             "its packing cannot be inspected; the condition of the bars at a joint is not "
             "carried to its pin. Where a joint is in poor condition (pack rust, worn or loose "
             "bars), the engineer may scale the pin's rating by the members' phi_c phi_s.")
-        assumptions.extend(f"pin at joint {p.joint}: its dimensions are recorded as estimated "
-                           "(not measured or taken from plans) and rated as given"
-                           for p in bridge.pins if p.estimated_at)
+        assumptions.extend(f"pin at joint {p.joint}: its dimensions (or those of a plate on it) "
+                           "are recorded as estimated (not measured or taken from plans) and "
+                           "rated as given" for p in bridge.pins if p.estimated_at)
     postings = _postings(cases, ratings, pins, g)
     warnings.extend(_pony_top_chord(g, postings, on_uframes=any(
         a.startswith(UFRAME_ASSUMPTION) for a in assumptions)))

@@ -80,10 +80,10 @@ def test_an_estimated_pin_that_sets_a_posting_heads_a_warning(tmp_path: Path) ->
     assert r.postings["TYPE-3-3"].controlling == "pin at U3"
     assert r.postings["TYPE-3-3"].result.action.value == "post"
     (said,) = [w for w in r.warnings if w.startswith(ESTIMATED_SECTION)]
-    assert said.startswith(f"{ESTIMATED_SECTION}: pin at U3: its dimensions are recorded as "
-                           "estimated") and bears_on_the_decision(said)
-    assert any(a.startswith("pin at joint U3: its dimensions are recorded as estimated")
-               for a in r.assumptions)
+    assert said.startswith(f"{ESTIMATED_SECTION}: pin at U3: its dimensions (or those of a "
+                           "plate on it) are recorded as estimated") and bears_on_the_decision(said)
+    assert any(a.startswith("pin at joint U3: its dimensions (or those of a plate on it) are "
+                            "recorded as estimated") for a in r.assumptions)
 
 
 def test_an_estimated_plate_on_a_pin_makes_the_pin_estimated(tmp_path: Path) -> None:
