@@ -1319,9 +1319,10 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     # the torsion analysis of each distinct section after loss, shared by the members
     torsion_found: dict = {}
     for m in g.members:
+        design = bridge.design_of(m.label)
         cap = known.get(m.label)
         if cap is None:
-            cap = member_capacity(bridge.design_of(m.label), m.role,
+            cap = member_capacity(design, m.role,
                                   g.member_length_ft(m.label), bridge.findings_for(m.label),
                                   m.tension_only, own_weight_klf=_across_weight_klf(
                                       g, m, weights[m.label], st.detail_allowance),
@@ -1331,7 +1332,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
-        if bridge.design_of(m.label).estimated_at:
+        if design.estimated_at:
             assumptions.append(f"member {m.label}: its section's dimensions are recorded as "
                                "estimated (not measured or taken from plans) and rated as "
                                "given")
