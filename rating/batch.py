@@ -90,6 +90,8 @@ class BridgeRow:
     # decision (rating.results.bears_on_the_decision), repeated beside the recommendation
     stale: tuple[str, ...] = ()  # a workbook not rated this run: its outputs in the output
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
+    since: str = ""  # the change since the previous rating (batch --previous), in one
+    # sentence (rating.previous.headline), or why there is none
 
     @property
     def conditional(self) -> bool:
@@ -161,6 +163,8 @@ class _Task:
     write: Callable[..., Any] | None = None
     label: str = ""  # the workbook's path within the folder rated ("north/a.xlsx")
     root: Path | None = None  # the batch's output folder (``out_dir`` mirrors sub-folders)
+    previous: Path | None = None  # the results file of its previous rating (batch
+    # --previous), which need not exist
 
     @property
     def name(self) -> str:
@@ -295,15 +299,18 @@ def rate_one(task: _Task) -> BridgeRow:
                 workbook=name, rated=False, errors=errors or ("error   not rated",),
                 warnings=tuple(p.format() for p in problems if p.severity != "error"),
                 seconds=time.perf_counter() - t0)
+        results, since, notes = _with_previous(outcome.results, task.previous)
         out_dir = task.out_dir
         stem = task.stem
         if "/" in stem:  # a workbook in a sub-folder: its outputs in the same sub-folder
             sub, _, stem = stem.rpartition("/")
             out_dir = out_dir / sub
             out_dir.mkdir(parents=True, exist_ok=True)
-        html, js = write(outcome.results, out_dir, stem)
-        return _row_from_results(wb, outcome.results, html, js, problems,
-                                 time.perf_counter() - t0, name=name, root=task.out_dir)
+        html, js = write(results, out_dir, stem)
+        row = _row_from_results(wb, results, html, js, problems, time.perf_counter() - t0,
+                                name=name, root=task.out_dir)
+        return replace(row, since=since, warnings=row.warnings + notes) \
+            if task.previous is not None else row
     except OSError as exc:  # unreadable workbook, full disk: recorded, the batch goes on
         return BridgeRow(workbook=name, rated=False,
                          errors=(f"error   {name}: could not be read or written: {exc}",),
@@ -313,6 +320,23 @@ def rate_one(task: _Task) -> BridgeRow:
                          errors=(f"error   {name}: internal error in pintruss "
                                  f"({type(exc).__name__}: {exc}); please report it",),
                          seconds=time.perf_counter() - t0)
+
+
+def _with_previous(results: Any, previous: Path | None
+                   ) -> tuple[Any, str, tuple[str, ...]]:
+    """The results compared with the previous rating's results file at ``previous`` where
+    there is one (rating.previous), the change in one sentence (or why there is none), and a
+    warning where the file could not be used (the bridge is rated and written all the same)."""
+    if previous is None:
+        return results, "", ()
+    if not previous.is_file():
+        return results, f"no previous rating: no {previous.name} in the --previous folder", ()
+    from rating.previous import previous_for
+
+    compared, why = previous_for(results, previous)
+    if compared is None:
+        return results, f"not compared: {why}", (f"warning --previous {why}",)
+    return compared, compared.previous.headline, ()
 
 
 def _in_pool(tasks: Sequence[_Task], workers: int,
@@ -403,11 +427,14 @@ def default_workers() -> int:
 def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
                 vehicle_ids: Sequence[str] | None = None, progress: TextIO | None = None,
                 rate: Callable[..., Any] | None = None,
-                write: Callable[..., Any] | None = None) -> BatchSummary:
+                write: Callable[..., Any] | None = None,
+                previous: Path | None = None) -> BatchSummary:
     """Rate every workbook in ``folder`` into ``out_dir`` and write the summary CSV and the
     HTML index there.
 
     ``workers``: processes (default: the cores available); 1 rates in this process.
+    ``previous``: the output folder of an earlier batch; each bridge is compared with its
+    results file there (the same stem), read only.
     ``rate``/``write`` replace :func:`rating.pipeline.rate_workbook` and
     :func:`rating.pipeline.write_outputs` (module-level functions, for tests).
     """
@@ -426,14 +453,25 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
     for p in planned:
         if p.resolve() in inputs:
             raise InputError(f"refusing to write {p}: it is an input workbook", where=str(p))
+    earlier: list[Path | None] = [None] * len(stems)
+    if previous is not None:
+        previous = Path(previous)
+        if not previous.is_dir():
+            raise InputError(f"there is no folder {previous} (--previous)", where=str(previous))
+        earlier = [previous / f"{s}.rating.json" for s in stems]
+        read_only = {p.resolve() for p in earlier}
+        clash = next((p for p in planned if p.resolve() in read_only), None)
+        if clash is not None:
+            raise InputError(f"refusing to write {clash}: it is a previous results file read "
+                             "with --previous (give another --out)", where=str(clash))
     try:
         out_dir.mkdir(parents=True, exist_ok=True)
     except OSError as exc:  # a file on the way, a folder we may not write to
         raise InputError(f"the output folder {out_dir} cannot be made: {exc}",
                          where=str(out_dir)) from exc
     vids = tuple(vehicle_ids) if vehicle_ids else None
-    tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder))
-             for b, s in zip(books, stems, strict=True)]
+    tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder), previous=e)
+             for b, s, e in zip(books, stems, earlier, strict=True)]
     n = min(workers or default_workers(), len(tasks))
     n = max(n, 1)
     bar = Progress(len(tasks), progress)
@@ -531,7 +569,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
             "weight unit", "deciding truck RF", "deciding truck", "action",
-            "rests on a condition", "recommendation", "read before deciding", "errors",
+            "rests on a condition", "recommendation", "read before deciding",
+            "since the previous rating", "errors",
             "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:
@@ -547,7 +586,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
                 r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
                 _cell(low.vehicle) if low else "", r.action,
                 "yes" if r.conditional else "", _cell(r.recommendation),
-                _cell(" | ".join(r.decision_warnings)), str(len(r.errors)), str(len(r.warnings)),
+                _cell(" | ".join(r.decision_warnings)), _cell(r.since), str(len(r.errors)),
+                str(len(r.warnings)),
                 _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
                                                    if len(r.errors) > 20 else "")
                       + (f" | from an earlier run, not this one: {', '.join(r.stale)}"

@@ -48,7 +48,8 @@ def _parser() -> argparse.ArgumentParser:
                        "with its Sheet!Cell), or it was rated but writing the outputs failed "
                        "(a full disk); 2 the command was misused, found before rating (an "
                        "unknown option or vehicle id, an --out that is a file or a folder "
-                       "that cannot be written to).")
+                       "that cannot be written to, a --previous that is no results file of "
+                       "this bridge).")
     r.add_argument("workbook", type=Path, help="the inspection workbook (.xlsx)")
     r.add_argument("--out", type=Path, default=None,
                    help="folder for the report and results (default: beside the workbook)")
@@ -61,6 +62,11 @@ def _parser() -> argparse.ArgumentParser:
     r.add_argument("--paper", choices=("letter", "a4", "auto"), default=None,
                    help="page size of the printed report (default: Letter for US units, A4 "
                    "for SI)")
+    r.add_argument("--previous", type=Path, default=None, metavar="RESULTS",
+                   help="the results file (*.rating.json) of this bridge's previous rating: "
+                   "the report then says what changed since (postings, the members and pins "
+                   "that rate lower or higher, the findings on them); read only, never "
+                   "written over")
 
     v = sub.add_parser("vehicles", help="list the rating vehicles in the library with sources",
                        description="List the rating vehicles: id, axle loads, spacings, gross "
@@ -83,6 +89,10 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("--vehicles", default=None,
                    help="comma-separated vehicle ids to rate on every bridge (default: each "
                    "workbook's choice, else the whole library)")
+    b.add_argument("--previous", type=Path, default=None, metavar="FOLDER",
+                   help="the --out folder of an earlier batch: each bridge is compared with "
+                   "its results file there (same sub-folder and name), and the summary says "
+                   "what changed; read only, so it must not be this batch's --out")
     return p
 
 

@@ -107,10 +107,24 @@ def run_rate(args: argparse.Namespace) -> int:
             return EXIT_USAGE
     problems = [_not_writable(args.out, "--out", folder=True)] if args.out is not None else []
     problems += [_not_writable(t, what) for t, what in targets]
+    previous_path = getattr(args, "previous", None)
+    if previous_path is not None:
+        problems += [f"refusing to write {t}: it is the previous results file given with "
+                     "--previous (read only; give --out or --json elsewhere)"
+                     for t, _ in targets if _same_file(t, previous_path)]
     problem = next((p for p in problems if p is not None), None)
     if problem is not None:
         print(f"pintruss: {problem}; nothing was rated or written", file=sys.stderr)
         return EXIT_USAGE
+    previous = None
+    if previous_path is not None:
+        from rating.previous import read_previous
+
+        try:
+            previous = read_previous(previous_path)
+        except PintrussError as exc:
+            print(f"pintruss: --previous {exc}; nothing was rated or written", file=sys.stderr)
+            return EXIT_USAGE
     outcome = rate_workbook(workbook, vehicle_ids)
     for problem in outcome.problems:
         print(problem.format(), file=sys.stderr)
@@ -126,6 +140,17 @@ def run_rate(args: argparse.Namespace) -> int:
         return EXIT_USAGE if any(p.where == VEHICLES_OPTION for p in outcome.errors) \
             else EXIT_INPUT
     res = outcome.results
+    if previous is not None:
+        import dataclasses
+
+        from rating.previous import compare, same_bridge
+
+        if not same_bridge(previous.bridge_id, res.bridge.id):
+            print(f"pintruss: --previous {previous_path}: it is the rating of bridge "
+                  f"{previous.bridge_id!r}, not of {res.bridge.id!r} (this workbook's "
+                  "structure id); nothing was written", file=sys.stderr)
+            return EXIT_USAGE
+        res = dataclasses.replace(res, previous=compare(res, previous))
     try:
         html, js = write_outputs(res, html_path.parent, workbook.stem,
                                  report=not args.no_report, paper=args.paper)
@@ -154,6 +179,8 @@ def run_rate(args: argparse.Namespace) -> int:
         print(f"  {vid:<12} RF {rf:>6}  controlled by {p.member or '-':<10} "
               f"{action_text(p, level.get(vid, ''), d, category.get(vid, ''))}")
     print(f"recommendation: {res.recommendation}")
+    if res.previous is not None:
+        print(res.previous.headline)
     if html is not None:
         print(f"report:  {html}")
     print(f"results: {js}")
@@ -228,9 +255,20 @@ def run_batch(args: argparse.Namespace) -> int:
                 print(f"pintruss: note: {vid} is not in the vehicle library, so it must be an "
                       "owner's vehicle on each workbook's Vehicles sheet; a workbook without "
                       "it is not rated (see 'pintruss vehicles')", file=sys.stderr)
+    previous = getattr(args, "previous", None)
+    if previous is not None and not previous.is_dir():
+        print(f"pintruss: --previous {previous}: there is no such folder (give the --out "
+              "folder of an earlier batch); nothing was rated or written", file=sys.stderr)
+        return EXIT_USAGE
+    if previous is not None and _same_file(previous, args.out):
+        print(f"pintruss: --previous {previous} is this batch's --out folder: its results "
+              "files would be written over; give another --out. Nothing was rated or "
+              "written", file=sys.stderr)
+        return EXIT_USAGE
     try:
         summary = rate_folder(args.folder, args.out, workers=args.workers,
-                              vehicle_ids=vehicle_ids, progress=sys.stderr)
+                              vehicle_ids=vehicle_ids, progress=sys.stderr,
+                              previous=previous)
     except PintrussError as exc:
         return _fail(exc)
     print_summary(summary)

@@ -357,6 +357,55 @@ class BridgeSummary:
 
 
 @dataclass(frozen=True)
+class VehicleChange:
+    """One rating case compared with the previous rating of the bridge (rating.previous):
+    its controlling RF, member and action then and now. ``rf_before`` None: not rated then."""
+
+    vehicle: str
+    rf_before: float | None = q("controlling RF of the previous rating", default=None)
+    rf_now: float | None = q("controlling RF now", default=None)
+    member_before: str = ""
+    member_now: str = ""
+    action_before: str = ""  # "none" | "post" | "close" ("" where not rated then)
+    action_now: str = ""
+    posting_before: float | None = q("safe posting load of the previous rating", "weight",
+                                     default=None)
+    posting_now: float | None = q("safe posting load now", "weight", default=None)
+    change: str = ""  # the words of rating.previous.vehicle_change_words
+
+
+@dataclass(frozen=True)
+class ElementChange:
+    """A member or pin whose lowest RF over the cases rated both times moved by more than
+    rating.previous.RF_CHANGE since the previous rating, with the inspection findings on it
+    then and now (in words)."""
+
+    element: str  # member id, or "pin at J"
+    case: str  # the case of its lowest RF now
+    rf_before: float = q("lowest RF of the previous rating (cases rated both times)")
+    rf_now: float = q("lowest RF now (the same cases)")
+    findings_before: tuple[str, ...] = ()
+    findings_now: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class SincePrevious:
+    """This rating compared with an earlier one of the same bridge (``pintruss rate
+    --previous``): the file it came from (name only), its inspection date and program, each
+    case's change, the members and pins whose ratings moved, and what the reader must know
+    to weigh the comparison (``notes``)."""
+
+    file: str
+    inspection_date: str | None
+    generator: str
+    vehicles: tuple[VehicleChange, ...]
+    elements: tuple[ElementChange, ...]
+    notes: tuple[str, ...] = ()
+    headline: str = ""
+    out_of_order: bool = False  # the previous inspection is not earlier than this one
+
+
+@dataclass(frozen=True)
 class RatingResults:
     """Everything one rating of one bridge produced, in core units (see the module docstring):
     the one object that the JSON file and the report are views of."""
@@ -378,6 +427,7 @@ class RatingResults:
     influence_lines: tuple[InfluenceLineData, ...] = ()
     distribution: Mapping[str, Any] = field(default_factory=dict)
     generator: str = ""
+    previous: SincePrevious | None = None  # compared with an earlier rating (--previous)
 
     @property
     def decision_warnings(self) -> tuple[str, ...]:

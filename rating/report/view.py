@@ -17,6 +17,7 @@ from markupsafe import Markup
 
 from rating.report import svg
 from rating.report.display import DASH, NEG_INF, Display
+from rating.report.since import SinceView, since_view
 from rating.report.svg import esc
 from rating.report.text import breakable
 from rating.results import (
@@ -390,6 +391,7 @@ class ReportView:
     pin_tables: tuple[PinTable, ...] = ()
     decision_warnings: tuple[str, ...] = ()  # repeated in the recommendation box
     has_permits: bool = False  # a permit load was rated: the review block has its line
+    since: SinceView | None = None  # compared with the previous rating (rating.previous)
 
 
 # ------------------------------------------------------------------ helpers
@@ -876,7 +878,9 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         paper_note=paper_note, generator=results.generator,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
         band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
-        decision_warnings=results.decision_warnings)
+        decision_warnings=results.decision_warnings,
+        since=since_view(results, d, rf_cell, lambda vid: action_text(
+            results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
 
 
 def _from_memory(text: str) -> bool:

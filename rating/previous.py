@@ -1,0 +1,518 @@
+"""An earlier rating of the same bridge, read from its results file, and this rating compared
+with it: what changed since the previous inspection (rating.results.SincePrevious).
+
+The engineer re-rates after every inspection, and the owner's first question is what changed
+and why: which postings moved, which members and pins rate lower, and the findings behind
+them. The previous rating is read from the results file (``*.rating.json``) that pintruss
+wrote then, in whichever unit system it was written; nothing in it is trusted without a
+check, and every problem names the file and the place in it (``posting.TYPE-3.rf``).
+
+Sits between the results and the report: it reads rating.results and rating.units only.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import json
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from rating.errors import InputError
+from rating.results import (
+    DISPLAY_UNITS,
+    EMERGENCY,
+    ElementChange,
+    RatingResults,
+    SincePrevious,
+    VehicleChange,
+    permit_words,
+    reported_rf,
+    to_plain,
+)
+from rating.units import from_core, to_core
+
+RF_CHANGE = 0.02
+"""A member's or pin's lowest RF has moved since the previous rating where it differs from the
+previous one by more than this fraction of it. RFs are printed to two decimals, so a smaller
+move is round-off at the printed scale or the program's own refinements between versions,
+not a change of the bridge: a threshold of judgement (common practice for a screen)."""
+
+_ACTION_RANK = {"none": 0, "post": 1, "close": 2}
+
+
+@dataclass(frozen=True)
+class PreviousCase:
+    """One rating case of the previous rating: its controlling RF, member, action, safe
+    posting load (tons, core units; None unless posted) and a permit's verdict."""
+
+    rf: float
+    member: str
+    action: str
+    posting_tons: float | None
+    permit: str = ""
+
+
+@dataclass(frozen=True)
+class PreviousRating:
+    """What this rating is compared with, from an earlier results file, in core units."""
+
+    file: str  # the file's name (not its folder: the results stay the same wherever it lies)
+    bridge_id: str
+    inspection_date: str | None
+    generator: str
+    method: str
+    provision_set: str
+    system: str  # "US" or "SI": the units it was written in
+    cases: Mapping[str, PreviousCase]
+    elements: Mapping[str, Mapping[str, float]]  # member id or "pin at J" -> case -> RF
+    findings: tuple[Mapping[str, Any], ...]  # the findings echo, as written (its units)
+
+
+# ------------------------------------------------------------------ reading the file
+
+
+class _Reader:
+    """Typed look-ups in a results file, each failure an InputError naming the file and the
+    place in it."""
+
+    def __init__(self, path: Path) -> None:
+        self.path = path
+
+    def fail(self, where: str, message: str) -> InputError:
+        place = f" at {where}" if where else ""
+        return InputError(f"the previous results file{place}: {message}", where=str(self.path))
+
+    def obj(self, parent: Mapping[str, Any], key: str, where: str) -> Mapping[str, Any]:
+        value = parent.get(key) if isinstance(parent, Mapping) else None
+        if not isinstance(value, Mapping):
+            raise self.fail(_join(where, key), "expected an object "
+                            f"{'but it is missing' if value is None else 'here'}")
+        return value
+
+    def items(self, parent: Mapping[str, Any], key: str, where: str) -> list[Any]:
+        value = parent.get(key)
+        if not isinstance(value, list):
+            raise self.fail(_join(where, key), "expected a list "
+                            f"{'but it is missing' if value is None else 'here'}")
+        return value
+
+    def text(self, parent: Mapping[str, Any], key: str, where: str, optional: bool = False
+             ) -> str | None:
+        value = parent.get(key)
+        if value is None and optional:
+            return None
+        if not isinstance(value, str):
+            raise self.fail(_join(where, key), "expected text "
+                            f"{'but it is missing' if value is None else f'not {value!r}'}")
+        return value
+
+    def rf(self, parent: Mapping[str, Any], key: str, where: str) -> float:
+        """A rating factor: a number, "inf" or "-inf" as the results file writes them (null,
+        a NaN, is read as no rating: inf)."""
+        value = parent.get(key, "missing")
+        if value is None:
+            return math.inf
+        if isinstance(value, str) and value in ("inf", "-inf"):
+            return float(value)
+        if isinstance(value, bool) or not isinstance(value, int | float):
+            raise self.fail(_join(where, key), f"expected a rating factor, not {value!r}")
+        return float(value)
+
+    def number(self, parent: Mapping[str, Any], key: str, where: str) -> float | None:
+        value = parent.get(key)
+        if value is None:
+            return None
+        if isinstance(value, bool) or not isinstance(value, int | float) \
+                or not math.isfinite(value):
+            raise self.fail(_join(where, key), f"expected a number, not {value!r}")
+        return float(value)
+
+
+def _join(where: str, key: str) -> str:
+    return f"{where}.{key}" if where else key
+
+
+def read_previous(path: Path) -> PreviousRating:
+    """The previous rating of a bridge from the results file pintruss wrote for it (any unit
+    system). Raises InputError, naming the file and the place in it, for a file that cannot be
+    read or is not such a results file."""
+    path = Path(path)
+    r = _Reader(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+    except FileNotFoundError:
+        raise r.fail("", "there is no such file") from None
+    except IsADirectoryError:
+        raise r.fail("", "it is a folder, not a results file") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise r.fail("", f"it cannot be read ({exc})") from None
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise r.fail("", f"it is not a results file written by pintruss: not valid JSON "
+                     f"(line {exc.lineno}, column {exc.colno}: {exc.msg})") from None
+    if not isinstance(data, dict) or "schema_version" not in data or "posting" not in data:
+        raise r.fail("", "it is not a results file written by pintruss (*.rating.json): "
+                     "it has no schema_version or no posting")
+    version = r.text(data, "schema_version", "")
+    if str(version).split(".")[0] != "1":
+        raise r.fail("schema_version", f"written in results schema {version}; this pintruss "
+                     "reads schema 1")
+    units = r.obj(data, "units", "")
+    weight_unit = r.text(units, "weight", "units") or ""
+    if weight_unit not in DISPLAY_UNITS["weight"]:
+        raise r.fail("units.weight", f"unknown weight unit {weight_unit!r}")
+    bridge = r.obj(data, "bridge", "")
+    cases = {}
+    for case, entry in r.obj(data, "posting", "").items():
+        where = f"posting.{case}"
+        if not isinstance(entry, Mapping):
+            raise r.fail(where, "expected an object here")
+        posting = r.number(entry, "posting_tons", where)
+        action = r.text(entry, "action", where) or ""
+        if action not in _ACTION_RANK:
+            raise r.fail(_join(where, "action"), f"unknown action {action!r}")
+        cases[case] = PreviousCase(
+            r.rf(entry, "rf", where), r.text(entry, "member", where) or "", action,
+            None if posting is None else to_core(posting, weight_unit),
+            r.text(entry, "permit", where, optional=True) or "")
+    elements: dict[str, dict[str, float]] = {}
+    for kind, key, label in (("members", "id", "{}"), ("pins", "joint", "pin at {}")):
+        for i, item in enumerate(r.items(data, kind, "")):
+            where = f"{kind}[{i}]"
+            if not isinstance(item, Mapping):
+                raise r.fail(where, "expected an object here")
+            name = label.format(r.text(item, key, where))
+            ratings = r.obj(item, "ratings", where)
+            elements[name] = {case: r.rf(rating, "rf", f"{where}.ratings.{case}")
+                              for case, rating in ratings.items()
+                              if isinstance(rating, Mapping)}
+    findings = tuple(f for f in data.get("findings") or () if isinstance(f, Mapping))
+    return PreviousRating(
+        file=path.name, bridge_id=r.text(bridge, "id", "bridge") or "",
+        inspection_date=r.text(bridge, "inspection_date", "bridge", optional=True),
+        generator=r.text(data, "generator", "", optional=True) or "",
+        method=r.text(data, "method", "", optional=True) or "",
+        provision_set=r.text(data, "provision_set", "", optional=True) or "",
+        system="SI" if weight_unit == DISPLAY_UNITS["weight"][1] else "US",
+        cases=cases, elements=elements, findings=findings)
+
+
+def same_bridge(a: str, b: str) -> bool:
+    """Structure ids that name the same bridge (case and spacing aside)."""
+    return " ".join(a.split()).casefold() == " ".join(b.split()).casefold()
+
+
+# ------------------------------------------------------------------ the comparison
+
+
+def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
+    """This rating beside the previous one: each case's controlling RF, member and action then
+    and now, the members and pins whose lowest RF over the cases rated both times moved by
+    more than :data:`RF_CHANGE`, with the findings on them then and now, and notes on what
+    makes the two differ besides the bridge (program, method, dates, cases rated)."""
+    system = "SI" if results.units.get("force") == "kN" else "US"
+    weight = DISPLAY_UNITS["weight"][1 if system == "SI" else 0]
+    category = {v.id: v.category for v in results.vehicles}
+    level = {v.id: v.rating_level for v in results.vehicles}
+    vehicles = []
+    for v in results.vehicles:
+        now = results.posting.get(v.id)
+        if now is None:
+            continue
+        then = previous.cases.get(v.id)
+        permit = level.get(v.id) == "permit"
+        change = VehicleChange(
+            vehicle=v.id,
+            rf_before=None if then is None else then.rf, rf_now=now.rf,
+            member_before="" if then is None else then.member, member_now=now.member,
+            action_before="" if then is None else (then.permit if permit else then.action),
+            action_now=permit_words(now) if permit else now.action,
+            posting_before=None if then is None else then.posting_tons,
+            posting_now=now.posting_tons if now.action == "post" else None)
+        vehicles.append(_with_words(change, weight, category.get(v.id, ""),
+                                    level.get(v.id, ""), then))
+    elements = _element_changes(results, previous, system)
+    notes = _notes(results, previous)
+    date_now, date_then = results.bridge.inspection_date, previous.inspection_date
+    since = SincePrevious(file=previous.file, inspection_date=previous.inspection_date,
+                          generator=previous.generator, vehicles=tuple(vehicles),
+                          elements=elements, notes=notes,
+                          # (ISO dates: their text sorts as the dates)
+                          out_of_order=bool(date_now and date_then and date_then >= date_now))
+    return dataclasses.replace(since, headline=headline(since, weight, level))
+
+
+def _amount(value: float, weight: str) -> str:
+    """A posting load in the report's weight unit, without the unit: whole units as posted,
+    one decimal where the previous file was in the other system."""
+    x = from_core(value, weight)
+    return f"{math.floor(x + 1e-6) if abs(x - round(x)) < 1e-6 else round(x, 1):g}"
+
+
+def _tons(value: float | None, weight: str) -> str:
+    """:func:`_amount` with its unit ("12 tons"); "-" for none."""
+    if value is None:
+        return "-"
+    text = _amount(value, weight)
+    return f"{text} {weight}{'' if text == '1' else 's'}"
+
+
+def _with_words(c: VehicleChange, weight: str, category: str, level: str,
+                then: PreviousCase | None) -> VehicleChange:
+    return dataclasses.replace(c, change=vehicle_change_words(c, weight, category, level,
+                                                              then is None))
+
+
+def vehicle_change_words(c: VehicleChange, weight: str, category: str = "", level: str = "",
+                         new: bool = False) -> str:
+    """One case's change since the previous rating, in words: its action (posting, closing,
+    barring, a permit's verdict) first, else its controlling RF; then a change of the member
+    or pin that controls."""
+    if new or c.rf_before is None:
+        return "not rated in the previous rating"
+    words: list[str] = []
+    barred = "barred" if category == EMERGENCY else "closing to be considered"
+    if level == "permit":
+        if c.action_before != c.action_now:
+            words.append(f"permit now '{c.action_now}' (was '{c.action_before}')")
+    elif level == "legal":
+        before, now = _ACTION_RANK.get(c.action_before, 0), _ACTION_RANK.get(c.action_now, 0)
+        if now > before:
+            words.append(f"now posted at {_tons(c.posting_now, weight)}" if c.action_now == "post"
+                         else f"now {barred}"
+                         + (f" (was posted at {_tons(c.posting_before, weight)})"
+                            if c.action_before == "post" else ""))
+        elif now < before:
+            if c.action_now == "post":
+                was = (f"posted at {_tons(c.posting_before, weight)}"
+                       if c.action_before == "post" else barred)
+                words.append(f"now posted at {_tons(c.posting_now, weight)} (was {was})")
+            elif c.action_before == "post":
+                words.append(f"no longer posted (was posted at {_tons(c.posting_before, weight)})")
+            else:
+                words.append(f"no longer {barred}")
+        elif c.action_now == "post" and c.posting_before is not None \
+                and c.posting_now is not None:
+            b = _amount(c.posting_before, weight)
+            if b != _amount(c.posting_now, weight):
+                lower = c.posting_now < c.posting_before
+                words.append(f"posting {'lowered' if lower else 'raised'} from {b} to "
+                             f"{_tons(c.posting_now, weight)}")
+    rf_words = _rf_move(c.rf_before, c.rf_now)
+    if not words and rf_words:
+        words.append(rf_words)
+    if c.member_before and c.member_now and c.member_before != c.member_now:
+        words.append(f"now controlled by {c.member_now} (was {c.member_before})")
+    return "; ".join(words) or "no change"
+
+
+def _rf_move(before: float | None, now: float | None) -> str:
+    """ "RF lower by 12 %" where the RF moved by more than RF_CHANGE, else ""."""
+    if before is None or now is None or not moved(before, now):
+        return ""
+    if not (math.isfinite(before) and math.isfinite(now)) or before <= 0:
+        return ("RF " + ("lower" if now < before else "higher") +
+                f" ({_rf_text(before)} then, {_rf_text(now)} now)")
+    pct = round(abs(now / before - 1.0) * 100.0)
+    return f"RF {'lower' if now < before else 'higher'} by {pct} %"
+
+
+def _rf_text(rf: float) -> str:
+    if rf == math.inf:
+        return "no live load"
+    if rf == -math.inf:
+        return "-inf"
+    return f"{reported_rf(rf):.2f}"
+
+
+def moved(before: float, now: float) -> bool:
+    """Whether an RF moved since the previous rating (:data:`RF_CHANGE` of the previous one;
+    an infinite one moved where it differs at all)."""
+    if not (math.isfinite(before) and math.isfinite(now)):
+        return before != now
+    return abs(now - before) > RF_CHANGE * max(abs(before), 0.05)
+
+
+def _element_rfs(results: RatingResults) -> dict[str, dict[str, float]]:
+    out = {m.id: {c: r.rf for c, r in m.ratings.items()} for m in results.members}
+    out.update({f"pin at {p.joint}": {c: r.rf for c, r in p.ratings.items()}
+                for p in results.pins})
+    return out
+
+
+def _lowest(rfs: Mapping[str, float], cases: Sequence[str]) -> tuple[float, str]:
+    """The lowest RF of ``cases`` (NaN skipped) and its case; inf and "" where there is none."""
+    found = [(rfs[c], c) for c in cases if c in rfs and rfs[c] == rfs[c]]
+    return min(found, key=lambda x: x[0]) if found else (math.inf, "")
+
+
+def _element_changes(results: RatingResults, previous: PreviousRating, system: str
+                     ) -> tuple[ElementChange, ...]:
+    now_rfs = _element_rfs(results)
+    words_now = _findings_by_member([to_plain(f, system) for f in results.findings], system)
+    words_then = _findings_by_member(previous.findings, previous.system)
+    out = []
+    for name, rfs in now_rfs.items():
+        then = previous.elements.get(name)
+        if then is None:
+            continue
+        cases = [c for c in rfs if c in then]
+        rf_now, case = _lowest(rfs, cases)
+        rf_then, _ = _lowest(then, cases)
+        if not case or not moved(rf_then, rf_now):
+            continue
+        out.append(ElementChange(name, case, rf_then, rf_now,
+                                 words_then.get(name, ()), words_now.get(name, ())))
+    return tuple(sorted(out, key=_drop))
+
+
+def _drop(e: ElementChange) -> tuple[float, str]:
+    """The largest falls first: by RF now over RF then (a rating lost, -inf, before all)."""
+    if e.rf_now == -math.inf:
+        return (-math.inf, e.element)
+    if not (math.isfinite(e.rf_before) and math.isfinite(e.rf_now)) or e.rf_before <= 0:
+        return (0.0 if e.rf_now < e.rf_before else math.inf, e.element)
+    return (e.rf_now / e.rf_before, e.element)
+
+
+def _findings_by_member(findings: Sequence[Mapping[str, Any]], system: str
+                        ) -> dict[str, tuple[str, ...]]:
+    """Each member's findings in words ("bar 2 body: 18 % loss, condition 5"), from the
+    findings echo as written in the results file (units of ``system``)."""
+    unit = DISPLAY_UNITS["dimension"][1 if system == "SI" else 0]
+    out: dict[str, list[str]] = {}
+    for f in findings:
+        parts = []
+        loss = f.get("percent_loss")
+        left = f.get("remaining_thickness")
+        if isinstance(loss, int | float) and not isinstance(loss, bool):
+            parts.append(f"{loss:g} % loss")
+        if isinstance(left, int | float) and not isinstance(left, bool):
+            parts.append(f"{left:g} {unit} left")
+        state = f.get("bar_state")
+        if isinstance(state, str) and state and state != "sound":
+            parts.append(state)
+        cr = f.get("condition_rating")
+        if isinstance(cr, int) and not isinstance(cr, bool):
+            parts.append(f"condition {cr}")
+        if f.get("estimated") is True:
+            parts.append("estimated")
+        where = " ".join(str(f.get(k) or "") for k in ("component", "region")).strip()
+        text = f"{where}: {', '.join(parts)}" if where else ", ".join(parts)
+        member = str(f.get("member") or "")
+        if member and text:
+            out.setdefault(member, []).append(text)
+    return {m: tuple(v) for m, v in out.items()}
+
+
+def _notes(results: RatingResults, previous: PreviousRating) -> tuple[str, ...]:
+    """What makes the two ratings differ besides the bridge, for the reader to weigh."""
+    notes = []
+    date_now, date_then = results.bridge.inspection_date, previous.inspection_date
+    if not date_now or not date_then:
+        notes.append("The inspection date of " + ("this rating" if not date_now else
+                                                  "the previous rating")
+                     + " is not known: the order of the two ratings is the reader's to "
+                     "confirm.")
+    elif date_then >= date_now:
+        notes.append(f"The previous rating's inspection ({date_then}) is not earlier than "
+                     f"this one's ({date_now}): confirm the right file was given.")
+    if previous.generator and previous.generator != results.generator:
+        notes.append(f"The previous rating was made with {previous.generator}, this one with "
+                     f"{results.generator}: ratings may differ through the program's "
+                     "changes as well as the bridge's.")
+    if previous.provision_set and previous.provision_set != results.provision_set:
+        notes.append(f"The previous rating used {previous.provision_set}, this one "
+                     f"{results.provision_set}.")
+    if previous.method and previous.method != results.method:
+        notes.append("The rating method differs from the previous rating's "
+                     f"({previous.method}).")
+    new = [c for c in results.posting if c not in previous.cases]
+    gone = [c for c in previous.cases if c not in results.posting]
+    if new:
+        notes.append("Rated now, not in the previous rating: " + ", ".join(new) + ".")
+    if gone:
+        notes.append("In the previous rating, not rated now: " + ", ".join(gone) + ".")
+    now = _element_rfs(results)
+    added = [e for e in now if e not in previous.elements]
+    lost = [e for e in previous.elements if e not in now]
+    if added or lost:
+        notes.append("Members and pins not in both ratings (compared only where in both): "
+                     + "; ".join(part for part in (
+                         "now only: " + ", ".join(added) if added else "",
+                         "then only: " + ", ".join(lost) if lost else "") if part) + ".")
+    system_then = "SI" if previous.system == "SI" else "US customary"
+    if previous.system != ("SI" if results.units.get("force") == "kN" else "US"):
+        notes.append(f"The previous results file is in {system_then} units; its posting "
+                     "loads are converted.")
+    return tuple(notes)
+
+
+def direction(c: VehicleChange, level: str, weight: str) -> int:
+    """-1 where the case's outcome is worse than in the previous rating (posted, posted lower,
+    closing or barring now; a permit no longer carried), +1 where better, 0 where the same
+    (a design load's RF is not an outcome: 0)."""
+    if c.rf_before is None:
+        return 0
+    if level == "permit":
+        if c.action_before == c.action_now:
+            return 0
+        return 1 if c.action_now == "can be carried" else -1
+    if level != "legal":
+        return 0
+    before, now = _ACTION_RANK.get(c.action_before, 0), _ACTION_RANK.get(c.action_now, 0)
+    if now != before:
+        return -1 if now > before else 1
+    if c.action_now == "post" and c.posting_before is not None and c.posting_now is not None \
+            and _tons(c.posting_before, weight) != _tons(c.posting_now, weight):
+        return -1 if c.posting_now < c.posting_before else 1
+    return 0
+
+
+def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> str:
+    """The change since the previous rating in one sentence: the cases whose outcome is worse
+    (:func:`direction`), then those better, then how many members and pins rate lower and
+    higher."""
+    date = since.inspection_date or "an unknown date"
+    worse, better = [], []
+    for c in since.vehicles:
+        d = direction(c, levels.get(c.vehicle, ""), weight)
+        if d:
+            (worse if d < 0 else better).append(f"{c.vehicle} {c.change.split('; ')[0]}")
+    lower = sum(1 for e in since.elements if e.rf_now < e.rf_before)
+    higher = len(since.elements) - lower
+    parts = []
+    if worse:
+        parts.append("worse: " + "; ".join(worse))
+    if better:
+        parts.append("better: " + "; ".join(better))
+    if not worse and not better:
+        parts.append("no posting, closing or permit verdict changed")
+    parts.append(f"{_count(lower, 'member or pin', 'members or pins')} "
+                 f"{'rates' if lower == 1 else 'rate'} lower and {higher} higher by more than "
+                 f"{RF_CHANGE * 100:g} %")
+    text = f"Since the rating of the inspection of {date}: " + "; ".join(parts) + "."
+    if since.out_of_order:
+        text += (" Check the file given: its inspection is not earlier than this rating's.")
+    return text
+
+
+def _count(n: int, one: str, many: str) -> str:
+    return f"{n} {one if n == 1 else many}"
+
+
+def previous_for(results: RatingResults, path: Path) -> tuple[RatingResults | None, str]:
+    """``results`` with the comparison with the previous results file at ``path``, and ""; or
+    None and why not (a file that cannot be read, or the rating of another bridge)."""
+    try:
+        previous = read_previous(path)
+    except InputError as exc:
+        return None, str(exc)
+    if not same_bridge(previous.bridge_id, results.bridge.id):
+        return None, (f"{path}: the previous results file is the rating of bridge "
+                      f"{previous.bridge_id!r}, not of {results.bridge.id!r}")
+    return dataclasses.replace(results, previous=compare(results, previous)), ""

@@ -1,0 +1,133 @@
+"""The report's view of the comparison with the previous rating (rating.previous), formatted:
+each case's outcome then and now, and the members and pins whose ratings moved.
+
+Nothing here compares anything: it formats rating.results.SincePrevious.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass
+
+from rating.report.display import DASH, Display
+from rating.results import EMERGENCY, RatingResults, VehicleResult
+
+ELEMENT_ROWS = 20
+"""The members and pins shown in the report's table of ratings that moved (the largest falls
+first); the results file holds them all."""
+
+
+@dataclass(frozen=True)
+class ChangeCell:
+    """An RF as printed, with its band key for shading (as rating.report.view.Cell)."""
+
+    text: str
+    band: str = ""
+
+
+@dataclass(frozen=True)
+class VehicleChangeRow:
+    """One case's row: RF, controlling member and outcome then and now, and the change."""
+
+    vehicle: str
+    rf_then: ChangeCell
+    rf_now: ChangeCell
+    member_then: str
+    member_now: str
+    outcome_then: str
+    outcome_now: str
+    change: str
+    worse: bool
+
+
+@dataclass(frozen=True)
+class ElementChangeRow:
+    """A member or pin whose lowest RF moved: the case, RF then and now, the move in per cent
+    and the findings on it then and now."""
+
+    element: str
+    case: str
+    rf_then: ChangeCell
+    rf_now: ChangeCell
+    move: str
+    findings_then: str
+    findings_now: str
+    lower: bool
+
+
+@dataclass(frozen=True)
+class SinceView:
+    """Everything the report's "Since the previous rating" part shows."""
+
+    headline: str
+    source: str
+    notes: tuple[str, ...]
+    vehicles: tuple[VehicleChangeRow, ...]
+    elements: tuple[ElementChangeRow, ...]
+    more_elements: int
+    threshold: str
+
+
+def _outcome_then(action: str, posting: float | None, v: VehicleResult, d: Display) -> str:
+    """The previous outcome in the summary's words (rating.report.view.action_text)."""
+    if not action:
+        return DASH
+    if v.rating_level == "permit":
+        return f"permit: {action}"
+    if v.rating_level in ("inventory", "operating"):
+        return "design-load rating"
+    if action == "post" and posting is not None:
+        amount = d.posting(posting)
+        return f"post for {amount} {d.unit('weight')}{'' if amount == '1' else 's'}"
+    if action == "close":
+        return "consider barring" if v.category == EMERGENCY else "consider closing"
+    return "no restriction"
+
+
+def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | None], object],
+               outcome_now: Callable[[str], str]) -> SinceView | None:
+    """The comparison formatted, or None where the rating was not compared with another.
+    ``rf_cell`` formats an RF with its band (the report's own cells); ``outcome_now`` gives
+    a case's outcome in the summary's words."""
+    from rating.previous import RF_CHANGE, direction
+
+    since = results.previous
+    if since is None:
+        return None
+    vmap: Mapping[str, VehicleResult] = {v.id: v for v in results.vehicles}
+
+    def cell(rf: float | None) -> ChangeCell:
+        c = rf_cell(rf)
+        return ChangeCell(getattr(c, "text", DASH), getattr(c, "band", ""))
+
+    rows = []
+    for c in since.vehicles:
+        v = vmap.get(c.vehicle)
+        if v is None:
+            continue
+        rows.append(VehicleChangeRow(
+            vehicle=v.id, rf_then=cell(c.rf_before) if c.rf_before is not None
+            else ChangeCell(DASH), rf_now=cell(c.rf_now),
+            member_then=c.member_before or DASH, member_now=c.member_now or DASH,
+            outcome_then=_outcome_then(c.action_before, c.posting_before, v, d),
+            outcome_now=outcome_now(v.id), change=c.change,
+            worse=direction(c, v.rating_level, d.unit("weight")) < 0))
+    elements = []
+    for e in since.elements[:ELEMENT_ROWS]:
+        if math.isfinite(e.rf_before) and math.isfinite(e.rf_now) and e.rf_before > 0:
+            move = f"{(e.rf_now / e.rf_before - 1.0) * 100.0:+.0f} %".replace("-", "\u2212")
+        else:
+            move = "lower" if e.rf_now < e.rf_before else "higher"
+        elements.append(ElementChangeRow(
+            e.element, e.case, cell(e.rf_before), cell(e.rf_now), move,
+            "; ".join(e.findings_before) or "none recorded",
+            "; ".join(e.findings_now) or "none recorded", e.rf_now < e.rf_before))
+    made = f", made with {since.generator}" if since.generator else ""
+    return SinceView(
+        headline=since.headline,
+        source=(f"the results file {since.file} (inspection of "
+                f"{since.inspection_date or 'an unknown date'}{made})"),
+        notes=since.notes, vehicles=tuple(rows), elements=tuple(elements),
+        more_elements=max(0, len(since.elements) - ELEMENT_ROWS),
+        threshold=f"{RF_CHANGE * 100:g} %")
