@@ -142,13 +142,21 @@ def read_previous(path: Path) -> PreviousRating:
     path = Path(path)
     r = _Reader(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        raw = path.read_bytes()
     except FileNotFoundError:
         raise r.fail("", "there is no such file") from None
     except IsADirectoryError:
         raise r.fail("", "it is a folder, not a results file") from None
-    except (OSError, UnicodeDecodeError) as exc:
-        raise r.fail("", f"it cannot be read ({exc})") from None
+    except OSError as exc:
+        raise r.fail("", f"it cannot be read ({exc.strerror or exc})") from None
+    if raw.startswith(b"PK\x03\x04"):  # (the zip container of .xlsx files)
+        raise r.fail("", "it is a workbook (or another zip file), not a results file: give "
+                     "the previous rating's *.rating.json")
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError:
+        raise r.fail("", "it is not a results file written by pintruss: not UTF-8 "
+                     "text") from None
     try:
         data = json.loads(text)
     except json.JSONDecodeError as exc:

@@ -601,3 +601,49 @@ def test_a_recommendation_resting_on_a_condition_is_marked_and_its_verdict_kept(
     index = render_index(BatchSummary(tmp_path, tmp_path, (row,), tmp_path / "s.csv",
                                       tmp_path / "i.html", 1.0, 1))
     assert "1 whose recommendation rests on a condition to confirm" in index
+
+
+def test_batch_with_previous_compares_each_bridge_with_its_earlier_results(
+        tmp_path: Path) -> None:
+    import json
+
+    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": GOOD, "c.xlsx": GOOD,
+                                "d.xlsx": b"bad"})
+    earlier = tmp_path / "earlier"
+    rate_folder(folder, earlier, workers=1, rate=fake_rate)
+    data = json.loads((earlier / "a.rating.json").read_text(encoding="utf-8"))
+    data["bridge"]["inspection_date"] = "2022-05-10"
+    data["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)
+    (earlier / "a.rating.json").write_text(json.dumps(data), encoding="utf-8")
+    data["bridge"]["id"] = "CR-999"
+    (earlier / "b.rating.json").write_text(json.dumps(data), encoding="utf-8")
+    (earlier / "c.rating.json").unlink()
+    kept = _digest(earlier)
+    s = rate_folder(folder, tmp_path / "now", workers=2, rate=fake_rate, previous=earlier)
+    since = {r.workbook: r.since for r in s.rows}
+    assert since["a.xlsx"].startswith("Since the rating of the inspection of 2022-05-10: "
+                                      "worse: SU4 posting lowered from 31 to 26 tons")
+    assert since["b.xlsx"].startswith("not compared: ") and "'CR-999'" in since["b.xlsx"]
+    assert any("--previous" in w for w in s.rows[1].warnings)
+    assert since["c.xlsx"] == "no previous rating: no c.rating.json in the --previous folder"
+    assert since["d.xlsx"] == ""  # not rated: nothing to compare
+    rows = {r["workbook"]: r for r in _csv_rows(s.csv_path)}
+    assert rows["a.xlsx"]["since the previous rating"] == since["a.xlsx"]
+    assert "Since the previous rating:" in s.index_path.read_text(encoding="utf-8")
+    assert _digest(earlier) == kept  # read only
+
+
+def test_batch_refuses_previous_that_it_would_write_over(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    folder = _folder(tmp_path, {"a.xlsx": GOOD})
+    out = tmp_path / "out"
+    rate_folder(folder, out, workers=1, rate=fake_rate)
+    kept = _digest(out)
+    with pytest.raises(InputError, match="it is a previous results file read with --previous"):
+        rate_folder(folder, out, workers=1, rate=fake_rate, previous=out)
+    assert main(["batch", str(folder), "--out", str(out), "--previous", str(out)]) == 2
+    assert "is this batch's --out folder" in capsys.readouterr().err
+    assert main(["batch", str(folder), "--out", str(tmp_path / "o2"), "--previous",
+                 str(tmp_path / "nowhere")]) == 2
+    assert "there is no such folder" in capsys.readouterr().err
+    assert _digest(out) == kept and not (tmp_path / "o2").exists()

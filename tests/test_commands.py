@@ -152,3 +152,79 @@ def test_a_report_that_cannot_be_made_leaves_no_new_results_beside_an_old_report
     assert main(["rate", str(workbook), "--out", str(out)]) == 1
     assert not (out / "bridge.rating.json").exists()
     assert (out / "bridge.rating.html").read_text() == "earlier report"
+
+
+# ------------------------------------------------------------------ --previous
+
+
+def _previous_file(tmp_path: Path, bridge_id: str | None = None) -> Path:
+    """The sample's results as an earlier inspection's, with SU4 posted higher then."""
+    import json
+
+    from rating.results import results_json
+
+    data = json.loads(results_json(sample_results()))
+    data["bridge"]["inspection_date"] = "2022-05-10"
+    data["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)
+    if bridge_id is not None:
+        data["bridge"]["id"] = bridge_id
+    path = tmp_path / "earlier" / "bridge.rating.json"
+    path.parent.mkdir(exist_ok=True)
+    path.write_text(json.dumps(data), encoding="utf-8")
+    return path
+
+
+def test_rate_with_previous_says_what_changed_in_the_printout_json_and_report(
+        workbook: Path, rated: list[Path], tmp_path: Path,
+        capsys: pytest.CaptureFixture[str]) -> None:
+    import json
+
+    previous = _previous_file(tmp_path)
+    kept = previous.read_bytes()
+    out = tmp_path / "o"
+    assert main(["rate", str(workbook), "--out", str(out), "--previous", str(previous)]) == 0
+    said = capsys.readouterr().out
+    assert "Since the rating of the inspection of 2022-05-10: worse: SU4 posting lowered " \
+        "from 31 to 26 tons" in said
+    data = json.loads((out / "bridge.rating.json").read_text(encoding="utf-8"))
+    assert data["previous"]["file"] == "bridge.rating.json"
+    assert "Since the previous rating" in (out / "bridge.rating.html").read_text()
+    assert previous.read_bytes() == kept  # read only
+    first = (out / "bridge.rating.json").read_bytes()
+    assert main(["rate", str(workbook), "--out", str(out), "--previous", str(previous)]) == 0
+    assert (out / "bridge.rating.json").read_bytes() == first  # byte-identical again
+
+
+def test_previous_that_would_be_written_over_or_is_no_results_file_is_refused(
+        workbook: Path, rated: list[Path], tmp_path: Path,
+        capsys: pytest.CaptureFixture[str]) -> None:
+    previous = _previous_file(tmp_path)
+    kept = previous.read_bytes()
+    # its folder as --out: the new results file would replace it
+    code = main(["rate", str(workbook), "--out", str(previous.parent), "--previous",
+                 str(previous)])
+    err = capsys.readouterr().err
+    assert code == 2 and "it is the previous results file given with --previous" in err
+    assert rated == [] and previous.read_bytes() == kept
+    before = _files(tmp_path)
+    for bad, said in ((tmp_path / "none.json", "there is no such file"),
+                      (workbook, "it is a workbook (or another zip file), not a results "
+                                 "file")):
+        code = main(["rate", str(workbook), "--out", str(tmp_path / "o"), "--previous",
+                     str(bad)])
+        err = capsys.readouterr().err
+        assert code == 2 and said in err and "nothing was rated or written" in err
+        assert "Traceback" not in err
+    assert rated == [] and _files(tmp_path) == before
+
+
+def test_previous_of_another_bridge_is_refused_and_nothing_written(
+        workbook: Path, rated: list[Path], tmp_path: Path,
+        capsys: pytest.CaptureFixture[str]) -> None:
+    previous = _previous_file(tmp_path, bridge_id="CR-999")
+    code = main(["rate", str(workbook), "--out", str(tmp_path / "o"), "--previous",
+                 str(previous)])
+    err = capsys.readouterr().err
+    assert code == 2
+    assert "it is the rating of bridge 'CR-999', not of 'CR-114-0032'" in err
+    assert not (tmp_path / "o").exists()

@@ -1,0 +1,324 @@
+"""This rating compared with the previous one (rating.previous): the previous results file is
+read with a clear message for every problem, naming the file and the place in it; postings,
+members and pins are compared case by case; the comparison reaches the JSON and the report.
+
+The previous ratings here are the hand-built sample results (tests/report/sample_results.py)
+written as a results file and then edited, so that every expected change is known exactly."""
+
+from __future__ import annotations
+
+import copy
+import dataclasses
+import json
+import sys
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+sys.path.insert(0, str(Path(__file__).resolve().parent / "report"))
+
+from htmlcheck import read  # noqa: E402
+from sample_results import sample_results  # noqa: E402
+
+from rating.errors import InputError  # noqa: E402
+from rating.previous import (  # noqa: E402
+    RF_CHANGE,
+    compare,
+    direction,
+    moved,
+    previous_for,
+    read_previous,
+    vehicle_change_words,
+)
+from rating.report.html import render_report  # noqa: E402
+from rating.results import VehicleChange, results_json  # noqa: E402
+from rating.units import TON_PER_TONNE  # noqa: E402
+
+
+def _plain() -> dict[str, Any]:
+    return json.loads(results_json(sample_results()))
+
+
+def _write(tmp_path: Path, data: dict[str, Any] | str, name: str = "then.rating.json") -> Path:
+    path = tmp_path / name
+    path.write_text(data if isinstance(data, str) else json.dumps(data), encoding="utf-8")
+    return path
+
+
+def _earlier(edit: Any = None) -> dict[str, Any]:
+    """The sample's own results as an earlier inspection's (2022), edited by ``edit``."""
+    data = _plain()
+    data["bridge"]["inspection_date"] = "2022-05-10"
+    if edit is not None:
+        edit(data)
+    return data
+
+
+# ------------------------------------------------------------------ reading the file
+
+
+@pytest.mark.parametrize(("content", "needle"), [
+    ("{not json", "not valid JSON (line 1, column 2"),
+    ("[1, 2]", "it is not a results file written by pintruss"),
+    ('{"schema_version": "1.0"}', "it has no schema_version or no posting"),
+])
+def test_a_file_that_is_no_results_file_is_refused_by_name(tmp_path: Path, content: str,
+                                                            needle: str) -> None:
+    path = _write(tmp_path, content)
+    with pytest.raises(InputError) as info:
+        read_previous(path)
+    assert needle in str(info.value)
+    assert info.value.where == str(path)
+
+
+def test_a_missing_file_or_a_folder_is_said_so(tmp_path: Path) -> None:
+    with pytest.raises(InputError, match="there is no such file"):
+        read_previous(tmp_path / "nothing.rating.json")
+    with pytest.raises(InputError, match="it is a folder"):
+        read_previous(tmp_path)
+
+
+@pytest.mark.parametrize(("edit", "place", "needle"), [
+    (lambda d: d["posting"]["TYPE3"].__setitem__("rf", "high"), "posting.TYPE3.rf",
+     "expected a rating factor, not 'high'"),
+    (lambda d: d["posting"]["SU4"].__setitem__("action", "restrict"), "posting.SU4.action",
+     "unknown action 'restrict'"),
+    (lambda d: d["posting"]["SU4"].__setitem__("posting_tons", "26 t"),
+     "posting.SU4.posting_tons", "expected a number"),
+    (lambda d: d["members"][2]["ratings"]["SU4"].__setitem__("rf", [1]),
+     "members[2].ratings.SU4.rf", "expected a rating factor"),
+    (lambda d: d["units"].__setitem__("weight", "kg"), "units.weight", "unknown weight unit"),
+    (lambda d: d.__setitem__("schema_version", "2.0"), "schema_version",
+     "this pintruss reads schema 1"),
+    (lambda d: d["bridge"].pop("id"), "bridge.id", "expected text but it is missing"),
+    (lambda d: d.__setitem__("pins", {}), "pins", "expected a list"),
+])
+def test_a_bad_value_is_named_at_its_place_in_the_file(tmp_path: Path, edit: Any, place: str,
+                                                       needle: str) -> None:
+    path = _write(tmp_path, _earlier(edit))
+    with pytest.raises(InputError) as info:
+        read_previous(path)
+    assert f"at {place}:" in str(info.value) and needle in str(info.value)
+
+
+def test_an_si_file_is_read_in_core_units(tmp_path: Path) -> None:
+    # A posting of 10 tonnes is 11.02 tons (1 tonne = 1/0.90718474 ton, NIST SP 811 B.8).
+    data = _earlier()
+    data["units"]["weight"] = "tonne"
+    data["posting"]["SU4"]["posting_tons"] = 10.0
+    previous = read_previous(_write(tmp_path, data))
+    assert previous.system == "SI"
+    assert previous.cases["SU4"].posting_tons == pytest.approx(10.0 * TON_PER_TONNE)
+    assert previous.cases["SU4"].posting_tons == pytest.approx(11.023, abs=5e-4)
+
+
+def test_infinite_ratings_are_read_as_written(tmp_path: Path) -> None:
+    data = _earlier()
+    data["members"][0]["ratings"]["SU4"]["rf"] = "inf"
+    data["members"][1]["ratings"]["SU4"]["rf"] = "-inf"
+    data["members"][3]["ratings"]["SU4"]["rf"] = None  # (NaN is written null: no rating)
+    previous = read_previous(_write(tmp_path, data))
+    ids = [m["id"] for m in data["members"]]
+    assert previous.elements[ids[0]]["SU4"] == float("inf")
+    assert previous.elements[ids[1]]["SU4"] == float("-inf")
+    assert previous.elements[ids[3]]["SU4"] == float("inf")
+
+
+# ------------------------------------------------------------------ the comparison
+
+
+def test_the_same_rating_changes_nothing_and_a_same_day_file_is_flagged(tmp_path: Path) -> None:
+    results = sample_results()
+    since = compare(results, read_previous(_write(tmp_path, _plain())))
+    assert all(v.change == "no change" for v in since.vehicles)
+    assert since.elements == ()
+    assert since.out_of_order
+    assert any("is not earlier than this one's" in n for n in since.notes)
+    assert "Check the file given" in since.headline
+    assert "no posting, closing or permit verdict changed" in since.headline
+
+
+def test_a_lower_posting_a_new_posting_and_a_barring_are_worse(tmp_path: Path) -> None:
+    def edit(d: dict[str, Any]) -> None:
+        d["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)  # was higher
+        d["posting"]["EV3"].update(rf=1.2, action="none", posting_tons=None)  # not posted
+        d["posting"]["TYPE3"].update(rf=1.5, member="U2U3")
+    results = sample_results()
+    results = dataclasses.replace(results, posting={
+        **results.posting, "EV3": dataclasses.replace(results.posting["EV3"], action="close",
+                                                      posting_tons=None)})
+    since = compare(results, read_previous(_write(tmp_path, _earlier(edit))))
+    by = {v.vehicle: v for v in since.vehicles}
+    assert by["SU4"].change == "posting lowered from 31 to 26 tons"
+    assert by["EV3"].change == "now barred"  # an emergency vehicle is barred, not closed for
+    assert by["TYPE3"].change.startswith("RF lower by 29 %")  # 1.06 / 1.5 = 0.707
+    assert by["TYPE3"].change.endswith("now controlled by pin L2 (was U2U3)")
+    assert by["SU4"].posting_before == 31.0 and by["SU4"].posting_now == 26.0
+    assert "worse: SU4 posting lowered from 31 to 26 tons; EV3 now barred" in since.headline
+    assert not since.out_of_order and since.notes == ()
+
+
+@pytest.mark.parametrize(("before", "now", "words", "sign"), [
+    (("none", None), ("post", 12.0), "now posted at 12 tons", -1),
+    (("post", 20.0), ("close", None), "now closing to be considered (was posted at 20 tons)",
+     -1),
+    (("close", None), ("post", 5.0), "now posted at 5 tons (was closing to be considered)", 1),
+    (("post", 9.0), ("none", None), "no longer posted (was posted at 9 tons)", 1),
+    (("post", 9.0), ("post", 12.0), "posting raised from 9 to 12 tons", 1),
+    (("post", 9.0), ("post", 9.0), "no change", 0),
+])
+def test_each_change_of_a_legal_load_in_words(before: tuple, now: tuple, words: str,
+                                              sign: int) -> None:
+    c = VehicleChange("TYPE3", 0.8, 0.8, "U1L2", "U1L2", before[0], now[0], before[1], now[1])
+    assert vehicle_change_words(c, "ton", "legal", "legal") == words
+    assert direction(c, "legal", "ton") == sign
+
+
+def test_a_permit_changes_by_its_verdict_and_a_design_load_by_its_rf() -> None:
+    c = VehicleChange("P1", 1.1, 0.9, "L1U1", "L1U1", "can be carried", "not as requested")
+    assert vehicle_change_words(c, "ton", "single-trip permit", "permit") == \
+        "permit now 'not as requested' (was 'can be carried')"
+    assert direction(c, "permit", "ton") == -1
+    d = VehicleChange("HL93-INV", 0.62, 0.50, "L1U1", "L1U1", "none", "none")
+    assert vehicle_change_words(d, "ton", "design", "inventory") == "RF lower by 19 %"
+    assert direction(d, "inventory", "ton") == 0  # a design load's RF is not an outcome
+
+
+def test_a_case_not_rated_before_is_said_and_listed(tmp_path: Path) -> None:
+    since = compare(sample_results(), read_previous(_write(tmp_path, _earlier(
+        lambda d: d["posting"].pop("SU4")))))
+    su4 = next(v for v in since.vehicles if v.vehicle == "SU4")
+    assert su4.rf_before is None and su4.change == "not rated in the previous rating"
+    assert "Rated now, not in the previous rating: SU4." in since.notes
+
+
+def test_members_and_pins_that_moved_are_listed_with_their_findings(tmp_path: Path) -> None:
+    results = sample_results()
+    member = results.members[2]  # L2L3
+    pin = results.pins[0]
+
+    def edit(d: dict[str, Any]) -> None:
+        for r in d["members"][2]["ratings"].values():
+            if isinstance(r["rf"], float):
+                r["rf"] *= 1.25  # rated 25 % higher then
+        for r in d["pins"][0]["ratings"].values():
+            if isinstance(r["rf"], float):
+                r["rf"] *= 1.0 + RF_CHANGE / 2  # within the threshold: not listed
+        d["findings"] = [f for f in d["findings"] if f["member"] != "L1U1"]
+        d["findings"].append({"member": member.id, "component": "bar 1", "region": "body",
+                              "percent_loss": 5.0, "condition_rating": 6})
+    since = compare(results, read_previous(_write(tmp_path, _earlier(edit))))
+    assert [e.element for e in since.elements] == [member.id]
+    e = since.elements[0]
+    lowest = min((r.rf, c) for c, r in member.ratings.items())
+    assert (e.rf_now, e.case) == lowest
+    assert e.rf_before == pytest.approx(1.25 * lowest[0], rel=1e-5)  # (6 decimals in JSON)
+    assert e.findings_before == ("bar 1 body: 5 % loss, condition 6",)
+    assert f"pin at {pin.joint}" not in [x.element for x in since.elements]
+    assert "1 member or pin rates lower and 0 higher by more than 2 %" in since.headline
+
+
+def test_moved_is_relative_and_says_an_infinite_change() -> None:
+    assert not moved(1.00, 1.019) and moved(1.00, 0.979)
+    assert moved(float("inf"), 2.0) and not moved(float("-inf"), float("-inf"))
+    assert not moved(0.0, 0.0009)  # (near zero: RF_CHANGE of 0.05)
+
+
+def test_what_makes_the_ratings_differ_besides_the_bridge_is_noted(tmp_path: Path) -> None:
+    def edit(d: dict[str, Any]) -> None:
+        d["generator"] = "pintruss 0.0.9"
+        d["provision_set"] = "MBE 2011"
+        d["members"].append(copy.deepcopy(d["members"][0]) | {"id": "X9Y9"})
+    since = compare(sample_results(), read_previous(_write(tmp_path, _earlier(edit))))
+    text = " ".join(since.notes)
+    assert "made with pintruss 0.0.9" in text and "the program's changes" in text
+    assert "used MBE 2011" in text
+    assert "then only: X9Y9" in text
+
+
+def test_another_bridges_file_is_not_compared(tmp_path: Path) -> None:
+    path = _write(tmp_path, _earlier(lambda d: d["bridge"].__setitem__("id", "CR-999")))
+    results, why = previous_for(sample_results(), path)
+    assert results is None
+    assert "rating of bridge 'CR-999', not of 'CR-114-0032'" in why
+    # the same id in another case or spacing is the same bridge
+    path = _write(tmp_path, _earlier(lambda d: d["bridge"].__setitem__("id", "cr-114-0032 ")))
+    results, why = previous_for(sample_results(), path)
+    assert results is not None and why == ""
+
+
+# ------------------------------------------------------------------ JSON and report
+
+
+def test_the_comparison_is_in_the_json_and_the_report(tmp_path: Path) -> None:
+    def edit(d: dict[str, Any]) -> None:
+        d["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)
+        f = d["findings"][0]
+        f["component"] = "<b>bar</b>"  # words from the workbook, shown beside the member
+        m = next(m for m in d["members"] if m["id"] == f["member"])
+        for r in m["ratings"].values():
+            if isinstance(r["rf"], float):
+                r["rf"] *= 1.3  # it moved: its findings are shown
+    results, why = previous_for(sample_results(), _write(tmp_path, _earlier(edit)))
+    assert results is not None, why
+    data = json.loads(results_json(results))
+    assert data["previous"]["file"] == "then.rating.json"  # the name, never the folder
+    assert data["previous"]["inspection_date"] == "2022-05-10"
+    assert results_json(results) == results_json(results)
+    html = render_report(results)
+    doc = read(html)
+    text = " ".join(doc.text)
+    assert doc.errors == []
+    assert "Since the previous rating" in text
+    assert "posting lowered from 31 to 26 tons" in text
+    assert "<b>bar</b>" not in html and "&lt;b&gt;bar&lt;/b&gt;" in html  # text, inert
+    # no previous rating: no such part, and "previous": null in the file
+    plain = sample_results()
+    assert "Since the previous rating" not in " ".join(read(render_report(plain)).text)
+    assert json.loads(results_json(plain))["previous"] is None
+
+
+# ------------------------------------------------------------------ end to end
+
+
+def test_more_loss_since_the_previous_inspection_never_rates_higher(tmp_path: Path) -> None:
+    """The pony sample rated at an earlier (invented) inspection with half its measured
+    losses and none of its remaining-thickness findings, then as it is: with the same dead
+    load and more loss no resistance grows, so no case's outcome is better, no member or pin
+    rates higher, and the members whose findings grew are among those listed (statics:
+    common practice)."""
+    import datetime as dt
+
+    sys.path.insert(0, str(Path(__file__).resolve().parent / "inventory"))
+    from inventory_helpers import load_make_samples
+
+    from rating.inventory.template import WorkbookContent, write_workbook
+    from rating.pipeline import rate_workbook
+
+    ms = load_make_samples()
+    now = ms.SAMPLES["tc0903_pony_1903_si.xlsx"]()
+    findings = [dict(f, loss=f["loss"] / 2) for f in now.tables["Findings"]
+                if f.get("remaining") is None and f.get("loss") is not None]
+    assert findings  # the sample has percent losses to halve
+    earlier = WorkbookContent({**now.bridge, "inspection_date": dt.date(2021, 6, 1)},
+                              {**now.tables, "Findings": findings}, now.settings)
+    write_workbook(tmp_path / "then.xlsx", earlier)
+    write_workbook(tmp_path / "now.xlsx", now)
+    then = rate_workbook(tmp_path / "then.xlsx").results
+    assert then is not None
+    (tmp_path / "then.rating.json").write_text(results_json(then), encoding="utf-8")
+    results = rate_workbook(tmp_path / "now.xlsx").results
+    assert results is not None
+    compared, why = previous_for(results, tmp_path / "then.rating.json")
+    assert compared is not None, why
+    since = compared.previous
+    assert since is not None and not since.out_of_order and since.notes == ()
+    levels = {v.id: v.rating_level for v in results.vehicles}
+    assert all(direction(v, levels[v.vehicle], "tonne") <= 0 for v in since.vehicles)
+    # (the previous RFs as the results file writes them: 6 decimals)
+    assert all(v.rf_now <= v.rf_before + 1e-6 for v in since.vehicles)
+    assert since.elements and all(e.rf_now < e.rf_before for e in since.elements)
+    halved = {f["member"] for f in findings}
+    assert halved & {e.element for e in since.elements}
+    assert "higher by more than" in since.headline and " 0 higher" in since.headline
