@@ -28,7 +28,6 @@ from rating.results import (
     RatingResults,
     SincePrevious,
     VehicleChange,
-    permit_words,
     reported_rf,
     to_plain,
 )
@@ -238,7 +237,7 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
             rf_before=None if then is None else then.rf, rf_now=now.rf,
             member_before="" if then is None else then.member, member_now=now.member,
             action_before="" if then is None else (then.permit if permit else then.action),
-            action_now=permit_words(now) if permit else now.action,
+            action_now=now.permit if permit else now.action,
             posting_before=None if then is None else then.posting_tons,
             posting_now=now.posting_tons if now.action == "post" else None)
         vehicles.append(_with_words(change, weight, category.get(v.id, ""),
@@ -246,12 +245,63 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
     elements = _element_changes(results, previous, system)
     notes = _notes(results, previous)
     date_now, date_then = results.bridge.inspection_date, previous.inspection_date
+    trucks = [c for c in results.posting if level.get(c) == "legal"
+              and category.get(c) != EMERGENCY]
+    now_trucks = _trucks([(results.posting[c].action, results.posting[c].posting_tons)
+                          for c in trucks])
+    then_trucks = _trucks([(previous.cases[c].action, previous.cases[c].posting_tons)
+                           for c in trucks if c in previous.cases])
     since = SincePrevious(file=previous.file, inspection_date=previous.inspection_date,
                           generator=previous.generator, vehicles=tuple(vehicles),
                           elements=elements, notes=notes,
                           # (ISO dates: their text sorts as the dates)
-                          out_of_order=bool(date_now and date_then and date_then >= date_now))
+                          out_of_order=bool(date_now and date_then and date_then >= date_now),
+                          trucks_before=then_trucks[0], limit_before=then_trucks[1],
+                          trucks_now=now_trucks[0], limit_now=now_trucks[1])
     return dataclasses.replace(since, headline=headline(since, weight, level))
+
+
+def _trucks(cases: Sequence[tuple[str, float | None]]) -> tuple[str, float | None]:
+    """The trucks' outcome from their (action, safe posting load): "close" where one calls for
+    closing, else "post" with the least posting load (the single weight limit for trucks, as
+    rating.results_build words it), else "none"; "" where no truck was rated."""
+    if not cases:
+        return "", None
+    if any(a == "close" for a, _ in cases):
+        return "close", None
+    posted = [p for a, p in cases if a == "post" and p is not None]
+    return ("post", min(posted)) if posted else ("none", None)
+
+
+def truck_state(outcome: str, limit: float | None, weight: str) -> str:
+    """The trucks' outcome (:func:`_trucks`) in words: "no restriction", "a weight limit of 17
+    tons", "a closing to consider"; "not rated" for ""."""
+    return {"none": "no restriction", "close": "a closing to consider", "": "not rated"}.get(
+        outcome, f"a weight limit of {_tons(limit, weight)}")
+
+
+def truck_words(since: SincePrevious, weight: str) -> str:
+    """The change of the trucks' outcome (:func:`_trucks`) in words; "" where it is the same
+    (or where either rating rated no truck)."""
+    b, n = since.trucks_before, since.trucks_now
+    if not b or not n:
+        return ""
+    then = truck_state(b, since.limit_before, weight)
+    if b == n == "post":
+        if _amount(since.limit_before or 0.0, weight) == _amount(since.limit_now or 0.0,
+                                                                 weight):
+            return ""
+        lower = (since.limit_now or 0.0) < (since.limit_before or 0.0)
+        return (f"truck weight limit {'lowered' if lower else 'raised'} from "
+                f"{_amount(since.limit_before or 0.0, weight)} to "
+                f"{_tons(since.limit_now, weight)}")
+    if b == n:
+        return ""
+    if n == "post":
+        return f"trucks now to be posted at {_tons(since.limit_now, weight)} (was {then})"
+    if n == "close":
+        return f"closing now to be considered for trucks (was {then})"
+    return f"no restriction now indicated for trucks (was {then})"
 
 
 def _amount(value: float, weight: str) -> str:
@@ -494,6 +544,9 @@ def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> st
     lower = sum(1 for e in since.elements if e.rf_now < e.rf_before)
     higher = len(since.elements) - lower
     parts = []
+    trucks = truck_words(since, weight)
+    if trucks:
+        parts.append(trucks)
     if worse:
         parts.append("worse: " + "; ".join(worse))
     if better:

@@ -403,6 +403,13 @@ class SincePrevious:
     notes: tuple[str, ...] = ()
     headline: str = ""
     out_of_order: bool = False  # the previous inspection is not earlier than this one
+    # the trucks' outcome then and now (legal loads other than emergency vehicles): "none",
+    # "post" with the single weight limit (the least safe posting load), or "close"
+    trucks_before: str = ""
+    trucks_now: str = ""
+    limit_before: float | None = q("single weight limit for trucks then", "weight",
+                                   default=None)
+    limit_now: float | None = q("single weight limit for trucks now", "weight", default=None)
 
 
 @dataclass(frozen=True)

@@ -29,10 +29,11 @@ from rating.previous import (  # noqa: E402
     moved,
     previous_for,
     read_previous,
+    truck_words,
     vehicle_change_words,
 )
 from rating.report.html import render_report  # noqa: E402
-from rating.results import VehicleChange, results_json  # noqa: E402
+from rating.results import SincePrevious, VehicleChange, results_json  # noqa: E402
 from rating.units import TON_PER_TONNE  # noqa: E402
 
 
@@ -156,6 +157,11 @@ def test_a_lower_posting_a_new_posting_and_a_barring_are_worse(tmp_path: Path) -
     assert by["TYPE3"].change.endswith("now controlled by pin L2 (was U2U3)")
     assert by["SU4"].posting_before == 31.0 and by["SU4"].posting_now == 26.0
     assert "worse: SU4 posting lowered from 31 to 26 tons; EV3 now barred" in since.headline
+    # the trucks' single weight limit (EV3, an emergency vehicle, is not a truck)
+    assert (since.trucks_before, since.limit_before) == ("post", 31.0)
+    assert (since.trucks_now, since.limit_now) == ("post", 26.0)
+    assert since.headline.startswith("Since the rating of the inspection of 2022-05-10: "
+                                     "truck weight limit lowered from 31 to 26 tons; worse:")
     assert not since.out_of_order and since.notes == ()
 
 
@@ -322,3 +328,43 @@ def test_more_loss_since_the_previous_inspection_never_rates_higher(tmp_path: Pa
     halved = {f["member"] for f in findings}
     assert halved & {e.element for e in since.elements}
     assert "higher by more than" in since.headline and " 0 higher" in since.headline
+
+
+def test_a_permit_compared_with_itself_is_unchanged_and_its_verdict_change_is_said(
+        tmp_path: Path) -> None:
+    results = sample_results()
+    vehicles = tuple(dataclasses.replace(v, rating_level="permit",
+                                         category="single-trip permit")
+                     if v.id == "TYPE3-3" else v for v in results.vehicles)
+    posting = {**results.posting, "TYPE3-3": dataclasses.replace(
+        results.posting["TYPE3-3"], permit="can be carried")}
+    results = dataclasses.replace(results, vehicles=vehicles, posting=posting)
+    then = json.loads(results_json(results))
+    then["bridge"]["inspection_date"] = "2022-05-10"
+    since = compare(results, read_previous(_write(tmp_path, then)))
+    permit = next(v for v in since.vehicles if v.vehicle == "TYPE3-3")
+    assert permit.change == "no change" and permit.action_now == "can be carried"
+    assert direction(permit, "permit", "ton") == 0
+    assert "no posting, closing or permit verdict changed" in since.headline
+    then["posting"]["TYPE3-3"]["permit"] = "not as requested"
+    since = compare(results, read_previous(_write(tmp_path, then)))
+    permit = next(v for v in since.vehicles if v.vehicle == "TYPE3-3")
+    assert permit.change == "permit now 'can be carried' (was 'not as requested')"
+    assert "better: TYPE3-3 permit now 'can be carried'" in since.headline
+
+
+@pytest.mark.parametrize(("then", "now", "words"), [
+    (("none", None), ("post", 12.0), "trucks now to be posted at 12 tons (was no restriction)"),
+    (("post", 20.0), ("close", None),
+     "closing now to be considered for trucks (was a weight limit of 20 tons)"),
+    (("close", None), ("none", None),
+     "no restriction now indicated for trucks (was a closing to consider)"),
+    (("post", 20.0), ("post", 24.0), "truck weight limit raised from 20 to 24 tons"),
+    (("post", 20.0), ("post", 20.0), ""),
+    (("", None), ("post", 20.0), ""),  # no truck rated then: nothing to compare
+])
+def test_the_trucks_single_weight_limit_then_and_now(then: tuple, now: tuple,
+                                                     words: str) -> None:
+    since = SincePrevious("f", "2020-01-01", "", (), (), trucks_before=then[0],
+                          limit_before=then[1], trucks_now=now[0], limit_now=now[1])
+    assert truck_words(since, "ton") == words

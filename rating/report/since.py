@@ -67,6 +67,7 @@ class SinceView:
     elements: tuple[ElementChangeRow, ...]
     more_elements: int
     threshold: str
+    trucks: str = ""  # the trucks' outcome then and now, in words
 
 
 def _outcome_then(action: str, posting: float | None, v: VehicleResult, d: Display) -> str:
@@ -90,7 +91,7 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
     """The comparison formatted, or None where the rating was not compared with another.
     ``rf_cell`` formats an RF with its band (the report's own cells); ``outcome_now`` gives
     a case's outcome in the summary's words."""
-    from rating.previous import RF_CHANGE, direction
+    from rating.previous import RF_CHANGE, direction, truck_state
 
     since = results.previous
     if since is None:
@@ -130,4 +131,8 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
                 f"{since.inspection_date or 'an unknown date'}{made})"),
         notes=since.notes, vehicles=tuple(rows), elements=tuple(elements),
         more_elements=max(0, len(since.elements) - ELEMENT_ROWS),
-        threshold=f"{RF_CHANGE * 100:g} %")
+        threshold=f"{RF_CHANGE * 100:g} %",
+        trucks=(f"Trucks (the legal loads other than emergency vehicles): "
+                f"{truck_state(since.trucks_before, since.limit_before, d.unit('weight'))} "
+                f"then; {truck_state(since.trucks_now, since.limit_now, d.unit('weight'))} "
+                "now." if since.trucks_now else ""))
