@@ -622,6 +622,7 @@ def test_batch_with_previous_compares_each_bridge_with_its_earlier_results(
     s = rate_folder(folder, tmp_path / "now", workers=2, rate=fake_rate, previous=earlier)
     since = {r.workbook: r.since for r in s.rows}
     assert since["a.xlsx"].startswith("Since the rating of the inspection of 2022-05-10: "
+                                      "truck weight limit lowered from 31 to 26 tons; "
                                       "worse: SU4 posting lowered from 31 to 26 tons")
     assert since["b.xlsx"].startswith("not compared: ") and "'CR-999'" in since["b.xlsx"]
     assert any("--previous" in w for w in s.rows[1].warnings)

@@ -184,8 +184,8 @@ def test_rate_with_previous_says_what_changed_in_the_printout_json_and_report(
     out = tmp_path / "o"
     assert main(["rate", str(workbook), "--out", str(out), "--previous", str(previous)]) == 0
     said = capsys.readouterr().out
-    assert "Since the rating of the inspection of 2022-05-10: worse: SU4 posting lowered " \
-        "from 31 to 26 tons" in said
+    assert "Since the rating of the inspection of 2022-05-10: truck weight limit lowered " \
+        "from 31 to 26 tons; worse: SU4 posting lowered from 31 to 26 tons" in said
     data = json.loads((out / "bridge.rating.json").read_text(encoding="utf-8"))
     assert data["previous"]["file"] == "bridge.rating.json"
     assert "Since the previous rating" in (out / "bridge.rating.html").read_text()
