@@ -149,11 +149,36 @@ def test_detector_catches_a_broken_page(browser: Browser, tmp_path: Path) -> Non
     assert any(r.endswith("missing.png") for r in rep.requests)
 
 
-@pytest.mark.parametrize("which", ["US", "SI", "hostile"])
+def _compared(results: RatingResults, tmp_path: Path) -> RatingResults:
+    """``results`` compared with an earlier rating of the bridge (rating.previous) in which
+    every member rated a third higher and SU4 was posted higher: the report's part "Since the
+    previous rating" with both of its tables."""
+    import json
+
+    from rating.previous import previous_for
+    from rating.results import results_json
+
+    data = json.loads(results_json(results))
+    data["bridge"]["inspection_date"] = "2021-05-10"
+    data["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)
+    for m in data["members"]:
+        for r in m["ratings"].values():
+            if isinstance(r["rf"], float):
+                r["rf"] *= 1.3
+    path = tmp_path / "earlier.rating.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    compared, why = previous_for(results, path)
+    assert compared is not None and compared.previous is not None, why
+    assert compared.previous.elements
+    return compared
+
+
+@pytest.mark.parametrize("which", ["US", "SI", "hostile", "previous"])
 def test_sample_report_in_browser(browser: Browser, tmp_path: Path, which: str,
                                   results_us: RatingResults, results_si: RatingResults,
                                   results_hostile: RatingResults) -> None:
-    results = {"US": results_us, "SI": results_si, "hostile": results_hostile}[which]
+    results = (_compared(results_us, tmp_path) if which == "previous" else
+               {"US": results_us, "SI": results_si, "hostile": results_hostile}[which])
     path = tmp_path / f"{which}.html"
     path.write_text(render_report(results), encoding="utf-8")
     if which == "SI":
