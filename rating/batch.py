@@ -92,6 +92,8 @@ class BridgeRow:
     # folder from an earlier run (kept, never removed, but never to be mistaken for this one)
     since: str = ""  # the change since the previous rating (batch --previous), in one
     # sentence (rating.previous.headline), or why there is none
+    worse: bool = False  # an outcome worse than at the previous rating
+    # (rating.previous.worse_since)
 
     @property
     def conditional(self) -> bool:
@@ -299,7 +301,7 @@ def rate_one(task: _Task) -> BridgeRow:
                 workbook=name, rated=False, errors=errors or ("error   not rated",),
                 warnings=tuple(p.format() for p in problems if p.severity != "error"),
                 seconds=time.perf_counter() - t0)
-        results, since, notes = _with_previous(outcome.results, task.previous)
+        results, since, notes, worse = _with_previous(outcome.results, task.previous)
         out_dir = task.out_dir
         stem = task.stem
         if "/" in stem:  # a workbook in a sub-folder: its outputs in the same sub-folder
@@ -309,7 +311,7 @@ def rate_one(task: _Task) -> BridgeRow:
         html, js = write(results, out_dir, stem)
         row = _row_from_results(wb, results, html, js, problems, time.perf_counter() - t0,
                                 name=name, root=task.out_dir)
-        return replace(row, since=since, warnings=row.warnings + notes) \
+        return replace(row, since=since, warnings=row.warnings + notes, worse=worse) \
             if task.previous is not None else row
     except OSError as exc:  # unreadable workbook, full disk: recorded, the batch goes on
         return BridgeRow(workbook=name, rated=False,
@@ -323,20 +325,25 @@ def rate_one(task: _Task) -> BridgeRow:
 
 
 def _with_previous(results: Any, previous: Path | None
-                   ) -> tuple[Any, str, tuple[str, ...]]:
+                   ) -> tuple[Any, str, tuple[str, ...], bool]:
     """The results compared with the previous rating's results file at ``previous`` where
-    there is one (rating.previous), the change in one sentence (or why there is none), and a
-    warning where the file could not be used (the bridge is rated and written all the same)."""
+    there is one (rating.previous), the change in one sentence (or why there is none), a
+    warning where the file could not be used (the bridge is rated and written all the same),
+    and whether an outcome is worse than then."""
     if previous is None:
-        return results, "", ()
+        return results, "", (), False
     if not previous.is_file():
-        return results, f"no previous rating: no {previous.name} in the --previous folder", ()
-    from rating.previous import previous_for
+        return (results, f"no previous rating: no {previous.name} in the --previous folder",
+                (), False)
+    from rating.previous import previous_for, worse_since
+    from rating.report.display import display_for
 
     compared, why = previous_for(results, previous)
     if compared is None:
-        return results, f"not compared: {why}", (f"warning --previous {why}",)
-    return compared, compared.previous.headline, ()
+        return results, f"not compared: {why}", (f"warning --previous {why}",), False
+    levels = {v.id: v.rating_level for v in results.vehicles}
+    worse = worse_since(compared.previous, levels, display_for(results).unit("weight"))
+    return compared, compared.previous.headline, (), worse
 
 
 def _in_pool(tasks: Sequence[_Task], workers: int,
@@ -570,7 +577,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
             "weight unit", "deciding truck RF", "deciding truck", "action",
             "rests on a condition", "recommendation", "read before deciding",
-            "since the previous rating", "errors",
+            "since the previous rating", "worse than at the previous rating", "errors",
             "warnings", "problems",
             "report", "results"]
     for vid, _ in vehicles:
@@ -586,7 +593,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
                 r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
                 _cell(low.vehicle) if low else "", r.action,
                 "yes" if r.conditional else "", _cell(r.recommendation),
-                _cell(" | ".join(r.decision_warnings)), _cell(r.since), str(len(r.errors)),
+                _cell(" | ".join(r.decision_warnings)), _cell(r.since),
+                "yes" if r.worse else "", str(len(r.errors)),
                 str(len(r.warnings)),
                 _cell(" | ".join(r.errors[:20]) + (f" | and {len(r.errors) - 20} more"
                                                    if len(r.errors) > 20 else "")
@@ -701,7 +709,8 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
               "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)),
               "close": sum(1 for r in summary.rows if r.action == "close"),
               "read": sum(1 for r in summary.rows if r.decision_warnings),
-              "conditional": sum(1 for r in summary.rows if r.conditional)}
+              "conditional": sum(1 for r in summary.rows if r.conditional),
+              "worse": sum(1 for r in summary.rows if r.worse)}
     view = _IndexView(
         title=f"Batch load rating \u2014 {summary.folder.name or summary.folder}",
         folder=str(summary.folder), vehicles=vehicles, rated=tuple(rated),
@@ -740,6 +749,10 @@ def print_summary(summary: BatchSummary, stream: TextIO | None = None) -> None:
     for sid, books in _same_structure(summary.rated):
         stream.write(f"  note: structure {sid} is rated from {len(books)} workbooks: "
                      f"{', '.join(books)}\n")
+    worse = [r.workbook for r in summary.rows if r.worse]
+    if worse:
+        stream.write(f"  {len(worse)} bridge(s) rate worse than at their previous rating: "
+                     f"{', '.join(worse[:10])}{', ...' if len(worse) > 10 else ''}\n")
     stale = [x for r in summary.rows for x in r.stale]
     if stale or summary.others:
         stream.write(f"  note: {len(stale) + len(summary.others)} rating file(s) in the output "

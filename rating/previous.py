@@ -531,6 +531,19 @@ def direction(c: VehicleChange, level: str, weight: str) -> int:
     return 0
 
 
+def worse_since(since: SincePrevious, levels: Mapping[str, str], weight: str) -> bool:
+    """Whether any outcome is worse than at the previous rating: a case's (:func:`direction`)
+    or the trucks' (a weight limit lowered, a posting or closing now called for)."""
+    rank = {"": 0, "none": 0, "post": 1, "close": 2}
+    b, n = since.trucks_before, since.trucks_now
+    trucks = bool(b and n) and (rank[n] > rank[b] or (
+        b == n == "post" and since.limit_now is not None and since.limit_before is not None
+        and _amount(since.limit_now, weight) != _amount(since.limit_before, weight)
+        and since.limit_now < since.limit_before))
+    return trucks or any(direction(c, levels.get(c.vehicle, ""), weight) < 0
+                         for c in since.vehicles)
+
+
 def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> str:
     """The change since the previous rating in one sentence: the cases whose outcome is worse
     (:func:`direction`), then those better, then how many members and pins rate lower and

@@ -27,6 +27,7 @@ from rating.batch import (  # noqa: E402
     Progress,
     find_workbooks,
     output_stems,
+    print_summary,
     rate_folder,
     summary_csv,
 )
@@ -628,8 +629,16 @@ def test_batch_with_previous_compares_each_bridge_with_its_earlier_results(
     assert any("--previous" in w for w in s.rows[1].warnings)
     assert since["c.xlsx"] == "no previous rating: no c.rating.json in the --previous folder"
     assert since["d.xlsx"] == ""  # not rated: nothing to compare
+    assert [r.workbook for r in s.rows if r.worse] == ["a.xlsx"]
     rows = {r["workbook"]: r for r in _csv_rows(s.csv_path)}
     assert rows["a.xlsx"]["since the previous rating"] == since["a.xlsx"]
+    assert [rows[k]["worse than at the previous rating"] for k in sorted(rows)] == \
+        ["yes", "", "", ""]
+    assert "1 whose outcome is worse than at its previous rating" in \
+        " ".join(read(s.index_path.read_text(encoding="utf-8")).text)
+    out = io.StringIO()
+    print_summary(s, out)
+    assert "1 bridge(s) rate worse than at their previous rating: a.xlsx" in out.getvalue()
     assert "Since the previous rating:" in s.index_path.read_text(encoding="utf-8")
     assert _digest(earlier) == kept  # read only
 
