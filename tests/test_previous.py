@@ -374,10 +374,13 @@ def test_worse_since_weighs_the_trucks_and_every_case() -> None:
     from rating.previous import worse_since
 
     lowered = SincePrevious("f", "2020-01-01", "", (), (), trucks_before="post",
-                            limit_before=20.0, trucks_now="post", limit_now=19.4)
-    assert worse_since(lowered, {}, "ton")  # 20 tons then, 19 now (rounded down)
-    same = dataclasses.replace(lowered, limit_now=20.3)
-    assert not worse_since(same, {}, "ton")  # 20 tons both times, as posted
+                            limit_before=20.0, trucks_now="post", limit_now=19.0)
+    assert worse_since(lowered, {}, "ton")
+    raised = dataclasses.replace(lowered, limit_now=21.0)
+    assert not worse_since(raised, {}, "ton")
+    same = dataclasses.replace(lowered, limit_now=20.0 + 1e-9)  # (round-off: the same sign)
+    assert not worse_since(same, {}, "ton") and not worse_since(
+        dataclasses.replace(lowered, limit_now=20.0 - 1e-9), {}, "ton")
     barred = VehicleChange("EV3", 1.1, 0.5, "L1U1", "L1U1", "none", "close")
     assert worse_since(dataclasses.replace(same, vehicles=(barred,)), {"EV3": "legal"}, "ton")
     design = VehicleChange("HL93-INV", 1.1, 0.5, "L1U1", "L1U1", "none", "none")
