@@ -9,6 +9,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
+from typing import Protocol
 
 from rating.report.display import DASH, Display
 from rating.results import EMERGENCY, RatingResults, VehicleResult
@@ -18,12 +19,12 @@ ELEMENT_ROWS = 20
 first); the results file holds them all."""
 
 
-@dataclass(frozen=True)
-class ChangeCell:
-    """An RF as printed, with its band key for shading (as rating.report.view.Cell)."""
+class Shaded(Protocol):
+    """An RF as printed with its band key for shading: the report's own cells
+    (rating.report.view.Cell)."""
 
     text: str
-    band: str = ""
+    band: str
 
 
 @dataclass(frozen=True)
@@ -31,8 +32,8 @@ class VehicleChangeRow:
     """One case's row: RF, controlling member and outcome then and now, and the change."""
 
     vehicle: str
-    rf_then: ChangeCell
-    rf_now: ChangeCell
+    rf_then: Shaded
+    rf_now: Shaded
     member_then: str
     member_now: str
     outcome_then: str
@@ -48,8 +49,8 @@ class ElementChangeRow:
 
     element: str
     case: str
-    rf_then: ChangeCell
-    rf_now: ChangeCell
+    rf_then: Shaded
+    rf_now: Shaded
     move: str
     findings_then: str
     findings_now: str
@@ -86,7 +87,7 @@ def _outcome_then(action: str, posting: float | None, v: VehicleResult, d: Displ
     return "no restriction"
 
 
-def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | None], object],
+def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | None], Shaded],
                outcome_now: Callable[[str], str]) -> SinceView | None:
     """The comparison formatted, or None where the rating was not compared with another.
     ``rf_cell`` formats an RF with its band (the report's own cells); ``outcome_now`` gives
@@ -98,18 +99,13 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
         return None
     vmap: Mapping[str, VehicleResult] = {v.id: v for v in results.vehicles}
 
-    def cell(rf: float | None) -> ChangeCell:
-        c = rf_cell(rf)
-        return ChangeCell(getattr(c, "text", DASH), getattr(c, "band", ""))
-
     rows = []
     for c in since.vehicles:
         v = vmap.get(c.vehicle)
         if v is None:
             continue
         rows.append(VehicleChangeRow(
-            vehicle=v.id, rf_then=cell(c.rf_before) if c.rf_before is not None
-            else ChangeCell(DASH), rf_now=cell(c.rf_now),
+            vehicle=v.id, rf_then=rf_cell(c.rf_before), rf_now=rf_cell(c.rf_now),
             member_then=c.member_before or DASH, member_now=c.member_now or DASH,
             outcome_then=_outcome_then(c.action_before, c.posting_before, v, d),
             outcome_now=outcome_now(v.id), change=c.change,
@@ -121,7 +117,7 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
         else:
             move = "lower" if e.rf_now < e.rf_before else "higher"
         elements.append(ElementChangeRow(
-            e.element, e.case, cell(e.rf_before), cell(e.rf_now), move,
+            e.element, e.case, rf_cell(e.rf_before), rf_cell(e.rf_now), move,
             "; ".join(e.findings_before) or "none recorded",
             "; ".join(e.findings_now) or "none recorded", e.rf_now < e.rf_before))
     made = f", made with {since.generator}" if since.generator else ""
