@@ -338,11 +338,17 @@ def _with_previous(results: Any, previous: Path | None
     from rating.previous import previous_for, worse_since
     from rating.report.display import display_for
 
-    compared, why = previous_for(results, previous)
-    if compared is None:
+    try:
+        compared, why = previous_for(results, previous)
+        if compared is None:
+            return results, f"not compared: {why}", (f"warning --previous {why}",), False
+        levels = {v.id: v.rating_level for v in results.vehicles}
+        worse = worse_since(compared.previous, levels, display_for(results).unit("weight"))
+    except Exception as exc:  # a fault of the program: the bridge is rated and written all
+        # the same, without the comparison
+        why = (f"{previous}: internal error in pintruss while comparing "
+               f"({type(exc).__name__}: {exc}); please report it")
         return results, f"not compared: {why}", (f"warning --previous {why}",), False
-    levels = {v.id: v.rating_level for v in results.vehicles}
-    worse = worse_since(compared.previous, levels, display_for(results).unit("weight"))
     return compared, compared.previous.headline, (), worse
 
 

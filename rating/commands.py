@@ -150,7 +150,12 @@ def run_rate(args: argparse.Namespace) -> int:
                   f"{previous.bridge_id!r}, not of {res.bridge.id!r} (this workbook's "
                   "structure id); nothing was written", file=sys.stderr)
             return EXIT_USAGE
-        res = dataclasses.replace(res, previous=compare(res, previous))
+        try:
+            res = dataclasses.replace(res, previous=compare(res, previous))
+        except Exception as exc:  # a fault of the program: the rating is written without it
+            print(f"pintruss: internal error in pintruss while comparing with --previous "
+                  f"{previous_path} ({type(exc).__name__}: {exc}); please report it. The "
+                  "rating is written without the comparison.", file=sys.stderr)
     try:
         html, js = write_outputs(res, html_path.parent, workbook.stem,
                                  report=not args.no_report, paper=args.paper)

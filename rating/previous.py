@@ -13,6 +13,7 @@ Sits between the results and the report: it reads rating.results and rating.unit
 from __future__ import annotations
 
 import dataclasses
+import datetime as dt
 import json
 import math
 from collections.abc import Mapping, Sequence
@@ -52,6 +53,7 @@ class PreviousCase:
     action: str
     posting_tons: float | None
     permit: str = ""
+    alike: tuple[str, ...] = ()  # members and pins rated the same (a symmetric truss's mirror)
 
 
 @dataclass(frozen=True)
@@ -65,6 +67,7 @@ class PreviousRating:
     method: str
     provision_set: str
     system: str  # "US" or "SI": the units it was written in
+    weight_unit: str  # the unit its posting loads were posted in ("ton" or "tonne")
     cases: Mapping[str, PreviousCase]
     elements: Mapping[str, Mapping[str, float]]  # member id or "pin at J" -> case -> RF
     findings: tuple[Mapping[str, Any], ...]  # the findings echo, as written (its units)
@@ -91,8 +94,11 @@ class _Reader:
                             f"{'but it is missing' if value is None else 'here'}")
         return value
 
-    def items(self, parent: Mapping[str, Any], key: str, where: str) -> list[Any]:
+    def items(self, parent: Mapping[str, Any], key: str, where: str, optional: bool = False
+              ) -> list[Any]:
         value = parent.get(key)
+        if value is None and optional:
+            return []
         if not isinstance(value, list):
             raise self.fail(_join(where, key), "expected a list "
                             f"{'but it is missing' if value is None else 'here'}")
@@ -116,11 +122,14 @@ class _Reader:
             return math.inf
         if isinstance(value, str) and value in ("inf", "-inf"):
             return float(value)
-        if isinstance(value, bool) or not isinstance(value, int | float):
-            raise self.fail(_join(where, key), f"expected a rating factor, not {value!r}")
+        if isinstance(value, bool) or not isinstance(value, int | float) \
+                or not math.isfinite(value):
+            raise self.fail(_join(where, key), f"expected a rating factor, not {value!r} "
+                            "(results files write a number, \"inf\" or \"-inf\")")
         return float(value)
 
     def number(self, parent: Mapping[str, Any], key: str, where: str) -> float | None:
+        """A finite number, or None where it is null or missing."""
         value = parent.get(key)
         if value is None:
             return None
@@ -182,10 +191,15 @@ def read_previous(path: Path) -> PreviousRating:
         action = r.text(entry, "action", where) or ""
         if action not in _ACTION_RANK:
             raise r.fail(_join(where, "action"), f"unknown action {action!r}")
+        if action == "post" and posting is None:
+            raise r.fail(_join(where, "posting_tons"), "the action is post but no safe "
+                         "posting load is given")
+        alike = r.items(entry, "alike", where, optional=True)
         cases[case] = PreviousCase(
             r.rf(entry, "rf", where), r.text(entry, "member", where) or "", action,
             None if posting is None else to_core(posting, weight_unit),
-            r.text(entry, "permit", where, optional=True) or "")
+            r.text(entry, "permit", where, optional=True) or "",
+            tuple(a for a in alike if isinstance(a, str)))
     elements: dict[str, dict[str, float]] = {}
     for kind, key, label in (("members", "id", "{}"), ("pins", "joint", "pin at {}")):
         for i, item in enumerate(r.items(data, kind, "")):
@@ -197,7 +211,11 @@ def read_previous(path: Path) -> PreviousRating:
             elements[name] = {case: r.rf(rating, "rf", f"{where}.ratings.{case}")
                               for case, rating in ratings.items()
                               if isinstance(rating, Mapping)}
-    findings = tuple(f for f in data.get("findings") or () if isinstance(f, Mapping))
+    findings = []
+    for i, f in enumerate(r.items(data, "findings", "", optional=True)):
+        if not isinstance(f, Mapping):
+            raise r.fail(f"findings[{i}]", "expected an object here")
+        findings.append(f)
     return PreviousRating(
         file=path.name, bridge_id=r.text(bridge, "id", "bridge") or "",
         inspection_date=r.text(bridge, "inspection_date", "bridge", optional=True),
@@ -205,7 +223,7 @@ def read_previous(path: Path) -> PreviousRating:
         method=r.text(data, "method", "", optional=True) or "",
         provision_set=r.text(data, "provision_set", "", optional=True) or "",
         system="SI" if weight_unit == DISPLAY_UNITS["weight"][1] else "US",
-        cases=cases, elements=elements, findings=findings)
+        weight_unit=weight_unit, cases=cases, elements=elements, findings=tuple(findings))
 
 
 def same_bridge(a: str, b: str) -> bool:
@@ -218,11 +236,13 @@ def same_bridge(a: str, b: str) -> bool:
 
 def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
     """This rating beside the previous one: each case's controlling RF, member and action then
-    and now, the members and pins whose lowest RF over the cases rated both times moved by
-    more than :data:`RF_CHANGE`, with the findings on them then and now, and notes on what
-    makes the two differ besides the bridge (program, method, dates, cases rated)."""
+    and now; the trucks' single weight limit then and now over the trucks rated both times;
+    the members and pins whose lowest RF over the cases rated both times moved by more than
+    :data:`RF_CHANGE`, or whose findings changed, with the findings on them then and now; and
+    notes on what makes the two differ besides the bridge (program, method, dates, cases)."""
     system = "SI" if results.units.get("force") == "kN" else "US"
     weight = DISPLAY_UNITS["weight"][1 if system == "SI" else 0]
+    then_weight = previous.weight_unit
     category = {v.id: v.category for v in results.vehicles}
     level = {v.id: v.rating_level for v in results.vehicles}
     vehicles = []
@@ -240,25 +260,43 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
             action_now=now.permit if permit else now.action,
             posting_before=None if then is None else then.posting_tons,
             posting_now=now.posting_tons if now.action == "post" else None)
-        vehicles.append(_with_words(change, weight, category.get(v.id, ""),
-                                    level.get(v.id, ""), then))
-    elements = _element_changes(results, previous, system)
-    notes = _notes(results, previous)
-    date_now, date_then = results.bridge.inspection_date, previous.inspection_date
+        alike = set(now.alike) | (set(then.alike) if then is not None else set())
+        words = vehicle_change_words(change, weight, category.get(v.id, ""),
+                                     level.get(v.id, ""), then_weight=then_weight,
+                                     alike=alike)
+        vehicles.append(dataclasses.replace(change, change=words))
     trucks = [c for c in results.posting if level.get(c) == "legal"
-              and category.get(c) != EMERGENCY]
+              and category.get(c) != EMERGENCY and c in previous.cases]
     now_trucks = _trucks([(results.posting[c].action, results.posting[c].posting_tons)
                           for c in trucks])
     then_trucks = _trucks([(previous.cases[c].action, previous.cases[c].posting_tons)
-                           for c in trucks if c in previous.cases])
-    since = SincePrevious(file=previous.file, inspection_date=previous.inspection_date,
-                          generator=previous.generator, vehicles=tuple(vehicles),
-                          elements=elements, notes=notes,
-                          # (ISO dates: their text sorts as the dates)
-                          out_of_order=bool(date_now and date_then and date_then >= date_now),
-                          trucks_before=then_trucks[0], limit_before=then_trucks[1],
-                          trucks_now=now_trucks[0], limit_now=now_trucks[1])
+                           for c in trucks])
+    notes = list(_notes(results, previous))
+    every = _trucks([(e.action, e.posting_tons) for c, e in results.posting.items()
+                     if level.get(c) == "legal" and category.get(c) != EMERGENCY])
+    if every != now_trucks and now_trucks[0]:
+        notes.append("The trucks' outcome then and now is compared over the trucks rated "
+                     f"both times; with every truck rated now it is {truck_state(*every, weight)}"
+                     ".")
+    order = _date_order(results.bridge.inspection_date, previous.inspection_date)
+    since = SincePrevious(
+        file=previous.file, inspection_date=previous.inspection_date,
+        generator=previous.generator, vehicles=tuple(vehicles),
+        elements=_element_changes(results, previous, system), notes=tuple(notes),
+        out_of_order=order == "later",
+        trucks_before=then_trucks[0], limit_before=then_trucks[1],
+        trucks_now=now_trucks[0], limit_now=now_trucks[1], weight_unit_before=then_weight)
     return dataclasses.replace(since, headline=headline(since, weight, level))
+
+
+def _date_order(now: str | None, then: str | None) -> str:
+    """How the previous inspection's date stands to this one's: "earlier", "same", "later",
+    or "unknown" (either missing or not a date)."""
+    try:
+        a, b = dt.date.fromisoformat(str(then)), dt.date.fromisoformat(str(now))
+    except ValueError:
+        return "unknown"
+    return "earlier" if a < b else "same" if a == b else "later"
 
 
 def _trucks(cases: Sequence[tuple[str, float | None]]) -> tuple[str, float | None]:
@@ -273,30 +311,41 @@ def _trucks(cases: Sequence[tuple[str, float | None]]) -> tuple[str, float | Non
     return ("post", min(posted)) if posted else ("none", None)
 
 
-def truck_state(outcome: str, limit: float | None, weight: str) -> str:
+def truck_state(outcome: str, limit: float | None, weight: str, unit: str = "") -> str:
     """The trucks' outcome (:func:`_trucks`) in words: "no restriction", "a weight limit of 17
-    tons", "a closing to consider"; "not rated" for ""."""
+    tons", "a closing to consider"; "not rated" for "". ``unit``: the unit it was posted in,
+    where not ``weight``."""
     return {"none": "no restriction", "close": "a closing to consider", "": "not rated"}.get(
-        outcome, f"a weight limit of {_tons(limit, weight)}")
+        outcome, f"a weight limit of {_tons(limit, weight, unit)}")
+
+
+def _truck_rank(since: SincePrevious, weight: str) -> int:
+    """-1 where the trucks' outcome is worse than then, +1 better, 0 the same (or unknown)."""
+    b, n = since.trucks_before, since.trucks_now
+    if not b or not n:
+        return 0
+    if b != n:
+        return -1 if _ACTION_RANK[n] > _ACTION_RANK[b] else 1
+    if b == "post" and since.limit_before is not None and since.limit_now is not None \
+            and not _same_load(since.limit_before, since.limit_now, weight,
+                               since.weight_unit_before or weight):
+        return -1 if since.limit_now < since.limit_before else 1
+    return 0
 
 
 def truck_words(since: SincePrevious, weight: str) -> str:
     """The change of the trucks' outcome (:func:`_trucks`) in words; "" where it is the same
     (or where either rating rated no truck)."""
+    rank = _truck_rank(since, weight)
+    if not rank:
+        return ""
+    unit = since.weight_unit_before or weight
     b, n = since.trucks_before, since.trucks_now
-    if not b or not n:
-        return ""
-    then = truck_state(b, since.limit_before, weight)
+    then = truck_state(b, since.limit_before, weight, unit)
     if b == n == "post":
-        if _amount(since.limit_before or 0.0, weight) == _amount(since.limit_now or 0.0,
-                                                                 weight):
-            return ""
-        lower = (since.limit_now or 0.0) < (since.limit_before or 0.0)
-        return (f"truck weight limit {'lowered' if lower else 'raised'} from "
-                f"{_amount(since.limit_before or 0.0, weight)} to "
+        return (f"truck weight limit {'lowered' if rank < 0 else 'raised'} from "
+                f"{_from(since.limit_before, weight, unit)} to "
                 f"{_tons(since.limit_now, weight)}")
-    if b == n:
-        return ""
     if n == "post":
         return f"trucks now to be posted at {_tons(since.limit_now, weight)} (was {then})"
     if n == "close":
@@ -305,65 +354,83 @@ def truck_words(since: SincePrevious, weight: str) -> str:
 
 
 def _amount(value: float, weight: str) -> str:
-    """A posting load in the report's weight unit, without the unit: whole units as posted,
-    one decimal where the previous file was in the other system."""
+    """A posting load (core tons) in ``weight`` units, without the unit: whole units as
+    posted; one decimal where it was posted in the other system."""
     x = from_core(value, weight)
     return f"{math.floor(x + 1e-6) if abs(x - round(x)) < 1e-6 else round(x, 1):g}"
 
 
-def _tons(value: float | None, weight: str) -> str:
-    """:func:`_amount` with its unit ("12 tons"); "-" for none."""
+def _tons(value: float | None, weight: str, unit: str = "") -> str:
+    """A posting load with its unit ("12 tons"); one posted in another unit (``unit``) as
+    posted, with its value in ``weight`` beside it ("10 tons (9.1 tonnes)"); "-" for none."""
     if value is None:
         return "-"
+    if unit and unit != weight:
+        return f"{_tons(value, unit)} ({_tons(value, weight)})"
     text = _amount(value, weight)
     return f"{text} {weight}{'' if text == '1' else 's'}"
 
 
-def _with_words(c: VehicleChange, weight: str, category: str, level: str,
-                then: PreviousCase | None) -> VehicleChange:
-    return dataclasses.replace(c, change=vehicle_change_words(c, weight, category, level,
-                                                              then is None))
+def posting_words(value: float, weight: str, unit: str = "") -> str:
+    """A safe posting load (core tons) as it was posted: "12 tons"; one posted in ``unit``,
+    another unit than the report's ``weight``, with its value in ``weight`` beside it."""
+    return _tons(value, weight, unit)
+
+
+def _from(value: float | None, weight: str, unit: str) -> str:
+    """The earlier load of "from X to Y tons": the number alone in the same unit."""
+    return _amount(value or 0.0, weight) if unit == weight else _tons(value, weight, unit)
+
+
+def _same_load(a: float, b: float, weight: str, then_weight: str) -> bool:
+    """Two safe posting loads (core tons), each rounded down to whole units of the system it
+    was posted in: the same where their whole units are equal, in one system; across systems
+    where they differ by less than one tonne (1.10 tons), the larger rounding step."""
+    if then_weight == weight:
+        return _amount(a, weight) == _amount(b, weight)
+    return abs(a - b) < to_core(1.0, "tonne") - 1e-9
 
 
 def vehicle_change_words(c: VehicleChange, weight: str, category: str = "", level: str = "",
-                         new: bool = False) -> str:
-    """One case's change since the previous rating, in words: its action (posting, closing,
-    barring, a permit's verdict) first, else its controlling RF; then a change of the member
-    or pin that controls."""
-    if new or c.rf_before is None:
+                         then_weight: str = "", alike: set[str] | frozenset[str] = frozenset()
+                         ) -> str:
+    """One case's change since the previous rating, in words: its outcome (posting, closing,
+    barring to be considered, a permit's verdict) first, else its controlling RF; then a
+    change of the member or pin that controls (not to one rated the same, ``alike``: the
+    mirror member of a symmetric truss). ``then_weight``: the unit the previous rating posted
+    in, where not ``weight``."""
+    if c.rf_before is None:
         return "not rated in the previous rating"
+    unit = then_weight or weight
     words: list[str] = []
-    barred = "barred" if category == EMERGENCY else "closing to be considered"
+    what = "barring" if category == EMERGENCY else "closing"
+    d = direction(c, level, weight, unit)
     if level == "permit":
-        if c.action_before != c.action_now:
+        if not c.action_before:
+            words.append("its permit verdict is not in the previous results file")
+        elif c.action_before != c.action_now:
             words.append(f"permit now '{c.action_now}' (was '{c.action_before}')")
-    elif level == "legal":
-        before, now = _ACTION_RANK.get(c.action_before, 0), _ACTION_RANK.get(c.action_now, 0)
-        if now > before:
-            words.append(f"now posted at {_tons(c.posting_now, weight)}" if c.action_now == "post"
-                         else f"now {barred}"
-                         + (f" (was posted at {_tons(c.posting_before, weight)})"
-                            if c.action_before == "post" else ""))
-        elif now < before:
-            if c.action_now == "post":
-                was = (f"posted at {_tons(c.posting_before, weight)}"
-                       if c.action_before == "post" else barred)
-                words.append(f"now posted at {_tons(c.posting_now, weight)} (was {was})")
-            elif c.action_before == "post":
-                words.append(f"no longer posted (was posted at {_tons(c.posting_before, weight)})")
-            else:
-                words.append(f"no longer {barred}")
-        elif c.action_now == "post" and c.posting_before is not None \
-                and c.posting_now is not None:
-            b = _amount(c.posting_before, weight)
-            if b != _amount(c.posting_now, weight):
-                lower = c.posting_now < c.posting_before
-                words.append(f"posting {'lowered' if lower else 'raised'} from {b} to "
-                             f"{_tons(c.posting_now, weight)}")
+    elif level == "legal" and c.action_before != c.action_now:
+        was = (f"was posted at {_tons(c.posting_before, weight, unit)}"
+               if c.action_before == "post" else f"was {what} to be considered"
+               if c.action_before == "close" else "was not posted")
+        if c.action_now == "post":
+            words.append(f"now posted at {_tons(c.posting_now, weight)} ({was})")
+        elif c.action_now == "close":
+            words.append(f"{what} now to be considered ({was})")
+        elif c.action_before == "post":
+            words.append(f"no longer posted ({was})")
+        else:
+            words.append(f"{what} no longer indicated")
+    elif level == "legal" and c.action_now == "post" and d:
+        words.append(f"posting {'lowered' if d < 0 else 'raised'} from "
+                     f"{_from(c.posting_before, weight, unit)} to "
+                     f"{_tons(c.posting_now, weight)}")
     rf_words = _rf_move(c.rf_before, c.rf_now)
     if not words and rf_words:
         words.append(rf_words)
-    if c.member_before and c.member_now and c.member_before != c.member_now:
+    if c.member_before and c.member_now and c.member_before != c.member_now \
+            and c.member_before not in alike and c.member_now not in alike:
         words.append(f"now controlled by {c.member_now} (was {c.member_before})")
     return "; ".join(words) or "no change"
 
@@ -410,9 +477,14 @@ def _lowest(rfs: Mapping[str, float], cases: Sequence[str]) -> tuple[float, str]
 
 def _element_changes(results: RatingResults, previous: PreviousRating, system: str
                      ) -> tuple[ElementChange, ...]:
+    """The members and pins whose lowest RF over the cases rated both times moved, the
+    largest falls first, then those whose findings alone changed."""
     now_rfs = _element_rfs(results)
-    words_now = _findings_by_member([to_plain(f, system) for f in results.findings], system)
+    plain_now = [to_plain(f, system) for f in results.findings]
+    words_now = _findings_by_member(plain_now, system)
     words_then = _findings_by_member(previous.findings, previous.system)
+    keys_now = _finding_keys(plain_now, system)
+    keys_then = _finding_keys(previous.findings, previous.system)
     out = []
     for name, rfs in now_rfs.items():
         then = previous.elements.get(name)
@@ -420,21 +492,51 @@ def _element_changes(results: RatingResults, previous: PreviousRating, system: s
             continue
         cases = [c for c in rfs if c in then]
         rf_now, case = _lowest(rfs, cases)
-        rf_then, _ = _lowest(then, cases)
-        if not case or not moved(rf_then, rf_now):
-            continue
-        out.append(ElementChange(name, case, rf_then, rf_now,
-                                 words_then.get(name, ()), words_now.get(name, ())))
+        rf_then, case_then = _lowest(then, cases)
+        changed = keys_now.get(name, frozenset()) != keys_then.get(name, frozenset())
+        rf_moved = bool(case) and moved(rf_then, rf_now)
+        if rf_moved or (changed and case):
+            out.append(ElementChange(name, case, rf_then, rf_now, words_then.get(name, ()),
+                                     words_now.get(name, ()), case_before=case_then,
+                                     moved=rf_moved, findings_changed=changed))
     return tuple(sorted(out, key=_drop))
 
 
-def _drop(e: ElementChange) -> tuple[float, str]:
-    """The largest falls first: by RF now over RF then (a rating lost, -inf, before all)."""
+def _drop(e: ElementChange) -> tuple[int, float, str]:
+    """The largest falls first: by RF now over RF then (a rating lost, -inf, before all);
+    members listed for their findings alone after those that moved."""
+    if not e.moved:
+        return (1, 0.0, e.element)
     if e.rf_now == -math.inf:
-        return (-math.inf, e.element)
+        return (0, -math.inf, e.element)
     if not (math.isfinite(e.rf_before) and math.isfinite(e.rf_now)) or e.rf_before <= 0:
-        return (0.0 if e.rf_now < e.rf_before else math.inf, e.element)
-    return (e.rf_now / e.rf_before, e.element)
+        return (0, 0.0 if e.rf_now < e.rf_before else math.inf, e.element)
+    return (0, e.rf_now / e.rf_before, e.element)
+
+
+def _number_of(value: Any) -> float | None:
+    return float(value) if isinstance(value, int | float) and not isinstance(value, bool) \
+        else None
+
+
+def _finding_keys(findings: Sequence[Mapping[str, Any]], system: str
+                  ) -> dict[str, frozenset[tuple[Any, ...]]]:
+    """Each member's findings as comparable values in core units (a finding written in mm
+    then and in inches now is the same finding), for telling whether they changed."""
+    dim = DISPLAY_UNITS["dimension"][1 if system == "SI" else 0]
+    length = DISPLAY_UNITS["length"][1 if system == "SI" else 0]
+    out: dict[str, set[tuple[Any, ...]]] = {}
+    for f in findings:
+        left, station = _number_of(f.get("remaining_thickness")), _number_of(f.get("station"))
+        loss = _number_of(f.get("percent_loss"))
+        key = (str(f.get("component") or ""), str(f.get("region") or ""),
+               None if station is None else round(to_core(station, length), 2),
+               None if left is None else round(to_core(left, dim), 3),
+               None if loss is None else round(loss, 2),
+               str(f.get("bar_state") or "sound"), f.get("condition_rating"),
+               f.get("estimated") is True)
+        out.setdefault(str(f.get("member") or ""), set()).add(key)
+    return {m: frozenset(v) for m, v in out.items()}
 
 
 def _findings_by_member(findings: Sequence[Mapping[str, Any]], system: str
@@ -445,11 +547,10 @@ def _findings_by_member(findings: Sequence[Mapping[str, Any]], system: str
     out: dict[str, list[str]] = {}
     for f in findings:
         parts = []
-        loss = f.get("percent_loss")
-        left = f.get("remaining_thickness")
-        if isinstance(loss, int | float) and not isinstance(loss, bool):
+        loss, left = _number_of(f.get("percent_loss")), _number_of(f.get("remaining_thickness"))
+        if loss is not None:
             parts.append(f"{loss:g} % loss")
-        if isinstance(left, int | float) and not isinstance(left, bool):
+        if left is not None:
             parts.append(f"{left:g} {unit} left")
         state = f.get("bar_state")
         if isinstance(state, str) and state and state != "sound":
@@ -471,14 +572,18 @@ def _notes(results: RatingResults, previous: PreviousRating) -> tuple[str, ...]:
     """What makes the two ratings differ besides the bridge, for the reader to weigh."""
     notes = []
     date_now, date_then = results.bridge.inspection_date, previous.inspection_date
-    if not date_now or not date_then:
-        notes.append("The inspection date of " + ("this rating" if not date_now else
+    order = _date_order(date_now, date_then)
+    if order == "unknown":
+        notes.append("The inspection date of " + ("this rating" if not _is_date(date_now) else
                                                   "the previous rating")
                      + " is not known: the order of the two ratings is the reader's to "
                      "confirm.")
-    elif date_then >= date_now:
-        notes.append(f"The previous rating's inspection ({date_then}) is not earlier than "
-                     f"this one's ({date_now}): confirm the right file was given.")
+    elif order == "same":
+        notes.append(f"Both ratings are of the inspection of {date_now} (a re-rating: coupon "
+                     "tests, corrected entries or another version of the program).")
+    elif order == "later":
+        notes.append(f"The previous rating's inspection ({date_then}) is later than this "
+                     f"one's ({date_now}): the changes below run backwards in time.")
     if previous.generator and previous.generator != results.generator:
         notes.append(f"The previous rating was made with {previous.generator}, this one with "
                      f"{results.generator}: ratings may differ through the program's "
@@ -503,30 +608,48 @@ def _notes(results: RatingResults, previous: PreviousRating) -> tuple[str, ...]:
                      + "; ".join(part for part in (
                          "now only: " + ", ".join(added) if added else "",
                          "then only: " + ", ".join(lost) if lost else "") if part) + ".")
-    system_then = "SI" if previous.system == "SI" else "US customary"
     if previous.system != ("SI" if results.units.get("force") == "kN" else "US"):
-        notes.append(f"The previous results file is in {system_then} units; its posting "
-                     "loads are converted.")
+        notes.append("The previous results file is in "
+                     f"{'SI' if previous.system == 'SI' else 'US customary'} units: its "
+                     "posting loads are shown as posted then, with their value in this "
+                     "report's units beside them, and a change is one beyond their rounding.")
     return tuple(notes)
 
 
-def direction(c: VehicleChange, level: str, weight: str) -> int:
+def _is_date(text: str | None) -> bool:
+    try:
+        dt.date.fromisoformat(str(text))
+    except ValueError:
+        return False
+    return True
+
+
+_VERDICT_RANK = {"can be carried": 0, "not over a bridge restricted for legal loads": 1,
+                 "not as requested": 1}
+"""A permit's verdicts by outcome: carried, or not (MBE 6A.4.5 [value from memory]; either
+"not" is as bad as the other for the permit's issue)."""
+
+
+def direction(c: VehicleChange, level: str, weight: str, then_weight: str = "") -> int:
     """-1 where the case's outcome is worse than in the previous rating (posted, posted lower,
-    closing or barring now; a permit no longer carried), +1 where better, 0 where the same
-    (a design load's RF is not an outcome: 0)."""
+    closing or barring now to be considered; a permit no longer carried), +1 where better, 0
+    where the same or not known (a design load's RF is not an outcome: 0). ``then_weight``:
+    the unit the previous rating posted in, where not ``weight``."""
     if c.rf_before is None:
         return 0
     if level == "permit":
-        if c.action_before == c.action_now:
+        before = _VERDICT_RANK.get(c.action_before)
+        now = _VERDICT_RANK.get(c.action_now)
+        if before is None or now is None or before == now:
             return 0
-        return 1 if c.action_now == "can be carried" else -1
+        return -1 if now > before else 1
     if level != "legal":
         return 0
     before, now = _ACTION_RANK.get(c.action_before, 0), _ACTION_RANK.get(c.action_now, 0)
     if now != before:
         return -1 if now > before else 1
     if c.action_now == "post" and c.posting_before is not None and c.posting_now is not None \
-            and _tons(c.posting_before, weight) != _tons(c.posting_now, weight):
+            and not _same_load(c.posting_before, c.posting_now, weight, then_weight or weight):
         return -1 if c.posting_now < c.posting_before else 1
     return 0
 
@@ -534,28 +657,27 @@ def direction(c: VehicleChange, level: str, weight: str) -> int:
 def worse_since(since: SincePrevious, levels: Mapping[str, str], weight: str) -> bool:
     """Whether any outcome is worse than at the previous rating: a case's (:func:`direction`)
     or the trucks' (a weight limit lowered, a posting or closing now called for)."""
-    rank = {"": 0, "none": 0, "post": 1, "close": 2}
-    b, n = since.trucks_before, since.trucks_now
-    trucks = bool(b and n) and (rank[n] > rank[b] or (
-        b == n == "post" and since.limit_now is not None and since.limit_before is not None
-        and _amount(since.limit_now, weight) != _amount(since.limit_before, weight)
-        and since.limit_now < since.limit_before))
-    return trucks or any(direction(c, levels.get(c.vehicle, ""), weight) < 0
-                         for c in since.vehicles)
+    unit = since.weight_unit_before or weight
+    return _truck_rank(since, weight) < 0 or any(
+        direction(c, levels.get(c.vehicle, ""), weight, unit) < 0 for c in since.vehicles)
 
 
 def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> str:
-    """The change since the previous rating in one sentence: the cases whose outcome is worse
-    (:func:`direction`), then those better, then how many members and pins rate lower and
-    higher."""
+    """The change since the previous rating in one sentence: a previous inspection later
+    than this one first; then the trucks' outcome, the cases whose outcome is worse
+    (:func:`direction`), those better, and how many members and pins rate lower and higher
+    or carry changed findings."""
     date = since.inspection_date or "an unknown date"
+    unit = since.weight_unit_before or weight
     worse, better = [], []
     for c in since.vehicles:
-        d = direction(c, levels.get(c.vehicle, ""), weight)
+        d = direction(c, levels.get(c.vehicle, ""), weight, unit)
         if d:
             (worse if d < 0 else better).append(f"{c.vehicle} {c.change.split('; ')[0]}")
-    lower = sum(1 for e in since.elements if e.rf_now < e.rf_before)
-    higher = len(since.elements) - lower
+    rf_moved = [e for e in since.elements if e.moved]
+    lower = sum(1 for e in rf_moved if e.rf_now < e.rf_before)
+    higher = len(rf_moved) - lower
+    findings = sum(1 for e in since.elements if e.findings_changed)
     parts = []
     trucks = truck_words(since, weight)
     if trucks:
@@ -564,14 +686,17 @@ def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> st
         parts.append("worse: " + "; ".join(worse))
     if better:
         parts.append("better: " + "; ".join(better))
-    if not worse and not better:
+    if not worse and not better and not trucks:
         parts.append("no posting, closing or permit verdict changed")
     parts.append(f"{_count(lower, 'member or pin', 'members or pins')} "
                  f"{'rates' if lower == 1 else 'rate'} lower and {higher} higher by more than "
                  f"{RF_CHANGE * 100:g} %")
+    if findings:
+        parts.append(f"the findings changed on {_count(findings, 'member', 'members')}")
     text = f"Since the rating of the inspection of {date}: " + "; ".join(parts) + "."
     if since.out_of_order:
-        text += (" Check the file given: its inspection is not earlier than this rating's.")
+        text = ("CHECK THE FILE GIVEN: the previous rating's inspection is later than this "
+                "one's. " + text)
     return text
 
 

@@ -377,8 +377,8 @@ class VehicleChange:
 @dataclass(frozen=True)
 class ElementChange:
     """A member or pin whose lowest RF over the cases rated both times moved by more than
-    rating.previous.RF_CHANGE since the previous rating, with the inspection findings on it
-    then and now (in words)."""
+    rating.previous.RF_CHANGE since the previous rating, or whose findings changed, with the
+    inspection findings on it then and now (in words)."""
 
     element: str  # member id, or "pin at J"
     case: str  # the case of its lowest RF now
@@ -386,6 +386,10 @@ class ElementChange:
     rf_now: float = q("lowest RF now (the same cases)")
     findings_before: tuple[str, ...] = ()
     findings_now: tuple[str, ...] = ()
+    case_before: str = ""  # the case of its lowest RF then
+    moved: bool = True  # its lowest RF moved by more than RF_CHANGE (else listed for its
+    # findings alone)
+    findings_changed: bool = False  # the findings on it differ between the inspections
 
 
 @dataclass(frozen=True)
@@ -402,7 +406,7 @@ class SincePrevious:
     elements: tuple[ElementChange, ...]
     notes: tuple[str, ...] = ()
     headline: str = ""
-    out_of_order: bool = False  # the previous inspection is not earlier than this one
+    out_of_order: bool = False  # the previous inspection is later than this one
     # the trucks' outcome then and now (legal loads other than emergency vehicles): "none",
     # "post" with the single weight limit (the least safe posting load), or "close"
     trucks_before: str = ""
@@ -410,6 +414,7 @@ class SincePrevious:
     limit_before: float | None = q("single weight limit for trucks then", "weight",
                                    default=None)
     limit_now: float | None = q("single weight limit for trucks now", "weight", default=None)
+    weight_unit_before: str = ""  # the unit the previous rating posted in ("ton", "tonne")
 
 
 @dataclass(frozen=True)

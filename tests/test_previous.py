@@ -31,6 +31,7 @@ from rating.previous import (  # noqa: E402
     read_previous,
     truck_words,
     vehicle_change_words,
+    worse_since,
 )
 from rating.report.html import render_report  # noqa: E402
 from rating.results import SincePrevious, VehicleChange, results_json  # noqa: E402
@@ -94,6 +95,12 @@ def test_a_missing_file_or_a_folder_is_said_so(tmp_path: Path) -> None:
      "this pintruss reads schema 1"),
     (lambda d: d["bridge"].pop("id"), "bridge.id", "expected text but it is missing"),
     (lambda d: d.__setitem__("pins", {}), "pins", "expected a list"),
+    (lambda d: d.__setitem__("findings", 5), "findings", "expected a list"),
+    (lambda d: d["findings"].__setitem__(0, "rust"), "findings[0]", "expected an object"),
+    (lambda d: d["posting"]["SU4"].__setitem__("posting_tons", None),
+     "posting.SU4.posting_tons", "the action is post but no safe posting load is given"),
+    (lambda d: d["posting"]["TYPE3"].__setitem__("rf", float("nan")), "posting.TYPE3.rf",
+     "expected a rating factor, not nan"),
 ])
 def test_a_bad_value_is_named_at_its_place_in_the_file(tmp_path: Path, edit: Any, place: str,
                                                        needle: str) -> None:
@@ -129,15 +136,33 @@ def test_infinite_ratings_are_read_as_written(tmp_path: Path) -> None:
 # ------------------------------------------------------------------ the comparison
 
 
-def test_the_same_rating_changes_nothing_and_a_same_day_file_is_flagged(tmp_path: Path) -> None:
+def test_the_same_rating_changes_nothing_and_a_re_rating_is_said(tmp_path: Path) -> None:
     results = sample_results()
     since = compare(results, read_previous(_write(tmp_path, _plain())))
     assert all(v.change == "no change" for v in since.vehicles)
     assert since.elements == ()
-    assert since.out_of_order
-    assert any("is not earlier than this one's" in n for n in since.notes)
-    assert "Check the file given" in since.headline
-    assert "no posting, closing or permit verdict changed" in since.headline
+    assert not since.out_of_order
+    assert since.notes == ("Both ratings are of the inspection of 2024-05-14 (a re-rating: "
+                           "coupon tests, corrected entries or another version of the "
+                           "program).",)
+    assert since.headline == ("Since the rating of the inspection of 2024-05-14: no posting, "
+                              "closing or permit verdict changed; 0 members or pins rate "
+                              "lower and 0 higher by more than 2 %.")
+
+
+@pytest.mark.parametrize(("date", "said"), [
+    ("2025-01-02", "is later than this one's (2024-05-14): the changes below run backwards"),
+    ("14/05/2023", "The inspection date of the previous rating is not known"),
+    (None, "The inspection date of the previous rating is not known"),
+])
+def test_a_previous_inspection_later_or_undated_is_said_first(tmp_path: Path, date: str | None,
+                                                              said: str) -> None:
+    data = _plain()
+    data["bridge"]["inspection_date"] = date
+    since = compare(sample_results(), read_previous(_write(tmp_path, data)))
+    assert any(said in n for n in since.notes)
+    assert since.out_of_order == (date == "2025-01-02")
+    assert since.headline.startswith("CHECK THE FILE GIVEN") == since.out_of_order
 
 
 def test_a_lower_posting_a_new_posting_and_a_barring_are_worse(tmp_path: Path) -> None:
@@ -152,11 +177,13 @@ def test_a_lower_posting_a_new_posting_and_a_barring_are_worse(tmp_path: Path) -
     since = compare(results, read_previous(_write(tmp_path, _earlier(edit))))
     by = {v.vehicle: v for v in since.vehicles}
     assert by["SU4"].change == "posting lowered from 31 to 26 tons"
-    assert by["EV3"].change == "now barred"  # an emergency vehicle is barred, not closed for
+    # an emergency vehicle that cannot be posted: barring, not closing, is to be considered
+    assert by["EV3"].change == "barring now to be considered (was not posted)"
     assert by["TYPE3"].change.startswith("RF lower by 29 %")  # 1.06 / 1.5 = 0.707
     assert by["TYPE3"].change.endswith("now controlled by pin L2 (was U2U3)")
     assert by["SU4"].posting_before == 31.0 and by["SU4"].posting_now == 26.0
-    assert "worse: SU4 posting lowered from 31 to 26 tons; EV3 now barred" in since.headline
+    assert "worse: SU4 posting lowered from 31 to 26 tons; EV3 barring now to be " \
+        "considered" in since.headline
     # the trucks' single weight limit (EV3, an emergency vehicle, is not a truck)
     assert (since.trucks_before, since.limit_before) == ("post", 31.0)
     assert (since.trucks_now, since.limit_now) == ("post", 26.0)
@@ -166,10 +193,11 @@ def test_a_lower_posting_a_new_posting_and_a_barring_are_worse(tmp_path: Path) -
 
 
 @pytest.mark.parametrize(("before", "now", "words", "sign"), [
-    (("none", None), ("post", 12.0), "now posted at 12 tons", -1),
-    (("post", 20.0), ("close", None), "now closing to be considered (was posted at 20 tons)",
+    (("none", None), ("post", 12.0), "now posted at 12 tons (was not posted)", -1),
+    (("post", 20.0), ("close", None), "closing now to be considered (was posted at 20 tons)",
      -1),
     (("close", None), ("post", 5.0), "now posted at 5 tons (was closing to be considered)", 1),
+    (("close", None), ("none", None), "closing no longer indicated", 1),
     (("post", 9.0), ("none", None), "no longer posted (was posted at 9 tons)", 1),
     (("post", 9.0), ("post", 12.0), "posting raised from 9 to 12 tons", 1),
     (("post", 9.0), ("post", 9.0), "no change", 0),
@@ -215,14 +243,18 @@ def test_members_and_pins_that_moved_are_listed_with_their_findings(tmp_path: Pa
         d["findings"].append({"member": member.id, "component": "bar 1", "region": "body",
                               "percent_loss": 5.0, "condition_rating": 6})
     since = compare(results, read_previous(_write(tmp_path, _earlier(edit))))
-    assert [e.element for e in since.elements] == [member.id]
+    # L2L3 moved (and its findings changed); L1U1's findings alone changed (none then)
+    assert [(e.element, e.moved, e.findings_changed) for e in since.elements] == [
+        (member.id, True, True), ("L1U1", False, True)]
+    assert since.elements[1].findings_before == ()
     e = since.elements[0]
     lowest = min((r.rf, c) for c, r in member.ratings.items())
     assert (e.rf_now, e.case) == lowest
     assert e.rf_before == pytest.approx(1.25 * lowest[0], rel=1e-5)  # (6 decimals in JSON)
     assert e.findings_before == ("bar 1 body: 5 % loss, condition 6",)
     assert f"pin at {pin.joint}" not in [x.element for x in since.elements]
-    assert "1 member or pin rates lower and 0 higher by more than 2 %" in since.headline
+    assert "1 member or pin rates lower and 0 higher by more than 2 %; the findings " \
+        "changed on 2 members." in since.headline
 
 
 def test_moved_is_relative_and_says_an_infinite_change() -> None:
@@ -320,13 +352,16 @@ def test_more_loss_since_the_previous_inspection_never_rates_higher(tmp_path: Pa
     assert compared is not None, why
     since = compared.previous
     assert since is not None and not since.out_of_order and since.notes == ()
+    assert all(e.findings_changed for e in since.elements if not e.moved)
     levels = {v.id: v.rating_level for v in results.vehicles}
     assert all(direction(v, levels[v.vehicle], "tonne") <= 0 for v in since.vehicles)
     # (the previous RFs as the results file writes them: 6 decimals)
     assert all(v.rf_now <= v.rf_before + 1e-6 for v in since.vehicles)
-    assert since.elements and all(e.rf_now < e.rf_before for e in since.elements)
+    assert all(e.rf_now <= e.rf_before + 1e-6 for e in since.elements)
+    assert any(e.moved for e in since.elements)
+    assert all(e.rf_now < e.rf_before for e in since.elements if e.moved)
     halved = {f["member"] for f in findings}
-    assert halved & {e.element for e in since.elements}
+    assert halved <= {e.element for e in since.elements}  # every member whose loss grew
     assert "higher by more than" in since.headline and " 0 higher" in since.headline
 
 
@@ -371,8 +406,6 @@ def test_the_trucks_single_weight_limit_then_and_now(then: tuple, now: tuple,
 
 
 def test_worse_since_weighs_the_trucks_and_every_case() -> None:
-    from rating.previous import worse_since
-
     lowered = SincePrevious("f", "2020-01-01", "", (), (), trucks_before="post",
                             limit_before=20.0, trucks_now="post", limit_now=19.0)
     assert worse_since(lowered, {}, "ton")
@@ -386,3 +419,91 @@ def test_worse_since_weighs_the_trucks_and_every_case() -> None:
     design = VehicleChange("HL93-INV", 1.1, 0.5, "L1U1", "L1U1", "none", "none")
     assert not worse_since(dataclasses.replace(same, vehicles=(design,)),
                            {"HL93-INV": "inventory"}, "ton")
+
+
+# ------------------------------------------------------------------ the review's cases
+
+
+def test_postings_of_another_unit_system_are_shown_as_posted_and_compared_beyond_rounding(
+        tmp_path: Path) -> None:
+    """A previous rating posted in tonnes, this one in tons: SU4 posted at 23 tonnes (25.35
+    tons) then and 26 tons now is the same posting within the rounding (one tonne, 1.10 tons:
+    1 tonne = 1/0.90718474 ton, NIST SP 811 B.8); 20 tonnes (22.05 tons) then is a posting
+    raised now."""
+    def edit(d: dict[str, Any]) -> None:
+        d["units"]["weight"] = "tonne"
+        d["posting"]["SU4"]["posting_tons"] = 23.0
+    since = compare(sample_results(), read_previous(_write(tmp_path, _earlier(edit))))
+    su4 = next(v for v in since.vehicles if v.vehicle == "SU4")
+    assert su4.change == "no change" and since.weight_unit_before == "tonne"
+    assert not worse_since(since, {"SU4": "legal"}, "ton")
+    assert any("shown as posted then" in n for n in since.notes)
+
+    def edit20(d: dict[str, Any]) -> None:
+        edit(d)
+        d["posting"]["SU4"]["posting_tons"] = 20.0
+    since = compare(sample_results(), read_previous(_write(tmp_path, _earlier(edit20))))
+    su4 = next(v for v in since.vehicles if v.vehicle == "SU4")
+    assert su4.change == "posting raised from 20 tonnes (22 tons) to 26 tons"
+    assert direction(su4, "legal", "ton", "tonne") == 1
+
+
+def test_the_trucks_limit_is_compared_over_the_trucks_rated_both_times(tmp_path: Path) -> None:
+    """SU4 (posted at 26 tons now) was not rated then: the trucks rated both times were not
+    posted then and are not now, so no truck posting is said to be new; the note gives the
+    outcome with every truck rated now."""
+    since = compare(sample_results(), read_previous(_write(tmp_path, _earlier(
+        lambda d: d["posting"].pop("SU4")))))
+    assert (since.trucks_before, since.trucks_now) == ("none", "none")
+    assert truck_words(since, "ton") == ""
+    assert any("with every truck rated now it is a weight limit of 26 tons" in n
+               for n in since.notes)
+
+
+def test_a_switch_to_the_mirror_member_is_no_change_of_control(tmp_path: Path) -> None:
+    results = sample_results()
+    results = dataclasses.replace(results, posting={
+        **results.posting, "SU4": dataclasses.replace(results.posting["SU4"], alike=("L4U4",))})
+    since = compare(results, read_previous(_write(tmp_path, _earlier(
+        lambda d: d["posting"]["SU4"].update(member="L4U4")))))
+    assert next(v for v in since.vehicles if v.vehicle == "SU4").change == "no change"
+
+
+def test_a_permit_verdict_is_ranked_and_a_missing_one_is_not_known() -> None:
+    c = VehicleChange("P1", 1.1, 1.1, "L1U1", "L1U1", "not as requested",
+                      "not over a bridge restricted for legal loads")
+    assert direction(c, "permit", "ton") == 0  # not carried either way
+    unknown = dataclasses.replace(c, action_before="", action_now="can be carried")
+    assert direction(unknown, "permit", "ton") == 0
+    assert vehicle_change_words(unknown, "ton", "single-trip permit", "permit") == \
+        "its permit verdict is not in the previous results file"
+
+
+def test_a_screening_load_below_one_then_reads_not_posted_in_the_report(tmp_path: Path) -> None:
+    from rating.report.view import build_view
+
+    def edit(d: dict[str, Any]) -> None:
+        d["posting"]["TYPE3"].update(rf=0.95, action="none", posting_tons=None)
+    results, why = previous_for(sample_results(), _write(tmp_path, _earlier(edit)))
+    assert results is not None, why
+    view = build_view(results)
+    assert view.since is not None
+    row = next(r for r in view.since.vehicles if r.vehicle == "TYPE3")
+    assert row.outcome_then == "not posted"
+
+
+def test_a_comparison_that_fails_inside_the_program_still_rates_the_bridge(
+        tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    import rating.previous
+    from rating.batch import _with_previous
+
+    def broken(*args: object) -> None:
+        raise ZeroDivisionError("simulated fault")
+
+    monkeypatch.setattr(rating.previous, "previous_for", broken)
+    path = _write(tmp_path, _earlier())
+    results = sample_results()
+    out, since, notes, worse = _with_previous(results, path)
+    assert out is results and not worse
+    assert since.startswith("not compared: ") and "internal error" in since
+    assert notes and "please report it" in notes[0]

@@ -11,8 +11,9 @@ from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from typing import Protocol
 
+from rating.previous import RF_CHANGE, direction, posting_words, truck_state
 from rating.report.display import DASH, Display
-from rating.results import EMERGENCY, RatingResults, VehicleResult
+from rating.results import EMERGENCY, RatingResults, VehicleChange, VehicleResult, reported_rf
 
 ELEMENT_ROWS = 20
 """The members and pins shown in the report's table of ratings that moved (the largest falls
@@ -71,19 +72,22 @@ class SinceView:
     trucks: str = ""  # the trucks' outcome then and now, in words
 
 
-def _outcome_then(action: str, posting: float | None, v: VehicleResult, d: Display) -> str:
-    """The previous outcome in the summary's words (rating.report.view.action_text)."""
-    if not action:
+def _outcome_then(c: VehicleChange, v: VehicleResult, d: Display, unit: str) -> str:
+    """The previous outcome in the summary's words (rating.report.view.action_text), a
+    posting load as it was posted (``unit``, the previous rating's weight unit)."""
+    action, posting = c.action_before, c.posting_before
+    if c.rf_before is None:
         return DASH
     if v.rating_level == "permit":
-        return f"permit: {action}"
+        return f"permit: {action}" if action else "permit: not known"
     if v.rating_level in ("inventory", "operating"):
         return "design-load rating"
     if action == "post" and posting is not None:
-        amount = d.posting(posting)
-        return f"post for {amount} {d.unit('weight')}{'' if amount == '1' else 's'}"
+        return f"post for {posting_words(posting, d.unit('weight'), unit)}"
     if action == "close":
         return "consider barring" if v.category == EMERGENCY else "consider closing"
+    if math.isfinite(c.rf_before) and reported_rf(c.rf_before) < 1.0:
+        return "not posted"  # a screening load below 1.0 (as PostingResultEntry says it)
     return "no restriction"
 
 
@@ -92,12 +96,12 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
     """The comparison formatted, or None where the rating was not compared with another.
     ``rf_cell`` formats an RF with its band (the report's own cells); ``outcome_now`` gives
     a case's outcome in the summary's words."""
-    from rating.previous import RF_CHANGE, direction, truck_state
-
     since = results.previous
     if since is None:
         return None
     vmap: Mapping[str, VehicleResult] = {v.id: v for v in results.vehicles}
+    weight = d.unit("weight")
+    then_unit = since.weight_unit_before or weight
 
     rows = []
     for c in since.vehicles:
@@ -107,19 +111,22 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
         rows.append(VehicleChangeRow(
             vehicle=v.id, rf_then=rf_cell(c.rf_before), rf_now=rf_cell(c.rf_now),
             member_then=c.member_before or DASH, member_now=c.member_now or DASH,
-            outcome_then=_outcome_then(c.action_before, c.posting_before, v, d),
+            outcome_then=_outcome_then(c, v, d, then_unit),
             outcome_now=outcome_now(v.id), change=c.change,
-            worse=direction(c, v.rating_level, d.unit("weight")) < 0))
+            worse=direction(c, v.rating_level, d.unit("weight"), then_unit) < 0))
     elements = []
     for e in since.elements[:ELEMENT_ROWS]:
-        if math.isfinite(e.rf_before) and math.isfinite(e.rf_now) and e.rf_before > 0:
+        if not e.moved:
+            move = f"within {RF_CHANGE * 100:g} %"
+        elif math.isfinite(e.rf_before) and math.isfinite(e.rf_now) and e.rf_before > 0:
             move = f"{(e.rf_now / e.rf_before - 1.0) * 100.0:+.0f} %".replace("-", "\u2212")
         else:
             move = "lower" if e.rf_now < e.rf_before else "higher"
+        case = e.case if e.case_before in ("", e.case) else f"{e.case_before} / {e.case}"
         elements.append(ElementChangeRow(
-            e.element, e.case, rf_cell(e.rf_before), rf_cell(e.rf_now), move,
+            e.element, case, rf_cell(e.rf_before), rf_cell(e.rf_now), move,
             "; ".join(e.findings_before) or "none recorded",
-            "; ".join(e.findings_now) or "none recorded", e.rf_now < e.rf_before))
+            "; ".join(e.findings_now) or "none recorded", e.moved and e.rf_now < e.rf_before))
     made = f", made with {since.generator}" if since.generator else ""
     return SinceView(
         headline=since.headline,
@@ -128,7 +135,7 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
         notes=since.notes, vehicles=tuple(rows), elements=tuple(elements),
         more_elements=max(0, len(since.elements) - ELEMENT_ROWS),
         threshold=f"{RF_CHANGE * 100:g} %",
-        trucks=(f"Trucks (the legal loads other than emergency vehicles): "
-                f"{truck_state(since.trucks_before, since.limit_before, d.unit('weight'))} "
-                f"then; {truck_state(since.trucks_now, since.limit_now, d.unit('weight'))} "
-                "now." if since.trucks_now else ""))
+        trucks=(f"Trucks rated both times (the legal loads other than emergency vehicles): "
+                f"{truck_state(since.trucks_before, since.limit_before, weight, then_unit)}"
+                f" then; {truck_state(since.trucks_now, since.limit_now, weight)} now."
+                if since.trucks_now else ""))
