@@ -81,7 +81,7 @@ def _parser() -> argparse.ArgumentParser:
                        epilog="Exit status: 0 every workbook was rated; 1 a workbook was not "
                        "rated (each is listed in the summary with its problems); 2 the "
                        "command was misused (no such folder, an --out that is a file, "
-                       "--workers below 1).")
+                       "--workers below 1, a --previous that is no folder or is --out).")
     b.add_argument("folder", type=Path,
                    help="folder holding the inspection workbooks (sub-folders included)")
     b.add_argument("--out", type=Path, required=True, help="folder for reports and the summary")
