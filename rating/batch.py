@@ -32,6 +32,7 @@ from typing import Any, TextIO
 from rating.errors import InputError
 from rating.process import GC_THRESHOLDS, settle_process
 from rating.results import (
+    CLOSING_UNLESS,
     DECISION_NOTE,
     EMERGENCY,
     overall_action,
@@ -98,8 +99,15 @@ class BridgeRow:
     @property
     def conditional(self) -> bool:
         """The recommendation rests on a condition the engineer should confirm ("Only if
-        ... is confirmed ...": rating.results_build.recommendation)."""
-        return self.recommendation.startswith("Only if ")
+        ... is confirmed ...", "Consider closing the bridge unless ... is confirmed ...":
+        rating.results_build.recommendation)."""
+        return self.recommendation.startswith(("Only if ", CLOSING_UNLESS))
+
+    @property
+    def closure_to_consider(self) -> bool:
+        """A closure to consider: a truck's rating calls for it, or the recommendation leads
+        with it until a condition is confirmed (rating.results_build.CLOSING_UNLESS)."""
+        return self.action == "close" or self.recommendation.startswith(CLOSING_UNLESS)
 
     def lowest_legal(self) -> VehicleLine | None:
         """The vehicle that decides the bridge's action: among the trucks (legal loads, SHVs
@@ -713,7 +721,7 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
               "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)),
-              "close": sum(1 for r in summary.rows if r.action == "close"),
+              "close": sum(1 for r in summary.rows if r.closure_to_consider),
               "read": sum(1 for r in summary.rows if r.decision_warnings),
               "conditional": sum(1 for r in summary.rows if r.conditional),
               "worse": sum(1 for r in summary.rows if r.worse)}

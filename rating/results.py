@@ -25,6 +25,12 @@ from rating.units import from_core
 
 SCHEMA_VERSION = "1.0"
 
+CLOSING_UNLESS = "Consider closing the bridge unless "
+"""How a recommendation begins whose closure rests on a condition not yet confirmed (a bent
+member's acting, say): the closure first, the posting for the case it is confirmed after it
+(rating.results_build.recommendation); such a recommendation, like one that begins "Only
+if", rests on a condition (rating.batch.BridgeRow.conditional)."""
+
 DECISION_NOTE = (" This is a recommendation for the decision of the licensed engineer in "
                  "responsible charge; the owner's manual, policy and local codes govern.")
 """The sentence every bridge recommendation ends with (rating.results_build); the batch index,

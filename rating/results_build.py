@@ -29,6 +29,7 @@ from rating.lrfr.posting import posting as legal_load_posting
 from rating.lrfr.reported import reported_rf
 from rating.model import Finding, RodSet, UnitSystem, VehicleCategory
 from rating.results import (
+    CLOSING_UNLESS,
     DECISION_NOTE,
     SCHEMA_VERSION,
     BridgeSummary,
@@ -358,9 +359,23 @@ def recommendation(rating: BridgeRating, unit: str,
     permits = _permit_text(rating, holds) + DECISION_NOTE
     # ("No load restriction is indicated for trucks: every truck ..." has its own colon)
     join = ", " if text.startswith("No load restriction") else ": "
-    return (f"Only if {holds}{join}" + text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
+    own = text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
+    closing = [c for c in clauses if c[3] == "consider closing the bridge"]
+    if closing:
+        # The graver course first: what is not confirmed is taken as not holding (a bent or
+        # loose bar is taken as carrying no load until shown otherwise: common practice),
+        # and the rating's own posting follows for the case it is confirmed
+        rest = [c for c in clauses if c not in closing]
+        why = (closing[0][2] if len(closing) == 1 else
+               "; ".join(f"if {fails}, {then}" for _, fails, then, _ in closing))
+        return (CLOSING_UNLESS + " and ".join(c[0] for c in closing) + f": {why}. "
+                f"If {holds}{join}" + own
+                + "".join(f" If {fails}, {then_do} ({then})." for _, fails, then, then_do in rest)
+                + permits)
+    return (f"Only if {holds}{join}" + own
             + "".join(f" If {fails}, {then_do} ({then})."
                       for _, fails, then, then_do in clauses) + permits)
+
 
 
 def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:

@@ -9,6 +9,7 @@ import hashlib
 import io
 import os
 import sys
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -657,3 +658,18 @@ def test_batch_refuses_previous_that_it_would_write_over(
                  str(tmp_path / "nowhere")]) == 2
     assert "there is no such folder" in capsys.readouterr().err
     assert _digest(out) == kept and not (tmp_path / "o2").exists()
+
+
+def test_a_closure_resting_on_a_condition_is_counted_as_one_to_consider() -> None:
+    """A recommendation that leads with a closure until a bent member is confirmed to act
+    (rating.results.CLOSING_UNLESS) rests on a condition and is a closure to consider, though
+    its trucks, as rated, are posted (a reviewer found the index saying "0 with a closure to
+    consider" above two such bridges)."""
+    row = BridgeRow(workbook="a.xlsx", rated=True, action="post",
+                    recommendation="Consider closing the bridge unless L3U4 is confirmed to "
+                    "act (recorded bent): without L3U4, lowest truck RF 0.12 (SU7, U3L4). If "
+                    "L3U4 is confirmed to act (recorded bent): post the bridge.")
+    assert row.conditional and row.closure_to_consider
+    plain = replace(row, recommendation="Post the bridge. Safe posting loads ...")
+    assert not plain.conditional and not plain.closure_to_consider
+    assert replace(plain, action="close").closure_to_consider

@@ -332,9 +332,12 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
     # and the recommendation itself is made conditional on the counter (a reviewer would not
     # sign a "post" headline with the closure only in a warning)
     rec = res.recommendation
-    assert rec.startswith("Only if L3U4 is confirmed to act (recorded bent): post the bridge.")
-    assert (f"If it does not act, consider closing the bridge (without L3U4, lowest truck RF "
-            f"{said.group(1)} ({said.group(2)}, ") in rec
+    # the closure first: the bent counter is taken as not acting until it is confirmed to
+    assert rec.startswith(f"Consider closing the bridge unless L3U4 is confirmed to act "
+                          f"(recorded bent): without L3U4, lowest truck RF {said.group(1)} "
+                          f"({said.group(2)}, ")
+    assert "; members only, see the warning. If L3U4 is confirmed to act (recorded bent): " \
+        "post the bridge." in rec
     assert rec.endswith(DECISION_NOTE)
     assert not any(r.startswith("Only if") for r in (parker.recommendation,))
 
@@ -604,7 +607,7 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     assert entry.action == "none" and entry.posting_tons is None and entry.rf < 1.0
     assert "should not cross as requested" in entry.note
     # last, after the condition on the bent counter and before the engineer's decision
-    tail = res.recommendation.split("If it does not act, consider closing the bridge")[1]
+    tail = res.recommendation.split("If L3U4 is confirmed to act (recorded bent): ")[1]
     assert tail.endswith(" Permit loads (for the permit's issue, not a posting): mobile crane "
                          "to Hollis Mill, single-trip permit, RF 0.71 (L1U1): not as "
                          "requested." + DECISION_NOTE)

@@ -21,6 +21,7 @@ from rating.report.since import SinceView, since_view
 from rating.report.svg import esc
 from rating.report.text import breakable
 from rating.results import (
+    CLOSING_UNLESS,
     DECISION_NOTE,
     EMERGENCY,
     MemberResult,
@@ -643,6 +644,8 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             finding=c.rating.finding if c.rating is not None else ""))
     worst = overall_action((c.entry.action, c.vehicle.category) for c in ctl
                            if c.entry is not None)
+    if results.recommendation.startswith(CLOSING_UNLESS):
+        worst = "close"  # (the box leads with the closure: it is shaded as one)
 
     # influence lines of the controlling members (one figure per member, critical vehicle)
     members = {m.id: m for m in results.members}

@@ -274,7 +274,7 @@ def test_hips_not_given_are_rated_hinged_too_and_said_where_they_decide(pony):
         assert r.ratings[key].rf == rating.rf
 
 
-def test_where_hinged_hips_would_close_the_bridge_the_recommendation_says_only_if(pony):
+def test_where_hinged_hips_would_close_the_bridge_the_recommendation_leads_with_it(pony):
     # the SI pony, hips not given: with them hinged the trucks give a closure to consider,
     # so the recommendation's headline rests on their continuity, as on the bent counter
     from rating.results_build import build_results
@@ -282,9 +282,9 @@ def test_where_hinged_hips_would_close_the_bridge_the_recommendation_says_only_i
     blank = replace(pony, cross_section=replace(pony.cross_section, chord_hinged_at_hips=None))
     res = build_results(rate_bridge(blank))
     text = res.recommendation
-    assert text.startswith("Only if L2U3 is confirmed to act (recorded bent) and the top "
-                           "chord is confirmed continuous out of plane at the hips (U1, U5): "
-                           "post the bridge")
-    assert "If L2U3 does not act, consider closing the bridge (without L2U3" in text
-    assert "If the top chord is hinged at the hips (U1, U5), consider closing the bridge " \
-        "(lowest truck RF" in text
+    assert text.startswith("Consider closing the bridge unless L2U3 is confirmed to act "
+                           "(recorded bent) and the top chord is confirmed continuous out of "
+                           "plane at the hips (U1, U5): if L2U3 does not act, without L2U3")
+    assert "; if the top chord is hinged at the hips (U1, U5), lowest truck RF" in text
+    assert ". If L2U3 is confirmed to act (recorded bent) and the top chord is confirmed " \
+        "continuous out of plane at the hips (U1, U5): post the bridge" in text
