@@ -42,6 +42,7 @@ class SheetGrid:
     truncated: bool
     failure: str = ""  # why the sheet could not be read at all ("" when it could)
     bad_numbers: dict[tuple[int, int], str] = field(default_factory=dict)
+    beyond: int | None = None  # the first row below the rows read that holds a value
 
     @property
     def row_count(self) -> int:
@@ -280,23 +281,26 @@ def open_book_fast(z: zipfile.ZipFile, path: Path, wanted: dict[str, int],
         if name is not None:
             cells = package.cells(name, ncols, max_rows)
             grids[wanted_name] = _grid(name, ncols, max_rows, cells.rows, cells.uncached,
-                                       cells.merges)
+                                       cells.merges, cells.beyond)
     package.check_unread({g.name for g in grids.values()})
     return Book(path, package.sheet_names, grids)
 
 
 def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[object]],
-          uncached: dict[tuple[int, int], str], merges: tuple[str, ...]) -> SheetGrid:
+          uncached: dict[tuple[int, int], str], merges: tuple[str, ...],
+          beyond: int | None = None) -> SheetGrid:
     """The grid of one sheet from its rows as openpyxl's ``iter_rows`` yields them (from 1 to
     ``max_rows + 1`` at most, each ``ncols`` wide; blank rows at the end may be left out):
     blank rows at the end dropped except above a formula without a saved result;
-    ``truncated`` when row ``max_rows + 1`` holds a value."""
+    ``truncated`` when row ``max_rows + 1`` holds a value, or a row below it (``beyond``, the
+    first such row)."""
     uncached = {k: v for k, v in uncached.items() if k[1] <= ncols}
     rows: list[tuple[object, ...]] = []
     truncated = False
     for r, vrow in enumerate(rows_read, start=1):
         if r > max_rows:
             truncated = any(v is not None for v in vrow)
+            beyond = r if truncated else beyond
             break
         if type(vrow) is tuple and len(vrow) == ncols:
             rows.append(vrow)  # as wide as the grid already
@@ -308,7 +312,21 @@ def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[obj
         rows.pop()
     while len(rows) < last_formula_row:
         rows.append((None,) * ncols)
-    return SheetGrid(name, tuple(rows), uncached, merges, truncated)
+    return SheetGrid(name, tuple(rows), uncached, merges, truncated or beyond is not None,
+                     beyond=beyond)
+
+
+def _first_beyond(ws: Any, last: int, ncols: int) -> int | None:
+    """The first row below ``last`` holding a value in the first ``ncols`` columns of an
+    openpyxl read-only worksheet (None where there is none)."""
+    known = getattr(ws, "max_row", None)  # (from the sheet's dimension, where it has one)
+    if isinstance(known, int) and known <= last:
+        return None
+    for r, vrow in enumerate(ws.iter_rows(min_row=last + 1, max_col=ncols, values_only=True),
+                             start=last + 1):
+        if any(v is not None for v in vrow):
+            return r
+    return None
 
 
 def _shown_values(rows: Iterable[Sequence[Any]]) -> Iterator[tuple[object, ...]]:
@@ -361,7 +379,8 @@ def open_book_reference(path: Path, wanted: dict[str, int], max_rows: int) -> Bo
             ex = extras.get(name, _Extras((), {}, {}))
             try:
                 grids[wanted_name] = _grid(name, ncols, max_rows, _shown_values(ws.iter_rows(
-                    min_row=1, max_row=max_rows + 1, max_col=ncols)), ex.uncached, ex.merges)
+                    min_row=1, max_row=max_rows + 1, max_col=ncols)), ex.uncached, ex.merges,
+                    _first_beyond(ws, max_rows + 1, ncols))
             except Exception as exc:  # noqa: BLE001 - a damaged sheet part: say so, go on
                 try:
                     ex = _sheet_extras(path, max_rows, {_sheet_key(name)}, deep=True).get(

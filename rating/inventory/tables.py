@@ -280,9 +280,12 @@ def read_table(book: Book, spec: TableSheet, si: bool, log: ProblemLog,
                       f"the column '{col.header}' is missing from the header row of "
                       f"'{grid.name}'; restore it as in the template")
     if grid.truncated:
-        log.error(ref(grid.name, MAX_ROWS, 1),
-                  f"sheet '{grid.name}' has more than {MAX_ROWS} rows; only the first "
-                  f"{MAX_ROWS} are read")
+        below = grid.beyond or MAX_ROWS + 1
+        log.error(ref(grid.name, below, 1),
+                  f"sheet '{grid.name}' has entries from row {below} down, past the "
+                  f"{MAX_ROWS} data rows a sheet may hold: they are not read, so the workbook "
+                  "is not rated; move the rows up (no blank rows are needed between entries) "
+                  "or split the bridge's entries")
     cols = [(c, colpos[c.key]) for c in spec.columns if c.key in colpos]
     missing = frozenset(c.key for c in spec.columns if c.key not in colpos and c.required)
     rows = _read_rows(grid, spec, hdr, cols, mark_col, missing, si, log)

@@ -100,6 +100,8 @@ class SheetCells:
     rows: tuple[tuple[object, ...], ...]
     uncached: dict[tuple[int, int], str]
     merges: tuple[str, ...]
+    beyond: int | None = None  # the first row below those read (``max_rows + 1``) holding a
+    # value in the columns read: a row that would otherwise be dropped without a word
 
 
 @dataclass(frozen=True)
@@ -717,6 +719,7 @@ class _SheetReader:
         self.grid: dict[int, list[object]] = {}
         self.uncached: dict[tuple[int, int], str] = {}
         self.prefixes = frozenset[str]()
+        self.beyond: int | None = None
 
     def read(self, part: _Plain) -> SheetCells:
         _check_content(part)
@@ -727,7 +730,7 @@ class _SheetReader:
         n = max(self.grid, default=0)
         empty = (None,) * self.ncols
         rows = tuple(tuple(self.grid[r]) if r in self.grid else empty for r in range(1, n + 1))
-        return SheetCells(rows, self.uncached, self.merges(part))
+        return SheetCells(rows, self.uncached, self.merges(part), self.beyond)
 
     def check_row_attrs(self, blob: str) -> None:
         """Attributes once each, prefixes declared (what the matching cannot see)."""
@@ -794,6 +797,8 @@ class _SheetReader:
                         continue
                     values = grid[row] = [None] * ncols
                 values[col - 1] = got
+            elif got is not None and col <= ncols and self.beyond is None and not inside:
+                self.beyond = row
         return True
 
     def read_tokens(self, part: _Plain) -> None:
@@ -854,6 +859,9 @@ class _SheetReader:
         """Keep ``value`` at (row, column ``letters``) when within the rows and columns read
         (the last cell of a place counts, as in openpyxl)."""
         col = self.column(letters)
+        if value is not None and col <= self.ncols and row > self.max_rows + 1 \
+                and self.beyond is None:
+            self.beyond = row
         if col <= self.ncols and row <= self.max_rows + 1:
             values = self.grid.get(row)
             if values is None:

@@ -5,6 +5,7 @@ from __future__ import annotations
 import io
 import zipfile
 from pathlib import Path
+from typing import Any
 
 import openpyxl.xml
 import pytest
@@ -115,7 +116,22 @@ def test_too_many_rows(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     d = fresh()
     d["tables"]["Findings"] = [{"member": "L1L2", "loss": float(k % 20)} for k in range(30)]
     r = check(tmp_path, d)
-    assert any(p.where == "Findings!A20" and "has more than 20 rows" in p.message
+    # (the rows read: MAX_ROWS data rows and the header's search rows)
+    last = sc.MAX_ROWS + sc.HEADER_SEARCH_ROWS
+    assert any(p.where == f"Findings!A{last + 1}" and "past the 20 data rows a sheet may hold"
+               in p.message for p in r.errors)
+
+
+def test_an_entry_far_below_the_rows_read_is_refused_not_dropped(tmp_path: Path) -> None:
+    """A finding typed far down the sheet, below the rows read, with blank rows between: the
+    workbook is refused at its cell (it was dropped without a word, and the bridge rated
+    without that loss: a prober's finding)."""
+    def edit(wb: Any) -> None:
+        ws = wb["Findings"]
+        ws["B6000"], ws["C6000"], ws["G6000"] = "L1L2", "bar 1", 60
+    r = check(tmp_path, fresh(), edit)
+    assert r.bridge is None
+    assert any(p.where == "Findings!A6000" and "from row 6000 down" in p.message
                for p in r.errors)
 
 
