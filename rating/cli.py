@@ -34,6 +34,10 @@ def _parser() -> argparse.ArgumentParser:
     t.add_argument("path", type=Path, help="where to write the new workbook (.xlsx)")
     t.add_argument("--force", action="store_true",
                    help="replace the file if it already exists (never done without this)")
+    t.epilog = ("Exit status: 0 written; 1 it could not be written (a full disk, a folder "
+                "that may not be written to); 2 the command was misused (the file exists "
+                "and --force was not given, a folder, a name not ending in .xlsx, a folder "
+                "that does not exist).")
 
     c = sub.add_parser("check", help="check an inspection workbook without rating it",
                        description="Validate the workbook: every problem is listed with its "

@@ -10,7 +10,7 @@ import argparse
 import os
 import sys
 
-from rating.errors import PintrussError
+from rating.errors import PintrussError, UsageError
 
 EXIT_OK = 0
 EXIT_INPUT = 1
@@ -27,7 +27,10 @@ def run_template(args: argparse.Namespace) -> int:
 
     try:
         write_template(args.path, force=args.force)
-    except PintrussError as exc:
+    except UsageError as exc:  # (an existing file without --force, a folder: exit 2)
+        print(f"pintruss: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    except PintrussError as exc:  # (the disk full, a folder we may not write to)
         return _fail(exc)
     print(f"wrote blank inspection workbook: {args.path}")
     return EXIT_OK

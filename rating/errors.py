@@ -20,6 +20,11 @@ class InputError(PintrussError):
         super().__init__(f"{where}: {message}" if where else message)
 
 
+class UsageError(InputError):
+    """The command was misused: an output path that cannot be written as asked (a file that
+    exists without --force, a folder, a folder that does not exist). Exit code 2."""
+
+
 class GeometryError(InputError):
     """The truss as described is not a valid pin-jointed structure (bad labels, lengths...)."""
 

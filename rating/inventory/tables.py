@@ -57,7 +57,9 @@ class Row:
         return key in self.values
 
     def ref(self, key: str) -> str:
-        return self.cells.get(key) or f"{self.sheet}!A{self.number}"
+        """The Sheet!Cell of ``key``'s value; for an item whose row a form sheet lacks, the
+        sheet's first cell, as the reader names a missing item (never row 0)."""
+        return self.cells.get(key) or f"{self.sheet}!A{max(self.number, 1)}"
 
     @property
     def ok(self) -> bool:

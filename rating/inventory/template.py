@@ -22,7 +22,7 @@ from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.datavalidation import DataValidation
 from openpyxl.worksheet.worksheet import Worksheet
 
-from rating.errors import InputError
+from rating.errors import InputError, UsageError
 from rating.inventory import schema as sc
 from rating.inventory.schema import Column, FormSheet, Kind, TableSheet
 
@@ -286,15 +286,15 @@ def fill(wb: Workbook, content: WorkbookContent) -> None:
 def _save_new(wb: Workbook, path: Path, force: bool) -> None:
     path = Path(path)
     if path.suffix.lower() not in (".xlsx", ".xlsm"):
-        raise InputError("the workbook file name must end in .xlsx", where=str(path))
+        raise UsageError("the workbook file name must end in .xlsx", where=str(path))
     if path.exists() and not force:
-        raise InputError("the file already exists and is not overwritten; choose another name "
+        raise UsageError("the file already exists and is not overwritten; choose another name "
                          "or use --force to replace it", where=str(path))
     if path.exists() and path.is_dir():
-        raise InputError("this is a folder, not a workbook file", where=str(path))
+        raise UsageError("this is a folder, not a workbook file", where=str(path))
     folder = path.parent if str(path.parent) else Path(".")
     if not folder.is_dir():
-        raise InputError(f"the folder {folder} does not exist", where=str(path))
+        raise UsageError(f"the folder {folder} does not exist", where=str(path))
     try:
         fd, tmp = tempfile.mkstemp(suffix=".xlsx", prefix=".pintruss-", dir=folder)
     except OSError as exc:  # a folder we may not write to

@@ -158,7 +158,7 @@ def test_cli_template_and_force(tmp_path: Path, capsys: pytest.CaptureFixture[st
     assert main(["template", str(path)]) == 0
     assert path.is_file()
     before = path.read_bytes()
-    assert main(["template", str(path)]) == 1
+    assert main(["template", str(path)]) == 2  # a usage error, as in rate and batch
     err = capsys.readouterr().err
     assert "already exists" in err and "--force" in err
     assert path.read_bytes() == before
