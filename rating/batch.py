@@ -193,9 +193,11 @@ def find_workbooks(folder: Path) -> tuple[Path, ...]:
     books = []
     for dirpath, dirnames, filenames in os.walk(folder):
         dirnames[:] = sorted(d for d in dirnames if not d.startswith("."))
+        # (a broken link is listed too: rated, it is recorded as not readable, never passed
+        # over without a word)
         books += [Path(dirpath) / f for f in filenames
                   if f.lower().endswith(".xlsx") and not f.startswith(("~$", "."))
-                  and (Path(dirpath) / f).is_file()]
+                  and ((Path(dirpath) / f).is_file() or (Path(dirpath) / f).is_symlink())]
     return tuple(sorted(books, key=lambda p: (workbook_label(p, folder).lower(),
                                               workbook_label(p, folder))))
 

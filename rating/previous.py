@@ -170,6 +170,9 @@ def read_previous(path: Path) -> PreviousRating:
     except json.JSONDecodeError as exc:
         raise r.fail("", f"it is not a results file written by pintruss: not valid JSON "
                      f"(line {exc.lineno}, column {exc.colno}: {exc.msg})") from None
+    except RecursionError:  # (lists or objects nested thousands deep)
+        raise r.fail("", "it is not a results file written by pintruss: nested too "
+                     "deep") from None
     if not isinstance(data, dict) or "schema_version" not in data or "posting" not in data:
         raise r.fail("", "it is not a results file written by pintruss (*.rating.json): "
                      "it has no schema_version or no posting")

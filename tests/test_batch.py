@@ -673,3 +673,12 @@ def test_a_closure_resting_on_a_condition_is_counted_as_one_to_consider() -> Non
     plain = replace(row, recommendation="Post the bridge. Safe posting loads ...")
     assert not plain.conditional and not plain.closure_to_consider
     assert replace(plain, action="close").closure_to_consider
+
+
+def test_a_broken_link_named_like_a_workbook_is_listed_not_passed_over(tmp_path: Path) -> None:
+    folder = _folder(tmp_path, {"a.xlsx": GOOD})
+    (folder / "gone.xlsx").symlink_to(tmp_path / "nowhere.xlsx")
+    assert [p.name for p in find_workbooks(folder)] == ["a.xlsx", "gone.xlsx"]
+    s = rate_folder(folder, tmp_path / "out", workers=1, rate=fake_rate)
+    gone = next(r for r in s.rows if r.workbook == "gone.xlsx")
+    assert not gone.rated and "could not be read" in gone.errors[0]

@@ -64,6 +64,7 @@ def _earlier(edit: Any = None) -> dict[str, Any]:
     ("{not json", "not valid JSON (line 1, column 2"),
     ("[1, 2]", "it is not a results file written by pintruss"),
     ('{"schema_version": "1.0"}', "it has no schema_version or no posting"),
+    ("[" * 5000 + "]" * 5000, "nested too deep"),
 ])
 def test_a_file_that_is_no_results_file_is_refused_by_name(tmp_path: Path, content: str,
                                                             needle: str) -> None:

@@ -192,3 +192,18 @@ def test_a_workbook_open_in_a_spreadsheet_program_is_noticed(tmp_path, lock: str
     (tmp_path / lock).write_bytes(b"owner")
     said = [p for p in read_workbook(book).warnings if "lock file" in p.message]
     assert len(said) == 1 and said[0].where == "w.xlsx" and lock in said[0].message
+
+
+def test_an_optional_item_whose_row_is_gone_is_named_at_the_sheets_first_cell(
+        tmp_path: Path) -> None:
+    """The ADTT row deleted from the Bridge sheet: its warning is placed at Bridge!A1, as a
+    missing required item is, never at a row 0 that no sheet has (a prober's finding)."""
+    def edit(wb: Any) -> None:
+        ws = wb["Bridge"]
+        row = next(c.row for c in ws["A"] if isinstance(c.value, str)
+                   and c.value.startswith("ADTT"))
+        ws.delete_rows(row)
+    r = check(tmp_path, fresh(), edit)
+    said = [p for p in r.warnings if "ADTT is not given" in p.message]
+    assert [p.where for p in said] == ["Bridge!A1"]
+    assert not any(p.where.endswith("!A0") for p in r.problems)
