@@ -4,8 +4,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
+from dataclasses import replace
 from itertools import accumulate
 from typing import NamedTuple
+
+import numpy as np
 
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
@@ -23,7 +26,7 @@ from rating.lrfr.engine import (
     permit_conditions,
     trucks_verdict,
 )
-from rating.lrfr.factors import RatingLevel, provisions
+from rating.lrfr.factors import RatingLevel, dead_load_factors, factored_dw, provisions
 from rating.lrfr.posting import PostingAction, least_posting_load
 from rating.lrfr.posting import posting as legal_load_posting
 from rating.lrfr.reported import reported_rf
@@ -211,6 +214,21 @@ def _finding(f: Finding | None, text, memo: dict | None, rod: bool = False) -> s
 
 
 _FLOAT_ONLY = frozenset((float,))
+
+
+def _path_dw_factors(rating: BridgeRating) -> dict[float, float]:
+    """The nominal gamma_DW of a rating on the load path (the key of its factored dead state,
+    rating.lrfr.engine._dead_states) -> the weighted gamma_DW its DW took: a wearing surface
+    of measured thickness factored apart from the rest of DW (rating.lrfr.factors.factored_dw),
+    so that the factor printed beside the rating is the one applied (a reviewer's hand check
+    failed on the nominal 1.50). Empty where there is no such surface."""
+    dead = rating.dead
+    dw, surf = (float(np.sum(dead.joint_loads_dw_kip)),
+                float(np.sum(dead.joint_loads_dw_surface_kip)))
+    if not surf or not dw:
+        return {}
+    f = dead_load_factors(rating.bridge.settings.wearing_surface_measured)
+    return {f["gamma_dw_max"].value: float(factored_dw(dw, surf, f, "max")) / dw}
 
 
 def _factors(r: MemberCaseRating, memo: dict | None) -> Factors:
@@ -615,6 +633,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     members = []
     cases = [(case.id, case.load, case.im.value) for case in rating.cases]
     live_of, rating_of = rating.live, rating.ratings
+    path_dw = _path_dw_factors(rating)
     for m in g.members:
         cap = rating.capacities[m.label]
         rod = isinstance(rating.bridge.design_of(m.label).section, RodSet)
@@ -630,6 +649,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             r = rating_of[(m.label, cid)]
             ext = r.extreme  # most often one of the two extremes, placed just above
             at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
+            if r.method == "load multiplier" and r.gamma_dw in path_dw:
+                r = replace(r, gamma_dw=path_dw[r.gamma_dw])
             ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
                                   _finding(r.finding, text, positions, rod),
                                   r.dead_at_rating, r.live_at_rating, r.slack_at_rating)

@@ -627,3 +627,39 @@ def test_an_owner_specified_posted_vehicle_is_told_not_to_cross_at_full_weight(o
     assert res.posting["TAM-PLOW"].action == "post"
     assert ("county snowplow, tandem 26 tons (an owner-specified vehicle of 27 tons: not to "
             "cross at full weight)" in res.recommendation)
+
+
+def test_a_load_path_rating_prints_the_weighted_dw_factor_it_took(outcomes):
+    """The Parker sample's wearing surface was measured: it takes gamma_DW = 1.25 and the
+    rest of DW 1.50 (AASHTO LRFD Table 3.4.1-2 [V]; MBE 6A.4.2.2 [value from memory]). A
+    rating on the load path prints their weighted value, the one its dead state took (it
+    printed the nominal 1.50, and a reviewer's hand check of the factored dead load failed):
+    where no tension-only member is slack at the rating level beyond those slack under dead
+    load alone, the factored dead load is gamma_DC DC + gamma_DW DW of the member's own DC
+    and DW (statics of the dead-load state: common practice)."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    linear = {r.factors.gamma_dw for m in res.members for r in m.ratings.values()
+              if r.method == "linear" and r.factors is not None and m.dead_load["DW"] > 0}
+    path = [(m, r) for m in res.members for r in m.ratings.values()
+            if r.method == "load multiplier" and r.factors is not None]
+    assert path and 1.5 not in {r.factors.gamma_dw for _, r in path}
+    assert {r.factors.gamma_dw for _, r in path if r.factors.gamma_dw > 1.0} <= linear
+    m = res.member("L3L4")
+    r = next(r for r in m.ratings.values() if r.method == "load multiplier")
+    assert r.dead_at_rating == pytest.approx(
+        r.factors.gamma_dc * m.dead_load["DC"] + r.factors.gamma_dw * m.dead_load["DW"],
+        rel=1e-6)
+
+
+def test_a_condition_and_system_factor_below_085_says_085_is_taken(outcomes):
+    from rating.report import render_report
+    from rating.report.view import build_view
+
+    res = outcomes["tc0417_pratt_1898.xlsx"].results
+    rows = build_view(res).members
+    rated = [r for r in rows if "\u00d7" in r.factors]
+    for r in rated:  # (MBE 6A.4.2.1: phi_c phi_s >= 0.85)
+        phi_c, phi_s = (float(x) for x in r.factors.split(" \u00d7 "))
+        assert r.factors_floor == (phi_c * phi_s < 0.85 - 1e-9), r
+    assert [r.id for r in rated if r.factors_floor] == ["L3U4"]  # 0.95 x 0.85 = 0.81
+    assert "0.85 taken" in render_report(res)

@@ -147,6 +147,7 @@ class MemberRow:
     method: str
     finding: str
     factors: str = ""  # phi_c x phi_s of its resistance (the condition and system factors)
+    factors_floor: bool = False  # their product is below 0.85, and 0.85 is taken
 
 
 @dataclass(frozen=True)
@@ -759,7 +760,10 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             finding=finding,
             factors=(f"{d.number(low[1].factors.phi_c, None, 2)} \u00d7 "
                      f"{d.number(low[1].factors.phi_s, None, 2)}"
-                     if low and low[1].factors else DASH)))
+                     if low and low[1].factors else DASH),
+            # (their product below 0.85: 0.85 is taken, MBE 6A.4.2.1, Eq. 6A.4.2.1-3)
+            factors_floor=bool(low and low[1].factors
+                               and low[1].factors.phi_c * low[1].factors.phi_s < 0.85 - 1e-9)))
 
     # live load and RF per vehicle, in tables of a few vehicles each
     live_tables: list[LiveTable] = []
