@@ -71,6 +71,7 @@ class PreviousRating:
     cases: Mapping[str, PreviousCase]
     elements: Mapping[str, Mapping[str, float]]  # member id or "pin at J" -> case -> RF
     findings: tuple[Mapping[str, Any], ...]  # the findings echo, as written (its units)
+    recommendation: str = ""  # its recommendation, as it read
 
 
 # ------------------------------------------------------------------ reading the file
@@ -226,7 +227,8 @@ def read_previous(path: Path) -> PreviousRating:
         method=r.text(data, "method", "", optional=True) or "",
         provision_set=r.text(data, "provision_set", "", optional=True) or "",
         system="SI" if weight_unit == DISPLAY_UNITS["weight"][1] else "US",
-        weight_unit=weight_unit, cases=cases, elements=elements, findings=tuple(findings))
+        weight_unit=weight_unit, cases=cases, elements=elements, findings=tuple(findings),
+        recommendation=r.text(data, "recommendation", "", optional=True) or "")
 
 
 def same_bridge(a: str, b: str) -> bool:
@@ -288,7 +290,8 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
         elements=_element_changes(results, previous, system), notes=tuple(notes),
         out_of_order=order == "later",
         trucks_before=then_trucks[0], limit_before=then_trucks[1],
-        trucks_now=now_trucks[0], limit_now=now_trucks[1], weight_unit_before=then_weight)
+        trucks_now=now_trucks[0], limit_now=now_trucks[1], weight_unit_before=then_weight,
+        recommendation_before=previous.recommendation)
     return dataclasses.replace(since, headline=headline(since, weight, level))
 
 

@@ -421,6 +421,7 @@ class SincePrevious:
                                    default=None)
     limit_now: float | None = q("single weight limit for trucks now", "weight", default=None)
     weight_unit_before: str = ""  # the unit the previous rating posted in ("ton", "tonne")
+    recommendation_before: str = ""  # the previous rating's recommendation, as it read
 
 
 @dataclass(frozen=True)

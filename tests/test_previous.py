@@ -312,6 +312,10 @@ def test_the_comparison_is_in_the_json_and_the_report(tmp_path: Path) -> None:
     assert "Since the previous rating" in text
     assert "posting lowered from 31 to 26 tons" in text
     assert "<b>bar</b>" not in html and "&lt;b&gt;bar&lt;/b&gt;" in html  # text, inert
+    # page 1 says the change in the recommendation's box; the previous words are quoted
+    box = html.index("Posting recommendation, for the licensed")
+    assert box < html.index('class="since-lead"') < html.index('<table class="summary">')
+    assert "The previous recommendation read: &ldquo;" in html
     # no previous rating: no such part, and "previous": null in the file
     plain = sample_results()
     assert "Since the previous rating" not in " ".join(read(render_report(plain)).text)
@@ -508,3 +512,27 @@ def test_a_comparison_that_fails_inside_the_program_still_rates_the_bridge(
     assert out is results and not worse
     assert since.startswith("not compared: ") and "internal error" in since
     assert notes and "please report it" in notes[0]
+
+
+def test_a_member_that_moved_with_unchanged_findings_says_so_and_its_move_checks_by_hand(
+        tmp_path: Path) -> None:
+    from rating.report.view import build_view
+
+    results = sample_results()
+    member = results.members[5]
+
+    def edit(d: dict[str, Any]) -> None:
+        m = next(m for m in d["members"] if m["id"] == member.id)
+        for r in m["ratings"].values():
+            if isinstance(r["rf"], float):
+                r["rf"] *= 1.4
+    compared, why = previous_for(results, _write(tmp_path, _earlier(edit)))
+    assert compared is not None, why
+    view = build_view(compared)
+    assert view.since is not None
+    row = next(r for r in view.since.elements if r.element == member.id)
+    assert row.findings_now == "unchanged"
+    e = next(e for e in compared.previous.elements if e.element == member.id)
+    from rating.results import reported_rf
+    printed = reported_rf(e.rf_now) / reported_rf(e.rf_before) - 1.0
+    assert row.move == f"{printed * 100:+.0f} %".replace("-", "\u2212")

@@ -70,6 +70,7 @@ class SinceView:
     more_elements: int
     threshold: str
     trucks: str = ""  # the trucks' outcome then and now, in words
+    recommendation_before: str = ""  # the previous rating's recommendation, as it read
 
 
 def _outcome_then(c: VehicleChange, v: VehicleResult, d: Display, unit: str) -> str:
@@ -118,15 +119,19 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
     for e in since.elements[:ELEMENT_ROWS]:
         if not e.moved:
             move = f"within {RF_CHANGE * 100:g} %"
-        elif math.isfinite(e.rf_before) and math.isfinite(e.rf_now) and e.rf_before > 0:
-            move = f"{(e.rf_now / e.rf_before - 1.0) * 100.0:+.0f} %".replace("-", "\u2212")
+        elif math.isfinite(e.rf_before) and math.isfinite(e.rf_now) \
+                and reported_rf(e.rf_before) > 0:
+            # (from the RFs as printed beside it, so that it checks by hand)
+            ratio = reported_rf(e.rf_now) / reported_rf(e.rf_before)
+            move = f"{(ratio - 1.0) * 100.0:+.0f} %".replace("-", "\u2212")
         else:
             move = "lower" if e.rf_now < e.rf_before else "higher"
         case = e.case if e.case_before in ("", e.case) else f"{e.case_before} / {e.case}"
         elements.append(ElementChangeRow(
             e.element, case, rf_cell(e.rf_before), rf_cell(e.rf_now), move,
             "; ".join(e.findings_before) or "none recorded",
-            "; ".join(e.findings_now) or "none recorded", e.moved and e.rf_now < e.rf_before))
+            ("; ".join(e.findings_now) or "none recorded") if e.findings_changed
+            else "unchanged", e.moved and e.rf_now < e.rf_before))
     made = f", made with {since.generator}" if since.generator else ""
     return SinceView(
         headline=since.headline,
@@ -135,6 +140,7 @@ def since_view(results: RatingResults, d: Display, rf_cell: Callable[[float | No
         notes=since.notes, vehicles=tuple(rows), elements=tuple(elements),
         more_elements=max(0, len(since.elements) - ELEMENT_ROWS),
         threshold=f"{RF_CHANGE * 100:g} %",
+        recommendation_before=since.recommendation_before,
         trucks=(f"Trucks rated both times (the legal loads other than emergency vehicles): "
                 f"{truck_state(since.trucks_before, since.limit_before, weight, then_unit)}"
                 f" then; {truck_state(since.trucks_now, since.limit_now, weight)} now."

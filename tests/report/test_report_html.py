@@ -322,7 +322,8 @@ def test_the_recommendation_comes_before_the_vehicle_table(html_us: str) -> None
     comes before the table of every vehicle (which runs on to later pages); the review and
     sign-off block follows the table, in a box of its own (a reviewer's finding: with the
     sign-off inside it, the box did not fit beneath the facts and page 1 held no outcome)."""
-    rec = html_us.index('<h2>Posting recommendation</h2>')
+    rec = html_us.index("<h2>Posting recommendation, for the licensed engineer&rsquo;s "
+                        "decision</h2>")
     table = html_us.index('<table class="summary">')
     review = html_us.index('<h2>Review and decision</h2>')
     assert html_us.index('<div class="facts">') < rec < table < review
