@@ -384,8 +384,9 @@ def recommendation(rating: BridgeRating, unit: str,
         # loose bar is taken as carrying no load until shown otherwise: common practice),
         # and the rating's own posting follows for the case it is confirmed
         rest = [c for c in clauses if c not in closing]
-        why = (closing[0][2] if len(closing) == 1 else
-               "; ".join(f"if {fails}, {then}" for _, fails, then, _ in closing))
+        # (a bent member's words say "without it"; another condition's are said with "if")
+        why = (closing[0][2] if len(closing) == 1 and closing[0][2].startswith("without ")
+               else "; ".join(f"if {fails}, {then}" for _, fails, then, _ in closing))
         return (CLOSING_UNLESS + " and ".join(c[0] for c in closing) + f": {why}. "
                 f"If {holds}{join}" + own
                 + "".join(f" If {fails}, {then_do} ({then})." for _, fails, then, then_do in rest)

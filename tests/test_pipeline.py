@@ -8,6 +8,7 @@ import functools
 import hashlib
 import json
 import math
+import re
 import shutil
 import sys
 from dataclasses import replace
@@ -53,7 +54,11 @@ def test_sample_rates_and_validates_against_schema(outcomes, name):
 
 def test_parker_sample_forces_a_posting(outcomes):
     res = outcomes["tc0622_parker_1907.xlsx"].results
-    assert res.recommendation.startswith("Post the bridge")
+    # (its hanger's loss at the loop, if it ran along the bar, would close it: said first)
+    assert res.recommendation.startswith("Consider closing the bridge unless the loss at the "
+                                         "loop of L1U1 is confirmed local")
+    assert "(not along the bar around the pin): post the bridge. Safe posting loads" \
+        in res.recommendation
     assert any(p.action == "post" for p in res.posting.values())
 
 
@@ -336,8 +341,9 @@ def test_a_bent_counter_the_ratings_rest_on_is_said_before_the_decision(outcomes
     assert rec.startswith(f"Consider closing the bridge unless L3U4 is confirmed to act "
                           f"(recorded bent): without L3U4, lowest truck RF {said.group(1)} "
                           f"({said.group(2)}, ")
-    assert "; members only, see the warning. If L3U4 is confirmed to act (recorded bent): " \
-        "post the bridge." in rec
+    assert "; members only, see the warning. If L3U4 is confirmed to act (recorded bent) " \
+        "and the loss at the loop of L1U1 is confirmed local (not along the bar around the " \
+        "pin): post the bridge." in rec
     assert rec.endswith(DECISION_NOTE)
     assert not any(r.startswith("Only if") for r in (parker.recommendation,))
 
@@ -607,7 +613,8 @@ def test_the_pratt_samples_permit_is_rated_for_its_issue(outcomes):
     assert entry.action == "none" and entry.posting_tons is None and entry.rf < 1.0
     assert "should not cross as requested" in entry.note
     # last, after the condition on the bent counter and before the engineer's decision
-    tail = res.recommendation.split("If L3U4 is confirmed to act (recorded bent): ")[1]
+    tail = res.recommendation.split("If L3U4 is confirmed to act (recorded bent)")[1]
+    assert "If the loss at the loop of L1U1 runs along the bar" in tail
     assert tail.endswith(" Permit loads (for the permit's issue, not a posting): mobile crane "
                          "to Hollis Mill, single-trip permit, RF 0.71 (L1U1): not as "
                          "requested." + DECISION_NOTE)
@@ -663,3 +670,32 @@ def test_a_condition_and_system_factor_below_085_says_085_is_taken(outcomes):
         assert r.factors_floor == (phi_c * phi_s < 0.85 - 1e-9), r
     assert [r.id for r in rated if r.factors_floor] == ["L3U4"]  # 0.95 x 0.85 = 0.81
     assert "0.85 taken" in render_report(res)
+
+
+def test_loss_at_a_loop_that_may_run_along_the_bar_is_a_condition_of_the_recommendation(
+        outcomes):
+    """The Parker sample's hanger L1U1 has 45 % of its diameter lost at the loop, rated as a
+    local section (fracture only). Along the bar around the pin, yielding on the reduced
+    section governs (its warning gives phi_y F_y A): rated so, SU7's RF is, by the rating
+    equation (MBE 6A.4.2.1 [value from memory]) with that resistance and phi_c phi_s >= 0.85,
+    (max(phi_c phi_s, 0.85) phi_y F_y A - gamma_DC DC - gamma_DW DW) / (gamma_LL (LL + IM)),
+    a closure to consider: the recommendation leads with it until the loss is confirmed
+    local (a reader's finding: the warning alone left the headline 'Post the bridge')."""
+    res = outcomes["tc0622_parker_1907.xlsx"].results
+    loop = next(w for w in res.warnings if "the loss at its loop" in w)
+    phi_y_fy_a = float(re.search(r"= ([\d.]+) kip, against", loop).group(1))
+    m = res.member("L1U1")
+    r, e = m.ratings["SU7"], m.live_load["SU7"]
+    f = r.factors
+    C = max(f.phi_c * f.phi_s, 0.85) * phi_y_fy_a
+    rf = (C - f.gamma_dc * m.dead_load["DC"] - f.gamma_dw * m.dead_load["DW"]) / (
+        f.gamma_ll * e.max_with_im)
+    said = next(w for w in res.warnings if w.startswith("LOOP LOSS MAY RUN ALONG THE BAR"))
+    assert f"lowest truck RF {math.floor(rf * 100 + 1e-7) / 100:.2f} (SU7, L1U1)" in said
+    assert rf < 0.3  # (a closure to consider)
+    assert res.recommendation.startswith(
+        "Consider closing the bridge unless the loss at the loop of L1U1 is confirmed local "
+        "(not along the bar around the pin): if the loss at the loop of L1U1 runs along the "
+        "bar, lowest truck RF")
+    assert "If the loss at the loop of L1U1 is confirmed local (not along the bar around the " \
+        "pin): post the bridge." in res.recommendation

@@ -229,7 +229,8 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
     from rating.lrfr.engine import WithoutMember
 
     assert pony_rating.without["L2U3"].verdict == "a closure to consider"  # (the sample)
-    lower = replace(pony_rating, without={"L2U3": WithoutMember(
+    # (the sample's own other condition, its loop rod, left out: the bent member alone here)
+    lower = replace(pony_rating, conditions=(), without={"L2U3": WithoutMember(
         "a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))})
     rec = build_results(lower).recommendation
     assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent): post the bridge.")
@@ -237,8 +238,8 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
             "RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 tonnes (9 "
             "as rated); members only, see the warning).") in rec
     # a lower RF that posts no truck lower changes nothing the engineer decides
-    same = replace(pony_rating, without={"L2U3": WithoutMember("a posting", 0.40, "SU4",
-                                                               "U2L3")})
+    same = replace(pony_rating, conditions=(), without={"L2U3": WithoutMember(
+        "a posting", 0.40, "SU4", "U2L3")})
     assert not build_results(same).recommendation.startswith("Only if")
 
 
@@ -252,7 +253,8 @@ def test_a_sensitivity_that_posts_another_truck_lower_makes_the_headline_conditi
     main_rf = min(cp.rf for cid, cp in pony_rating.postings.items()
                   if cid in ("SU4", "SU5", "SU6", "SU7", "TYPE-3", "TYPE-3S2", "TYPE-3-3"))
     w = WithoutMember("a posting", main_rf, "SU6", "U2L3", lowered=(("TYPE-3S2", 12.0),))
-    rec = build_results(replace(pony_rating, without={"L2U3": w})).recommendation
+    rec = build_results(replace(pony_rating, conditions=(), without={"L2U3": w})
+                        ).recommendation
     assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent)")
     assert "post the bridge for lower loads (without L2U3, lowest truck RF" in rec
     assert ("posted lower: AASHTO legal load Type 3S2 12 tonnes (17 as rated); members only"
@@ -264,8 +266,8 @@ def test_two_bent_members_say_the_gravest_consequence(pony_rating):
 
     lower = WithoutMember("a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))
     closing = WithoutMember("a closure to consider", 0.12, "SU7", "U1L2")
-    rec = build_results(replace(pony_rating, without={"L2U3": lower, "U1L2": closing})
-                        ).recommendation
+    rec = build_results(replace(pony_rating, conditions=(),
+                                without={"L2U3": lower, "U1L2": closing})).recommendation
     # the closure first: a bent member is taken as not acting until it is confirmed to
     assert rec.startswith("Consider closing the bridge unless L2U3, U1L2 are confirmed to act "
                           "(recorded bent): without L2U3, lowest truck RF 0.40 (SU4, U2L3); "

@@ -72,6 +72,7 @@ from rating.model import (
     DeckPosition,
     EyebarSet,
     Finding,
+    FindingRegion,
     Material,
     MaterialKind,
     Member,
@@ -1139,6 +1140,51 @@ def _older_steel(bridge: Bridge, cases: Sequence[RatingCase],
     return None if result is None else OlderSteel(by_year, pins, mat, edge, result)
 
 
+LOOP_LOSS_LOCAL = "the loss at its loop"
+"""The words of rating.capacity.tension's caution that a loop rod's loss at its loop is rated
+as a local section (fracture only), found in a member's capacity warnings."""
+
+
+def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
+                     capacities: Mapping[str, MemberCapacity],
+                     against: Mapping[str, CasePosting] | None = None
+                     ) -> tuple[tuple[str, ...], WithoutMember] | None:
+    """Loop rods whose loss at the loop is rated as a local section, where yielding would be
+    lower if it ran along the bar around the pin (rating.capacity.tension): rated again with
+    that loss recorded on the body, members and pins, for the trucks at the legal level, the
+    emergency vehicles and the permits (the engineer judges where the loss lies: common
+    practice). The members and what the trucks then give; None where no rod is so."""
+    members = tuple(sorted(lab for lab, cap in capacities.items()
+                           if any(LOOP_LOSS_LOCAL in w for w in cap.warnings)))
+    if not members or not _truck_ids(cases):
+        return None
+    variant = replace(bridge, findings=tuple(
+        replace(f, region=FindingRegion.BODY)
+        if f.member in members and f.region is FindingRegion.THREAD else f
+        for f in bridge.findings))
+    try:
+        other = rate_bridge(variant, _sensitivity_ids(cases), what_if=False, capacities={
+            lab: cap for lab, cap in capacities.items() if lab not in members})
+    except (InputError, ConvergenceError):
+        return members, WithoutMember("a closure to consider")
+    result = trucks_verdict(other.postings, other.cases, against=against,
+                            metric=_metric(bridge))
+    return None if result is None else (members, result)
+
+
+def loop_loss_text(members: Sequence[str], result: WithoutMember,
+                   main: WithoutMember | None) -> str:
+    """The warning of :func:`_loop_loss_along`: headed in capitals where the loss along the
+    loops gives the trucks a posting or a closure."""
+    names = ", ".join(members)
+    return _sensitivity_warning(
+        "LOOP LOSS MAY RUN ALONG THE BAR", "loop loss along the bar",
+        f"with the loss recorded at the loops of {names} taken along the bar around the pin "
+        "(yielding on the reduced section) instead of as a local section", result, main,
+        "The engineer judges where the loss lies; a closer look at the loops, or the loss "
+        "recorded on the body, would settle it")
+
+
 def older_steel_text(o: OlderSteel, year: int, main: WithoutMember | None) -> str:
     """The warning of :func:`_older_steel`: headed in capitals where the older steel gives the
     trucks a posting or a closure (the posting, or its load, then rests on the steel's grade);
@@ -1558,6 +1604,15 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 "sections)", f"the sections of {members} are open", lacing.result))
         elif lacing is not None:
             assumptions.append(lacing_note(lacing))
+        loops = _loop_loss_along(bridge, cases, capacities, postings)
+        if loops is not None:
+            warnings.append(loop_loss_text(*loops, main))
+            names = ", ".join(loops[0])
+            conditions.append(Condition(
+                f"the loss at the loop{'s' if len(loops[0]) > 1 else ''} of {names} is "
+                "confirmed local (not along the bar around the pin)",
+                f"the loss at the loop{'s' if len(loops[0]) > 1 else ''} of {names} runs "
+                "along the bar", loops[1]))
         hips = _hips_hinged(bridge, cases, chord, postings)
         if hips is not None:
             warnings.append(hips_text(*hips, main))

@@ -286,5 +286,7 @@ def test_where_hinged_hips_would_close_the_bridge_the_recommendation_leads_with_
                            "(recorded bent) and the top chord is confirmed continuous out of "
                            "plane at the hips (U1, U5): if L2U3 does not act, without L2U3")
     assert "; if the top chord is hinged at the hips (U1, U5), lowest truck RF" in text
-    assert ". If L2U3 is confirmed to act (recorded bent) and the top chord is confirmed " \
+    # (the sample's loop rod L1U1 is a condition too, one that would lower the postings)
+    assert ". If L2U3 is confirmed to act (recorded bent) and the loss at the loop of L1U1 is " \
+        "confirmed local (not along the bar around the pin) and the top chord is confirmed " \
         "continuous out of plane at the hips (U1, U5): post the bridge" in text
