@@ -830,6 +830,7 @@ def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
     what carries its force into the pin, and the gaps between the bars set the lever arms of
     the pin's bending)."""
     out = []
+    losses: dict[tuple[str, str], list[str]] = {}  # (member, its end) -> the findings' places
     for m in g.members_at(joint):
         length = g.member_length_ft(m.label)
         near_start = m.start == joint
@@ -855,11 +856,14 @@ def _end_loss_notes(joint: str, g: TrussGeometry, bridge) -> tuple[str, ...]:
                            "measured gaps there (the gap before each plate)")
             if f.remaining_thickness_in is None and f.percent_loss is None:
                 continue
-            out.append(f"pin at joint {joint}: member {m.label} has section loss recorded at "
-                       f"its {'loop' if f.region is FindingRegion.THREAD else f.region.value}"
-                       f" ({f.where or m.label}); the pin's bearing and "
-                       "packing use the plate thicknesses of the Packing sheet, so record the "
-                       "remaining thickness there where the loss is at this pin's bearing")
+            end = "loop" if f.region is FindingRegion.THREAD else f.region.value
+            losses.setdefault((m.label, end), []).append(f.where or m.label)
+    # (one note for each member's end, with every finding's place: the rods of one loop
+    # member had a note each, the same words twice)
+    out += [f"pin at joint {joint}: member {label} has section loss recorded at its {end} "
+            f"({', '.join(dict.fromkeys(places))}); the pin's bearing and packing use the "
+            "plate thicknesses of the Packing sheet, so record the remaining thickness there "
+            "where the loss is at this pin's bearing" for (label, end), places in losses.items()]
     return tuple(dict.fromkeys(out))
 
 

@@ -603,6 +603,11 @@ def test_loss_at_a_loop_rods_loop_is_carried_to_its_pins_note():
     assert said.startswith("pin at joint L1: member L1U1 has section loss recorded at its loop "
                            "(Findings!B5)")
     assert _end_loss_notes("U1", bridge.geometry, bridge) == ()  # (0.5 ft from L1 only)
+    # a second rod's loss at the same loop: one note naming both findings
+    other = replace(loss, component="rod 2", where="Findings!B6")
+    both = replace(bridge, findings=(loss, other))
+    (said,) = _end_loss_notes("L1", both.geometry, both)
+    assert "has section loss recorded at its loop (Findings!B5, Findings!B6);" in said
 
 
 def test_pack_rust_at_a_bars_head_is_carried_to_its_pins_note():
