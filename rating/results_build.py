@@ -566,7 +566,8 @@ def _recommendation(rating: BridgeRating, unit: str,
         text = ("No load restriction is indicated for trucks: every truck rated has a rating "
                 "factor of at least 1.0")
         if below:
-            text += (f" ({names(below)} is a screening load below 1.0: the single-unit SHVs "
+            text += (f" ({names(below)} is a screening load below 1.0: the single-unit "
+                     "specialized hauling vehicles (SHVs) "
                      "were rated one by one instead, each at least 1.0)")
         return text + "." + ev_text + tail
 

@@ -334,7 +334,8 @@ def rating_cases(bridge: Bridge, ids: Sequence[str] | None, span_ft: float
             added = [v for v in SHVS if v not in chosen]
             loads += [rating_load(v, bridge.owner_vehicles) for v in added]
             if added:
-                notes.append(f"The NRL is rated as a screen for the single-unit SHVs; "
+                notes.append(f"The NRL (notional rating load) is rated as a screen for the "
+                             "single-unit specialized hauling vehicles (SHVs); "
                              f"{', '.join(added)} are rated with it (FHWA, Load Rating of "
                              "Specialized Hauling Vehicles, Q&A, March 2014).")
     cases: list[RatingCase] = []
@@ -2046,7 +2047,8 @@ def _postings(cases, ratings, pins, g) -> dict[str, CasePosting]:
                 out[case.id] = CasePosting(
                     case.id, rf, who, replace(result, posting_tons=None,
                                               action=PostingAction.NONE),
-                    note=("screening load: with RF below 1.0 the single-unit SHVs are rated "
+                    note=("screening load: with RF below 1.0 the single-unit specialized hauling "
+                          "vehicles (SHVs) are rated "
                           "and posted one by one (FHWA SHV Q&A, March 2014)"), alike=alike)
     # the permits, once the legal loads are known: none over a bridge restricted for them
     restricted = any(out[c.id].result.action in (PostingAction.POST, PostingAction.CLOSE)
