@@ -394,6 +394,8 @@ class ReportView:
     decision_warnings: tuple[str, ...] = ()  # repeated in the recommendation box
     has_permits: bool = False  # a permit load was rated: the review block has its line
     since: SinceView | None = None  # compared with the previous rating (rating.previous)
+    verify: tuple[str, ...] = ()  # provisions named beside a value recalled from memory
+    verify_vehicles: tuple[str, ...] = ()  # vehicles whose axles are recalled from memory
 
 
 # ------------------------------------------------------------------ helpers
@@ -886,8 +888,25 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
         band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
         decision_warnings=results.decision_warnings,
+        verify=to_verify(results.assumptions),
+        verify_vehicles=tuple(v.id for v in results.vehicles if _from_memory(v.tag)),
         since=since_view(results, d, rf_cell, lambda vid: action_text(
             results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
+
+
+_PROVISION = re.compile(r"\b(MBE|AASHTO LRFD)\s+((?:Tables?|Eqs?\.|Article)\s+)?"
+                        r"(\d[\w.]*(?:-\d+\w*)?)")
+"""A provision named in a text: "MBE Table 6A.4.2.2-1", "AASHTO LRFD 6.9.4.1.1"."""
+
+
+def to_verify(assumptions: Sequence[str]) -> tuple[str, ...]:
+    """The provisions named in the assumptions that carry a value recalled from memory, each
+    once, sorted: the list the signing engineer checks against the owner's editions (a
+    reader's finding: 176 marks scattered through a report)."""
+    found = {f"{m.group(1)} {m.group(2) or ''}{m.group(3)}".rstrip(".")
+             for a in assumptions if _from_memory(a) for m in _PROVISION.finditer(a)}
+    return tuple(sorted(found, key=lambda t: [int(x) if x.isdigit() else x
+                                              for x in re.split(r"(\d+)", t)]))
 
 
 def _from_memory(text: str) -> bool:

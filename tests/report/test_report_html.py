@@ -505,3 +505,23 @@ def test_a_flexural_torsional_check_is_explained_under_the_member_table() -> Non
     html = render_report(build_results(r))
     assert "the member&rsquo;s open section twists as it buckles (AASHTO LRFD 6.9.4.1.3)" \
         in html
+
+
+def test_the_review_block_lists_the_provisions_of_values_recalled_from_memory(
+        html_us: str) -> None:
+    """The signing engineer gets one list of what to check against the owner's editions, in
+    the review block (a reader counted 176 marks scattered through one report): the
+    provisions named beside a value from memory, once each, in article order, and the
+    vehicles whose axles are recalled from memory."""
+    from rating.report.view import to_verify
+
+    said = to_verify((
+        "gamma_LL from MBE Table 6A.4.4.2.3a-1 [value from memory]",
+        "IM 33 % (AASHTO LRFD 3.6.2.1, value from memory); also AASHTO LRFD 3.6.2.1",
+        "phi_c from MBE Table 6A.4.2.3-1 (read in the source)",
+        "K from AASHTO LRFD 4.6.2.5 [value from memory] and AASHTO LRFD 10.5.1 [M]",
+    ))
+    assert said == ("AASHTO LRFD 3.6.2.1", "AASHTO LRFD 4.6.2.5", "AASHTO LRFD 10.5.1",
+                    "MBE Table 6A.4.4.2.3a-1")
+    assert "Values recalled from memory, to be checked against the owner&rsquo;s editions" \
+        in html_us
