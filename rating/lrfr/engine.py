@@ -1035,19 +1035,29 @@ def _lacing_open(bridge: Bridge, g: TrussGeometry, cases: Sequence[RatingCase],
                             rated_members=frozenset(flagged))
     except (InputError, ConvergenceError):
         return LacingOpen(flagged, WithoutMember("a closure to consider"), True, None)
-    # the other members and the pins are as rated: where one of them is below the open
-    # members, the rating's own posting holds (its controlling member or pin is that one)
-    merged = {}
-    for cid, cp in other.postings.items():
-        rest = min([r.rf for (lab, c), r in ratings.items() if c == cid and lab not in flagged]
-                   + [p.ratings[cid].rf for p in pins if cid in p.ratings], default=math.inf)
-        merged[cid] = postings[cid] if rest < cp.rf else cp
+    merged = _merged_postings(other.postings, flagged, ratings, pins, postings)
     result = trucks_verdict(merged, other.cases, against=postings, metric=_metric(bridge))
     if result is None:
         return None
     least = min(((other.ratings[(lab, cid)].rf, cid, lab) for cid in trucks for lab in flagged
                  if (lab, cid) in other.ratings), default=None)
     return LacingOpen(flagged, result, bool(result.lowered or result.permits_lost), least)
+
+
+def _merged_postings(changed: Mapping[str, CasePosting], members: Sequence[str],
+                     ratings: Mapping[tuple[str, str], MemberCaseRating],
+                     pins: Sequence[PinRating], postings: Mapping[str, CasePosting]
+                     ) -> dict[str, CasePosting]:
+    """The postings of a rating of ``members`` alone (``changed``: their resistances changed,
+    nothing else) merged with the rating's own: the other members and the pins are as rated,
+    so where one of them is below the changed members, the rating's own posting holds (its
+    controlling member or pin is that one)."""
+    merged = {}
+    for cid, cp in changed.items():
+        rest = min([r.rf for (lab, c), r in ratings.items() if c == cid and lab not in members]
+                   + [p.ratings[cid].rf for p in pins if cid in p.ratings], default=math.inf)
+        merged[cid] = postings[cid] if rest < cp.rf else cp
+    return merged
 
 
 @dataclass(frozen=True)
@@ -1148,13 +1158,17 @@ as a local section (fracture only), found in a member's capacity warnings."""
 
 def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
                      capacities: Mapping[str, MemberCapacity],
-                     against: Mapping[str, CasePosting] | None = None
+                     ratings: Mapping[tuple[str, str], MemberCaseRating],
+                     pins: Sequence[PinRating], against: Mapping[str, CasePosting]
                      ) -> tuple[tuple[str, ...], WithoutMember] | None:
     """Loop rods whose loss at the loop is rated as a local section, where yielding would be
     lower if it ran along the bar around the pin (rating.capacity.tension): rated again with
-    that loss recorded on the body, members and pins, for the trucks at the legal level, the
-    emergency vehicles and the permits (the engineer judges where the loss lies: common
-    practice). The members and what the trucks then give; None where no rod is so."""
+    that loss recorded on the body, for the trucks at the legal level, the emergency vehicles
+    and the permits (the engineer judges where the loss lies: common practice). Those rods
+    alone are rated again: a finding changes its own member's resistance and nothing else
+    (the truss's stiffness is its sections as built, the pins' bearing the Packing sheet's),
+    and the others' ratings and the pins' are merged with theirs. The members and what the
+    trucks then give; None where no rod is so."""
     members = tuple(sorted(lab for lab, cap in capacities.items()
                            if any(LOOP_LOSS_LOCAL in w for w in cap.warnings)))
     if not members or not _truck_ids(cases):
@@ -1164,12 +1178,14 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
         if f.member in members and f.region is FindingRegion.THREAD else f
         for f in bridge.findings))
     try:
-        other = rate_bridge(variant, _sensitivity_ids(cases), what_if=False, capacities={
-            lab: cap for lab, cap in capacities.items() if lab not in members})
+        other = rate_bridge(replace(variant, pins=()), _sensitivity_ids(cases), what_if=False,
+                            capacities={lab: cap for lab, cap in capacities.items()
+                                        if lab not in members},
+                            rated_members=frozenset(members))
     except (InputError, ConvergenceError):
         return members, WithoutMember("a closure to consider")
-    result = trucks_verdict(other.postings, other.cases, against=against,
-                            metric=_metric(bridge))
+    merged = _merged_postings(other.postings, members, ratings, pins, against)
+    result = trucks_verdict(merged, other.cases, against=against, metric=_metric(bridge))
     return None if result is None else (members, result)
 
 
@@ -1605,7 +1621,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 "sections)", f"the sections of {members} are open", lacing.result))
         elif lacing is not None:
             assumptions.append(lacing_note(lacing))
-        loops = _loop_loss_along(bridge, cases, capacities, postings)
+        loops = _loop_loss_along(bridge, cases, capacities, ratings, pins, postings)
         if loops is not None:
             warnings.append(loop_loss_text(*loops, main))
             names = ", ".join(loops[0])
