@@ -1159,7 +1159,10 @@ as a local section (fracture only), found in a member's capacity warnings."""
 def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
                      capacities: Mapping[str, MemberCapacity],
                      ratings: Mapping[tuple[str, str], MemberCaseRating],
-                     pins: Sequence[PinRating], against: Mapping[str, CasePosting]
+                     pins: Sequence[PinRating], against: Mapping[str, CasePosting],
+                     again: Callable[[Sequence[str], Bridge],
+                                     dict[tuple[str, str], MemberCaseRating] | None]
+                     | None = None, geometry: TrussGeometry | None = None
                      ) -> tuple[tuple[str, ...], WithoutMember] | None:
     """Loop rods whose loss at the loop is rated as a local section, where yielding would be
     lower if it ran along the bar around the pin (rating.capacity.tension): rated again with
@@ -1167,8 +1170,10 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
     and the permits (the engineer judges where the loss lies: common practice). Those rods
     alone are rated again: a finding changes its own member's resistance and nothing else
     (the truss's stiffness is its sections as built, the pins' bearing the Packing sheet's),
-    and the others' ratings and the pins' are merged with theirs. The members and what the
-    trucks then give; None where no rod is so."""
+    and the others' ratings and the pins' are merged with theirs. ``again`` rates rods off
+    the load path on the rating's own live and dead loads (rate_bridge's, with the
+    ``geometry`` rated); others are rated by a rating of those rods alone. The members and
+    what the trucks then give; None where no rod is so."""
     members = tuple(sorted(lab for lab, cap in capacities.items()
                            if any(LOOP_LOSS_LOCAL in w for w in cap.warnings)))
     if not members or not _truck_ids(cases):
@@ -1177,8 +1182,18 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
         replace(f, region=FindingRegion.BODY)
         if f.member in members and f.region is FindingRegion.THREAD else f
         for f in bridge.findings))
+    ids = _sensitivity_ids(cases)
+    quick = again(members, variant) if again is not None and geometry is not None else None
+    if quick is not None:
+        chosen = tuple(c for c in cases if c.load.id in ids)
+        kept = {c.id for c in chosen}
+        merged = _postings(chosen, {**{k: r for k, r in ratings.items() if k[1] in kept},
+                                    **{k: r for k, r in quick.items() if k[1] in kept}},
+                           pins, geometry)
+        result = trucks_verdict(merged, chosen, against=against, metric=_metric(bridge))
+        return None if result is None else (members, result)
     try:
-        other = rate_bridge(replace(variant, pins=()), _sensitivity_ids(cases), what_if=False,
+        other = rate_bridge(replace(variant, pins=()), ids, what_if=False,
                             capacities={lab: cap for lab, cap in capacities.items()
                                         if lab not in members},
                             rated_members=frozenset(members))
@@ -1381,17 +1396,23 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
     capacities: dict[str, MemberCapacity] = {}
     # the torsion analysis of each distinct section after loss, shared by the members
     torsion_found: dict = {}
+
+    def capacity_of(m: Member, of: Bridge) -> MemberCapacity:
+        """The member's resistance with the design and findings of ``of`` (this bridge, or a
+        what-if of it with other findings)."""
+        return member_capacity(of.design_of(m.label), m.role, g.member_length_ft(m.label),
+                               of.findings_for(m.label), m.tension_only,
+                               own_weight_klf=_across_weight_klf(g, m, weights[m.label],
+                                                                 st.detail_allowance),
+                               gamma_dc=dead_f["gamma_dc_max"].value,
+                               torsion_found=torsion_found,
+                               connectors_close=m.label not in open_sections)
+
     for m in g.members:
         design = bridge.design_of(m.label)
         cap = known.get(m.label)
         if cap is None:
-            cap = member_capacity(design, m.role,
-                                  g.member_length_ft(m.label), bridge.findings_for(m.label),
-                                  m.tension_only, own_weight_klf=_across_weight_klf(
-                                      g, m, weights[m.label], st.detail_allowance),
-                                  gamma_dc=dead_f["gamma_dc_max"].value,
-                                  torsion_found=torsion_found,
-                                  connectors_close=m.label not in open_sections)
+            cap = capacity_of(m, bridge)
         capacities[m.label] = cap
         warnings.extend(cap.warnings)
         assumptions.extend(cap.assumptions)
@@ -1500,6 +1521,8 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
         member_envs: dict[str, list[MemberEnvelope]] = {}
         for m in g.members:
             lab = m.label
+            if rated_members is not None and lab not in rated_members:
+                continue  # (a what-if of some members: the others' live loads are not used)
             # one envelope per distinct line of the member over the active sets, each with
             # the first set that has it (the same maxima as searching every set)
             mine = [(envs.of_row(case.load, im, row), c) for row, c in distinct_rows[lab]]
@@ -1621,7 +1644,28 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
                 "sections)", f"the sections of {members} are open", lacing.result))
         elif lacing is not None:
             assumptions.append(lacing_note(lacing))
-        loops = _loop_loss_along(bridge, cases, capacities, ratings, pins, postings)
+
+        def linear_again(labs: Sequence[str], variant: Bridge
+                         ) -> dict[tuple[str, str], MemberCaseRating] | None:
+            """The ratings of members off the load path with the findings of ``variant``: the
+            same live loads and dead loads, their resistances alone changed (None where one
+            of them is on the load path, or out of service)."""
+            if any(lab in dependent or lab in out_of_service for lab in labs):
+                return None
+            out = {}
+            for lab in labs:
+                m = g.member(lab)
+                cap = capacity_of(m, variant)
+                res = _resistances(cap)
+                for case in cases:
+                    pls = [replace(pl, capacity=res[pl.name][0], check=res[pl.name][1])
+                           for pl in plans_of[case.id][lab]]
+                    out[(lab, case.id)] = _rate_linear(m, cap, case, DC[lab], DW[lab],
+                                                       DWs[lab], pls, dead_f)
+            return out
+
+        loops = _loop_loss_along(bridge, cases, capacities, ratings, pins, postings,
+                                 again=linear_again, geometry=g)
         if loops is not None:
             warnings.append(loop_loss_text(*loops, main))
             names = ", ".join(loops[0])

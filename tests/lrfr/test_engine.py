@@ -1045,3 +1045,45 @@ def test_the_limit_state_is_said_once():
     r = rate_bridge(make_pratt_bridge(pins=False), ["TYPE-3", "SU4"], what_if=False)
     assert r.assumptions.count(SERVICE_II_NOTE) == 1
     assert "Service II" in SERVICE_II_NOTE and "strength limit state" in SERVICE_II_NOTE
+
+
+def _parker_bridge():
+    from pathlib import Path
+
+    from rating.inventory.reader import read_workbook
+
+    path = Path(__file__).resolve().parents[2] / "sample_inventory" / "tc0622_parker_1907.xlsx"
+    return read_workbook(path).bridge
+
+
+@pytest.mark.parametrize("counter_loss", [False, True])
+def test_the_loop_sensitivity_rates_the_rods_alone_as_a_whole_rating_would(counter_loss):
+    """The loop rods' loss taken along the bar (``_loop_loss_along``): the rods off the load
+    path are rated again on the rating's own live and dead loads (``again``), the others by a
+    rating of those rods alone; either way the trucks' verdict is the one a rating of the
+    whole bridge with that loss on the body gives (a finding changes its own member's
+    resistance only). With loss also at a counter's loop, the rods include one on the load
+    path."""
+    from rating.lrfr.engine import _loop_loss_along, trucks_verdict
+    from rating.model import Finding, FindingRegion
+
+    bridge = _parker_bridge()
+    if counter_loss:
+        bridge = replace(bridge, findings=bridge.findings + (Finding(
+            "U5L6", "rod 1", FindingRegion.THREAD, 0.4, percent_loss=35.0,
+            where="Findings!B99"),))
+    rating = rate_bridge(bridge)
+    cond = next(c for c in rating.conditions if "loop" in c.holds)
+    members, slow = _loop_loss_along(bridge, rating.cases, rating.capacities, rating.ratings,
+                                     rating.pins, rating.postings)
+    assert slow == cond.result
+    assert ("U5L6" in members) == counter_loss
+    # the whole bridge rated again with those losses on the body, members and pins
+    whole = replace(bridge, findings=tuple(
+        replace(f, region=FindingRegion.BODY)
+        if f.member in members and f.region is FindingRegion.THREAD else f
+        for f in bridge.findings))
+    ids = [c.id for c in rating.cases if c.postable or c.category.is_permit]
+    other = rate_bridge(whole, [i for i in ids if i != "NRL"], what_if=False)
+    assert trucks_verdict(other.postings, other.cases, against=rating.postings,
+                          metric=False) == cond.result
