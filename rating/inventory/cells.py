@@ -22,6 +22,9 @@ _TRUE = frozenset({"yes", "y", "true", "1", "x"})
 _FALSE = frozenset({"no", "n", "false", "0"})
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f]")
 _SPACES = re.compile(r"\s+")
+_INVISIBLE = re.compile("[\u00ad\u200b-\u200f\u2060-\u2064\ufeff]")
+"""Characters that show nothing (a zero-width space, a soft hyphen, a byte-order mark): in
+an id they make it differ from the same id typed elsewhere, with nothing to see."""
 _LIST_SEPARATOR = re.compile(r"[,;]")
 _LIST_NUMBER = re.compile(r"\d{1,3}")
 # 1-1/4, 1 1/4, 3/4, optional trailing inch mark
@@ -239,6 +242,10 @@ def parse_text(raw: object, col: Column) -> Parsed | Invalid:
         t = _SPACES.sub(" ", t)
         if "," in t:
             return Invalid(f"must be a single id without commas; found {describe(t)}")
+        hidden = _INVISIBLE.search(t)
+        if hidden:  # (pasted from a web page or a PDF: the id would match no other)
+            return Invalid(f"contains an invisible character (U+{ord(hidden.group()):04X}); "
+                           "retype the id")
     return Parsed(t)
 
 
@@ -287,6 +294,10 @@ def parse_list(raw: object, col: Column) -> Parsed | Invalid:
         return Invalid("contains control characters; retype the value")
     items = [s.strip() for s in _LIST_SEPARATOR.split(t) if s.strip()]
     if col.kind is Kind.LABELLIST:
+        hidden = _INVISIBLE.search(t)
+        if hidden:
+            return Invalid(f"contains an invisible character (U+{ord(hidden.group()):04X}); "
+                           "retype the ids")
         too_long = [s for s in items if len(s) > col.max_length]
         if too_long:
             return Invalid(f"has an id longer than {col.max_length} characters")

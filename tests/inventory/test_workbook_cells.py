@@ -167,3 +167,13 @@ def test_an_inch_mark_in_a_millimetre_column_is_not_a_number_of_millimetres(raw:
     assert ok(raw, DIM) == pytest.approx(1.0)
     assert ok("25 mm", DIM, si=True) == pytest.approx(25.0 / 25.4)
     assert "must be a number in inches" in bad("38 mm", DIM)
+
+
+@pytest.mark.parametrize("hidden", ["\u200b", "\ufeff", "\u00ad", "\u2060"])
+def test_an_id_with_an_invisible_character_is_refused_naming_it(hidden: str) -> None:
+    """An id pasted with a zero-width space (or a soft hyphen, a byte-order mark) matches no
+    other id while looking the same; it is refused at its cell, with the character named (a
+    prober found "member L1L2 is not a member" with nothing to see)."""
+    assert f"invisible character (U+{ord(hidden):04X})" in bad("L1L2" + hidden, LABEL)
+    assert "invisible character" in bad(f"SU4, T{hidden}YPE-3", IDS)
+    assert ok(" L1L2 ", LABEL) == "L1L2"
