@@ -100,6 +100,9 @@ def _open_container(path: Path) -> zipfile.ZipFile:
     if not path.is_file():
         raise InputError("this is a folder, not a workbook file", where=str(path))
     if path.suffix.lower() == ".xls":
+        if zipfile.is_zipfile(path):  # (an .xlsx workbook renamed: its content says so)
+            raise InputError("this file is named .xls but holds an .xlsx workbook; rename it "
+                             "to .xlsx", where=str(path))
         raise InputError("this is an old-format .xls file; open it in the spreadsheet program "
                          "and save it as an .xlsx workbook", where=str(path))
     try:

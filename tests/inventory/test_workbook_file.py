@@ -24,6 +24,8 @@ def test_openpyxl_parses_with_defusedxml() -> None:
 @pytest.mark.parametrize("name, data, needle", [
     ("old.xls", b"\xd0\xcf\x11\xe0", "old-format .xls"),
     ("text.xlsx", b"structure,name\n", "not an .xlsx workbook"),
+    # an .xlsx renamed .xls: a zip container (an empty one here), named for what it is
+    ("renamed.xls", b"PK\x05\x06" + bytes(18), "named .xls but holds an .xlsx workbook"),
 ])
 def test_refused_files(tmp_path: Path, name: str, data: bytes, needle: str) -> None:
     path = tmp_path / name
