@@ -156,6 +156,21 @@ class LinearTruss:
             np.fmax.at(hi, t.ends[:, k], omega)
             np.fmin.at(lo, t.ends[:, k], omega)
         spread = np.where(np.isfinite(hi - lo), hi - lo, 0.0)
+        moved = np.abs(np.where(self.active_mask[:, None], rel, 0.0)).max(initial=0.0)
+        if moved < 1e-6 * np.abs(u).max() and self.geometry.supports:
+            # the whole truss moves as one body: its supports, not its members, let it
+            j = self.geometry.joint_index[self.geometry.supports[0].joint]
+            ux, uy = u.mean(axis=0)
+            ang = float(np.degrees(np.arctan2(uy, ux))) % 180.0
+            direction = ("horizontal (x)" if ang < 10 or ang > 170 else "vertical (y)"
+                         if 80 < ang < 100 else f"at {ang:.0f} degrees to the horizontal")
+            how = {"horizontal (x)": "horizontally", "vertical (y)": "vertically"}.get(
+                direction, direction)
+            raise InstabilityError(
+                f"the supports do not hold the truss: it can slide {how} as a whole "
+                "without stretching any member; give one bearing a pin (the Joints sheet's "
+                "support column: one pin and one roller for a simple span)",
+                self.geometry.joints[j].label, direction)
         j = int(np.argmax(spread)) if spread.max() > 0 else int(
             np.argmax(np.hypot(u[:, 0], u[:, 1])))
         joint = self.geometry.joints[j].label

@@ -452,6 +452,13 @@ def _explicit_supports() -> tuple[dict, Edit | None]:
     return d, None
 
 
+@group("explicit-rollers")
+def _explicit_rollers() -> tuple[dict, Edit | None]:
+    d = explicit()
+    d["tables"]["Joints"][0]["support"] = "roller"  # both bearings rollers: it slides
+    return d, None
+
+
 @group("explicit-empty")
 def _explicit_empty() -> tuple[dict, Edit | None]:
     d = explicit()
@@ -486,6 +493,9 @@ CASES += [
          "End joint of member L1L2 is joint 'L9', which is not on the Joints sheet"),
     Case("start missing", "explicit-refs", cell("Members", 2, "start"),
          "Start joint of member L0U1 is needed for explicit geometry"),
+    Case("two rollers: the supports named, not a joint of the truss", "explicit-rollers",
+         cell("Joints", 0, "joint"), "the supports do not hold the truss: it can slide "
+         "horizontally as a whole without stretching any member; give one bearing a pin"),
     Case("no supports", "explicit-supports", header("Joints", "support"),
          "no joint is marked as a support (pin or roller)"),
     Case("one deck point", "explicit-supports", header("Joints", "deck"),
