@@ -42,6 +42,11 @@ not a change of the bridge: a threshold of judgement (common practice for a scre
 
 _ACTION_RANK = {"none": 0, "post": 1, "close": 2}
 
+CLOSURE_FIRST = "Consider closing the bridge"
+"""How a recommendation that leads with a closure to consider begins, outright or until a
+condition is confirmed (rating.results_build.recommendation; rating.results.CLOSING_UNLESS):
+the bridge's own outcome, whatever each vehicle's."""
+
 
 @dataclass(frozen=True)
 class PreviousCase:
@@ -291,7 +296,9 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
         out_of_order=order == "later",
         trucks_before=then_trucks[0], limit_before=then_trucks[1],
         trucks_now=now_trucks[0], limit_now=now_trucks[1], weight_unit_before=then_weight,
-        recommendation_before=previous.recommendation)
+        recommendation_before=previous.recommendation,
+        closure_first_before=previous.recommendation.startswith(CLOSURE_FIRST),
+        closure_first_now=results.recommendation.startswith(CLOSURE_FIRST))
     return dataclasses.replace(since, headline=headline(since, weight, level))
 
 
@@ -660,10 +667,23 @@ def direction(c: VehicleChange, level: str, weight: str, then_weight: str = "") 
     return 0
 
 
+def closure_words(since: SincePrevious) -> str:
+    """The change of the recommendation's lead in words: a closure to consider now put first
+    (outright or until a condition is confirmed), or no longer; "" where it is the same."""
+    if since.closure_first_now and not since.closure_first_before:
+        return "the recommendation now leads with a closure to consider"
+    if since.closure_first_before and not since.closure_first_now:
+        return "the recommendation no longer leads with a closure to consider"
+    return ""
+
+
 def worse_since(since: SincePrevious, levels: Mapping[str, str], weight: str) -> bool:
-    """Whether any outcome is worse than at the previous rating: a case's (:func:`direction`)
-    or the trucks' (a weight limit lowered, a posting or closing now called for)."""
+    """Whether any outcome is worse than at the previous rating: the recommendation's (a
+    closure now put first), a case's (:func:`direction`) or the trucks' (a weight limit
+    lowered, a posting or closing now called for)."""
     unit = since.weight_unit_before or weight
+    if since.closure_first_now and not since.closure_first_before:
+        return True
     return _truck_rank(since, weight) < 0 or any(
         direction(c, levels.get(c.vehicle, ""), weight, unit) < 0 for c in since.vehicles)
 
@@ -685,6 +705,9 @@ def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> st
     higher = len(rf_moved) - lower
     findings = sum(1 for e in since.elements if e.findings_changed)
     parts = []
+    lead = closure_words(since)
+    if lead:
+        parts.append(lead)
     trucks = truck_words(since, weight)
     if trucks:
         parts.append(trucks)
@@ -692,7 +715,7 @@ def headline(since: SincePrevious, weight: str, levels: Mapping[str, str]) -> st
         parts.append("worse: " + "; ".join(worse))
     if better:
         parts.append("better: " + "; ".join(better))
-    if not worse and not better and not trucks:
+    if not worse and not better and not trucks and not lead:
         parts.append("no posting, closing or permit verdict changed")
     parts.append(f"{_count(lower, 'member or pin', 'members or pins')} "
                  f"{'rates' if lower == 1 else 'rate'} lower and {higher} higher by more than "

@@ -422,6 +422,8 @@ class SincePrevious:
     limit_now: float | None = q("single weight limit for trucks now", "weight", default=None)
     weight_unit_before: str = ""  # the unit the previous rating posted in ("ton", "tonne")
     recommendation_before: str = ""  # the previous rating's recommendation, as it read
+    closure_first_before: bool = False  # its recommendation led with a closure to consider
+    closure_first_now: bool = False  # this one's does ("Consider closing the bridge ...")
 
 
 @dataclass(frozen=True)

@@ -536,3 +536,23 @@ def test_a_member_that_moved_with_unchanged_findings_says_so_and_its_move_checks
     from rating.results import reported_rf
     printed = reported_rf(e.rf_now) / reported_rf(e.rf_before) - 1.0
     assert row.move == f"{printed * 100:+.0f} %".replace("-", "\u2212")
+
+
+def test_a_closure_now_put_first_is_worse_whatever_each_vehicle_says(tmp_path: Path) -> None:
+    """The same postings, but the recommendation now leads with a closure to consider (a new
+    condition found, say): worse, and said first (a reviewer found "no posting, closing or
+    permit verdict changed" above a box that now read "Consider closing the bridge unless
+    ...")."""
+    results = sample_results()
+    now = dataclasses.replace(results, recommendation="Consider closing the bridge unless "
+                              "L3U4 is confirmed to act (recorded bent): ... If L3U4 is "
+                              "confirmed to act (recorded bent): post the bridge.")
+    since = compare(now, read_previous(_write(tmp_path, _earlier())))
+    assert since.closure_first_now and not since.closure_first_before
+    assert worse_since(since, {}, "ton")
+    assert since.headline.startswith("Since the rating of the inspection of 2022-05-10: the "
+                                     "recommendation now leads with a closure to consider;")
+    back = compare(results, read_previous(_write(tmp_path, _earlier(
+        lambda d: d.__setitem__("recommendation", now.recommendation)))))
+    assert not worse_since(back, {}, "ton")
+    assert "no longer leads with a closure to consider" in back.headline
