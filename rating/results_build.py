@@ -359,16 +359,21 @@ def recommendation(rating: BridgeRating, unit: str,
               for c in rating.conditions if _consequence(c.result, main)]
     # (holds, fails, what the trucks give then, what the engineer should then consider)
     clauses: list[tuple[str, str, str, str]] = []
-    if hinge:
-        one = len(hinge) == 1
-        names = ", ".join(w.what(m) for m, w in hinge.items())
-        who = names if others else "it" if one else "they"  # (named where others follow)
+    # the bent members by what their not acting would call for: a clause for each (a member
+    # that would only lower the postings is not joined to one that would close the bridge)
+    groups: dict[str, dict[str, WithoutMember]] = {}
+    for m, w in hinge.items():
+        groups.setdefault(_consequence(w, main), {})[m] = w
+    for consequence, group in groups.items():
+        one = len(group) == 1
+        names = ", ".join(w.what(m) for m, w in group.items())
+        # (named where other clauses follow)
+        who = names if others or len(groups) > 1 else "it" if one else "they"
         clauses.append((
             f"{names} {'is' if one else 'are'} confirmed to act (recorded bent)",
             f"{who} {'does' if one else 'do'} not act",
-            "; ".join(f"without {w.what(m)}, {lowest(w)}" for m, w in hinge.items())
-            + "; members only, see the warning", _gravest(
-                [_consequence(w, main) for w in hinge.values()])))
+            "; ".join(f"without {w.what(m)}, {lowest(w)}" for m, w in group.items())
+            + "; members only, see the warning", consequence))
     clauses += others
     if not clauses or text.startswith("Consider closing"):
         return text.removesuffix(DECISION_NOTE) + _permit_text(rating) + DECISION_NOTE

@@ -268,13 +268,17 @@ def test_two_bent_members_say_the_gravest_consequence(pony_rating):
     closing = WithoutMember("a closure to consider", 0.12, "SU7", "U1L2")
     rec = build_results(replace(pony_rating, conditions=(),
                                 without={"L2U3": lower, "U1L2": closing})).recommendation
-    # the closure first: a bent member is taken as not acting until it is confirmed to
-    assert rec.startswith("Consider closing the bridge unless L2U3, U1L2 are confirmed to act "
-                          "(recorded bent): without L2U3, lowest truck RF 0.40 (SU4, U2L3); "
-                          "posted lower: Specialized hauling vehicle SU4 3 tonnes (9 as "
-                          "rated); without U1L2, lowest truck RF 0.12 (SU7, U1L2); members "
-                          "only, see the warning. If L2U3, U1L2 are confirmed to act (recorded "
-                          "bent): post the bridge.")
+    # the closure first, for the member whose not acting would close the bridge alone (a
+    # bent member is taken as not acting until it is confirmed to); the one that would only
+    # lower the postings follows with its own clause (a reviewer found them joined)
+    assert rec.startswith("Consider closing the bridge unless U1L2 is confirmed to act "
+                          "(recorded bent): without U1L2, lowest truck RF 0.12 (SU7, U1L2); "
+                          "members only, see the warning. If L2U3 is confirmed to act "
+                          "(recorded bent) and U1L2 is confirmed to act (recorded bent): post "
+                          "the bridge.")
+    assert ("If L2U3 does not act, post the bridge for lower loads (without L2U3, lowest "
+            "truck RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 "
+            "tonnes (9 as rated); members only, see the warning).") in rec
 
 
 def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
