@@ -8,8 +8,6 @@ from dataclasses import replace
 from itertools import accumulate
 from typing import NamedTuple
 
-import numpy as np
-
 from rating import __version__
 from rating.analysis.moving import Direction, Extreme
 from rating.capacity.pins import PHI_B, PinCheck, PlateLoad
@@ -216,15 +214,17 @@ def _finding(f: Finding | None, text, memo: dict | None, rod: bool = False) -> s
 _FLOAT_ONLY = frozenset((float,))
 
 
-def _path_dw_factors(rating: BridgeRating) -> dict[float, float]:
-    """The nominal gamma_DW of a rating on the load path (the key of its factored dead state,
-    rating.lrfr.engine._dead_states) -> the weighted gamma_DW its DW took: a wearing surface
-    of measured thickness factored apart from the rest of DW (rating.lrfr.factors.factored_dw),
-    so that the factor printed beside the rating is the one applied (a reviewer's hand check
-    failed on the nominal 1.50). Empty where there is no such surface."""
+def _path_dw_factor(rating: BridgeRating, index: int) -> Mapping[float, float]:
+    """For a rating on the load path of member ``index``: the nominal gamma_DW (the key of its
+    factored dead state, rating.lrfr.engine._dead_states) -> the weighted gamma_DW its DW
+    took, a wearing surface of measured thickness factored apart from the rest of DW
+    (rating.lrfr.factors.factored_dw), weighted by the member's own DW forces from each, so
+    that gamma_DC DC + gamma_DW DW of its DC and DW is the factored dead load where the dead
+    state is the linear one (a reviewer's hand check failed on the nominal 1.50, and then on
+    a whole-bridge weighting). Empty where there is no such surface in the member."""
     dead = rating.dead
-    dw, surf = (float(np.sum(dead.joint_loads_dw_kip)),
-                float(np.sum(dead.joint_loads_dw_surface_kip)))
+    dw = float(dead.member_forces_dw_kip[index])
+    surf = float(dead.member_forces_dw_surface_kip[index])
     if not surf or not dw:
         return {}
     f = dead_load_factors(rating.bridge.settings.wearing_surface_measured)
@@ -640,7 +640,6 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
     members = []
     cases = [(case.id, case.load, case.im.value) for case in rating.cases]
     live_of, rating_of = rating.live, rating.ratings
-    path_dw = _path_dw_factors(rating)
     for m in g.members:
         cap = rating.capacities[m.label]
         rod = isinstance(rating.bridge.design_of(m.label).section, RodSet)
@@ -656,8 +655,10 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             r = rating_of[(m.label, cid)]
             ext = r.extreme  # most often one of the two extremes, placed just above
             at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
-            if r.method == "load multiplier" and r.gamma_dw in path_dw:
-                r = replace(r, gamma_dw=path_dw[r.gamma_dw])
+            if r.method == "load multiplier":
+                path_dw = _path_dw_factor(rating, i)
+                if r.gamma_dw in path_dw:
+                    r = replace(r, gamma_dw=path_dw[r.gamma_dw])
             ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
                                   _finding(r.finding, text, positions, rod),
                                   r.dead_at_rating, r.live_at_rating, r.slack_at_rating)
