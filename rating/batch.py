@@ -592,7 +592,8 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
     vehicles = vehicle_order(rows)
     head = ["workbook", "status", "structure", "bridge", "location", "inspection date",
             "weight unit", "deciding truck RF", "deciding truck", "action",
-            "rests on a condition", "recommendation", "read before deciding",
+            "closure to consider", "rests on a condition", "recommendation",
+            "read before deciding",
             "since the previous rating", "worse than at the previous rating", "errors",
             "warnings", "problems",
             "report", "results"]
@@ -608,6 +609,7 @@ def summary_csv(rows: Sequence[BridgeRow]) -> str:
                 _cell(r.name), _cell(r.location), r.inspection_date,
                 r.weight_unit if r.rated else "", _rf_text(low.rf) if low else "",
                 _cell(low.vehicle) if low else "", r.action,
+                "yes" if r.closure_to_consider else "",
                 "yes" if r.conditional else "", _cell(r.recommendation),
                 _cell(" | ".join(r.decision_warnings)), _cell(r.since),
                 "yes" if r.worse else "", str(len(r.errors)),
@@ -722,7 +724,9 @@ def render_index(summary: BatchSummary, max_problems: int = 30) -> str:
                          tuple(_first_clause(w) for w in r.decision_warnings))
         (rated if r.rated else failed).append(item)
     counts = {"total": len(summary.rows), "rated": len(rated), "failed": len(failed),
-              "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)),
+              # (each bridge counted once: one that leads with a closure is not also posted)
+              "post": sum(1 for r in summary.rows if r.action in ("post", EV_ONLY)
+                          and not r.closure_to_consider),
               "close": sum(1 for r in summary.rows if r.closure_to_consider),
               "read": sum(1 for r in summary.rows if r.decision_warnings),
               "conditional": sum(1 for r in summary.rows if r.conditional),

@@ -673,6 +673,10 @@ def test_a_closure_resting_on_a_condition_is_counted_as_one_to_consider() -> Non
     plain = replace(row, recommendation="Post the bridge. Safe posting loads ...")
     assert not plain.conditional and not plain.closure_to_consider
     assert replace(plain, action="close").closure_to_consider
+    # in the summary: a column of its own, and counted once (not also as a posting)
+    rows = _csv_rows_of(summary_csv([row, plain]))
+    assert [r["closure to consider"] for r in rows] == ["yes", ""]
+    assert [r["action"] for r in rows] == ["post", "post"]  # (the trucks' own, as rated)
 
 
 def test_a_broken_link_named_like_a_workbook_is_listed_not_passed_over(tmp_path: Path) -> None:
@@ -682,3 +686,7 @@ def test_a_broken_link_named_like_a_workbook_is_listed_not_passed_over(tmp_path:
     s = rate_folder(folder, tmp_path / "out", workers=1, rate=fake_rate)
     gone = next(r for r in s.rows if r.workbook == "gone.xlsx")
     assert not gone.rated and "could not be read" in gone.errors[0]
+
+
+def _csv_rows_of(text: str) -> list[dict[str, str]]:
+    return list(csv.DictReader(io.StringIO(text.lstrip("\ufeff"))))
