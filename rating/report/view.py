@@ -888,23 +888,38 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
         band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
         decision_warnings=results.decision_warnings,
-        verify=to_verify(results.assumptions),
+        verify=to_verify([*results.assumptions, *results.warnings, results.recommendation,
+                          *{c.provision for m in results.members if m.resistance
+                            for c in m.resistance.checks}]),
         verify_vehicles=tuple(v.id for v in results.vehicles if _from_memory(v.tag)),
         since=since_view(results, d, rf_cell, lambda vid: action_text(
             results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
 
 
-_PROVISION = re.compile(r"\b(MBE|AASHTO LRFD)\s+((?:Tables?|Eqs?\.|Article)\s+)?"
-                        r"(\d[\w.]*(?:-\d+\w*)?)")
-"""A provision named in a text: "MBE Table 6A.4.2.2-1", "AASHTO LRFD 6.9.4.1.1"."""
+_PROVISION = re.compile(
+    r"\b(?:(MBE|AASHTO LRFD)\s+((?:Tables?|Eqs?\.|Article)\s+)?(\d[\w.]*(?:-\d+\w*)?)"
+    r"|(AISC 360-\d+)\s+([A-K]\d[\w.]*(?:\([a-z]\))?))")
+"""A provision named in a text: "MBE Table 6A.4.2.2-1", "AASHTO LRFD 6.9.4.1.1", "AISC
+360-10 E7.1(c)"."""
+
+_MEMORY_MARK = re.compile(r"from memory|\[M\]|\(M\)")
 
 
-def to_verify(assumptions: Sequence[str]) -> tuple[str, ...]:
-    """The provisions named in the assumptions that carry a value recalled from memory, each
-    once, sorted: the list the signing engineer checks against the owner's editions (a
-    reader's finding: 176 marks scattered through a report)."""
-    found = {f"{m.group(1)} {m.group(2) or ''}{m.group(3)}".rstrip(".")
-             for a in assumptions if _from_memory(a) for m in _PROVISION.finditer(a)}
+def to_verify(texts: Iterable[str]) -> tuple[str, ...]:
+    """The provisions named in ``texts`` (the assumptions, the warnings, the checks'
+    provisions, the recommendation) whose value is marked recalled from memory: each
+    reference with a mark before the next reference, once each, in article order. The list
+    the signing engineer checks against the owner's editions (a reader's finding: the marks
+    were scattered through a report of sixty pages)."""
+    found = set()
+    for text in texts:
+        refs = list(_PROVISION.finditer(text))
+        for k, m in enumerate(refs):
+            end = refs[k + 1].start() if k + 1 < len(refs) else len(text)
+            if _MEMORY_MARK.search(text, m.end(), end):
+                name = (f"{m.group(1)} {m.group(2) or ''}{m.group(3)}" if m.group(1)
+                        else f"{m.group(4)} {m.group(5)}")
+                found.add(name.rstrip("."))
     return tuple(sorted(found, key=lambda t: [int(x) if x.isdigit() else x
                                               for x in re.split(r"(\d+)", t)]))
 

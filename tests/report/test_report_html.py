@@ -519,9 +519,24 @@ def test_the_review_block_lists_the_provisions_of_values_recalled_from_memory(
         "gamma_LL from MBE Table 6A.4.4.2.3a-1 [value from memory]",
         "IM 33 % (AASHTO LRFD 3.6.2.1, value from memory); also AASHTO LRFD 3.6.2.1",
         "phi_c from MBE Table 6A.4.2.3-1 (read in the source)",
-        "K from AASHTO LRFD 4.6.2.5 [value from memory] and AASHTO LRFD 10.5.1 [M]",
+        "K from AASHTO LRFD 4.6.2.5 [value from memory] and AASHTO LRFD 10.5.1 [V]",
+        "AISC 360-10 E7.1(c). [value from memory]",
+        "dead-load factors of AASHTO LRFD 3.4.1 [V]; gamma_DW 1.25 of MBE 6A.4.2.2 [M]",
     ))
-    assert said == ("AASHTO LRFD 3.6.2.1", "AASHTO LRFD 4.6.2.5", "AASHTO LRFD 10.5.1",
-                    "MBE Table 6A.4.4.2.3a-1")
+    # (a reference marked read, [V], is not listed; one marked from memory is, wherever
+    # the mark is before the next reference)
+    assert said == ("AASHTO LRFD 3.6.2.1", "AASHTO LRFD 4.6.2.5", "AISC 360-10 E7.1(c)",
+                    "MBE 6A.4.2.2", "MBE Table 6A.4.4.2.3a-1")
     assert "Values recalled from memory, to be checked against the owner&rsquo;s editions" \
         in html_us
+
+
+def test_the_list_to_verify_of_a_sample_names_the_checks_that_govern(sample_outcomes
+                                                                      ) -> None:
+    """On the Parker sample the tension check of its controlling hanger (AASHTO LRFD 6.8.2.1,
+    [value from memory] in the member's check) and the permit's article are listed, found
+    in the checks and the recommendation, not in the assumptions alone (a reviewer's
+    finding)."""
+    parker = next(o for o in sample_outcomes if "parker" in o.workbook.name)
+    view = build_view(parker.results)
+    assert "AASHTO LRFD 6.8.2.1" in view.verify
