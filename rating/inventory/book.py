@@ -302,7 +302,7 @@ def _grid(name: str, ncols: int, max_rows: int, rows_read: Iterable[Sequence[obj
     truncated = False
     for r, vrow in enumerate(rows_read, start=1):
         if r > max_rows:
-            truncated = any(v is not None for v in vrow)
+            truncated = any(_holds(v) for v in vrow)
             beyond = r if truncated else beyond
             break
         if type(vrow) is tuple and len(vrow) == ncols:
@@ -327,9 +327,15 @@ def _first_beyond(ws: Any, last: int, ncols: int) -> int | None:
         return None
     for r, vrow in enumerate(ws.iter_rows(min_row=last + 1, max_col=ncols, values_only=True),
                              start=last + 1):
-        if any(v is not None for v in vrow):
+        if any(_holds(v) for v in vrow):
             return r
     return None
+
+
+def _holds(value: object) -> bool:
+    """A cell holds an entry: a value other than nothing or blank text (a lone space far down
+    a sheet is no entry)."""
+    return value is not None and not (isinstance(value, str) and not value.strip())
 
 
 def _shown_values(rows: Iterable[Sequence[Any]]) -> Iterator[tuple[object, ...]]:

@@ -797,7 +797,8 @@ class _SheetReader:
                         continue
                     values = grid[row] = [None] * ncols
                 values[col - 1] = got
-            elif got is not None and col <= ncols and self.beyond is None and not inside:
+            elif (got is not None and col <= ncols and self.beyond is None and not inside
+                  and not (got.__class__ is str and not got.strip())):  # (a space: blank)
                 self.beyond = row
         return True
 
@@ -860,7 +861,7 @@ class _SheetReader:
         (the last cell of a place counts, as in openpyxl)."""
         col = self.column(letters)
         if value is not None and col <= self.ncols and row > self.max_rows + 1 \
-                and self.beyond is None:
+                and self.beyond is None and not (isinstance(value, str) and not value.strip()):
             self.beyond = row
         if col <= self.ncols and row <= self.max_rows + 1:
             values = self.grid.get(row)

@@ -209,3 +209,10 @@ def test_an_optional_item_whose_row_is_gone_is_named_at_the_sheets_first_cell(
     said = [p for p in r.warnings if "ADTT is not given" in p.message]
     assert [p.where for p in said] == ["Bridge!A1"]
     assert not any(p.where.endswith("!A0") for p in r.problems)
+
+
+def test_a_lone_space_far_below_the_rows_read_is_no_entry(tmp_path: Path) -> None:
+    def edit(wb: Any) -> None:
+        wb["Findings"]["A6000"] = " "
+    r = check(tmp_path, fresh(), edit)
+    assert r.bridge is not None and not r.errors
