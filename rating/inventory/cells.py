@@ -9,6 +9,7 @@ from __future__ import annotations
 import datetime as dt
 import math
 import re
+import unicodedata
 from dataclasses import dataclass
 
 from rating import units
@@ -22,9 +23,19 @@ _TRUE = frozenset({"yes", "y", "true", "1", "x"})
 _FALSE = frozenset({"no", "n", "false", "0"})
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f]")
 _SPACES = re.compile(r"\s+")
-_INVISIBLE = re.compile("[\u00ad\u200b-\u200f\u2060-\u2064\ufeff]")
-"""Characters that show nothing (a zero-width space, a soft hyphen, a byte-order mark): in
-an id they make it differ from the same id typed elsewhere, with nothing to see."""
+_FILLERS = frozenset("\u034f\u115f\u1160\u17b4\u17b5\u3164\uffa0") | frozenset(
+    chr(c) for c in range(0xFE00, 0xFE10))
+"""Characters outside Unicode's format category that render empty (the combining grapheme
+joiner, the Hangul fillers, variation selectors)."""
+
+
+def _invisible(text: str) -> str | None:
+    """The first character of ``text`` that shows nothing: Unicode's format category Cf (a
+    zero-width space, a soft hyphen, a byte-order mark, the marks that set the direction of
+    text) or a filler that renders empty. In an id it makes it differ from the same id typed
+    elsewhere, with nothing to see."""
+    return next((ch for ch in text if ch in _FILLERS
+                 or unicodedata.category(ch) == "Cf"), None)
 _LIST_SEPARATOR = re.compile(r"[,;]")
 _LIST_NUMBER = re.compile(r"\d{1,3}")
 # 1-1/4, 1 1/4, 3/4, optional trailing inch mark
@@ -242,9 +253,9 @@ def parse_text(raw: object, col: Column) -> Parsed | Invalid:
         t = _SPACES.sub(" ", t)
         if "," in t:
             return Invalid(f"must be a single id without commas; found {describe(t)}")
-        hidden = _INVISIBLE.search(t)
+        hidden = _invisible(t)
         if hidden:  # (pasted from a web page or a PDF: the id would match no other)
-            return Invalid(f"contains an invisible character (U+{ord(hidden.group()):04X}); "
+            return Invalid(f"contains an invisible character (U+{ord(hidden):04X}); "
                            "retype the id")
     return Parsed(t)
 
@@ -294,9 +305,9 @@ def parse_list(raw: object, col: Column) -> Parsed | Invalid:
         return Invalid("contains control characters; retype the value")
     items = [s.strip() for s in _LIST_SEPARATOR.split(t) if s.strip()]
     if col.kind is Kind.LABELLIST:
-        hidden = _INVISIBLE.search(t)
+        hidden = _invisible(t)
         if hidden:
-            return Invalid(f"contains an invisible character (U+{ord(hidden.group()):04X}); "
+            return Invalid(f"contains an invisible character (U+{ord(hidden):04X}); "
                            "retype the ids")
         too_long = [s for s in items if len(s) > col.max_length]
         if too_long:

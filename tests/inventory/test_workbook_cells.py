@@ -169,7 +169,8 @@ def test_an_inch_mark_in_a_millimetre_column_is_not_a_number_of_millimetres(raw:
     assert "must be a number in inches" in bad("38 mm", DIM)
 
 
-@pytest.mark.parametrize("hidden", ["\u200b", "\ufeff", "\u00ad", "\u2060"])
+@pytest.mark.parametrize("hidden", ["\u200b", "\ufeff", "\u00ad", "\u2060", "\u202e",
+                                    "\u2066", "\u180e", "\u034f", "\ufe0f"])
 def test_an_id_with_an_invisible_character_is_refused_naming_it(hidden: str) -> None:
     """An id pasted with a zero-width space (or a soft hyphen, a byte-order mark) matches no
     other id while looking the same; it is refused at its cell, with the character named (a
