@@ -222,8 +222,20 @@ def read_previous(path: Path) -> PreviousRating:
                               if isinstance(rating, Mapping)}
     findings = []
     for i, f in enumerate(r.items(data, "findings", "", optional=True)):
+        where = f"findings[{i}]"
         if not isinstance(f, Mapping):
-            raise r.fail(f"findings[{i}]", "expected an object here")
+            raise r.fail(where, "expected an object here")
+        for key in ("member", "component", "region", "bar_state"):
+            if f.get(key) is not None:
+                r.text(f, key, where)
+        for key in ("station", "remaining_thickness", "percent_loss"):
+            r.number(f, key, where)
+        cr = f.get("condition_rating")
+        if cr is not None and (isinstance(cr, bool) or not isinstance(cr, int)):
+            raise r.fail(_join(where, "condition_rating"), f"expected a whole number, not "
+                         f"{cr!r}")
+        if f.get("estimated") not in (None, True, False):
+            raise r.fail(_join(where, "estimated"), "expected true or false")
         findings.append(f)
     return PreviousRating(
         file=path.name, bridge_id=r.text(bridge, "id", "bridge") or "",
