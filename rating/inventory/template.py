@@ -287,11 +287,11 @@ def _save_new(wb: Workbook, path: Path, force: bool) -> None:
     path = Path(path)
     if path.suffix.lower() not in (".xlsx", ".xlsm"):
         raise UsageError("the workbook file name must end in .xlsx", where=str(path))
+    if path.is_dir():  # (before "exists": --force would not replace a folder either)
+        raise UsageError("this is a folder, not a workbook file", where=str(path))
     if path.exists() and not force:
         raise UsageError("the file already exists and is not overwritten; choose another name "
                          "or use --force to replace it", where=str(path))
-    if path.exists() and path.is_dir():
-        raise UsageError("this is a folder, not a workbook file", where=str(path))
     folder = path.parent if str(path.parent) else Path(".")
     if not folder.is_dir():
         raise UsageError(f"the folder {folder} does not exist", where=str(path))

@@ -170,3 +170,15 @@ def test_cli_check_blank_template_fails(template: Path, capsys) -> None:
     assert main(["check", str(template)]) == 1
     out = capsys.readouterr().out
     assert "Bridge!B5" in out and "error(s)" in out
+
+
+def test_cli_template_into_a_folder_is_named_as_a_folder(tmp_path: Path,
+                                                         capsys: pytest.CaptureFixture[str]
+                                                         ) -> None:
+    folder = tmp_path / "is-a-folder.xlsx"
+    folder.mkdir()
+    for extra in ([], ["--force"]):
+        assert main(["template", str(folder), *extra]) == 2
+        err = capsys.readouterr().err
+        assert "this is a folder, not a workbook file" in err and "--force" not in err
+    assert folder.is_dir() and not list(folder.iterdir())
