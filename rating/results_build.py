@@ -384,22 +384,23 @@ def recommendation(rating: BridgeRating, unit: str,
     join = ", " if text.startswith("No load restriction") else ": "
     own = text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
     closing = [c for c in clauses if c[3] == "consider closing the bridge"]
+    rest = [c for c in clauses if c not in closing]
+    # what is not confirmed is taken as not holding (a bent or loose bar is taken as carrying
+    # no load until shown otherwise: common practice): a lesser consequence applies until the
+    # condition is confirmed too (a reviewer read the higher posting as the one to sign)
+    after = "".join(f" If {fails}, or until it is confirmed otherwise, {then_do} ({then})."
+                    for _, fails, then, then_do in rest)
+    if len(clauses) > 1:
+        after += (" Each condition is rated on its own; where more than one of them fails, "
+                  "the loads may be lower still (the engineer's judgement).")
     if closing:
-        # The graver course first: what is not confirmed is taken as not holding (a bent or
-        # loose bar is taken as carrying no load until shown otherwise: common practice),
-        # and the rating's own posting follows for the case it is confirmed
-        rest = [c for c in clauses if c not in closing]
+        # The graver course first, and the rating's own posting for the case it is confirmed
         # (a bent member's words say "without it"; another condition's are said with "if")
         why = (closing[0][2] if len(closing) == 1 and closing[0][2].startswith("without ")
                else "; ".join(f"if {fails}, {then}" for _, fails, then, _ in closing))
         return (CLOSING_UNLESS + " and ".join(c[0] for c in closing) + f": {why}. "
-                f"If {holds}{join}" + own
-                + "".join(f" If {fails}, {then_do} ({then})." for _, fails, then, then_do in rest)
-                + permits)
-    return (f"Only if {holds}{join}" + own
-            + "".join(f" If {fails}, {then_do} ({then})."
-                      for _, fails, then, then_do in clauses) + permits)
-
+                f"If {holds}{join}" + own + after + permits)
+    return f"Only if {holds}{join}" + own + after + permits
 
 
 def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:

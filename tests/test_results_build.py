@@ -234,7 +234,8 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
         "a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))})
     rec = build_results(lower).recommendation
     assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent): post the bridge.")
-    assert ("If it does not act, post the bridge for lower loads (without L2U3, lowest truck "
+    assert ("If it does not act, or until it is confirmed otherwise, post the bridge for "
+            "lower loads (without L2U3, lowest truck "
             "RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 tonnes (9 "
             "as rated); members only, see the warning).") in rec
     # a lower RF that posts no truck lower changes nothing the engineer decides
@@ -276,9 +277,13 @@ def test_two_bent_members_say_the_gravest_consequence(pony_rating):
                           "members only, see the warning. If L2U3 is confirmed to act "
                           "(recorded bent) and U1L2 is confirmed to act (recorded bent): post "
                           "the bridge.")
-    assert ("If L2U3 does not act, post the bridge for lower loads (without L2U3, lowest "
+    assert ("If L2U3 does not act, or until it is confirmed otherwise, post the bridge for "
+            "lower loads (without L2U3, lowest "
             "truck RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 "
             "tonnes (9 as rated); members only, see the warning).") in rec
+    # (each condition rated on its own: said where there are several)
+    assert "Each condition is rated on its own; where more than one of them fails, the loads " \
+        "may be lower still" in rec
 
 
 def test_trucks_verdict_names_the_trucks_posted_lower(pony_rating):
@@ -372,6 +377,7 @@ def test_emergency_vehicles_and_permits_rest_on_a_sensitivity_too():
             "the steel is confirmed of the later grade", "the steel is the older grade", w),))
                              ).recommendation
         assert text.startswith("Only if the steel is confirmed of the later grade")
-        assert f"If the steel is the older grade, {then} (" in text
+        assert f"If the steel is the older grade, or until it is confirmed otherwise, " \
+            f"{then} (" in text
     assert "not carried: mobile crane to Hollis Mill" in text
     assert "only if the steel is confirmed of the later grade" in text  # (the permit's own)

@@ -967,7 +967,8 @@ def test_where_the_older_steel_would_post_the_recommendation_says_only_if():
     text = res.recommendation
     assert text.startswith("Only if the steel is confirmed of the later grade (coupon tests "
                            "or mill records), no load restriction is indicated for trucks")
-    assert "If the steel is the older grade (F_y 26 ksi), post the bridge (lowest truck RF" \
+    assert "If the steel is the older grade (F_y 26 ksi), or until it is confirmed " \
+        "otherwise, post the bridge (lowest truck RF" \
         in text
 
 
