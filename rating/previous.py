@@ -23,6 +23,7 @@ from typing import Any
 
 from rating.errors import InputError
 from rating.results import (
+    CLOSURE_FIRST,
     DISPLAY_UNITS,
     EMERGENCY,
     ElementChange,
@@ -41,11 +42,6 @@ move is round-off at the printed scale or the program's own refinements between 
 not a change of the bridge: a threshold of judgement (common practice for a screen)."""
 
 _ACTION_RANK = {"none": 0, "post": 1, "close": 2}
-
-CLOSURE_FIRST = "Consider closing the bridge"
-"""How a recommendation that leads with a closure to consider begins, outright or until a
-condition is confirmed (rating.results_build.recommendation; rating.results.CLOSING_UNLESS):
-the bridge's own outcome, whatever each vehicle's."""
 
 
 @dataclass(frozen=True)

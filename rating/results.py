@@ -25,7 +25,11 @@ from rating.units import from_core
 
 SCHEMA_VERSION = "1.0"
 
-CLOSING_UNLESS = "Consider closing the bridge unless "
+CLOSURE_FIRST = "Consider closing the bridge"
+"""How a recommendation that leads with a closure to consider begins, outright ("Consider
+closing the bridge: ...") or until a condition is confirmed (:data:`CLOSING_UNLESS`)."""
+
+CLOSING_UNLESS = CLOSURE_FIRST + " unless "
 """How a recommendation begins whose closure rests on a condition not yet confirmed (a bent
 member's acting, say): the closure first, the posting for the case it is confirmed after it
 (rating.results_build.recommendation); such a recommendation, like one that begins "Only
