@@ -22,7 +22,7 @@ import os
 import sys
 import time
 import urllib.parse
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from concurrent.futures import ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass, field, replace
@@ -175,6 +175,9 @@ class _Task:
     root: Path | None = None  # the batch's output folder (``out_dir`` mirrors sub-folders)
     previous: Path | None = None  # the results file of its previous rating (batch
     # --previous), which need not exist
+    previous_by_id: Mapping[str, tuple[str, ...]] | None = None  # the --previous folder's
+    # results files by structure id (rating.previous.results_by_bridge), for a workbook
+    # renamed or moved since
 
     @property
     def name(self) -> str:
@@ -311,7 +314,8 @@ def rate_one(task: _Task) -> BridgeRow:
                 workbook=name, rated=False, errors=errors or ("error   not rated",),
                 warnings=tuple(p.format() for p in problems if p.severity != "error"),
                 seconds=time.perf_counter() - t0)
-        results, since, notes, worse = _with_previous(outcome.results, task.previous)
+        results, since, notes, worse = _with_previous(outcome.results, task.previous,
+                                                      task.previous_by_id)
         out_dir = task.out_dir
         stem = task.stem
         if "/" in stem:  # a workbook in a sub-folder: its outputs in the same sub-folder
@@ -334,23 +338,38 @@ def rate_one(task: _Task) -> BridgeRow:
                          seconds=time.perf_counter() - t0)
 
 
-def _with_previous(results: Any, previous: Path | None
+def _with_previous(results: Any, previous: Path | None,
+                   by_id: Mapping[str, tuple[str, ...]] | None = None
                    ) -> tuple[Any, str, tuple[str, ...], bool]:
     """The results compared with the previous rating's results file at ``previous`` where
-    there is one (rating.previous), the change in one sentence (or why there is none), a
-    warning where the file could not be used (the bridge is rated and written all the same),
-    and whether an outcome is worse than then."""
+    there is one of this bridge (rating.previous), else with the one file of the
+    --previous folder that rates the same structure id (``by_id``: a workbook renamed or
+    moved since); the change in one sentence (or why there is none), a warning where a file
+    could not be used (the bridge is rated and written all the same), and whether an
+    outcome is worse than then."""
     if previous is None:
         return results, "", (), False
-    if not previous.is_file():
-        return (results, f"no previous rating: no {previous.name} in the --previous folder",
-                (), False)
-    from rating.previous import previous_for, worse_since
+    from rating.previous import bridge_key, previous_for, worse_since
     from rating.report.display import display_for
 
     try:
-        compared, why = previous_for(results, previous)
+        compared, why = (previous_for(results, previous) if previous.is_file()
+                         else (None, f"no {previous.name} in the --previous folder"))
+        found = ""
         if compared is None:
+            others = [Path(q) for q in (by_id or {}).get(bridge_key(results.bridge.id), ())
+                      if Path(q) != previous]
+            if len(others) == 1:
+                compared, other_why = previous_for(results, others[0])
+                found = f" (found by its structure id: {others[0].name})"
+                why = other_why or why
+            elif len(others) > 1:
+                why += (f"; {len(others)} results files there rate structure "
+                        f"{results.bridge.id}: " + ", ".join(q.name for q in others))
+        if compared is None:
+            if not previous.is_file() and not (by_id or {}).get(
+                    bridge_key(results.bridge.id)):
+                return results, f"no previous rating: {why}", (), False
             return results, f"not compared: {why}", (f"warning --previous {why}",), False
         levels = {v.id: v.rating_level for v in results.vehicles}
         worse = worse_since(compared.previous, levels, display_for(results).unit("weight"))
@@ -359,7 +378,7 @@ def _with_previous(results: Any, previous: Path | None
         why = (f"{previous}: internal error in pintruss while comparing "
                f"({type(exc).__name__}: {exc}); please report it")
         return results, f"not compared: {why}", (f"warning --previous {why}",), False
-    return compared, compared.previous.headline, (), worse
+    return compared, compared.previous.headline + found, (), worse
 
 
 def _in_pool(tasks: Sequence[_Task], workers: int,
@@ -477,11 +496,15 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         if p.resolve() in inputs:
             raise InputError(f"refusing to write {p}: it is an input workbook", where=str(p))
     earlier: list[Path | None] = [None] * len(stems)
+    by_id: dict[str, tuple[str, ...]] | None = None
     if previous is not None:
         previous = Path(previous)
         if not previous.is_dir():
             raise InputError(f"there is no folder {previous} (--previous)", where=str(previous))
         earlier = [previous / f"{s}.rating.json" for s in stems]
+        from rating.previous import results_by_bridge
+
+        by_id = results_by_bridge(previous)
         read_only = {p.resolve() for p in earlier}
         clash = next((p for p in planned if p.resolve() in read_only), None)
         if clash is not None:
@@ -493,7 +516,8 @@ def rate_folder(folder: Path, out_dir: Path, *, workers: int | None = None,
         raise InputError(f"the output folder {out_dir} cannot be made: {exc}",
                          where=str(out_dir)) from exc
     vids = tuple(vehicle_ids) if vehicle_ids else None
-    tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder), previous=e)
+    tasks = [_Task(b, out_dir, s, vids, rate, write, workbook_label(b, folder), previous=e,
+                   previous_by_id=by_id)
              for b, s, e in zip(books, stems, earlier, strict=True)]
     n = min(workers or default_workers(), len(tasks))
     n = max(n, 1)

@@ -16,6 +16,7 @@ import dataclasses
 import datetime as dt
 import json
 import math
+import re
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -246,7 +247,41 @@ def read_previous(path: Path) -> PreviousRating:
 
 def same_bridge(a: str, b: str) -> bool:
     """Structure ids that name the same bridge (case and spacing aside)."""
-    return " ".join(a.split()).casefold() == " ".join(b.split()).casefold()
+    return bridge_key(a) == bridge_key(b)
+
+
+def bridge_key(structure_id: str) -> str:
+    """A structure id as :func:`same_bridge` compares it."""
+    return " ".join(structure_id.split()).casefold()
+
+
+_BRIDGE_ID = re.compile(r'"bridge"\s*:\s*\{\s*"id"\s*:\s*("(?:[^"\\]|\\.)*")')
+"""The structure id near the start of a results file (pintruss writes ``bridge`` second, its
+``id`` first)."""
+
+
+def results_by_bridge(folder: Path) -> dict[str, tuple[str, ...]]:
+    """The results files (``*.rating.json``) in ``folder`` and its sub-folders by the
+    structure id they rate (:func:`bridge_key`), each read no further than its start: for a
+    batch's bridges whose workbooks were renamed or moved since the earlier batch. A file
+    whose start names no bridge is left out (read in full only if its name matches)."""
+    out: dict[str, list[str]] = {}
+    for path in sorted(Path(folder).rglob("*.rating.json")):
+        try:
+            with path.open("rb") as fh:
+                head = fh.read(4096).decode("utf-8", errors="replace")
+        except OSError:
+            continue
+        m = _BRIDGE_ID.search(head)
+        if m is None:
+            continue
+        try:
+            sid = json.loads(m.group(1))
+        except ValueError:
+            continue
+        if isinstance(sid, str) and sid.strip():
+            out.setdefault(bridge_key(sid), []).append(str(path))
+    return {k: tuple(v) for k, v in out.items()}
 
 
 # ------------------------------------------------------------------ the comparison

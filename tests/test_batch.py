@@ -605,23 +605,40 @@ def test_a_recommendation_resting_on_a_condition_is_marked_and_its_verdict_kept(
     assert "1 whose recommendation rests on a condition to confirm" in index
 
 
+def rate_with_ids(path: Path, vehicle_ids: list[str] | None = None) -> RateOutcome:
+    """Stand-in for the pipeline: as :func:`fake_rate`, each workbook's structure id taken
+    from its bytes after "id=" (module level, so a pool process can use it)."""
+    outcome = fake_rate(path, vehicle_ids)
+    data = Path(path).read_bytes()
+    if outcome.results is None or b"id=" not in data:
+        return outcome
+    sid = data.split(b"id=", 1)[1].decode()
+    res = outcome.results
+    return replace(outcome, results=replace(res, bridge=replace(res.bridge, id=sid)))
+
+
 def test_batch_with_previous_compares_each_bridge_with_its_earlier_results(
         tmp_path: Path) -> None:
     import json
 
-    folder = _folder(tmp_path, {"a.xlsx": GOOD, "b.xlsx": GOOD, "c.xlsx": GOOD,
-                                "d.xlsx": b"bad"})
+    folder = _folder(tmp_path, {"a.xlsx": GOOD + b"id=A", "b.xlsx": GOOD + b"id=B",
+                                "c.xlsx": GOOD + b"id=C", "d.xlsx": b"bad",
+                                "e.xlsx": GOOD + b"id=E"})
     earlier = tmp_path / "earlier"
-    rate_folder(folder, earlier, workers=1, rate=fake_rate)
+    rate_folder(folder, earlier, workers=1, rate=rate_with_ids)
     data = json.loads((earlier / "a.rating.json").read_text(encoding="utf-8"))
     data["bridge"]["inspection_date"] = "2022-05-10"
     data["posting"]["SU4"].update(rf=1.02, action="post", posting_tons=31.0)
     (earlier / "a.rating.json").write_text(json.dumps(data), encoding="utf-8")
+    # b's file is another bridge's, and no other file rates B; c's is gone; e's was filed
+    # under another name (its workbook renamed since)
     data["bridge"]["id"] = "CR-999"
     (earlier / "b.rating.json").write_text(json.dumps(data), encoding="utf-8")
     (earlier / "c.rating.json").unlink()
+    (earlier / "e.rating.json").rename(earlier / "old-name.rating.json")
     kept = _digest(earlier)
-    s = rate_folder(folder, tmp_path / "now", workers=2, rate=fake_rate, previous=earlier)
+    s = rate_folder(folder, tmp_path / "now", workers=2, rate=rate_with_ids,
+                    previous=earlier)
     since = {r.workbook: r.since for r in s.rows}
     assert since["a.xlsx"].startswith("Since the rating of the inspection of 2022-05-10: "
                                       "truck weight limit lowered from 31 to 26 tons; "
@@ -630,18 +647,35 @@ def test_batch_with_previous_compares_each_bridge_with_its_earlier_results(
     assert any("--previous" in w for w in s.rows[1].warnings)
     assert since["c.xlsx"] == "no previous rating: no c.rating.json in the --previous folder"
     assert since["d.xlsx"] == ""  # not rated: nothing to compare
+    assert since["e.xlsx"].endswith("(found by its structure id: old-name.rating.json)")
     assert [r.workbook for r in s.rows if r.worse] == ["a.xlsx"]
     rows = {r["workbook"]: r for r in _csv_rows(s.csv_path)}
     assert rows["a.xlsx"]["since the previous rating"] == since["a.xlsx"]
     assert [rows[k]["worse than at the previous rating"] for k in sorted(rows)] == \
-        ["yes", "", "", ""]
+        ["yes", "", "", "", ""]
     assert "1 whose outcome is worse than at its previous rating" in \
         " ".join(read(s.index_path.read_text(encoding="utf-8")).text)
     out = io.StringIO()
     print_summary(s, out)
     assert "1 bridge(s) rate worse than at their previous rating: a.xlsx" in out.getvalue()
-    assert "Since the previous rating:" in s.index_path.read_text(encoding="utf-8")
     assert _digest(earlier) == kept  # read only
+
+
+def test_batch_with_previous_says_which_files_rate_the_same_bridge(tmp_path: Path) -> None:
+    """Two earlier results files rate the bridge of a workbook whose own file is gone: the
+    comparison is not guessed, and both are named."""
+    import shutil
+
+    folder = _folder(tmp_path, {"a.xlsx": GOOD + b"id=A"})
+    earlier = tmp_path / "earlier"
+    rate_folder(folder, earlier, workers=1, rate=rate_with_ids)
+    (earlier / "a.rating.json").rename(earlier / "one.rating.json")
+    shutil.copy(earlier / "one.rating.json", earlier / "two.rating.json")
+    s = rate_folder(folder, tmp_path / "now", workers=1, rate=rate_with_ids,
+                    previous=earlier)
+    assert s.rows[0].since == ("not compared: no a.rating.json in the --previous folder; 2 "
+                               "results files there rate structure A: one.rating.json, "
+                               "two.rating.json")
 
 
 def test_batch_refuses_previous_that_it_would_write_over(

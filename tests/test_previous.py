@@ -562,3 +562,17 @@ def test_a_closure_now_put_first_is_worse_whatever_each_vehicle_says(tmp_path: P
         lambda d: d.__setitem__("recommendation", now.recommendation)))))
     assert not worse_since(back, {}, "ton")
     assert "no longer leads with a closure to consider" in back.headline
+
+
+def test_results_files_are_found_by_the_structure_id_at_their_start(tmp_path: Path) -> None:
+    from rating.previous import results_by_bridge
+
+    data = _plain()
+    data["bridge"]["id"] = 'CR "7"  North'
+    _write(tmp_path, data, "a.rating.json")
+    (tmp_path / "sub").mkdir()
+    _write(tmp_path / "sub", _plain(), "b.rating.json")
+    _write(tmp_path, "{not json", "c.rating.json")
+    found = results_by_bridge(tmp_path)
+    assert found == {'cr "7" north': (str(tmp_path / "a.rating.json"),),
+                     "cr-114-0032": (str(tmp_path / "sub" / "b.rating.json"),)}
