@@ -95,8 +95,9 @@ def _parser() -> argparse.ArgumentParser:
                    "workbook's choice, else the whole library)")
     b.add_argument("--previous", type=Path, default=None, metavar="FOLDER",
                    help="the --out folder of an earlier batch: each bridge is compared with "
-                   "its results file there (same sub-folder and name), and the summary says "
-                   "what changed; read only, so it must not be this batch's --out")
+                   "its results file there (same sub-folder and name, else the one file "
+                   "that rates the same structure id), and the summary says what changed; "
+                   "read only, so it must not be this batch's --out")
     return p
 
 
