@@ -257,7 +257,23 @@ def test_batch_index_in_browser(browser: Browser, tmp_path: Path,
             return rated[path.name]
         return RateOutcome(path, None, (Problem("error", "Members!C7", "no section"),))
 
-    summary = rate_folder(folder, tmp_path / "out", workers=1, rate=rate)
+    # compared with an earlier batch (an earlier inspection, one posting higher then): the
+    # index's rows carry what changed since
+    import json
+
+    earlier = rate_folder(folder, tmp_path / "earlier", workers=1, rate=rate)
+    first = next(r for r in earlier.rows if r.rated)
+    path = tmp_path / "earlier" / first.results_file
+    data = json.loads(path.read_text(encoding="utf-8"))
+    data["bridge"]["inspection_date"] = "2019-06-01"
+    for entry in data["posting"].values():
+        if entry["action"] == "post":
+            entry["posting_tons"] += 5.0
+    path.write_text(json.dumps(data), encoding="utf-8")
+    summary = rate_folder(folder, tmp_path / "out", workers=1, rate=rate,
+                          previous=tmp_path / "earlier")
+    assert any(r.since.startswith("Since the rating of the inspection of 2019-06-01")
+               for r in summary.rows)
     index = summary.index_path
     # the printable widths of landscape Letter (11 in) and A4 (297 mm), 13 mm margins
     for content_px in (round((11 * 25.4 - 26) / 25.4 * 96), round((297 - 26) / 25.4 * 96)):
