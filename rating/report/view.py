@@ -395,6 +395,9 @@ class ReportView:
     has_permits: bool = False  # a permit load was rated: the review block has its line
     since: SinceView | None = None  # compared with the previous rating (rating.previous)
     verify: tuple[str, ...] = ()  # provisions named beside a value recalled from memory
+    recommendation_parts: tuple[str, ...] = ()  # the recommendation in paragraphs
+    # (:func:`paragraphs`): its lead, then the alternatives, the emergency vehicles, the
+    # permits
     verify_vehicles: tuple[str, ...] = ()  # vehicles whose axles are recalled from memory
 
 
@@ -888,12 +891,26 @@ def build_view(results: RatingResults, *, paper: str | None = None,
         schema_version=results.schema_version, source_file=b.source_file, footer=footer,
         band_labels=bands.bands, has_neg_inf=has_neg_inf, pin_tables=tuple(pin_tables),
         decision_warnings=results.decision_warnings,
+        recommendation_parts=paragraphs(results.recommendation.removesuffix(DECISION_NOTE)),
         verify=to_verify([*results.assumptions, *results.warnings, results.recommendation,
                           *{c.provision for m in results.members if m.resistance
                             for c in m.resistance.checks}]),
         verify_vehicles=tuple(v.id for v in results.vehicles if _from_memory(v.tag)),
         since=since_view(results, d, rf_cell, lambda vid: action_text(
             results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
+
+
+_PARAGRAPH = re.compile(r"(?<=\.) (?=If |Each condition |Permit loads |Emergency vehicles|"
+                        r"An emergency vehicle|Emergency vehicles that)")
+"""Where the recommendation's sentences start a new part: a condition's alternative, the
+emergency vehicles, the permits."""
+
+
+def paragraphs(text: str) -> tuple[str, ...]:
+    """The recommendation in parts for the box (a reader found one bold block of twenty
+    lines): its lead, then each alternative, the emergency vehicles and the permits; the
+    same words, joined by spaces they read as before."""
+    return tuple(_PARAGRAPH.split(text)) if text else ()
 
 
 _PROVISION = re.compile(

@@ -540,3 +540,21 @@ def test_the_list_to_verify_of_a_sample_names_the_checks_that_govern(sample_outc
     parker = next(o for o in sample_outcomes if "parker" in o.workbook.name)
     view = build_view(parker.results)
     assert "AASHTO LRFD 6.8.2.1" in view.verify
+
+
+def test_the_recommendation_is_set_in_parts_with_the_same_words() -> None:
+    """The box sets the recommendation's lead in bold and each alternative, the emergency
+    vehicles and the permits in a paragraph of their own (a reader found one bold block of
+    twenty lines); joined, the parts are the recommendation word for word."""
+    from rating.report.view import paragraphs
+
+    text = ("Consider closing the bridge unless L3U4 is confirmed to act (recorded bent): "
+            "without L3U4, lowest truck RF 0.12 (SU7, U3L4). If L3U4 is confirmed to act "
+            "(recorded bent): post the bridge. Safe posting loads by vehicle class: SU4 25 "
+            "tons (from Specialized hauling vehicle SU4). Emergency vehicles: post for 20 "
+            "tons. If the loss runs along the bar, or until it is confirmed otherwise, post "
+            "the bridge for lower loads (...). Permit loads (for the permit's issue, not a "
+            "posting): crane, RF 0.71 (L1U1): not as requested.")
+    parts = paragraphs(text)
+    assert [p.split()[0] for p in parts] == ["Consider", "If", "Emergency", "If", "Permit"]
+    assert " ".join(parts) == text
