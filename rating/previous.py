@@ -372,7 +372,7 @@ def truck_state(outcome: str, limit: float | None, weight: str, unit: str = "") 
     tons", "a closing to consider"; "not rated" for "". ``unit``: the unit it was posted in,
     where not ``weight``."""
     return {"none": "no restriction", "close": "a closing to consider", "": "not rated"}.get(
-        outcome, f"a weight limit of {_tons(limit, weight, unit)}")
+        outcome, f"a weight limit of {posting_words(limit, weight, unit)}")
 
 
 def _truck_rank(since: SincePrevious, weight: str) -> int:
@@ -401,9 +401,9 @@ def truck_words(since: SincePrevious, weight: str) -> str:
     if b == n == "post":
         return (f"truck weight limit {'lowered' if rank < 0 else 'raised'} from "
                 f"{_from(since.limit_before, weight, unit)} to "
-                f"{_tons(since.limit_now, weight)}")
+                f"{posting_words(since.limit_now, weight)}")
     if n == "post":
-        return f"trucks now to be posted at {_tons(since.limit_now, weight)} (was {then})"
+        return f"trucks now to be posted at {posting_words(since.limit_now, weight)} (was {then})"
     if n == "close":
         return f"closing now to be considered for trucks (was {then})"
     return f"no restriction now indicated for trucks (was {then})"
@@ -416,26 +416,21 @@ def _amount(value: float, weight: str) -> str:
     return f"{math.floor(x + 1e-6) if abs(x - round(x)) < 1e-6 else round(x, 1):g}"
 
 
-def _tons(value: float | None, weight: str, unit: str = "") -> str:
-    """A posting load with its unit ("12 tons"); one posted in another unit (``unit``) as
-    posted, with its value in ``weight`` beside it ("10 tons (9.1 tonnes)"); "-" for none."""
+def posting_words(value: float | None, weight: str, unit: str = "") -> str:
+    """A safe posting load (core tons) as it was posted, with its unit ("12 tons"); one posted
+    in another unit (``unit``) as posted, with its value in ``weight`` beside it ("10 tons
+    (9.1 tonnes)"); "-" for none."""
     if value is None:
         return "-"
     if unit and unit != weight:
-        return f"{_tons(value, unit)} ({_tons(value, weight)})"
+        return f"{posting_words(value, unit)} ({posting_words(value, weight)})"
     text = _amount(value, weight)
     return f"{text} {weight}{'' if text == '1' else 's'}"
 
 
-def posting_words(value: float, weight: str, unit: str = "") -> str:
-    """A safe posting load (core tons) as it was posted: "12 tons"; one posted in ``unit``,
-    another unit than the report's ``weight``, with its value in ``weight`` beside it."""
-    return _tons(value, weight, unit)
-
-
 def _from(value: float | None, weight: str, unit: str) -> str:
     """The earlier load of "from X to Y tons": the number alone in the same unit."""
-    return _amount(value or 0.0, weight) if unit == weight else _tons(value, weight, unit)
+    return _amount(value or 0.0, weight) if unit == weight else posting_words(value, weight, unit)
 
 
 def _same_load(a: float, b: float, weight: str, then_weight: str) -> bool:
@@ -467,11 +462,11 @@ def vehicle_change_words(c: VehicleChange, weight: str, category: str = "", leve
         elif c.action_before != c.action_now:
             words.append(f"permit now '{c.action_now}' (was '{c.action_before}')")
     elif level == "legal" and c.action_before != c.action_now:
-        was = (f"was posted at {_tons(c.posting_before, weight, unit)}"
+        was = (f"was posted at {posting_words(c.posting_before, weight, unit)}"
                if c.action_before == "post" else f"was {what} to be considered"
                if c.action_before == "close" else "was not posted")
         if c.action_now == "post":
-            words.append(f"now posted at {_tons(c.posting_now, weight)} ({was})")
+            words.append(f"now posted at {posting_words(c.posting_now, weight)} ({was})")
         elif c.action_now == "close":
             words.append(f"{what} now to be considered ({was})")
         elif c.action_before == "post":
@@ -481,7 +476,7 @@ def vehicle_change_words(c: VehicleChange, weight: str, category: str = "", leve
     elif level == "legal" and c.action_now == "post" and d:
         words.append(f"posting {'lowered' if d < 0 else 'raised'} from "
                      f"{_from(c.posting_before, weight, unit)} to "
-                     f"{_tons(c.posting_now, weight)}")
+                     f"{posting_words(c.posting_now, weight)}")
     rf_words = _rf_move(c.rf_before, c.rf_now)
     if not words and rf_words:
         words.append(rf_words)

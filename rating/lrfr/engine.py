@@ -1162,7 +1162,7 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
                      pins: Sequence[PinRating], against: Mapping[str, CasePosting],
                      again: Callable[[Sequence[str], Bridge],
                                      dict[tuple[str, str], MemberCaseRating] | None]
-                     | None = None, geometry: TrussGeometry | None = None
+                     | None = None
                      ) -> tuple[tuple[str, ...], WithoutMember] | None:
     """Loop rods whose loss at the loop is rated as a local section, where yielding would be
     lower if it ran along the bar around the pin (rating.capacity.tension): rated again with
@@ -1171,9 +1171,9 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
     alone are rated again: a finding changes its own member's resistance and nothing else
     (the truss's stiffness is its sections as built, the pins' bearing the Packing sheet's),
     and the others' ratings and the pins' are merged with theirs. ``again`` rates rods off
-    the load path on the rating's own live and dead loads (rate_bridge's, with the
-    ``geometry`` rated); others are rated by a rating of those rods alone. The members and
-    what the trucks then give; None where no rod is so."""
+    the load path on the rating's own live and dead loads (rate_bridge's); others are rated
+    by a rating of those rods alone. The members and what the trucks then give; None where
+    no rod is so."""
     members = tuple(sorted(lab for lab, cap in capacities.items()
                            if any(LOOP_LOSS_LOCAL in w for w in cap.warnings)))
     if not members or not _truck_ids(cases):
@@ -1183,13 +1183,13 @@ def _loop_loss_along(bridge: Bridge, cases: Sequence[RatingCase],
         if f.member in members and f.region is FindingRegion.THREAD else f
         for f in bridge.findings))
     ids = _sensitivity_ids(cases)
-    quick = again(members, variant) if again is not None and geometry is not None else None
+    quick = again(members, variant) if again is not None else None
     if quick is not None:
         chosen = tuple(c for c in cases if c.load.id in ids)
         kept = {c.id for c in chosen}
         merged = _postings(chosen, {**{k: r for k, r in ratings.items() if k[1] in kept},
                                     **{k: r for k, r in quick.items() if k[1] in kept}},
-                           pins, geometry)
+                           pins, rating_geometry(bridge))
         result = trucks_verdict(merged, chosen, against=against, metric=_metric(bridge))
         return None if result is None else (members, result)
     try:
@@ -1665,7 +1665,7 @@ def rate_bridge(bridge: Bridge, vehicle_ids: Sequence[str] | None = None, *,
             return out
 
         loops = _loop_loss_along(bridge, cases, capacities, ratings, pins, postings,
-                                 again=linear_again, geometry=g)
+                                 again=linear_again)
         if loops is not None:
             warnings.append(loop_loss_text(*loops, main))
             names = ", ".join(loops[0])
