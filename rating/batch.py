@@ -35,6 +35,7 @@ from rating.results import (
     CLOSING_UNLESS,
     DECISION_NOTE,
     EMERGENCY,
+    UNTIL_CONFIRMED,
     overall_action,
     permit_words,
     reported_rf,
@@ -98,10 +99,11 @@ class BridgeRow:
 
     @property
     def conditional(self) -> bool:
-        """The recommendation rests on a condition the engineer should confirm ("Only if
-        ... is confirmed ...", "Consider closing the bridge unless ... is confirmed ...":
-        rating.results_build.recommendation)."""
-        return self.recommendation.startswith(("Only if ", CLOSING_UNLESS))
+        """The recommendation rests on a condition the engineer should confirm ("Consider
+        closing the bridge unless ... is confirmed ...", "Until ... is confirmed, ...":
+        rating.results_build.recommendation; "Only if", as results of earlier versions
+        worded it)."""
+        return self.recommendation.startswith(("Only if ", UNTIL_CONFIRMED, CLOSING_UNLESS))
 
     @property
     def closure_to_consider(self) -> bool:

@@ -35,6 +35,12 @@ member's acting, say): the closure first, the posting for the case it is confirm
 (rating.results_build.recommendation); such a recommendation, like one that begins "Only
 if", rests on a condition (rating.batch.BridgeRow.conditional)."""
 
+UNTIL_CONFIRMED = "Until "
+"""How a recommendation begins whose lower postings (or withheld permits) apply until a
+condition is confirmed, the rating's own outcome following for the case it is
+(rating.results_build.recommendation); it rests on a condition
+(rating.batch.BridgeRow.conditional)."""
+
 DECISION_NOTE = (" This is a recommendation for the decision of the licensed engineer in "
                  "responsible charge; the owner's manual, policy and local codes govern.")
 """The sentence every bridge recommendation ends with (rating.results_build); the batch index,

@@ -33,6 +33,7 @@ from rating.results import (
     CLOSING_UNLESS,
     DECISION_NOTE,
     SCHEMA_VERSION,
+    UNTIL_CONFIRMED,
     BridgeSummary,
     CheckSummary,
     Factors,
@@ -343,9 +344,13 @@ def recommendation(rating: BridgeRating, unit: str,
     is, lower posting loads of a truck or an emergency vehicle, a permit no longer carried):
     a bent member that does not act
     (:func:`rating.lrfr.engine._without_bent`), or another condition of the rating
-    (``rating.conditions``: a pony chord's hips, the steel's grade, the lacing). The engineer
-    reads first that the posting holds only if so (a reviewer would not sign a "post"
-    headline with the closure, or a lower posting, only in a warning)."""
+    (``rating.conditions``: a pony chord's hips, the steel's grade, the lacing, a loop's
+    loss). What is not confirmed is taken as not holding: the recommendation leads with the
+    closure a condition would give ("Consider closing the bridge unless ..."), then what
+    applies until each other condition is confirmed ("Until ..., post the bridge for lower
+    loads (...)"), and the rating's own outcome last ("If ... confirmed: post the bridge
+    ..."); a reviewer would not sign a "post" headline with the closure, or a lower posting,
+    only in a warning, nor read the higher posting first."""
     text = _recommendation(rating, unit, report)
     main = trucks_verdict(rating.postings, rating.cases)
     hinge = {m: w for m, w in rating.without.items() if _consequence(w, main)}
@@ -385,22 +390,25 @@ def recommendation(rating: BridgeRating, unit: str,
     own = text[0].lower() + text[1:].removesuffix(DECISION_NOTE)
     closing = [c for c in clauses if c[3] == "consider closing the bridge"]
     rest = [c for c in clauses if c not in closing]
-    # what is not confirmed is taken as not holding (a bent or loose bar is taken as carrying
-    # no load until shown otherwise: common practice): a lesser consequence applies until the
-    # condition is confirmed too (a reviewer read the higher posting as the one to sign)
-    after = "".join(f" If {fails}, or until it is confirmed otherwise, {then_do} ({then})."
-                    for _, fails, then, then_do in rest)
-    if len(clauses) > 1:
-        after += (" Each condition is rated on its own; where more than one of them fails, "
-                  "the loads may be lower still (the engineer's judgement).")
+    # What is not confirmed is taken as not holding (a bent or loose bar is taken as carrying
+    # no load until shown otherwise: common practice): the graver course first, a closure
+    # ("Consider closing the bridge unless ..."), then what applies until each other
+    # condition is confirmed ("Until ..., post the bridge for lower loads"), and the
+    # rating's own outcome last, for the case every condition is confirmed (a reviewer read
+    # the higher posting, printed first, as the one to sign)
+    until = " ".join(f"{UNTIL_CONFIRMED}{h}, {then_do} ({then})." for h, _, then, then_do
+                     in rest)
+    own_case = f"If {holds}{join}" + own
+    several = (" Each condition is rated on its own; where more than one of them fails, the "
+               "loads may be lower still (the engineer's judgement).") if len(clauses) > 1 \
+        else ""
     if closing:
-        # The graver course first, and the rating's own posting for the case it is confirmed
         # (a bent member's words say "without it"; another condition's are said with "if")
         why = (closing[0][2] if len(closing) == 1 and closing[0][2].startswith("without ")
                else "; ".join(f"if {fails}, {then}" for _, fails, then, _ in closing))
         return (CLOSING_UNLESS + " and ".join(c[0] for c in closing) + f": {why}. "
-                f"If {holds}{join}" + own + after + permits)
-    return f"Only if {holds}{join}" + own + after + permits
+                + (until + " " if until else "") + own_case + several + permits)
+    return until + " " + own_case + several + permits
 
 
 def _consequence(w: WithoutMember, main: WithoutMember | None) -> str:

@@ -707,6 +707,9 @@ def test_a_closure_resting_on_a_condition_is_counted_as_one_to_consider() -> Non
     plain = replace(row, recommendation="Post the bridge. Safe posting loads ...")
     assert not plain.conditional and not plain.closure_to_consider
     assert replace(plain, action="close").closure_to_consider
+    until = replace(plain, recommendation="Until the steel is confirmed of the later grade, "
+                    "post the bridge (...). If the steel is confirmed ...: no load restriction")
+    assert until.conditional and not until.closure_to_consider
     # in the summary: a column of its own, and counted once (not also as a posting)
     rows = _csv_rows_of(summary_csv([row, plain]))
     assert [r["closure to consider"] for r in rows] == ["yes", ""]

@@ -233,15 +233,17 @@ def test_a_bent_member_that_would_lower_the_posting_makes_the_recommendation_con
     lower = replace(pony_rating, conditions=(), without={"L2U3": WithoutMember(
         "a posting", 0.40, "SU4", "U2L3", lowered=(("SU4", 3.0),))})
     rec = build_results(lower).recommendation
-    assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent): post the bridge.")
-    assert ("If it does not act, or until it is confirmed otherwise, post the bridge for "
-            "lower loads (without L2U3, lowest truck "
-            "RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 tonnes (9 "
-            "as rated); members only, see the warning).") in rec
+    # the lower loads first: they apply until the member is confirmed to act (a reviewer
+    # read the higher posting, printed first, as the one to sign)
+    assert rec.startswith("Until L2U3 is confirmed to act (recorded bent), post the bridge "
+                          "for lower loads (without L2U3, lowest truck RF 0.40 (SU4, U2L3); "
+                          "posted lower: Specialized hauling vehicle SU4 3 tonnes (9 as "
+                          "rated); members only, see the warning). If L2U3 is confirmed to "
+                          "act (recorded bent): post the bridge.")
     # a lower RF that posts no truck lower changes nothing the engineer decides
     same = replace(pony_rating, conditions=(), without={"L2U3": WithoutMember(
         "a posting", 0.40, "SU4", "U2L3")})
-    assert not build_results(same).recommendation.startswith("Only if")
+    assert not build_results(same).recommendation.startswith(("Only if", "Until "))
 
 
 def test_a_sensitivity_that_posts_another_truck_lower_makes_the_headline_conditional(
@@ -256,8 +258,8 @@ def test_a_sensitivity_that_posts_another_truck_lower_makes_the_headline_conditi
     w = WithoutMember("a posting", main_rf, "SU6", "U2L3", lowered=(("TYPE-3S2", 12.0),))
     rec = build_results(replace(pony_rating, conditions=(), without={"L2U3": w})
                         ).recommendation
-    assert rec.startswith("Only if L2U3 is confirmed to act (recorded bent)")
-    assert "post the bridge for lower loads (without L2U3, lowest truck RF" in rec
+    assert rec.startswith("Until L2U3 is confirmed to act (recorded bent), post the bridge "
+                          "for lower loads (without L2U3, lowest truck RF")
     assert ("posted lower: AASHTO legal load Type 3S2 12 tonnes (17 as rated); members only"
             in rec)
 
@@ -274,13 +276,12 @@ def test_two_bent_members_say_the_gravest_consequence(pony_rating):
     # lower the postings follows with its own clause (a reviewer found them joined)
     assert rec.startswith("Consider closing the bridge unless U1L2 is confirmed to act "
                           "(recorded bent): without U1L2, lowest truck RF 0.12 (SU7, U1L2); "
-                          "members only, see the warning. If L2U3 is confirmed to act "
-                          "(recorded bent) and U1L2 is confirmed to act (recorded bent): post "
-                          "the bridge.")
-    assert ("If L2U3 does not act, or until it is confirmed otherwise, post the bridge for "
-            "lower loads (without L2U3, lowest "
-            "truck RF 0.40 (SU4, U2L3); posted lower: Specialized hauling vehicle SU4 3 "
-            "tonnes (9 as rated); members only, see the warning).") in rec
+                          "members only, see the warning. Until L2U3 is confirmed to act "
+                          "(recorded bent), post the bridge for lower loads (without L2U3, "
+                          "lowest truck RF 0.40 (SU4, U2L3); posted lower: Specialized "
+                          "hauling vehicle SU4 3 tonnes (9 as rated); members only, see the "
+                          "warning). If L2U3 is confirmed to act (recorded bent) and U1L2 is "
+                          "confirmed to act (recorded bent): post the bridge.")
     # (each condition rated on its own: said where there are several)
     assert "Each condition is rated on its own; where more than one of them fails, the loads " \
         "may be lower still" in rec
@@ -376,8 +377,7 @@ def test_emergency_vehicles_and_permits_rest_on_a_sensitivity_too():
         text = build_results(replace(carried, conditions=(Condition(
             "the steel is confirmed of the later grade", "the steel is the older grade", w),))
                              ).recommendation
-        assert text.startswith("Only if the steel is confirmed of the later grade")
-        assert f"If the steel is the older grade, or until it is confirmed otherwise, " \
-            f"{then} (" in text
+        assert text.startswith(f"Until the steel is confirmed of the later grade, {then} (")
+        assert ". If the steel is confirmed of the later grade, no load restriction" in text
     assert "not carried: mobile crane to Hollis Mill" in text
     assert "only if the steel is confirmed of the later grade" in text  # (the permit's own)

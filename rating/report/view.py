@@ -900,7 +900,7 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
 
 
-_PARAGRAPH = re.compile(r"(?<=\.) (?=If |Each condition |Permit loads |Emergency vehicles|"
+_PARAGRAPH = re.compile(r"(?<=\.) (?=If |Until |Each condition |Permit loads |Emergency vehicles|"
                         r"An emergency vehicle|Emergency vehicles that)")
 """Where the recommendation's sentences start a new part: a condition's alternative, the
 emergency vehicles, the permits."""

@@ -958,18 +958,18 @@ def test_the_older_steel_is_given_to_the_pins_too_and_matches_a_rating_with_it()
     assert f"lowest truck RF {reported_rf(low.rf):.2f} ({low.case}, {low.controlling})" in w
 
 
-def test_where_the_older_steel_would_post_the_recommendation_says_only_if():
+def test_where_the_older_steel_would_post_the_recommendation_leads_with_the_posting():
     # the demo built 1906 carries the trucks unrestricted with the later steel; with the
-    # older one they need a posting: the headline rests on the grade, and says so
+    # older one they need a posting: the headline rests on the grade, and the posting comes
+    # first, until the grade is confirmed
     from rating.results_build import build_results
 
     res = build_results(rate_bridge(_by_year(1906), ["TYPE-3", "SU4"]))
     text = res.recommendation
-    assert text.startswith("Only if the steel is confirmed of the later grade (coupon tests "
-                           "or mill records), no load restriction is indicated for trucks")
-    assert "If the steel is the older grade (F_y 26 ksi), or until it is confirmed " \
-        "otherwise, post the bridge (lowest truck RF" \
-        in text
+    assert text.startswith("Until the steel is confirmed of the later grade (coupon tests or "
+                           "mill records), post the bridge (lowest truck RF")
+    assert (". If the steel is confirmed of the later grade (coupon tests or mill records), "
+            "no load restriction is indicated for trucks") in text
 
 
 def test_rating_some_members_gives_their_own_ratings():
