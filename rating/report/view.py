@@ -900,16 +900,16 @@ def build_view(results: RatingResults, *, paper: str | None = None,
             results.posting.get(vid), vmap[vid].rating_level, d, vmap[vid].category)))
 
 
-_PARAGRAPH = re.compile(r"(?<=\.) (?=If |Until |Each condition |Permit loads |Emergency vehicles|"
-                        r"An emergency vehicle|Emergency vehicles that)")
-"""Where the recommendation's sentences start a new part: a condition's alternative, the
-emergency vehicles, the permits."""
+_PARAGRAPH = re.compile(r"(?<=\.) (?=If |Until |Each condition |Permit loads )")
+"""Where the recommendation's sentences start a new part: what applies until a condition is
+confirmed, the outcome once it is, the permits. (The emergency vehicles' words stay with the
+outcome they belong to.)"""
 
 
 def paragraphs(text: str) -> tuple[str, ...]:
     """The recommendation in parts for the box (a reader found one bold block of twenty
-    lines): its lead, then each alternative, the emergency vehicles and the permits; the
-    same words, joined by spaces they read as before."""
+    lines): its lead, then what applies until each condition is confirmed, the outcome once
+    it is, and the permits; the same words, joined by spaces they read as before."""
     return tuple(_PARAGRAPH.split(text)) if text else ()
 
 

@@ -543,9 +543,9 @@ def test_the_list_to_verify_of_a_sample_names_the_checks_that_govern(sample_outc
 
 
 def test_the_recommendation_is_set_in_parts_with_the_same_words() -> None:
-    """The box sets the recommendation's lead in bold and each alternative, the emergency
-    vehicles and the permits in a paragraph of their own (a reader found one bold block of
-    twenty lines); joined, the parts are the recommendation word for word."""
+    """The box sets the recommendation's lead in bold and what applies until a condition is
+    confirmed, the outcome once it is and the permits in a paragraph each (a reader found one
+    bold block of twenty lines); joined, the parts are the recommendation word for word."""
     from rating.report.view import paragraphs
 
     text = ("Consider closing the bridge unless L3U4 is confirmed to act (recorded bent): "
@@ -556,5 +556,6 @@ def test_the_recommendation_is_set_in_parts_with_the_same_words() -> None:
             "the bridge for lower loads (...). Permit loads (for the permit's issue, not a "
             "posting): crane, RF 0.71 (L1U1): not as requested.")
     parts = paragraphs(text)
-    assert [p.split()[0] for p in parts] == ["Consider", "If", "Emergency", "If", "Permit"]
+    # (the emergency vehicles' words stay with the outcome they belong to)
+    assert [p.split()[0] for p in parts] == ["Consider", "If", "If", "Permit"]
     assert " ".join(parts) == text
