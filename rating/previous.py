@@ -318,15 +318,17 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
                                      level.get(v.id, ""), then_weight=then_weight,
                                      alike=alike)
         vehicles.append(dataclasses.replace(change, change=words))
-    trucks = [c for c in results.posting if level.get(c) == "legal"
-              and category.get(c) != EMERGENCY and c in previous.cases]
+    rated = [c for c in results.posting if level.get(c) == "legal"
+             and category.get(c) != EMERGENCY]
+    trucks = [c for c in rated if c in previous.cases]
     now_trucks = _trucks([(results.posting[c].action, results.posting[c].posting_tons)
                           for c in trucks])
     then_trucks = _trucks([(previous.cases[c].action, previous.cases[c].posting_tons)
                            for c in trucks])
-    notes = list(_notes(results, previous))
-    every = _trucks([(e.action, e.posting_tons) for c, e in results.posting.items()
-                     if level.get(c) == "legal" and category.get(c) != EMERGENCY])
+    now_rfs = _element_rfs(results)
+    notes = list(_notes(results, previous, now_rfs))
+    every = _trucks([(results.posting[c].action, results.posting[c].posting_tons)
+                     for c in rated])
     if every != now_trucks and now_trucks[0]:
         notes.append("The trucks' outcome then and now is compared over the trucks rated "
                      f"both times; with every truck rated now it is {truck_state(*every, weight)}"
@@ -335,7 +337,7 @@ def compare(results: RatingResults, previous: PreviousRating) -> SincePrevious:
     since = SincePrevious(
         file=previous.file, inspection_date=previous.inspection_date,
         generator=previous.generator, vehicles=tuple(vehicles),
-        elements=_element_changes(results, previous, system), notes=tuple(notes),
+        elements=_element_changes(results, previous, system, now_rfs), notes=tuple(notes),
         out_of_order=order == "later",
         trucks_before=then_trucks[0], limit_before=then_trucks[1],
         trucks_now=now_trucks[0], limit_now=now_trucks[1], weight_unit_before=then_weight,
@@ -526,11 +528,11 @@ def _lowest(rfs: Mapping[str, float], cases: Sequence[str]) -> tuple[float, str]
     return min(found, key=lambda x: x[0]) if found else (math.inf, "")
 
 
-def _element_changes(results: RatingResults, previous: PreviousRating, system: str
+def _element_changes(results: RatingResults, previous: PreviousRating, system: str,
+                     now_rfs: Mapping[str, Mapping[str, float]]
                      ) -> tuple[ElementChange, ...]:
     """The members and pins whose lowest RF over the cases rated both times moved, the
     largest falls first, then those whose findings alone changed."""
-    now_rfs = _element_rfs(results)
     plain_now = [to_plain(f, system) for f in results.findings]
     words_now = _findings_by_member(plain_now, system)
     words_then = _findings_by_member(previous.findings, previous.system)
@@ -619,7 +621,8 @@ def _findings_by_member(findings: Sequence[Mapping[str, Any]], system: str
     return {m: tuple(v) for m, v in out.items()}
 
 
-def _notes(results: RatingResults, previous: PreviousRating) -> tuple[str, ...]:
+def _notes(results: RatingResults, previous: PreviousRating,
+           now: Mapping[str, Mapping[str, float]]) -> tuple[str, ...]:
     """What makes the two ratings differ besides the bridge, for the reader to weigh."""
     notes = []
     date_now, date_then = results.bridge.inspection_date, previous.inspection_date
@@ -651,7 +654,6 @@ def _notes(results: RatingResults, previous: PreviousRating) -> tuple[str, ...]:
         notes.append("Rated now, not in the previous rating: " + ", ".join(new) + ".")
     if gone:
         notes.append("In the previous rating, not rated now: " + ", ".join(gone) + ".")
-    now = _element_rfs(results)
     added = [e for e in now if e not in previous.elements]
     lost = [e for e in previous.elements if e not in now]
     if added or lost:

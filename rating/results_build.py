@@ -653,6 +653,7 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
         cap = rating.capacities[m.label]
         rod = isinstance(rating.bridge.design_of(m.label).section, RodSet)
         i = idx[m.label]
+        path_dw = _path_dw_factor(rating, i)  # (the member's own, for every case)
         live = {}
         ratings = {}
         for cid, load, im in cases:
@@ -664,10 +665,8 @@ def build_results(rating: BridgeRating, extra_warnings: tuple[str, ...] = (),
             r = rating_of[(m.label, cid)]
             ext = r.extreme  # most often one of the two extremes, placed just above
             at = at_hi if ext is hi else at_lo if ext is lo else _position(ext, load, positions)
-            if r.method == "load multiplier":
-                path_dw = _path_dw_factor(rating, i)
-                if r.gamma_dw in path_dw:
-                    r = replace(r, gamma_dw=path_dw[r.gamma_dw])
+            if r.method == "load multiplier" and r.gamma_dw in path_dw:
+                r = replace(r, gamma_dw=path_dw[r.gamma_dw])
             ratings[cid] = Rating(r.rf, r.sense, r.check, _factors(r, positions), r.method, at,
                                   _finding(r.finding, text, positions, rod),
                                   r.dead_at_rating, r.live_at_rating, r.slack_at_rating)
